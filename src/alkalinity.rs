@@ -1,0 +1,162 @@
+//! Total alkalinity and its parts at a given [H+], with derivatives.
+//!
+//! The Dickson (1981) definition, extended with ammonia and sulfide:
+//!
+//! ```text
+//! TA = [HCO3-] + 2[CO3--] + [B(OH)4-] + [OH-] + [HPO4--] + 2[PO4---] + [SiO(OH)3-]
+//!      + [NH3] + [HS-] - [H+]F - [HSO4-] - [HF] - [H3PO4]
+//! ```
+//! Here h is [H+] on the working scale of the [`Constants`].
+
+use crate::constants::Constants;
+use serde::Serialize;
+
+/// Each part of the alkalinity, mol/kg.
+///
+/// # Example
+/// ```
+/// use travertine::{alkalinity::parts, Conditions, Water};
+/// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+/// let p = parts(&k, 1e-8, 2000e-6);
+/// assert!(p.total() > 2000e-6 && p.borate > 0.0);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
+#[non_exhaustive]
+pub struct AlkalinityParts {
+    /// [HCO3-] + 2[CO3--].
+    pub carbonate: f64,
+    /// [B(OH)4-].
+    pub borate: f64,
+    /// [OH-].
+    pub hydroxide: f64,
+    /// [HPO4--] + 2[PO4---] - [H3PO4].
+    pub phosphate: f64,
+    /// [SiO(OH)3-].
+    pub silicate: f64,
+    /// [NH3].
+    pub ammonia: f64,
+    /// [HS-].
+    pub sulfide: f64,
+    /// [H+] on the free scale (counted negatively).
+    pub free_hydrogen: f64,
+    /// [HSO4-] (counted negatively).
+    pub bisulfate: f64,
+    /// [HF] (counted negatively).
+    pub hydrogen_fluoride: f64,
+}
+
+impl AlkalinityParts {
+    /// The total alkalinity these parts make.
+    ///
+    /// ```
+    /// # use travertine::alkalinity::AlkalinityParts;
+    /// assert_eq!(AlkalinityParts::default().total(), 0.0);
+    /// ```
+    pub fn total(&self) -> f64 {
+        self.carbonate + self.non_carbonate()
+    }
+
+    /// Everything but the carbonate part.
+    ///
+    /// ```
+    /// # use travertine::alkalinity::AlkalinityParts;
+    /// assert_eq!(AlkalinityParts::default().non_carbonate(), 0.0);
+    /// ```
+    pub fn non_carbonate(&self) -> f64 {
+        self.borate + self.hydroxide + self.phosphate + self.silicate + self.ammonia + self.sulfide
+            - self.free_hydrogen
+            - self.bisulfate
+            - self.hydrogen_fluoride
+    }
+}
+
+/// Carbonate alkalinity per unit DIC, (K1 h + 2 K1 K2)/(h² + K1 h + K1 K2),
+/// and its derivative with respect to h.
+#[inline]
+pub(crate) fn carbonate_per_dic(k: &Constants, h: f64) -> (f64, f64) {
+    let k12 = k.k1 * k.k2;
+    let n = k.k1 * h + 2.0 * k12;
+    let d = h * h + k.k1 * h + k12;
+    (n / d, (k.k1 * d - n * (2.0 * h + k.k1)) / (d * d))
+}
+
+/// Fraction of a monoprotic acid in its base form, T·K/(K + h), and the derivative.
+#[inline]
+fn base(total: f64, ka: f64, h: f64) -> (f64, f64) {
+    if total == 0.0 {
+        return (0.0, 0.0);
+    }
+    let d = ka + h;
+    (total * ka / d, -total * ka / (d * d))
+}
+
+/// Non-carbonate alkalinity at h and its derivative with respect to h.
+#[inline]
+pub(crate) fn non_carbonate(k: &Constants, h: f64) -> (f64, f64) {
+    let t = &k.totals;
+    let (b, db) = base(t.boron_mol_kg, k.kb, h);
+    let (si, dsi) = base(t.silicate_mol_kg, k.ksi, h);
+    let (nh, dnh) = base(t.ammonia_mol_kg, k.knh4, h);
+    let (hs, dhs) = base(t.sulfide_mol_kg, k.kh2s, h);
+    let oh = k.kw / h;
+    let doh = -oh / h;
+    let ff = k.free_per_working;
+    let hf = h * ff;
+    // HSO4- = ST hf/(KS + hf); HF = FT hf/(KF + hf) (both on the free scale).
+    let ds = k.ks_free + hf;
+    let hso4 = t.sulfate_mol_kg * hf / ds;
+    let dhso4 = t.sulfate_mol_kg * k.ks_free * ff / (ds * ds);
+    let dfl = k.kf_free + hf;
+    let hfl = t.fluoride_mol_kg * hf / dfl;
+    let dhfl = t.fluoride_mol_kg * k.kf_free * ff / (dfl * dfl);
+    let (p, dp) = phosphate(k, h);
+    (
+        b + si + nh + hs + oh + p - hf - hso4 - hfl,
+        db + dsi + dnh + dhs + doh + dp - ff - dhso4 - dhfl,
+    )
+}
+
+#[inline]
+fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
+    let tp = k.totals.phosphate_mol_kg;
+    if tp == 0.0 {
+        return (0.0, 0.0);
+    }
+    let (k1, k12, k123) = (k.kp1, k.kp1 * k.kp2, k.kp1 * k.kp2 * k.kp3);
+    let h2 = h * h;
+    let h3 = h2 * h;
+    let d = h3 + k1 * h2 + k12 * h + k123;
+    let n = k12 * h + 2.0 * k123 - h3;
+    let dn = k12 - 3.0 * h2;
+    let dd = 3.0 * h2 + 2.0 * k1 * h + k12;
+    (tp * n / d, tp * (dn * d - n * dd) / (d * d))
+}
+
+/// Every part of the alkalinity at working-scale h and DIC (mol/kg).
+///
+/// # Example
+/// ```
+/// use travertine::{alkalinity::parts, Conditions, Water};
+/// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+/// let p = parts(&k, 10f64.powf(-8.0402), 2000e-6);
+/// assert!((p.total() * 1e6 - 2300.0).abs() < 0.5); // equations.md §13 worked value (computed)
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn parts(k: &Constants, h: f64, dic_mol_kg: f64) -> AlkalinityParts {
+    let t = &k.totals;
+    let hf = h * k.free_per_working;
+    let (p, _) = phosphate(k, h);
+    AlkalinityParts {
+        carbonate: dic_mol_kg * carbonate_per_dic(k, h).0,
+        borate: base(t.boron_mol_kg, k.kb, h).0,
+        hydroxide: k.kw / h,
+        phosphate: p,
+        silicate: base(t.silicate_mol_kg, k.ksi, h).0,
+        ammonia: base(t.ammonia_mol_kg, k.knh4, h).0,
+        sulfide: base(t.sulfide_mol_kg, k.kh2s, h).0,
+        free_hydrogen: hf,
+        bisulfate: t.sulfate_mol_kg * hf / (k.ks_free + hf),
+        hydrogen_fluoride: t.fluoride_mol_kg * hf / (k.kf_free + hf),
+    }
+}

@@ -1,0 +1,529 @@
+//! Equilibrium constants: the published fits, and their evaluation for one
+//! set of conditions into a plain [`Constants`] value.
+//!
+//! Each acid system, gas and mineral has its own file with one function per
+//! published fit. [`Constants::saline`] evaluates every constant once,
+//! converts it to the working pH scale (the total scale), applies the
+//! Millero (1995) pressure corrections and records a warning for every fit
+//! used outside its published range. The solver reads only the result.
+
+pub mod ammonia;
+pub mod boron;
+pub mod carbonic;
+pub mod fluoride;
+pub mod gas;
+pub mod minerals;
+pub mod nutrients;
+pub mod pressure;
+mod range;
+pub mod sulfate;
+pub mod sulfide;
+pub mod water;
+
+pub use boron::BoronTotalFit;
+pub use carbonic::CarbonicFit;
+pub use fluoride::FluorideFit;
+pub use range::FitRange;
+
+use crate::conditions::Conditions;
+use crate::density::density_kg_m3;
+use crate::error::{Error, Result};
+use crate::scales::{takahashi1982_fh, PhScale};
+use crate::water::Composition;
+use serde::Serialize;
+
+/// The bisulfate fit. Only Dickson (1990) is offered; it is a value so that
+/// the choice is recorded like every other.
+///
+/// ```
+/// use travertine::constants::BisulfateFit;
+/// assert_eq!(BisulfateFit::default().name(), "dickson1990");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Default)]
+#[non_exhaustive]
+pub enum BisulfateFit {
+    /// Dickson (1990), free scale.
+    #[default]
+    #[serde(rename = "dickson1990")]
+    Dickson1990,
+}
+
+impl BisulfateFit {
+    /// Author-year name.
+    ///
+    /// ```
+    /// # use travertine::constants::BisulfateFit;
+    /// assert_eq!(BisulfateFit::Dickson1990.name(), "dickson1990");
+    /// ```
+    pub fn name(self) -> &'static str {
+        "dickson1990"
+    }
+}
+
+impl std::str::FromStr for BisulfateFit {
+    type Err = Error;
+    fn from_str(s: &str) -> Result<Self> {
+        if s.trim().eq_ignore_ascii_case("dickson1990") {
+            Ok(BisulfateFit::Dickson1990)
+        } else {
+            Err(Error::UnknownFit {
+                constant: "bisulfate",
+                name: s.to_string(),
+                accepted: "dickson1990".to_string(),
+            })
+        }
+    }
+}
+
+/// The choice of published fits. `carbonic: None` chooses automatically:
+/// Lueker et al. (2000) inside its window (S 19–43, t 2–35 °C), Millero et
+/// al. (2006) outside it.
+///
+/// # Example
+/// ```
+/// use travertine::constants::{CarbonicFit, Fits};
+/// let fits = Fits::default().with_carbonic(CarbonicFit::Roy1993);
+/// assert_eq!(fits.carbonic, Some(CarbonicFit::Roy1993));
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize)]
+#[non_exhaustive]
+pub struct Fits {
+    /// K1 and K2 of carbonic acid; `None` for the automatic choice.
+    pub carbonic: Option<CarbonicFit>,
+    /// Total boron from salinity.
+    pub boron_total: BoronTotalFit,
+    /// KF of hydrogen fluoride.
+    pub fluoride: FluorideFit,
+    /// KS of bisulfate.
+    pub bisulfate: BisulfateFit,
+}
+
+impl Fits {
+    /// With a carbonic acid fit.
+    ///
+    /// ```
+    /// # use travertine::constants::{CarbonicFit, Fits};
+    /// assert!(Fits::default().with_carbonic(CarbonicFit::Millero2006).carbonic.is_some());
+    /// ```
+    pub fn with_carbonic(mut self, fit: CarbonicFit) -> Self {
+        self.carbonic = Some(fit);
+        self
+    }
+
+    /// With a total-boron ratio.
+    ///
+    /// ```
+    /// # use travertine::constants::{BoronTotalFit, Fits};
+    /// let f = Fits::default().with_boron_total(BoronTotalFit::Uppstrom1974);
+    /// assert_eq!(f.boron_total, BoronTotalFit::Uppstrom1974);
+    /// ```
+    pub fn with_boron_total(mut self, fit: BoronTotalFit) -> Self {
+        self.boron_total = fit;
+        self
+    }
+
+    /// With a fluoride fit.
+    ///
+    /// ```
+    /// # use travertine::constants::{FluorideFit, Fits};
+    /// let f = Fits::default().with_fluoride(FluorideFit::DicksonRiley1979);
+    /// assert_eq!(f.fluoride, FluorideFit::DicksonRiley1979);
+    /// ```
+    pub fn with_fluoride(mut self, fit: FluorideFit) -> Self {
+        self.fluoride = fit;
+        self
+    }
+
+    /// The carbonic fit used at these conditions.
+    ///
+    /// ```
+    /// # use travertine::constants::{CarbonicFit, Fits};
+    /// assert_eq!(Fits::default().carbonic_at(25.0, 35.0), CarbonicFit::Lueker2000);
+    /// assert_eq!(Fits::default().carbonic_at(25.0, 5.0), CarbonicFit::Millero2006);
+    /// ```
+    pub fn carbonic_at(&self, temperature_c: f64, salinity: f64) -> CarbonicFit {
+        self.carbonic.unwrap_or_else(|| {
+            if CarbonicFit::Lueker2000
+                .range()
+                .contains(temperature_c, salinity)
+            {
+                CarbonicFit::Lueker2000
+            } else {
+                CarbonicFit::Millero2006
+            }
+        })
+    }
+}
+
+/// The names of the fits and methods behind a result, by constant.
+/// Serialised as the `constants` object of the JSON output.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize)]
+#[non_exhaustive]
+pub struct FitsUsed {
+    /// CO2 solubility.
+    pub k0: &'static str,
+    /// CO2 fugacity coefficient.
+    pub fugacity: &'static str,
+    /// Water vapour pressure.
+    pub vapour_pressure: &'static str,
+    /// K1 and K2 of carbonic acid.
+    pub carbonic: &'static str,
+    /// KB of boric acid.
+    pub boric: &'static str,
+    /// Total boron.
+    pub boron_total: &'static str,
+    /// KW of water.
+    pub water: &'static str,
+    /// KS of bisulfate.
+    pub bisulfate: &'static str,
+    /// Total sulfate.
+    pub sulfate_total: &'static str,
+    /// KF of hydrogen fluoride.
+    pub fluoride: &'static str,
+    /// Total fluoride.
+    pub fluoride_total: &'static str,
+    /// Phosphoric and silicic acids.
+    pub phosphate_silicate: &'static str,
+    /// Ammonium.
+    pub ammonium: &'static str,
+    /// Hydrogen sulfide.
+    pub sulfide: &'static str,
+    /// Calcite and aragonite solubility.
+    pub minerals: &'static str,
+    /// Calcium.
+    pub calcium: &'static str,
+    /// Pressure corrections.
+    pub pressure: &'static str,
+    /// The NBS scale.
+    pub nbs_scale: &'static str,
+    /// Density for per-litre units.
+    pub density: &'static str,
+}
+
+/// Totals of the acid systems and calcium, mol/kg-soln.
+///
+/// ```
+/// use travertine::{Conditions, Water};
+/// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+/// assert!((k.totals.sulfate_mol_kg - 0.02824).abs() < 5e-6);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
+#[non_exhaustive]
+pub struct Totals {
+    /// Total boron.
+    pub boron_mol_kg: f64,
+    /// Total sulfate.
+    pub sulfate_mol_kg: f64,
+    /// Total fluoride.
+    pub fluoride_mol_kg: f64,
+    /// Total phosphate.
+    pub phosphate_mol_kg: f64,
+    /// Total silicate.
+    pub silicate_mol_kg: f64,
+    /// Total ammonia (NH3 + NH4+).
+    pub ammonia_mol_kg: f64,
+    /// Total sulfide (H2S + HS-).
+    pub sulfide_mol_kg: f64,
+    /// Calcium.
+    pub calcium_mol_kg: f64,
+}
+
+/// Every equilibrium constant for one set of conditions, on the working pH
+/// scale, plus the factors that move the working scale to the others.
+///
+/// The working scale is the total scale in saline water. Acid constants are
+/// K = [H+][A-]/[HA] with [H+] on that scale; `kw` is [H+][OH-].
+/// Constants of acid systems whose total is zero are not evaluated and hold 0.
+///
+/// # Example
+/// ```
+/// use travertine::{Conditions, Water};
+/// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+/// assert!((-k.k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[non_exhaustive]
+pub struct Constants {
+    /// The conditions evaluated.
+    pub conditions: Conditions,
+    /// The working pH scale of every acid constant.
+    pub working_scale: PhScale,
+    /// CO2 solubility, mol kg⁻¹ atm⁻¹.
+    pub k0: f64,
+    /// First dissociation constant of carbonic acid.
+    pub k1: f64,
+    /// Second dissociation constant of carbonic acid.
+    pub k2: f64,
+    /// Boric acid.
+    pub kb: f64,
+    /// Ion product of water.
+    pub kw: f64,
+    /// Phosphoric acid, first.
+    pub kp1: f64,
+    /// Phosphoric acid, second.
+    pub kp2: f64,
+    /// Phosphoric acid, third.
+    pub kp3: f64,
+    /// Silicic acid.
+    pub ksi: f64,
+    /// Ammonium.
+    pub knh4: f64,
+    /// Hydrogen sulfide.
+    pub kh2s: f64,
+    /// Bisulfate, free scale.
+    pub ks_free: f64,
+    /// Hydrogen fluoride, free scale.
+    pub kf_free: f64,
+    /// Calcite solubility product, (mol/kg)².
+    pub ksp_calcite: f64,
+    /// Aragonite solubility product, (mol/kg)².
+    pub ksp_aragonite: f64,
+    /// The totals used.
+    pub totals: Totals,
+    /// [H+] on the free scale per unit of working-scale h.
+    pub free_per_working: f64,
+    /// [H+] on the sea-water scale per unit of working-scale h.
+    pub seawater_per_working: f64,
+    /// [H+] on the total scale per unit of working-scale h.
+    pub total_per_working: f64,
+    /// H+ activity (NBS) per unit of working-scale h.
+    pub nbs_per_working: f64,
+    /// fCO2 / pCO2.
+    pub fugacity_factor: f64,
+    /// Water vapour pressure, atm.
+    pub vapour_pressure_atm: f64,
+    /// Solution density at the surface, kg/m³.
+    pub density_kg_m3: f64,
+    /// The fits behind these numbers.
+    pub fits_used: FitsUsed,
+    /// Every fit used outside its published range, and other cautions.
+    pub warnings: Vec<String>,
+}
+
+impl Constants {
+    /// H on the working scale from a pH on `scale`.
+    ///
+    /// ```
+    /// use travertine::{Conditions, PhScale, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// let h = k.h_from_ph(8.0, PhScale::Total);
+    /// assert!((h - 1e-8).abs() < 1e-20);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn h_from_ph(&self, ph: f64, scale: PhScale) -> f64 {
+        10f64.powf(-ph) / self.per_working(scale)
+    }
+
+    /// pH on `scale` from H on the working scale.
+    ///
+    /// ```
+    /// use travertine::{Conditions, PhScale, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// let sws = k.ph_from_h(1e-8, PhScale::Seawater);
+    /// // About 0.010 below the total scale (equations.md §6, computed); 0.013 with
+    /// // the default Perez & Fraga KF taken on the total scale.
+    /// assert!(8.0 - sws > 0.008 && 8.0 - sws < 0.014);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn ph_from_h(&self, h: f64, scale: PhScale) -> f64 {
+        -(h * self.per_working(scale)).log10()
+    }
+
+    fn per_working(&self, scale: PhScale) -> f64 {
+        match scale {
+            PhScale::Total => self.total_per_working,
+            PhScale::Seawater => self.seawater_per_working,
+            PhScale::Free => self.free_per_working,
+            PhScale::Nbs => self.nbs_per_working,
+        }
+    }
+
+    /// Evaluates every constant for saline water.
+    ///
+    /// # Errors
+    /// [`Error::Computation`] if the density cannot be computed.
+    ///
+    /// ```
+    /// use travertine::{Conditions, constants::{Constants, Fits}, water::Composition};
+    /// let c = Conditions::new(25.0, 35.0)?;
+    /// let k = Constants::saline(&c, &Composition::default(), &Fits::default())?;
+    /// assert!(k.warnings.is_empty());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn saline(conditions: &Conditions, composition: &Composition, fits: &Fits) -> Result<Self> {
+        let t_c = conditions.temperature_c();
+        let t = conditions.temperature_k();
+        let s = conditions.salinity();
+        let p_bar = conditions.pressure_bar();
+        let mut warnings = Vec::new();
+
+        let density = density_kg_m3(s, t_c)?;
+        let totals = composition.saline_totals(s, density, fits.boron_total);
+
+        // Free-scale KS and KF at the surface.
+        sulfate::DICKSON1990_KS_RANGE.check(t_c, s, &mut warnings);
+        let ks0 = sulfate::dickson1990_ln_ks(t, s).exp();
+        fits.fluoride.range().check(t_c, s, &mut warnings);
+        let kf_native = fits.fluoride.kf(t, s);
+        let kf0 = match fits.fluoride.scale() {
+            PhScale::Total => kf_native / (1.0 + totals.sulfate_mol_kg / ks0),
+            _ => kf_native,
+        };
+        let tot0 = 1.0 + totals.sulfate_mol_kg / ks0;
+        let sws0 = tot0 + totals.fluoride_mol_kg / kf0;
+        // K on the sea-water scale = K on the native scale * [H]SWS/[H]native.
+        let total_to_sws0 = sws0 / tot0;
+        let to_sws0 = |scale: PhScale| match scale {
+            PhScale::Total => total_to_sws0,
+            PhScale::Free => sws0,
+            _ => 1.0,
+        };
+
+        let carbonic = fits.carbonic_at(t_c, s);
+        carbonic.range().check(t_c, s, &mut warnings);
+        let (k1n, k2n) = carbonic.k1_k2(t, s);
+        let mut k1 = k1n * to_sws0(carbonic.scale());
+        let mut k2 = k2n * to_sws0(carbonic.scale());
+
+        boron::DICKSON1990_KB_RANGE.check(t_c, s, &mut warnings);
+        let mut kb = boron::dickson1990_ln_kb(t, s).exp() * total_to_sws0;
+        water::MILLERO1995_KW_RANGE.check(t_c, s, &mut warnings);
+        let mut kw = water::millero1995_ln_kw(t, s).exp() * total_to_sws0;
+
+        let (mut kp1, mut kp2, mut kp3, mut ksi) = (0.0, 0.0, 0.0, 0.0);
+        if totals.phosphate_mol_kg > 0.0 || totals.silicate_mol_kg > 0.0 {
+            nutrients::MILLERO1995_NUTRIENT_RANGE.check(t_c, s, &mut warnings);
+        }
+        if totals.phosphate_mol_kg > 0.0 {
+            let (a, b, c) = nutrients::millero1995_ln_kp(t, s);
+            kp1 = a.exp() * total_to_sws0;
+            kp2 = b.exp() * total_to_sws0;
+            kp3 = c.exp() * total_to_sws0;
+        }
+        if totals.silicate_mol_kg > 0.0 {
+            ksi = nutrients::millero1995_ln_ksi(t, s).exp() * total_to_sws0;
+        }
+        let mut knh4 = 0.0;
+        if totals.ammonia_mol_kg > 0.0 {
+            ammonia::JOHANSSON_WEDBORG1980_RANGE.check(t_c, s, &mut warnings);
+            knh4 = 10f64.powf(-ammonia::johansson_wedborg1980_pka(t, s));
+        }
+        let mut kh2s = 0.0;
+        if totals.sulfide_mol_kg > 0.0 {
+            sulfide::MILLERO1988_RANGE.check(t_c, s, &mut warnings);
+            kh2s = 10f64.powf(-sulfide::millero1988_pk1(t, s)) * total_to_sws0;
+        }
+
+        minerals::MUCCI1983_RANGE.check(t_c, s, &mut warnings);
+        let (lc, la) = minerals::mucci1983_log_ksp(t, s);
+        let mut ksp_calcite = 10f64.powf(lc);
+        let mut ksp_aragonite = 10f64.powf(la);
+
+        let (mut ks, mut kf) = (ks0, kf0);
+        if p_bar > 0.0 {
+            use pressure::*;
+            let f = |c: &PressureCoefficients| pressure_factor(c, t_c, p_bar);
+            ks *= f(&KS);
+            kf *= f(&KF);
+            k1 *= f(&K1);
+            k2 *= f(&K2);
+            kb *= f(&KB);
+            kw *= f(&KW);
+            kp1 *= f(&KP1);
+            kp2 *= f(&KP2);
+            kp3 *= f(&KP3);
+            ksi *= f(&KSI);
+            knh4 *= f(&KNH4);
+            kh2s *= f(&KH2S);
+            ksp_calcite *= f(&CALCITE);
+            ksp_aragonite *= f(&ARAGONITE);
+        }
+
+        // Sea-water scale to the working (total) scale at pressure.
+        let tot = 1.0 + totals.sulfate_mol_kg / ks;
+        let sws = tot + totals.fluoride_mol_kg / kf;
+        let sws_to_total = tot / sws;
+        for k in [
+            &mut k1, &mut k2, &mut kb, &mut kw, &mut kp1, &mut kp2, &mut kp3, &mut ksi, &mut knh4,
+            &mut kh2s,
+        ] {
+            *k *= sws_to_total;
+        }
+
+        gas::WEISS1974_RANGE.check(t_c, s, &mut warnings);
+        let k0 = gas::weiss1974_ln_k0(t, s).exp();
+        let fugacity_factor = gas::weiss1974_fugacity_factor(t, conditions.air_pressure_atm());
+        let vapour_pressure_atm = gas::weiss_price1980_vapour_pressure_atm(t, s);
+
+        let seawater_per_working = sws / tot;
+        let fh = takahashi1982_fh(t, s);
+
+        Ok(Constants {
+            conditions: *conditions,
+            working_scale: PhScale::Total,
+            k0,
+            k1,
+            k2,
+            kb,
+            kw,
+            kp1,
+            kp2,
+            kp3,
+            ksi,
+            knh4,
+            kh2s,
+            ks_free: ks,
+            kf_free: kf,
+            ksp_calcite,
+            ksp_aragonite,
+            totals,
+            free_per_working: 1.0 / tot,
+            seawater_per_working,
+            total_per_working: 1.0,
+            nbs_per_working: fh * seawater_per_working,
+            fugacity_factor,
+            vapour_pressure_atm,
+            density_kg_m3: density,
+            fits_used: FitsUsed {
+                k0: "weiss1974",
+                fugacity: "weiss1974",
+                vapour_pressure: "weiss-price1980",
+                carbonic: carbonic.name(),
+                boric: "dickson1990",
+                boron_total: if composition.boron_given() {
+                    "measured"
+                } else {
+                    fits.boron_total.name()
+                },
+                water: "millero1995",
+                bisulfate: fits.bisulfate.name(),
+                sulfate_total: if composition.sulfate_given() {
+                    "measured"
+                } else {
+                    "morris-riley1966"
+                },
+                fluoride: fits.fluoride.name(),
+                fluoride_total: if composition.fluoride_given() {
+                    "measured"
+                } else {
+                    "riley1965"
+                },
+                phosphate_silicate: "millero1995",
+                ammonium: "johansson-wedborg1980",
+                sulfide: "millero1988",
+                minerals: "mucci1983",
+                calcium: if composition.calcium_given() {
+                    "measured"
+                } else {
+                    "riley-tongudai1967"
+                },
+                pressure: "millero1995",
+                nbs_scale: "takahashi1982",
+                density: "teos10",
+            },
+            warnings,
+        })
+    }
+}

@@ -1,0 +1,513 @@
+//! From two measured parameters to [H+] and DIC.
+//!
+//! Every pair reduces to one unknown, h = [H+] on the working scale. Pairs
+//! with a closed form (pH with anything; two carbonate species; DIC with
+//! one species) are solved directly, the quadratics in their numerically
+//! stable forms. Pairs with alkalinity are one bracketed root of the
+//! alkalinity equation in x = ln h over pH 0 to 14, found by the
+//! safeguarded Newton iteration of [`crate::root`], with the analytic
+//! derivative. The first guess for (TA, DIC) is the root of the
+//! carbonate-only quadratic (Munhoven 2013 uses the same idea for his
+//! bounds); other pairs start from the middle of the bracket.
+//!
+//! Two pairs can have two valid states: alkalinity with CO3--, and DIC with
+//! HCO3-. By default the root nearer pH 8 (working scale) is returned, since
+//! natural waters cluster there; [`RootChoice`] picks the other, and the
+//! other root is always reported in a warning.
+
+use crate::alkalinity::{carbonate_per_dic, non_carbonate};
+use crate::constants::Constants;
+use crate::error::{Error, Result};
+use crate::measured::{Measured, Parameter, Value};
+use crate::root::safeguarded_newton;
+use crate::scales::PhScale;
+
+/// Which root to return for the pairs that have two.
+///
+/// ```
+/// use travertine::RootChoice;
+/// let r: RootChoice = "higher-ph".parse()?;
+/// assert_eq!(r, RootChoice::HigherPh);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[non_exhaustive]
+pub enum RootChoice {
+    /// The root nearer pH 8 on the working scale, where natural waters cluster.
+    #[default]
+    Natural,
+    /// The root with the lower pH.
+    LowerPh,
+    /// The root with the higher pH.
+    HigherPh,
+}
+
+impl std::str::FromStr for RootChoice {
+    type Err = Error;
+    fn from_str(s: &str) -> Result<Self> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "natural" => Ok(RootChoice::Natural),
+            "lower-ph" => Ok(RootChoice::LowerPh),
+            "higher-ph" => Ok(RootChoice::HigherPh),
+            _ => Err(Error::UnknownChoice {
+                field: "root",
+                name: s.to_string(),
+                accepted: "natural, lower-ph, higher-ph".to_string(),
+            }),
+        }
+    }
+}
+
+/// Options of a solve.
+///
+/// ```
+/// use travertine::{RootChoice, SolveOptions};
+/// let o = SolveOptions::default().with_root(RootChoice::LowerPh);
+/// assert_eq!(o.root, RootChoice::LowerPh);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[non_exhaustive]
+pub struct SolveOptions {
+    /// Which root to return where two fit.
+    pub root: RootChoice,
+}
+
+impl SolveOptions {
+    /// With a root choice.
+    ///
+    /// ```
+    /// # use travertine::{RootChoice, SolveOptions};
+    /// assert_eq!(SolveOptions::default().with_root(RootChoice::HigherPh).root, RootChoice::HigherPh);
+    /// ```
+    pub fn with_root(mut self, root: RootChoice) -> Self {
+        self.root = root;
+        self
+    }
+}
+
+/// The solved unknowns: working-scale h and DIC (mol/kg), plus any warning.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct Solution {
+    pub h: f64,
+    pub dic: f64,
+    pub warnings: Vec<String>,
+}
+
+/// Lowest working-scale pH searched.
+const PH_MIN: f64 = 0.0;
+/// Highest working-scale pH searched.
+const PH_MAX: f64 = 14.0;
+const LN10: f64 = std::f64::consts::LN_10;
+
+/// The internal form of one measured parameter.
+#[derive(Clone, Copy)]
+enum Known {
+    Ta(f64),
+    Dic(f64),
+    H(f64),
+    Co2(f64),
+    Hco3(f64),
+    Co3(f64),
+}
+
+impl Known {
+    fn rank(self) -> u8 {
+        match self {
+            Known::Ta(_) => 0,
+            Known::Dic(_) => 1,
+            Known::H(_) => 2,
+            Known::Co2(_) => 3,
+            Known::Hco3(_) => 4,
+            Known::Co3(_) => 5,
+        }
+    }
+}
+
+fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<String>) -> Known {
+    let rho = k.density_kg_m3;
+    match (m.parameter(), m.value()) {
+        (_, Value::Ph(ph, scale)) => {
+            let scale = scale.unwrap_or(k.working_scale);
+            if scale == PhScale::Nbs && k.working_scale != PhScale::Nbs {
+                warnings.push(
+                    "pH on the NBS scale in saline water is approximate: it is converted with \
+                     the H+ activity coefficient of Takahashi et al. (1982), and electrode \
+                     junction errors are not known"
+                        .to_string(),
+                );
+            }
+            Known::H(k.h_from_ph(ph, scale))
+        }
+        (Parameter::Pco2, Value::Atm(p)) => Known::Co2(k.k0 * p * k.fugacity_factor),
+        (_, Value::Atm(f)) => Known::Co2(k.k0 * f),
+        (_, Value::MoleFraction(x)) => {
+            let p = x * (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
+            Known::Co2(k.k0 * p * k.fugacity_factor)
+        }
+        (Parameter::Alkalinity, Value::Amount(a)) => Known::Ta(a.mol_kg(rho)),
+        (Parameter::Dic, Value::Amount(a)) => Known::Dic(a.mol_kg(rho)),
+        (Parameter::Hco3, Value::Amount(a)) => Known::Hco3(a.mol_kg(rho)),
+        (Parameter::Co3, Value::Amount(a)) => Known::Co3(a.mol_kg(rho)),
+        (_, Value::Amount(a)) => Known::Co2(a.mol_kg(rho)),
+    }
+}
+
+/// DIC / CO2*, DIC / HCO3-, DIC / CO3-- at h.
+#[inline]
+fn dic_per_co2(k: &Constants, h: f64) -> f64 {
+    1.0 + k.k1 / h + k.k1 * k.k2 / (h * h)
+}
+#[inline]
+fn dic_per_hco3(k: &Constants, h: f64) -> f64 {
+    h / k.k1 + 1.0 + k.k2 / h
+}
+#[inline]
+fn dic_per_co3(k: &Constants, h: f64) -> f64 {
+    h * h / (k.k1 * k.k2) + h / k.k2 + 1.0
+}
+
+struct Pair<'a> {
+    a: &'a Measured,
+    b: &'a Measured,
+}
+
+impl Pair<'_> {
+    fn no_water(&self, reason: String) -> Error {
+        Error::NoWaterFits {
+            first: self.a.parameter().name(),
+            first_value: self.a.describe(),
+            second: self.b.parameter().name(),
+            second_value: self.b.describe(),
+            reason,
+        }
+    }
+    fn no_convergence(&self, iterations: u32) -> Error {
+        Error::NoConvergence {
+            first: self.a.parameter().name(),
+            second: self.b.parameter().name(),
+            iterations,
+        }
+    }
+}
+
+/// Checks that a pair can be used together.
+pub(crate) fn check_pair(a: &Measured, b: &Measured) -> Result<()> {
+    let (pa, pb) = (a.parameter(), b.parameter());
+    if pa == pb {
+        return Err(Error::IncompatiblePair {
+            first: pa.name(),
+            second: pb.name(),
+            reason: "the same parameter twice is one measurement, and two are needed",
+        });
+    }
+    if pa.is_gas() && pb.is_gas() {
+        return Err(Error::IncompatiblePair {
+            first: pa.name(),
+            second: pb.name(),
+            reason: "pCO2, fCO2, xCO2 and CO2* carry the same information (each fixes the \
+                     dissolved CO2); pair one of them with alkalinity, DIC, pH, HCO3 or CO3",
+        });
+    }
+    Ok(())
+}
+
+/// Solves for h and DIC.
+pub(crate) fn solve(
+    k: &Constants,
+    a: &Measured,
+    b: &Measured,
+    options: &SolveOptions,
+) -> Result<Solution> {
+    check_pair(a, b)?;
+    let mut warnings = Vec::new();
+    let mut ka = to_known(k, a, &mut warnings);
+    let mut kb = to_known(k, b, &mut warnings);
+    let (mut ma, mut mb) = (a, b);
+    if ka.rank() > kb.rank() {
+        std::mem::swap(&mut ka, &mut kb);
+        std::mem::swap(&mut ma, &mut mb);
+    }
+    let pair = Pair { a: ma, b: mb };
+    let k12 = k.k1 * k.k2;
+
+    let (h, dic) = match (ka, kb) {
+        (Known::Ta(ta), Known::Dic(dic)) => {
+            let h = ta_root(k, &pair, ta, |h| {
+                let (c, dc) = carbonate_per_dic(k, h);
+                (dic * c, dic * dc)
+            }, carbonate_guess(k, ta, dic))?;
+            (h, dic)
+        }
+        (Known::Ta(ta), Known::H(h)) => {
+            let carb = ta - non_carbonate(k, h).0;
+            if carb <= 0.0 {
+                return Err(pair.no_water(format!(
+                    "at this pH the non-carbonate alkalinity alone is {:.6} µmol/kg, so the \
+                     carbonate alkalinity would be {:.6} µmol/kg, not positive",
+                    (ta - carb) * 1e6,
+                    carb * 1e6
+                )));
+            }
+            (h, carb / carbonate_per_dic(k, h).0)
+        }
+        (Known::Ta(ta), Known::Co2(co2)) => {
+            let h = ta_root(k, &pair, ta, |h| {
+                let v = co2 * (k.k1 / h + 2.0 * k12 / (h * h));
+                (v, -co2 * (k.k1 / (h * h) + 4.0 * k12 / (h * h * h)))
+            }, f64::NAN)?;
+            (h, co2 * dic_per_co2(k, h))
+        }
+        (Known::Ta(ta), Known::Hco3(hco3)) => {
+            let h = ta_root(k, &pair, ta, |h| {
+                (hco3 * (1.0 + 2.0 * k.k2 / h), -2.0 * hco3 * k.k2 / (h * h))
+            }, f64::NAN)?;
+            (h, hco3 * dic_per_hco3(k, h))
+        }
+        (Known::Ta(ta), Known::Co3(co3)) => {
+            let h = ta_co3_root(k, &pair, ta, co3, options.root, &mut warnings)?;
+            (h, co3 * dic_per_co3(k, h))
+        }
+        (Known::Dic(dic), Known::H(h)) => (h, dic),
+        (Known::Dic(dic), Known::Co2(co2)) => {
+            let c = co2 / dic;
+            if c >= 1.0 {
+                return Err(pair.no_water("CO2* must be less than DIC".to_string()));
+            }
+            let disc = c * c * k.k1 * k.k1 + 4.0 * (1.0 - c) * c * k12;
+            ((c * k.k1 + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
+        }
+        (Known::Dic(dic), Known::Hco3(hco3)) => {
+            let h = dic_hco3_root(k, &pair, dic, hco3, options.root, &mut warnings)?;
+            (h, dic)
+        }
+        (Known::Dic(dic), Known::Co3(co3)) => {
+            let c = co3 / dic;
+            if c >= 1.0 {
+                return Err(pair.no_water("CO3 must be less than DIC".to_string()));
+            }
+            let disc = c * c * k.k1 * k.k1 + 4.0 * c * (1.0 - c) * k12;
+            (2.0 * (1.0 - c) * k12 / (c * k.k1 + disc.sqrt()), dic)
+        }
+        (Known::H(h), Known::Co2(co2)) => (h, co2 * dic_per_co2(k, h)),
+        (Known::H(h), Known::Hco3(hco3)) => (h, hco3 * dic_per_hco3(k, h)),
+        (Known::H(h), Known::Co3(co3)) => (h, co3 * dic_per_co3(k, h)),
+        (Known::Co2(co2), Known::Hco3(hco3)) => {
+            let h = k.k1 * co2 / hco3;
+            (h, co2 * dic_per_co2(k, h))
+        }
+        (Known::Co2(co2), Known::Co3(co3)) => {
+            let h = (k12 * co2 / co3).sqrt();
+            (h, co2 * dic_per_co2(k, h))
+        }
+        (Known::Hco3(hco3), Known::Co3(co3)) => {
+            let h = k.k2 * hco3 / co3;
+            (h, hco3 * dic_per_hco3(k, h))
+        }
+        _ => {
+            return Err(Error::IncompatiblePair {
+                first: ma.parameter().name(),
+                second: mb.parameter().name(),
+                reason: "this pair is not supported",
+            })
+        }
+    };
+    let ph = -h.log10();
+    if !(PH_MIN..=PH_MAX).contains(&ph) || !dic.is_finite() || dic <= 0.0 {
+        return Err(pair.no_water(format!(
+            "they imply a pH of {ph:.3} ({} scale), outside {PH_MIN} to {PH_MAX}",
+            k.working_scale.name()
+        )));
+    }
+    Ok(Solution { h, dic, warnings })
+}
+
+/// First guess for (TA, DIC): the root of the carbonate-only equation
+/// TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0, as ln h.
+fn carbonate_guess(k: &Constants, ta: f64, dic: f64) -> f64 {
+    if ta <= 0.0 || ta >= 2.0 * dic {
+        return f64::NAN;
+    }
+    let a = ta;
+    let b = (ta - dic) * k.k1;
+    let c = (ta - 2.0 * dic) * k.k1 * k.k2;
+    let disc = b * b - 4.0 * a * c;
+    if disc < 0.0 {
+        return f64::NAN;
+    }
+    // c < 0 so the positive root is (-b + sqrt(disc)) / 2a = 2c / (-b - sqrt(disc)).
+    let h = if b >= 0.0 {
+        2.0 * c / (-b - disc.sqrt())
+    } else {
+        (-b + disc.sqrt()) / (2.0 * a)
+    };
+    if h > 0.0 {
+        h.ln()
+    } else {
+        f64::NAN
+    }
+}
+
+/// Root in h of carbonate(h) + non_carbonate(h) = ta, where the carbonate
+/// part is decreasing in h (so the whole is decreasing).
+fn ta_root<C>(k: &Constants, pair: &Pair, ta: f64, carbonate: C, guess: f64) -> Result<f64>
+where
+    C: Fn(f64) -> (f64, f64),
+{
+    let f = |x: f64| {
+        let h = x.exp();
+        let (c, dc) = carbonate(h);
+        let (n, dn) = non_carbonate(k, h);
+        (c + n - ta, h * (dc + dn))
+    };
+    let lo = -PH_MAX * LN10;
+    let hi = -PH_MIN * LN10;
+    let (f_lo, _) = f(lo);
+    let (f_hi, _) = f(hi);
+    if f_lo < 0.0 {
+        return Err(pair.no_water(format!(
+            "the alkalinity is higher than any water with that {} can have below pH {PH_MAX}",
+            pair.b.parameter().name()
+        )));
+    }
+    if f_hi > 0.0 {
+        return Err(pair.no_water(format!(
+            "the alkalinity is lower than any water with that {} can have above pH {PH_MIN}",
+            pair.b.parameter().name()
+        )));
+    }
+    let guess = if guess.is_finite() { guess } else { -8.0 * LN10 };
+    safeguarded_newton(f, lo, f_lo, hi, f_hi, guess)
+        .map(f64::exp)
+        .map_err(|n| pair.no_convergence(n))
+}
+
+fn pick(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
+    // lower_h is the higher pH.
+    let ph_of = |h: f64| -h.log10();
+    match root {
+        RootChoice::LowerPh => (higher_h, lower_h),
+        RootChoice::HigherPh => (lower_h, higher_h),
+        RootChoice::Natural => {
+            if (ph_of(lower_h) - 8.0).abs() < (ph_of(higher_h) - 8.0).abs() {
+                (lower_h, higher_h)
+            } else {
+                (higher_h, lower_h)
+            }
+        }
+    }
+}
+
+fn other_root_warning(pair: &Pair, k: &Constants, chosen: f64, other: f64) -> String {
+    let which = if other < chosen { "higher" } else { "lower" };
+    format!(
+        "{} with {} also fits a water of pH {:.4} ({} scale); ask for the {which}-pH root to get it",
+        pair.a.parameter().name(),
+        pair.b.parameter().name(),
+        -other.log10(),
+        k.working_scale.name()
+    )
+}
+
+/// DIC with HCO3-: c h² − (1 − c) K1 h + c K1 K2 = 0, c = HCO3/DIC.
+fn dic_hco3_root(
+    k: &Constants,
+    pair: &Pair,
+    dic: f64,
+    hco3: f64,
+    root: RootChoice,
+    warnings: &mut Vec<String>,
+) -> Result<f64> {
+    let c = hco3 / dic;
+    let q = 1.0 - c;
+    let disc = q * q * k.k1 * k.k1 - 4.0 * c * c * k.k1 * k.k2;
+    if c >= 1.0 || disc < 0.0 {
+        let max = 1.0 / (1.0 + 2.0 * (k.k2 / k.k1).sqrt());
+        return Err(pair.no_water(format!(
+            "HCO3 can be at most {:.4} of DIC at these conditions, but is {:.4} of it",
+            max, c
+        )));
+    }
+    let h_high = (q * k.k1 + disc.sqrt()) / (2.0 * c);
+    let h_low = k.k1 * k.k2 / h_high;
+    let (chosen, other) = pick(root, h_low, h_high);
+    if (h_high / h_low - 1.0).abs() > 1e-9 {
+        warnings.push(other_root_warning(pair, k, chosen, other));
+    }
+    Ok(chosen)
+}
+
+/// Alkalinity with CO3--: g(h) = CO3 (h/K2 + 2) + non-carbonate(h) − TA is
+/// convex in h, so it has a single minimum and up to two roots.
+fn ta_co3_root(
+    k: &Constants,
+    pair: &Pair,
+    ta: f64,
+    co3: f64,
+    root: RootChoice,
+    warnings: &mut Vec<String>,
+) -> Result<f64> {
+    let g = |x: f64| {
+        let h = x.exp();
+        let (n, dn) = non_carbonate(k, h);
+        (co3 * (h / k.k2 + 2.0) + n - ta, h * (co3 / k.k2 + dn))
+    };
+    let lo = -PH_MAX * LN10;
+    let hi = -PH_MIN * LN10;
+    // The minimum: dg/dh = CO3/K2 + d(non-carbonate)/dh = 0.
+    let slope = |x: f64| {
+        let h = x.exp();
+        co3 / k.k2 + non_carbonate(k, h).1
+    };
+    let x_min = if slope(hi) <= 0.0 {
+        hi
+    } else if slope(lo) >= 0.0 {
+        lo
+    } else {
+        let mut conv = roots::SimpleConvergency {
+            eps: 1e-12,
+            max_iter: 200,
+        };
+        roots::find_root_brent(lo, hi, slope, &mut conv).map_err(|_| pair.no_convergence(200))?
+    };
+    let (g_min, _) = g(x_min);
+    if g_min > 0.0 {
+        return Err(pair.no_water(format!(
+            "with that CO3 the alkalinity is at least {:.6} µmol/kg at any pH",
+            (g_min + ta) * 1e6
+        )));
+    }
+    let (g_lo, _) = g(lo);
+    let (g_hi, _) = g(hi);
+    // Root at lower h (higher pH), between lo and x_min.
+    let high_ph = if g_lo >= 0.0 && x_min > lo {
+        Some(
+            safeguarded_newton(g, lo, g_lo, x_min, g_min, 0.5 * (lo + x_min))
+                .map_err(|n| pair.no_convergence(n))?
+                .exp(),
+        )
+    } else {
+        None
+    };
+    let low_ph = if g_hi >= 0.0 && x_min < hi {
+        Some(
+            safeguarded_newton(g, x_min, g_min, hi, g_hi, 0.5 * (x_min + hi))
+                .map_err(|n| pair.no_convergence(n))?
+                .exp(),
+        )
+    } else {
+        None
+    };
+    match (high_ph, low_ph) {
+        (Some(h_low), Some(h_high)) => {
+            let (chosen, other) = pick(root, h_low, h_high);
+            if (h_high / h_low - 1.0).abs() > 1e-9 {
+                warnings.push(other_root_warning(pair, k, chosen, other));
+            }
+            Ok(chosen)
+        }
+        (Some(h), None) | (None, Some(h)) => Ok(h),
+        (None, None) => Err(pair.no_water(format!(
+            "no pH between {PH_MIN} and {PH_MAX} gives that alkalinity with that CO3"
+        ))),
+    }
+}

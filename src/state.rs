@@ -1,0 +1,333 @@
+//! The complete carbonate state of a sample.
+
+use crate::alkalinity::{carbonate_per_dic, non_carbonate, parts};
+use crate::conditions::Conditions;
+use crate::constants::{Constants, FitsUsed};
+use crate::error::Result;
+use crate::measured::Measured;
+use crate::scales::PhScale;
+use crate::solve::{solve, SolveOptions};
+use crate::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
+use crate::water::{Medium, Water};
+use serde::Serialize;
+
+/// Every output of a solve. Field names are the JSON keys of the interface
+/// contract; concentrations are µmol per kg of solution unless the name says
+/// otherwise.
+///
+/// # Formulas
+/// ```text
+/// CO2* = DIC h²/D,  HCO3- = DIC K1 h/D,  CO3-- = DIC K1 K2/D,  D = h² + K1 h + K1 K2
+/// fCO2 = CO2*/K0,  pCO2 = fCO2 / (fugacity coefficient),  xCO2 = pCO2 / (P_air − pH2O)
+/// Ω = [Ca] [CO3--] / Ksp,  SI = log10 Ω
+/// Revelle factor = (∂ ln pCO2 / ∂ ln DIC) at constant alkalinity and totals (analytic)
+/// ```
+///
+/// # Example
+/// ```
+/// use travertine::{Conditions, Measured, Water};
+/// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+/// // equations.md §13 worked values (computed from the published equations)
+/// assert!((s.co3_umol_kg - 210.90).abs() < 0.05);
+/// assert!((s.fco2_uatm - 401.47).abs() < 0.05);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[non_exhaustive]
+pub struct State {
+    /// Temperature, °C.
+    pub temperature_c: f64,
+    /// Practical salinity.
+    pub salinity: f64,
+    /// Gauge pressure, dbar.
+    pub pressure_dbar: f64,
+    /// The medium: `saline`.
+    pub water: Medium,
+    /// pH, total scale.
+    pub ph_total: f64,
+    /// pH, sea-water scale.
+    pub ph_seawater: f64,
+    /// pH, free scale.
+    pub ph_free: f64,
+    /// pH, NBS scale (in saline water an approximation, Takahashi et al. 1982).
+    pub ph_nbs: f64,
+    /// Total alkalinity.
+    pub alkalinity_umol_kg: f64,
+    /// Dissolved inorganic carbon.
+    pub dic_umol_kg: f64,
+    /// CO2* (dissolved CO2 + H2CO3).
+    pub co2_umol_kg: f64,
+    /// Bicarbonate.
+    pub hco3_umol_kg: f64,
+    /// Carbonate.
+    pub co3_umol_kg: f64,
+    /// CO2 fugacity, µatm.
+    pub fco2_uatm: f64,
+    /// CO2 partial pressure (moist air at the air pressure), µatm.
+    pub pco2_uatm: f64,
+    /// CO2 mole fraction in dry air, ppm.
+    pub xco2_ppm: f64,
+    /// Saturation state of calcite.
+    pub omega_calcite: f64,
+    /// Saturation state of aragonite.
+    pub omega_aragonite: f64,
+    /// Saturation index of calcite, log10 Ω.
+    pub si_calcite: f64,
+    /// Saturation index of aragonite, log10 Ω.
+    pub si_aragonite: f64,
+    /// Revelle (buffer) factor.
+    pub revelle_factor: f64,
+    /// Carbonate alkalinity, [HCO3-] + 2[CO3--].
+    pub carbonate_alkalinity_umol_kg: f64,
+    /// Borate alkalinity.
+    pub borate_alkalinity_umol_kg: f64,
+    /// Hydroxide, [OH-].
+    pub hydroxide_umol_kg: f64,
+    /// Phosphate alkalinity, [HPO4--] + 2[PO4---] − [H3PO4].
+    pub phosphate_alkalinity_umol_kg: f64,
+    /// Silicate alkalinity.
+    pub silicate_alkalinity_umol_kg: f64,
+    /// Ammonia alkalinity, [NH3].
+    pub ammonia_alkalinity_umol_kg: f64,
+    /// Sulfide alkalinity, [HS-].
+    pub sulfide_alkalinity_umol_kg: f64,
+    /// Free hydrogen ion, counted against alkalinity.
+    pub free_hydrogen_umol_kg: f64,
+    /// Bisulfate, counted against alkalinity.
+    pub bisulfate_umol_kg: f64,
+    /// Hydrogen fluoride, counted against alkalinity.
+    pub hydrogen_fluoride_umol_kg: f64,
+    /// Calcium used for Ω.
+    pub calcium_umol_kg: f64,
+    /// Alkalinity, mg/L as CaCO3.
+    pub alkalinity_mg_l_caco3: f64,
+    /// DIC, mg/L as C.
+    pub dic_mg_l_c: f64,
+    /// Free CO2 (CO2*), mg/L as CO2.
+    pub free_co2_mg_l: f64,
+    /// Density used for per-litre units, kg/m³ (TEOS-10).
+    pub density_kg_m3: f64,
+    /// The fit used for each constant.
+    pub constants: FitsUsed,
+    /// Cautions: fits used outside their range, other roots, approximations.
+    pub warnings: Vec<String>,
+    #[serde(skip)]
+    water_sample: Water,
+    #[serde(skip)]
+    h: f64,
+}
+
+impl State {
+    /// pH on any scale.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, PhScale, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(8.0, Some(PhScale::Total))?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.ph(PhScale::Total) - 8.0).abs() < 1e-12);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn ph(&self, scale: PhScale) -> f64 {
+        match scale {
+            PhScale::Total => self.ph_total,
+            PhScale::Seawater => self.ph_seawater,
+            PhScale::Free => self.ph_free,
+            PhScale::Nbs => self.ph_nbs,
+        }
+    }
+
+    /// [H+] on the working scale, mol/kg.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, PhScale, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(8.0, None)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.h_mol_kg() - 1e-8).abs() < 1e-20);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn h_mol_kg(&self) -> f64 {
+        self.h
+    }
+
+    /// The water this state was solved for.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::ph(8.0, None)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert_eq!(s.water_sample(), &w);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn water_sample(&self) -> &Water {
+        &self.water_sample
+    }
+
+    /// The same water at other conditions: alkalinity, DIC and the totals are
+    /// kept, and the state is solved again. For example, pH measured in the
+    /// laboratory at 25 °C reported at the in-situ 9 °C and 120 dbar.
+    ///
+    /// # Errors
+    /// As [`Water::at`] and [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let lab = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(7.9, None)?, Measured::alkalinity_umol_kg(2300.0)?)?;
+    /// let field = lab.at(Conditions::new(9.0, 35.0)?.with_pressure_dbar(120.0)?)?;
+    /// assert!((field.dic_umol_kg - lab.dic_umol_kg).abs() < 1e-9);
+    /// assert!(field.ph_total > lab.ph_total); // colder water, higher pH
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn at(&self, conditions: Conditions) -> Result<State> {
+        let water = self.water_sample.at(conditions)?;
+        water.solve(
+            Measured::alkalinity_umol_kg(self.alkalinity_umol_kg)?,
+            Measured::dic_umol_kg(self.dic_umol_kg)?,
+        )
+    }
+
+    /// Builds the state from the solved h and DIC.
+    pub(crate) fn build(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        mut warnings: Vec<String>,
+    ) -> State {
+        let k12 = k.k1 * k.k2;
+        let d = h * h + k.k1 * h + k12;
+        let co2 = dic * h * h / d;
+        let hco3 = dic * k.k1 * h / d;
+        let co3 = dic * k12 / d;
+        let p = parts(k, h, dic);
+        let ta = p.total();
+        let fco2 = co2 / k.k0;
+        let pco2 = fco2 / k.fugacity_factor;
+        let xco2 = pco2 / (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
+        let ca = k.totals.calcium_mol_kg;
+        let omega_c = ca * co3 / k.ksp_calcite;
+        let omega_a = ca * co3 / k.ksp_aragonite;
+
+        // Revelle factor at constant TA: dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
+        let (c, dc) = carbonate_per_dic(k, h);
+        let (_, dn) = non_carbonate(k, h);
+        let dh_ddic = -c / (dic * dc + dn);
+        let revelle = 1.0 + dic * (k.k1 * h + 2.0 * k12) / (h * d) * dh_ddic;
+
+        let rho = k.density_kg_m3;
+        let mut all = k.warnings.clone();
+        all.append(&mut warnings);
+        let u = 1e6;
+        State {
+            temperature_c: k.conditions.temperature_c(),
+            salinity: k.conditions.salinity(),
+            pressure_dbar: k.conditions.pressure_dbar(),
+            water: water.medium(),
+            ph_total: k.ph_from_h(h, PhScale::Total),
+            ph_seawater: k.ph_from_h(h, PhScale::Seawater),
+            ph_free: k.ph_from_h(h, PhScale::Free),
+            ph_nbs: k.ph_from_h(h, PhScale::Nbs),
+            alkalinity_umol_kg: ta * u,
+            dic_umol_kg: dic * u,
+            co2_umol_kg: co2 * u,
+            hco3_umol_kg: hco3 * u,
+            co3_umol_kg: co3 * u,
+            fco2_uatm: fco2 * u,
+            pco2_uatm: pco2 * u,
+            xco2_ppm: xco2 * u,
+            omega_calcite: omega_c,
+            omega_aragonite: omega_a,
+            si_calcite: omega_c.log10(),
+            si_aragonite: omega_a.log10(),
+            revelle_factor: revelle,
+            carbonate_alkalinity_umol_kg: p.carbonate * u,
+            borate_alkalinity_umol_kg: p.borate * u,
+            hydroxide_umol_kg: p.hydroxide * u,
+            phosphate_alkalinity_umol_kg: p.phosphate * u,
+            silicate_alkalinity_umol_kg: p.silicate * u,
+            ammonia_alkalinity_umol_kg: p.ammonia * u,
+            sulfide_alkalinity_umol_kg: p.sulfide * u,
+            free_hydrogen_umol_kg: p.free_hydrogen * u,
+            bisulfate_umol_kg: p.bisulfate * u,
+            hydrogen_fluoride_umol_kg: p.hydrogen_fluoride * u,
+            calcium_umol_kg: ca * u,
+            alkalinity_mg_l_caco3: ta * rho * CACO3_G_EQ,
+            dic_mg_l_c: dic * rho * C_G_MOL,
+            free_co2_mg_l: co2 * rho * CO2_G_MOL,
+            density_kg_m3: rho,
+            constants: k.fits_used.clone(),
+            warnings: all,
+            water_sample: water.clone(),
+            h,
+        }
+    }
+}
+
+impl Water {
+    /// The complete state from two measured parameters, with default options.
+    ///
+    /// # Errors
+    /// [`crate::Error::IncompatiblePair`] for a pair that carries one piece of
+    /// information (two gas parameters, or one parameter twice);
+    /// [`crate::Error::NoWaterFits`] when no water in pH 0–14 fits both;
+    /// [`crate::Error::NoConvergence`] if the solver fails (never a wrong number).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::pco2_uatm(400.0)?, Measured::alkalinity_umol_kg(2300.0)?)?;
+    /// assert!((s.pco2_uatm - 400.0).abs() < 1e-9);
+    /// assert!(w.solve(Measured::pco2_uatm(400.0)?, Measured::xco2_ppm(410.0)?).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {
+        self.solve_with(a, b, &SolveOptions::default())
+    }
+
+    /// As [`Water::solve`], with options (for example which of two roots).
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, RootChoice, SolveOptions, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let opts = SolveOptions::default().with_root(RootChoice::LowerPh);
+    /// let s = w.solve_with(Measured::dic_umol_kg(2000.0)?, Measured::hco3_umol_kg(1777.7)?, &opts)?;
+    /// assert!(s.ph_total < 7.4);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        let k = self.constants()?;
+        self.solve_with_constants(&k, a, b, options)
+    }
+
+    /// As [`Water::solve_with`], reusing constants already evaluated for this
+    /// water (they must come from [`Water::constants`] of the same water).
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, SolveOptions, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let k = w.constants()?;
+    /// for ph in [7.8, 7.9, 8.0] {
+    ///     let s = w.solve_with_constants(&k, Measured::ph(ph, None)?,
+    ///         Measured::alkalinity_umol_kg(2300.0)?, &SolveOptions::default())?;
+    ///     assert!(s.dic_umol_kg > 1800.0);
+    /// }
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve_with_constants(
+        &self,
+        k: &Constants,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+    ) -> Result<State> {
+        let sol = solve(k, &a, &b, options)?;
+        Ok(State::build(self, k, sol.h, sol.dic, sol.warnings))
+    }
+}
