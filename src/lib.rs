@@ -41,6 +41,7 @@ pub mod constants;
 pub mod density;
 pub mod error;
 pub mod measured;
+pub mod report;
 pub(crate) mod root;
 pub mod scales;
 pub mod solve;
