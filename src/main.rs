@@ -150,10 +150,12 @@ fn total(
     };
     let q = Quantity::parse(field, text, &accepted).map_err(at_flag(flag))?;
     let (unit, g) = mass.unwrap_or((Unit::UmolPerKg, 1.0));
-    Amount::from_quantity(q, unit, g).map(Some).ok_or_else(|| FlagError {
-        flag: flag.to_string(),
-        error: format!("unit {} not accepted", q.unit.spelling()),
-    })
+    Amount::from_quantity(q, unit, g)
+        .map(Some)
+        .ok_or_else(|| FlagError {
+            flag: flag.to_string(),
+            error: format!("unit {} not accepted", q.unit.spelling()),
+        })
 }
 
 fn run(a: &SolveArgs) -> Result<String, FlagError> {
@@ -172,7 +174,10 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     .into_iter()
     .filter_map(|(p, v)| v.as_ref().map(|v| (p, v)))
     .collect();
-    let flags: Vec<String> = given.iter().map(|(p, _)| format!("--{}", p.name())).collect();
+    let flags: Vec<String> = given
+        .iter()
+        .map(|(p, _)| format!("--{}", p.name()))
+        .collect();
     if given.len() != 2 {
         return Err(FlagError {
             flag: if flags.is_empty() {
@@ -215,9 +220,12 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let salinity = a.salinity.unwrap_or(0.0);
     let conditions = Conditions::new(a.temperature, salinity)
         .map_err(|e| match e {
-            Error::OutOfRange { field: "salinity", .. } | Error::NotFinite { field: "salinity", .. } => {
-                at_flag("--salinity")(e)
+            Error::OutOfRange {
+                field: "salinity", ..
             }
+            | Error::NotFinite {
+                field: "salinity", ..
+            } => at_flag("--salinity")(e),
             e => at_flag("--temperature")(e),
         })?
         .with_pressure_dbar(a.pressure)
@@ -284,10 +292,14 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let reported = if a.output_temperature.is_some() || a.output_pressure.is_some() {
         let mut c = *water.conditions();
         if let Some(t) = a.output_temperature {
-            c = c.with_temperature_c(t).map_err(at_flag("--output-temperature"))?;
+            c = c
+                .with_temperature_c(t)
+                .map_err(at_flag("--output-temperature"))?;
         }
         if let Some(p) = a.output_pressure {
-            c = c.with_pressure_dbar(p).map_err(at_flag("--output-pressure"))?;
+            c = c
+                .with_pressure_dbar(p)
+                .map_err(at_flag("--output-pressure"))?;
         }
         Some(state.at(c).map_err(at_flag("--output-temperature"))?)
     } else {

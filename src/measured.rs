@@ -226,12 +226,13 @@ impl Measured {
             }
             _ => {
                 let (mass_unit, g) = parameter.mass_unit();
-                let amount =
-                    Amount::from_quantity(quantity, mass_unit, g).ok_or_else(|| Error::WrongUnit {
+                let amount = Amount::from_quantity(quantity, mass_unit, g).ok_or_else(|| {
+                    Error::WrongUnit {
                         field,
                         unit: quantity.unit.spelling().to_string(),
                         accepted: list_units(&accepted),
-                    })?;
+                    }
+                })?;
                 check_range(field, amount.raw() * 1e6, min, max, unit)?;
                 Value::Amount(amount)
             }

@@ -56,9 +56,19 @@ fn rows(s: &State) -> Vec<(&'static str, Vec<Row>)> {
                 ("silicate", s.silicate_alkalinity_umol_kg, "µmol/kg", 3),
                 ("ammonia", s.ammonia_alkalinity_umol_kg, "µmol/kg", 3),
                 ("sulfide", s.sulfide_alkalinity_umol_kg, "µmol/kg", 3),
-                ("free hydrogen (minus)", s.free_hydrogen_umol_kg, "µmol/kg", 4),
+                (
+                    "free hydrogen (minus)",
+                    s.free_hydrogen_umol_kg,
+                    "µmol/kg",
+                    4,
+                ),
                 ("bisulfate (minus)", s.bisulfate_umol_kg, "µmol/kg", 4),
-                ("hydrogen fluoride (minus)", s.hydrogen_fluoride_umol_kg, "µmol/kg", 4),
+                (
+                    "hydrogen fluoride (minus)",
+                    s.hydrogen_fluoride_umol_kg,
+                    "µmol/kg",
+                    4,
+                ),
             ],
         ),
         (
@@ -112,9 +122,7 @@ pub fn table(state: &State, measured: Option<&State>) -> String {
         let _ = writeln!(
             out,
             "\n  {:<label_w$}{:>14}{:>14}",
-            "",
-            "reported",
-            "as measured"
+            "", "reported", "as measured"
         );
     }
     for (i, (title, rs)) in sections.iter().enumerate() {

@@ -38,7 +38,12 @@ pub enum PhScale {
 
 impl PhScale {
     /// Every scale.
-    pub const ALL: [PhScale; 4] = [PhScale::Total, PhScale::Seawater, PhScale::Free, PhScale::Nbs];
+    pub const ALL: [PhScale; 4] = [
+        PhScale::Total,
+        PhScale::Seawater,
+        PhScale::Free,
+        PhScale::Nbs,
+    ];
 
     /// The plain name used on the command line and in output keys.
     ///

@@ -232,10 +232,16 @@ pub(crate) fn solve(
 
     let (h, dic) = match (ka, kb) {
         (Known::Ta(ta), Known::Dic(dic)) => {
-            let h = ta_root(k, &pair, ta, |h| {
-                let (c, dc) = carbonate_per_dic(k, h);
-                (dic * c, dic * dc)
-            }, carbonate_guess(k, ta, dic))?;
+            let h = ta_root(
+                k,
+                &pair,
+                ta,
+                |h| {
+                    let (c, dc) = carbonate_per_dic(k, h);
+                    (dic * c, dic * dc)
+                },
+                carbonate_guess(k, ta, dic),
+            )?;
             (h, dic)
         }
         (Known::Ta(ta), Known::H(h)) => {
@@ -251,16 +257,26 @@ pub(crate) fn solve(
             (h, carb / carbonate_per_dic(k, h).0)
         }
         (Known::Ta(ta), Known::Co2(co2)) => {
-            let h = ta_root(k, &pair, ta, |h| {
-                let v = co2 * (k.k1 / h + 2.0 * k12 / (h * h));
-                (v, -co2 * (k.k1 / (h * h) + 4.0 * k12 / (h * h * h)))
-            }, f64::NAN)?;
+            let h = ta_root(
+                k,
+                &pair,
+                ta,
+                |h| {
+                    let v = co2 * (k.k1 / h + 2.0 * k12 / (h * h));
+                    (v, -co2 * (k.k1 / (h * h) + 4.0 * k12 / (h * h * h)))
+                },
+                f64::NAN,
+            )?;
             (h, co2 * dic_per_co2(k, h))
         }
         (Known::Ta(ta), Known::Hco3(hco3)) => {
-            let h = ta_root(k, &pair, ta, |h| {
-                (hco3 * (1.0 + 2.0 * k.k2 / h), -2.0 * hco3 * k.k2 / (h * h))
-            }, f64::NAN)?;
+            let h = ta_root(
+                k,
+                &pair,
+                ta,
+                |h| (hco3 * (1.0 + 2.0 * k.k2 / h), -2.0 * hco3 * k.k2 / (h * h)),
+                f64::NAN,
+            )?;
             (h, hco3 * dic_per_hco3(k, h))
         }
         (Known::Ta(ta), Known::Co3(co3)) => {
@@ -375,7 +391,11 @@ where
             pair.b.parameter().name()
         )));
     }
-    let guess = if guess.is_finite() { guess } else { -8.0 * LN10 };
+    let guess = if guess.is_finite() {
+        guess
+    } else {
+        -8.0 * LN10
+    };
     safeguarded_newton(f, lo, f_lo, hi, f_hi, guess)
         .map(f64::exp)
         .map_err(|n| pair.no_convergence(n))

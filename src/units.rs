@@ -221,7 +221,11 @@ pub struct Quantity {
 
 /// Lists units for a message.
 pub fn list_units(units: &[Unit]) -> String {
-    units.iter().map(|u| u.spelling()).collect::<Vec<_>>().join(", ")
+    units
+        .iter()
+        .map(|u| u.spelling())
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 /// Length of the longest prefix of `s` that reads as a decimal number.

@@ -63,19 +63,19 @@ pub struct Composition {
     calcium: Option<Amount>,
 }
 
-fn checked(field: &'static str, a: Amount, max: f64) -> Result<Option<Amount>> {
-    check_range(field, a.raw(), 0.0, max, " mol/kg")?;
+fn checked(field: &'static str, a: Amount, min: f64, max: f64) -> Result<Option<Amount>> {
+    check_range(field, a.raw(), min, max, " mol/kg")?;
     Ok(Some(a))
 }
 
 macro_rules! setter {
-    ($(#[$doc:meta])* $fn:ident, $field:ident, $name:literal, $max:expr) => {
+    ($(#[$doc:meta])* $fn:ident, $field:ident, $name:literal, $min:expr, $max:expr) => {
         $(#[$doc])*
         ///
         /// # Errors
         /// [`crate::Error::OutOfRange`] for a negative amount or one above the accepted maximum.
         pub fn $fn(mut self, amount: Amount) -> Result<Self> {
-            self.$field = checked($name, amount, $max)?;
+            self.$field = checked($name, amount, $min, $max)?;
             Ok(self)
         }
     };
@@ -84,28 +84,28 @@ macro_rules! setter {
 impl Composition {
     setter!(
         /// With total phosphate.
-        with_phosphate, phosphate, "phosphate", MINOR_TOTAL_MAX_MOL_KG);
+        with_phosphate, phosphate, "phosphate", 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With total silicate.
-        with_silicate, silicate, "silicate", MINOR_TOTAL_MAX_MOL_KG);
+        with_silicate, silicate, "silicate", 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With total ammonia (NH3 + NH4+).
-        with_ammonia, ammonia, "ammonia", MINOR_TOTAL_MAX_MOL_KG);
+        with_ammonia, ammonia, "ammonia", 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With total sulfide (H2S + HS-).
-        with_sulfide, sulfide, "sulfide", MINOR_TOTAL_MAX_MOL_KG);
+        with_sulfide, sulfide, "sulfide", 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With measured total boron instead of the salinity ratio.
-        with_boron, boron, "boron_total", 0.01);
+        with_boron, boron, "boron_total", 0.0, 0.01);
     setter!(
         /// With measured total sulfate instead of the salinity ratio.
-        with_sulfate, sulfate, "sulfate", 0.1);
+        with_sulfate, sulfate, "sulfate", 0.0, 0.1);
     setter!(
         /// With measured total fluoride instead of the salinity ratio.
-        with_fluoride, fluoride, "fluoride", 0.01);
+        with_fluoride, fluoride, "fluoride", 0.0, 0.01);
     setter!(
         /// With measured calcium instead of the salinity ratio.
-        with_calcium, calcium, "calcium", 0.1);
+        with_calcium, calcium, "calcium", 1e-9, 0.1);
 
     /// Whether calcium was measured.
     ///
@@ -161,7 +161,10 @@ impl Composition {
         use crate::constants::{fluoride, minerals, sulfate};
         Totals {
             boron_mol_kg: get(self.boron, boron.total_mol_kg(salinity)),
-            sulfate_mol_kg: get(self.sulfate, sulfate::morris_riley1966_total_mol_kg(salinity)),
+            sulfate_mol_kg: get(
+                self.sulfate,
+                sulfate::morris_riley1966_total_mol_kg(salinity),
+            ),
             fluoride_mol_kg: get(self.fluoride, fluoride::riley1965_total_mol_kg(salinity)),
             phosphate_mol_kg: get(self.phosphate, 0.0),
             silicate_mol_kg: get(self.silicate, 0.0),
@@ -177,6 +180,9 @@ impl Composition {
 
 /// Lowest temperature accepted for saline water, °C.
 pub const SALINE_TEMPERATURE_MIN_C: f64 = -2.0;
+/// Lowest practical salinity accepted for saline water: below it nothing
+/// of the saline fits is published, and the fresh medium applies.
+pub const SALINE_SALINITY_MIN: f64 = 0.1;
 /// Highest temperature accepted for saline water, °C: the top of the widest
 /// saline carbonic fit (Millero et al. 2006).
 pub const SALINE_TEMPERATURE_MAX_C: f64 = 50.0;
@@ -204,8 +210,8 @@ impl Water {
     /// with no nutrients and the default fits.
     ///
     /// # Errors
-    /// [`crate::Error::OutOfRange`] for a temperature outside −2 to 50 °C, where no
-    /// saline fit is published.
+    /// [`crate::Error::OutOfRange`] for a temperature outside −2 to 50 °C, or a
+    /// salinity below 0.1, where no saline fit is published.
     ///
     /// ```
     /// # use travertine::{Conditions, Water};
@@ -219,6 +225,13 @@ impl Water {
             SALINE_TEMPERATURE_MIN_C,
             SALINE_TEMPERATURE_MAX_C,
             " °C",
+        )?;
+        check_range(
+            "salinity",
+            conditions.salinity(),
+            SALINE_SALINITY_MIN,
+            crate::conditions::SALINITY_MAX,
+            "",
         )?;
         Ok(Self {
             medium: Medium::Saline,
@@ -339,4 +352,3 @@ impl Water {
         }
     }
 }
-

@@ -104,9 +104,7 @@ impl CarbonicFit {
                 let (l1, l2) = roy1993_ln_k1_k2(temperature_k, salinity);
                 return (l1.exp(), l2.exp());
             }
-            CarbonicFit::DicksonMillero1987 => {
-                dickson_millero1987_pk1_pk2(temperature_k, salinity)
-            }
+            CarbonicFit::DicksonMillero1987 => dickson_millero1987_pk1_pk2(temperature_k, salinity),
         };
         (10f64.powf(-a), 10f64.powf(-b))
     }
@@ -202,7 +200,8 @@ pub fn roy1993_ln_k1_k2(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let ln_t = t.ln();
     let rs = s.sqrt();
     let to_soln = (1.0 - 0.001005 * s).ln();
-    let l1 = 2.83655 - 2307.1266 / t - 1.5529413 * ln_t + (-0.20760841 - 4.0484 / t) * rs
+    let l1 = 2.83655 - 2307.1266 / t - 1.5529413 * ln_t
+        + (-0.20760841 - 4.0484 / t) * rs
         + 0.08468345 * s
         - 0.00654208 * s * rs
         + to_soln;

@@ -1,8 +1,8 @@
 //! Hydrogen fluoride: its dissociation constant and total fluoride.
 
 use super::FitRange;
-use crate::error::{Error, Result};
 use crate::constants::sulfate::seawater_ionic_strength;
+use crate::error::{Error, Result};
 use crate::scales::PhScale;
 use serde::Serialize;
 
@@ -61,7 +61,9 @@ impl FluorideFit {
     /// ```
     pub fn range(self) -> FitRange {
         match self {
-            FluorideFit::PerezFraga1987 => FitRange::new("perez-fraga1987", (9.0, 33.0), (10.0, 40.0)),
+            FluorideFit::PerezFraga1987 => {
+                FitRange::new("perez-fraga1987", (9.0, 33.0), (10.0, 40.0))
+            }
             FluorideFit::DicksonRiley1979 => {
                 FitRange::new("dickson-riley1979", (0.0, 45.0), (5.0, 45.0))
             }

@@ -26,11 +26,15 @@ pub fn mucci1983_log_ksp(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let rs = s.sqrt();
     let log_t = t.log10();
-    let cal = -171.9065 - 0.077993 * t + 2839.319 / t + 71.595 * log_t
+    let cal = -171.9065 - 0.077993 * t
+        + 2839.319 / t
+        + 71.595 * log_t
         + (-0.77712 + 0.0028426 * t + 178.34 / t) * rs
         - 0.07711 * s
         + 0.0041249 * s * rs;
-    let arag = -171.945 - 0.077993 * t + 2903.293 / t + 71.595 * log_t
+    let arag = -171.945 - 0.077993 * t
+        + 2903.293 / t
+        + 71.595 * log_t
         + (-0.068393 + 0.0017276 * t + 88.135 / t) * rs
         - 0.10018 * s
         + 0.0059415 * s * rs;

@@ -1,0 +1,292 @@
+//! Drives the built `travertine` binary from the outside: the contract keys
+//! of `solve --json`, the table, and the error paths (exit code 2, a message
+//! naming the bad flag).
+
+use std::process::{Command, Output};
+
+fn travertine(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(args)
+        .output()
+        .expect("the binary runs")
+}
+
+fn stdout(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stdout).into_owned()
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stderr).into_owned()
+}
+
+const SEA: [&str; 4] = ["--temperature", "25", "--salinity", "35"];
+
+fn solve(extra: &[&str]) -> Output {
+    let mut args = vec!["solve"];
+    args.extend_from_slice(extra);
+    args.extend_from_slice(&SEA);
+    travertine(&args)
+}
+
+/// The JSON keys of the interface contract (../shared/design.md) for saline water.
+const CONTRACT_KEYS: &[&str] = &[
+    "temperature_c",
+    "salinity",
+    "pressure_dbar",
+    "ph_total",
+    "ph_seawater",
+    "ph_free",
+    "alkalinity_umol_kg",
+    "dic_umol_kg",
+    "co2_umol_kg",
+    "hco3_umol_kg",
+    "co3_umol_kg",
+    "fco2_uatm",
+    "pco2_uatm",
+    "xco2_ppm",
+    "omega_calcite",
+    "omega_aragonite",
+    "si_calcite",
+    "si_aragonite",
+    "revelle_factor",
+    "borate_alkalinity_umol_kg",
+    "hydroxide_umol_kg",
+    "phosphate_alkalinity_umol_kg",
+    "silicate_alkalinity_umol_kg",
+    "ammonia_alkalinity_umol_kg",
+    "sulfide_alkalinity_umol_kg",
+    "alkalinity_mg_l_caco3",
+    "dic_mg_l_c",
+    "free_co2_mg_l",
+    "water",
+    "constants",
+    "warnings",
+];
+
+#[test]
+fn json_has_every_contract_key() {
+    let o = solve(&[
+        "--alkalinity",
+        "2300umol/kg",
+        "--dic",
+        "2000umol/kg",
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).expect("one JSON object");
+    let obj = v.as_object().expect("an object");
+    for key in CONTRACT_KEYS {
+        assert!(obj.contains_key(*key), "missing key {key}");
+    }
+    assert_eq!(v["water"], "saline");
+    assert_eq!(v["constants"]["carbonic"], "lueker2000");
+    assert!(v["warnings"].as_array().unwrap().is_empty());
+    // equations.md §13 worked value (computed from the published equations).
+    assert!((v["ph_total"].as_f64().unwrap() - 8.0402).abs() < 5e-4);
+}
+
+#[test]
+fn spaced_units_and_trade_units_are_read() {
+    let o = solve(&[
+        "--alkalinity",
+        "117.79 mg/L as CaCO3",
+        "--ph",
+        "8.0402",
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    // 117.79 mg/L CaCO3 at 1023.34 kg/m3 is 2300.0 µmol/kg (conversion, computed).
+    assert!((v["alkalinity_umol_kg"].as_f64().unwrap() - 2300.0).abs() < 0.2);
+}
+
+#[test]
+fn table_is_aligned_with_units() {
+    let o = solve(&["--alkalinity", "2300umol/kg", "--dic", "2000umol/kg"]);
+    assert_eq!(o.status.code(), Some(0));
+    let out = stdout(&o);
+    assert!(out.contains("pH, total scale"));
+    assert!(out.contains("µatm") && out.contains("mg/L as CaCO3"));
+    // Values in one section start in the same column.
+    let cols: Vec<usize> = out
+        .lines()
+        .filter(|l| l.contains("µmol/kg"))
+        .map(|l| l.find("µmol/kg").unwrap())
+        .collect();
+    assert!(
+        cols.windows(2).all(|w| w[0] == w[1]),
+        "units not aligned: {cols:?}"
+    );
+}
+
+#[test]
+fn output_conditions_keep_dic_and_alkalinity() {
+    let o = solve(&[
+        "--alkalinity",
+        "2300umol/kg",
+        "--ph",
+        "7.9",
+        "--output-temperature",
+        "9",
+        "--output-pressure",
+        "120",
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert_eq!(v["temperature_c"], 9.0);
+    assert_eq!(v["pressure_dbar"], 120.0);
+    let m = &v["as_measured"];
+    assert_eq!(m["temperature_c"], 25.0);
+    let (d1, d2) = (
+        v["dic_umol_kg"].as_f64().unwrap(),
+        m["dic_umol_kg"].as_f64().unwrap(),
+    );
+    assert!((d1 - d2).abs() < 1e-6);
+}
+
+#[test]
+fn two_root_pairs_warn_and_can_choose() {
+    let o = solve(&[
+        "--alkalinity",
+        "2300umol/kg",
+        "--co3",
+        "250umol/kg",
+        "--json",
+    ]);
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    let natural = v["ph_total"].as_f64().unwrap();
+    assert!(v["warnings"][0].as_str().unwrap().contains("also fits"));
+    let o = solve(&[
+        "--alkalinity",
+        "2300umol/kg",
+        "--co3",
+        "250umol/kg",
+        "--root",
+        "higher-ph",
+        "--json",
+    ]);
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert!(v["ph_total"].as_f64().unwrap() > natural + 1.0);
+}
+
+fn assert_usage_error(extra: &[&str], flag: &str, words: &str) {
+    let o = solve(extra);
+    let err = stderr(&o);
+    assert_eq!(o.status.code(), Some(2), "args {extra:?}: stderr {err}");
+    assert!(
+        err.contains(flag),
+        "args {extra:?}: `{flag}` not named in: {err}"
+    );
+    assert!(
+        err.contains(words),
+        "args {extra:?}: `{words}` not in: {err}"
+    );
+    assert!(stdout(&o).is_empty());
+}
+
+#[test]
+fn missing_unit_errored() {
+    assert_usage_error(
+        &["--alkalinity", "2300", "--dic", "2000umol/kg"],
+        "--alkalinity",
+        "accepted units: umol/kg",
+    );
+}
+
+#[test]
+fn three_parameters_errored() {
+    assert_usage_error(
+        &[
+            "--alkalinity",
+            "2300umol/kg",
+            "--dic",
+            "2000umol/kg",
+            "--ph",
+            "8",
+        ],
+        "--alkalinity, --dic, --ph",
+        "exactly two",
+    );
+}
+
+#[test]
+fn incompatible_pair_errored() {
+    assert_usage_error(
+        &["--pco2", "400uatm", "--xco2", "410ppm"],
+        "--pco2, --xco2",
+        "same information",
+    );
+}
+
+#[test]
+fn temperature_300_errored() {
+    let o = travertine(&[
+        "solve",
+        "--ph",
+        "8",
+        "--dic",
+        "2000umol/kg",
+        "--temperature",
+        "300",
+        "--salinity",
+        "35",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    let err = stderr(&o);
+    assert!(
+        err.contains("--temperature") && err.contains("300"),
+        "{err}"
+    );
+}
+
+#[test]
+fn ph_20_errored() {
+    assert_usage_error(&["--ph", "20", "--dic", "2000umol/kg"], "--ph", "0 to 14");
+}
+
+#[test]
+fn negative_dic_errored() {
+    assert_usage_error(&["--ph", "8", "--dic", "-5umol/kg"], "--dic", "-5");
+}
+
+#[test]
+fn impossible_pair_errored() {
+    assert_usage_error(
+        &["--dic", "2000umol/kg", "--co3", "3000umol/kg"],
+        "--dic, --co3",
+        "no water fits",
+    );
+}
+
+#[test]
+fn unknown_fit_errored() {
+    assert_usage_error(
+        &[
+            "--ph",
+            "8",
+            "--dic",
+            "2000umol/kg",
+            "--carbonic",
+            "guesswork2024",
+        ],
+        "--carbonic",
+        "lueker2000",
+    );
+}
+
+#[test]
+fn wrong_unit_errored() {
+    assert_usage_error(
+        &["--ph", "8", "--dic", "2000 mg/L CaCO3"],
+        "--dic",
+        "mg/L C",
+    );
+}
+
+#[test]
+fn missing_temperature_is_a_usage_error() {
+    let o = travertine(&["solve", "--ph", "8", "--dic", "2000umol/kg"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--temperature"));
+}

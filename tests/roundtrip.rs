@@ -1,0 +1,231 @@
+//! Property tests over the whole valid saline domain: every valid pair of
+//! outputs solves back to the same state, and nothing panics or yields NaN.
+//!
+//! Tolerance policy (DEVELOPERS.md): a round trip must return every output
+//! within 1e-9 relative. States where the two roots of a two-root pair lie
+//! within 0.1 pH of each other are skipped for that pair only: there the
+//! problem itself is ill-conditioned (a double root), not the solver.
+
+use proptest::prelude::*;
+use travertine::units::Amount;
+use travertine::water::Composition;
+use travertine::{
+    Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
+};
+
+fn measured_from(state: &State, p: Parameter) -> Measured {
+    let m = match p {
+        Parameter::Alkalinity => Measured::alkalinity_umol_kg(state.alkalinity_umol_kg),
+        Parameter::Dic => Measured::dic_umol_kg(state.dic_umol_kg),
+        Parameter::Ph => Measured::ph(state.ph_total, Some(PhScale::Total)),
+        Parameter::Pco2 => Measured::pco2_uatm(state.pco2_uatm),
+        Parameter::Fco2 => Measured::fco2_uatm(state.fco2_uatm),
+        Parameter::Xco2 => Measured::xco2_ppm(state.xco2_ppm),
+        Parameter::Co2 => Measured::co2_umol_kg(state.co2_umol_kg),
+        Parameter::Hco3 => Measured::hco3_umol_kg(state.hco3_umol_kg),
+        Parameter::Co3 => Measured::co3_umol_kg(state.co3_umol_kg),
+        _ => unreachable!("every parameter is listed"),
+    };
+    m.expect("outputs of a valid state are valid inputs")
+}
+
+fn outputs(s: &State) -> [(&'static str, f64); 14] {
+    [
+        ("ph_total", s.ph_total),
+        ("ph_free", s.ph_free),
+        ("alkalinity", s.alkalinity_umol_kg),
+        ("dic", s.dic_umol_kg),
+        ("co2", s.co2_umol_kg),
+        ("hco3", s.hco3_umol_kg),
+        ("co3", s.co3_umol_kg),
+        ("fco2", s.fco2_uatm),
+        ("pco2", s.pco2_uatm),
+        ("xco2", s.xco2_ppm),
+        ("omega_calcite", s.omega_calcite),
+        ("revelle", s.revelle_factor),
+        ("borate", s.borate_alkalinity_umol_kg),
+        ("hydroxide", s.hydroxide_umol_kg),
+    ]
+}
+
+fn mismatch(a: &State, b: &State) -> Option<String> {
+    for ((name, x), (_, y)) in outputs(a).iter().zip(outputs(b).iter()) {
+        let rel = (x - y).abs() / x.abs().max(1e-300);
+        if rel.is_nan() || rel > 1e-9 {
+            return Some(format!("{name}: expected {x}, got {y} (relative {rel:e})"));
+        }
+    }
+    None
+}
+
+fn two_roots(a: Parameter, b: Parameter) -> bool {
+    let mut p = [a, b];
+    p.sort();
+    p == [Parameter::Alkalinity, Parameter::Co3] || p == [Parameter::Dic, Parameter::Hco3]
+}
+
+#[derive(Debug, Clone)]
+struct Case {
+    t: f64,
+    s: f64,
+    p: f64,
+    ta: f64,
+    dic_ratio: f64,
+    nutrients: Option<(f64, f64, f64, f64)>,
+}
+
+fn case() -> impl Strategy<Value = Case> {
+    (
+        0.0..40.0f64,
+        1.0..45.0f64,
+        0.0..5000.0f64,
+        200.0..5000.0f64,
+        0.6..1.15f64,
+        proptest::option::of((0.0..5.0f64, 0.0..150.0f64, 0.0..20.0f64, 0.0..20.0f64)),
+    )
+        .prop_map(|(t, s, p, ta, dic_ratio, nutrients)| Case {
+            t,
+            s,
+            p,
+            ta,
+            dic_ratio,
+            nutrients,
+        })
+}
+
+fn water(c: &Case) -> Water {
+    let cond = Conditions::new(c.t, c.s)
+        .and_then(|x| x.with_pressure_dbar(c.p))
+        .expect("valid conditions");
+    let mut comp = Composition::default();
+    if let Some((po4, si, nh, hs)) = c.nutrients {
+        comp = comp
+            .with_phosphate(Amount::PerKg(po4 * 1e-6))
+            .and_then(|x| x.with_silicate(Amount::PerKg(si * 1e-6)))
+            .and_then(|x| x.with_ammonia(Amount::PerKg(nh * 1e-6)))
+            .and_then(|x| x.with_sulfide(Amount::PerKg(hs * 1e-6)))
+            .expect("valid totals");
+    }
+    Water::saline(cond)
+        .expect("saline range")
+        .with_composition(comp)
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(400))]
+
+    #[test]
+    fn every_pair_returns_the_same_state(c in case()) {
+        let w = water(&c);
+        let base = w.solve(
+            Measured::alkalinity_umol_kg(c.ta).unwrap(),
+            Measured::dic_umol_kg(c.ta * c.dic_ratio).unwrap(),
+        );
+        // Some (TA, DIC) combinations imply a pH outside 0–14: not a state to round-trip.
+        let Ok(base) = base else { return Ok(()); };
+        prop_assume!(base.ph_total > 4.0 && base.ph_total < 10.5);
+        let mut pairs = 0;
+        for (i, &a) in Parameter::ALL.iter().enumerate() {
+            for &b in &Parameter::ALL[i + 1..] {
+                if a.is_gas() && b.is_gas() {
+                    continue;
+                }
+                let (ma, mb) = (measured_from(&base, a), measured_from(&base, b));
+                if two_roots(a, b) {
+                    let lower = w.solve_with(ma, mb, &SolveOptions::default().with_root(RootChoice::LowerPh));
+                    let higher = w.solve_with(ma, mb, &SolveOptions::default().with_root(RootChoice::HigherPh));
+                    let (lower, higher) = (lower.unwrap(), higher.unwrap());
+                    if (lower.ph_total - higher.ph_total).abs() < 0.1 {
+                        continue;
+                    }
+                    let ok = mismatch(&base, &lower).is_none() || mismatch(&base, &higher).is_none();
+                    prop_assert!(ok, "{a:?}+{b:?}: neither root returns the state; lower {:?}, higher {:?}",
+                        mismatch(&base, &lower), mismatch(&base, &higher));
+                    // The default is the root nearer pH 8.
+                    let natural = w.solve(ma, mb).unwrap();
+                    let nearer = if (lower.ph_total - 8.0).abs() < (higher.ph_total - 8.0).abs() { &lower } else { &higher };
+                    prop_assert!(mismatch(nearer, &natural).is_none());
+                    prop_assert!(natural.warnings.iter().any(|w| w.contains("also fits")));
+                } else {
+                    let s = w.solve(ma, mb);
+                    prop_assert!(s.is_ok(), "{a:?}+{b:?} failed: {:?}", s.err());
+                    let s = s.unwrap();
+                    prop_assert!(mismatch(&base, &s).is_none(), "{a:?}+{b:?}: {}", mismatch(&base, &s).unwrap());
+                }
+                pairs += 1;
+            }
+        }
+        prop_assert!(pairs >= 28, "only {pairs} pairs checked");
+    }
+
+    #[test]
+    fn in_situ_and_back_returns_the_state(c in case(), t2 in 0.0..40.0f64, p2 in 0.0..5000.0f64) {
+        let w = water(&c);
+        let Ok(base) = w.solve(
+            Measured::alkalinity_umol_kg(c.ta).unwrap(),
+            Measured::dic_umol_kg(c.ta * c.dic_ratio).unwrap(),
+        ) else { return Ok(()); };
+        let there = Conditions::new(t2, c.s).unwrap().with_pressure_dbar(p2).unwrap();
+        let Ok(moved) = base.at(there) else { return Ok(()); };
+        let back = moved.at(*w.conditions()).unwrap();
+        prop_assert!(mismatch(&base, &back).is_none(), "{}", mismatch(&base, &back).unwrap());
+        prop_assert!((moved.dic_umol_kg / base.dic_umol_kg - 1.0).abs() < 1e-12);
+    }
+}
+
+fn any_value() -> impl Strategy<Value = f64> {
+    prop_oneof![
+        any::<f64>(),
+        Just(f64::NAN),
+        Just(f64::INFINITY),
+        Just(f64::NEG_INFINITY),
+        Just(0.0),
+        -10.0..60.0f64,
+        0.0..10000.0f64,
+    ]
+}
+
+fn all_numbers_finite(v: &serde_json::Value) -> bool {
+    match v {
+        serde_json::Value::Null => false,
+        serde_json::Value::Number(n) => n.as_f64().is_some_and(f64::is_finite),
+        serde_json::Value::Object(m) => m.values().all(all_numbers_finite),
+        serde_json::Value::Array(a) => a.iter().all(all_numbers_finite),
+        _ => true,
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(2000))]
+
+    #[test]
+    fn arbitrary_inputs_never_panic_or_give_nan(
+        t in any_value(), s in any_value(), p in any_value(),
+        ia in 0usize..9, ib in 0usize..9, va in any_value(), vb in any_value(),
+        po4 in any_value(), scale in 0usize..4,
+    ) {
+        let scales = [PhScale::Total, PhScale::Seawater, PhScale::Free, PhScale::Nbs];
+        let make = |i: usize, v: f64| -> travertine::Result<Measured> {
+            match Parameter::ALL[i] {
+                Parameter::Ph => Measured::ph(v, Some(scales[scale])),
+                Parameter::Alkalinity => Measured::alkalinity_umol_kg(v),
+                Parameter::Dic => Measured::dic_umol_kg(v),
+                Parameter::Pco2 => Measured::pco2_uatm(v),
+                Parameter::Fco2 => Measured::fco2_uatm(v),
+                Parameter::Xco2 => Measured::xco2_ppm(v),
+                Parameter::Co2 => Measured::co2_umol_kg(v),
+                Parameter::Hco3 => Measured::hco3_umol_kg(v),
+                _ => Measured::co3_umol_kg(v),
+            }
+        };
+        let result = Conditions::new(t, s)
+            .and_then(|c| c.with_pressure_dbar(p))
+            .and_then(Water::saline)
+            .and_then(|w| Ok(w.with_composition(Composition::default().with_phosphate(Amount::PerKg(po4 * 1e-6))?)))
+            .and_then(|w| w.solve(make(ia, va)?, make(ib, vb)?));
+        if let Ok(state) = result {
+            let json = serde_json::to_value(&state).unwrap();
+            prop_assert!(all_numbers_finite(&json), "non-finite output: {json}");
+        }
+    }
+}
