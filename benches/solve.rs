@@ -1,1 +1,188 @@
-fn main(){}
+//! Benchmarks of a full solve: constants evaluated from scratch, then the
+//! two measured parameters turned into the complete state.
+//!
+//! - `constants/surface`: [`Water::constants`] alone, the floor of every solve;
+//! - `full_solve/<a>+<b>`: [`Water::solve`] for each of the 30 usable pairs
+//!   (the 36 pairs of nine parameters minus the 6 pairs of two gas
+//!   parameters), in sea water at salinity 35, 25 °C, alkalinity 2300 and
+//!   DIC 2000 µmol/kg;
+//! - `deep_nutrients/*`: the same water at 2000 dbar with phosphate 2 and
+//!   silicate 50 µmol/kg, constants and the alkalinity + DIC pair;
+//! - `low_salinity/*`: salinity 5, constants and the alkalinity + DIC pair.
+//!
+//! The values of the other seven parameters come from solving the
+//! alkalinity + DIC pair once, so every pair describes the same water.
+//! Setup checks that every pair solves and gives back that water.
+
+use criterion::{criterion_group, criterion_main, Criterion};
+use std::hint::black_box;
+use std::time::Duration;
+use travertine::units::Amount;
+use travertine::water::Composition;
+use travertine::{Conditions, Measured, Parameter, PhScale, State, Water};
+
+/// Alkalinity of the benchmark water, µmol/kg (demo value).
+const ALKALINITY_UMOL_KG: f64 = 2300.0;
+/// DIC of the benchmark water, µmol/kg (demo value).
+const DIC_UMOL_KG: f64 = 2000.0;
+
+fn sea_water() -> Water {
+    Water::saline(Conditions::new(25.0, 35.0).expect("conditions")).expect("sea water")
+}
+
+fn deep_water_with_nutrients() -> Water {
+    let conditions = Conditions::new(25.0, 35.0)
+        .and_then(|c| c.with_pressure_dbar(2000.0))
+        .expect("conditions at 2000 dbar");
+    let composition = Composition::default()
+        .with_phosphate(Amount::PerKg(2e-6))
+        .and_then(|c| c.with_silicate(Amount::PerKg(50e-6)))
+        .expect("composition");
+    Water::saline(conditions)
+        .expect("deep water")
+        .with_composition(composition)
+}
+
+fn low_salinity_water() -> Water {
+    Water::saline(Conditions::new(25.0, 5.0).expect("conditions")).expect("brackish water")
+}
+
+fn alkalinity_dic() -> (Measured, Measured) {
+    (
+        Measured::alkalinity_umol_kg(ALKALINITY_UMOL_KG).expect("alkalinity"),
+        Measured::dic_umol_kg(DIC_UMOL_KG).expect("dic"),
+    )
+}
+
+/// Parameter `p` as measured in the water of `state`.
+fn measured(p: Parameter, state: &State) -> Measured {
+    let m = match p {
+        Parameter::Alkalinity => Measured::alkalinity_umol_kg(state.alkalinity_umol_kg),
+        Parameter::Dic => Measured::dic_umol_kg(state.dic_umol_kg),
+        Parameter::Ph => Measured::ph(state.ph_total, Some(PhScale::Total)),
+        Parameter::Pco2 => Measured::pco2_uatm(state.pco2_uatm),
+        Parameter::Fco2 => Measured::fco2_uatm(state.fco2_uatm),
+        Parameter::Xco2 => Measured::xco2_ppm(state.xco2_ppm),
+        Parameter::Co2 => Measured::co2_umol_kg(state.co2_umol_kg),
+        Parameter::Hco3 => Measured::hco3_umol_kg(state.hco3_umol_kg),
+        Parameter::Co3 => Measured::co3_umol_kg(state.co3_umol_kg),
+        other => panic!("no benchmark value for parameter {}", other.name()),
+    };
+    m.unwrap_or_else(|e| panic!("{}: {e}", p.name()))
+}
+
+/// Every usable pair, in the order of [`Parameter::ALL`]: 30 of them.
+fn usable_pairs() -> Vec<(Parameter, Parameter)> {
+    let all = Parameter::ALL;
+    let mut pairs = Vec::new();
+    for (i, &a) in all.iter().enumerate() {
+        for &b in &all[i + 1..] {
+            if !(a.is_gas() && b.is_gas()) {
+                pairs.push((a, b));
+            }
+        }
+    }
+    assert_eq!(pairs.len(), 30, "36 pairs minus 6 gas-gas pairs");
+    pairs
+}
+
+/// Solves `a` with `b` once and checks it gives back the reference water:
+/// the same pH and DIC (a consistency check of the benchmark inputs, not a
+/// reference value).
+fn check_pair(water: &Water, reference: &State, a: Measured, b: Measured) {
+    let name = format!("{}+{}", a.parameter().name(), b.parameter().name());
+    let s = water
+        .solve(a, b)
+        .unwrap_or_else(|e| panic!("{name} does not solve: {e}"));
+    assert!(
+        (s.ph_total - reference.ph_total).abs() < 1e-6,
+        "{name}: pH {} against {}",
+        s.ph_total,
+        reference.ph_total
+    );
+    assert!(
+        (s.dic_umol_kg / reference.dic_umol_kg - 1.0).abs() < 1e-6,
+        "{name}: DIC {} against {}",
+        s.dic_umol_kg,
+        reference.dic_umol_kg
+    );
+}
+
+fn bench_constants(c: &mut Criterion) {
+    let water = sea_water();
+    water.constants().expect("constants");
+    let mut group = c.benchmark_group("constants");
+    group.bench_function("surface", |bench| {
+        bench.iter(|| black_box(&water).constants().expect("constants"))
+    });
+    group.finish();
+}
+
+fn bench_full_solve(c: &mut Criterion) {
+    let water = sea_water();
+    let (ta, dic) = alkalinity_dic();
+    let reference = water.solve(ta, dic).expect("reference state");
+    let cases: Vec<(String, Measured, Measured)> = usable_pairs()
+        .into_iter()
+        .map(|(pa, pb)| {
+            let (a, b) = (measured(pa, &reference), measured(pb, &reference));
+            check_pair(&water, &reference, a, b);
+            (format!("{}+{}", pa.name(), pb.name()), a, b)
+        })
+        .collect();
+
+    let mut group = c.benchmark_group("full_solve");
+    for (name, a, b) in &cases {
+        group.bench_function(name.as_str(), |bench| {
+            bench.iter(|| {
+                black_box(&water)
+                    .solve(black_box(*a), black_box(*b))
+                    .expect("solve")
+            })
+        });
+    }
+    group.finish();
+}
+
+/// Constants and the alkalinity + DIC solve for one other water.
+fn bench_other_water(c: &mut Criterion, group_name: &str, water: Water) {
+    let (ta, dic) = alkalinity_dic();
+    water.constants().expect("constants");
+    let reference = water.solve(ta, dic).expect("alkalinity+dic solves");
+    check_pair(&water, &reference, ta, dic);
+
+    let mut group = c.benchmark_group(group_name);
+    group.bench_function("constants", |bench| {
+        bench.iter(|| black_box(&water).constants().expect("constants"))
+    });
+    group.bench_function("alkalinity+dic", |bench| {
+        bench.iter(|| {
+            black_box(&water)
+                .solve(black_box(ta), black_box(dic))
+                .expect("solve")
+        })
+    });
+    group.finish();
+}
+
+fn bench_deep_nutrients(c: &mut Criterion) {
+    bench_other_water(c, "deep_nutrients", deep_water_with_nutrients());
+}
+
+fn bench_low_salinity(c: &mut Criterion) {
+    bench_other_water(c, "low_salinity", low_salinity_water());
+}
+
+fn settings() -> Criterion {
+    Criterion::default()
+        .measurement_time(Duration::from_secs(2))
+        .warm_up_time(Duration::from_secs(1))
+        .sample_size(50)
+}
+
+criterion_group! {
+    name = benches;
+    config = settings();
+    targets = bench_constants, bench_full_solve, bench_deep_nutrients, bench_low_salinity
+}
+criterion_main!(benches);

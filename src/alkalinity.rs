@@ -24,7 +24,7 @@ use serde::Serialize;
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
 #[non_exhaustive]
 pub struct AlkalinityParts {
-    /// [HCO3-] + 2[CO3--].
+    /// [HCO3-] + 2[CO3--] (+ [CaHCO3+] + 2[CaCO3⁰] in fresh water).
     pub carbonate: f64,
     /// [B(OH)4-].
     pub borate: f64,
@@ -71,14 +71,15 @@ impl AlkalinityParts {
     }
 }
 
-/// Carbonate alkalinity per unit DIC, (K1 h + 2 K1 K2)/(h² + K1 h + K1 K2),
+/// Carbonate alkalinity per unit DIC, (K1 h + 2 K1 K2)/(h² + K1 h + K1 K2)
+/// (with the pair-inclusive K1e, K2e),
 /// and its derivative with respect to h.
 #[inline]
 pub(crate) fn carbonate_per_dic(k: &Constants, h: f64) -> (f64, f64) {
-    let k12 = k.k1 * k.k2;
-    let n = k.k1 * h + 2.0 * k12;
-    let d = h * h + k.k1 * h + k12;
-    (n / d, (k.k1 * d - n * (2.0 * h + k.k1)) / (d * d))
+    let k12 = k.k1e * k.k2e;
+    let n = k.k1e * h + 2.0 * k12;
+    let d = h * h + k.k1e * h + k12;
+    (n / d, (k.k1e * d - n * (2.0 * h + k.k1e)) / (d * d))
 }
 
 /// Fraction of a monoprotic acid in its base form, T·K/(K + h), and the derivative.

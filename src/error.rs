@@ -135,6 +135,30 @@ pub enum Error {
     },
 }
 
+impl Error {
+    /// The field the error is about, where there is one (for the first of a pair).
+    ///
+    /// ```
+    /// use travertine::Conditions;
+    /// assert_eq!(Conditions::new(25.0, 99.0).unwrap_err().field(), Some("salinity"));
+    /// ```
+    pub fn field(&self) -> Option<&'static str> {
+        match self {
+            Error::OutOfRange { field, .. }
+            | Error::NotFinite { field, .. }
+            | Error::NotANumber { field, .. }
+            | Error::MissingUnit { field, .. }
+            | Error::WrongUnit { field, .. }
+            | Error::UnknownChoice { field, .. }
+            | Error::Computation { field, .. } => Some(field),
+            Error::UnknownFit { constant, .. } => Some(constant),
+            Error::IncompatiblePair { first, .. }
+            | Error::NoWaterFits { first, .. }
+            | Error::NoConvergence { first, .. } => Some(first),
+        }
+    }
+}
+
 /// Checks that `value` is finite and within `[min, max]`.
 ///
 /// # Errors

@@ -2,12 +2,11 @@
 
 use clap::{Args, Parser, Subcommand};
 use std::process::ExitCode;
-use travertine::constants::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit};
-use travertine::units::{units_with, Amount, Quantity, Unit};
-use travertine::water::Composition;
-use travertine::{
-    Conditions, Error, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
-};
+use travertine::activity::ActivityModel;
+use travertine::constants::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
+use travertine::sample::{Conductivity, MediumChoice, Sample};
+use travertine::units::{Quantity, Unit};
+use travertine::{Error, Measured, Parameter, PhScale, RootChoice, SolveOptions, State};
 
 #[derive(Parser)]
 #[command(
@@ -61,9 +60,44 @@ struct SolveArgs {
     /// Temperature of the measurement, °C.
     #[arg(long, allow_hyphen_values = true)]
     temperature: f64,
-    /// Practical salinity.
+    /// Practical salinity (default: from --conductivity, else 0).
     #[arg(long, allow_hyphen_values = true)]
     salinity: Option<f64>,
+    /// Conductivity with a unit: uS/cm or mS/cm at the sample temperature, or
+    /// "uS/cm@25C" for specific conductance.
+    #[arg(long, allow_hyphen_values = true)]
+    conductivity: Option<String>,
+    /// Total dissolved solids, with a unit: mg/L (fresh water, for the ionic strength).
+    #[arg(long, allow_hyphen_values = true)]
+    tds: Option<String>,
+    /// Ionic strength, mol/kg (fresh water).
+    #[arg(long, allow_hyphen_values = true)]
+    ionic_strength: Option<f64>,
+    /// Activity coefficients in fresh water: davies or extended-debye-huckel.
+    #[arg(long)]
+    activity: Option<String>,
+    /// Total hardness with a unit ("mg/L CaCO3", mmol/L); never taken as calcium
+    /// unless --calcium-fraction is given.
+    #[arg(long, allow_hyphen_values = true)]
+    hardness: Option<String>,
+    /// Fraction of --hardness that is calcium, 0 to 1 (the rest is magnesium).
+    #[arg(long, allow_hyphen_values = true)]
+    calcium_fraction: Option<f64>,
+    /// Magnesium with a unit ("mg/L Mg", "mg/L CaCO3", mmol/L).
+    #[arg(long, allow_hyphen_values = true)]
+    magnesium: Option<String>,
+    /// Sodium with a unit ("mg/L Na", mmol/L).
+    #[arg(long, allow_hyphen_values = true)]
+    sodium: Option<String>,
+    /// Potassium with a unit ("mg/L K", mmol/L).
+    #[arg(long, allow_hyphen_values = true)]
+    potassium: Option<String>,
+    /// Chloride with a unit ("mg/L Cl", mmol/L).
+    #[arg(long, allow_hyphen_values = true)]
+    chloride: Option<String>,
+    /// Sulfate with a unit ("mg/L SO4", mmol/L).
+    #[arg(long, allow_hyphen_values = true)]
+    sulfate: Option<String>,
     /// Gauge pressure at the measurement, dbar.
     #[arg(long, default_value_t = 0.0, allow_hyphen_values = true)]
     pressure: f64,
@@ -103,7 +137,7 @@ struct SolveArgs {
     /// Total sulfide, with a unit (umol/kg, "mg/L S", ...).
     #[arg(long, allow_hyphen_values = true)]
     sulfide: Option<String>,
-    /// Calcium, with a unit (umol/kg, mmol/L, "mg/L Ca", "mg/L CaCO3" as calcium hardness).
+    /// Calcium, with a unit (umol/kg, mmol/L, "mg/L Ca", or "mg/L CaCO3" as calcium hardness).
     #[arg(long, allow_hyphen_values = true)]
     calcium: Option<String>,
     /// Measured total boron, with a unit (umol/kg, ...).
@@ -123,6 +157,25 @@ struct FlagError {
     error: String,
 }
 
+/// The command-line flag of a library field.
+fn flag_of(field: &str) -> String {
+    match field {
+        "temperature_c" => "--temperature".into(),
+        "pressure_dbar" => "--pressure".into(),
+        "air_pressure_atm" => "--air-pressure".into(),
+        "specific_conductance" => "--conductivity".into(),
+        "ph_scale" => "--ph-scale".into(),
+        f => format!("--{}", f.replace('_', "-")),
+    }
+}
+
+fn flagged(e: Error) -> FlagError {
+    FlagError {
+        flag: e.field().map(flag_of).unwrap_or_else(|| "input".into()),
+        error: e.to_string(),
+    }
+}
+
 fn at_flag(flag: &str) -> impl Fn(Error) -> FlagError + '_ {
     move |e| FlagError {
         flag: flag.to_string(),
@@ -130,36 +183,67 @@ fn at_flag(flag: &str) -> impl Fn(Error) -> FlagError + '_ {
     }
 }
 
-fn total(
+fn quantity(field: &'static str, text: &Option<String>) -> Result<Option<Quantity>, FlagError> {
+    text.as_deref()
+        .map(|t| Quantity::parse(field, t, &Sample::units_for(field)))
+        .transpose()
+        .map_err(flagged)
+}
+
+fn parse_opt<T: std::str::FromStr<Err = Error>>(
     flag: &str,
     text: &Option<String>,
-    mass: Option<(Unit, f64)>,
-) -> Result<Option<Amount>, FlagError> {
-    let Some(text) = text else { return Ok(None) };
-    let field = match flag {
-        "--phosphate" => "phosphate",
-        "--silicate" => "silicate",
-        "--ammonia" => "ammonia",
-        "--sulfide" => "sulfide",
-        "--calcium" => "calcium",
-        _ => "boron_total",
-    };
-    let accepted = match mass {
-        Some((unit, _)) => units_with(unit),
-        None => travertine::units::MOLAR_UNITS.to_vec(),
-    };
-    let q = Quantity::parse(field, text, &accepted).map_err(at_flag(flag))?;
-    let (unit, g) = mass.unwrap_or((Unit::UmolPerKg, 1.0));
-    Amount::from_quantity(q, unit, g)
-        .map(Some)
-        .ok_or_else(|| FlagError {
-            flag: flag.to_string(),
-            error: format!("unit {} not accepted", q.unit.spelling()),
-        })
+) -> Result<Option<T>, FlagError> {
+    text.as_deref()
+        .map(str::parse::<T>)
+        .transpose()
+        .map_err(at_flag(flag))
+}
+
+fn sample(a: &SolveArgs) -> Result<Sample, FlagError> {
+    let mut s = Sample::new(a.temperature);
+    s.salinity = a.salinity;
+    s.pressure_dbar = a.pressure;
+    s.air_pressure_atm = Some(a.air_pressure);
+    s.medium = a
+        .water
+        .parse::<MediumChoice>()
+        .map_err(at_flag("--water"))?;
+    s.conductivity = a
+        .conductivity
+        .as_deref()
+        .map(Conductivity::parse)
+        .transpose()
+        .map_err(at_flag("--conductivity"))?;
+    s.carbonic = parse_opt::<CarbonicFit>("--carbonic", &a.carbonic)?;
+    s.boron = parse_opt::<BoronTotalFit>("--boron", &a.boron)?;
+    s.fluoride_fit = parse_opt::<FluorideFit>("--fluoride", &a.fluoride)?;
+    parse_opt::<BisulfateFit>("--bisulfate", &a.bisulfate)?;
+    s.activity = parse_opt::<ActivityModel>("--activity", &a.activity)?;
+    s.phosphate = quantity("phosphate", &a.phosphate)?;
+    s.silicate = quantity("silicate", &a.silicate)?;
+    s.ammonia = quantity("ammonia", &a.ammonia)?;
+    s.sulfide = quantity("sulfide", &a.sulfide)?;
+    s.calcium = quantity("calcium", &a.calcium)?;
+    s.hardness = quantity("hardness", &a.hardness)?;
+    s.calcium_fraction = a.calcium_fraction;
+    s.magnesium = quantity("magnesium", &a.magnesium)?;
+    s.sodium = quantity("sodium", &a.sodium)?;
+    s.potassium = quantity("potassium", &a.potassium)?;
+    s.chloride = quantity("chloride", &a.chloride)?;
+    s.sulfate = quantity("sulfate", &a.sulfate)?;
+    s.boron_total = quantity("boron_total", &a.boron_total)?;
+    s.tds_mg_l = a
+        .tds
+        .as_deref()
+        .map(|t| Quantity::parse("tds", t, &[Unit::MgPerL]).map(|q| q.value))
+        .transpose()
+        .map_err(flagged)?;
+    s.ionic_strength = a.ionic_strength;
+    Ok(s)
 }
 
 fn run(a: &SolveArgs) -> Result<String, FlagError> {
-    use travertine::units::*;
     let given: Vec<(Parameter, &String)> = [
         (Parameter::Alkalinity, &a.alkalinity),
         (Parameter::Dic, &a.dic),
@@ -192,12 +276,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
             ),
         });
     }
-    let scale = a
-        .ph_scale
-        .as_deref()
-        .map(str::parse::<PhScale>)
-        .transpose()
-        .map_err(at_flag("--ph-scale"))?;
+    let scale = parse_opt::<PhScale>("--ph-scale", &a.ph_scale)?;
     let mut measured = Vec::with_capacity(2);
     for (p, text) in &given {
         let flag = format!("--{}", p.name());
@@ -210,84 +289,16 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         } else {
             Measured::parse(*p, text)
         }
-        .map_err(|e| FlagError {
-            flag: flag.clone(),
-            error: e.to_string(),
-        })?;
+        .map_err(at_flag(&flag))?;
         measured.push(m);
     }
 
-    let salinity = a.salinity.unwrap_or(0.0);
-    let conditions = Conditions::new(a.temperature, salinity)
-        .map_err(|e| match e {
-            Error::OutOfRange {
-                field: "salinity", ..
-            }
-            | Error::NotFinite {
-                field: "salinity", ..
-            } => at_flag("--salinity")(e),
-            e => at_flag("--temperature")(e),
-        })?
-        .with_pressure_dbar(a.pressure)
-        .map_err(at_flag("--pressure"))?
-        .with_air_pressure_atm(a.air_pressure)
-        .map_err(at_flag("--air-pressure"))?;
-
-    let mut fits = Fits::default();
-    if let Some(c) = &a.carbonic {
-        fits = fits.with_carbonic(c.parse::<CarbonicFit>().map_err(at_flag("--carbonic"))?);
-    }
-    if let Some(b) = &a.boron {
-        fits = fits.with_boron_total(b.parse::<BoronTotalFit>().map_err(at_flag("--boron"))?);
-    }
-    if let Some(f) = &a.fluoride {
-        fits = fits.with_fluoride(f.parse::<FluorideFit>().map_err(at_flag("--fluoride"))?);
-    }
-    if let Some(b) = &a.bisulfate {
-        b.parse::<BisulfateFit>().map_err(at_flag("--bisulfate"))?;
-    }
-
-    let mut comp = Composition::default();
-    let set = |r: Result<Composition, Error>, flag: &str| r.map_err(at_flag(flag));
-    if let Some(v) = total("--phosphate", &a.phosphate, Some((Unit::MgPerLP, P_G_MOL)))? {
-        comp = set(comp.with_phosphate(v), "--phosphate")?;
-    }
-    if let Some(v) = total("--silicate", &a.silicate, Some((Unit::MgPerLSi, SI_G_MOL)))? {
-        comp = set(comp.with_silicate(v), "--silicate")?;
-    }
-    if let Some(v) = total("--ammonia", &a.ammonia, Some((Unit::MgPerLN, N_G_MOL)))? {
-        comp = set(comp.with_ammonia(v), "--ammonia")?;
-    }
-    if let Some(v) = total("--sulfide", &a.sulfide, Some((Unit::MgPerLS, S_G_MOL)))? {
-        comp = set(comp.with_sulfide(v), "--sulfide")?;
-    }
-    if let Some(v) = total("--calcium", &a.calcium, Some((Unit::MgPerLCa, CA_G_MOL)))? {
-        comp = set(comp.with_calcium(v), "--calcium")?;
-    }
-    if let Some(v) = total("--boron-total", &a.boron_total, None)? {
-        comp = set(comp.with_boron(v), "--boron-total")?;
-    }
-
-    let water = match a.water.as_str() {
-        "saline" | "auto" => Water::saline(conditions).map_err(at_flag("--temperature"))?,
-        other => {
-            return Err(FlagError {
-                flag: "--water".to_string(),
-                error: format!("unknown or unavailable medium `{other}`; accepted: saline, auto"),
-            })
-        }
-    }
-    .with_fits(fits)
-    .with_composition(comp);
-
+    let water = sample(a)?.water().map_err(flagged)?;
     let root: RootChoice = a.root.parse().map_err(at_flag("--root"))?;
     let options = SolveOptions::default().with_root(root);
     let state = water
         .solve_with(measured[0], measured[1], &options)
-        .map_err(|e| FlagError {
-            flag: flags.join(", "),
-            error: e.to_string(),
-        })?;
+        .map_err(at_flag(&flags.join(", ")))?;
 
     let reported = if a.output_temperature.is_some() || a.output_pressure.is_some() {
         let mut c = *water.conditions();

@@ -1,22 +1,55 @@
 //! Human-readable output: an aligned table with units.
 
 use crate::state::State;
+use crate::water::Medium;
 use std::fmt::Write;
 
 /// One row of the table: label, value, unit, number of decimals.
 type Row = (&'static str, f64, &'static str, usize);
 
+fn opt(v: Option<f64>) -> f64 {
+    v.unwrap_or(f64::NAN)
+}
+
 fn rows(s: &State) -> Vec<(&'static str, Vec<Row>)> {
-    vec![
-        (
-            "Acidity",
-            vec![
-                ("pH, total scale", s.ph_total, "", 4),
-                ("pH, sea-water scale", s.ph_seawater, "", 4),
-                ("pH, free scale", s.ph_free, "", 4),
-                ("pH, NBS scale (approximate)", s.ph_nbs, "", 4),
-            ],
-        ),
+    let fresh = s.water == Medium::Fresh;
+    let acidity = if fresh {
+        vec![
+            ("pH, NBS scale", s.ph_nbs, "", 4),
+            ("pH, free scale", s.ph_free, "", 4),
+        ]
+    } else {
+        vec![
+            ("pH, total scale", s.ph_total, "", 4),
+            ("pH, sea-water scale", s.ph_seawater, "", 4),
+            ("pH, free scale", s.ph_free, "", 4),
+            ("pH, NBS scale (approximate)", s.ph_nbs, "", 4),
+        ]
+    };
+    let mut saturation = vec![
+        ("calcite Ω", opt(s.omega_calcite), "", 3),
+        ("aragonite Ω", opt(s.omega_aragonite), "", 3),
+        ("calcite SI (log10 Ω)", opt(s.si_calcite), "", 3),
+        ("aragonite SI (log10 Ω)", opt(s.si_aragonite), "", 3),
+        ("calcium", opt(s.calcium_umol_kg), "µmol/kg", 1),
+    ];
+    if fresh {
+        saturation.extend([
+            ("free calcium", opt(s.calcium_free_umol_kg), "µmol/kg", 1),
+            ("CaHCO3+ pair", opt(s.cahco3_umol_kg), "µmol/kg", 2),
+            ("CaCO3 pair", opt(s.caco3_pair_umol_kg), "µmol/kg", 2),
+            ("saturation pH, pHs (NBS)", opt(s.saturation_ph_nbs), "", 3),
+            ("Langelier index", opt(s.langelier_index), "", 3),
+            (
+                "CaCO3 precipitation potential",
+                opt(s.precipitation_potential_mg_l_caco3),
+                "mg/L as CaCO3",
+                2,
+            ),
+        ]);
+    }
+    let mut sections = vec![
+        ("Acidity", acidity),
         (
             "Carbon",
             vec![
@@ -36,16 +69,7 @@ fn rows(s: &State) -> Vec<(&'static str, Vec<Row>)> {
                 ("xCO2 (dry air)", s.xco2_ppm, "ppm", 2),
             ],
         ),
-        (
-            "Saturation",
-            vec![
-                ("calcite Ω", s.omega_calcite, "", 3),
-                ("aragonite Ω", s.omega_aragonite, "", 3),
-                ("calcite SI (log10 Ω)", s.si_calcite, "", 3),
-                ("aragonite SI (log10 Ω)", s.si_aragonite, "", 3),
-                ("calcium used", s.calcium_umol_kg, "µmol/kg", 1),
-            ],
-        ),
+        ("Saturation", saturation),
         (
             "Alkalinity parts",
             vec![
@@ -80,17 +104,41 @@ fn rows(s: &State) -> Vec<(&'static str, Vec<Row>)> {
                 ("density used", s.density_kg_m3, "kg/m3", 3),
             ],
         ),
-    ]
+    ];
+    let mut medium = vec![("ionic strength", s.ionic_strength, "mol/kg", 5)];
+    if fresh {
+        medium.extend([
+            (
+                "activity coefficient, z = 1",
+                opt(s.gamma_monovalent),
+                "",
+                4,
+            ),
+            ("activity coefficient, z = 2", opt(s.gamma_divalent), "", 4),
+            (
+                "charge balance of ions given",
+                opt(s.charge_balance_percent),
+                "%",
+                2,
+            ),
+        ]);
+    }
+    sections.push(("Medium", medium));
+    sections
 }
 
 fn header(s: &State) -> String {
-    format!(
+    let mut h = format!(
         "{} water at {} °C, salinity {}, {} dbar",
         s.water.name(),
         s.temperature_c,
-        s.salinity,
+        (s.salinity * 1e4).round() / 1e4,
         s.pressure_dbar
-    )
+    );
+    if let Some(r) = s.ionic_strength_from {
+        h.push_str(&format!("; ionic strength from {}", r.name()));
+    }
+    h
 }
 
 /// An aligned table of a state, with units. When `measured` is given (the

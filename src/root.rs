@@ -59,6 +59,11 @@ where
         } else {
             xh = x;
         }
+        if dfx != 0.0 && dfx.is_finite() && (fx / dfx).abs() < X_TOLERANCE {
+            // Converged: a Newton step below the tolerance, even where the
+            // bracket end sits on x itself and the inside test cannot hold.
+            return Ok(x - fx / dfx);
+        }
         let newton_ok = dfx != 0.0 && dfx.is_finite() && {
             let xn = x - fx / dfx;
             let inside = (xn - xl) * (xn - xh) < 0.0;

@@ -128,6 +128,15 @@ fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<String>) -> Known {
     match (m.parameter(), m.value()) {
         (_, Value::Ph(ph, scale)) => {
             let scale = scale.unwrap_or(k.working_scale);
+            if k.working_scale == PhScale::Nbs
+                && matches!(scale, PhScale::Total | PhScale::Seawater)
+            {
+                warnings.push(format!(
+                    "pH on the {} scale in fresh water is taken through the free scale with \
+                     the sulfate and fluoride given; fresh-water pH is normally NBS",
+                    scale.name()
+                ));
+            }
             if scale == PhScale::Nbs && k.working_scale != PhScale::Nbs {
                 warnings.push(
                     "pH on the NBS scale in saline water is approximate: it is converted with \
@@ -146,8 +155,9 @@ fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<String>) -> Known {
         }
         (Parameter::Alkalinity, Value::Amount(a)) => Known::Ta(a.mol_kg(rho)),
         (Parameter::Dic, Value::Amount(a)) => Known::Dic(a.mol_kg(rho)),
-        (Parameter::Hco3, Value::Amount(a)) => Known::Hco3(a.mol_kg(rho)),
-        (Parameter::Co3, Value::Amount(a)) => Known::Co3(a.mol_kg(rho)),
+        // Free ions, turned into their carbon-balance totals (with Ca pairs).
+        (Parameter::Hco3, Value::Amount(a)) => Known::Hco3(a.mol_kg(rho) * (1.0 + k.pair_hco3)),
+        (Parameter::Co3, Value::Amount(a)) => Known::Co3(a.mol_kg(rho) * (1.0 + k.pair_co3)),
         (_, Value::Amount(a)) => Known::Co2(a.mol_kg(rho)),
     }
 }
@@ -155,15 +165,15 @@ fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<String>) -> Known {
 /// DIC / CO2*, DIC / HCO3-, DIC / CO3-- at h.
 #[inline]
 fn dic_per_co2(k: &Constants, h: f64) -> f64 {
-    1.0 + k.k1 / h + k.k1 * k.k2 / (h * h)
+    1.0 + k.k1e / h + k.k1e * k.k2e / (h * h)
 }
 #[inline]
 fn dic_per_hco3(k: &Constants, h: f64) -> f64 {
-    h / k.k1 + 1.0 + k.k2 / h
+    h / k.k1e + 1.0 + k.k2e / h
 }
 #[inline]
 fn dic_per_co3(k: &Constants, h: f64) -> f64 {
-    h * h / (k.k1 * k.k2) + h / k.k2 + 1.0
+    h * h / (k.k1e * k.k2e) + h / k.k2e + 1.0
 }
 
 struct Pair<'a> {
@@ -228,7 +238,7 @@ pub(crate) fn solve(
         std::mem::swap(&mut ma, &mut mb);
     }
     let pair = Pair { a: ma, b: mb };
-    let k12 = k.k1 * k.k2;
+    let k12 = k.k1e * k.k2e;
 
     let (h, dic) = match (ka, kb) {
         (Known::Ta(ta), Known::Dic(dic)) => {
@@ -262,8 +272,8 @@ pub(crate) fn solve(
                 &pair,
                 ta,
                 |h| {
-                    let v = co2 * (k.k1 / h + 2.0 * k12 / (h * h));
-                    (v, -co2 * (k.k1 / (h * h) + 4.0 * k12 / (h * h * h)))
+                    let v = co2 * (k.k1e / h + 2.0 * k12 / (h * h));
+                    (v, -co2 * (k.k1e / (h * h) + 4.0 * k12 / (h * h * h)))
                 },
                 f64::NAN,
             )?;
@@ -274,7 +284,12 @@ pub(crate) fn solve(
                 k,
                 &pair,
                 ta,
-                |h| (hco3 * (1.0 + 2.0 * k.k2 / h), -2.0 * hco3 * k.k2 / (h * h)),
+                |h| {
+                    (
+                        hco3 * (1.0 + 2.0 * k.k2e / h),
+                        -2.0 * hco3 * k.k2e / (h * h),
+                    )
+                },
                 f64::NAN,
             )?;
             (h, hco3 * dic_per_hco3(k, h))
@@ -289,8 +304,8 @@ pub(crate) fn solve(
             if c >= 1.0 {
                 return Err(pair.no_water("CO2* must be less than DIC".to_string()));
             }
-            let disc = c * c * k.k1 * k.k1 + 4.0 * (1.0 - c) * c * k12;
-            ((c * k.k1 + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
+            let disc = c * c * k.k1e * k.k1e + 4.0 * (1.0 - c) * c * k12;
+            ((c * k.k1e + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
         }
         (Known::Dic(dic), Known::Hco3(hco3)) => {
             let h = dic_hco3_root(k, &pair, dic, hco3, options.root, &mut warnings)?;
@@ -301,14 +316,14 @@ pub(crate) fn solve(
             if c >= 1.0 {
                 return Err(pair.no_water("CO3 must be less than DIC".to_string()));
             }
-            let disc = c * c * k.k1 * k.k1 + 4.0 * c * (1.0 - c) * k12;
-            (2.0 * (1.0 - c) * k12 / (c * k.k1 + disc.sqrt()), dic)
+            let disc = c * c * k.k1e * k.k1e + 4.0 * c * (1.0 - c) * k12;
+            (2.0 * (1.0 - c) * k12 / (c * k.k1e + disc.sqrt()), dic)
         }
         (Known::H(h), Known::Co2(co2)) => (h, co2 * dic_per_co2(k, h)),
         (Known::H(h), Known::Hco3(hco3)) => (h, hco3 * dic_per_hco3(k, h)),
         (Known::H(h), Known::Co3(co3)) => (h, co3 * dic_per_co3(k, h)),
         (Known::Co2(co2), Known::Hco3(hco3)) => {
-            let h = k.k1 * co2 / hco3;
+            let h = k.k1e * co2 / hco3;
             (h, co2 * dic_per_co2(k, h))
         }
         (Known::Co2(co2), Known::Co3(co3)) => {
@@ -316,7 +331,7 @@ pub(crate) fn solve(
             (h, co2 * dic_per_co2(k, h))
         }
         (Known::Hco3(hco3), Known::Co3(co3)) => {
-            let h = k.k2 * hco3 / co3;
+            let h = k.k2e * hco3 / co3;
             (h, hco3 * dic_per_hco3(k, h))
         }
         _ => {
@@ -344,8 +359,8 @@ fn carbonate_guess(k: &Constants, ta: f64, dic: f64) -> f64 {
         return f64::NAN;
     }
     let a = ta;
-    let b = (ta - dic) * k.k1;
-    let c = (ta - 2.0 * dic) * k.k1 * k.k2;
+    let b = (ta - dic) * k.k1e;
+    let c = (ta - 2.0 * dic) * k.k1e * k.k2e;
     let disc = b * b - 4.0 * a * c;
     if disc < 0.0 {
         return f64::NAN;
@@ -439,16 +454,16 @@ fn dic_hco3_root(
 ) -> Result<f64> {
     let c = hco3 / dic;
     let q = 1.0 - c;
-    let disc = q * q * k.k1 * k.k1 - 4.0 * c * c * k.k1 * k.k2;
+    let disc = q * q * k.k1e * k.k1e - 4.0 * c * c * k.k1e * k.k2e;
     if c >= 1.0 || disc < 0.0 {
-        let max = 1.0 / (1.0 + 2.0 * (k.k2 / k.k1).sqrt());
+        let max = 1.0 / (1.0 + 2.0 * (k.k2e / k.k1e).sqrt());
         return Err(pair.no_water(format!(
             "HCO3 can be at most {:.4} of DIC at these conditions, but is {:.4} of it",
             max, c
         )));
     }
-    let h_high = (q * k.k1 + disc.sqrt()) / (2.0 * c);
-    let h_low = k.k1 * k.k2 / h_high;
+    let h_high = (q * k.k1e + disc.sqrt()) / (2.0 * c);
+    let h_low = k.k1e * k.k2e / h_high;
     let (chosen, other) = pick(root, h_low, h_high);
     if (h_high / h_low - 1.0).abs() > 1e-9 {
         warnings.push(other_root_warning(pair, k, chosen, other));
@@ -469,14 +484,14 @@ fn ta_co3_root(
     let g = |x: f64| {
         let h = x.exp();
         let (n, dn) = non_carbonate(k, h);
-        (co3 * (h / k.k2 + 2.0) + n - ta, h * (co3 / k.k2 + dn))
+        (co3 * (h / k.k2e + 2.0) + n - ta, h * (co3 / k.k2e + dn))
     };
     let lo = -PH_MAX * LN10;
     let hi = -PH_MIN * LN10;
     // The minimum: dg/dh = CO3/K2 + d(non-carbonate)/dh = 0.
     let slope = |x: f64| {
         let h = x.exp();
-        co3 / k.k2 + non_carbonate(k, h).1
+        co3 / k.k2e + non_carbonate(k, h).1
     };
     let x_min = if slope(hi) <= 0.0 {
         hi

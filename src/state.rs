@@ -4,12 +4,27 @@ use crate::alkalinity::{carbonate_per_dic, non_carbonate, parts};
 use crate::conditions::Conditions;
 use crate::constants::{Constants, FitsUsed};
 use crate::error::Result;
+use crate::fresh::IonicStrengthRoute;
 use crate::measured::Measured;
 use crate::scales::PhScale;
 use crate::solve::{solve, SolveOptions};
 use crate::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
 use crate::water::{Medium, Water};
 use serde::Serialize;
+
+fn is_saline(v: &Option<f64>) -> bool {
+    v.is_none()
+}
+
+/// The fresh-water results computed beside the carbonate state.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct FreshExtras {
+    pub ionic_strength_from: IonicStrengthRoute,
+    pub charge_balance_percent: Option<f64>,
+    pub saturation_ph_nbs: Option<f64>,
+    pub langelier_index: Option<f64>,
+    pub precipitation_potential_mg_l_caco3: Option<f64>,
+}
 
 /// Every output of a solve. Field names are the JSON keys of the interface
 /// contract; concentrations are µmol per kg of solution unless the name says
@@ -30,6 +45,7 @@ use serde::Serialize;
 ///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
 /// // equations.md §13 worked values (computed from the published equations)
 /// assert!((s.co3_umol_kg - 210.90).abs() < 0.05);
+/// assert!((s.omega_aragonite.unwrap() - 3.346).abs() < 5e-3);
 /// assert!((s.fco2_uatm - 401.47).abs() < 0.05);
 /// # Ok::<(), travertine::Error>(())
 /// ```
@@ -68,14 +84,14 @@ pub struct State {
     pub pco2_uatm: f64,
     /// CO2 mole fraction in dry air, ppm.
     pub xco2_ppm: f64,
-    /// Saturation state of calcite.
-    pub omega_calcite: f64,
+    /// Saturation state of calcite (`None` in fresh water without calcium).
+    pub omega_calcite: Option<f64>,
     /// Saturation state of aragonite.
-    pub omega_aragonite: f64,
-    /// Saturation index of calcite, log10 Ω.
-    pub si_calcite: f64,
+    pub omega_aragonite: Option<f64>,
+    /// Saturation index of calcite, log10 Ω (= log10 IAP/Ksp).
+    pub si_calcite: Option<f64>,
     /// Saturation index of aragonite, log10 Ω.
-    pub si_aragonite: f64,
+    pub si_aragonite: Option<f64>,
     /// Revelle (buffer) factor.
     pub revelle_factor: f64,
     /// Carbonate alkalinity, [HCO3-] + 2[CO3--].
@@ -98,8 +114,44 @@ pub struct State {
     pub bisulfate_umol_kg: f64,
     /// Hydrogen fluoride, counted against alkalinity.
     pub hydrogen_fluoride_umol_kg: f64,
-    /// Calcium used for Ω.
-    pub calcium_umol_kg: f64,
+    /// Total calcium (`None` in fresh water without calcium).
+    pub calcium_umol_kg: Option<f64>,
+    /// Free Ca++ (fresh water: total less the CaHCO3+ and CaCO3⁰ pairs).
+    pub calcium_free_umol_kg: Option<f64>,
+    /// Activity of free Ca++ (molal, fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub calcium_activity: Option<f64>,
+    /// CaHCO3+ ion pair (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub cahco3_umol_kg: Option<f64>,
+    /// CaCO3⁰ ion pair (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub caco3_pair_umol_kg: Option<f64>,
+    /// Ionic strength, mol/kg.
+    pub ionic_strength: f64,
+    /// Where the ionic strength came from (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub ionic_strength_from: Option<IonicStrengthRoute>,
+    /// Charge imbalance of the ions given, % of the total charge (fresh
+    /// water with major ions; positive: excess cations).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub charge_balance_percent: Option<f64>,
+    /// Activity coefficient of monovalent ions (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub gamma_monovalent: Option<f64>,
+    /// Activity coefficient of divalent ions such as CO3-- (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub gamma_divalent: Option<f64>,
+    /// pHs, the NBS pH of calcite saturation at this alkalinity and calcium (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub saturation_ph_nbs: Option<f64>,
+    /// Langelier index, pH − pHs (fresh water with calcium; null otherwise).
+    #[serde(skip_serializing_if = "is_saline")]
+    pub langelier_index: Option<f64>,
+    /// Calcium carbonate precipitation potential, mg/L as CaCO3: positive to
+    /// precipitate, negative to dissolve (fresh water with calcium).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub precipitation_potential_mg_l_caco3: Option<f64>,
     /// Alkalinity, mg/L as CaCO3.
     pub alkalinity_mg_l_caco3: f64,
     /// DIC, mg/L as C.
@@ -193,32 +245,61 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        mut warnings: Vec<String>,
+        warnings: Vec<String>,
     ) -> State {
-        let k12 = k.k1 * k.k2;
-        let d = h * h + k.k1 * h + k12;
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, None)
+    }
+
+    /// Builds a fresh-water state with its extras.
+    pub(crate) fn build_fresh(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        warnings: Vec<String>,
+        extras: FreshExtras,
+    ) -> State {
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras))
+    }
+
+    fn build_fresh_or_saline(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        mut warnings: Vec<String>,
+        extras: Option<FreshExtras>,
+    ) -> State {
+        let k12 = k.k1e * k.k2e;
+        let d = h * h + k.k1e * h + k12;
         let co2 = dic * h * h / d;
-        let hco3 = dic * k.k1 * h / d;
-        let co3 = dic * k12 / d;
+        // Carbon-balance totals, then the free ions and the Ca pairs.
+        let hco3_t = dic * k.k1e * h / d;
+        let co3_t = dic * k12 / d;
+        let hco3 = hco3_t / (1.0 + k.pair_hco3);
+        let co3 = co3_t / (1.0 + k.pair_co3);
         let p = parts(k, h, dic);
         let ta = p.total();
         let fco2 = co2 / k.k0;
         let pco2 = fco2 / k.fugacity_factor;
         let xco2 = pco2 / (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
-        let ca = k.totals.calcium_mol_kg;
-        let omega_c = ca * co3 / k.ksp_calcite;
-        let omega_a = ca * co3 / k.ksp_aragonite;
+        let ca_known = k.totals.calcium_mol_kg > 0.0;
+        let ca_free = k.calcium_free_mol_kg;
+        let omega_c = ca_known.then(|| ca_free * co3 / k.ksp_calcite);
+        let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite);
 
-        // Revelle factor at constant TA: dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
+        // Revelle factor at constant TA (and pairs): dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
         let (c, dc) = carbonate_per_dic(k, h);
         let (_, dn) = non_carbonate(k, h);
         let dh_ddic = -c / (dic * dc + dn);
-        let revelle = 1.0 + dic * (k.k1 * h + 2.0 * k12) / (h * d) * dh_ddic;
+        let revelle = 1.0 + dic * (k.k1e * h + 2.0 * k12) / (h * d) * dh_ddic;
 
         let rho = k.density_kg_m3;
         let mut all = k.warnings.clone();
         all.append(&mut warnings);
         let u = 1e6;
+        let fresh = extras.is_some();
+        let fresh_only = |v: f64| fresh.then_some(v);
         State {
             temperature_c: k.conditions.temperature_c(),
             salinity: k.conditions.salinity(),
@@ -238,8 +319,8 @@ impl State {
             xco2_ppm: xco2 * u,
             omega_calcite: omega_c,
             omega_aragonite: omega_a,
-            si_calcite: omega_c.log10(),
-            si_aragonite: omega_a.log10(),
+            si_calcite: omega_c.map(f64::log10),
+            si_aragonite: omega_a.map(f64::log10),
             revelle_factor: revelle,
             carbonate_alkalinity_umol_kg: p.carbonate * u,
             borate_alkalinity_umol_kg: p.borate * u,
@@ -251,7 +332,20 @@ impl State {
             free_hydrogen_umol_kg: p.free_hydrogen * u,
             bisulfate_umol_kg: p.bisulfate * u,
             hydrogen_fluoride_umol_kg: p.hydrogen_fluoride * u,
-            calcium_umol_kg: ca * u,
+            calcium_umol_kg: ca_known.then_some(k.totals.calcium_mol_kg * u),
+            calcium_free_umol_kg: ca_known.then_some(ca_free * u),
+            calcium_activity: k.gammas.filter(|_| ca_known).map(|g| g.calcium * ca_free),
+            cahco3_umol_kg: fresh_only((hco3_t - hco3) * u).filter(|_| ca_known),
+            caco3_pair_umol_kg: fresh_only((co3_t - co3) * u).filter(|_| ca_known),
+            ionic_strength: k.ionic_strength,
+            ionic_strength_from: extras.map(|e| e.ionic_strength_from),
+            charge_balance_percent: extras.and_then(|e| e.charge_balance_percent),
+            gamma_monovalent: k.gammas.map(|g| g.monovalent),
+            gamma_divalent: k.gammas.map(|g| g.carbonate),
+            saturation_ph_nbs: extras.and_then(|e| e.saturation_ph_nbs),
+            langelier_index: extras.and_then(|e| e.langelier_index),
+            precipitation_potential_mg_l_caco3: extras
+                .and_then(|e| e.precipitation_potential_mg_l_caco3),
             alkalinity_mg_l_caco3: ta * rho * CACO3_G_EQ,
             dic_mg_l_c: dic * rho * C_G_MOL,
             free_co2_mg_l: co2 * rho * CO2_G_MOL,
@@ -299,12 +393,17 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        if self.medium() == Medium::Fresh {
+            return crate::fresh::solve_fresh(self, a, b, options);
+        }
         let k = self.constants()?;
         self.solve_with_constants(&k, a, b, options)
     }
 
     /// As [`Water::solve_with`], reusing constants already evaluated for this
     /// water (they must come from [`Water::constants`] of the same water).
+    /// Fresh water iterates its activity coefficients with the speciation,
+    /// so there the constants are evaluated afresh and `k` is not used.
     ///
     /// # Errors
     /// As [`Water::solve`].
@@ -327,6 +426,9 @@ impl Water {
         b: Measured,
         options: &SolveOptions,
     ) -> Result<State> {
+        if self.medium() == Medium::Fresh {
+            return crate::fresh::solve_fresh(self, a, b, options);
+        }
         let sol = solve(k, &a, &b, options)?;
         Ok(State::build(self, k, sol.h, sol.dic, sol.warnings))
     }

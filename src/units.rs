@@ -29,6 +29,16 @@ pub const P_G_MOL: f64 = 30.973762;
 pub const SI_G_MOL: f64 = 28.0855;
 /// Molar mass of sulfur, g/mol.
 pub const S_G_MOL: f64 = 32.065;
+/// Molar mass of magnesium, g/mol.
+pub const MG_G_MOL: f64 = 24.305;
+/// Molar mass of sodium, g/mol.
+pub const NA_G_MOL: f64 = 22.98977;
+/// Molar mass of potassium, g/mol.
+pub const K_G_MOL: f64 = 39.0983;
+/// Molar mass of chloride, g/mol.
+pub const CL_G_MOL: f64 = 35.453;
+/// Molar mass of sulfate, g/mol.
+pub const SO4_G_MOL: f64 = 96.062;
 
 /// A unit that a value may carry.
 ///
@@ -83,6 +93,26 @@ pub enum Unit {
     KPa,
     /// ppm (µmol/mol) of dry air.
     Ppm,
+    /// mg/L as Mg.
+    MgPerLMg,
+    /// mg/L as Na.
+    MgPerLNa,
+    /// mg/L as K.
+    MgPerLK,
+    /// mg/L as Cl.
+    MgPerLCl,
+    /// mg/L as SO4.
+    MgPerLSO4,
+    /// mg/L (total dissolved solids).
+    MgPerL,
+    /// µS/cm at the sample temperature.
+    USPerCm,
+    /// mS/cm at the sample temperature.
+    MSPerCm,
+    /// µS/cm compensated to 25 °C (specific conductance).
+    USPerCmAt25,
+    /// mS/cm compensated to 25 °C (specific conductance).
+    MSPerCmAt25,
 }
 
 /// Every unit with its canonical spelling, for messages and parsing.
@@ -108,6 +138,16 @@ const SPELLINGS: &[(Unit, &str)] = &[
     (Unit::Pa, "Pa"),
     (Unit::KPa, "kPa"),
     (Unit::Ppm, "ppm"),
+    (Unit::MgPerLMg, "mg/L Mg"),
+    (Unit::MgPerLNa, "mg/L Na"),
+    (Unit::MgPerLK, "mg/L K"),
+    (Unit::MgPerLCl, "mg/L Cl"),
+    (Unit::MgPerLSO4, "mg/L SO4"),
+    (Unit::MgPerL, "mg/L"),
+    (Unit::USPerCm, "uS/cm"),
+    (Unit::MSPerCm, "mS/cm"),
+    (Unit::USPerCmAt25, "uS/cm@25C"),
+    (Unit::MSPerCmAt25, "mS/cm@25C"),
 ];
 
 /// Spellings accepted besides the canonical ones (after normalising).
@@ -136,6 +176,11 @@ const ALIASES: &[(&str, Unit)] = &[
     ("mg/l si", Unit::MgPerLSi),
     ("mg/l s", Unit::MgPerLS),
     ("mg/l h2s-s", Unit::MgPerLS),
+    ("ppm", Unit::Ppm),
+    ("us/cm at 25c", Unit::USPerCmAt25),
+    ("us/cm @ 25c", Unit::USPerCmAt25),
+    ("ms/cm at 25c", Unit::MSPerCmAt25),
+    ("ms/cm @ 25c", Unit::MSPerCmAt25),
 ];
 
 fn normalise(unit: &str) -> String {

@@ -1,5 +1,6 @@
 //! A water sample: its medium, conditions, composition and choice of fits.
 
+use crate::activity::ActivityModel;
 use crate::conditions::Conditions;
 use crate::constants::{BoronTotalFit, Constants, Fits, Totals};
 use crate::error::{check_range, Result};
@@ -18,6 +19,8 @@ use serde::Serialize;
 pub enum Medium {
     /// Brackish to sea water: stoichiometric constants fitted against salinity.
     Saline,
+    /// Fresh water: thermodynamic constants with activity coefficients.
+    Fresh,
 }
 
 impl Medium {
@@ -30,6 +33,7 @@ impl Medium {
     pub fn name(self) -> &'static str {
         match self {
             Medium::Saline => "saline",
+            Medium::Fresh => "fresh",
         }
     }
 }
@@ -61,6 +65,11 @@ pub struct Composition {
     sulfate: Option<Amount>,
     fluoride: Option<Amount>,
     calcium: Option<Amount>,
+    magnesium: Option<Amount>,
+    sodium: Option<Amount>,
+    potassium: Option<Amount>,
+    chloride: Option<Amount>,
+    hardness: Option<Amount>,
 }
 
 fn checked(field: &'static str, a: Amount, min: f64, max: f64) -> Result<Option<Amount>> {
@@ -106,6 +115,76 @@ impl Composition {
     setter!(
         /// With measured calcium instead of the salinity ratio.
         with_calcium, calcium, "calcium", 1e-9, 0.1);
+    setter!(
+        /// With magnesium (fresh water: counted in the ionic strength).
+        with_magnesium, magnesium, "magnesium", 0.0, 0.1);
+    setter!(
+        /// With sodium (fresh water: counted in the ionic strength).
+        with_sodium, sodium, "sodium", 0.0, 1.0);
+    setter!(
+        /// With potassium (fresh water: counted in the ionic strength).
+        with_potassium, potassium, "potassium", 0.0, 0.1);
+    setter!(
+        /// With chloride (fresh water: counted in the ionic strength).
+        with_chloride, chloride, "chloride", 0.0, 1.0);
+    setter!(
+        /// With total hardness (Ca + Mg, mol/kg) whose split is unknown: it is
+        /// counted in the ionic strength as divalent cations, and never taken
+        /// as calcium.
+        with_unassigned_hardness, hardness, "hardness", 0.0, 0.1);
+
+    /// Whether any major ion besides calcium was given (Mg, Na, K, Cl or
+    /// SO4; fresh water: the ionic strength is then computed from the ions).
+    ///
+    /// ```
+    /// # use travertine::{units::Amount, water::Composition};
+    /// assert!(Composition::default().with_sodium(Amount::PerKg(1e-3))?.major_ions_given());
+    /// assert!(!Composition::default().major_ions_given());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn major_ions_given(&self) -> bool {
+        // Calcium or hardness alone is not an ion analysis: they take part
+        // in the speciation, but the ionic strength then comes from the
+        // next route (conductance, TDS, ...).
+        [
+            self.magnesium,
+            self.sodium,
+            self.potassium,
+            self.chloride,
+            self.sulfate,
+        ]
+        .iter()
+        .any(Option::is_some)
+    }
+
+    /// The totals for fresh water: nothing follows from salinity; what was
+    /// not given is zero.
+    ///
+    /// ```
+    /// # use travertine::{units::Amount, water::Composition};
+    /// let t = Composition::default().with_calcium(Amount::PerLitre(1e-3))?.fresh_totals(998.0);
+    /// assert!((t.calcium_mol_kg - 1e-3 / 0.998).abs() < 1e-12);
+    /// assert_eq!(t.boron_mol_kg, 0.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn fresh_totals(&self, density_kg_m3: f64) -> Totals {
+        let get = |a: Option<Amount>| a.map_or(0.0, |a| a.mol_kg(density_kg_m3));
+        Totals {
+            boron_mol_kg: get(self.boron),
+            sulfate_mol_kg: get(self.sulfate),
+            fluoride_mol_kg: get(self.fluoride),
+            phosphate_mol_kg: get(self.phosphate),
+            silicate_mol_kg: get(self.silicate),
+            ammonia_mol_kg: get(self.ammonia),
+            sulfide_mol_kg: get(self.sulfide),
+            calcium_mol_kg: get(self.calcium),
+            magnesium_mol_kg: get(self.magnesium),
+            sodium_mol_kg: get(self.sodium),
+            potassium_mol_kg: get(self.potassium),
+            chloride_mol_kg: get(self.chloride),
+            hardness_mol_kg: get(self.hardness),
+        }
+    }
 
     /// Whether calcium was measured.
     ///
@@ -174,6 +253,7 @@ impl Composition {
                 self.calcium,
                 minerals::riley_tongudai1967_calcium_mol_kg(salinity),
             ),
+            ..Totals::default()
         }
     }
 }
@@ -203,7 +283,31 @@ pub struct Water {
     conditions: Conditions,
     composition: Composition,
     fits: Fits,
+    fresh: FreshOptions,
 }
+
+/// Settings of the fresh medium: the activity model and the sources of the
+/// ionic strength. Set through [`Water`]'s builder methods.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+pub struct FreshOptions {
+    /// The activity-coefficient model.
+    pub activity: ActivityModel,
+    /// Specific conductance at 25 °C, µS/cm.
+    pub specific_conductance_us_cm: Option<f64>,
+    /// Total dissolved solids, mg/L.
+    pub tds_mg_l: Option<f64>,
+    /// Ionic strength given directly, mol/kg.
+    pub ionic_strength: Option<f64>,
+}
+
+/// Highest practical salinity accepted for fresh water.
+pub const FRESH_SALINITY_MAX: f64 = 10.0;
+/// Salinity below which the automatic choice takes the fresh medium. Below
+/// about S 1 (ionic strength about 0.02) the sea-water ratios of boron,
+/// sulfate, fluoride and calcium no longer describe inland waters, whose ions
+/// are mostly calcium and bicarbonate, and the Davies equation is accurate;
+/// above it the saline fits have their data.
+pub const AUTO_FRESH_BELOW_SALINITY: f64 = 1.0;
 
 impl Water {
     /// Saline water (practical salinity about 1 to 50) at these conditions,
@@ -238,7 +342,143 @@ impl Water {
             conditions,
             composition: Composition::default(),
             fits: Fits::default(),
+            fresh: FreshOptions::default(),
         })
+    }
+
+    /// Fresh water (thermodynamic constants, activity coefficients, pH on the
+    /// NBS scale) at these conditions.
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] for a temperature outside 0–100 °C (the
+    /// range of Plummer & Busenberg 1982) or a salinity above 10.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Medium, Water};
+    /// let w = Water::fresh(Conditions::new(18.0, 0.2)?)?;
+    /// assert_eq!(w.medium(), Medium::Fresh);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn fresh(conditions: Conditions) -> Result<Self> {
+        check_range(
+            "temperature_c",
+            conditions.temperature_c(),
+            0.0,
+            100.0,
+            " °C",
+        )?;
+        check_range(
+            "salinity",
+            conditions.salinity(),
+            0.0,
+            FRESH_SALINITY_MAX,
+            "",
+        )?;
+        Ok(Self {
+            medium: Medium::Fresh,
+            conditions,
+            composition: Composition::default(),
+            fits: Fits::default(),
+            fresh: FreshOptions::default(),
+        })
+    }
+
+    /// Fresh water below salinity 1 ([`AUTO_FRESH_BELOW_SALINITY`]), saline
+    /// water at or above it.
+    ///
+    /// # Errors
+    /// As [`Water::fresh`] and [`Water::saline`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Medium, Water};
+    /// assert_eq!(Water::auto(Conditions::new(18.0, 0.2)?)?.medium(), Medium::Fresh);
+    /// assert_eq!(Water::auto(Conditions::new(18.0, 30.0)?)?.medium(), Medium::Saline);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn auto(conditions: Conditions) -> Result<Self> {
+        if conditions.salinity() < AUTO_FRESH_BELOW_SALINITY {
+            Water::fresh(conditions)
+        } else {
+            Water::saline(conditions)
+        }
+    }
+
+    /// With an activity-coefficient model (fresh water).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water, activity::ActivityModel};
+    /// let w = Water::fresh(Conditions::new(18.0, 0.2)?)?
+    ///     .with_activity_model(ActivityModel::ExtendedDebyeHuckel);
+    /// assert_eq!(w.fresh_options().activity, ActivityModel::ExtendedDebyeHuckel);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_activity_model(mut self, model: ActivityModel) -> Self {
+        self.fresh.activity = model;
+        self
+    }
+
+    /// With specific conductance at 25 °C (µS/cm), for the ionic strength of
+    /// fresh water (Russell 1976).
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] outside 0–100 000 µS/cm.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let w = Water::fresh(Conditions::new(18.0, 0.2)?)?.with_specific_conductance_us_cm(350.0)?;
+    /// assert_eq!(w.fresh_options().specific_conductance_us_cm, Some(350.0));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_specific_conductance_us_cm(mut self, value: f64) -> Result<Self> {
+        check_range("specific_conductance", value, 0.0, 100_000.0, " µS/cm")?;
+        self.fresh.specific_conductance_us_cm = Some(value);
+        Ok(self)
+    }
+
+    /// With total dissolved solids (mg/L), for the ionic strength of fresh
+    /// water (Langelier 1936).
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] outside 0–50 000 mg/L.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let w = Water::fresh(Conditions::new(18.0, 0.2)?)?.with_tds_mg_l(250.0)?;
+    /// assert_eq!(w.fresh_options().tds_mg_l, Some(250.0));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_tds_mg_l(mut self, value: f64) -> Result<Self> {
+        check_range("tds", value, 0.0, 50_000.0, " mg/L")?;
+        self.fresh.tds_mg_l = Some(value);
+        Ok(self)
+    }
+
+    /// With the ionic strength given directly (mol/kg, fresh water).
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] outside 0–1 mol/kg.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let w = Water::fresh(Conditions::new(18.0, 0.2)?)?.with_ionic_strength(0.005)?;
+    /// assert_eq!(w.fresh_options().ionic_strength, Some(0.005));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_ionic_strength(mut self, value: f64) -> Result<Self> {
+        check_range("ionic_strength", value, 0.0, 1.0, " mol/kg")?;
+        self.fresh.ionic_strength = Some(value);
+        Ok(self)
+    }
+
+    /// The fresh-medium settings.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// assert!(Water::fresh(Conditions::new(18.0, 0.2)?)?.fresh_options().tds_mg_l.is_none());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn fresh_options(&self) -> &FreshOptions {
+        &self.fresh
     }
 
     /// With measured totals.
@@ -285,9 +525,11 @@ impl Water {
     pub fn at(&self, conditions: Conditions) -> Result<Self> {
         let mut w = match self.medium {
             Medium::Saline => Water::saline(conditions)?,
+            Medium::Fresh => Water::fresh(conditions)?,
         };
         w.composition = self.composition;
         w.fits = self.fits;
+        w.fresh = self.fresh;
         Ok(w)
     }
 
@@ -335,7 +577,9 @@ impl Water {
         &self.fits
     }
 
-    /// Every constant evaluated for this water.
+    /// Every constant evaluated for this water. In fresh water the activity
+    /// coefficients depend on the ionic strength, which a solve refines with
+    /// the speciation; these are the constants at the starting ionic strength.
     ///
     /// # Errors
     /// [`crate::Error::Computation`] if the density cannot be computed.
@@ -349,6 +593,7 @@ impl Water {
     pub fn constants(&self) -> Result<Constants> {
         match self.medium {
             Medium::Saline => Constants::saline(&self.conditions, &self.composition, &self.fits),
+            Medium::Fresh => crate::fresh::starting_constants(self),
         }
     }
 }

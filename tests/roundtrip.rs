@@ -41,7 +41,7 @@ fn outputs(s: &State) -> [(&'static str, f64); 14] {
         ("fco2", s.fco2_uatm),
         ("pco2", s.pco2_uatm),
         ("xco2", s.xco2_ppm),
-        ("omega_calcite", s.omega_calcite),
+        ("omega_calcite", s.omega_calcite.unwrap_or(f64::NAN)),
         ("revelle", s.revelle_factor),
         ("borate", s.borate_alkalinity_umol_kg),
         ("hydroxide", s.hydroxide_umol_kg),

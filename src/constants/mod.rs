@@ -11,6 +11,7 @@ pub mod ammonia;
 pub mod boron;
 pub mod carbonic;
 pub mod fluoride;
+pub mod fresh;
 pub mod gas;
 pub mod minerals;
 pub mod nutrients;
@@ -227,6 +228,16 @@ pub struct Totals {
     pub sulfide_mol_kg: f64,
     /// Calcium.
     pub calcium_mol_kg: f64,
+    /// Magnesium (fresh water, for the ionic strength).
+    pub magnesium_mol_kg: f64,
+    /// Sodium (fresh water).
+    pub sodium_mol_kg: f64,
+    /// Potassium (fresh water).
+    pub potassium_mol_kg: f64,
+    /// Chloride (fresh water).
+    pub chloride_mol_kg: f64,
+    /// Hardness whose split between Ca and Mg is unknown (fresh water).
+    pub hardness_mol_kg: f64,
 }
 
 /// Every equilibrium constant for one set of conditions, on the working pH
@@ -276,6 +287,22 @@ pub struct Constants {
     pub ks_free: f64,
     /// Hydrogen fluoride, free scale.
     pub kf_free: f64,
+    /// K1 and K2 for the carbon balances: with calcium ion pairs (fresh
+    /// water) DIC and alkalinity count CaHCO3+ with HCO3- and CaCO3⁰ with
+    /// CO3--, which is the same as using K1e = K1 (1 + p1) and
+    /// K2e = K2 (1 + p2)/(1 + p1), where p1 = [CaHCO3+]/[HCO3-] and
+    /// p2 = [CaCO3⁰]/[CO3--]. Without pairs K1e = K1, K2e = K2.
+    pub k1e: f64,
+    /// See `k1e`.
+    pub k2e: f64,
+    /// [CaHCO3+]/[HCO3-] (0 in saline water, where pairs are in the constants).
+    pub pair_hco3: f64,
+    /// [CaCO3⁰]/[CO3--] (0 in saline water).
+    pub pair_co3: f64,
+    /// Free calcium used for the pairs and Ω, mol/kg (total calcium in saline water).
+    pub calcium_free_mol_kg: f64,
+    /// Ionic strength, mol/kg (sea water: 19.924 S/(1000 − 1.005 S)).
+    pub ionic_strength: f64,
     /// Calcite solubility product, (mol/kg)².
     pub ksp_calcite: f64,
     /// Aragonite solubility product, (mol/kg)².
@@ -300,6 +327,12 @@ pub struct Constants {
     pub fits_used: FitsUsed,
     /// Every fit used outside its published range, and other cautions.
     pub warnings: Vec<String>,
+    /// Activity coefficients (fresh water only).
+    pub gammas: Option<crate::activity::Gammas>,
+    /// [CaHCO3+]/([Ca++][HCO3-]), concentration basis (fresh water; 0 in saline).
+    pub k_cahco3: f64,
+    /// [CaCO3⁰]/([Ca++][CO3--]), concentration basis (fresh water; 0 in saline).
+    pub k_caco3: f64,
 }
 
 impl Constants {
@@ -466,6 +499,12 @@ impl Constants {
             k0,
             k1,
             k2,
+            k1e: k1,
+            k2e: k2,
+            pair_hco3: 0.0,
+            pair_co3: 0.0,
+            calcium_free_mol_kg: totals.calcium_mol_kg,
+            ionic_strength: sulfate::seawater_ionic_strength(s),
             kb,
             kw,
             kp1,
@@ -524,6 +563,9 @@ impl Constants {
                 density: "teos10",
             },
             warnings,
+            gammas: None,
+            k_cahco3: 0.0,
+            k_caco3: 0.0,
         })
     }
 }

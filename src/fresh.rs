@@ -1,0 +1,662 @@
+//! The fresh medium: thermodynamic constants, activity coefficients, ionic
+//! strength, calcium ion pairs, the Langelier index and the calcium
+//! carbonate precipitation potential.
+//!
+//! The constants are apparent constants on the NBS scale, where the working
+//! h is the activity of H+:
+//!
+//! ```text
+//! K1' = K1/γ1          K2' = K2 γ1/γ2        KW' = Kw/γ1
+//! KB', KSi', KH2S' = K/γ1                    KNH4' = Ka γ1
+//! KP1' = KP1/γ1   KP2' = KP2 γ1/γ2   KP3' = KP3 γ2/γ3
+//! Ksp' = Ksp/(γCa γ2)                        [H+] = aH/γH
+//! [CaHCO3+] = K γCa [Ca][HCO3-]              [CaCO3⁰] = K γCa γ2 [Ca][CO3--]
+//! ```
+//! with γ1, γ2, γ3 the coefficients of ions of charge 1, 2, 3 and neutral
+//! species at γ = 1. The ionic strength and free calcium are iterated with
+//! the speciation until both agree to 1e-13 relative.
+
+use crate::activity::Gammas;
+use crate::alkalinity::{carbonate_per_dic, non_carbonate};
+use crate::conductivity::{langelier1936_ionic_strength, russell1976_ionic_strength};
+use crate::constants::fresh as pb;
+use crate::constants::{nutrients, sulfate, sulfide, Constants, FitsUsed, Totals};
+use crate::density::density_kg_m3;
+use crate::error::{Error, Result};
+use crate::measured::Measured;
+use crate::scales::PhScale;
+use crate::solve::{solve, SolveOptions};
+use crate::state::{FreshExtras, State};
+use crate::units::CACO3_G_MOL;
+use crate::water::Water;
+use serde::Serialize;
+
+/// Where the ionic strength of a fresh water came from.
+///
+/// ```
+/// use travertine::fresh::IonicStrengthRoute;
+/// assert_eq!(IonicStrengthRoute::MajorIons.name(), "major ions");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[non_exhaustive]
+pub enum IonicStrengthRoute {
+    /// Computed from the major ions given and the carbonate species, iterated.
+    #[serde(rename = "major ions")]
+    MajorIons,
+    /// From specific conductance, Russell (1976).
+    #[serde(rename = "specific conductance (russell1976)")]
+    SpecificConductance,
+    /// From total dissolved solids, Langelier (1936).
+    #[serde(rename = "tds (langelier1936)")]
+    Tds,
+    /// Given directly.
+    #[serde(rename = "given")]
+    Given,
+    /// From salinity with sea-water ratios, I = 19.924 S/(1000 − 1.005 S).
+    #[serde(rename = "salinity")]
+    Salinity,
+    /// Nothing given: the carbonate species with monovalent counter-ions.
+    #[serde(rename = "alkalinity only")]
+    AlkalinityOnly,
+}
+
+impl IonicStrengthRoute {
+    /// The plain name, as in the output key `ionic_strength_from`.
+    ///
+    /// ```
+    /// # use travertine::fresh::IonicStrengthRoute;
+    /// assert_eq!(IonicStrengthRoute::Tds.name(), "tds (langelier1936)");
+    /// ```
+    pub fn name(self) -> &'static str {
+        match self {
+            IonicStrengthRoute::MajorIons => "major ions",
+            IonicStrengthRoute::SpecificConductance => "specific conductance (russell1976)",
+            IonicStrengthRoute::Tds => "tds (langelier1936)",
+            IonicStrengthRoute::Given => "given",
+            IonicStrengthRoute::Salinity => "salinity",
+            IonicStrengthRoute::AlkalinityOnly => "alkalinity only",
+        }
+    }
+}
+
+/// Temperature-only thermodynamic constants, evaluated once per solve.
+#[derive(Debug, Clone)]
+pub(crate) struct Thermo {
+    kh: f64,
+    k1: f64,
+    k2: f64,
+    kw: f64,
+    kb: f64,
+    kp: (f64, f64, f64),
+    ksi: f64,
+    ks: f64,
+    kf: f64,
+    knh4: f64,
+    kh2s: f64,
+    ksp_calcite: f64,
+    ksp_aragonite: f64,
+    k_cahco3: f64,
+    k_caco3: f64,
+    rho_w_g_cm3: f64,
+    density: f64,
+    totals: Totals,
+    warnings: Vec<String>,
+}
+
+impl Thermo {
+    fn new(water: &Water) -> Result<Self> {
+        let c = water.conditions();
+        let t_c = c.temperature_c();
+        let t = c.temperature_k();
+        let mut warnings = Vec::new();
+        let density = density_kg_m3(c.salinity(), t_c)?;
+        let rho_w = density_kg_m3(0.0, t_c)? / 1000.0;
+        let totals = water.composition().fresh_totals(density);
+        pb::PLUMMER_BUSENBERG1982_RANGE.check(t_c, 0.0, &mut warnings);
+        pb::HARNED_OWEN_RANGE.check(t_c, 0.0, &mut warnings);
+        if totals.calcium_mol_kg > 0.0 {
+            pb::CAHCO3_RANGE.check(t_c, 0.0, &mut warnings);
+            pb::CACO3_RANGE.check(t_c, 0.0, &mut warnings);
+        }
+        if totals.ammonia_mol_kg > 0.0 {
+            pb::EMERSON1975_RANGE.check(t_c, 0.0, &mut warnings);
+        }
+        let p10 = |x: f64| 10f64.powf(x);
+        let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
+        let mut th = Thermo {
+            kh: p10(pb::log_kh(t)),
+            k1: p10(pb::log_k1(t)),
+            k2: p10(pb::log_k2(t)),
+            kw: p10(pb::log_kw(t)),
+            // Pure-water limits (S = 0) of the sea-water fits.
+            kb: crate::constants::boron::dickson1990_ln_kb(t, 0.0).exp(),
+            kp: (lp1.exp(), lp2.exp(), lp3.exp()),
+            ksi: nutrients::millero1995_ln_ksi(t, 0.0).exp(),
+            ks: sulfate::dickson1990_ln_ks(t, 0.0).exp(),
+            kf: (1590.2 / t - 12.641).exp(),
+            knh4: p10(-pb::emerson1975_pka(t)),
+            kh2s: p10(-sulfide::millero1988_pk1(t, 0.0)),
+            ksp_calcite: p10(pb::log_ksp_calcite(t)),
+            ksp_aragonite: p10(pb::log_ksp_aragonite(t)),
+            k_cahco3: p10(pb::log_k_cahco3(t)),
+            k_caco3: p10(pb::log_k_caco3(t)),
+            rho_w_g_cm3: rho_w,
+            density,
+            totals,
+            warnings,
+        };
+        let p_bar = c.pressure_bar();
+        if p_bar > 0.0 {
+            use crate::constants::pressure::*;
+            let f = |k: &PressureCoefficients| pressure_factor(k, t_c, p_bar);
+            th.k1 *= f(&K1);
+            th.k2 *= f(&K2);
+            th.kw *= f(&KW);
+            th.kb *= f(&KB);
+            th.kp = (th.kp.0 * f(&KP1), th.kp.1 * f(&KP2), th.kp.2 * f(&KP3));
+            th.ksi *= f(&KSI);
+            th.ks *= f(&KS);
+            th.kf *= f(&KF);
+            th.knh4 *= f(&KNH4);
+            th.kh2s *= f(&KH2S);
+            th.ksp_calcite *= f(&CALCITE);
+            th.ksp_aragonite *= f(&ARAGONITE);
+            th.warnings.push(
+                "fresh water under pressure: the Millero (1995) corrections use sea-water \
+                 coefficients"
+                    .to_string(),
+            );
+        }
+        Ok(th)
+    }
+
+    /// Apparent constants at ionic strength `i` with free calcium `ca_free`.
+    fn constants(&self, water: &Water, i: f64, ca_free: f64) -> Constants {
+        let c = water.conditions();
+        let g = Gammas::new(
+            water.fresh_options().activity,
+            c.temperature_c(),
+            self.rho_w_g_cm3,
+            i,
+        );
+        let (g1, g2, g3, gh, gca) = (
+            g.monovalent,
+            g.carbonate,
+            g.trivalent,
+            g.hydrogen,
+            g.calcium,
+        );
+        let k1 = self.k1 / g1;
+        let k2 = self.k2 * g1 / g2;
+        let k_cahco3 = self.k_cahco3 * gca;
+        let k_caco3 = self.k_caco3 * gca * g2;
+        let pair_hco3 = k_cahco3 * ca_free;
+        let pair_co3 = k_caco3 * ca_free;
+        let t = &self.totals;
+        let on = |total: f64, k: f64| if total > 0.0 { k } else { 0.0 };
+        Constants {
+            conditions: *c,
+            working_scale: PhScale::Nbs,
+            k0: self.kh,
+            k1,
+            k2,
+            k1e: k1 * (1.0 + pair_hco3),
+            k2e: k2 * (1.0 + pair_co3) / (1.0 + pair_hco3),
+            pair_hco3,
+            pair_co3,
+            calcium_free_mol_kg: ca_free,
+            ionic_strength: i,
+            kb: on(t.boron_mol_kg, self.kb / g1),
+            kw: self.kw / g1,
+            kp1: on(t.phosphate_mol_kg, self.kp.0 / g1),
+            kp2: on(t.phosphate_mol_kg, self.kp.1 * g1 / g2),
+            kp3: on(t.phosphate_mol_kg, self.kp.2 * g2 / g3),
+            ksi: on(t.silicate_mol_kg, self.ksi / g1),
+            knh4: on(t.ammonia_mol_kg, self.knh4 * g1),
+            kh2s: on(t.sulfide_mol_kg, self.kh2s / g1),
+            // Concentration constants on free [H+]: [H][SO4]/[HSO4] = KS γ1/(γH γ2),
+            // [H][F]/[HF] = KF/(γH γ1).
+            ks_free: self.ks * g1 / (gh * g2),
+            kf_free: self.kf / (gh * g1),
+            ksp_calcite: self.ksp_calcite / (gca * g2),
+            ksp_aragonite: self.ksp_aragonite / (gca * g2),
+            totals: *t,
+            free_per_working: 1.0 / gh,
+            // Defined as in sea water, from the free [H+] and the sulfate and
+            // fluoride given (equal to the free scale when there are none).
+            seawater_per_working: (1.0
+                + t.sulfate_mol_kg / (self.ks * g1 / (gh * g2))
+                + t.fluoride_mol_kg / (self.kf / (gh * g1)))
+                / gh,
+            total_per_working: (1.0 + t.sulfate_mol_kg / (self.ks * g1 / (gh * g2))) / gh,
+            nbs_per_working: 1.0,
+            fugacity_factor: crate::constants::gas::weiss1974_fugacity_factor(
+                c.temperature_k(),
+                c.air_pressure_atm(),
+            ),
+            vapour_pressure_atm: crate::constants::gas::weiss_price1980_vapour_pressure_atm(
+                c.temperature_k(),
+                0.0,
+            ),
+            density_kg_m3: self.density,
+            fits_used: fresh_fits_used(t),
+            warnings: self.warnings.clone(),
+            gammas: Some(g),
+            k_cahco3,
+            k_caco3,
+        }
+    }
+}
+
+fn fresh_fits_used(t: &Totals) -> FitsUsed {
+    let pb = "plummer-busenberg1982";
+    FitsUsed {
+        k0: pb,
+        fugacity: "weiss1974",
+        vapour_pressure: "weiss-price1980",
+        carbonic: pb,
+        boric: "dickson1990 at S 0",
+        boron_total: if t.boron_mol_kg > 0.0 {
+            "measured"
+        } else {
+            "none"
+        },
+        water: "harned-owen1958",
+        bisulfate: "dickson1990 at S 0",
+        sulfate_total: if t.sulfate_mol_kg > 0.0 {
+            "measured"
+        } else {
+            "none"
+        },
+        fluoride: "dickson-riley1979 at S 0",
+        fluoride_total: if t.fluoride_mol_kg > 0.0 {
+            "measured"
+        } else {
+            "none"
+        },
+        phosphate_silicate: "millero1995 at S 0",
+        ammonium: "emerson1975",
+        sulfide: "millero1988 at S 0",
+        minerals: pb,
+        calcium: if t.calcium_mol_kg > 0.0 {
+            "measured"
+        } else {
+            "none"
+        },
+        pressure: "millero1995",
+        nbs_scale: "activity (davies or extended debye-huckel)",
+        density: "teos10",
+    }
+}
+
+/// Which route gives the ionic strength, in the order of preference.
+fn route(water: &Water) -> IonicStrengthRoute {
+    let f = water.fresh_options();
+    if water.composition().major_ions_given() {
+        IonicStrengthRoute::MajorIons
+    } else if f.specific_conductance_us_cm.is_some() {
+        IonicStrengthRoute::SpecificConductance
+    } else if f.tds_mg_l.is_some() {
+        IonicStrengthRoute::Tds
+    } else if f.ionic_strength.is_some() {
+        IonicStrengthRoute::Given
+    } else if water.conditions().salinity() > 0.0 {
+        IonicStrengthRoute::Salinity
+    } else {
+        IonicStrengthRoute::AlkalinityOnly
+    }
+}
+
+fn fixed_ionic_strength(water: &Water, route: IonicStrengthRoute) -> Option<f64> {
+    let f = water.fresh_options();
+    match route {
+        IonicStrengthRoute::SpecificConductance => {
+            f.specific_conductance_us_cm.map(russell1976_ionic_strength)
+        }
+        IonicStrengthRoute::Tds => f.tds_mg_l.map(langelier1936_ionic_strength),
+        IonicStrengthRoute::Given => f.ionic_strength,
+        IonicStrengthRoute::Salinity => Some(sulfate::seawater_ionic_strength(
+            water.conditions().salinity(),
+        )),
+        _ => None,
+    }
+}
+
+/// Ionic strength from every ion, with a monovalent ion added to carry any
+/// charge imbalance; also returns the imbalance as a fraction of the total
+/// charge (positive: excess cations).
+fn ion_sum(k: &Constants, h: f64, dic: f64) -> (f64, f64) {
+    let t = &k.totals;
+    let d = h * h + k.k1e * h + k.k1e * k.k2e;
+    let hco3_t = dic * k.k1e * h / d;
+    let co3_t = dic * k.k1e * k.k2e / d;
+    let hco3 = hco3_t / (1.0 + k.pair_hco3);
+    let co3 = co3_t / (1.0 + k.pair_co3);
+    let cahco3 = hco3_t - hco3;
+    let ca = k.calcium_free_mol_kg;
+    let hf = h * k.free_per_working;
+    let oh = k.kw / h;
+    let base = |total: f64, ka: f64| {
+        if total > 0.0 {
+            total * ka / (ka + h)
+        } else {
+            0.0
+        }
+    };
+    let borate = base(t.boron_mol_kg, k.kb);
+    let silicate = base(t.silicate_mol_kg, k.ksi);
+    let hs = base(t.sulfide_mol_kg, k.kh2s);
+    let nh4 = t.ammonia_mol_kg - base(t.ammonia_mol_kg, k.knh4);
+    let so4 = t.sulfate_mol_kg * k.ks_free / (k.ks_free + hf);
+    let hso4 = t.sulfate_mol_kg - so4;
+    let fl = t.fluoride_mol_kg * k.kf_free / (k.kf_free + hf);
+    let (mut h2po4, mut hpo4, mut po4) = (0.0, 0.0, 0.0);
+    if t.phosphate_mol_kg > 0.0 {
+        let (a, b, c) = (k.kp1, k.kp1 * k.kp2, k.kp1 * k.kp2 * k.kp3);
+        let dp = h * h * h + a * h * h + b * h + c;
+        h2po4 = t.phosphate_mol_kg * a * h * h / dp;
+        hpo4 = t.phosphate_mol_kg * b * h / dp;
+        po4 = t.phosphate_mol_kg * c / dp;
+    }
+    // Divalent cations whose split is unknown count like Mg.
+    let divalent_cations = ca + t.magnesium_mol_kg + t.hardness_mol_kg;
+    let mono_cations = hf + t.sodium_mol_kg + t.potassium_mol_kg + nh4 + cahco3;
+    let mono_anions = oh + hco3 + t.chloride_mol_kg + borate + silicate + hs + hso4 + fl + h2po4;
+    let divalent_anions = co3 + so4 + hpo4;
+    let trivalent_anions = po4;
+    let charge = mono_cations + 2.0 * divalent_cations
+        - mono_anions
+        - 2.0 * divalent_anions
+        - 3.0 * trivalent_anions;
+    let total_charge = mono_cations
+        + 2.0 * divalent_cations
+        + mono_anions
+        + 2.0 * divalent_anions
+        + 3.0 * trivalent_anions;
+    let i = 0.5
+        * (mono_cations
+            + mono_anions
+            + 4.0 * (divalent_cations + divalent_anions)
+            + 9.0 * trivalent_anions
+            + charge.abs());
+    (
+        i,
+        if total_charge > 0.0 {
+            charge / total_charge
+        } else {
+            0.0
+        },
+    )
+}
+
+/// Free calcium from the speciation.
+fn free_calcium(k: &Constants, h: f64, dic: f64) -> f64 {
+    let ca_t = k.totals.calcium_mol_kg;
+    if ca_t <= 0.0 {
+        return 0.0;
+    }
+    let d = h * h + k.k1e * h + k.k1e * k.k2e;
+    let hco3 = dic * k.k1e * h / d / (1.0 + k.pair_hco3);
+    let co3 = dic * k.k1e * k.k2e / d / (1.0 + k.pair_co3);
+    ca_t / (1.0 + k.k_cahco3 * hco3 + k.k_caco3 * co3)
+}
+
+const MAX_OUTER: u32 = 200;
+const OUTER_TOLERANCE: f64 = 1e-13;
+
+/// Starting constants: the fixed ionic strength of the route, or that of the
+/// given ions alone; calcium all free.
+pub(crate) fn starting_constants(water: &Water) -> Result<Constants> {
+    let th = Thermo::new(water)?;
+    let r = route(water);
+    let i = fixed_ionic_strength(water, r).unwrap_or(0.0);
+    let k0 = th.constants(water, i, th.totals.calcium_mol_kg);
+    let i = match r {
+        IonicStrengthRoute::MajorIons | IonicStrengthRoute::AlkalinityOnly => {
+            ion_sum(&k0, 1e-8, 0.0).0
+        }
+        _ => i,
+    };
+    Ok(th.constants(water, i, th.totals.calcium_mol_kg))
+}
+
+/// The fresh-water solve: the carbonate solve inside the fixed point of
+/// ionic strength and free calcium.
+pub(crate) fn solve_fresh(
+    water: &Water,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Result<State> {
+    let th = Thermo::new(water)?;
+    let r = route(water);
+    let fixed = fixed_ionic_strength(water, r);
+    let ca_t = th.totals.calcium_mol_kg;
+    let mut i = fixed.unwrap_or(0.0);
+    let mut ca_free = ca_t;
+    for _ in 0..MAX_OUTER {
+        let k = th.constants(water, i, ca_free);
+        let sol = solve(&k, &a, &b, options)?;
+        let (i_ions, imbalance) = ion_sum(&k, sol.h, sol.dic);
+        let i_new = fixed.unwrap_or(i_ions);
+        let ca_new = free_calcium(&k, sol.h, sol.dic);
+        let close = |x: f64, y: f64| (x - y).abs() <= OUTER_TOLERANCE * x.abs().max(1e-12);
+        if close(i, i_new) && close(ca_free, ca_new) {
+            let mut warnings = sol.warnings;
+            add_route_warnings(water, r, i, &mut warnings);
+            let extras = extras(water, &th, &k, sol.h, sol.dic, r, imbalance, &mut warnings);
+            return Ok(State::build_fresh(
+                water, &k, sol.h, sol.dic, warnings, extras,
+            ));
+        }
+        i = i_new;
+        ca_free = ca_new;
+    }
+    Err(Error::NoConvergence {
+        first: a.parameter().name(),
+        second: b.parameter().name(),
+        iterations: MAX_OUTER,
+    })
+}
+
+fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<String>) {
+    let f = water.fresh_options();
+    let unused = [
+        (
+            f.specific_conductance_us_cm.is_some(),
+            IonicStrengthRoute::SpecificConductance,
+        ),
+        (f.tds_mg_l.is_some(), IonicStrengthRoute::Tds),
+        (f.ionic_strength.is_some(), IonicStrengthRoute::Given),
+    ];
+    for (given, other) in unused {
+        if given && other != r {
+            w.push(format!(
+                "ionic strength from {} was not used: {} comes first",
+                other.name(),
+                r.name()
+            ));
+        }
+    }
+    if r == IonicStrengthRoute::AlkalinityOnly {
+        w.push(
+            "no ions, conductance, TDS or ionic strength given: the ionic strength is \
+             estimated from the carbonate species with monovalent counter-ions"
+                .to_string(),
+        );
+    }
+    let limit = match water.fresh_options().activity {
+        crate::activity::ActivityModel::ExtendedDebyeHuckel => 0.1,
+        _ => 0.5,
+    };
+    if i > limit {
+        w.push(format!(
+            "ionic strength {i:.3} mol/kg is above {limit}, where the {} activity model holds",
+            water.fresh_options().activity.name()
+        ));
+    }
+    if water.composition().calcium_given() {
+        return;
+    }
+    w.push(
+        "calcium not given: calcite and aragonite saturation and the Langelier index are \
+         not computed"
+            .to_string(),
+    );
+}
+
+#[allow(clippy::too_many_arguments)]
+fn extras(
+    water: &Water,
+    th: &Thermo,
+    k: &Constants,
+    h: f64,
+    dic: f64,
+    r: IonicStrengthRoute,
+    imbalance: f64,
+    warnings: &mut Vec<String>,
+) -> FreshExtras {
+    let ca_t = k.totals.calcium_mol_kg;
+    let mut e = FreshExtras {
+        ionic_strength_from: r,
+        charge_balance_percent: if r == IonicStrengthRoute::MajorIons {
+            Some(100.0 * imbalance)
+        } else {
+            None
+        },
+        saturation_ph_nbs: None,
+        langelier_index: None,
+        precipitation_potential_mg_l_caco3: None,
+    };
+    if ca_t <= 0.0 {
+        return e;
+    }
+    let ta = crate::alkalinity::parts(k, h, dic).total();
+    match saturation_ph(k, ta) {
+        Some(phs) => {
+            e.saturation_ph_nbs = Some(phs);
+            e.langelier_index = Some(-h.log10() - phs);
+        }
+        None => warnings.push(
+            "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
+             calcium: Langelier index not computed"
+                .to_string(),
+        ),
+    }
+    match precipitation_potential(water, th, k, ta, dic) {
+        Some(x) => e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL),
+        None => warnings.push(
+            "the calcium carbonate precipitation potential could not be bracketed".to_string(),
+        ),
+    }
+    e
+}
+
+/// Carbon speciation at h for alkalinity `ta` with the pairs recomputed
+/// (ionic strength held): returns ln(IAP/Ksp) for calcite.
+fn log_saturation_at(k: &Constants, ta: f64, h: f64) -> Option<f64> {
+    let ca_t = k.totals.calcium_mol_kg;
+    let mut kk = k.clone();
+    let (k_ch, k_cc) = (k.k_cahco3, k.k_caco3);
+    let mut ca_f = k.calcium_free_mol_kg;
+    let mut co3 = 0.0;
+    for _ in 0..100 {
+        kk.pair_hco3 = k_ch * ca_f;
+        kk.pair_co3 = k_cc * ca_f;
+        kk.k1e = kk.k1 * (1.0 + kk.pair_hco3);
+        kk.k2e = kk.k2 * (1.0 + kk.pair_co3) / (1.0 + kk.pair_hco3);
+        let carb = ta - non_carbonate(&kk, h).0;
+        if carb <= 0.0 {
+            return None;
+        }
+        let dic = carb / carbonate_per_dic(&kk, h).0;
+        let d = h * h + kk.k1e * h + kk.k1e * kk.k2e;
+        let hco3 = dic * kk.k1e * h / d / (1.0 + kk.pair_hco3);
+        co3 = dic * kk.k1e * kk.k2e / d / (1.0 + kk.pair_co3);
+        let new = ca_t / (1.0 + k_ch * hco3 + k_cc * co3);
+        let done = (new - ca_f).abs() <= 1e-14 * ca_f;
+        ca_f = new;
+        if done {
+            break;
+        }
+    }
+    Some((ca_f * co3 / k.ksp_calcite).ln())
+}
+
+/// pHs of the Langelier index: the NBS pH at which this water, with its
+/// alkalinity and calcium (and ionic strength), is exactly saturated with
+/// calcite. Scans pH 4–13 for the lowest saturating pH, then refines with Brent.
+fn saturation_ph(k: &Constants, ta: f64) -> Option<f64> {
+    let f = |ph: f64| log_saturation_at(k, ta, 10f64.powf(-ph));
+    let mut prev: Option<(f64, f64)> = None;
+    let mut ph = 4.0;
+    while ph <= 13.0 + 1e-9 {
+        if let Some(v) = f(ph) {
+            if let Some((p0, v0)) = prev {
+                if v0 < 0.0 && v >= 0.0 {
+                    let g = |x: f64| f(x).unwrap_or(-1e3);
+                    let mut conv = roots::SimpleConvergency {
+                        eps: 1e-12,
+                        max_iter: 200,
+                    };
+                    return roots::find_root_brent(p0, ph, g, &mut conv).ok();
+                }
+            }
+            prev = Some((ph, v));
+        }
+        ph += 0.25;
+    }
+    None
+}
+
+/// Calcium carbonate precipitation potential (mol/kg): the calcite that
+/// would precipitate (positive) or dissolve (negative) in a closed system
+/// to reach saturation, removing x of calcium and DIC and 2x of alkalinity
+/// (Rossum & Merrill 1983; from memory, unverified). Ionic strength is held.
+fn precipitation_potential(
+    water: &Water,
+    th: &Thermo,
+    k: &Constants,
+    ta: f64,
+    dic: f64,
+) -> Option<f64> {
+    let ca_t = k.totals.calcium_mol_kg;
+    let i = k.ionic_strength;
+    let omega_minus_one = |x: f64| -> f64 {
+        let mut th2 = th.clone();
+        th2.totals.calcium_mol_kg = ca_t - x;
+        let (ta2, dic2) = (ta - 2.0 * x, dic - x);
+        let (Ok(ma), Ok(mb)) = (
+            Measured::alkalinity_umol_kg(ta2 * 1e6),
+            Measured::dic_umol_kg(dic2 * 1e6),
+        ) else {
+            return f64::NAN;
+        };
+        let mut ca_f = th2.totals.calcium_mol_kg;
+        for _ in 0..100 {
+            let kk = th2.constants(water, i, ca_f);
+            let Ok(sol) = solve(&kk, &ma, &mb, &SolveOptions::default()) else {
+                return f64::NAN;
+            };
+            let new = free_calcium(&kk, sol.h, sol.dic);
+            if (new - ca_f).abs() <= 1e-14 * ca_f.max(1e-300) {
+                let d = sol.h * sol.h + kk.k1e * sol.h + kk.k1e * kk.k2e;
+                let co3 = sol.dic * kk.k1e * kk.k2e / d / (1.0 + kk.pair_co3);
+                return (new * co3 / kk.ksp_calcite).ln();
+            }
+            ca_f = new;
+        }
+        f64::NAN
+    };
+    let hi = ca_t.min(dic).min(ta / 2.0) * (1.0 - 1e-9);
+    let lo = -0.01;
+    let (f_lo, f_hi) = (omega_minus_one(lo), omega_minus_one(hi));
+    if !(f_lo.is_finite() && f_hi.is_finite()) || f_lo * f_hi > 0.0 {
+        return None;
+    }
+    let mut conv = roots::SimpleConvergency {
+        eps: 1e-15,
+        max_iter: 200,
+    };
+    roots::find_root_brent(lo, hi, omega_minus_one, &mut conv).ok()
+}
