@@ -28,6 +28,7 @@ use crate::scales::PhScale;
 use crate::solve::{solve, SolveOptions};
 use crate::state::{FreshExtras, State};
 use crate::units::CACO3_G_MOL;
+use crate::warning::Warning;
 use crate::water::Water;
 use serde::Serialize;
 
@@ -100,7 +101,7 @@ pub(crate) struct Thermo {
     rho_w_g_cm3: f64,
     density: f64,
     totals: Totals,
-    warnings: Vec<String>,
+    warnings: Vec<Warning>,
 }
 
 impl Thermo {
@@ -112,14 +113,19 @@ impl Thermo {
         let density = density_kg_m3(c.salinity(), t_c)?;
         let rho_w = density_kg_m3(0.0, t_c)? / 1000.0;
         let totals = water.composition().fresh_totals(density);
-        pb::PLUMMER_BUSENBERG1982_RANGE.check(t_c, 0.0, &mut warnings);
-        pb::HARNED_OWEN_RANGE.check(t_c, 0.0, &mut warnings);
+        pb::PLUMMER_BUSENBERG1982_RANGE.check_for(
+            "K0, K1, K2, calcite and aragonite",
+            t_c,
+            0.0,
+            &mut warnings,
+        );
+        pb::HARNED_OWEN_RANGE.check_for("KW", t_c, 0.0, &mut warnings);
         if totals.calcium_mol_kg > 0.0 {
-            pb::CAHCO3_RANGE.check(t_c, 0.0, &mut warnings);
-            pb::CACO3_RANGE.check(t_c, 0.0, &mut warnings);
+            pb::CAHCO3_RANGE.check_for("CaHCO3+ pair", t_c, 0.0, &mut warnings);
+            pb::CACO3_RANGE.check_for("CaCO3 pair", t_c, 0.0, &mut warnings);
         }
         if totals.ammonia_mol_kg > 0.0 {
-            pb::EMERSON1975_RANGE.check(t_c, 0.0, &mut warnings);
+            pb::EMERSON1975_RANGE.check_for("KNH4", t_c, 0.0, &mut warnings);
         }
         let p10 = |x: f64| 10f64.powf(x);
         let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
@@ -161,11 +167,10 @@ impl Thermo {
             th.kh2s *= f(&KH2S);
             th.ksp_calcite *= f(&CALCITE);
             th.ksp_aragonite *= f(&ARAGONITE);
-            th.warnings.push(
+            th.warnings.push(Warning::Note(
                 "fresh water under pressure: the Millero (1995) corrections use sea-water \
-                 coefficients"
-                    .to_string(),
-            );
+                 coefficients",
+            ));
         }
         Ok(th)
     }
@@ -459,7 +464,7 @@ pub(crate) fn solve_fresh(
     })
 }
 
-fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<String>) {
+fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<Warning>) {
     let f = water.fresh_options();
     let unused = [
         (
@@ -471,38 +476,36 @@ fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<
     ];
     for (given, other) in unused {
         if given && other != r {
-            w.push(format!(
+            w.push(Warning::Text(format!(
                 "ionic strength from {} was not used: {} comes first",
                 other.name(),
                 r.name()
-            ));
+            )));
         }
     }
     if r == IonicStrengthRoute::AlkalinityOnly {
-        w.push(
+        w.push(Warning::Note(
             "no ions, conductance, TDS or ionic strength given: the ionic strength is \
-             estimated from the carbonate species with monovalent counter-ions"
-                .to_string(),
-        );
+             estimated from the carbonate species with monovalent counter-ions",
+        ));
     }
     let limit = match water.fresh_options().activity {
         crate::activity::ActivityModel::ExtendedDebyeHuckel => 0.1,
         _ => 0.5,
     };
     if i > limit {
-        w.push(format!(
+        w.push(Warning::Text(format!(
             "ionic strength {i:.3} mol/kg is above {limit}, where the {} activity model holds",
             water.fresh_options().activity.name()
-        ));
+        )));
     }
     if water.composition().calcium_given() {
         return;
     }
-    w.push(
+    w.push(Warning::Note(
         "calcium not given: calcite and aragonite saturation and the Langelier index are \
-         not computed"
-            .to_string(),
-    );
+         not computed",
+    ));
 }
 
 #[allow(clippy::too_many_arguments)]
@@ -514,7 +517,7 @@ fn extras(
     dic: f64,
     r: IonicStrengthRoute,
     imbalance: f64,
-    warnings: &mut Vec<String>,
+    warnings: &mut Vec<Warning>,
 ) -> FreshExtras {
     let ca_t = k.totals.calcium_mol_kg;
     let mut e = FreshExtras {
@@ -537,17 +540,16 @@ fn extras(
             e.saturation_ph_nbs = Some(phs);
             e.langelier_index = Some(-h.log10() - phs);
         }
-        None => warnings.push(
+        None => warnings.push(Warning::Note(
             "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
-             calcium: Langelier index not computed"
-                .to_string(),
-        ),
+             calcium: Langelier index not computed",
+        )),
     }
     match precipitation_potential(water, th, k, ta, dic) {
         Some(x) => e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL),
-        None => warnings.push(
-            "the calcium carbonate precipitation potential could not be bracketed".to_string(),
-        ),
+        None => warnings.push(Warning::Note(
+            "the calcium carbonate precipitation potential could not be bracketed",
+        )),
     }
     e
 }

@@ -51,6 +51,7 @@ pub mod scales;
 pub mod solve;
 pub mod state;
 pub mod units;
+pub mod warning;
 pub mod water;
 
 pub use conditions::Conditions;
@@ -59,4 +60,5 @@ pub use measured::{Measured, Parameter};
 pub use scales::PhScale;
 pub use solve::{RootChoice, SolveOptions};
 pub use state::State;
+pub use warning::Warning;
 pub use water::{Medium, Water};

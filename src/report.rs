@@ -205,9 +205,10 @@ pub fn table(state: &State, measured: Option<&State>) -> String {
     for (what, name) in fits {
         let _ = writeln!(out, "  {what:<label_w$}{name}");
     }
-    let mut warnings: Vec<&String> = state.warnings.iter().collect();
+    let mut warnings: Vec<String> = state.warnings.iter().map(|w| w.to_string()).collect();
     if let Some(m) = measured {
         for w in &m.warnings {
+            let w = w.to_string();
             if !warnings.contains(&w) {
                 warnings.push(w);
             }

@@ -21,6 +21,7 @@ use crate::error::{Error, Result};
 use crate::measured::{Measured, Parameter, Value};
 use crate::root::safeguarded_newton;
 use crate::scales::PhScale;
+use crate::warning::Warning;
 
 /// Which root to return for the pairs that have two.
 ///
@@ -90,7 +91,7 @@ impl SolveOptions {
 pub(crate) struct Solution {
     pub h: f64,
     pub dic: f64,
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
 }
 
 /// Lowest working-scale pH searched.
@@ -123,7 +124,7 @@ impl Known {
     }
 }
 
-fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<String>) -> Known {
+fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<Warning>) -> Known {
     let rho = k.density_kg_m3;
     match (m.parameter(), m.value()) {
         (_, Value::Ph(ph, scale)) => {
@@ -131,19 +132,18 @@ fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<String>) -> Known {
             if k.working_scale == PhScale::Nbs
                 && matches!(scale, PhScale::Total | PhScale::Seawater)
             {
-                warnings.push(format!(
-                    "pH on the {} scale in fresh water is taken through the free scale with \
-                     the sulfate and fluoride given; fresh-water pH is normally NBS",
-                    scale.name()
+                warnings.push(Warning::Note(
+                    "pH on the total or sea-water scale in fresh water is taken through the \
+                     free scale with the sulfate and fluoride given; fresh-water pH is \
+                     normally NBS",
                 ));
             }
             if scale == PhScale::Nbs && k.working_scale != PhScale::Nbs {
-                warnings.push(
+                warnings.push(Warning::Note(
                     "pH on the NBS scale in saline water is approximate: it is converted with \
                      the H+ activity coefficient of Takahashi et al. (1982), and electrode \
-                     junction errors are not known"
-                        .to_string(),
-                );
+                     junction errors are not known",
+                ));
             }
             Known::H(k.h_from_ph(ph, scale))
         }
@@ -432,15 +432,14 @@ fn pick(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
     }
 }
 
-fn other_root_warning(pair: &Pair, k: &Constants, chosen: f64, other: f64) -> String {
-    let which = if other < chosen { "higher" } else { "lower" };
-    format!(
-        "{} with {} also fits a water of pH {:.4} ({} scale); ask for the {which}-pH root to get it",
-        pair.a.parameter().name(),
-        pair.b.parameter().name(),
-        -other.log10(),
-        k.working_scale.name()
-    )
+fn other_root_warning(pair: &Pair, k: &Constants, chosen: f64, other: f64) -> Warning {
+    Warning::OtherRoot {
+        first: pair.a.parameter().name(),
+        second: pair.b.parameter().name(),
+        ph: -other.log10(),
+        scale: k.working_scale.name(),
+        higher: other < chosen,
+    }
 }
 
 /// DIC with HCO3-: c h² − (1 − c) K1 h + c K1 K2 = 0, c = HCO3/DIC.
@@ -450,7 +449,7 @@ fn dic_hco3_root(
     dic: f64,
     hco3: f64,
     root: RootChoice,
-    warnings: &mut Vec<String>,
+    warnings: &mut Vec<Warning>,
 ) -> Result<f64> {
     let c = hco3 / dic;
     let q = 1.0 - c;
@@ -479,7 +478,7 @@ fn ta_co3_root(
     ta: f64,
     co3: f64,
     root: RootChoice,
-    warnings: &mut Vec<String>,
+    warnings: &mut Vec<Warning>,
 ) -> Result<f64> {
     let g = |x: f64| {
         let h = x.exp();

@@ -9,6 +9,7 @@ use crate::measured::Measured;
 use crate::scales::PhScale;
 use crate::solve::{solve, SolveOptions};
 use crate::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
+use crate::warning::Warning;
 use crate::water::{Medium, Water};
 use serde::Serialize;
 
@@ -163,7 +164,7 @@ pub struct State {
     /// The fit used for each constant.
     pub constants: FitsUsed,
     /// Cautions: fits used outside their range, other roots, approximations.
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
     #[serde(skip)]
     water_sample: Water,
     #[serde(skip)]
@@ -245,7 +246,7 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        warnings: Vec<String>,
+        warnings: Vec<Warning>,
     ) -> State {
         Self::build_fresh_or_saline(water, k, h, dic, warnings, None)
     }
@@ -256,7 +257,7 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        warnings: Vec<String>,
+        warnings: Vec<Warning>,
         extras: FreshExtras,
     ) -> State {
         Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras))
@@ -267,7 +268,7 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        mut warnings: Vec<String>,
+        mut warnings: Vec<Warning>,
         extras: Option<FreshExtras>,
     ) -> State {
         let k12 = k.k1e * k.k2e;

@@ -145,7 +145,7 @@ proptest! {
                     let natural = w.solve(ma, mb).unwrap();
                     let nearer = if (lower.ph_total - 8.0).abs() < (higher.ph_total - 8.0).abs() { &lower } else { &higher };
                     prop_assert!(mismatch(nearer, &natural).is_none());
-                    prop_assert!(natural.warnings.iter().any(|w| w.contains("also fits")));
+                    prop_assert!(natural.warnings.iter().any(|w| w.to_string().contains("also fits")));
                 } else {
                     let s = w.solve(ma, mb);
                     prop_assert!(s.is_ok(), "{a:?}+{b:?} failed: {:?}", s.err());

@@ -30,6 +30,7 @@ use crate::conditions::Conditions;
 use crate::density::density_kg_m3;
 use crate::error::{Error, Result};
 use crate::scales::{takahashi1982_fh, PhScale};
+use crate::warning::Warning;
 use crate::water::Composition;
 use serde::Serialize;
 
@@ -326,7 +327,7 @@ pub struct Constants {
     /// The fits behind these numbers.
     pub fits_used: FitsUsed,
     /// Every fit used outside its published range, and other cautions.
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Warning>,
     /// Activity coefficients (fresh water only).
     pub gammas: Option<crate::activity::Gammas>,
     /// [CaHCO3+]/([Ca++][HCO3-]), concentration basis (fresh water; 0 in saline).
@@ -396,9 +397,13 @@ impl Constants {
         let totals = composition.saline_totals(s, density, fits.boron_total);
 
         // Free-scale KS and KF at the surface.
-        sulfate::DICKSON1990_KS_RANGE.check(t_c, s, &mut warnings);
+        if totals.sulfate_mol_kg > 0.0 {
+            sulfate::DICKSON1990_KS_RANGE.check_for("KS", t_c, s, &mut warnings);
+        }
         let ks0 = sulfate::dickson1990_ln_ks(t, s).exp();
-        fits.fluoride.range().check(t_c, s, &mut warnings);
+        if totals.fluoride_mol_kg > 0.0 {
+            fits.fluoride.range().check_for("KF", t_c, s, &mut warnings);
+        }
         let kf_native = fits.fluoride.kf(t, s);
         let kf0 = match fits.fluoride.scale() {
             PhScale::Total => kf_native / (1.0 + totals.sulfate_mol_kg / ks0),
@@ -415,19 +420,23 @@ impl Constants {
         };
 
         let carbonic = fits.carbonic_at(t_c, s);
-        carbonic.range().check(t_c, s, &mut warnings);
+        carbonic
+            .range()
+            .check_for("K1 and K2", t_c, s, &mut warnings);
         let (k1n, k2n) = carbonic.k1_k2(t, s);
         let mut k1 = k1n * to_sws0(carbonic.scale());
         let mut k2 = k2n * to_sws0(carbonic.scale());
 
-        boron::DICKSON1990_KB_RANGE.check(t_c, s, &mut warnings);
+        if totals.boron_mol_kg > 0.0 {
+            boron::DICKSON1990_KB_RANGE.check_for("KB", t_c, s, &mut warnings);
+        }
         let mut kb = boron::dickson1990_ln_kb(t, s).exp() * total_to_sws0;
-        water::MILLERO1995_KW_RANGE.check(t_c, s, &mut warnings);
+        water::MILLERO1995_KW_RANGE.check_for("KW", t_c, s, &mut warnings);
         let mut kw = water::millero1995_ln_kw(t, s).exp() * total_to_sws0;
 
         let (mut kp1, mut kp2, mut kp3, mut ksi) = (0.0, 0.0, 0.0, 0.0);
         if totals.phosphate_mol_kg > 0.0 || totals.silicate_mol_kg > 0.0 {
-            nutrients::MILLERO1995_NUTRIENT_RANGE.check(t_c, s, &mut warnings);
+            nutrients::MILLERO1995_NUTRIENT_RANGE.check_for("KP and KSi", t_c, s, &mut warnings);
         }
         if totals.phosphate_mol_kg > 0.0 {
             let (a, b, c) = nutrients::millero1995_ln_kp(t, s);
@@ -440,16 +449,16 @@ impl Constants {
         }
         let mut knh4 = 0.0;
         if totals.ammonia_mol_kg > 0.0 {
-            ammonia::JOHANSSON_WEDBORG1980_RANGE.check(t_c, s, &mut warnings);
+            ammonia::JOHANSSON_WEDBORG1980_RANGE.check_for("KNH4", t_c, s, &mut warnings);
             knh4 = 10f64.powf(-ammonia::johansson_wedborg1980_pka(t, s));
         }
         let mut kh2s = 0.0;
         if totals.sulfide_mol_kg > 0.0 {
-            sulfide::MILLERO1988_RANGE.check(t_c, s, &mut warnings);
+            sulfide::MILLERO1988_RANGE.check_for("KH2S", t_c, s, &mut warnings);
             kh2s = 10f64.powf(-sulfide::millero1988_pk1(t, s)) * total_to_sws0;
         }
 
-        minerals::MUCCI1983_RANGE.check(t_c, s, &mut warnings);
+        minerals::MUCCI1983_RANGE.check_for("calcite and aragonite", t_c, s, &mut warnings);
         let (lc, la) = minerals::mucci1983_log_ksp(t, s);
         let mut ksp_calcite = 10f64.powf(lc);
         let mut ksp_aragonite = 10f64.powf(la);
@@ -485,7 +494,7 @@ impl Constants {
             *k *= sws_to_total;
         }
 
-        gas::WEISS1974_RANGE.check(t_c, s, &mut warnings);
+        gas::WEISS1974_RANGE.check_for("K0", t_c, s, &mut warnings);
         let k0 = gas::weiss1974_ln_k0(t, s).exp();
         let fugacity_factor = gas::weiss1974_fugacity_factor(t, conditions.air_pressure_atm());
         let vapour_pressure_atm = gas::weiss_price1980_vapour_pressure_atm(t, s);

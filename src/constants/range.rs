@@ -1,5 +1,6 @@
 //! Published validity ranges of fits, and the warnings given outside them.
 
+use crate::warning::Warning;
 use serde::Serialize;
 
 /// The published validity range of a fit, with how well its coefficients
@@ -10,9 +11,9 @@ use serde::Serialize;
 /// use travertine::constants::FitRange;
 /// let r = FitRange::new("lueker2000", (2.0, 35.0), (19.0, 43.0));
 /// let mut warnings = Vec::new();
-/// r.check(25.0, 35.0, &mut warnings);
+/// r.check_for("K1 and K2", 25.0, 35.0, &mut warnings);
 /// assert!(warnings.is_empty());
-/// r.check(40.0, 35.0, &mut warnings);
+/// r.check_for("K1 and K2", 40.0, 35.0, &mut warnings);
 /// assert_eq!(warnings.len(), 1);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -58,27 +59,36 @@ impl FitRange {
             && salinity <= self.salinity.1 + EPS
     }
 
-    /// Pushes a warning when the conditions are outside the range.
+    /// Pushes a warning for `constant` when the conditions are outside the
+    /// range. A fit with a salinity range of (0, 0) is a pure-water fit and is
+    /// checked on temperature alone.
     ///
     /// ```
     /// # use travertine::constants::FitRange;
     /// let r = FitRange::new("mucci1983", (5.0, 40.0), (5.0, 44.0));
     /// let mut w = Vec::new();
-    /// r.check(2.0, 35.0, &mut w);
-    /// assert!(w[0].contains("mucci1983"));
+    /// r.check_for("calcite and aragonite", 2.0, 35.0, &mut w);
+    /// assert!(w[0].to_string().contains("mucci1983"));
     /// ```
-    pub fn check(&self, temperature_c: f64, salinity: f64, warnings: &mut Vec<String>) {
-        if !self.contains(temperature_c, salinity) {
-            warnings.push(format!(
-                "{} is extrapolated: published for {} to {} °C and salinity {} to {}, used at {} °C and salinity {}",
-                self.name,
-                self.temperature_c.0,
-                self.temperature_c.1,
-                self.salinity.0,
-                self.salinity.1,
+    pub fn check_for(
+        &self,
+        constant: &'static str,
+        temperature_c: f64,
+        salinity: f64,
+        warnings: &mut Vec<Warning>,
+    ) {
+        let s = if self.salinity == (0.0, 0.0) {
+            0.0
+        } else {
+            salinity
+        };
+        if !self.contains(temperature_c, s) {
+            warnings.push(Warning::Extrapolated {
+                constant,
+                range: *self,
                 temperature_c,
-                salinity
-            ));
+                salinity,
+            });
         }
     }
 }
