@@ -127,7 +127,7 @@ impl Thermo {
         if totals.ammonia_mol_kg > 0.0 {
             pb::EMERSON1975_RANGE.check_for("KNH4", t_c, 0.0, &mut warnings);
         }
-        let p10 = |x: f64| 10f64.powf(x);
+        let p10 = crate::numeric::pow10;
         let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
         let mut th = Thermo {
             kh: p10(pb::log_kh(t)),
@@ -290,7 +290,7 @@ fn fresh_fits_used(t: &Totals) -> FitsUsed {
         },
         pressure: "millero1995",
         nbs_scale: "activity (davies or extended debye-huckel)",
-        density: "teos10",
+        density: "millero-poisson1981",
     }
 }
 

@@ -44,6 +44,7 @@ pub mod density;
 pub mod error;
 pub mod fresh;
 pub mod measured;
+pub(crate) mod numeric;
 pub mod report;
 pub(crate) mod root;
 pub mod sample;

@@ -10,6 +10,10 @@
 
 /// Absolute tolerance on x (here x = ln h, so a relative tolerance on h).
 pub(crate) const X_TOLERANCE: f64 = 1e-13;
+/// A Newton step shorter than this ends the iteration, returning the point
+/// after the step: near a simple root the error after a step of length d is
+/// of order d², here about 1e-16.
+pub(crate) const NEWTON_ACCEPT: f64 = 1e-8;
 /// Iteration cap; reaching it is reported as non-convergence.
 pub(crate) const MAX_ITERATIONS: u32 = 200;
 
@@ -59,9 +63,10 @@ where
         } else {
             xh = x;
         }
-        if dfx != 0.0 && dfx.is_finite() && (fx / dfx).abs() < X_TOLERANCE {
-            // Converged: a Newton step below the tolerance, even where the
-            // bracket end sits on x itself and the inside test cannot hold.
+        if dfx != 0.0 && dfx.is_finite() && (fx / dfx).abs() < NEWTON_ACCEPT {
+            // Converged: a short Newton step (quadratic convergence), also
+            // where the bracket end sits on x itself and the inside test
+            // cannot hold.
             return Ok(x - fx / dfx);
         }
         let newton_ok = dfx != 0.0 && dfx.is_finite() && {

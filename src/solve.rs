@@ -99,6 +99,9 @@ const PH_MIN: f64 = 0.0;
 /// Highest working-scale pH searched.
 const PH_MAX: f64 = 14.0;
 const LN10: f64 = std::f64::consts::LN_10;
+/// h at the bracket ends.
+const H_AT_PH_MAX: f64 = 1e-14;
+const H_AT_PH_MIN: f64 = 1.0;
 
 /// The internal form of one measured parameter.
 #[derive(Clone, Copy)]
@@ -342,7 +345,7 @@ pub(crate) fn solve(
             })
         }
     };
-    let ph = -h.log10();
+    let ph = -crate::numeric::log10(h);
     if !(PH_MIN..=PH_MAX).contains(&ph) || !dic.is_finite() || dic <= 0.0 {
         return Err(pair.no_water(format!(
             "they imply a pH of {ph:.3} ({} scale), outside {PH_MIN} to {PH_MAX}",
@@ -352,9 +355,14 @@ pub(crate) fn solve(
     Ok(Solution { h, dic, warnings })
 }
 
-/// First guess for (TA, DIC): the root of the carbonate-only equation
-/// TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0, as ln h.
+/// First guess for (TA, DIC), as ln h: the root of the carbonate-only
+/// equation TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0.
 fn carbonate_guess(k: &Constants, ta: f64, dic: f64) -> f64 {
+    carbonate_only_root(k, ta, dic)
+}
+
+/// The root of TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0, as ln h.
+fn carbonate_only_root(k: &Constants, ta: f64, dic: f64) -> f64 {
     if ta <= 0.0 || ta >= 2.0 * dic {
         return f64::NAN;
     }
@@ -384,16 +392,16 @@ fn ta_root<C>(k: &Constants, pair: &Pair, ta: f64, carbonate: C, guess: f64) -> 
 where
     C: Fn(f64) -> (f64, f64),
 {
-    let f = |x: f64| {
-        let h = x.exp();
+    let at_h = |h: f64| {
         let (c, dc) = carbonate(h);
         let (n, dn) = non_carbonate(k, h);
         (c + n - ta, h * (dc + dn))
     };
+    let f = |x: f64| at_h(x.exp());
     let lo = -PH_MAX * LN10;
     let hi = -PH_MIN * LN10;
-    let (f_lo, _) = f(lo);
-    let (f_hi, _) = f(hi);
+    let (f_lo, _) = at_h(H_AT_PH_MAX);
+    let (f_hi, _) = at_h(H_AT_PH_MIN);
     if f_lo < 0.0 {
         return Err(pair.no_water(format!(
             "the alkalinity is higher than any water with that {} can have below pH {PH_MAX}",
@@ -492,16 +500,36 @@ fn ta_co3_root(
         let h = x.exp();
         co3 / k.k2e + non_carbonate(k, h).1
     };
-    let x_min = if slope(hi) <= 0.0 {
+    // Where hydroxide dominates the non-carbonate part, the minimum is near
+    // h = sqrt(KW K2 / CO3); if g is already negative there, that point
+    // separates the roots and no search is needed.
+    let x_guess = (0.5 * (k.kw * k.k2e / co3).ln()).clamp(lo, hi);
+    let x_min = if g(x_guess).0 < 0.0 {
+        x_guess
+    } else if slope(hi) <= 0.0 {
         hi
     } else if slope(lo) >= 0.0 {
         lo
     } else {
+        // Any point where g < 0 separates the two roots, so the minimum is
+        // first found loosely (1e-6 in ln h) and refined only if g there is
+        // not yet negative (a near-double root).
         let mut conv = roots::SimpleConvergency {
-            eps: 1e-12,
+            eps: 1e-6,
             max_iter: 200,
         };
-        roots::find_root_brent(lo, hi, slope, &mut conv).map_err(|_| pair.no_convergence(200))?
+        let x = roots::find_root_brent(lo, hi, slope, &mut conv)
+            .map_err(|_| pair.no_convergence(200))?;
+        if g(x).0 < 0.0 {
+            x
+        } else {
+            let mut conv = roots::SimpleConvergency {
+                eps: 1e-14,
+                max_iter: 400,
+            };
+            roots::find_root_brent(lo, hi, slope, &mut conv)
+                .map_err(|_| pair.no_convergence(400))?
+        }
     };
     let (g_min, _) = g(x_min);
     if g_min > 0.0 {
@@ -513,9 +541,27 @@ fn ta_co3_root(
     let (g_lo, _) = g(lo);
     let (g_hi, _) = g(hi);
     // Root at lower h (higher pH), between lo and x_min.
+    // First guesses: hydroxide carries the alkalinity at the high-pH root,
+    // carbonate at the low-pH one.
+    let guess_high = {
+        let excess = ta - 2.0 * co3;
+        if excess > 0.0 {
+            (k.kw / excess).ln()
+        } else {
+            0.5 * (lo + x_min)
+        }
+    };
+    let guess_low = {
+        let h = k.k2e * (ta / co3 - 2.0);
+        if h > 0.0 {
+            h.ln()
+        } else {
+            0.5 * (x_min + hi)
+        }
+    };
     let high_ph = if g_lo >= 0.0 && x_min > lo {
         Some(
-            safeguarded_newton(g, lo, g_lo, x_min, g_min, 0.5 * (lo + x_min))
+            safeguarded_newton(g, lo, g_lo, x_min, g_min, guess_high)
                 .map_err(|n| pair.no_convergence(n))?
                 .exp(),
         )
@@ -524,7 +570,7 @@ fn ta_co3_root(
     };
     let low_ph = if g_hi >= 0.0 && x_min < hi {
         Some(
-            safeguarded_newton(g, x_min, g_min, hi, g_hi, 0.5 * (x_min + hi))
+            safeguarded_newton(g, x_min, g_min, hi, g_hi, guess_low)
                 .map_err(|n| pair.no_convergence(n))?
                 .exp(),
         )

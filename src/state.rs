@@ -159,14 +159,14 @@ pub struct State {
     pub dic_mg_l_c: f64,
     /// Free CO2 (CO2*), mg/L as CO2.
     pub free_co2_mg_l: f64,
-    /// Density used for per-litre units, kg/m³ (TEOS-10).
+    /// Density used for per-litre units, kg/m³ (Millero & Poisson 1981, EOS-80).
     pub density_kg_m3: f64,
     /// The fit used for each constant.
     pub constants: FitsUsed,
     /// Cautions: fits used outside their range, other roots, approximations.
     pub warnings: Vec<Warning>,
     #[serde(skip)]
-    water_sample: Water,
+    water_sample: std::sync::Arc<Water>,
     #[serde(skip)]
     h: f64,
 }
@@ -320,8 +320,8 @@ impl State {
             xco2_ppm: xco2 * u,
             omega_calcite: omega_c,
             omega_aragonite: omega_a,
-            si_calcite: omega_c.map(f64::log10),
-            si_aragonite: omega_a.map(f64::log10),
+            si_calcite: omega_c.map(crate::numeric::log10),
+            si_aragonite: omega_a.map(crate::numeric::log10),
             revelle_factor: revelle,
             carbonate_alkalinity_umol_kg: p.carbonate * u,
             borate_alkalinity_umol_kg: p.borate * u,
@@ -353,7 +353,7 @@ impl State {
             density_kg_m3: rho,
             constants: k.fits_used.clone(),
             warnings: all,
-            water_sample: water.clone(),
+            water_sample: std::sync::Arc::new(water.clone()),
             h,
         }
     }

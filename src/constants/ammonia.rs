@@ -20,6 +20,7 @@ pub const JOHANSSON_WEDBORG1980_RANGE: FitRange =
 /// let pk = travertine::constants::ammonia::johansson_wedborg1980_pka(298.15, 35.0);
 /// assert!((pk - 9.2586).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn johansson_wedborg1980_pka(temperature_k: f64, salinity: f64) -> f64 {
     -0.467 + 0.00113 * salinity + 2887.9 / temperature_k
 }

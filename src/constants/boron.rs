@@ -21,6 +21,7 @@ pub const DICKSON1990_KB_RANGE: FitRange = FitRange::new("dickson1990", (0.0, 45
 /// let l = travertine::constants::boron::dickson1990_ln_kb(298.15, 35.0);
 /// assert!((l - -19.7964).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn dickson1990_ln_kb(temperature_k: f64, salinity: f64) -> f64 {
     let (t, s) = (temperature_k, salinity);
     let rs = s.sqrt();
@@ -81,6 +82,7 @@ impl BoronTotalFit {
     /// # use travertine::constants::BoronTotalFit;
     /// assert!((BoronTotalFit::Uppstrom1974.total_mol_kg(35.0) * 1e6 - 415.8).abs() < 0.05);
     /// ```
+    #[inline]
     pub fn total_mol_kg(self, salinity: f64) -> f64 {
         match self {
             BoronTotalFit::Lee2010 => 0.1336e-3 / 10.811 * salinity,

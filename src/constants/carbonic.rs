@@ -96,6 +96,7 @@ impl CarbonicFit {
     /// assert!((-k1.log10() - 5.8401).abs() < 5e-5);
     /// assert!((-k2.log10() - 8.9636).abs() < 5e-5);
     /// ```
+    #[inline]
     pub fn k1_k2(self, temperature_k: f64, salinity: f64) -> (f64, f64) {
         let (a, b) = match self {
             CarbonicFit::Lueker2000 => lueker2000_pk1_pk2(temperature_k, salinity),
@@ -106,7 +107,7 @@ impl CarbonicFit {
             }
             CarbonicFit::DicksonMillero1987 => dickson_millero1987_pk1_pk2(temperature_k, salinity),
         };
-        (10f64.powf(-a), 10f64.powf(-b))
+        (crate::numeric::pow10(-a), crate::numeric::pow10(-b))
     }
 }
 
@@ -137,6 +138,7 @@ impl std::str::FromStr for CarbonicFit {
 /// let (pk1, pk2) = travertine::constants::carbonic::lueker2000_pk1_pk2(298.15, 35.0);
 /// assert!((pk1 - 5.8472).abs() < 5e-5 && (pk2 - 8.9660).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn lueker2000_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
@@ -161,6 +163,7 @@ pub fn lueker2000_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let (pk1, pk2) = travertine::constants::carbonic::millero2006_pk1_pk2(298.15, 35.0);
 /// assert!((pk1 - 5.8401).abs() < 5e-5 && (pk2 - 8.9636).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn millero2006_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
@@ -195,6 +198,7 @@ pub fn millero2006_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let (l1, l2) = travertine::constants::carbonic::roy1993_ln_k1_k2(298.15, 35.0);
 /// assert!((l1 - -13.4847).abs() < 5e-4 && (l2 - -20.5504).abs() < 5e-4);
 /// ```
+#[inline]
 pub fn roy1993_ln_k1_k2(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
@@ -227,6 +231,7 @@ pub fn roy1993_ln_k1_k2(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let (pk1, pk2) = travertine::constants::carbonic::dickson_millero1987_pk1_pk2(298.15, 35.0);
 /// assert!((pk1 - 5.8372).abs() < 5e-5 && (pk2 - 8.9554).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn dickson_millero1987_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let pk1 = 3670.7 / t - 62.008 + 9.7944 * t.ln() - 0.0118 * s + 0.000116 * s * s;

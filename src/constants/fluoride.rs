@@ -84,6 +84,7 @@ impl FluorideFit {
     /// let kf = FluorideFit::DicksonRiley1979.kf(298.15, 35.0);
     /// assert!((kf.ln() - -6.0468).abs() < 5e-4);
     /// ```
+    #[inline]
     pub fn kf(self, temperature_k: f64, salinity: f64) -> f64 {
         let t = temperature_k;
         match self {
@@ -118,6 +119,7 @@ impl std::str::FromStr for FluorideFit {
 /// let ft = travertine::constants::fluoride::riley1965_total_mol_kg(35.0);
 /// assert!((ft - 6.83e-5).abs() < 5e-8);
 /// ```
+#[inline]
 pub fn riley1965_total_mol_kg(salinity: f64) -> f64 {
     (6.7e-5 / 18.998) * (salinity / 1.80655)
 }

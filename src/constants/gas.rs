@@ -28,6 +28,7 @@ pub const WEISS_PRICE1980_RANGE: FitRange =
 /// let ln_k0 = travertine::constants::gas::weiss1974_ln_k0(298.15, 35.0);
 /// assert!((ln_k0 - -3.5617).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn weiss1974_ln_k0(temperature_k: f64, salinity: f64) -> f64 {
     let t100 = temperature_k / 100.0;
     -60.2409
@@ -53,6 +54,7 @@ pub fn weiss1974_ln_k0(temperature_k: f64, salinity: f64) -> f64 {
 /// let f = travertine::constants::gas::weiss1974_fugacity_factor(298.15, 1.0);
 /// assert!((f - 0.996810).abs() < 2e-6);
 /// ```
+#[inline]
 pub fn weiss1974_fugacity_factor(temperature_k: f64, air_pressure_atm: f64) -> f64 {
     let t = temperature_k;
     let b = -1636.75 + 12.0408 * t - 3.27957e-2 * t * t + 3.16528e-5 * t * t * t;
@@ -73,6 +75,7 @@ pub fn weiss1974_fugacity_factor(temperature_k: f64, air_pressure_atm: f64) -> f
 /// let p = travertine::constants::gas::weiss_price1980_vapour_pressure_atm(298.15, 35.0);
 /// assert!((p - 0.030655).abs() < 2e-6);
 /// ```
+#[inline]
 pub fn weiss_price1980_vapour_pressure_atm(temperature_k: f64, salinity: f64) -> f64 {
     let t100 = temperature_k / 100.0;
     (24.4543 - 67.4509 / t100 - 4.8489 * t100.ln() - 0.000544 * salinity).exp()

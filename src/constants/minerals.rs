@@ -22,6 +22,7 @@ pub const MUCCI1983_RANGE: FitRange = FitRange::new("mucci1983", (5.0, 40.0), (5
 /// let (c, a) = travertine::constants::minerals::mucci1983_log_ksp(298.15, 35.0);
 /// assert!((c - -6.3693).abs() < 5e-5 && (a - -6.1883).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn mucci1983_log_ksp(temperature_k: f64, salinity: f64) -> (f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let rs = s.sqrt();
@@ -49,6 +50,7 @@ pub fn mucci1983_log_ksp(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let ca = travertine::constants::minerals::riley_tongudai1967_calcium_mol_kg(35.0);
 /// assert!((ca - 0.01028).abs() < 5e-6);
 /// ```
+#[inline]
 pub fn riley_tongudai1967_calcium_mol_kg(salinity: f64) -> f64 {
     (0.02128 / 40.087) * (salinity / 1.80655)
 }

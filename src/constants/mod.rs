@@ -347,7 +347,7 @@ impl Constants {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn h_from_ph(&self, ph: f64, scale: PhScale) -> f64 {
-        10f64.powf(-ph) / self.per_working(scale)
+        crate::numeric::pow10(-ph) / self.per_working(scale)
     }
 
     /// pH on `scale` from H on the working scale.
@@ -362,7 +362,7 @@ impl Constants {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn ph_from_h(&self, h: f64, scale: PhScale) -> f64 {
-        -(h * self.per_working(scale)).log10()
+        -crate::numeric::log10(h * self.per_working(scale))
     }
 
     fn per_working(&self, scale: PhScale) -> f64 {
@@ -450,18 +450,18 @@ impl Constants {
         let mut knh4 = 0.0;
         if totals.ammonia_mol_kg > 0.0 {
             ammonia::JOHANSSON_WEDBORG1980_RANGE.check_for("KNH4", t_c, s, &mut warnings);
-            knh4 = 10f64.powf(-ammonia::johansson_wedborg1980_pka(t, s));
+            knh4 = crate::numeric::pow10(-ammonia::johansson_wedborg1980_pka(t, s));
         }
         let mut kh2s = 0.0;
         if totals.sulfide_mol_kg > 0.0 {
             sulfide::MILLERO1988_RANGE.check_for("KH2S", t_c, s, &mut warnings);
-            kh2s = 10f64.powf(-sulfide::millero1988_pk1(t, s)) * total_to_sws0;
+            kh2s = crate::numeric::pow10(-sulfide::millero1988_pk1(t, s)) * total_to_sws0;
         }
 
         minerals::MUCCI1983_RANGE.check_for("calcite and aragonite", t_c, s, &mut warnings);
         let (lc, la) = minerals::mucci1983_log_ksp(t, s);
-        let mut ksp_calcite = 10f64.powf(lc);
-        let mut ksp_aragonite = 10f64.powf(la);
+        let mut ksp_calcite = crate::numeric::pow10(lc);
+        let mut ksp_aragonite = crate::numeric::pow10(la);
 
         let (mut ks, mut kf) = (ks0, kf0);
         if p_bar > 0.0 {
@@ -569,7 +569,7 @@ impl Constants {
                 },
                 pressure: "millero1995",
                 nbs_scale: "takahashi1982",
-                density: "teos10",
+                density: "millero-poisson1981",
             },
             warnings,
             gammas: None,

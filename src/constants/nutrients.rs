@@ -23,6 +23,7 @@ pub const MILLERO1995_NUTRIENT_RANGE: FitRange =
 /// let (a, b, c) = travertine::constants::nutrients::millero1995_ln_kp(298.15, 35.0);
 /// assert!((a - -3.71).abs() < 5e-3 && (b - -13.727).abs() < 5e-4 && (c - -20.24).abs() < 5e-3);
 /// ```
+#[inline]
 pub fn millero1995_ln_kp(temperature_k: f64, salinity: f64) -> (f64, f64, f64) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
@@ -50,6 +51,7 @@ pub fn millero1995_ln_kp(temperature_k: f64, salinity: f64) -> (f64, f64, f64) {
 /// let l = travertine::constants::nutrients::millero1995_ln_ksi(298.15, 35.0);
 /// assert!((l - -21.61).abs() < 5e-3);
 /// ```
+#[inline]
 pub fn millero1995_ln_ksi(temperature_k: f64, salinity: f64) -> f64 {
     let t = temperature_k;
     let i = seawater_ionic_strength(salinity);

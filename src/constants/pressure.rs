@@ -71,6 +71,7 @@ pub const ARAGONITE: PressureCoefficients = pc(-45.96, 0.5304, 0.0, -11.76, 0.36
 /// assert!((pressure_factor(&CALCITE, 25.0, 1000.0) - 3.979).abs() < 1e-3);
 /// assert_eq!(pressure_factor(&CALCITE, 25.0, 0.0), 1.0);
 /// ```
+#[inline]
 pub fn pressure_factor(c: &PressureCoefficients, temperature_c: f64, pressure_bar: f64) -> f64 {
     if pressure_bar == 0.0 {
         return 1.0;

@@ -18,6 +18,7 @@ pub const DICKSON1990_KS_RANGE: FitRange = FitRange::new("dickson1990", (0.0, 45
 /// let i = travertine::constants::sulfate::seawater_ionic_strength(35.0);
 /// assert!((i - 0.7227).abs() < 1e-4);
 /// ```
+#[inline]
 pub fn seawater_ionic_strength(salinity: f64) -> f64 {
     19.924 * salinity / (1000.0 - 1.005 * salinity)
 }
@@ -36,6 +37,7 @@ pub fn seawater_ionic_strength(salinity: f64) -> f64 {
 /// let l = travertine::constants::sulfate::dickson1990_ln_ks(298.15, 35.0);
 /// assert!((l - -2.30).abs() < 5e-3);
 /// ```
+#[inline]
 pub fn dickson1990_ln_ks(temperature_k: f64, salinity: f64) -> f64 {
     let t = temperature_k;
     let ln_t = t.ln();
@@ -57,6 +59,7 @@ pub fn dickson1990_ln_ks(temperature_k: f64, salinity: f64) -> f64 {
 /// let st = travertine::constants::sulfate::morris_riley1966_total_mol_kg(35.0);
 /// assert!((st - 0.02824).abs() < 5e-6);
 /// ```
+#[inline]
 pub fn morris_riley1966_total_mol_kg(salinity: f64) -> f64 {
     (0.1400 / 96.062) * (salinity / 1.80655)
 }

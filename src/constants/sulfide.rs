@@ -19,6 +19,7 @@ pub const MILLERO1988_RANGE: FitRange = FitRange::new("millero1988", (0.0, 65.0)
 /// let pk = travertine::constants::sulfide::millero1988_pk1(298.15, 35.0);
 /// assert!((pk - 6.5107).abs() < 5e-5);
 /// ```
+#[inline]
 pub fn millero1988_pk1(temperature_k: f64, salinity: f64) -> f64 {
     let t = temperature_k;
     -98.080 + 5765.4 / t + 15.0455 * t.ln() - 0.1498 * salinity.sqrt() + 0.0119 * salinity

@@ -19,6 +19,7 @@ pub const MILLERO1995_KW_RANGE: FitRange = FitRange::new("millero1995", (0.0, 45
 /// let l = travertine::constants::water::millero1995_ln_kw(298.15, 35.0);
 /// assert!((l - -30.434).abs() < 5e-4);
 /// ```
+#[inline]
 pub fn millero1995_ln_kw(temperature_k: f64, salinity: f64) -> f64 {
     let t = temperature_k;
     let ln_t = t.ln();
