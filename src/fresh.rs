@@ -502,6 +502,12 @@ fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<
     if water.composition().calcium_given() {
         return;
     }
+    if water.composition().fresh_totals(1000.0).hardness_mol_kg > 0.0 {
+        w.push(Warning::Note(
+            "total hardness was given without a calcium fraction: it is not taken as \
+             calcium (it counts in the ionic strength only); give calcium or a calcium fraction",
+        ));
+    }
     w.push(Warning::Note(
         "calcium not given: calcite and aragonite saturation and the Langelier index are \
          not computed",

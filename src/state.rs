@@ -13,10 +13,6 @@ use crate::warning::Warning;
 use crate::water::{Medium, Water};
 use serde::Serialize;
 
-fn is_saline(v: &Option<f64>) -> bool {
-    v.is_none()
-}
-
 /// The fresh-water results computed beside the carbonate state.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub(crate) struct FreshExtras {
@@ -147,7 +143,6 @@ pub struct State {
     #[serde(skip_serializing_if = "Option::is_none")]
     pub saturation_ph_nbs: Option<f64>,
     /// Langelier index, pH − pHs (fresh water with calcium; null otherwise).
-    #[serde(skip_serializing_if = "is_saline")]
     pub langelier_index: Option<f64>,
     /// Calcium carbonate precipitation potential, mg/L as CaCO3: positive to
     /// precipitate, negative to dissolve (fresh water with calcium).

@@ -82,7 +82,7 @@ fn json_has_every_contract_key() {
     assert_eq!(v["constants"]["carbonic"], "lueker2000");
     assert!(v["warnings"].as_array().unwrap().is_empty());
     // equations.md §13 worked value (computed from the published equations).
-    assert!((v["ph_total"].as_f64().unwrap() - 8.0402).abs() < 5e-4);
+    approx::assert_abs_diff_eq!(v["ph_total"].as_f64().unwrap(), 8.0402, epsilon = 5e-4);
 }
 
 #[test]
@@ -97,7 +97,11 @@ fn spaced_units_and_trade_units_are_read() {
     assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
     let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
     // 117.79 mg/L CaCO3 at 1023.34 kg/m3 is 2300.0 µmol/kg (conversion, computed).
-    assert!((v["alkalinity_umol_kg"].as_f64().unwrap() - 2300.0).abs() < 0.2);
+    approx::assert_abs_diff_eq!(
+        v["alkalinity_umol_kg"].as_f64().unwrap(),
+        2300.0,
+        epsilon = 0.2
+    );
 }
 
 #[test]
