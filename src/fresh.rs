@@ -25,7 +25,7 @@ use crate::density::density_kg_m3;
 use crate::error::{Error, Result};
 use crate::measured::Measured;
 use crate::scales::PhScale;
-use crate::solve::{solve, SolveOptions};
+use crate::solve::{solve, to_known, Known, Pair, RootChoice, SolveOptions};
 use crate::state::{FreshExtras, State};
 use crate::units::CACO3_G_MOL;
 use crate::warning::Warning;
@@ -56,7 +56,7 @@ pub enum IonicStrengthRoute {
     /// From salinity with sea-water ratios, I = 19.924 S/(1000 − 1.005 S).
     #[serde(rename = "salinity")]
     Salinity,
-    /// Nothing given: the carbonate species with monovalent counter-ions.
+    /// Nothing given: the carbonate species, any calcium, and a monovalent ion balancing the charge.
     #[serde(rename = "alkalinity only")]
     AlkalinityOnly,
 }
@@ -425,37 +425,303 @@ pub(crate) fn starting_constants(water: &Water) -> Result<Constants> {
     Ok(th.constants(water, i, th.totals.calcium_mol_kg))
 }
 
-/// The fresh-water solve: the carbonate solve inside the fixed point of
-/// ionic strength and free calcium.
+/// The speciation at one h, from one carbon parameter, with the calcium
+/// pairs solved exactly: free CO2* = S, HCO3- = S u, CO3-- = S v with
+/// u = K1'/h, v = K1'K2'/h², free Ca = CaT/(1 + S w), w = a u + b v.
+#[derive(Debug, Clone, Copy)]
+struct Spec {
+    co2: f64,
+    hco3: f64,
+    co3: f64,
+    ca_free: f64,
+    dic: f64,
+    ta: f64,
+}
+
+/// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
+/// the balance (p − S c)(1 + S w) = S q.
+fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
+    if w == 0.0 {
+        return p / c;
+    }
+    let b = c + q - p * w;
+    let disc = (b * b + 4.0 * c * w * p).sqrt();
+    if b > 0.0 {
+        2.0 * p / (b + disc)
+    } else {
+        (disc - b) / (2.0 * c * w)
+    }
+}
+
+fn speciate(k: &Constants, h: f64, carbon: Known) -> Option<Spec> {
+    let ca_t = k.totals.calcium_mol_kg;
+    let (a, b) = (k.k_cahco3, k.k_caco3);
+    let u = k.k1 / h;
+    let v = k.k1 * k.k2 / (h * h);
+    let w = if ca_t > 0.0 { a * u + b * v } else { 0.0 };
+    let nc = non_carbonate(k, h).0;
+    let s = match carbon {
+        Known::Co2(x) => x,
+        Known::Hco3(x) => x / u,
+        Known::Co3(x) => x / v,
+        Known::Dic(d) => balance_root(1.0 + u + v, w, ca_t * w, d),
+        Known::Ta(t) => {
+            let carb = t - nc;
+            if carb <= 0.0 {
+                return None;
+            }
+            let w2 = if ca_t > 0.0 { a * u + 2.0 * b * v } else { 0.0 };
+            balance_root(u + 2.0 * v, w, ca_t * w2, carb)
+        }
+        Known::H(_) => return None,
+    };
+    if !(s.is_finite() && s > 0.0) {
+        return None;
+    }
+    let (hco3, co3) = (s * u, s * v);
+    let ca_free = if ca_t > 0.0 {
+        ca_t / (1.0 + s * w)
+    } else {
+        0.0
+    };
+    let (pair1, pair2) = (a * ca_free * hco3, b * ca_free * co3);
+    Some(Spec {
+        co2: s,
+        hco3,
+        co3,
+        ca_free,
+        dic: s + hco3 + co3 + pair1 + pair2,
+        ta: hco3 + 2.0 * co3 + pair1 + 2.0 * pair2 + nc,
+    })
+}
+
+fn value_of(spec: &Spec, which: Known) -> f64 {
+    match which {
+        Known::Ta(_) => spec.ta,
+        Known::Dic(_) => spec.dic,
+        Known::Co2(_) => spec.co2,
+        Known::Hco3(_) => spec.hco3,
+        Known::Co3(_) => spec.co3,
+        Known::H(_) => f64::NAN,
+    }
+}
+
+fn measured_value(k: Known) -> f64 {
+    match k {
+        Known::Ta(v) | Known::Dic(v) | Known::Co2(v) | Known::Hco3(v) | Known::Co3(v) => v,
+        Known::H(h) => h,
+    }
+}
+
+/// The speciation at h from one carbon parameter, with the ionic strength
+/// (when it comes from the ions) made consistent with it, starting from
+/// `i0`. Returns the speciation, the ionic strength and the constants.
+fn consistent(
+    water: &Water,
+    th: &Thermo,
+    fixed: Option<f64>,
+    h: f64,
+    carbon: Known,
+    i0: f64,
+) -> Option<(Spec, f64)> {
+    let mut i = fixed.unwrap_or(i0);
+    for _ in 0..MAX_OUTER {
+        let k0 = th.constants(water, i, 0.0);
+        let spec = speciate(&k0, h, carbon)?;
+        if fixed.is_some() {
+            return Some((spec, i));
+        }
+        let k = th.constants(water, i, spec.ca_free);
+        let i_new = ion_sum(&k, h, spec.dic).0;
+        if (i_new - i).abs() <= OUTER_TOLERANCE * i.max(1e-12) {
+            return Some((spec, i));
+        }
+        i = i_new;
+    }
+    None
+}
+
+/// Every h in pH 0–14 at which the pair fits, each with its own consistent
+/// ionic strength. One parameter fixes the speciation at each h; the other
+/// is matched by scanning pH in steps of 0.1 for sign changes and refining
+/// each with Brent's method to 1e-13 pH.
+#[allow(clippy::too_many_arguments)]
+fn roots_scan(
+    water: &Water,
+    th: &Thermo,
+    fixed: Option<f64>,
+    first: Known,
+    second: Known,
+    i0: f64,
+    pair: &Pair,
+) -> Result<Vec<(f64, f64)>> {
+    let target = measured_value(second);
+    let last_i = std::cell::Cell::new(i0);
+    let resid = |ph: f64| -> Option<f64> {
+        let h = crate::numeric::pow10(-ph);
+        let (spec, i) = consistent(water, th, fixed, h, first, last_i.get())?;
+        last_i.set(i);
+        Some(value_of(&spec, second) / target - 1.0)
+    };
+    let steps = 140;
+    let mut samples: Vec<Option<(f64, f64, f64)>> = Vec::with_capacity(steps + 1);
+    for n in 0..=steps {
+        let ph = 14.0 * n as f64 / steps as f64;
+        samples.push(resid(ph).map(|r| (ph, r, last_i.get())));
+    }
+    let refine = |lo: f64, hi: f64, i_start: f64| -> Result<(f64, f64)> {
+        last_i.set(i_start);
+        let f = |x: f64| resid(x).unwrap_or(f64::NAN);
+        let mut conv = roots::SimpleConvergency {
+            eps: 1e-13,
+            max_iter: 200,
+        };
+        let x =
+            roots::find_root_brent(lo, hi, f, &mut conv).map_err(|_| pair.no_convergence(200))?;
+        Ok((x, last_i.get()))
+    };
+    let mut roots = Vec::new();
+    for n in 0..samples.len() {
+        let Some((ph, r, i_here)) = samples[n] else {
+            continue;
+        };
+        if r == 0.0 {
+            roots.push((ph, i_here));
+            continue;
+        }
+        let prev = if n > 0 { samples[n - 1] } else { None };
+        let next = samples.get(n + 1).copied().flatten();
+        if let Some((p0, r0, i0)) = prev {
+            if r0 != 0.0 && (r0 < 0.0) != (r < 0.0) {
+                roots.push(refine(p0, ph, i0)?);
+            }
+        }
+        // Two roots closer than one step leave no sign change: look for an
+        // extremum of the residual that reaches across zero.
+        if let (Some((p0, r0, i0)), Some((p1, r1, _))) = (prev, next) {
+            let same_sign = (r0 < 0.0) == (r < 0.0) && (r1 < 0.0) == (r < 0.0);
+            if same_sign && r.abs() < r0.abs() && r.abs() < r1.abs() {
+                let sign = r.signum();
+                let (mut a, mut b) = (p0, p1);
+                let g = 0.5 * (5f64.sqrt() - 1.0);
+                for _ in 0..80 {
+                    let (c, d) = (b - g * (b - a), a + g * (b - a));
+                    last_i.set(i0);
+                    let (rc, rd) = (resid(c), resid(d));
+                    match (rc, rd) {
+                        (Some(rc), Some(rd)) if rc * sign < rd * sign => b = d,
+                        (Some(_), Some(_)) => a = c,
+                        _ => break,
+                    }
+                }
+                let m = 0.5 * (a + b);
+                last_i.set(i0);
+                if let Some(rm) = resid(m) {
+                    if rm * sign < 0.0 {
+                        let im = last_i.get();
+                        roots.push(refine(p0, m, i0)?);
+                        roots.push(refine(m, p1, im)?);
+                    }
+                }
+            }
+        }
+    }
+    Ok(roots
+        .into_iter()
+        .map(|(ph, i)| (crate::numeric::pow10(-ph), i))
+        .collect())
+}
+
+fn choose(roots: &[(f64, f64)], root: RootChoice) -> Option<(f64, f64)> {
+    let ph = |h: f64| -h.log10();
+    let key = |r: &(f64, f64)| -> f64 {
+        match root {
+            RootChoice::LowerPh => ph(r.0),
+            RootChoice::HigherPh => -ph(r.0),
+            _ => (ph(r.0) - 8.0).abs(),
+        }
+    };
+    roots
+        .iter()
+        .copied()
+        .min_by(|a, b| key(a).total_cmp(&key(b)))
+}
+
+/// The fresh-water solve. At each trial h the pair's carbon parameter fixes
+/// the speciation, with the calcium pairs solved exactly and the ionic
+/// strength (when it comes from the ions) iterated to 1e-13; pairs without a
+/// pH are then a scan-and-refine root in pH, so every root is found with its
+/// own ionic strength.
 pub(crate) fn solve_fresh(
     water: &Water,
     a: Measured,
     b: Measured,
     options: &SolveOptions,
 ) -> Result<State> {
+    crate::solve::check_pair(&a, &b)?;
     let th = Thermo::new(water)?;
     let r = route(water);
     let fixed = fixed_ionic_strength(water, r);
-    let ca_t = th.totals.calcium_mol_kg;
-    let mut i = fixed.unwrap_or(0.0);
-    let mut ca_free = ca_t;
+    let mut i_guess = match fixed {
+        Some(i) => i,
+        None => ion_sum(&th.constants(water, 0.0, 0.0), 1e-8, 0.0).0,
+    };
+    // A pH on a scale other than NBS depends on the activity of H+, so its
+    // conversion is repeated until the ionic strength it used is the final one.
     for _ in 0..MAX_OUTER {
-        let k = th.constants(water, i, ca_free);
-        let sol = solve(&k, &a, &b, options)?;
-        let (i_ions, imbalance) = ion_sum(&k, sol.h, sol.dic);
-        let i_new = fixed.unwrap_or(i_ions);
-        let ca_new = free_calcium(&k, sol.h, sol.dic);
-        let close = |x: f64, y: f64| (x - y).abs() <= OUTER_TOLERANCE * x.abs().max(1e-12);
-        if close(i, i_new) && close(ca_free, ca_new) {
-            let mut warnings = sol.warnings;
-            add_route_warnings(water, r, i, &mut warnings);
-            let extras = extras(water, &th, &k, sol.h, sol.dic, r, imbalance, &mut warnings);
-            return Ok(State::build_fresh(
-                water, &k, sol.h, sol.dic, warnings, extras,
-            ));
+        let k_conv = th.constants(water, i_guess, 0.0);
+        let mut warnings = Vec::new();
+        let mut ka = to_known(&k_conv, &a, &mut warnings);
+        let mut kb = to_known(&k_conv, &b, &mut warnings);
+        let (mut ma, mut mb) = (&a, &b);
+        if ka.rank() > kb.rank() {
+            std::mem::swap(&mut ka, &mut kb);
+            std::mem::swap(&mut ma, &mut mb);
         }
-        i = i_new;
-        ca_free = ca_new;
+        let pair = Pair { a: ma, b: mb };
+        let (h, carbon, roots) = match (ka, kb) {
+            (Known::H(h), c) | (c, Known::H(h)) => (h, c, vec![(h, i_guess)]),
+            (first, second) => {
+                let roots = roots_scan(water, &th, fixed, first, second, i_guess, &pair)?;
+                let Some((h, _)) = choose(&roots, options.root) else {
+                    return Err(pair.no_water(
+                        "no pH between 0 and 14 gives both at these conditions".to_string(),
+                    ));
+                };
+                (h, first, roots)
+            }
+        };
+        let Some((spec, i)) = consistent(water, &th, fixed, h, carbon, i_guess) else {
+            return Err(pair.no_water(
+                "the alkalinity left for carbon at this pH is not positive".to_string(),
+            ));
+        };
+        let ph_scale_depends_on_i = [&a, &b].iter().any(|m| {
+            matches!(
+                m.value(),
+                crate::measured::Value::Ph(_, Some(s)) if s != PhScale::Nbs
+            )
+        });
+        if ph_scale_depends_on_i && (i - i_guess).abs() > OUTER_TOLERANCE * i.max(1e-12) {
+            i_guess = i;
+            continue;
+        }
+        let k = th.constants(water, i, spec.ca_free);
+        let (_, imbalance) = ion_sum(&k, h, spec.dic);
+        add_route_warnings(water, r, i, &mut warnings);
+        for &(other, _) in &roots {
+            if (other / h - 1.0).abs() > 1e-6 {
+                warnings.push(Warning::OtherRoot {
+                    first: pair.a.parameter().name(),
+                    second: pair.b.parameter().name(),
+                    ph: -other.log10(),
+                    scale: k.working_scale.name(),
+                    higher: other < h,
+                });
+            }
+        }
+        let extras = extras(water, &th, &k, h, spec.dic, r, imbalance, &mut warnings);
+        return Ok(State::build_fresh(water, &k, h, spec.dic, warnings, extras));
     }
     Err(Error::NoConvergence {
         first: a.parameter().name(),
@@ -485,8 +751,9 @@ fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<
     }
     if r == IonicStrengthRoute::AlkalinityOnly {
         w.push(Warning::Note(
-            "no ions, conductance, TDS or ionic strength given: the ionic strength is \
-             estimated from the carbonate species with monovalent counter-ions",
+            "no major-ion analysis, conductance, TDS or ionic strength given: the ionic \
+             strength is computed from the carbonate species, any calcium given and a \
+             monovalent ion balancing the charge",
         ));
     }
     let limit = match water.fresh_options().activity {

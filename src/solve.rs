@@ -104,8 +104,8 @@ const H_AT_PH_MAX: f64 = 1e-14;
 const H_AT_PH_MIN: f64 = 1.0;
 
 /// The internal form of one measured parameter.
-#[derive(Clone, Copy)]
-enum Known {
+#[derive(Clone, Copy, Debug)]
+pub(crate) enum Known {
     Ta(f64),
     Dic(f64),
     H(f64),
@@ -115,7 +115,7 @@ enum Known {
 }
 
 impl Known {
-    fn rank(self) -> u8 {
+    pub(crate) fn rank(self) -> u8 {
         match self {
             Known::Ta(_) => 0,
             Known::Dic(_) => 1,
@@ -127,7 +127,7 @@ impl Known {
     }
 }
 
-fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<Warning>) -> Known {
+pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<Warning>) -> Known {
     let rho = k.density_kg_m3;
     match (m.parameter(), m.value()) {
         (_, Value::Ph(ph, scale)) => {
@@ -179,13 +179,13 @@ fn dic_per_co3(k: &Constants, h: f64) -> f64 {
     h * h / (k.k1e * k.k2e) + h / k.k2e + 1.0
 }
 
-struct Pair<'a> {
-    a: &'a Measured,
-    b: &'a Measured,
+pub(crate) struct Pair<'a> {
+    pub(crate) a: &'a Measured,
+    pub(crate) b: &'a Measured,
 }
 
 impl Pair<'_> {
-    fn no_water(&self, reason: String) -> Error {
+    pub(crate) fn no_water(&self, reason: String) -> Error {
         Error::NoWaterFits {
             first: self.a.parameter().name(),
             first_value: self.a.describe(),
@@ -194,7 +194,7 @@ impl Pair<'_> {
             reason,
         }
     }
-    fn no_convergence(&self, iterations: u32) -> Error {
+    pub(crate) fn no_convergence(&self, iterations: u32) -> Error {
         Error::NoConvergence {
             first: self.a.parameter().name(),
             second: self.b.parameter().name(),
