@@ -173,6 +173,41 @@ fn bench_low_salinity(c: &mut Criterion) {
     bench_other_water(c, "low_salinity", low_salinity_water());
 }
 
+/// An invented pond water in the fresh medium: alkalinity with pH (direct)
+/// and with DIC (a scan over pH with the ionic strength iterated).
+fn bench_fresh(c: &mut Criterion) {
+    use travertine::units::Amount;
+    use travertine::water::Composition;
+    let water = Water::fresh(Conditions::new(22.0, 0.2).expect("conditions"))
+        .expect("fresh")
+        .with_composition(
+            Composition::default()
+                .with_calcium(Amount::PerLitre(1.2e-3))
+                .expect("calcium"),
+        );
+    let ta = Measured::alkalinity_umol_kg(2400.0).expect("alkalinity");
+    let ph = Measured::ph(7.6, None).expect("ph");
+    let reference = water.solve(ta, ph).expect("alkalinity+ph solves");
+    let dic = Measured::dic_umol_kg(reference.dic_umol_kg).expect("dic");
+    check_pair(&water, &reference, ta, dic);
+    let mut group = c.benchmark_group("fresh_pond");
+    group.bench_function("alkalinity+ph", |bench| {
+        bench.iter(|| {
+            black_box(&water)
+                .solve(black_box(ta), black_box(ph))
+                .expect("solve")
+        })
+    });
+    group.bench_function("alkalinity+dic", |bench| {
+        bench.iter(|| {
+            black_box(&water)
+                .solve(black_box(ta), black_box(dic))
+                .expect("solve")
+        })
+    });
+    group.finish();
+}
+
 fn settings() -> Criterion {
     Criterion::default()
         .measurement_time(Duration::from_secs(2))
@@ -183,6 +218,6 @@ fn settings() -> Criterion {
 criterion_group! {
     name = benches;
     config = settings();
-    targets = bench_constants, bench_full_solve, bench_deep_nutrients, bench_low_salinity
+    targets = bench_constants, bench_full_solve, bench_deep_nutrients, bench_low_salinity, bench_fresh
 }
 criterion_main!(benches);

@@ -17,7 +17,7 @@
 //! the speciation until both agree to 1e-13 relative.
 
 use crate::activity::Gammas;
-use crate::alkalinity::{carbonate_per_dic, non_carbonate};
+use crate::alkalinity::non_carbonate;
 use crate::conductivity::{langelier1936_ionic_strength, russell1976_ionic_strength};
 use crate::constants::fresh as pb;
 use crate::constants::{nutrients, sulfate, sulfide, Constants, FitsUsed, Totals};
@@ -25,7 +25,7 @@ use crate::density::density_kg_m3;
 use crate::error::{Error, Result};
 use crate::measured::Measured;
 use crate::scales::PhScale;
-use crate::solve::{solve, to_known, Known, Pair, RootChoice, SolveOptions};
+use crate::solve::{to_known, Known, Pair, RootChoice, SolveOptions};
 use crate::state::{FreshExtras, State};
 use crate::units::CACO3_G_MOL;
 use crate::warning::Warning;
@@ -394,18 +394,6 @@ fn ion_sum(k: &Constants, h: f64, dic: f64) -> (f64, f64) {
     )
 }
 
-/// Free calcium from the speciation.
-fn free_calcium(k: &Constants, h: f64, dic: f64) -> f64 {
-    let ca_t = k.totals.calcium_mol_kg;
-    if ca_t <= 0.0 {
-        return 0.0;
-    }
-    let d = h * h + k.k1e * h + k.k1e * k.k2e;
-    let hco3 = dic * k.k1e * h / d / (1.0 + k.pair_hco3);
-    let co3 = dic * k.k1e * k.k2e / d / (1.0 + k.pair_co3);
-    ca_t / (1.0 + k.k_cahco3 * hco3 + k.k_caco3 * co3)
-}
-
 const MAX_OUTER: u32 = 200;
 const OUTER_TOLERANCE: f64 = 1e-13;
 
@@ -720,7 +708,7 @@ pub(crate) fn solve_fresh(
                 });
             }
         }
-        let extras = extras(water, &th, &k, h, spec.dic, r, imbalance, &mut warnings);
+        let extras = extras(&k, h, spec.dic, r, imbalance, &mut warnings);
         return Ok(State::build_fresh(water, &k, h, spec.dic, warnings, extras));
     }
     Err(Error::NoConvergence {
@@ -783,8 +771,6 @@ fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<
 
 #[allow(clippy::too_many_arguments)]
 fn extras(
-    water: &Water,
-    th: &Thermo,
     k: &Constants,
     h: f64,
     dic: f64,
@@ -818,7 +804,7 @@ fn extras(
              calcium: Langelier index not computed",
         )),
     }
-    match precipitation_potential(water, th, k, ta, dic) {
+    match precipitation_potential(k, ta, dic) {
         Some(x) => e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL),
         None => warnings.push(Warning::Note(
             "the calcium carbonate precipitation potential could not be bracketed",
@@ -827,35 +813,11 @@ fn extras(
     e
 }
 
-/// Carbon speciation at h for alkalinity `ta` with the pairs recomputed
-/// (ionic strength held): returns ln(IAP/Ksp) for calcite.
+/// ln(IAP/Ksp) of calcite at h for alkalinity `ta` and the calcium of `k`,
+/// with the pairs solved exactly and the ionic strength held.
 fn log_saturation_at(k: &Constants, ta: f64, h: f64) -> Option<f64> {
-    let ca_t = k.totals.calcium_mol_kg;
-    let mut kk = k.clone();
-    let (k_ch, k_cc) = (k.k_cahco3, k.k_caco3);
-    let mut ca_f = k.calcium_free_mol_kg;
-    let mut co3 = 0.0;
-    for _ in 0..100 {
-        kk.pair_hco3 = k_ch * ca_f;
-        kk.pair_co3 = k_cc * ca_f;
-        kk.k1e = kk.k1 * (1.0 + kk.pair_hco3);
-        kk.k2e = kk.k2 * (1.0 + kk.pair_co3) / (1.0 + kk.pair_hco3);
-        let carb = ta - non_carbonate(&kk, h).0;
-        if carb <= 0.0 {
-            return None;
-        }
-        let dic = carb / carbonate_per_dic(&kk, h).0;
-        let d = h * h + kk.k1e * h + kk.k1e * kk.k2e;
-        let hco3 = dic * kk.k1e * h / d / (1.0 + kk.pair_hco3);
-        co3 = dic * kk.k1e * kk.k2e / d / (1.0 + kk.pair_co3);
-        let new = ca_t / (1.0 + k_ch * hco3 + k_cc * co3);
-        let done = (new - ca_f).abs() <= 1e-14 * ca_f;
-        ca_f = new;
-        if done {
-            break;
-        }
-    }
-    Some((ca_f * co3 / k.ksp_calcite).ln())
+    let spec = speciate(k, h, Known::Ta(ta))?;
+    Some((spec.ca_free * spec.co3 / k.ksp_calcite).ln())
 }
 
 /// pHs of the Langelier index: the NBS pH at which this water, with its
@@ -887,51 +849,59 @@ fn saturation_ph(k: &Constants, ta: f64) -> Option<f64> {
 /// Calcium carbonate precipitation potential (mol/kg): the calcite that
 /// would precipitate (positive) or dissolve (negative) in a closed system
 /// to reach saturation, removing x of calcium and DIC and 2x of alkalinity
-/// (Rossum & Merrill 1983; from memory, unverified). Ionic strength is held.
-fn precipitation_potential(
-    water: &Water,
-    th: &Thermo,
-    k: &Constants,
-    ta: f64,
-    dic: f64,
-) -> Option<f64> {
+/// (Rossum & Merrill 1983; from memory, unverified). Ionic strength is held
+/// at the sample's.
+fn precipitation_potential(k: &Constants, ta: f64, dic: f64) -> Option<f64> {
     let ca_t = k.totals.calcium_mol_kg;
-    let i = k.ionic_strength;
-    let omega_minus_one = |x: f64| -> f64 {
-        let mut th2 = th.clone();
-        th2.totals.calcium_mol_kg = ca_t - x;
+    let mut kx = k.clone();
+    kx.warnings.clear();
+    let mut log_omega = |x: f64| -> f64 {
+        kx.totals.calcium_mol_kg = ca_t - x;
         let (ta2, dic2) = (ta - 2.0 * x, dic - x);
-        let (Ok(ma), Ok(mb)) = (
-            Measured::alkalinity_umol_kg(ta2 * 1e6),
-            Measured::dic_umol_kg(dic2 * 1e6),
-        ) else {
-            return f64::NAN;
+        // At fixed alkalinity DIC rises with h: one bracketed root in pH.
+        let resid = |ph: f64| {
+            speciate(&kx, crate::numeric::pow10(-ph), Known::Ta(ta2))
+                .map_or(f64::NAN, |s| s.dic / dic2 - 1.0)
         };
-        let mut ca_f = th2.totals.calcium_mol_kg;
-        for _ in 0..100 {
-            let kk = th2.constants(water, i, ca_f);
-            let Ok(sol) = solve(&kk, &ma, &mb, &SolveOptions::default()) else {
-                return f64::NAN;
-            };
-            let new = free_calcium(&kk, sol.h, sol.dic);
-            if (new - ca_f).abs() <= 1e-14 * ca_f.max(1e-300) {
-                let d = sol.h * sol.h + kk.k1e * sol.h + kk.k1e * kk.k2e;
-                let co3 = sol.dic * kk.k1e * kk.k2e / d / (1.0 + kk.pair_co3);
-                return (new * co3 / kk.ksp_calcite).ln();
-            }
-            ca_f = new;
+        let (mut lo, mut hi) = (2.0, 13.0);
+        // Above some pH the alkalinity is all hydroxide and no carbon fits:
+        // step down to the first pH where it does.
+        while resid(hi).is_nan() && hi > lo {
+            hi -= 0.25;
         }
-        f64::NAN
+        let (r_lo, r_hi) = (resid(lo), resid(hi));
+        if !(r_lo > 0.0 && r_hi < 0.0) {
+            return f64::NAN;
+        }
+        // Bisection to 1e-12 pH: robust, and plenty for a dose in mg/L.
+        for _ in 0..60 {
+            let mid = 0.5 * (lo + hi);
+            let r = resid(mid);
+            if r.is_nan() {
+                return f64::NAN;
+            }
+            if r > 0.0 {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+            if hi - lo < 1e-12 {
+                break;
+            }
+        }
+        let h = crate::numeric::pow10(-0.5 * (lo + hi));
+        speciate(&kx, h, Known::Ta(ta2))
+            .map_or(f64::NAN, |s| (s.ca_free * s.co3 / kx.ksp_calcite).ln())
     };
     let hi = ca_t.min(dic).min(ta / 2.0) * (1.0 - 1e-9);
     let lo = -0.01;
-    let (f_lo, f_hi) = (omega_minus_one(lo), omega_minus_one(hi));
+    let (f_lo, f_hi) = (log_omega(lo), log_omega(hi));
     if !(f_lo.is_finite() && f_hi.is_finite()) || f_lo * f_hi > 0.0 {
         return None;
     }
     let mut conv = roots::SimpleConvergency {
-        eps: 1e-15,
+        eps: 1e-13,
         max_iter: 200,
     };
-    roots::find_root_brent(lo, hi, omega_minus_one, &mut conv).ok()
+    roots::find_root_brent(lo, hi, log_omega, &mut conv).ok()
 }
