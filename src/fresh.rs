@@ -244,7 +244,7 @@ impl Thermo {
                 0.0,
             ),
             density_kg_m3: self.density,
-            fits_used: fresh_fits_used(t),
+            fits_used: fresh_fits_used(t, water.fresh_options().activity),
             warnings: self.warnings.clone(),
             gammas: Some(g),
             k_cahco3,
@@ -253,7 +253,7 @@ impl Thermo {
     }
 }
 
-fn fresh_fits_used(t: &Totals) -> FitsUsed {
+fn fresh_fits_used(t: &Totals, activity: crate::activity::ActivityModel) -> FitsUsed {
     let pb = "plummer-busenberg1982";
     FitsUsed {
         k0: pb,
@@ -289,7 +289,7 @@ fn fresh_fits_used(t: &Totals) -> FitsUsed {
             "none"
         },
         pressure: "millero1995",
-        nbs_scale: "activity (davies or extended debye-huckel)",
+        nbs_scale: activity.name(),
         density: "millero-poisson1981",
     }
 }

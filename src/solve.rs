@@ -144,8 +144,8 @@ pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<Warning>)
             if scale == PhScale::Nbs && k.working_scale != PhScale::Nbs {
                 warnings.push(Warning::Note(
                     "pH on the NBS scale in saline water is approximate: it is converted with \
-                     the H+ activity coefficient of Takahashi et al. (1982), and electrode \
-                     junction errors are not known",
+                     the H+ activity coefficient of Takahashi et al. (1982), meant for salinity \
+                     20 to 40, and electrode junction errors are not known",
                 ));
             }
             Known::H(k.h_from_ph(ph, scale))

@@ -185,7 +185,8 @@ impl State {
         }
     }
 
-    /// [H+] on the working scale, mol/kg.
+    /// h on the working scale: [H+] on the total scale in saline water
+    /// (mol/kg), the H+ activity (NBS) in fresh water.
     ///
     /// ```
     /// # use travertine::{Conditions, Measured, PhScale, Water};

@@ -189,7 +189,11 @@ fn all_numbers_finite(v: &serde_json::Value) -> bool {
     match v {
         serde_json::Value::Null => false,
         serde_json::Value::Number(n) => n.as_f64().is_some_and(f64::is_finite),
-        serde_json::Value::Object(m) => m.values().all(all_numbers_finite),
+        // serde_json writes NaN as null, so null means NaN, except for the
+        // Langelier index, which is null by design in saline water.
+        serde_json::Value::Object(m) => m
+            .iter()
+            .all(|(k, v)| (k == "langelier_index" && v.is_null()) || all_numbers_finite(v)),
         serde_json::Value::Array(a) => a.iter().all(all_numbers_finite),
         _ => true,
     }

@@ -244,7 +244,8 @@ pub struct Totals {
 /// Every equilibrium constant for one set of conditions, on the working pH
 /// scale, plus the factors that move the working scale to the others.
 ///
-/// The working scale is the total scale in saline water. Acid constants are
+/// The working scale is the total scale in saline water and the NBS
+/// (activity) scale in fresh water. Acid constants are
 /// K = [H+][A-]/[HA] with [H+] on that scale; `kw` is [H+][OH-].
 /// Constants of acid systems whose total is zero are not evaluated and hold 0.
 ///
