@@ -22,12 +22,28 @@ pub(crate) const MAX_ITERATIONS: u32 = 200;
 /// `guess` is clamped into the bracket. Returns the number of iterations
 /// spent as the error when the cap is reached.
 pub(crate) fn safeguarded_newton<F>(
+    f: F,
+    lo: f64,
+    f_lo: f64,
+    hi: f64,
+    f_hi: f64,
+    guess: f64,
+) -> Result<f64, u32>
+where
+    F: FnMut(f64) -> (f64, f64),
+{
+    safeguarded_newton_to(f, lo, f_lo, hi, f_hi, guess, NEWTON_ACCEPT)
+}
+
+/// As [`safeguarded_newton`], ending at a Newton step shorter than `accept`.
+pub(crate) fn safeguarded_newton_to<F>(
     mut f: F,
     lo: f64,
     f_lo: f64,
     hi: f64,
     f_hi: f64,
     guess: f64,
+    accept: f64,
 ) -> Result<f64, u32>
 where
     F: FnMut(f64) -> (f64, f64),
@@ -63,7 +79,7 @@ where
         } else {
             xh = x;
         }
-        if dfx != 0.0 && dfx.is_finite() && (fx / dfx).abs() < NEWTON_ACCEPT {
+        if dfx != 0.0 && dfx.is_finite() && (fx / dfx).abs() < accept {
             // Converged: a short Newton step (quadratic convergence), also
             // where the bracket end sits on x itself and the inside test
             // cannot hold.

@@ -19,7 +19,7 @@ use crate::alkalinity::{carbonate_per_dic, non_carbonate};
 use crate::constants::Constants;
 use crate::error::{Error, Result};
 use crate::measured::{Measured, Parameter, Value};
-use crate::root::safeguarded_newton;
+use crate::root::{safeguarded_newton, safeguarded_newton_to};
 use crate::scales::PhScale;
 use crate::warning::Warning;
 
@@ -552,40 +552,60 @@ fn ta_co3_root(
         }
     };
     let guess_low = {
-        let h = k.k2e * (ta / co3 - 2.0);
-        if h > 0.0 {
-            h.ln()
+        let h0 = k.k2e * (ta / co3 - 2.0);
+        // One correction for the non-carbonate alkalinity at that h.
+        let h1 = if h0 > 0.0 {
+            k.k2e * ((ta - non_carbonate(k, h0).0) / co3 - 2.0)
+        } else {
+            h0
+        };
+        if h1 > 0.0 {
+            h1.ln()
+        } else if h0 > 0.0 {
+            h0.ln()
         } else {
             0.5 * (x_min + hi)
         }
     };
+    // Both roots to about 1e-4 in ln h (enough to report the other one);
+    // the chosen one is then polished to full precision.
+    const ROUGH: f64 = 1e-2;
     let high_ph = if g_lo >= 0.0 && x_min > lo {
         Some(
-            safeguarded_newton(g, lo, g_lo, x_min, g_min, guess_high)
-                .map_err(|n| pair.no_convergence(n))?
-                .exp(),
+            safeguarded_newton_to(g, lo, g_lo, x_min, g_min, guess_high, ROUGH)
+                .map_err(|n| pair.no_convergence(n))?,
         )
     } else {
         None
     };
     let low_ph = if g_hi >= 0.0 && x_min < hi {
         Some(
-            safeguarded_newton(g, x_min, g_min, hi, g_hi, guess_low)
-                .map_err(|n| pair.no_convergence(n))?
-                .exp(),
+            safeguarded_newton_to(g, x_min, g_min, hi, g_hi, guess_low, ROUGH)
+                .map_err(|n| pair.no_convergence(n))?,
         )
     } else {
         None
     };
+    let polish = |x: f64, on_high_side: bool| -> Result<f64> {
+        let r = if on_high_side {
+            safeguarded_newton(g, lo, g_lo, x_min, g_min, x)
+        } else {
+            safeguarded_newton(g, x_min, g_min, hi, g_hi, x)
+        };
+        r.map(f64::exp).map_err(|n| pair.no_convergence(n))
+    };
+    let (high_ph, low_ph) = (high_ph.map(f64::exp), low_ph.map(f64::exp));
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
             let (chosen, other) = pick(root, h_low, h_high);
+            let chosen = polish(chosen.ln(), chosen == h_low)?;
             if (h_high / h_low - 1.0).abs() > 1e-9 {
                 warnings.push(other_root_warning(pair, k, chosen, other));
             }
             Ok(chosen)
         }
-        (Some(h), None) | (None, Some(h)) => Ok(h),
+        (Some(h), None) => polish(h.ln(), true),
+        (None, Some(h)) => polish(h.ln(), false),
         (None, None) => Err(pair.no_water(format!(
             "no pH between {PH_MIN} and {PH_MAX} gives that alkalinity with that CO3"
         ))),
