@@ -115,6 +115,18 @@ pub enum Error {
         /// The accepted names.
         accepted: String,
     },
+    /// An option chosen that belongs to the other medium.
+    #[error("{field} `{name}` is for {medium} water only: {hint}")]
+    WrongMedium {
+        /// The option, for example `boron`.
+        field: &'static str,
+        /// The choice given.
+        name: String,
+        /// The medium it belongs to.
+        medium: &'static str,
+        /// What to do instead.
+        hint: &'static str,
+    },
     /// A name that must be one of a fixed set was not.
     #[error("{field}: unknown choice `{name}`; accepted: {accepted}")]
     UnknownChoice {
@@ -150,6 +162,7 @@ impl Error {
             | Error::MissingUnit { field, .. }
             | Error::WrongUnit { field, .. }
             | Error::UnknownChoice { field, .. }
+            | Error::WrongMedium { field, .. }
             | Error::Computation { field, .. } => Some(field),
             Error::UnknownFit { constant, .. } => Some(constant),
             Error::IncompatiblePair { first, .. }

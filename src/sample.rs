@@ -325,20 +325,22 @@ impl Sample {
             ];
             for (field, name) in saline_only {
                 if let Some(name) = name {
-                    return Err(Error::UnknownFit {
-                        constant: field,
+                    return Err(Error::WrongMedium {
+                        field,
                         name: name.to_string(),
-                        accepted: "none: this is a sea-water fit, and fresh water uses \
-                                   Plummer & Busenberg (1982) with activity coefficients"
-                            .to_string(),
+                        medium: "saline",
+                        hint: "fresh water uses Plummer & Busenberg (1982) with activity \
+                               coefficients; drop the option, or choose --water saline",
                     });
                 }
             }
         } else if let Some(model) = self.activity {
-            return Err(Error::UnknownChoice {
+            return Err(Error::WrongMedium {
                 field: "activity",
                 name: model.name().to_string(),
-                accepted: "none in saline water, whose constants are stoichiometric".to_string(),
+                medium: "fresh",
+                hint: "saline constants are stoichiometric and need no activity model; drop \
+                       the option, or choose --water fresh",
             });
         }
         let mut fits = Fits::default();

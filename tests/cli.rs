@@ -294,3 +294,87 @@ fn missing_temperature_is_a_usage_error() {
     assert_eq!(o.status.code(), Some(2));
     assert!(stderr(&o).contains("--temperature"));
 }
+
+/// The JSON keys the interface contract names for fresh water (../shared/design.md).
+#[test]
+fn fresh_json_has_its_contract_keys() {
+    let o = travertine(&[
+        "solve",
+        "--ph",
+        "7.6",
+        "--alkalinity",
+        "120 mg/L CaCO3",
+        "--temperature",
+        "22",
+        "--conductivity",
+        "420uS/cm",
+        "--calcium",
+        "48 mg/L Ca",
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    for key in [
+        "ph_nbs",
+        "ionic_strength",
+        "langelier_index",
+        "free_co2_mg_l",
+        "dic_mg_l_c",
+        "alkalinity_mg_l_caco3",
+        "si_calcite",
+        "pco2_uatm",
+    ] {
+        assert!(
+            v[key].is_number(),
+            "{key} missing or not a number: {}",
+            v[key]
+        );
+    }
+    assert_eq!(v["water"], "fresh");
+    assert_eq!(v["constants"]["carbonic"], "plummer-busenberg1982");
+    assert_eq!(v["ph_nbs"], 7.6);
+}
+
+#[test]
+fn saline_fit_in_fresh_water_errored() {
+    let o = travertine(&[
+        "solve",
+        "--ph",
+        "7.6",
+        "--alkalinity",
+        "120 mg/L CaCO3",
+        "--temperature",
+        "22",
+        "--water",
+        "fresh",
+        "--boron",
+        "lee2010",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    let err = stderr(&o);
+    assert!(
+        err.contains("--boron") && err.contains("saline water only"),
+        "{err}"
+    );
+}
+
+#[test]
+fn hardness_is_not_taken_as_calcium() {
+    let o = travertine(&[
+        "solve",
+        "--ph",
+        "7.5",
+        "--alkalinity",
+        "100 mg/L CaCO3",
+        "--temperature",
+        "20",
+        "--hardness",
+        "150 mg/L CaCO3",
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert!(v["omega_calcite"].is_null());
+    let warnings = v["warnings"].to_string();
+    assert!(warnings.contains("not taken as calcium"), "{warnings}");
+}
