@@ -19,7 +19,7 @@ use std::hint::black_box;
 use std::time::Duration;
 use travertine::units::Amount;
 use travertine::water::Composition;
-use travertine::{Conditions, Measured, Parameter, PhScale, State, Water};
+use travertine::{Conditions, Measured, Parameter, State, Water};
 
 /// Alkalinity of the benchmark water, µmol/kg (demo value).
 const ALKALINITY_UMOL_KG: f64 = 2300.0;
@@ -56,19 +56,9 @@ fn alkalinity_dic() -> (Measured, Measured) {
 
 /// Parameter `p` as measured in the water of `state`.
 fn measured(p: Parameter, state: &State) -> Measured {
-    let m = match p {
-        Parameter::Alkalinity => Measured::alkalinity_umol_kg(state.alkalinity_umol_kg),
-        Parameter::Dic => Measured::dic_umol_kg(state.dic_umol_kg),
-        Parameter::Ph => Measured::ph(state.ph_total, Some(PhScale::Total)),
-        Parameter::Pco2 => Measured::pco2_uatm(state.pco2_uatm),
-        Parameter::Fco2 => Measured::fco2_uatm(state.fco2_uatm),
-        Parameter::Xco2 => Measured::xco2_ppm(state.xco2_ppm),
-        Parameter::Co2 => Measured::co2_umol_kg(state.co2_umol_kg),
-        Parameter::Hco3 => Measured::hco3_umol_kg(state.hco3_umol_kg),
-        Parameter::Co3 => Measured::co3_umol_kg(state.co3_umol_kg),
-        other => panic!("no benchmark value for parameter {}", other.name()),
-    };
-    m.unwrap_or_else(|e| panic!("{}: {e}", p.name()))
+    state
+        .measured(p)
+        .unwrap_or_else(|e| panic!("{}: {e}", p.name()))
 }
 
 /// Every usable pair, in the order of [`Parameter::ALL`]: 30 of them.

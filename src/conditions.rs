@@ -51,20 +51,14 @@ impl Conditions {
     /// assert!(Conditions::new(25.0, -1.0).is_err());
     /// ```
     pub fn new(temperature_c: f64, salinity: f64) -> Result<Self> {
-        check_range(
-            "temperature_c",
-            temperature_c,
-            TEMPERATURE_MIN_C,
-            TEMPERATURE_MAX_C,
-            " °C",
-        )?;
         check_range("salinity", salinity, 0.0, SALINITY_MAX, "")?;
-        Ok(Self {
+        Self {
             temperature_c,
             salinity,
             pressure_dbar: 0.0,
             air_pressure_atm: 1.0,
-        })
+        }
+        .with_temperature_c(temperature_c)
     }
 
     /// The same conditions at another gauge pressure (dbar).

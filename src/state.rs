@@ -5,7 +5,7 @@ use crate::conditions::Conditions;
 use crate::constants::{Constants, FitsUsed};
 use crate::error::Result;
 use crate::fresh::IonicStrengthRoute;
-use crate::measured::Measured;
+use crate::measured::{Measured, Parameter};
 use crate::scales::PhScale;
 use crate::solve::{solve, SolveOptions};
 use crate::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
@@ -197,6 +197,40 @@ impl State {
     /// ```
     pub fn h_mol_kg(&self) -> f64 {
         self.h
+    }
+
+    /// Parameter `p` of this state as a measurement, with pH on the
+    /// medium's working scale (total in saline water, NBS in fresh water):
+    /// the input that reproduces this value. Useful for residuals against a
+    /// measured third parameter, and for round trips.
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] if the value lies outside what a
+    /// measurement may be (for example a pH above 14).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Parameter, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// let back = w.solve(s.measured(Parameter::Ph)?, s.measured(Parameter::Pco2)?)?;
+    /// assert!((back.dic_umol_kg - 2000.0).abs() < 1e-6);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn measured(&self, p: Parameter) -> Result<Measured> {
+        match p {
+            Parameter::Alkalinity => Measured::alkalinity_umol_kg(self.alkalinity_umol_kg),
+            Parameter::Dic => Measured::dic_umol_kg(self.dic_umol_kg),
+            Parameter::Ph => match self.water {
+                Medium::Fresh => Measured::ph(self.ph_nbs, Some(PhScale::Nbs)),
+                _ => Measured::ph(self.ph_total, Some(PhScale::Total)),
+            },
+            Parameter::Pco2 => Measured::pco2_uatm(self.pco2_uatm),
+            Parameter::Fco2 => Measured::fco2_uatm(self.fco2_uatm),
+            Parameter::Xco2 => Measured::xco2_ppm(self.xco2_ppm),
+            Parameter::Co2 => Measured::co2_umol_kg(self.co2_umol_kg),
+            Parameter::Hco3 => Measured::hco3_umol_kg(self.hco3_umol_kg),
+            Parameter::Co3 => Measured::co3_umol_kg(self.co3_umol_kg),
+        }
     }
 
     /// The water this state was solved for.

@@ -14,19 +14,9 @@ use travertine::{
 };
 
 fn measured_from(state: &State, p: Parameter) -> Measured {
-    let m = match p {
-        Parameter::Alkalinity => Measured::alkalinity_umol_kg(state.alkalinity_umol_kg),
-        Parameter::Dic => Measured::dic_umol_kg(state.dic_umol_kg),
-        Parameter::Ph => Measured::ph(state.ph_total, Some(PhScale::Total)),
-        Parameter::Pco2 => Measured::pco2_uatm(state.pco2_uatm),
-        Parameter::Fco2 => Measured::fco2_uatm(state.fco2_uatm),
-        Parameter::Xco2 => Measured::xco2_ppm(state.xco2_ppm),
-        Parameter::Co2 => Measured::co2_umol_kg(state.co2_umol_kg),
-        Parameter::Hco3 => Measured::hco3_umol_kg(state.hco3_umol_kg),
-        Parameter::Co3 => Measured::co3_umol_kg(state.co3_umol_kg),
-        _ => unreachable!("every parameter is listed"),
-    };
-    m.expect("outputs of a valid state are valid inputs")
+    state
+        .measured(p)
+        .expect("outputs of a valid state are valid inputs")
 }
 
 fn outputs(s: &State) -> [(&'static str, f64); 14] {
