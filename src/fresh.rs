@@ -804,7 +804,7 @@ fn extras(
              calcium: Langelier index not computed",
         )),
     }
-    match precipitation_potential(k, ta, dic) {
+    match precipitation_potential(k, ta, dic, h) {
         Some(x) => e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL),
         None => warnings.push(Warning::Note(
             "the calcium carbonate precipitation potential could not be bracketed",
@@ -851,10 +851,12 @@ fn saturation_ph(k: &Constants, ta: f64) -> Option<f64> {
 /// to reach saturation, removing x of calcium and DIC and 2x of alkalinity
 /// (Rossum & Merrill 1983; from memory, unverified). Ionic strength is held
 /// at the sample's.
-fn precipitation_potential(k: &Constants, ta: f64, dic: f64) -> Option<f64> {
+fn precipitation_potential(k: &Constants, ta: f64, dic: f64, h: f64) -> Option<f64> {
     let ca_t = k.totals.calcium_mol_kg;
     let mut kx = k.clone();
     kx.warnings.clear();
+    // The pH of the last trial, to start the next one's bracket near it.
+    let last_ph = std::cell::Cell::new(-h.log10());
     let mut log_omega = |x: f64| -> f64 {
         kx.totals.calcium_mol_kg = ca_t - x;
         let (ta2, dic2) = (ta - 2.0 * x, dic - x);
@@ -863,44 +865,80 @@ fn precipitation_potential(k: &Constants, ta: f64, dic: f64) -> Option<f64> {
             speciate(&kx, crate::numeric::pow10(-ph), Known::Ta(ta2))
                 .map_or(f64::NAN, |s| s.dic / dic2 - 1.0)
         };
-        let (mut lo, mut hi) = (2.0, 13.0);
-        // Above some pH the alkalinity is all hydroxide and no carbon fits:
-        // step down to the first pH where it does.
-        while resid(hi).is_nan() && hi > lo {
-            hi -= 0.25;
+        let ph0 = last_ph.get();
+        let (mut lo, mut hi) = (ph0 - 0.1, ph0 + 0.1);
+        let mut widen = 0.2;
+        while !(resid(lo) > 0.0) && lo > 0.0 {
+            lo -= widen;
+            widen *= 2.0;
         }
-        let (r_lo, r_hi) = (resid(lo), resid(hi));
-        if !(r_lo > 0.0 && r_hi < 0.0) {
-            return f64::NAN;
-        }
-        // Bisection to 1e-12 pH: robust, and plenty for a dose in mg/L.
-        for _ in 0..60 {
-            let mid = 0.5 * (lo + hi);
-            let r = resid(mid);
-            if r.is_nan() {
-                return f64::NAN;
-            }
-            if r > 0.0 {
-                lo = mid;
-            } else {
-                hi = mid;
-            }
-            if hi - lo < 1e-12 {
+        // Above some pH the alkalinity is all hydroxide and no carbon fits
+        // (NaN); just below that edge DIC tends to 0, so the residual is negative.
+        let mut valid = lo;
+        widen = 0.2;
+        let mut edge: Option<f64> = None;
+        for _ in 0..200 {
+            let r = resid(hi);
+            if r < 0.0 {
                 break;
             }
+            if r.is_nan() {
+                edge = Some(hi);
+            } else {
+                valid = hi;
+            }
+            // Widen until past the root or onto the edge, then bisect
+            // between the last positive point and the edge.
+            hi = match edge {
+                Some(e) => 0.5 * (valid + e),
+                None => {
+                    widen *= 2.0;
+                    hi + widen
+                }
+            };
+            if hi > 14.0 && edge.is_none() {
+                edge = Some(14.0);
+            }
         }
-        let h = crate::numeric::pow10(-0.5 * (lo + hi));
+        if !(resid(lo) > 0.0 && resid(hi) < 0.0) {
+            return f64::NAN;
+        }
+        let mut conv = crate::root::Relative {
+            rel: 1e-15,
+            y_tol: 1e-15,
+            max_iter: 200,
+        };
+        let Ok(ph) = roots::find_root_brent(lo, hi, resid, &mut conv) else {
+            return f64::NAN;
+        };
+        last_ph.set(ph);
+        let h = crate::numeric::pow10(-ph);
         speciate(&kx, h, Known::Ta(ta2))
             .map_or(f64::NAN, |s| (s.ca_free * s.co3 / kx.ksp_calcite).ln())
     };
-    let hi = ca_t.min(dic).min(ta / 2.0) * (1.0 - 1e-9);
-    let lo = -0.01;
-    let (f_lo, f_hi) = (log_omega(lo), log_omega(hi));
-    if !(f_lo.is_finite() && f_hi.is_finite()) || f_lo * f_hi > 0.0 {
+    let f0 = log_omega(0.0);
+    if !f0.is_finite() {
         return None;
     }
-    let mut conv = roots::SimpleConvergency {
-        eps: 1e-13,
+    if f0 == 0.0 {
+        return Some(0.0);
+    }
+    // Supersaturated: the root lies between 0 and the most that can
+    // precipitate; undersaturated: between 0 and 0.01 mol/kg dissolved.
+    let (lo, hi) = if f0 > 0.0 {
+        (0.0, ca_t.min(dic).min(ta / 2.0) * (1.0 - 1e-9))
+    } else {
+        (-0.01, 0.0)
+    };
+    let far = if f0 > 0.0 { hi } else { lo };
+    let f_far = log_omega(far);
+    if !f_far.is_finite() || f_far * f0 > 0.0 {
+        return None;
+    }
+    // Relative 1e-12, whatever the size of the potential.
+    let mut conv = crate::root::Relative {
+        rel: 1e-12,
+        y_tol: 1e-13,
         max_iter: 200,
     };
     roots::find_root_brent(lo, hi, log_omega, &mut conv).ok()

@@ -106,6 +106,31 @@ where
     Err(MAX_ITERATIONS)
 }
 
+/// A convergence test for the `roots` crate that is relative in x: Brent's
+/// method stops when the bracket is narrower than `rel` times |x| (plus a
+/// tiny absolute floor), so it serves quantities of any magnitude, or when
+/// |f| falls below `y_tol` (f being a relative residual or a log ratio).
+pub(crate) struct Relative {
+    /// Relative width of the final bracket.
+    pub rel: f64,
+    /// |f| below which x is a root.
+    pub y_tol: f64,
+    /// Iteration cap.
+    pub max_iter: usize,
+}
+
+impl roots::Convergency<f64> for Relative {
+    fn is_root_found(&mut self, y: f64) -> bool {
+        y.abs() <= self.y_tol
+    }
+    fn is_converged(&mut self, x1: f64, x2: f64) -> bool {
+        (x1 - x2).abs() <= self.rel * x1.abs().max(x2.abs()) + 1e-300
+    }
+    fn is_iteration_limit_reached(&mut self, iter: usize) -> bool {
+        iter >= self.max_iter
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
