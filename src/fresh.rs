@@ -868,7 +868,7 @@ fn precipitation_potential(k: &Constants, ta: f64, dic: f64, h: f64) -> Option<f
         let ph0 = last_ph.get();
         let (mut lo, mut hi) = (ph0 - 0.1, ph0 + 0.1);
         let mut widen = 0.2;
-        while !(resid(lo) > 0.0) && lo > 0.0 {
+        while resid(lo).partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) && lo > 0.0 {
             lo -= widen;
             widen *= 2.0;
         }
