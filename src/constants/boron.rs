@@ -1,7 +1,6 @@
 //! Boric acid: its dissociation constant and total boron from salinity.
 
 use super::FitRange;
-use crate::error::{Error, Result};
 use serde::Serialize;
 
 /// Published range of Dickson (1990) KB.
@@ -91,16 +90,4 @@ impl BoronTotalFit {
     }
 }
 
-impl std::str::FromStr for BoronTotalFit {
-    type Err = Error;
-    fn from_str(s: &str) -> Result<Self> {
-        BoronTotalFit::ALL
-            .into_iter()
-            .find(|f| f.name() == s.trim().to_ascii_lowercase())
-            .ok_or_else(|| Error::UnknownFit {
-                constant: "boron",
-                name: s.to_string(),
-                accepted: BoronTotalFit::ALL.map(|f| f.name()).join(", "),
-            })
-    }
-}
+fit_from_str!(BoronTotalFit, "boron");

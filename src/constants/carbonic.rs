@@ -5,7 +5,6 @@
 //! converts them to the working scale.
 
 use super::FitRange;
-use crate::error::{Error, Result};
 use crate::scales::PhScale;
 use serde::Serialize;
 
@@ -111,19 +110,7 @@ impl CarbonicFit {
     }
 }
 
-impl std::str::FromStr for CarbonicFit {
-    type Err = Error;
-    fn from_str(s: &str) -> Result<Self> {
-        CarbonicFit::ALL
-            .into_iter()
-            .find(|f| f.name() == s.trim().to_ascii_lowercase())
-            .ok_or_else(|| Error::UnknownFit {
-                constant: "carbonic",
-                name: s.to_string(),
-                accepted: CarbonicFit::ALL.map(|f| f.name()).join(", "),
-            })
-    }
-}
+fit_from_str!(CarbonicFit, "carbonic");
 
 /// pK1 and pK2 of Lueker, Dickson & Keeling (2000), total scale, mol/kg-soln.
 ///

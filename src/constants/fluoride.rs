@@ -2,7 +2,6 @@
 
 use super::FitRange;
 use crate::constants::sulfate::seawater_ionic_strength;
-use crate::error::{Error, Result};
 use crate::scales::PhScale;
 use serde::Serialize;
 
@@ -97,19 +96,7 @@ impl FluorideFit {
     }
 }
 
-impl std::str::FromStr for FluorideFit {
-    type Err = Error;
-    fn from_str(s: &str) -> Result<Self> {
-        FluorideFit::ALL
-            .into_iter()
-            .find(|f| f.name() == s.trim().to_ascii_lowercase())
-            .ok_or_else(|| Error::UnknownFit {
-                constant: "fluoride",
-                name: s.to_string(),
-                accepted: FluorideFit::ALL.map(|f| f.name()).join(", "),
-            })
-    }
-}
+fit_from_str!(FluorideFit, "fluoride");
 
 /// Total fluoride, mol/kg-soln, from Riley (1965):
 /// `FT = (6.7e-5 / 18.998) * (S / 1.80655)`. Ratio from memory (unverified).

@@ -7,6 +7,27 @@
 //! Millero (1995) pressure corrections and records a warning for every fit
 //! used outside its published range. The solver reads only the result.
 
+/// `FromStr` for a fit enum with `ALL` and `name()`: the author-year name,
+/// case-insensitive, or an error listing the accepted names.
+macro_rules! fit_from_str {
+    ($ty:ty, $constant:literal) => {
+        impl std::str::FromStr for $ty {
+            type Err = crate::error::Error;
+            fn from_str(s: &str) -> crate::error::Result<Self> {
+                let wanted = s.trim().to_ascii_lowercase();
+                <$ty>::ALL
+                    .into_iter()
+                    .find(|f| f.name() == wanted)
+                    .ok_or_else(|| crate::error::Error::UnknownFit {
+                        constant: $constant,
+                        name: s.to_string(),
+                        accepted: <$ty>::ALL.map(|f| f.name()).join(", "),
+                    })
+            }
+        }
+    };
+}
+
 pub mod ammonia;
 pub mod boron;
 pub mod carbonic;
