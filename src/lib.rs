@@ -49,6 +49,7 @@ pub mod report;
 pub(crate) mod root;
 pub mod sample;
 pub mod scales;
+pub mod sheet;
 pub mod solve;
 pub mod state;
 pub mod units;

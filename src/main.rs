@@ -5,6 +5,7 @@ use std::process::ExitCode;
 use travertine::activity::ActivityModel;
 use travertine::constants::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
 use travertine::sample::{Conductivity, MediumChoice, Sample};
+use travertine::sheet::{Format, Progress, SheetError, SheetOptions, Sink, Source, UnitSystem};
 use travertine::units::{Quantity, Unit};
 use travertine::{Error, Measured, Parameter, PhScale, RootChoice, SolveOptions, State};
 
@@ -22,7 +23,70 @@ struct Cli {
 #[derive(Subcommand)]
 enum Command {
     /// Solve one sample from two measured carbonate parameters.
-    Solve(SolveArgs),
+    Solve(Box<SolveArgs>),
+    /// Solve every row of a CSV field sheet; results in input order with status and message.
+    Sheet(Box<SheetArgs>),
+}
+
+#[derive(Args)]
+struct SheetArgs {
+    /// The sheet to read (CSV with a header row); `-` for standard input.
+    input: String,
+    /// Where to write the results (replaced atomically when complete); `-` or
+    /// nothing for standard output. Never the input file.
+    #[arg(short, long)]
+    output: Option<String>,
+    /// Read a column by hand: NAME=HEADER, such as alkalinity_mg_l_caco3=Alk;
+    /// `ignore=HEADER` passes a column through unread. Repeatable.
+    #[arg(long, value_name = "NAME=HEADER")]
+    map: Vec<String>,
+    /// One value for every row where the sheet has no column: NAME=VALUE, such as
+    /// temperature_c=25, salinity=0.3, calcium_mg_l=40, water=fresh. Repeatable.
+    #[arg(long, value_name = "NAME=VALUE", allow_hyphen_values = true)]
+    set: Vec<String>,
+    /// Force the pair of every row, such as alkalinity,ph (default: the best two
+    /// present in each row; the others get *_residual columns).
+    #[arg(long, value_name = "A,B")]
+    pair: Option<String>,
+    /// Computed columns, comma-separated: names such as ph_total, pco2_uatm; `default`
+    /// for the default set, `all` for every one.
+    #[arg(long, value_name = "LIST")]
+    columns: Option<String>,
+    /// Output format: csv or jsonl.
+    #[arg(long, default_value = "csv")]
+    format: String,
+    /// Units of the default columns and residuals: trade (mg/L, µatm, NBS pH) or
+    /// ocean (µmol/kg, µatm, total-scale pH).
+    #[arg(long, default_value = "trade")]
+    units: String,
+    /// Field delimiter of input and output: one character, or `tab`.
+    #[arg(long, default_value = ",")]
+    delimiter: String,
+    /// Numbers use a decimal comma (7,9), in the input and the output.
+    #[arg(long)]
+    decimal_comma: bool,
+    /// The ionic medium of every row: fresh, saline or auto (default auto, or a `water` column); same as --set water=VALUE.
+    #[arg(long)]
+    water: Option<String>,
+    /// Scale of a pH column whose header names none: total, seawater, free or nbs; same as --set ph_scale=VALUE.
+    #[arg(long)]
+    ph_scale: Option<String>,
+    /// K1 and K2 of carbonic acid for every row (saline): lueker2000, millero2006, roy1993,
+    /// dickson-millero1987; same as --set carbonic_fit=VALUE.
+    #[arg(long)]
+    carbonic: Option<String>,
+    /// Total boron from salinity for every row (saline): lee2010 or uppstrom1974; same as --set boron_fit=VALUE.
+    #[arg(long)]
+    boron: Option<String>,
+    /// KF of hydrogen fluoride for every row (saline): perez-fraga1987 or dickson-riley1979; same as --set fluoride_fit=VALUE.
+    #[arg(long)]
+    fluoride: Option<String>,
+    /// Activity coefficients for every row (fresh): davies or extended-debye-huckel; same as --set activity=VALUE.
+    #[arg(long)]
+    activity: Option<String>,
+    /// Which root where two waters fit: natural, lower-ph, higher-ph.
+    #[arg(long, default_value = "natural")]
+    root: String,
 }
 
 #[derive(Args)]
@@ -328,9 +392,71 @@ fn render(measured: &State, reported: Option<&State>, json: bool) -> String {
     }
 }
 
+/// The library settings of `travertine sheet`.
+fn sheet_options(a: &SheetArgs) -> Result<SheetOptions, SheetError> {
+    let mut o = SheetOptions::default()
+        .with_format(a.format.parse::<Format>()?)
+        .with_units(a.units.parse::<UnitSystem>()?)
+        .with_delimiter(&a.delimiter)?
+        .with_decimal_comma(a.decimal_comma)
+        .with_progress(Progress::Auto)
+        .with_root(a.root.parse().map_err(|e: Error| SheetError::BadOption {
+            option: "--root",
+            message: e.to_string(),
+        })?);
+    for m in &a.map {
+        o = o.with_map(m)?;
+    }
+    for s in &a.set {
+        o = o.with_set(s)?;
+    }
+    let choices = [
+        ("water", &a.water),
+        ("ph_scale", &a.ph_scale),
+        ("carbonic_fit", &a.carbonic),
+        ("boron_fit", &a.boron),
+        ("fluoride_fit", &a.fluoride),
+        ("activity", &a.activity),
+    ];
+    for (name, value) in choices {
+        if let Some(v) = value {
+            o = o.with_set(&format!("{name}={v}"))?;
+        }
+    }
+    if let Some(p) = &a.pair {
+        o = o.with_pair(p)?;
+    }
+    if let Some(c) = &a.columns {
+        o = o.with_columns(c)?;
+    }
+    Ok(o)
+}
+
+fn sheet(a: &SheetArgs) -> ExitCode {
+    let result = sheet_options(a).and_then(|o| {
+        travertine::sheet::run(
+            &o,
+            &Source::from_arg(&a.input),
+            &Sink::from_arg(a.output.as_deref()),
+        )
+    });
+    match result {
+        Ok(summary) => {
+            eprint!("{summary}");
+            ExitCode::SUCCESS
+        }
+        Err(e) if e.is_broken_pipe() => ExitCode::SUCCESS,
+        Err(e) => {
+            eprintln!("travertine sheet: {e}");
+            ExitCode::from(e.exit_code())
+        }
+    }
+}
+
 fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
+        Command::Sheet(args) => sheet(&args),
         Command::Solve(args) => match run(&args) {
             Ok(text) => {
                 println!("{}", text.trim_end());

@@ -1,0 +1,1009 @@
+//! Recognising a column by its header: the canonical snake_case names with
+//! the unit in the name (`alkalinity_mg_l_caco3`, `temperature_c`), and the
+//! common spellings with the unit in brackets (`Alkalinity (mg/L as
+//! CaCO3)`, `Temp [°C]`, `pH (NBS)`), case and spacing insensitive.
+//!
+//! A header whose name is known but whose unit cannot be determined is a
+//! [`HeaderIssue`]: the sheet stops before any row is read. A unit is never
+//! guessed: plain `mg/L` is accepted only where the name says what the mass
+//! is of (calcium as Ca, bicarbonate as HCO3, total ammonia *nitrogen* as
+//! N), never for alkalinity, DIC or hardness.
+
+use crate::measured::Parameter;
+use crate::scales::PhScale;
+use crate::units::{list_units, Unit, MOLAR_UNITS};
+
+/// A measured total of the sample (the `Sample` fields of the same names).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub(crate) enum Total {
+    Phosphate,
+    Silicate,
+    Ammonia,
+    Sulfide,
+    Calcium,
+    Hardness,
+    Magnesium,
+    Sodium,
+    Potassium,
+    Chloride,
+    Sulfate,
+    Boron,
+}
+
+impl Total {
+    pub(crate) const ALL: [Total; 12] = [
+        Total::Phosphate,
+        Total::Silicate,
+        Total::Ammonia,
+        Total::Sulfide,
+        Total::Calcium,
+        Total::Hardness,
+        Total::Magnesium,
+        Total::Sodium,
+        Total::Potassium,
+        Total::Chloride,
+        Total::Sulfate,
+        Total::Boron,
+    ];
+
+    /// The field name, as in `Sample::units_for` and the library's errors.
+    pub(crate) fn name(self) -> &'static str {
+        match self {
+            Total::Phosphate => "phosphate",
+            Total::Silicate => "silicate",
+            Total::Ammonia => "ammonia",
+            Total::Sulfide => "sulfide",
+            Total::Calcium => "calcium",
+            Total::Hardness => "hardness",
+            Total::Magnesium => "magnesium",
+            Total::Sodium => "sodium",
+            Total::Potassium => "potassium",
+            Total::Chloride => "chloride",
+            Total::Sulfate => "sulfate",
+            Total::Boron => "boron_total",
+        }
+    }
+
+    pub(crate) fn index(self) -> usize {
+        Total::ALL.iter().position(|t| *t == self).unwrap_or(0)
+    }
+
+    /// The unit that plain "mg/L" means for this total, where the name of
+    /// the total says what the mass is of.
+    fn own_mass_unit(self) -> Option<Unit> {
+        match self {
+            Total::Calcium => Some(Unit::MgPerLCa),
+            Total::Magnesium => Some(Unit::MgPerLMg),
+            Total::Sodium => Some(Unit::MgPerLNa),
+            Total::Potassium => Some(Unit::MgPerLK),
+            Total::Chloride => Some(Unit::MgPerLCl),
+            Total::Sulfate => Some(Unit::MgPerLSO4),
+            _ => None,
+        }
+    }
+
+    /// The units accepted, as in `Sample::units_for`.
+    fn units(self) -> Vec<Unit> {
+        crate::sample::Sample::units_for(self.name())
+    }
+}
+
+/// What a recognised column gives.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub(crate) enum Field {
+    /// A measured carbonate parameter.
+    Carbon(Parameter),
+    /// Temperature of the measurement, °C.
+    Temperature,
+    /// Practical salinity.
+    Salinity,
+    /// Conductivity, at the sample temperature or specific (at 25 °C).
+    Conductivity,
+    /// Gauge pressure, dbar.
+    Pressure,
+    /// Air pressure over the water, atm.
+    AirPressure,
+    /// A measured total.
+    Total(Total),
+    /// Fraction of the total hardness that is calcium.
+    CalciumFraction,
+    /// Total dissolved solids, mg/L.
+    Tds,
+    /// Ionic strength, mol/kg.
+    IonicStrength,
+    /// fresh, saline or auto.
+    Medium,
+    /// The scale of a bare pH column.
+    PhScale,
+    /// K1 and K2 fit.
+    CarbonicFit,
+    /// Total boron ratio.
+    BoronFit,
+    /// KF fit.
+    FluorideFit,
+    /// Activity model.
+    Activity,
+}
+
+impl Field {
+    /// The plain name used in messages.
+    pub(crate) fn name(self) -> &'static str {
+        match self {
+            Field::Carbon(p) => p.name(),
+            Field::Temperature => "temperature",
+            Field::Salinity => "salinity",
+            Field::Conductivity => "conductivity",
+            Field::Pressure => "pressure",
+            Field::AirPressure => "air pressure",
+            Field::Total(t) => t.name(),
+            Field::CalciumFraction => "calcium fraction",
+            Field::Tds => "tds",
+            Field::IonicStrength => "ionic strength",
+            Field::Medium => "water",
+            Field::PhScale => "ph scale",
+            Field::CarbonicFit => "carbonic fit",
+            Field::BoronFit => "boron fit",
+            Field::FluorideFit => "fluoride fit",
+            Field::Activity => "activity model",
+        }
+    }
+
+    /// The canonical column name in the most common field unit, for
+    /// suggestions.
+    pub(crate) fn canonical(self) -> &'static str {
+        match self {
+            Field::Carbon(p) => match p {
+                Parameter::Alkalinity => "alkalinity_mg_l_caco3",
+                Parameter::Dic => "dic_umol_kg",
+                Parameter::Ph => "ph_nbs",
+                Parameter::Pco2 => "pco2_uatm",
+                Parameter::Fco2 => "fco2_uatm",
+                Parameter::Xco2 => "xco2_ppm",
+                Parameter::Co2 => "free_co2_mg_l",
+                Parameter::Hco3 => "hco3_mg_l",
+                Parameter::Co3 => "co3_mg_l",
+            },
+            Field::Temperature => "temperature_c",
+            Field::Salinity => "salinity",
+            Field::Conductivity => "specific_conductance_us_cm",
+            Field::Pressure => "pressure_dbar",
+            Field::AirPressure => "air_pressure_atm",
+            Field::Total(t) => match t {
+                Total::Phosphate => "phosphate_mg_l_p",
+                Total::Silicate => "silicate_mg_l_si",
+                Total::Ammonia => "ammonia_mg_l_n",
+                Total::Sulfide => "sulfide_mg_l_s",
+                Total::Calcium => "calcium_mg_l",
+                Total::Hardness => "hardness_mg_l_caco3",
+                Total::Magnesium => "magnesium_mg_l",
+                Total::Sodium => "sodium_mg_l",
+                Total::Potassium => "potassium_mg_l",
+                Total::Chloride => "chloride_mg_l",
+                Total::Sulfate => "sulfate_mg_l",
+                Total::Boron => "boron_total_umol_kg",
+            },
+            Field::CalciumFraction => "calcium_fraction",
+            Field::Tds => "tds_mg_l",
+            Field::IonicStrength => "ionic_strength",
+            Field::Medium => "water",
+            Field::PhScale => "ph_scale",
+            Field::CarbonicFit => "carbonic_fit",
+            Field::BoronFit => "boron_fit",
+            Field::FluorideFit => "fluoride_fit",
+            Field::Activity => "activity",
+        }
+    }
+
+    /// The units (or values) this field accepts, for messages.
+    pub(crate) fn accepted(self) -> String {
+        match self {
+            Field::Carbon(Parameter::Ph) => {
+                "a pH scale: nbs, total, seawater or free (or none: the medium's default)".into()
+            }
+            Field::Carbon(p) => list_units(&p.accepted_units()),
+            Field::Temperature => "°C, °F, K".into(),
+            Field::Salinity => "none (practical salinity), psu".into(),
+            Field::Conductivity => "uS/cm, mS/cm (at the sample temperature), uS/cm@25C, \
+                                    mS/cm@25C (specific conductance)"
+                .into(),
+            Field::Pressure => "dbar, bar".into(),
+            Field::AirPressure => "atm, hPa, mbar, kPa, mmHg".into(),
+            Field::Total(t) => list_units(&t.units()),
+            Field::CalciumFraction => "none (0 to 1), %".into(),
+            Field::Tds => "mg/L, g/L".into(),
+            Field::IonicStrength => "none (mol/kg), mol/kg, mmol/kg".into(),
+            _ => "none (a name in each cell)".into(),
+        }
+    }
+}
+
+/// How the cells of a recognised column are read.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) enum Reading {
+    /// A plain number, turned into the field's base unit (°C, dbar, atm,
+    /// mg/L, mol/kg, fraction) as `value * scale + offset`.
+    Number {
+        scale: f64,
+        offset: f64,
+        /// The unit as written in messages.
+        label: &'static str,
+    },
+    /// A number in this unit.
+    Quantity(Unit),
+    /// Conductivity in µS/cm (after `scale`), specific (at 25 °C) or not.
+    Conductivity { scale: f64, specific: bool },
+    /// pH on this scale (`None`: the medium's default).
+    Ph(Option<PhScale>),
+    /// A name (medium, scale, fit).
+    Text,
+}
+
+impl Reading {
+    const PLAIN: Reading = Reading::Number {
+        scale: 1.0,
+        offset: 0.0,
+        label: "",
+    };
+}
+
+/// A recognised column.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Column {
+    pub field: Field,
+    pub reading: Reading,
+}
+
+/// A header whose field is known but whose unit is not.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct HeaderIssue {
+    pub field: Field,
+    /// What is wrong, in words.
+    pub problem: String,
+}
+
+/// The result of reading one header.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) enum Recognition {
+    /// A column travertine reads.
+    Column(Column),
+    /// A column that passes through unchanged.
+    PassThrough,
+    /// A known field with a unit that cannot be determined.
+    Issue(HeaderIssue),
+}
+
+/// Flags of a name alias.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Hint {
+    None,
+    /// A chemical symbol or short code: recognised only with a unit.
+    Short,
+    /// The name says "nitrogen": plain mg/L means mg/L as N.
+    Nitrogen,
+    /// The name says "phosphate-P": plain mg/L means mg/L as P.
+    Phosphorus,
+    /// Calcium hardness: mg/L as CaCO3 or molar only.
+    CalciumHardness,
+    /// Specific conductance: at 25 °C whatever the unit says.
+    Specific,
+}
+
+/// Name aliases after normalising (lower case, `_` as space, µ as u).
+const NAMES: &[(&str, Field, Hint)] = &[
+    (
+        "alkalinity",
+        Field::Carbon(Parameter::Alkalinity),
+        Hint::None,
+    ),
+    (
+        "total alkalinity",
+        Field::Carbon(Parameter::Alkalinity),
+        Hint::None,
+    ),
+    (
+        "alkalinity total",
+        Field::Carbon(Parameter::Alkalinity),
+        Hint::None,
+    ),
+    ("alk", Field::Carbon(Parameter::Alkalinity), Hint::Short),
+    ("talk", Field::Carbon(Parameter::Alkalinity), Hint::Short),
+    ("ta", Field::Carbon(Parameter::Alkalinity), Hint::Short),
+    ("dic", Field::Carbon(Parameter::Dic), Hint::None),
+    ("tic", Field::Carbon(Parameter::Dic), Hint::Short),
+    ("ct", Field::Carbon(Parameter::Dic), Hint::Short),
+    ("tco2", Field::Carbon(Parameter::Dic), Hint::Short),
+    (
+        "dissolved inorganic carbon",
+        Field::Carbon(Parameter::Dic),
+        Hint::None,
+    ),
+    (
+        "total inorganic carbon",
+        Field::Carbon(Parameter::Dic),
+        Hint::None,
+    ),
+    ("ph", Field::Carbon(Parameter::Ph), Hint::None),
+    ("pco2", Field::Carbon(Parameter::Pco2), Hint::None),
+    (
+        "co2 partial pressure",
+        Field::Carbon(Parameter::Pco2),
+        Hint::None,
+    ),
+    (
+        "partial pressure of co2",
+        Field::Carbon(Parameter::Pco2),
+        Hint::None,
+    ),
+    ("fco2", Field::Carbon(Parameter::Fco2), Hint::None),
+    ("co2 fugacity", Field::Carbon(Parameter::Fco2), Hint::None),
+    ("xco2", Field::Carbon(Parameter::Xco2), Hint::None),
+    ("co2", Field::Carbon(Parameter::Co2), Hint::None),
+    ("free co2", Field::Carbon(Parameter::Co2), Hint::None),
+    ("co2 free", Field::Carbon(Parameter::Co2), Hint::None),
+    ("co2*", Field::Carbon(Parameter::Co2), Hint::None),
+    ("dissolved co2", Field::Carbon(Parameter::Co2), Hint::None),
+    ("carbon dioxide", Field::Carbon(Parameter::Co2), Hint::None),
+    (
+        "free carbon dioxide",
+        Field::Carbon(Parameter::Co2),
+        Hint::None,
+    ),
+    ("hco3", Field::Carbon(Parameter::Hco3), Hint::None),
+    ("hco3-", Field::Carbon(Parameter::Hco3), Hint::None),
+    ("bicarbonate", Field::Carbon(Parameter::Hco3), Hint::None),
+    ("co3", Field::Carbon(Parameter::Co3), Hint::None),
+    ("co3--", Field::Carbon(Parameter::Co3), Hint::None),
+    ("carbonate", Field::Carbon(Parameter::Co3), Hint::None),
+    ("temperature", Field::Temperature, Hint::None),
+    ("temp", Field::Temperature, Hint::None),
+    ("water temperature", Field::Temperature, Hint::None),
+    ("water temp", Field::Temperature, Hint::None),
+    ("salinity", Field::Salinity, Hint::None),
+    ("practical salinity", Field::Salinity, Hint::None),
+    ("sal", Field::Salinity, Hint::Short),
+    ("psal", Field::Salinity, Hint::None),
+    ("conductivity", Field::Conductivity, Hint::None),
+    ("cond", Field::Conductivity, Hint::Short),
+    ("ec", Field::Conductivity, Hint::Short),
+    ("electrical conductivity", Field::Conductivity, Hint::None),
+    ("specific conductance", Field::Conductivity, Hint::Specific),
+    ("specific conductivity", Field::Conductivity, Hint::Specific),
+    ("spc", Field::Conductivity, Hint::Specific),
+    ("spcond", Field::Conductivity, Hint::Specific),
+    ("sp cond", Field::Conductivity, Hint::Specific),
+    ("pressure", Field::Pressure, Hint::None),
+    ("water pressure", Field::Pressure, Hint::None),
+    ("sea pressure", Field::Pressure, Hint::None),
+    ("pres", Field::Pressure, Hint::Short),
+    ("air pressure", Field::AirPressure, Hint::None),
+    ("barometric pressure", Field::AirPressure, Hint::None),
+    ("atmospheric pressure", Field::AirPressure, Hint::None),
+    ("phosphate", Field::Total(Total::Phosphate), Hint::None),
+    (
+        "total phosphate",
+        Field::Total(Total::Phosphate),
+        Hint::None,
+    ),
+    ("po4", Field::Total(Total::Phosphate), Hint::Short),
+    ("po4-p", Field::Total(Total::Phosphate), Hint::Phosphorus),
+    (
+        "phosphate-p",
+        Field::Total(Total::Phosphate),
+        Hint::Phosphorus,
+    ),
+    ("silicate", Field::Total(Total::Silicate), Hint::None),
+    ("silicic acid", Field::Total(Total::Silicate), Hint::None),
+    ("ammonia", Field::Total(Total::Ammonia), Hint::None),
+    ("total ammonia", Field::Total(Total::Ammonia), Hint::None),
+    ("ammonium", Field::Total(Total::Ammonia), Hint::None),
+    ("tan", Field::Total(Total::Ammonia), Hint::Nitrogen),
+    (
+        "total ammonia nitrogen",
+        Field::Total(Total::Ammonia),
+        Hint::Nitrogen,
+    ),
+    (
+        "total ammonia-nitrogen",
+        Field::Total(Total::Ammonia),
+        Hint::Nitrogen,
+    ),
+    (
+        "ammonia nitrogen",
+        Field::Total(Total::Ammonia),
+        Hint::Nitrogen,
+    ),
+    (
+        "ammonia-nitrogen",
+        Field::Total(Total::Ammonia),
+        Hint::Nitrogen,
+    ),
+    ("nh3-n", Field::Total(Total::Ammonia), Hint::Nitrogen),
+    ("nh4-n", Field::Total(Total::Ammonia), Hint::Nitrogen),
+    ("sulfide", Field::Total(Total::Sulfide), Hint::None),
+    ("sulphide", Field::Total(Total::Sulfide), Hint::None),
+    ("total sulfide", Field::Total(Total::Sulfide), Hint::None),
+    ("h2s", Field::Total(Total::Sulfide), Hint::Short),
+    ("calcium", Field::Total(Total::Calcium), Hint::None),
+    ("ca", Field::Total(Total::Calcium), Hint::Short),
+    (
+        "calcium hardness",
+        Field::Total(Total::Calcium),
+        Hint::CalciumHardness,
+    ),
+    (
+        "ca hardness",
+        Field::Total(Total::Calcium),
+        Hint::CalciumHardness,
+    ),
+    ("hardness", Field::Total(Total::Hardness), Hint::None),
+    ("total hardness", Field::Total(Total::Hardness), Hint::None),
+    ("magnesium", Field::Total(Total::Magnesium), Hint::None),
+    ("mg", Field::Total(Total::Magnesium), Hint::Short),
+    ("sodium", Field::Total(Total::Sodium), Hint::None),
+    ("na", Field::Total(Total::Sodium), Hint::Short),
+    ("potassium", Field::Total(Total::Potassium), Hint::None),
+    ("k", Field::Total(Total::Potassium), Hint::Short),
+    ("chloride", Field::Total(Total::Chloride), Hint::None),
+    ("cl", Field::Total(Total::Chloride), Hint::Short),
+    ("sulfate", Field::Total(Total::Sulfate), Hint::None),
+    ("sulphate", Field::Total(Total::Sulfate), Hint::None),
+    ("so4", Field::Total(Total::Sulfate), Hint::Short),
+    ("boron total", Field::Total(Total::Boron), Hint::None),
+    ("total boron", Field::Total(Total::Boron), Hint::None),
+    ("calcium fraction", Field::CalciumFraction, Hint::None),
+    ("tds", Field::Tds, Hint::None),
+    ("total dissolved solids", Field::Tds, Hint::None),
+    ("ionic strength", Field::IonicStrength, Hint::None),
+    ("water", Field::Medium, Hint::None),
+    ("medium", Field::Medium, Hint::None),
+    ("water type", Field::Medium, Hint::None),
+    ("ph scale", Field::PhScale, Hint::None),
+    ("carbonic", Field::CarbonicFit, Hint::None),
+    ("carbonic fit", Field::CarbonicFit, Hint::None),
+    ("boron fit", Field::BoronFit, Hint::None),
+    ("fluoride fit", Field::FluorideFit, Hint::None),
+    ("activity", Field::Activity, Hint::None),
+    ("activity model", Field::Activity, Hint::None),
+];
+
+/// Lower case, `µ`/`μ` as `u`, subscript digits as digits, degree signs and
+/// superscript charges dropped, `_` and runs of white space as one space.
+pub(crate) fn normalise(text: &str) -> String {
+    let mut out = String::with_capacity(text.len());
+    let mut space = false;
+    for ch in text.trim().trim_start_matches('\u{feff}').chars() {
+        let mapped = match ch {
+            'µ' | 'μ' => Some('u'),
+            '₀'..='₉' => char::from_digit(ch as u32 - '₀' as u32, 10),
+            '°' | 'º' | '⁻' | '⁺' | '²' | '³' => None,
+            '‐' | '–' => Some('-'),
+            '_' => Some(' '),
+            c if c.is_whitespace() => Some(' '),
+            c => Some(c),
+        };
+        let Some(c) = mapped else { continue };
+        if c == ' ' {
+            space = !out.is_empty();
+            continue;
+        }
+        if space {
+            out.push(' ');
+            space = false;
+        }
+        for l in c.to_lowercase() {
+            out.push(l);
+        }
+    }
+    out
+}
+
+fn lookup_name(name: &str) -> Option<(Field, Hint)> {
+    let name = name.trim_matches(|c: char| c == '.' || c == ':' || c == ' ');
+    NAMES
+        .iter()
+        .find(|(n, _, _)| *n == name)
+        .map(|(_, f, h)| (*f, *h))
+}
+
+/// Splits a header into its name and unit text: `Name (unit)`, `Name
+/// [unit]` or `Name, unit`. `None` when the header has no such unit part;
+/// the flag tells whether the unit was in brackets.
+fn split_bracket(h: &str) -> Option<(&str, &str, bool)> {
+    if let Some(open) = h.find(['(', '[']) {
+        let name = &h[..open];
+        let last_open = h.rfind(['(', '[']).unwrap_or(open);
+        let inner = &h[last_open + 1..];
+        let inner = inner
+            .find([')', ']'])
+            .map_or(inner, |close| &inner[..close]);
+        return Some((name.trim(), inner.trim(), true));
+    }
+    h.split_once(',').map(|(n, u)| (n.trim(), u.trim(), false))
+}
+
+/// Unit text from the tokens of a snake_case or spaced name: `mg l caco3`
+/// is `mg/l caco3`, `umol kg` is `umol/kg`.
+fn unit_from_tokens(tokens: &[&str]) -> String {
+    if tokens.len() >= 2 && matches!(tokens[1], "kg" | "l" | "cm") && !tokens[0].contains('/') {
+        let mut s = format!("{}/{}", tokens[0], tokens[1]);
+        for t in &tokens[2..] {
+            s.push(' ');
+            s.push_str(t);
+        }
+        s
+    } else {
+        tokens.join(" ")
+    }
+}
+
+/// Reads one header.
+///
+/// ```text
+/// alkalinity_mg_l_caco3         -> alkalinity, mg/L as CaCO3
+/// Alkalinity (mg/L as CaCO3)    -> the same
+/// Temp [°C]                     -> temperature, °C
+/// pH (NBS)                      -> pH, NBS scale
+/// Site                          -> passes through
+/// Alkalinity                    -> issue: no unit
+/// ```
+pub(crate) fn recognise(header: &str) -> Recognition {
+    let h = normalise(header);
+    if let Some((name, unit, bracketed)) = split_bracket(&h) {
+        return match lookup_name(name) {
+            Some((field, hint)) => match interpret(field, hint, unit) {
+                Ok(reading) => Recognition::Column(Column { field, reading }),
+                // "Temperature, surface": a qualifier after a comma, no unit.
+                Err(_) if !bracketed && !is_unit_text(unit) => Recognition::PassThrough,
+                Err(problem) => Recognition::Issue(HeaderIssue { field, problem }),
+            },
+            None => Recognition::PassThrough,
+        };
+    }
+    let tokens: Vec<&str> = h.split(' ').filter(|t| !t.is_empty()).collect();
+    for k in (1..=tokens.len()).rev() {
+        let name = tokens[..k].join(" ");
+        let Some((field, hint)) = lookup_name(&name) else {
+            continue;
+        };
+        let unit = unit_from_tokens(&tokens[k..]);
+        if unit.is_empty() && hint == Hint::Short {
+            // A bare short code such as "TA" or "Ca" may be anything.
+            return Recognition::PassThrough;
+        }
+        return match interpret(field, hint, &unit) {
+            Ok(reading) => Recognition::Column(Column { field, reading }),
+            // "temperature_notes": the rest is no unit at all, so this is
+            // another column that happens to start with a known name.
+            Err(_) if !unit.is_empty() && !is_unit_text(&unit) => Recognition::PassThrough,
+            Err(problem) => Recognition::Issue(HeaderIssue { field, problem }),
+        };
+    }
+    Recognition::PassThrough
+}
+
+/// Whether some field would read `unit` as a unit.
+fn is_unit_text(unit: &str) -> bool {
+    Unit::parse(unit).is_some()
+        || temperature_unit(unit).is_some()
+        || scale_word(unit).is_some()
+        || conductivity_unit(unit).is_some()
+        || matches!(
+            unit,
+            "psu"
+                | "pss"
+                | "pss-78"
+                | "ppt"
+                | "g/kg"
+                | "‰"
+                | "dbar"
+                | "db"
+                | "bar"
+                | "hpa"
+                | "mbar"
+                | "mmhg"
+                | "g/l"
+                | "%"
+                | "m"
+        )
+}
+
+fn temperature_unit(u: &str) -> Option<Reading> {
+    match u {
+        "c" | "degc" | "deg c" | "celsius" | "degrees c" | "deg. c" => Some(Reading::Number {
+            scale: 1.0,
+            offset: 0.0,
+            label: "°C",
+        }),
+        "f" | "degf" | "deg f" | "fahrenheit" | "degrees f" | "deg. f" => Some(Reading::Number {
+            scale: 5.0 / 9.0,
+            offset: -32.0 * 5.0 / 9.0,
+            label: "°F",
+        }),
+        "k" | "kelvin" => Some(Reading::Number {
+            scale: 1.0,
+            offset: -273.15,
+            label: "K",
+        }),
+        _ => None,
+    }
+}
+
+fn scale_word(u: &str) -> Option<Option<PhScale>> {
+    let u = u
+        .trim_end_matches(" scale")
+        .trim_start_matches("scale ")
+        .trim();
+    match u {
+        "nbs" | "nist" => Some(Some(PhScale::Nbs)),
+        "total" | "t" => Some(Some(PhScale::Total)),
+        "seawater" | "sea water" | "sws" => Some(Some(PhScale::Seawater)),
+        "free" | "f" => Some(Some(PhScale::Free)),
+        "su" | "s.u." | "units" | "std units" | "standard units" => Some(None),
+        _ => None,
+    }
+}
+
+fn conductivity_unit(u: &str) -> Option<(f64, bool)> {
+    let compact: String = u.chars().filter(|c| !c.is_whitespace()).collect();
+    let (scale, rest) = if let Some(r) = compact.strip_prefix("us/cm") {
+        (1.0, r)
+    } else if let Some(r) = compact.strip_prefix("ms/cm") {
+        (1000.0, r)
+    } else {
+        return None;
+    };
+    match rest {
+        "" => Some((scale, false)),
+        "@25c" | "at25c" | "25c" | "@25" | "at25" => Some((scale, true)),
+        _ => None,
+    }
+}
+
+/// The reading of `field` with the unit text `unit` (normalised; empty
+/// when the header gives none), or what is wrong with it.
+fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading, String> {
+    let missing = || format!("the header gives no unit for {}", field.name());
+    let unknown = || {
+        format!(
+            "`{unit}` is not a unit travertine knows for {}",
+            field.name()
+        )
+    };
+    match field {
+        Field::Carbon(Parameter::Ph) => scale_word(unit)
+            .or(if unit.is_empty() { Some(None) } else { None })
+            .map(Reading::Ph)
+            .ok_or_else(|| format!("`{unit}` is not a pH scale")),
+        Field::Carbon(p) => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            let parsed = Unit::parse(unit).ok_or_else(unknown)?;
+            let resolved = match (p, parsed) {
+                (Parameter::Co2, Unit::MgPerL) => Unit::MgPerLCO2,
+                (Parameter::Hco3, Unit::MgPerL) => Unit::MgPerLHCO3,
+                (Parameter::Co3, Unit::MgPerL) => Unit::MgPerLCO3,
+                (Parameter::Alkalinity, Unit::MgPerL) => {
+                    return Err(format!(
+                    "`{unit}` does not say what alkalinity is expressed as (write mg/L as CaCO3)"
+                ))
+                }
+                (Parameter::Dic, Unit::MgPerL) => {
+                    return Err(format!(
+                        "`{unit}` does not say what DIC is expressed as (write mg/L as C)"
+                    ))
+                }
+                (_, u) => u,
+            };
+            if p.accepted_units().contains(&resolved) {
+                Ok(Reading::Quantity(resolved))
+            } else {
+                Err(format!("`{unit}` is not a unit of {}", p.name()))
+            }
+        }
+        Field::Temperature => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            temperature_unit(unit).ok_or_else(unknown)
+        }
+        Field::Salinity => match unit {
+            "" | "psu" | "pss" | "pss-78" | "pss78" | "practical" => Ok(Reading::PLAIN),
+            "ppt" | "g/kg" | "‰" | "permil" | "ppth" => Err(format!(
+                "`{unit}` may be absolute salinity (g/kg) rather than practical salinity"
+            )),
+            _ => Err(unknown()),
+        },
+        Field::Conductivity => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            let (scale, at_25) = conductivity_unit(unit).ok_or_else(unknown)?;
+            Ok(Reading::Conductivity {
+                scale,
+                specific: at_25 || hint == Hint::Specific,
+            })
+        }
+        Field::Pressure => match unit {
+            "" => Err(missing()),
+            "dbar" | "db" | "decibar" => Ok(Reading::Number {
+                scale: 1.0,
+                offset: 0.0,
+                label: "dbar",
+            }),
+            "bar" => Ok(Reading::Number {
+                scale: 10.0,
+                offset: 0.0,
+                label: "bar",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::AirPressure => {
+            let (scale, label) = match unit {
+                "" => return Err(missing()),
+                "atm" => (1.0, "atm"),
+                "hpa" | "mbar" => (1.0 / 1013.25, "hPa"),
+                "kpa" => (1.0 / 101.325, "kPa"),
+                "mmhg" => (1.0 / 760.0, "mmHg"),
+                _ => return Err(unknown()),
+            };
+            Ok(Reading::Number {
+                scale,
+                offset: 0.0,
+                label,
+            })
+        }
+        Field::Total(t) => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            let parsed = Unit::parse(unit).ok_or_else(unknown)?;
+            let resolved = match (parsed, hint) {
+                (Unit::MgPerL, Hint::Nitrogen) => Unit::MgPerLN,
+                (Unit::MgPerL, Hint::Phosphorus) => Unit::MgPerLP,
+                (Unit::MgPerL, Hint::CalciumHardness) => {
+                    return Err(format!(
+                        "`{unit}` does not say what calcium hardness is expressed as (write mg/L \
+                         as CaCO3)"
+                    ))
+                }
+                (Unit::MgPerL, _) => t.own_mass_unit().ok_or_else(|| {
+                    format!(
+                        "`{unit}` does not say what {} is expressed as (write, for example, {})",
+                        t.name(),
+                        t.units().last().map_or("umol/kg", |u| u.spelling())
+                    )
+                })?,
+                (u, _) => u,
+            };
+            let ok = if hint == Hint::CalciumHardness {
+                resolved == Unit::MgPerLCaCO3 || MOLAR_UNITS.contains(&resolved)
+            } else {
+                t.units().contains(&resolved)
+            };
+            if ok {
+                Ok(Reading::Quantity(resolved))
+            } else {
+                Err(format!("`{unit}` is not a unit of {}", t.name()))
+            }
+        }
+        Field::CalciumFraction => match unit {
+            "" | "fraction" => Ok(Reading::PLAIN),
+            "%" | "percent" => Ok(Reading::Number {
+                scale: 0.01,
+                offset: 0.0,
+                label: "%",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::Tds => match unit {
+            "" => Err(missing()),
+            "mg/l" => Ok(Reading::Number {
+                scale: 1.0,
+                offset: 0.0,
+                label: "mg/L",
+            }),
+            "g/l" => Ok(Reading::Number {
+                scale: 1000.0,
+                offset: 0.0,
+                label: "g/L",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::IonicStrength => match unit {
+            "" | "mol/kg" | "m" => Ok(Reading::PLAIN),
+            "mmol/kg" => Ok(Reading::Number {
+                scale: 1e-3,
+                offset: 0.0,
+                label: "mmol/kg",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::Medium
+        | Field::PhScale
+        | Field::CarbonicFit
+        | Field::BoronFit
+        | Field::FluorideFit
+        | Field::Activity => {
+            if unit.is_empty() {
+                Ok(Reading::Text)
+            } else {
+                Err(format!("{} takes no unit", field.name()))
+            }
+        }
+    }
+}
+
+/// The reading of a unit written after the number in a cell (`25 °C`,
+/// `120 mg/L as CaCO3`), for a column of `field`; `None` when the text is
+/// no unit of that field.
+pub(crate) fn cell_unit(column: &Column, text: &str) -> Option<Reading> {
+    let unit = normalise(text);
+    let hint = match column.reading {
+        Reading::Conductivity { specific: true, .. } => Hint::Specific,
+        _ => Hint::None,
+    };
+    interpret(column.field, hint, &unit).ok()
+}
+
+/// The reading of a `--map` or `--set` name: any header travertine would
+/// recognise, such as `alkalinity_mg_l_caco3` or `Temp [°C]`.
+pub(crate) fn recognise_name(name: &str) -> Result<Column, Option<HeaderIssue>> {
+    match recognise(name) {
+        Recognition::Column(c) => Ok(c),
+        Recognition::Issue(i) => Err(Some(i)),
+        Recognition::PassThrough => {
+            // A bare short code is fine as a --set or --map name when it
+            // carries no unit of its own: `ph`, `water`, `salinity`.
+            Err(None)
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn column(h: &str) -> Column {
+        match recognise(h) {
+            Recognition::Column(c) => c,
+            other => panic!("{h}: {other:?}"),
+        }
+    }
+
+    #[test]
+    fn canonical_names() {
+        let c = column("alkalinity_mg_l_caco3");
+        assert_eq!(c.field, Field::Carbon(Parameter::Alkalinity));
+        assert_eq!(c.reading, Reading::Quantity(Unit::MgPerLCaCO3));
+        assert_eq!(
+            column("alkalinity_umol_kg").reading,
+            Reading::Quantity(Unit::UmolPerKg)
+        );
+        assert_eq!(column("ph_nbs").reading, Reading::Ph(Some(PhScale::Nbs)));
+        assert_eq!(
+            column("ph_total").reading,
+            Reading::Ph(Some(PhScale::Total))
+        );
+        assert_eq!(column("dic_umol_kg").field, Field::Carbon(Parameter::Dic));
+        assert_eq!(column("pco2_uatm").reading, Reading::Quantity(Unit::Uatm));
+        assert_eq!(column("temperature_c").field, Field::Temperature);
+        assert_eq!(column("salinity").field, Field::Salinity);
+        assert_eq!(
+            column("conductivity_us_cm").reading,
+            Reading::Conductivity {
+                scale: 1.0,
+                specific: false
+            }
+        );
+        assert_eq!(
+            column("specific_conductance_us_cm").reading,
+            Reading::Conductivity {
+                scale: 1.0,
+                specific: true
+            }
+        );
+        assert_eq!(
+            column("calcium_mg_l").reading,
+            Reading::Quantity(Unit::MgPerLCa)
+        );
+        assert_eq!(column("pressure_dbar").field, Field::Pressure);
+        assert_eq!(
+            column("ammonia_mg_l_n").reading,
+            Reading::Quantity(Unit::MgPerLN)
+        );
+        assert_eq!(
+            column("phosphate_umol_kg").field,
+            Field::Total(Total::Phosphate)
+        );
+        assert_eq!(
+            column("free_co2_mg_l").reading,
+            Reading::Quantity(Unit::MgPerLCO2)
+        );
+    }
+
+    #[test]
+    fn common_spellings() {
+        assert_eq!(
+            column("Alkalinity (mg/L as CaCO3)").reading,
+            Reading::Quantity(Unit::MgPerLCaCO3)
+        );
+        assert_eq!(column("Temp [°C]").field, Field::Temperature);
+        assert_eq!(column("pH (NBS)").reading, Reading::Ph(Some(PhScale::Nbs)));
+        assert_eq!(
+            column("  TOTAL   ALKALINITY  (MG/L AS CACO3) ").field,
+            Field::Carbon(Parameter::Alkalinity)
+        );
+        assert_eq!(
+            column("Specific conductance (µS/cm)").reading,
+            Reading::Conductivity {
+                scale: 1.0,
+                specific: true
+            }
+        );
+        assert_eq!(
+            column("Conductivity (µS/cm @ 25 °C)").reading,
+            Reading::Conductivity {
+                scale: 1.0,
+                specific: true
+            }
+        );
+        assert_eq!(
+            column("TAN (mg/L)").reading,
+            Reading::Quantity(Unit::MgPerLN)
+        );
+        assert_eq!(
+            column("Calcium hardness (mg/L as CaCO3)").reading,
+            Reading::Quantity(Unit::MgPerLCaCO3)
+        );
+        assert_eq!(column("pCO₂ (µatm)").field, Field::Carbon(Parameter::Pco2));
+        assert_eq!(
+            column("Alkalinity, meq/L").field,
+            Field::Carbon(Parameter::Alkalinity)
+        );
+        assert!(matches!(
+            column("Temp (°F)").reading,
+            Reading::Number { label: "°F", .. }
+        ));
+        assert_eq!(column("pH").reading, Reading::Ph(None));
+    }
+
+    #[test]
+    fn others_pass_through() {
+        for h in [
+            "Site",
+            "date",
+            "Sample ID",
+            "notes",
+            "Depth (m)",
+            "TA",
+            "Ca",
+            "temperature_notes",
+            "",
+        ] {
+            assert_eq!(recognise(h), Recognition::PassThrough, "{h}");
+        }
+    }
+
+    #[test]
+    fn units_are_never_guessed() {
+        for h in [
+            "Alkalinity",
+            "Alkalinity (mg/L)",
+            "DIC (mg/L)",
+            "Temperature",
+            "Salinity (ppt)",
+            "Hardness (mg/L)",
+            "Ammonia (mg/L)",
+            "Conductivity",
+            "pH (lab)",
+            "pCO2 (ppm)",
+        ] {
+            assert!(
+                matches!(recognise(h), Recognition::Issue(_)),
+                "{h}: {:?}",
+                recognise(h)
+            );
+        }
+    }
+}

@@ -1,0 +1,561 @@
+//! A field sheet: every row of a CSV file solved, in order, with its status.
+//!
+//! Practitioners export a field sheet or a logger file with hundreds to
+//! millions of rows. [`run`] (files and the standard streams) and
+//! [`process`] (any reader and writer) read it as a stream, solve the rows
+//! in parallel and write every row back, in input order, with the computed
+//! columns, then `status` (`ok`, `warning` or `error`) and `message`. A
+//! bad row never stops the batch and is never dropped.
+//!
+//! # Columns
+//! A column is recognised by its header:
+//! - the canonical snake_case names with the unit in the name:
+//!   `alkalinity_mg_l_caco3`, `alkalinity_umol_kg`, `ph_nbs`, `ph_total`,
+//!   `dic_umol_kg`, `pco2_uatm`, `temperature_c`, `salinity`,
+//!   `conductivity_us_cm`, `specific_conductance_us_cm`, `calcium_mg_l`,
+//!   `pressure_dbar`, `ammonia_mg_l_n`, `phosphate_umol_kg`, ...;
+//! - common spellings with the unit in brackets or after a comma, case and
+//!   spacing insensitive: `Alkalinity (mg/L as CaCO3)`, `Temp [°C]`,
+//!   `pH (NBS)`, `TAN (mg/L)`, `Specific conductance (µS/cm)`;
+//! - [`SheetOptions::with_map`] (`--map NAME=HEADER`) for anything else,
+//!   and `--map ignore=HEADER` to pass a column through unread.
+//!
+//! A header that names a quantity without a unit that can be read
+//! (`Alkalinity`, `Alkalinity (mg/L)`, `Salinity (ppt)`) stops the sheet
+//! with [`SheetError::HeaderUnit`], which names it and suggests `--map`.
+//! No unit is ever guessed. A bare `pH` is on the medium's default scale
+//! (NBS in fresh water, total in saline water), as in `travertine solve`.
+//! Every other column passes through unchanged, in its place.
+//!
+//! # Rows
+//! - Each row takes its pair from the carbonate parameters it has, in the
+//!   order alkalinity, DIC, pH, pCO2, fCO2, xCO2, CO2*, HCO3-, CO3-- (the
+//!   first two that can be used together), unless
+//!   [`SheetOptions::with_pair`] forces one. Every other measured carbonate
+//!   parameter gets a `*_residual` column: measured minus calculated, the
+//!   internal-consistency check of quality control.
+//! - Conditions, medium and fits come from columns or, for every row, from
+//!   [`SheetOptions::with_set`] (`--set temperature_c=25`, `--set
+//!   water=fresh`). A value may not come from both.
+//! - An empty cell, `NA`, `N/A` or `-` means "not measured". A cell that
+//!   cannot be read (`7..9`, `NaN`, `78 °F` in a °C column) is an error of
+//!   that row only; so is a row with too few or too many fields (the extra
+//!   fields are quoted in the message, so nothing is lost).
+//! - A temperature above 40 °C in a °C column is computed but cautioned:
+//!   it is often a reading in °F.
+//!
+//! # Output
+//! The input's fields unchanged (invalid UTF-8 included), then the computed
+//! columns ([`SheetOptions::with_columns`]; defaults for field work in
+//! [`UnitSystem::Trade`] or [`UnitSystem::Ocean`] units), the residuals,
+//! `status` and `message`. A computed column whose name an input header
+//! already has is written as `NAME_calculated`. Numbers have six
+//! significant digits. CSV output keeps the input's delimiter, line
+//! endings, byte-order mark and decimal comma; JSON lines
+//! ([`Format::Jsonl`]) give each row as one object with the same keys.
+//!
+//! # Example
+//! ```
+//! use travertine::sheet::{process, SheetOptions};
+//! let sheet = "pond,Temp (°C),Specific conductance (µS/cm),pH (NBS),\
+//!              Alkalinity (mg/L as CaCO3),Calcium hardness (mg/L as CaCO3)\n\
+//!              north,24.5,410,7.9,118,80\n\
+//!              south,25.1,395,7..9,102,75\n";
+//! let mut out = Vec::new();
+//! let summary = process(&SheetOptions::default(), sheet.as_bytes(), &mut out)?;
+//! assert_eq!((summary.rows, summary.ok, summary.error), (2, 1, 1));
+//! let text = String::from_utf8(out).unwrap();
+//! let lines: Vec<&str> = text.lines().collect();
+//! assert!(lines[0].ends_with("langelier_index,status,message"));
+//! assert!(lines[1].starts_with("north,24.5,410,7.9,118,80,fresh,7.9,"));
+//! assert!(lines[2].ends_with(",error,column `pH (NBS)`: `7..9` is not a number"));
+//! # Ok::<(), travertine::sheet::SheetError>(())
+//! ```
+
+mod cell;
+mod columns;
+mod error;
+mod files;
+mod header;
+mod pipeline;
+mod plan;
+mod row;
+mod summary;
+mod write;
+
+pub use columns::UnitSystem;
+pub use error::SheetError;
+pub use files::{Sink, Source};
+pub use summary::{MessageCount, Summary};
+
+use crate::measured::Parameter;
+use crate::solve::RootChoice;
+use std::io::{IsTerminal, Read, Write};
+
+/// The output format.
+///
+/// ```
+/// use travertine::sheet::Format;
+/// assert_eq!("jsonl".parse::<Format>()?, Format::Jsonl);
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[non_exhaustive]
+pub enum Format {
+    /// CSV with the input's delimiter.
+    #[default]
+    Csv,
+    /// One JSON object per line.
+    Jsonl,
+}
+
+impl std::str::FromStr for Format {
+    type Err = SheetError;
+    fn from_str(s: &str) -> Result<Self, SheetError> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "csv" => Ok(Format::Csv),
+            "jsonl" | "json-lines" | "ndjson" => Ok(Format::Jsonl),
+            _ => Err(SheetError::BadOption {
+                option: "--format",
+                message: format!("`{s}` is not an output format; accepted: csv, jsonl"),
+            }),
+        }
+    }
+}
+
+/// When to draw a progress bar.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[non_exhaustive]
+pub enum Progress {
+    /// Never.
+    #[default]
+    Never,
+    /// On stderr when it is a terminal, outside CI, for an input file of
+    /// at least [`PROGRESS_MIN_BYTES`].
+    Auto,
+}
+
+/// The smallest input file that gets a progress bar.
+pub const PROGRESS_MIN_BYTES: u64 = 32 * 1024 * 1024;
+
+/// The settings of a sheet, checked when they are given; the header is
+/// checked against them before any row is read.
+///
+/// # Example
+/// ```
+/// use travertine::sheet::{Format, SheetOptions, UnitSystem};
+/// let options = SheetOptions::default()
+///     .with_map("alkalinity_mg_l_caco3=Alk")?
+///     .with_set("temperature_c=25")?
+///     .with_pair("alkalinity,ph")?
+///     .with_units(UnitSystem::Ocean)
+///     .with_format(Format::Jsonl)
+///     .with_delimiter(";")?
+///     .with_decimal_comma(true);
+/// # let _ = options;
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+#[derive(Debug, Clone)]
+pub struct SheetOptions {
+    maps: Vec<(String, String)>,
+    sets: Vec<(String, String)>,
+    pair: Option<(Parameter, Parameter)>,
+    columns: Option<String>,
+    format: Format,
+    units: UnitSystem,
+    delimiter: u8,
+    decimal_comma: bool,
+    root: RootChoice,
+    progress: Progress,
+}
+
+impl Default for SheetOptions {
+    fn default() -> Self {
+        SheetOptions {
+            maps: Vec::new(),
+            sets: Vec::new(),
+            pair: None,
+            columns: None,
+            format: Format::Csv,
+            units: UnitSystem::Trade,
+            delimiter: b',',
+            decimal_comma: false,
+            root: RootChoice::Natural,
+            progress: Progress::Never,
+        }
+    }
+}
+
+fn split_spec(
+    option: &'static str,
+    spec: &str,
+    example: &str,
+) -> Result<(String, String), SheetError> {
+    match spec.split_once('=') {
+        Some((name, value)) if !name.trim().is_empty() => {
+            Ok((name.trim().to_string(), value.to_string()))
+        }
+        _ => Err(SheetError::BadOption {
+            option,
+            message: format!("`{spec}` is not NAME=VALUE; for example {option} {example}"),
+        }),
+    }
+}
+
+impl SheetOptions {
+    /// Maps a column by hand: `NAME=HEADER`, where NAME is any header
+    /// travertine recognises (`alkalinity_mg_l_caco3`, `Temp (°F)`), or
+    /// `ignore` to pass the column through unread.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] when the text is not `NAME=HEADER`; the
+    /// name is checked with the header.
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// assert!(SheetOptions::default().with_map("ph_nbs=pH lab").is_ok());
+    /// assert!(SheetOptions::default().with_map("ph_nbs").is_err());
+    /// ```
+    pub fn with_map(mut self, spec: &str) -> Result<Self, SheetError> {
+        let (name, header) = split_spec("--map", spec, "alkalinity_mg_l_caco3=Alk")?;
+        self.maps.push((name, header));
+        Ok(self)
+    }
+
+    /// A value for every row where the sheet has no column: `NAME=VALUE`,
+    /// for example `temperature_c=25`, `salinity=0.2`, `water=fresh`,
+    /// `ph_scale=nbs`, `carbonic_fit=millero2006`, `calcium_mg_l=40`.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] when the text is not `NAME=VALUE`; the name
+    /// and value are checked with the header.
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// assert!(SheetOptions::default().with_set("temperature_c=25").is_ok());
+    /// ```
+    pub fn with_set(mut self, spec: &str) -> Result<Self, SheetError> {
+        let (name, value) = split_spec("--set", spec, "temperature_c=25")?;
+        self.sets.push((name, value));
+        Ok(self)
+    }
+
+    /// Forces the pair of every row: `alkalinity,ph`.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] for unknown names or a pair that carries one
+    /// piece of information (two gases, one parameter twice).
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// assert!(SheetOptions::default().with_pair("alkalinity,ph").is_ok());
+    /// assert!(SheetOptions::default().with_pair("pco2,xco2").is_err());
+    /// ```
+    pub fn with_pair(mut self, spec: &str) -> Result<Self, SheetError> {
+        self.pair = Some(plan::parse_pair(spec)?);
+        Ok(self)
+    }
+
+    /// The computed columns, comma-separated: names such as `ph_total`,
+    /// `pco2_uatm`, `omega_aragonite`; `default` for the default set of the
+    /// unit system; `all` for every one.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] for a name that is not a computed column.
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// assert!(SheetOptions::default().with_columns("default,revelle_factor").is_ok());
+    /// assert!(SheetOptions::default().with_columns("colour").is_err());
+    /// ```
+    pub fn with_columns(mut self, spec: &str) -> Result<Self, SheetError> {
+        plan::parse_columns(spec, self.units)?;
+        self.columns = Some(spec.to_string());
+        Ok(self)
+    }
+
+    /// CSV or JSON lines.
+    ///
+    /// ```
+    /// # use travertine::sheet::{Format, SheetOptions};
+    /// let _ = SheetOptions::default().with_format(Format::Jsonl);
+    /// ```
+    pub fn with_format(mut self, format: Format) -> Self {
+        self.format = format;
+        self
+    }
+
+    /// Trade or ocean units, for the default columns and the residuals.
+    ///
+    /// ```
+    /// # use travertine::sheet::{SheetOptions, UnitSystem};
+    /// let _ = SheetOptions::default().with_units(UnitSystem::Ocean);
+    /// ```
+    pub fn with_units(mut self, units: UnitSystem) -> Self {
+        self.units = units;
+        self
+    }
+
+    /// The field delimiter of the input and the output: one ASCII
+    /// character, or `tab`.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] for anything else, or a quote or line end.
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// assert!(SheetOptions::default().with_delimiter(";").is_ok());
+    /// assert!(SheetOptions::default().with_delimiter("tab").is_ok());
+    /// assert!(SheetOptions::default().with_delimiter(";;").is_err());
+    /// ```
+    pub fn with_delimiter(mut self, spec: &str) -> Result<Self, SheetError> {
+        let d = match spec {
+            "tab" | "\\t" | "\t" => b'\t',
+            s if s.len() == 1 && s.is_ascii() => s.as_bytes()[0],
+            _ => 0,
+        };
+        if d == 0 || matches!(d, b'"' | b'\n' | b'\r') || d.is_ascii_alphanumeric() {
+            return Err(SheetError::BadOption {
+                option: "--delimiter",
+                message: format!(
+                    "`{spec}` cannot separate fields; give one character such as ; or |, or tab"
+                ),
+            });
+        }
+        self.delimiter = d;
+        Ok(self)
+    }
+
+    /// Numbers written with a decimal comma (`7,9`), read and written.
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// let _ = SheetOptions::default().with_decimal_comma(true);
+    /// ```
+    pub fn with_decimal_comma(mut self, on: bool) -> Self {
+        self.decimal_comma = on;
+        self
+    }
+
+    /// Which root where two waters fit (alkalinity with CO3, DIC with HCO3).
+    ///
+    /// ```
+    /// # use travertine::{sheet::SheetOptions, RootChoice};
+    /// let _ = SheetOptions::default().with_root(RootChoice::HigherPh);
+    /// ```
+    pub fn with_root(mut self, root: RootChoice) -> Self {
+        self.root = root;
+        self
+    }
+
+    /// When to draw a progress bar.
+    ///
+    /// ```
+    /// # use travertine::sheet::{Progress, SheetOptions};
+    /// let _ = SheetOptions::default().with_progress(Progress::Auto);
+    /// ```
+    pub fn with_progress(mut self, progress: Progress) -> Self {
+        self.progress = progress;
+        self
+    }
+}
+
+/// Reads a sheet from `input` and writes the results to `output`.
+///
+/// # Errors
+/// [`SheetError`] when the sheet cannot be started (empty input, a header
+/// without a unit, no pair, a bad option) or fails part-way (read or write
+/// error). Bad rows are not errors: they are reported in their rows and
+/// counted in the [`Summary`].
+///
+/// ```
+/// use travertine::sheet::{process, SheetOptions};
+/// let sheet = "temperature_c,salinity,alkalinity_umol_kg,dic_umol_kg\n25,35,2300,2000\n";
+/// let mut out = Vec::new();
+/// let options = SheetOptions::default().with_columns("ph_total")?;
+/// process(&options, sheet.as_bytes(), &mut out)?;
+/// let text = String::from_utf8(out).unwrap();
+/// // equations.md §13 worked value (computed from the published equations): pH_T 8.0402
+/// assert!(text.lines().nth(1).unwrap().starts_with("25,35,2300,2000,8.040"));
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+pub fn process<R: Read + Send, W: Write + Send>(
+    options: &SheetOptions,
+    input: R,
+    output: W,
+) -> Result<Summary, SheetError> {
+    process_stream(options, input, output, None, "the input").map(|(s, _)| s)
+}
+
+/// Bytes looked at before the CSV reader starts, for the byte-order mark
+/// and the line ending.
+const PEEK: u64 = 64 * 1024;
+const BOM: &[u8] = b"\xEF\xBB\xBF";
+
+fn process_stream<R: Read + Send, W: Write + Send>(
+    options: &SheetOptions,
+    mut input: R,
+    output: W,
+    size: Option<u64>,
+    what: &str,
+) -> Result<(Summary, W), SheetError> {
+    let unreadable = |source| SheetError::Unreadable {
+        what: what.to_string(),
+        source,
+    };
+    let mut head = Vec::with_capacity(PEEK as usize);
+    (&mut input)
+        .take(PEEK)
+        .read_to_end(&mut head)
+        .map_err(unreadable)?;
+    let bom = head.starts_with(BOM);
+    let crlf = head
+        .iter()
+        .position(|b| *b == b'\n')
+        .is_some_and(|i| i > 0 && head[i - 1] == b'\r');
+    let reader = std::io::Cursor::new(head).chain(input);
+    let mut csv = csv::ReaderBuilder::new()
+        .has_headers(false)
+        .flexible(true)
+        .delimiter(options.delimiter)
+        .buffer_capacity(256 * 1024)
+        .from_reader(reader);
+    let mut header = csv::ByteRecord::new();
+    match csv.read_byte_record(&mut header) {
+        Ok(true) => {}
+        Ok(false) => return Err(SheetError::Empty),
+        Err(e) => {
+            return Err(unreadable(match e.into_kind() {
+                csv::ErrorKind::Io(io) => io,
+                other => std::io::Error::other(format!("{other:?}")),
+            }))
+        }
+    }
+    let plan = plan::Plan::new(&header, options)?;
+    let style = write::Style {
+        format: options.format,
+        delimiter: options.delimiter,
+        crlf,
+        decimal_comma: options.decimal_comma,
+    };
+    let (keys, header_bytes) = match options.format {
+        Format::Csv => (Vec::new(), write::csv_header(&plan, &style, bom)),
+        Format::Jsonl => (write::json_keys(&plan), Vec::new()),
+    };
+    let bar = match (options.progress, size) {
+        (Progress::Auto, Some(n))
+            if n >= PROGRESS_MIN_BYTES
+                && std::io::stderr().is_terminal()
+                && std::env::var_os("CI").is_none() =>
+        {
+            let bar = indicatif::ProgressBar::new(n);
+            if let Ok(style) = indicatif::ProgressStyle::with_template(
+                "{bar:40} {bytes}/{total_bytes} {bytes_per_sec} eta {eta}",
+            ) {
+                bar.set_style(style);
+            }
+            Some(bar)
+        }
+        _ => None,
+    };
+    let result = pipeline::run(&plan, style, &keys, csv, output, header_bytes, bar.as_ref());
+    if let Some(b) = bar {
+        b.finish_and_clear();
+    }
+    result
+}
+
+/// Reads a sheet from a file or standard input and writes the results to a
+/// file (atomically) or standard output.
+///
+/// The output file is written to a temporary file in the same folder and
+/// renamed when complete, so a failure part-way leaves no half file under
+/// its name. It is never the input file.
+///
+/// # Errors
+/// As [`process`]; [`SheetError::Unreadable`] for an input that cannot be
+/// opened; [`SheetError::OverwriteInput`] when the output is the input;
+/// [`SheetError::Output`] when the output cannot be written.
+///
+/// ```no_run
+/// use travertine::sheet::{run, Sink, SheetOptions, Source};
+/// let summary = run(&SheetOptions::default(), &Source::from_arg("field.csv"),
+///                   &Sink::from_arg(Some("results.csv")))?;
+/// eprint!("{summary}");
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+pub fn run(options: &SheetOptions, input: &Source, output: &Sink) -> Result<Summary, SheetError> {
+    let what = input.describe();
+    if let (Source::Path(i), Sink::Path(o)) = (input, output) {
+        if files::same_file(i, o) {
+            return Err(SheetError::OverwriteInput(o.clone()));
+        }
+    }
+    let (reader, size): (Box<dyn Read + Send>, Option<u64>) = match input {
+        Source::Stdin => (Box::new(std::io::stdin()), None),
+        Source::Path(p) => {
+            let unreadable = |source| SheetError::Unreadable {
+                what: what.clone(),
+                source,
+            };
+            let file = std::fs::File::open(p).map_err(unreadable)?;
+            let meta = file.metadata().map_err(unreadable)?;
+            if meta.is_dir() {
+                return Err(unreadable(std::io::Error::other(
+                    "it is a folder, not a file",
+                )));
+            }
+            (Box::new(file), Some(meta.len()))
+        }
+    };
+    to_sink(options, reader, size, &what, output)
+}
+
+/// Reads a sheet from any reader and writes the results to a file
+/// (atomically, as [`run`]) or standard output.
+///
+/// # Errors
+/// As [`run`].
+///
+/// ```
+/// use travertine::sheet::{process_to, SheetOptions, Sink};
+/// let dir = std::env::temp_dir().join(format!("travertine-doc-{}", std::process::id()));
+/// std::fs::create_dir_all(&dir).unwrap();
+/// let out = dir.join("results.csv");
+/// let sheet = "temperature_c,salinity,alkalinity_umol_kg,dic_umol_kg\n25,35,2300,2000\n";
+/// process_to(&SheetOptions::default(), sheet.as_bytes(), &Sink::Path(out.clone()))?;
+/// assert_eq!(std::fs::read_to_string(&out).unwrap().lines().count(), 2);
+/// # std::fs::remove_dir_all(&dir).unwrap();
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+pub fn process_to<R: Read + Send>(
+    options: &SheetOptions,
+    input: R,
+    output: &Sink,
+) -> Result<Summary, SheetError> {
+    to_sink(options, input, None, "the input", output)
+}
+
+fn to_sink<R: Read + Send>(
+    options: &SheetOptions,
+    reader: R,
+    size: Option<u64>,
+    what: &str,
+    output: &Sink,
+) -> Result<Summary, SheetError> {
+    match output {
+        Sink::Stdout => {
+            process_stream(options, reader, std::io::stdout(), size, what).map(|(s, _)| s)
+        }
+        Sink::Path(path) => {
+            let mut temp = files::TempFile::create(path)?;
+            let file = temp.take_file().ok_or_else(|| SheetError::Output {
+                path: path.clone(),
+                source: std::io::Error::other("the temporary file is gone"),
+            })?;
+            let (summary, file) = process_stream(options, reader, file, size, what)?;
+            temp.persist(file)?;
+            Ok(summary)
+        }
+    }
+}

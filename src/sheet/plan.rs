@@ -1,0 +1,523 @@
+//! The validated plan of a sheet: every header read, every `--map` and
+//! `--set` applied, the pair rule, the residual and computed columns. It
+//! is built once from the header row, before any data row is read.
+
+use super::cell;
+use super::columns::{Computed, UnitSystem};
+use super::header::{self, Column, Field, Reading, Recognition};
+use super::row::{choose_pair, compatible, rank, Inputs, RANKING};
+use super::{SheetError, SheetOptions};
+use crate::measured::Parameter;
+use crate::scales::PhScale;
+use crate::solve::SolveOptions;
+
+/// A recognised column of the sheet.
+#[derive(Debug, Clone)]
+pub(crate) struct ReadColumn {
+    /// Its position in the row.
+    pub index: usize,
+    /// Its header as written (for messages).
+    pub header: String,
+    pub column: Column,
+}
+
+/// Where a field's value comes from.
+#[derive(Debug, Clone)]
+pub(crate) enum Label {
+    /// A column: the index in [`Plan::read`].
+    Column(usize),
+    /// A `--set` value, as written.
+    Set(String),
+}
+
+/// A residual column.
+#[derive(Debug, Clone)]
+pub(crate) struct Residual {
+    pub parameter: Parameter,
+}
+
+/// The plan of a sheet.
+#[derive(Debug)]
+pub(crate) struct Plan {
+    /// Number of fields of the header.
+    pub width: usize,
+    /// The header fields as read.
+    pub headers: Vec<Vec<u8>>,
+    /// The recognised columns, in the order of the row.
+    pub read: Vec<ReadColumn>,
+    /// Where each field comes from.
+    pub labels: Vec<(Field, Label)>,
+    /// The values given by `--set`.
+    pub template: Inputs,
+    pub forced_pair: Option<(Parameter, Parameter)>,
+    pub residuals: Vec<Residual>,
+    pub computed: Vec<Computed>,
+    /// Names of the added columns: computed, residuals, `status`, `message`.
+    pub added: Vec<String>,
+    pub units: UnitSystem,
+    pub options: SolveOptions,
+    pub decimal_comma: bool,
+    /// The °C temperature column, checked for readings that look like °F.
+    pub warm_check: Option<usize>,
+    /// Headers passed through without being read.
+    pub passed: Vec<String>,
+}
+
+impl Plan {
+    /// Where `field` comes from.
+    pub(crate) fn label(&self, field: Field) -> Option<&Label> {
+        self.labels
+            .iter()
+            .find(|(f, _)| *f == field)
+            .map(|(_, l)| l)
+    }
+
+    /// Builds the plan from the header row.
+    pub(crate) fn new(
+        header: &csv::ByteRecord,
+        options: &SheetOptions,
+    ) -> Result<Plan, SheetError> {
+        let headers: Vec<Vec<u8>> = header.iter().map(|f| f.to_vec()).collect();
+        let texts: Vec<String> = headers
+            .iter()
+            .map(|h| String::from_utf8_lossy(h).trim().to_string())
+            .collect();
+
+        // --map NAME=HEADER: find each header.
+        let mut mapped: Vec<Option<Option<Column>>> = vec![None; texts.len()];
+        for (name, target) in &options.maps {
+            let wanted = target.trim();
+            let Some(i) = texts.iter().position(|t| t.eq_ignore_ascii_case(wanted)) else {
+                return Err(SheetError::BadOption {
+                    option: "--map",
+                    message: format!(
+                        "{name}={target}: the sheet has no column `{wanted}`; its columns are {}",
+                        quoted_list(&texts)
+                    ),
+                });
+            };
+            let column = if name.eq_ignore_ascii_case("ignore") {
+                None
+            } else {
+                Some(map_name(name, target)?)
+            };
+            mapped[i] = Some(column);
+        }
+
+        let mut read = Vec::new();
+        let mut labels: Vec<(Field, Label)> = Vec::new();
+        let mut passed = Vec::new();
+        for (i, text) in texts.iter().enumerate() {
+            let column = match mapped[i] {
+                Some(Some(c)) => c,
+                Some(None) => {
+                    passed.push(text.clone());
+                    continue;
+                }
+                None => match header::recognise(text) {
+                    Recognition::Column(c) => c,
+                    Recognition::PassThrough => {
+                        passed.push(text.clone());
+                        continue;
+                    }
+                    Recognition::Issue(issue) => {
+                        return Err(SheetError::HeaderUnit {
+                            header: text.clone(),
+                            problem: issue.problem,
+                            accepted: issue.field.accepted(),
+                            canonical: issue.field.canonical(),
+                        })
+                    }
+                },
+            };
+            if let Some((_, Label::Column(j))) = labels.iter().find(|(f, _)| *f == column.field) {
+                let first: &ReadColumn = &read[*j];
+                return Err(SheetError::DuplicateColumn {
+                    field: column.field.name(),
+                    first: first.header.clone(),
+                    second: text.clone(),
+                });
+            }
+            labels.push((column.field, Label::Column(read.len())));
+            read.push(ReadColumn {
+                index: i,
+                header: text.clone(),
+                column,
+            });
+        }
+
+        // --set name=value: a value for every row.
+        let mut template = Inputs::default();
+        for (name, value) in &options.sets {
+            let spec = format!("{name}={value}");
+            let column = set_name(name, &spec)?;
+            if let Some(label) = labels
+                .iter()
+                .find(|(f, _)| *f == column.field)
+                .map(|(_, l)| l)
+            {
+                let source = match label {
+                    Label::Column(j) => format!("column `{}`", read[*j].header),
+                    Label::Set(s) => format!("--set {s}"),
+                };
+                return Err(SheetError::Conflict(format!(
+                    "--set {spec}: {} is already given by {source}; keep one of them",
+                    column.field.name()
+                )));
+            }
+            match cell::parse(&column, value.as_bytes(), options.decimal_comma) {
+                Ok(Some(v)) => template.put(column.field, v),
+                Ok(None) => {
+                    return Err(SheetError::BadOption {
+                        option: "--set",
+                        message: format!("{spec}: the value is empty"),
+                    })
+                }
+                Err(problem) => {
+                    let message = problem.message(name, value.trim());
+                    return Err(SheetError::BadOption {
+                        option: "--set",
+                        message: message.replacen("column ", "", 1),
+                    });
+                }
+            }
+            labels.push((column.field, Label::Set(spec)));
+        }
+
+        // A pH column that names its scale leaves no room for a ph_scale.
+        if let (Some(scale_label), Some(Label::Column(j))) = (
+            labels
+                .iter()
+                .find(|(f, _)| *f == Field::PhScale)
+                .map(|(_, l)| l),
+            labels
+                .iter()
+                .find(|(f, _)| *f == Field::Carbon(Parameter::Ph))
+                .map(|(_, l)| l),
+        ) {
+            if let Reading::Ph(Some(s)) = read[*j].column.reading {
+                let source = match scale_label {
+                    Label::Column(k) => format!("column `{}`", read[*k].header),
+                    Label::Set(spec) => format!("--set {spec}"),
+                };
+                return Err(SheetError::Conflict(format!(
+                    "column `{}` gives pH on the {} scale, so {source} cannot apply; remove one \
+                     of them",
+                    read[*j].header,
+                    s.name()
+                )));
+            }
+        }
+
+        let present = present(&labels);
+        let forced_pair = options.pair;
+        let pair = match forced_pair {
+            Some((a, b)) => {
+                for p in [a, b] {
+                    if !present[rank(p)] {
+                        return Err(SheetError::NoPair(format!(
+                            "--pair {},{}: the sheet has no column for {} (and no --set value); \
+                             {}",
+                            a.name(),
+                            b.name(),
+                            p.name(),
+                            found(&labels, &read)
+                        )));
+                    }
+                }
+                (a, b)
+            }
+            None => {
+                choose_pair(&present).ok_or_else(|| no_pair(&labels, &read, &passed, &texts))?
+            }
+        };
+
+        if !labels.iter().any(|(f, _)| *f == Field::Temperature) {
+            return Err(SheetError::Missing(
+                "no temperature: add a column such as `temperature_c` or `Temp (°C)`, or give \
+                 one value for every row with --set temperature_c=VALUE"
+                    .to_string(),
+            ));
+        }
+
+        let residuals: Vec<Residual> = RANKING
+            .iter()
+            .filter(|p| present[rank(**p)] && **p != pair.0 && **p != pair.1)
+            .map(|p| Residual { parameter: *p })
+            .collect();
+
+        let computed = match &options.columns {
+            Some(spec) => parse_columns(spec, options.units)?,
+            None => Computed::defaults(options.units).to_vec(),
+        };
+
+        // Added names, never equal to an input header.
+        let taken = |name: &str, added: &[String]| {
+            texts.iter().any(|t| t.eq_ignore_ascii_case(name))
+                || added.iter().any(|a| a.eq_ignore_ascii_case(name))
+        };
+        let mut added: Vec<String> = Vec::new();
+        let push = |base: String, added: &mut Vec<String>| {
+            let mut name = base.clone();
+            if taken(&name, added) {
+                name = format!("{base}_calculated");
+            }
+            let mut n = 2;
+            while taken(&name, added) {
+                name = format!("{base}_calculated_{n}");
+                n += 1;
+            }
+            added.push(name);
+        };
+        for c in &computed {
+            push(c.name().to_string(), &mut added);
+        }
+        for r in &residuals {
+            let base = residual_name(r.parameter, &labels, &read, options.units);
+            push(base, &mut added);
+        }
+        push("status".into(), &mut added);
+        push("message".into(), &mut added);
+
+        let warm_check = labels.iter().find_map(|(f, l)| match (f, l) {
+            (Field::Temperature, Label::Column(j)) => match read[*j].column.reading {
+                Reading::Number { label: "°C", .. } => Some(*j),
+                _ => None,
+            },
+            _ => None,
+        });
+
+        Ok(Plan {
+            width: headers.len(),
+            headers,
+            read,
+            labels,
+            template,
+            forced_pair,
+            residuals,
+            computed,
+            added,
+            units: options.units,
+            options: SolveOptions::default().with_root(options.root),
+            decimal_comma: options.decimal_comma,
+            warm_check,
+            passed,
+        })
+    }
+}
+
+fn quoted_list(items: &[String]) -> String {
+    items
+        .iter()
+        .map(|t| format!("`{t}`"))
+        .collect::<Vec<_>>()
+        .join(", ")
+}
+
+/// The column a `--map` name stands for.
+fn map_name(name: &str, target: &str) -> Result<Column, SheetError> {
+    header::recognise_name(name).map_err(|issue| SheetError::BadOption {
+        option: "--map",
+        message: match issue {
+            Some(i) => format!(
+                "{name}={target}: {}; accepted: {}; for example --map {}=\"{target}\"",
+                i.problem,
+                i.field.accepted(),
+                i.field.canonical()
+            ),
+            None => format!(
+                "{name}={target}: `{name}` is not a column name travertine reads; use a name \
+                 with its unit such as alkalinity_mg_l_caco3, ph_nbs, temperature_c, \
+                 specific_conductance_us_cm (or `ignore` to pass the column through)"
+            ),
+        },
+    })
+}
+
+/// The column a `--set` name stands for.
+fn set_name(name: &str, spec: &str) -> Result<Column, SheetError> {
+    header::recognise_name(name).map_err(|issue| SheetError::BadOption {
+        option: "--set",
+        message: match issue {
+            Some(i) => format!(
+                "{spec}: {}; accepted: {}; for example --set {}=VALUE",
+                i.problem,
+                i.field.accepted(),
+                i.field.canonical()
+            ),
+            None => format!(
+                "{spec}: `{name}` is not a name travertine reads; use a name with its unit such \
+                 as temperature_c, salinity, pressure_dbar, calcium_mg_l, water, ph_scale"
+            ),
+        },
+    })
+}
+
+/// Which carbonate parameters have a column or a `--set` value.
+fn present(labels: &[(Field, Label)]) -> [bool; 9] {
+    let mut present = [false; 9];
+    for (f, _) in labels {
+        if let Field::Carbon(p) = f {
+            present[rank(*p)] = true;
+        }
+    }
+    present
+}
+
+/// The carbonate parameters found, in words.
+fn found(labels: &[(Field, Label)], read: &[ReadColumn]) -> String {
+    let given: Vec<String> = RANKING
+        .iter()
+        .filter_map(|p| {
+            labels
+                .iter()
+                .find(|(f, _)| *f == Field::Carbon(*p))
+                .map(|(_, l)| match l {
+                    Label::Column(j) => format!("{} (column `{}`)", p.name(), read[*j].header),
+                    Label::Set(s) => format!("{} (--set {s})", p.name()),
+                })
+        })
+        .collect();
+    match given.len() {
+        0 => "the sheet gives no carbonate parameter".to_string(),
+        _ => format!("the sheet gives {}", given.join(", ")),
+    }
+}
+
+fn no_pair(
+    labels: &[(Field, Label)],
+    read: &[ReadColumn],
+    passed: &[String],
+    texts: &[String],
+) -> SheetError {
+    let present = present(labels);
+    let gases_only = present.iter().filter(|p| **p).count() >= 2;
+    let mut message = format!(
+        "no pair of carbonate parameters can be formed: {}{}. A pair is two of alkalinity, dic, \
+         ph, pco2, fco2, xco2, co2, hco3, co3 (at most one of pco2, fco2, xco2, co2), each from \
+         a column with its unit in the header (such as `alkalinity_mg_l_caco3`, `ph_nbs`, \
+         `Alkalinity (mg/L as CaCO3)`) or from --set",
+        found(labels, read),
+        if gases_only {
+            ", which carry the same information"
+        } else {
+            ""
+        }
+    );
+    if !passed.is_empty() {
+        message.push_str(&format!(
+            ". Columns passed through unread: {} (--map NAME=HEADER reads one)",
+            quoted_list(passed)
+        ));
+    }
+    if texts.len() == 1 {
+        for (c, name) in [(';', "';'"), ('\t', "tab"), ('|', "'|'")] {
+            if texts[0].contains(c) {
+                message.push_str(&format!(
+                    ". The header is a single column containing {name}: if that separates the \
+                     columns, give --delimiter {name}"
+                ));
+                break;
+            }
+        }
+    }
+    SheetError::NoPair(message)
+}
+
+/// The name of the residual column of a parameter: its computed column
+/// name in the unit system, then `_residual`.
+fn residual_name(
+    p: Parameter,
+    labels: &[(Field, Label)],
+    read: &[ReadColumn],
+    units: UnitSystem,
+) -> String {
+    let scale: Option<PhScale> = if p == Parameter::Ph {
+        labels.iter().find_map(|(f, l)| match (f, l) {
+            (Field::Carbon(Parameter::Ph), Label::Column(j)) => match read[*j].column.reading {
+                Reading::Ph(s) => s,
+                _ => None,
+            },
+            _ => None,
+        })
+    } else {
+        None
+    };
+    if p == Parameter::Ph && scale.is_none() {
+        return "ph_residual".to_string();
+    }
+    format!(
+        "{}_residual",
+        Computed::of_parameter(p, units, scale).name()
+    )
+}
+
+/// Parses `--pair a,b`.
+pub(crate) fn parse_pair(spec: &str) -> Result<(Parameter, Parameter), SheetError> {
+    let bad = |message: String| SheetError::BadOption {
+        option: "--pair",
+        message,
+    };
+    let names: Vec<&str> = spec.split(',').map(str::trim).collect();
+    if names.len() != 2 {
+        return Err(bad(format!(
+            "`{spec}` is not two parameters; write for example --pair alkalinity,ph"
+        )));
+    }
+    let mut pair = [Parameter::Alkalinity; 2];
+    for (slot, name) in pair.iter_mut().zip(&names) {
+        *slot = Parameter::ALL
+            .iter()
+            .copied()
+            .find(|p| p.name().eq_ignore_ascii_case(name))
+            .ok_or_else(|| {
+                bad(format!(
+                    "`{name}` is not a carbonate parameter; accepted: alkalinity, dic, ph, pco2, \
+                     fco2, xco2, co2, hco3, co3"
+                ))
+            })?;
+    }
+    if !compatible(pair[0], pair[1]) {
+        return Err(bad(if pair[0] == pair[1] {
+            format!("`{spec}` names {} twice", pair[0].name())
+        } else {
+            format!(
+                "{} and {} carry the same information (the dissolved CO2); a pair may hold at \
+                 most one of pco2, fco2, xco2, co2",
+                pair[0].name(),
+                pair[1].name()
+            )
+        }));
+    }
+    Ok((pair[0], pair[1]))
+}
+
+/// Parses `--columns`: names of computed columns, `default` for the
+/// default set of the unit system, `all` for every one.
+pub(crate) fn parse_columns(spec: &str, units: UnitSystem) -> Result<Vec<Computed>, SheetError> {
+    let mut out: Vec<Computed> = Vec::new();
+    let add = |c: Computed, out: &mut Vec<Computed>| {
+        if !out.contains(&c) {
+            out.push(c);
+        }
+    };
+    for name in spec.split(',').map(str::trim).filter(|n| !n.is_empty()) {
+        match name.to_ascii_lowercase().as_str() {
+            "default" => Computed::defaults(units)
+                .iter()
+                .for_each(|c| add(*c, &mut out)),
+            "all" => Computed::ALL.iter().for_each(|c| add(*c, &mut out)),
+            lower => add(
+                Computed::from_name(lower).ok_or_else(|| SheetError::BadOption {
+                    option: "--columns",
+                    message: format!(
+                        "`{name}` is not a computed column; accepted: default, all, {}",
+                        Computed::all_names()
+                    ),
+                })?,
+                &mut out,
+            ),
+        }
+    }
+    Ok(out)
+}

@@ -1,0 +1,701 @@
+//! One row: its cells read, the sample built, the pair chosen and solved.
+
+use super::cell::{self, Choice, Parsed};
+use super::columns::{Computed, UnitSystem, Value};
+use super::header::{Field, Total};
+use super::plan::{Label, Plan};
+use crate::activity::ActivityModel;
+use crate::constants::{BoronTotalFit, CarbonicFit, Constants, FluorideFit};
+use crate::error::Error;
+use crate::measured::{Measured, Parameter};
+use crate::sample::{Conductivity, MediumChoice, Sample};
+use crate::scales::PhScale;
+use crate::state::State;
+use crate::units::{Amount, Quantity, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
+use crate::water::{Medium, Water};
+
+/// The order in which a row's measured parameters are taken for its pair:
+/// the first two present that can be used together. Alkalinity and DIC are
+/// conservative and measured most precisely; then pH; then the gas and the
+/// single species.
+pub(crate) const RANKING: [Parameter; 9] = [
+    Parameter::Alkalinity,
+    Parameter::Dic,
+    Parameter::Ph,
+    Parameter::Pco2,
+    Parameter::Fco2,
+    Parameter::Xco2,
+    Parameter::Co2,
+    Parameter::Hco3,
+    Parameter::Co3,
+];
+
+/// The index of a parameter in [`RANKING`].
+pub(crate) fn rank(p: Parameter) -> usize {
+    RANKING.iter().position(|q| *q == p).unwrap_or(0)
+}
+
+/// Whether two parameters make a pair (two different ones, not two gases).
+pub(crate) fn compatible(a: Parameter, b: Parameter) -> bool {
+    a != b && !(a.is_gas() && b.is_gas())
+}
+
+/// The pair taken from the parameters present (by rank), if any.
+pub(crate) fn choose_pair(present: &[bool; 9]) -> Option<(Parameter, Parameter)> {
+    for i in 0..9 {
+        if !present[i] {
+            continue;
+        }
+        for j in i + 1..9 {
+            if present[j] && compatible(RANKING[i], RANKING[j]) {
+                return Some((RANKING[i], RANKING[j]));
+            }
+        }
+    }
+    None
+}
+
+/// A measured carbonate value of a row.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) enum CarbonValue {
+    Ph(f64, Option<PhScale>),
+    Quantity(Quantity),
+}
+
+/// Everything a row can give, before validation.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub(crate) struct Inputs {
+    pub carbon: [Option<CarbonValue>; 9],
+    pub temperature: Option<f64>,
+    pub salinity: Option<f64>,
+    pub conductivity: Option<Conductivity>,
+    pub pressure: Option<f64>,
+    pub air_pressure: Option<f64>,
+    pub totals: [Option<Quantity>; 12],
+    pub calcium_fraction: Option<f64>,
+    pub tds: Option<f64>,
+    pub ionic_strength: Option<f64>,
+    pub medium: Option<MediumChoice>,
+    pub ph_scale: Option<PhScale>,
+    pub carbonic: Option<CarbonicFit>,
+    pub boron: Option<BoronTotalFit>,
+    pub fluoride: Option<FluorideFit>,
+    pub activity: Option<ActivityModel>,
+}
+
+impl Inputs {
+    /// Stores a cell's value for `field`.
+    pub(crate) fn put(&mut self, field: Field, value: Parsed) {
+        match (field, value) {
+            (Field::Carbon(p), Parsed::Ph(v, s)) => {
+                self.carbon[rank(p)] = Some(CarbonValue::Ph(v, s))
+            }
+            (Field::Carbon(p), Parsed::Quantity(q)) => {
+                self.carbon[rank(p)] = Some(CarbonValue::Quantity(q))
+            }
+            (Field::Temperature, Parsed::Number(v)) => self.temperature = Some(v),
+            (Field::Salinity, Parsed::Number(v)) => self.salinity = Some(v),
+            (Field::Conductivity, Parsed::Conductivity(c)) => self.conductivity = Some(c),
+            (Field::Pressure, Parsed::Number(v)) => self.pressure = Some(v),
+            (Field::AirPressure, Parsed::Number(v)) => self.air_pressure = Some(v),
+            (Field::Total(t), Parsed::Quantity(q)) => self.totals[t.index()] = Some(q),
+            (Field::CalciumFraction, Parsed::Number(v)) => self.calcium_fraction = Some(v),
+            (Field::Tds, Parsed::Number(v)) => self.tds = Some(v),
+            (Field::IonicStrength, Parsed::Number(v)) => self.ionic_strength = Some(v),
+            (_, Parsed::Choice(c)) => match c {
+                Choice::Medium(m) => self.medium = Some(m),
+                Choice::Scale(s) => self.ph_scale = Some(s),
+                Choice::Carbonic(f) => self.carbonic = Some(f),
+                Choice::Boron(f) => self.boron = Some(f),
+                Choice::Fluoride(f) => self.fluoride = Some(f),
+                Choice::Activity(m) => self.activity = Some(m),
+            },
+            // The reading of a field always gives its own kind of value.
+            _ => {}
+        }
+    }
+
+    /// The sample of these inputs (temperature given).
+    fn sample(&self, temperature_c: f64) -> Sample {
+        let mut s = Sample::new(temperature_c);
+        s.salinity = self.salinity;
+        s.conductivity = self.conductivity;
+        s.pressure_dbar = self.pressure.unwrap_or(0.0);
+        s.air_pressure_atm = self.air_pressure;
+        s.medium = self.medium.unwrap_or_default();
+        s.carbonic = self.carbonic;
+        s.boron = self.boron;
+        s.fluoride_fit = self.fluoride;
+        s.activity = self.activity;
+        let t = |total: Total| self.totals[total.index()];
+        s.phosphate = t(Total::Phosphate);
+        s.silicate = t(Total::Silicate);
+        s.ammonia = t(Total::Ammonia);
+        s.sulfide = t(Total::Sulfide);
+        s.calcium = t(Total::Calcium);
+        s.hardness = t(Total::Hardness);
+        s.magnesium = t(Total::Magnesium);
+        s.sodium = t(Total::Sodium);
+        s.potassium = t(Total::Potassium);
+        s.chloride = t(Total::Chloride);
+        s.sulfate = t(Total::Sulfate);
+        s.boron_total = t(Total::Boron);
+        s.calcium_fraction = self.calcium_fraction;
+        s.tds_mg_l = self.tds;
+        s.ionic_strength = self.ionic_strength;
+        s
+    }
+}
+
+/// The outcome of a row.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub(crate) enum Status {
+    #[default]
+    Ok,
+    Warning,
+    Error,
+}
+
+impl Status {
+    pub(crate) fn name(self) -> &'static str {
+        match self {
+            Status::Ok => "ok",
+            Status::Warning => "warning",
+            Status::Error => "error",
+        }
+    }
+}
+
+/// Something to say about a row.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct Issue {
+    /// The message without the row's values, for counting alike issues.
+    pub key: String,
+    /// The message.
+    pub text: String,
+    /// An error (the row is not computed) rather than a warning.
+    pub error: bool,
+}
+
+/// A row's results, reused from row to row.
+#[derive(Debug, Default)]
+pub(crate) struct Scratch {
+    pub values: Vec<Value>,
+    pub residuals: Vec<Option<f64>>,
+    pub issues: Vec<Issue>,
+    pub status: Status,
+    /// The saline water of the last row, and its constants once a row repeats it.
+    last_water: Option<Water>,
+    constants: Option<Constants>,
+}
+
+impl Scratch {
+    fn error(&mut self, key: String, text: String) {
+        self.issues.push(Issue {
+            key,
+            text,
+            error: true,
+        });
+    }
+
+    fn warning(&mut self, key: String, text: String) {
+        self.issues.push(Issue {
+            key,
+            text,
+            error: false,
+        });
+    }
+}
+
+/// The message of a library error without its values.
+pub(crate) fn error_key(e: &Error) -> String {
+    match e {
+        Error::OutOfRange {
+            field,
+            min,
+            max,
+            unit,
+            ..
+        } => format!("{field} outside the accepted range {min} to {max}{unit}"),
+        Error::NotFinite { field, .. } => format!("{field} not a finite number"),
+        Error::NotANumber { field, .. } => format!("{field} not a number"),
+        Error::MissingUnit { field, .. } => format!("{field} without a unit"),
+        Error::WrongUnit { field, .. } => format!("{field} in a unit not accepted"),
+        Error::NoWaterFits { first, second, .. } => format!("no water fits {first} with {second}"),
+        Error::NoConvergence { first, second, .. } => {
+            format!("the solver did not converge for {first} with {second}")
+        }
+        Error::UnknownFit { constant, .. } => format!("{constant}: unknown fit"),
+        Error::UnknownChoice { field, .. } => format!("{field}: unknown choice"),
+        Error::Computation { field, .. } => format!("{field} could not be computed"),
+        other => other.to_string(),
+    }
+}
+
+/// The field a library error names.
+fn field_of(name: &str) -> Option<Field> {
+    Some(match name {
+        "temperature_c" => Field::Temperature,
+        "salinity" => Field::Salinity,
+        "conductivity" | "specific_conductance" => Field::Conductivity,
+        "pressure_dbar" => Field::Pressure,
+        "air_pressure_atm" => Field::AirPressure,
+        "calcium_fraction" => Field::CalciumFraction,
+        "tds" => Field::Tds,
+        "ionic_strength" => Field::IonicStrength,
+        "water" => Field::Medium,
+        "ph_scale" => Field::PhScale,
+        "carbonic" => Field::CarbonicFit,
+        "boron" => Field::BoronFit,
+        "fluoride" => Field::FluorideFit,
+        "activity" => Field::Activity,
+        other => {
+            if let Some(p) = Parameter::ALL.iter().find(|p| p.name() == other) {
+                Field::Carbon(*p)
+            } else {
+                Field::Total(*Total::ALL.iter().find(|t| t.name() == other)?)
+            }
+        }
+    })
+}
+
+/// The cell text of a column in a record, for messages.
+fn cell_text(record: &csv::ByteRecord, index: usize) -> String {
+    String::from_utf8_lossy(record.get(index).unwrap_or_default())
+        .trim()
+        .to_string()
+}
+
+/// Where a value came from, for messages: `column `X` (`cell`)` or `--set x=v`.
+fn source_of(plan: &Plan, record: &csv::ByteRecord, field: Field) -> Option<(String, String)> {
+    let label = plan.label(field).or_else(|| match field {
+        // Salinity computed from the conductivity.
+        Field::Salinity => plan.label(Field::Conductivity),
+        _ => None,
+    })?;
+    Some(match label {
+        Label::Column(i) => {
+            let rc = &plan.read[*i];
+            (
+                format!(
+                    "column `{}` (`{}`)",
+                    rc.header,
+                    cell::shorten(&cell_text(record, rc.index))
+                ),
+                format!("column `{}`", rc.header),
+            )
+        }
+        Label::Set(spec) => (format!("--set {spec}"), format!("--set {spec}")),
+    })
+}
+
+fn library_issue(plan: &Plan, record: &csv::ByteRecord, e: &Error, s: &mut Scratch) {
+    let pair_error = matches!(
+        e,
+        Error::IncompatiblePair { .. } | Error::NoWaterFits { .. } | Error::NoConvergence { .. }
+    );
+    let source = if pair_error {
+        None
+    } else {
+        e.field()
+            .and_then(field_of)
+            .and_then(|f| source_of(plan, record, f))
+    };
+    match source {
+        Some((text, key)) => s.error(format!("{key}: {}", error_key(e)), format!("{text}: {e}")),
+        None => s.error(error_key(e), e.to_string()),
+    }
+}
+
+fn measured(
+    p: Parameter,
+    v: CarbonValue,
+    default_scale: Option<PhScale>,
+) -> Result<Measured, Error> {
+    match v {
+        CarbonValue::Ph(v, scale) => Measured::ph(v, scale.or(default_scale)),
+        CarbonValue::Quantity(q) => Measured::new(p, q),
+    }
+}
+
+/// Molar (equivalent) mass of the mass-concentration unit of a parameter.
+fn mass_of(p: Parameter) -> (Unit, f64) {
+    match p {
+        Parameter::Alkalinity => (Unit::MgPerLCaCO3, CACO3_G_EQ),
+        Parameter::Dic => (Unit::MgPerLC, C_G_MOL),
+        Parameter::Co2 => (Unit::MgPerLCO2, CO2_G_MOL),
+        Parameter::Hco3 => (Unit::MgPerLHCO3, HCO3_G_MOL),
+        _ => (Unit::MgPerLCO3, CO3_G_MOL),
+    }
+}
+
+/// A measured value in the units of its residual column.
+fn measured_in_output(
+    p: Parameter,
+    v: CarbonValue,
+    state: &State,
+    units: UnitSystem,
+    scale: PhScale,
+) -> Option<f64> {
+    match v {
+        CarbonValue::Ph(v, _) => Some(v - state.ph(scale)),
+        CarbonValue::Quantity(q) => {
+            let uatm = match q.unit {
+                Unit::Uatm | Unit::Ppm => q.value,
+                Unit::Atm => q.value * 1e6,
+                Unit::Pa => q.value / 101_325.0 * 1e6,
+                Unit::KPa => q.value * 1000.0 / 101_325.0 * 1e6,
+                _ => f64::NAN,
+            };
+            let calculated = match Computed::of_parameter(p, units, None).value(state) {
+                Value::Number(v) => v?,
+                Value::Text(_) => return None,
+            };
+            let measured = match p {
+                Parameter::Pco2 | Parameter::Fco2 | Parameter::Xco2 => uatm,
+                _ => {
+                    let (mass_unit, g) = mass_of(p);
+                    let umol_kg =
+                        Amount::from_quantity(q, mass_unit, g)?.mol_kg(state.density_kg_m3) * 1e6;
+                    match units {
+                        UnitSystem::Trade => umol_kg * 1e-6 * state.density_kg_m3 * g,
+                        UnitSystem::Ocean => umol_kg,
+                    }
+                }
+            };
+            Some(measured - calculated)
+        }
+    }
+}
+
+/// A solved state whose carbon lies outside what the crate accepts as
+/// input (for example pH 0 with an alkalinity, which needs a DIC of
+/// hundreds of thousands of mol/kg) fits no real water: the message says
+/// so, in the words of the library's own "no water fits".
+fn implausible(state: &State, a: &Measured, b: &Measured) -> Option<String> {
+    for (p, v) in [
+        (Parameter::Dic, state.dic_umol_kg),
+        (Parameter::Alkalinity, state.alkalinity_umol_kg),
+    ] {
+        let (min, max) = p.accepted_range();
+        // Alkalinity may be slightly negative in acid water; only its size is checked.
+        let bad = if p == Parameter::Alkalinity {
+            !v.is_finite() || v.abs() > max
+        } else {
+            !v.is_finite() || v < min || v > max
+        };
+        if bad {
+            return Some(format!(
+                "no water fits {} = {} with {} = {}: the {} would be {v:.3e} µmol/kg, beyond the \
+                 accepted {min} to {max} µmol/kg",
+                a.parameter().name(),
+                a.describe(),
+                b.parameter().name(),
+                b.describe(),
+                p.name()
+            ));
+        }
+    }
+    None
+}
+
+/// The default pH scale of a medium.
+fn medium_scale(m: Medium) -> PhScale {
+    match m {
+        Medium::Fresh => PhScale::Nbs,
+        _ => PhScale::Total,
+    }
+}
+
+/// Temperatures above this in a °C column get a caution: a reading in °F
+/// written in the wrong column is a common slip.
+pub(crate) const WARM_C: f64 = 40.0;
+
+/// Evaluates one row into `s`.
+pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {
+    s.issues.clear();
+    s.values.clear();
+    s.residuals.clear();
+    s.residuals.resize(plan.residuals.len(), None);
+    let status = solve_row(plan, record, s);
+    if status.is_none() {
+        s.values.clear();
+        s.residuals.iter_mut().for_each(|r| *r = None);
+    }
+    s.status = if s.issues.iter().any(|i| i.error) {
+        Status::Error
+    } else if s.issues.is_empty() {
+        Status::Ok
+    } else {
+        Status::Warning
+    };
+}
+
+/// The work of [`evaluate`]; `None` when the row cannot be computed.
+fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<()> {
+    if record.len() != plan.width {
+        ragged(plan, record, s);
+        return None;
+    }
+    if record.iter().all(|f| f.trim_ascii().is_empty()) {
+        s.error("the row is empty".into(), "the row is empty".into());
+        return None;
+    }
+    let mut inputs = plan.template;
+    for rc in &plan.read {
+        let bytes = record.get(rc.index).unwrap_or_default();
+        match cell::parse(&rc.column, bytes, plan.decimal_comma) {
+            Ok(Some(v)) => inputs.put(rc.column.field, v),
+            Ok(None) => {}
+            Err(problem) => {
+                let text = String::from_utf8_lossy(bytes);
+                s.error(
+                    problem.key(&rc.header),
+                    problem.message(&rc.header, text.trim()),
+                );
+            }
+        }
+    }
+    if !s.issues.is_empty() {
+        return None;
+    }
+    let Some(t) = inputs.temperature else {
+        let label = match plan.label(Field::Temperature) {
+            Some(Label::Column(i)) => format!("column `{}` is empty", plan.read[*i].header),
+            _ => "no temperature".to_string(),
+        };
+        s.error(
+            "no temperature".into(),
+            format!("{label}: the row has no temperature"),
+        );
+        return None;
+    };
+    if let Some(i) = plan.warm_check {
+        if t > WARM_C {
+            let header = &plan.read[i].header;
+            s.warning(
+                format!("column `{header}`: above {WARM_C} °C (a reading in °F?)"),
+                format!(
+                    "column `{header}`: {t} °C is warmer than natural waters usually are; if it \
+                     was read in °F it is {:.1} °C, so check the cell",
+                    (t - 32.0) * 5.0 / 9.0
+                ),
+            );
+        }
+    }
+    let water = match inputs.sample(t).water() {
+        Ok(w) => w,
+        Err(e) => {
+            library_issue(plan, record, &e, s);
+            return None;
+        }
+    };
+    let mut present = [false; 9];
+    for (i, v) in inputs.carbon.iter().enumerate() {
+        present[i] = v.is_some();
+    }
+    let (a, b) = match plan.forced_pair {
+        Some((a, b)) => {
+            for p in [a, b] {
+                if !present[rank(p)] {
+                    let where_ = match plan.label(Field::Carbon(p)) {
+                        Some(Label::Column(i)) => format!("column `{}`", plan.read[*i].header),
+                        _ => p.name().to_string(),
+                    };
+                    s.error(
+                        format!("pair {},{}: {where_} is empty", a.name(), b.name()),
+                        format!(
+                            "pair {},{}: {where_} is empty in this row",
+                            a.name(),
+                            b.name()
+                        ),
+                    );
+                    return None;
+                }
+            }
+            (a, b)
+        }
+        None => match choose_pair(&present) {
+            Some(pair) => pair,
+            None => {
+                no_pair(plan, &present, s);
+                return None;
+            }
+        },
+    };
+    let scale = inputs.ph_scale;
+    let mut pair = [None, None];
+    for (slot, p) in pair.iter_mut().zip([a, b]) {
+        let v = inputs.carbon[rank(p)]?;
+        match measured(p, v, scale) {
+            Ok(m) => *slot = Some(m),
+            Err(e) => {
+                library_issue(plan, record, &e, s);
+                return None;
+            }
+        }
+    }
+    let (ma, mb) = (pair[0]?, pair[1]?);
+    // Rows with the same saline water (a sheet of one station, or values
+    // from --set) share its constants; other rows cost no copy of them.
+    let result = if water.medium() == Medium::Saline && s.last_water.as_ref() == Some(&water) {
+        if s.constants.is_none() {
+            match water.constants() {
+                Ok(k) => s.constants = Some(k),
+                Err(e) => {
+                    library_issue(plan, record, &e, s);
+                    return None;
+                }
+            }
+        }
+        water.solve_with_constants(s.constants.as_ref()?, ma, mb, &plan.options)
+    } else {
+        if water.medium() == Medium::Saline {
+            s.last_water = Some(water.clone());
+            s.constants = None;
+        }
+        water.solve_with(ma, mb, &plan.options)
+    };
+    let state = match result {
+        Ok(state) => state,
+        Err(e) => {
+            library_issue(plan, record, &e, s);
+            return None;
+        }
+    };
+    if let Some(text) = implausible(&state, &ma, &mb) {
+        s.error(
+            format!("no water fits {} with {}", a.name(), b.name()),
+            text,
+        );
+        return None;
+    }
+    for c in &plan.computed {
+        s.values.push(c.value(&state));
+    }
+    let default_scale = scale.unwrap_or(medium_scale(water.medium()));
+    for (i, rc) in plan.residuals.iter().enumerate() {
+        let p = rc.parameter;
+        if p == a || p == b {
+            continue;
+        }
+        let Some(v) = inputs.carbon[rank(p)] else {
+            continue;
+        };
+        // An extra measurement must itself be valid to be compared.
+        if let Err(e) = measured(p, v, scale) {
+            let mut tmp = Scratch::default();
+            library_issue(plan, record, &e, &mut tmp);
+            for issue in tmp.issues {
+                s.warning(
+                    format!("{} (no residual)", issue.key),
+                    format!("{} (no residual)", issue.text),
+                );
+            }
+            continue;
+        }
+        let ph_scale = match v {
+            CarbonValue::Ph(_, Some(sc)) => sc,
+            _ => default_scale,
+        };
+        s.residuals[i] = measured_in_output(p, v, &state, plan.units, ph_scale);
+    }
+    for w in &state.warnings {
+        let text = w.to_string();
+        let key = text.split(": ").next().unwrap_or(&text).to_string();
+        s.warning(key, text);
+    }
+    Some(())
+}
+
+fn ragged(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {
+    let n = record.len();
+    let w = plan.width;
+    let text = if n < w {
+        format!("the row has {n} fields, the header has {w}")
+    } else {
+        let extra: Vec<String> = record
+            .iter()
+            .skip(w)
+            .map(|f| format!("`{}`", cell::shorten(&String::from_utf8_lossy(f))))
+            .collect();
+        format!(
+            "the row has {n} fields, the header has {w}; the extra fields are {}",
+            extra.join(", ")
+        )
+    };
+    let key = if n < w {
+        "fewer fields than the header"
+    } else {
+        "more fields than the header"
+    };
+    s.error(key.into(), text);
+}
+
+fn no_pair(plan: &Plan, present: &[bool; 9], s: &mut Scratch) {
+    let given: Vec<&str> = RANKING
+        .iter()
+        .zip(present)
+        .filter(|(_, p)| **p)
+        .map(|(q, _)| q.name())
+        .collect();
+    let empty: Vec<String> = RANKING
+        .iter()
+        .zip(present)
+        .filter(|(_, p)| !**p)
+        .filter_map(|(q, _)| match plan.label(Field::Carbon(*q)) {
+            Some(Label::Column(i)) => Some(format!("`{}`", plan.read[*i].header)),
+            _ => None,
+        })
+        .collect();
+    let empty = if empty.is_empty() {
+        String::new()
+    } else {
+        format!(" (empty: {})", empty.join(", "))
+    };
+    let (key, text) = match given.len() {
+        0 => (
+            format!("no carbonate parameter in the row{empty}"),
+            format!("no carbonate parameter is given in this row{empty}; a pair needs two"),
+        ),
+        1 => (
+            format!("only one carbonate parameter in the row{empty}"),
+            format!(
+                "only {} is given in this row{empty}; a pair needs two carbonate parameters",
+                given[0]
+            ),
+        ),
+        _ => (
+            format!("only gas parameters in the row{empty}"),
+            format!(
+                "only {} are given in this row{empty}; they carry the same information (the \
+                 dissolved CO2), so a pair needs one of alkalinity, dic, ph, hco3, co3 as well",
+                given.join(" and ")
+            ),
+        ),
+    };
+    s.error(key, text);
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn ranking_chooses_the_best_pair() {
+        let mut present = [false; 9];
+        present[rank(Parameter::Ph)] = true;
+        present[rank(Parameter::Pco2)] = true;
+        present[rank(Parameter::Alkalinity)] = true;
+        assert_eq!(
+            choose_pair(&present),
+            Some((Parameter::Alkalinity, Parameter::Ph))
+        );
+        let mut gases = [false; 9];
+        gases[rank(Parameter::Pco2)] = true;
+        gases[rank(Parameter::Xco2)] = true;
+        assert_eq!(choose_pair(&gases), None);
+        gases[rank(Parameter::Co3)] = true;
+        assert_eq!(choose_pair(&gases), Some((Parameter::Pco2, Parameter::Co3)));
+    }
+}
