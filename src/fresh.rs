@@ -694,6 +694,7 @@ pub(crate) fn solve_fresh(
             i_guess = i;
             continue;
         }
+        crate::solve::check_dic(&pair, spec.dic)?;
         let k = th.constants(water, i, spec.ca_free);
         let (_, imbalance) = ion_sum(&k, h, spec.dic);
         add_route_warnings(water, r, i, &mut warnings);
@@ -709,7 +710,7 @@ pub(crate) fn solve_fresh(
             }
         }
         let extras = extras(&k, h, spec.dic, r, imbalance, &mut warnings);
-        return Ok(State::build_fresh(water, &k, h, spec.dic, warnings, extras));
+        return State::build_fresh(water, &k, h, spec.dic, warnings, extras).plausible(&a, &b);
     }
     Err(Error::NoConvergence {
         first: a.parameter().name(),

@@ -105,6 +105,24 @@ impl Parameter {
         }
     }
 
+    /// Whether this parameter accepts `unit` (no allocation).
+    ///
+    /// ```
+    /// # use travertine::{Parameter, units::Unit};
+    /// assert!(Parameter::Dic.accepts(Unit::MgPerLC));
+    /// assert!(!Parameter::Dic.accepts(Unit::MgPerLCaCO3));
+    /// ```
+    pub fn accepts(self, unit: Unit) -> bool {
+        match self {
+            Parameter::Ph => false,
+            Parameter::Pco2 | Parameter::Fco2 => {
+                matches!(unit, Unit::Uatm | Unit::Atm | Unit::Pa | Unit::KPa)
+            }
+            Parameter::Xco2 => unit == Unit::Ppm,
+            _ => crate::units::MOLAR_UNITS.contains(&unit) || unit == self.mass_unit().0,
+        }
+    }
+
     fn mass_unit(self) -> (Unit, f64) {
         match self {
             Parameter::Alkalinity => (Unit::MgPerLCaCO3, CACO3_G_EQ),
@@ -189,8 +207,8 @@ impl Measured {
     /// ```
     pub fn new(parameter: Parameter, quantity: Quantity) -> Result<Self> {
         let field = parameter.name();
-        let accepted = parameter.accepted_units();
-        if !accepted.contains(&quantity.unit) {
+        if !parameter.accepts(quantity.unit) {
+            let accepted = parameter.accepted_units();
             return Err(Error::WrongUnit {
                 field,
                 unit: quantity.unit.spelling().to_string(),
@@ -230,7 +248,7 @@ impl Measured {
                     Error::WrongUnit {
                         field,
                         unit: quantity.unit.spelling().to_string(),
-                        accepted: list_units(&accepted),
+                        accepted: list_units(&parameter.accepted_units()),
                     }
                 })?;
                 check_range(field, amount.raw() * 1e6, min, max, unit)?;

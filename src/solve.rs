@@ -203,6 +203,19 @@ impl Pair<'_> {
     }
 }
 
+/// Checks that a solved DIC (mol/kg) is one a measurement could have: a pH
+/// near 0 with ordinary alkalinity, say, implies an absurd DIC.
+pub(crate) fn check_dic(pair: &Pair, dic: f64) -> Result<()> {
+    let (min, max) = Parameter::Dic.accepted_range();
+    let umol = dic * 1e6;
+    if umol.is_finite() && umol >= min && umol <= max {
+        return Ok(());
+    }
+    Err(pair.no_water(format!(
+        "the DIC would be {umol:.3e} µmol/kg, beyond the accepted {min} to {max} µmol/kg"
+    )))
+}
+
 /// Checks that a pair can be used together.
 pub(crate) fn check_pair(a: &Measured, b: &Measured) -> Result<()> {
     let (pa, pb) = (a.parameter(), b.parameter());
@@ -352,6 +365,7 @@ pub(crate) fn solve(
             k.working_scale.name()
         )));
     }
+    check_dic(&pair, dic)?;
     Ok(Solution { h, dic, warnings })
 }
 

@@ -461,6 +461,26 @@ impl Water {
             return crate::fresh::solve_fresh(self, a, b, options);
         }
         let sol = solve(k, &a, &b, options)?;
-        Ok(State::build(self, k, sol.h, sol.dic, sol.warnings))
+        State::build(self, k, sol.h, sol.dic, sol.warnings).plausible(&a, &b)
+    }
+}
+
+impl State {
+    /// A state whose alkalinity is beyond what any measurement may be
+    /// (for example DIC with a pH near 0, which needs an alkalinity of
+    /// about −1 mol/kg) fits no real water.
+    pub(crate) fn plausible(self, a: &Measured, b: &Measured) -> Result<State> {
+        let (_, max) = Parameter::Alkalinity.accepted_range();
+        let v = self.alkalinity_umol_kg;
+        if v.is_finite() && v.abs() <= max {
+            return Ok(self);
+        }
+        Err(crate::Error::NoWaterFits {
+            first: a.parameter().name(),
+            first_value: a.describe(),
+            second: b.parameter().name(),
+            second_value: b.describe(),
+            reason: format!("the alkalinity would be {v:.3e} µmol/kg, beyond ±{max} µmol/kg"),
+        })
     }
 }

@@ -353,7 +353,7 @@ fn ph_0_and_ph_15_errored() {
     assert_eq!(status, "error");
     assert!(
         message.starts_with(
-            "no water fits alkalinity = 2300 µmol/kg with ph = 0 (total): the dic would be "
+            "no water fits alkalinity = 2300 µmol/kg with ph = 0 (total): the DIC would be "
         ) && message.ends_with(" µmol/kg, beyond the accepted 0.001 to 100000 µmol/kg"),
         "{message}"
     );
