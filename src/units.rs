@@ -275,7 +275,12 @@ pub fn list_units(units: &[Unit]) -> String {
 
 /// Length of the longest prefix of `s` that reads as a decimal number.
 fn number_prefix_len(s: &str) -> usize {
-    let b = s.as_bytes();
+    number_len(s.as_bytes())
+}
+
+/// Length of the leading decimal number of `b` (sign, digits, point,
+/// digits, exponent), 0 when there is none.
+pub(crate) fn number_len(b: &[u8]) -> usize {
     let mut i = 0;
     if i < b.len() && (b[i] == b'+' || b[i] == b'-') {
         i += 1;

@@ -11,6 +11,7 @@ use crate::constants::{BoronTotalFit, CarbonicFit, FluorideFit};
 use crate::error::Error;
 use crate::sample::{Conductivity, MediumChoice};
 use crate::scales::PhScale;
+use crate::units::number_len;
 use crate::units::Quantity;
 
 /// A chosen name.
@@ -106,44 +107,6 @@ fn not_measured(t: &str) -> bool {
         || matches!(t, "-" | "--" | "—" | "–")
         || t.eq_ignore_ascii_case("na")
         || t.eq_ignore_ascii_case("n/a")
-}
-
-/// Length of the leading decimal number of `b` (sign, digits, point,
-/// digits, exponent), 0 when there is none.
-fn number_len(b: &[u8]) -> usize {
-    let mut i = 0;
-    if i < b.len() && (b[i] == b'+' || b[i] == b'-') {
-        i += 1;
-    }
-    let mut digits = 0;
-    while i < b.len() && b[i].is_ascii_digit() {
-        i += 1;
-        digits += 1;
-    }
-    if i < b.len() && b[i] == b'.' {
-        i += 1;
-        while i < b.len() && b[i].is_ascii_digit() {
-            i += 1;
-            digits += 1;
-        }
-    }
-    if digits == 0 {
-        return 0;
-    }
-    if i < b.len() && (b[i] == b'e' || b[i] == b'E') {
-        let mut j = i + 1;
-        if j < b.len() && (b[j] == b'+' || b[j] == b'-') {
-            j += 1;
-        }
-        let start = j;
-        while j < b.len() && b[j].is_ascii_digit() {
-            j += 1;
-        }
-        if j > start {
-            i = j;
-        }
-    }
-    i
 }
 
 /// Exact powers of ten.

@@ -18,17 +18,8 @@ use crate::water::{Medium, Water};
 /// the first two present that can be used together. Alkalinity and DIC are
 /// conservative and measured most precisely; then pH; then the gas and the
 /// single species.
-pub(crate) const RANKING: [Parameter; 9] = [
-    Parameter::Alkalinity,
-    Parameter::Dic,
-    Parameter::Ph,
-    Parameter::Pco2,
-    Parameter::Fco2,
-    Parameter::Xco2,
-    Parameter::Co2,
-    Parameter::Hco3,
-    Parameter::Co3,
-];
+/// It is the order of [`Parameter::ALL`].
+pub(crate) const RANKING: [Parameter; 9] = Parameter::ALL;
 
 /// The index of a parameter in [`RANKING`].
 pub(crate) fn rank(p: Parameter) -> usize {
