@@ -518,7 +518,8 @@ fn ta_co3_root(
     // h = sqrt(KW K2 / CO3); if g is already negative there, that point
     // separates the roots and no search is needed.
     let x_guess = (0.5 * (k.kw * k.k2e / co3).ln()).clamp(lo, hi);
-    let x_min = if g(x_guess).0 < 0.0 {
+    let g_guess = g(x_guess).0;
+    let x_min = if g_guess < 0.0 {
         x_guess
     } else if slope(hi) <= 0.0 {
         hi
@@ -545,22 +546,34 @@ fn ta_co3_root(
                 .map_err(|_| pair.no_convergence(400))?
         }
     };
-    let (g_min, _) = g(x_min);
+    let g_min = if x_min == x_guess {
+        g_guess
+    } else {
+        g(x_min).0
+    };
     if g_min > 0.0 {
         return Err(pair.no_water(format!(
             "with that CO3 the alkalinity is at least {:.6} µmol/kg at any pH",
             (g_min + ta) * 1e6
         )));
     }
-    let (g_lo, _) = g(lo);
-    let (g_hi, _) = g(hi);
+    let g_at_h = |h: f64| co3 * (h / k.k2e + 2.0) + non_carbonate(k, h).0 - ta;
+    let g_lo = g_at_h(H_AT_PH_MAX);
+    let g_hi = g_at_h(H_AT_PH_MIN);
     // Root at lower h (higher pH), between lo and x_min.
     // First guesses: hydroxide carries the alkalinity at the high-pH root,
     // carbonate at the low-pH one.
     let guess_high = {
+        // TA − 2 CO3 ≈ OH + borate + CO3 h/K2 there: the hydroxide estimate,
+        // then one correction for everything else at that h.
         let excess = ta - 2.0 * co3;
-        if excess > 0.0 {
-            (k.kw / excess).ln()
+        let h0 = if excess > 0.0 { k.kw / excess } else { 0.0 };
+        let rest = |h: f64| non_carbonate(k, h).0 - k.kw / h + co3 * h / k.k2e;
+        let excess1 = if h0 > 0.0 { excess - rest(h0) } else { 0.0 };
+        if excess1 > 0.0 {
+            (k.kw / excess1).ln()
+        } else if h0 > 0.0 {
+            h0.ln()
         } else {
             0.5 * (lo + x_min)
         }
