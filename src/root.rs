@@ -12,8 +12,9 @@
 pub(crate) const X_TOLERANCE: f64 = 1e-13;
 /// A Newton step shorter than this ends the iteration, returning the point
 /// after the step: near a simple root the error after a step of length d is
-/// of order d², here about 1e-16.
-pub(crate) const NEWTON_ACCEPT: f64 = 1e-8;
+/// of order d², here about 1e-12 relative in h, far inside the 1e-9 of
+/// the round-trip tolerance.
+pub(crate) const NEWTON_ACCEPT: f64 = 1e-6;
 /// Iteration cap; reaching it is reported as non-convergence.
 pub(crate) const MAX_ITERATIONS: u32 = 200;
 
