@@ -245,7 +245,9 @@ impl Thermo {
             ),
             density_kg_m3: self.density,
             fits_used: fresh_fits_used(t, water.fresh_options().activity),
-            warnings: self.warnings.clone(),
+            // Attached only to the constants a caller sees (not on every
+            // trial of the inner iterations, where it would allocate).
+            warnings: Vec::new(),
             gammas: Some(g),
             k_cahco3,
             k_caco3,
@@ -410,7 +412,9 @@ pub(crate) fn starting_constants(water: &Water) -> Result<Constants> {
         }
         _ => i,
     };
-    Ok(th.constants(water, i, th.totals.calcium_mol_kg))
+    let mut k = th.constants(water, i, th.totals.calcium_mol_kg);
+    k.warnings = th.warnings.clone();
+    Ok(k)
 }
 
 /// The speciation at one h, from one carbon parameter, with the calcium
@@ -695,7 +699,8 @@ pub(crate) fn solve_fresh(
             continue;
         }
         crate::solve::check_dic(&pair, spec.dic)?;
-        let k = th.constants(water, i, spec.ca_free);
+        let mut k = th.constants(water, i, spec.ca_free);
+        k.warnings = th.warnings.clone();
         let (_, imbalance) = ion_sum(&k, h, spec.dic);
         add_route_warnings(water, r, i, &mut warnings);
         for &(other, _) in &roots {
