@@ -79,43 +79,97 @@ pub(crate) fn carbonate_per_dic(k: &Constants, h: f64) -> (f64, f64) {
     let k12 = k.k1e * k.k2e;
     let n = k.k1e * h + 2.0 * k12;
     let d = h * h + k.k1e * h + k12;
-    (n / d, (k.k1e * d - n * (2.0 * h + k.k1e)) / (d * d))
+    let inv = 1.0 / d;
+    let c = n * inv;
+    // d/dh (n/d) = (K1 − c (2h + K1)) / d.
+    (c, (k.k1e - c * (2.0 * h + k.k1e)) * inv)
 }
 
-/// Fraction of a monoprotic acid in its base form, T·K/(K + h), and the derivative.
+/// Base form of a monoprotic acid, T·K/(K + h), and its derivative
+/// −T·K/(K + h)², with one division.
 #[inline]
 fn base(total: f64, ka: f64, h: f64) -> (f64, f64) {
     if total == 0.0 {
         return (0.0, 0.0);
     }
-    let d = ka + h;
-    (total * ka / d, -total * ka / (d * d))
+    let inv = 1.0 / (ka + h);
+    let v = total * ka * inv;
+    (v, -v * inv)
 }
 
-/// Non-carbonate alkalinity at h and its derivative with respect to h.
+/// Acid form on the free scale, T·hf/(K + hf) with hf = ff·h, and its
+/// derivative with respect to h, T·K·ff/(K + hf)², with one division.
 #[inline]
-pub(crate) fn non_carbonate(k: &Constants, h: f64) -> (f64, f64) {
+fn acid_free(total: f64, ka: f64, hf: f64, ff: f64) -> (f64, f64) {
+    let inv = 1.0 / (ka + hf);
+    let v = total * hf * inv;
+    (v, total * ka * ff * inv * inv)
+}
+
+/// Every part of the alkalinity but the carbonate, with the derivative of
+/// their sum with respect to h.
+#[inline]
+fn non_carbonate_parts(k: &Constants, h: f64) -> (AlkalinityParts, f64) {
     let t = &k.totals;
     let (b, db) = base(t.boron_mol_kg, k.kb, h);
     let (si, dsi) = base(t.silicate_mol_kg, k.ksi, h);
     let (nh, dnh) = base(t.ammonia_mol_kg, k.knh4, h);
     let (hs, dhs) = base(t.sulfide_mol_kg, k.kh2s, h);
-    let oh = k.kw / h;
-    let doh = -oh / h;
+    let inv_h = 1.0 / h;
+    let oh = k.kw * inv_h;
+    let doh = -oh * inv_h;
     let ff = k.free_per_working;
     let hf = h * ff;
     // HSO4- = ST hf/(KS + hf); HF = FT hf/(KF + hf) (both on the free scale).
-    let ds = k.ks_free + hf;
-    let hso4 = t.sulfate_mol_kg * hf / ds;
-    let dhso4 = t.sulfate_mol_kg * k.ks_free * ff / (ds * ds);
-    let dfl = k.kf_free + hf;
-    let hfl = t.fluoride_mol_kg * hf / dfl;
-    let dhfl = t.fluoride_mol_kg * k.kf_free * ff / (dfl * dfl);
+    let (hso4, dhso4) = acid_free(t.sulfate_mol_kg, k.ks_free, hf, ff);
+    let (hfl, dhfl) = acid_free(t.fluoride_mol_kg, k.kf_free, hf, ff);
     let (p, dp) = phosphate(k, h);
-    (
-        b + si + nh + hs + oh + p - hf - hso4 - hfl,
-        db + dsi + dnh + dhs + doh + dp - ff - dhso4 - dhfl,
-    )
+    let parts = AlkalinityParts {
+        carbonate: 0.0,
+        borate: b,
+        hydroxide: oh,
+        phosphate: p,
+        silicate: si,
+        ammonia: nh,
+        sulfide: hs,
+        free_hydrogen: hf,
+        bisulfate: hso4,
+        hydrogen_fluoride: hfl,
+    };
+    (parts, db + dsi + dnh + dhs + doh + dp - ff - dhso4 - dhfl)
+}
+
+/// Non-carbonate alkalinity at h and its derivative with respect to h.
+#[inline]
+pub(crate) fn non_carbonate(k: &Constants, h: f64) -> (f64, f64) {
+    let (p, d) = non_carbonate_parts(k, h);
+    (p.non_carbonate(), d)
+}
+
+/// Every part of the alkalinity at h and DIC (mol/kg), with the slopes a
+/// state needs, from one evaluation.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct PartsWithSlopes {
+    pub parts: AlkalinityParts,
+    /// Carbonate alkalinity per unit DIC, and its derivative with respect to h.
+    pub carbonate_per_dic: f64,
+    pub d_carbonate_per_dic: f64,
+    /// Derivative of the non-carbonate sum with respect to h.
+    pub d_non_carbonate: f64,
+}
+
+/// [`PartsWithSlopes`] at h and DIC (mol/kg).
+#[inline]
+pub(crate) fn parts_with_slopes(k: &Constants, h: f64, dic_mol_kg: f64) -> PartsWithSlopes {
+    let (c, dc) = carbonate_per_dic(k, h);
+    let (mut parts, dn) = non_carbonate_parts(k, h);
+    parts.carbonate = dic_mol_kg * c;
+    PartsWithSlopes {
+        parts,
+        carbonate_per_dic: c,
+        d_carbonate_per_dic: dc,
+        d_non_carbonate: dn,
+    }
 }
 
 #[inline]
@@ -131,7 +185,9 @@ fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
     let n = k12 * h + 2.0 * k123 - h3;
     let dn = k12 - 3.0 * h2;
     let dd = 3.0 * h2 + 2.0 * k1 * h + k12;
-    (tp * n / d, tp * (dn * d - n * dd) / (d * d))
+    let inv = 1.0 / d;
+    let v = n * inv;
+    (tp * v, tp * (dn - v * dd) * inv)
 }
 
 /// Every part of the alkalinity at working-scale h and DIC (mol/kg).
@@ -145,19 +201,5 @@ fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn parts(k: &Constants, h: f64, dic_mol_kg: f64) -> AlkalinityParts {
-    let t = &k.totals;
-    let hf = h * k.free_per_working;
-    let (p, _) = phosphate(k, h);
-    AlkalinityParts {
-        carbonate: dic_mol_kg * carbonate_per_dic(k, h).0,
-        borate: base(t.boron_mol_kg, k.kb, h).0,
-        hydroxide: k.kw / h,
-        phosphate: p,
-        silicate: base(t.silicate_mol_kg, k.ksi, h).0,
-        ammonia: base(t.ammonia_mol_kg, k.knh4, h).0,
-        sulfide: base(t.sulfide_mol_kg, k.kh2s, h).0,
-        free_hydrogen: hf,
-        bisulfate: t.sulfate_mol_kg * hf / (k.ks_free + hf),
-        hydrogen_fluoride: t.fluoride_mol_kg * hf / (k.kf_free + hf),
-    }
+    parts_with_slopes(k, h, dic_mol_kg).parts
 }

@@ -20,7 +20,7 @@ use crate::activity::Gammas;
 use crate::alkalinity::non_carbonate;
 use crate::conductivity::{langelier1936_ionic_strength, russell1976_ionic_strength};
 use crate::constants::fresh as pb;
-use crate::constants::{nutrients, sulfate, sulfide, Constants, FitsUsed, Totals};
+use crate::constants::{nutrients, sulfate, sulfide, Constants, FitName, FitsUsed, Totals};
 use crate::density::density_kg_m3;
 use crate::error::{Error, Result};
 use crate::measured::Measured;
@@ -256,43 +256,34 @@ impl Thermo {
 }
 
 fn fresh_fits_used(t: &Totals, activity: crate::activity::ActivityModel) -> FitsUsed {
-    let pb = "plummer-busenberg1982";
+    let pb = FitName::PlummerBusenberg1982;
+    let given = |total: f64| {
+        if total > 0.0 {
+            FitName::Measured
+        } else {
+            FitName::NoneGiven
+        }
+    };
     FitsUsed {
         k0: pb,
-        fugacity: "weiss1974",
-        vapour_pressure: "weiss-price1980",
+        fugacity: FitName::Weiss1974,
+        vapour_pressure: FitName::WeissPrice1980,
         carbonic: pb,
-        boric: "dickson1990 at S 0",
-        boron_total: if t.boron_mol_kg > 0.0 {
-            "measured"
-        } else {
-            "none"
-        },
-        water: "harned-owen1958",
-        bisulfate: "dickson1990 at S 0",
-        sulfate_total: if t.sulfate_mol_kg > 0.0 {
-            "measured"
-        } else {
-            "none"
-        },
-        fluoride: "dickson-riley1979 at S 0",
-        fluoride_total: if t.fluoride_mol_kg > 0.0 {
-            "measured"
-        } else {
-            "none"
-        },
-        phosphate_silicate: "millero1995 at S 0",
-        ammonium: "emerson1975",
-        sulfide: "millero1988 at S 0",
+        boric: FitName::Dickson1990AtS0,
+        boron_total: given(t.boron_mol_kg),
+        water: FitName::HarnedOwen1958,
+        bisulfate: FitName::Dickson1990AtS0,
+        sulfate_total: given(t.sulfate_mol_kg),
+        fluoride: FitName::DicksonRiley1979AtS0,
+        fluoride_total: given(t.fluoride_mol_kg),
+        phosphate_silicate: FitName::Millero1995AtS0,
+        ammonium: FitName::Emerson1975,
+        sulfide: FitName::Millero1988AtS0,
         minerals: pb,
-        calcium: if t.calcium_mol_kg > 0.0 {
-            "measured"
-        } else {
-            "none"
-        },
-        pressure: "millero1995",
-        nbs_scale: activity.name(),
-        density: "millero-poisson1981",
+        calcium: given(t.calcium_mol_kg),
+        pressure: FitName::Millero1995,
+        nbs_scale: activity.into(),
+        density: FitName::MilleroPoisson1981,
     }
 }
 
@@ -715,7 +706,7 @@ pub(crate) fn solve_fresh(
             }
         }
         let extras = extras(&k, h, spec.dic, r, imbalance, &mut warnings);
-        return State::build_fresh(water, &k, h, spec.dic, warnings, extras).plausible(&a, &b);
+        return State::build_fresh(water, &k, h, spec.dic, warnings, extras, (&a, &b));
     }
     Err(Error::NoConvergence {
         first: a.parameter().name(),

@@ -19,7 +19,7 @@ use crate::alkalinity::{carbonate_per_dic, non_carbonate};
 use crate::constants::Constants;
 use crate::error::{Error, Result};
 use crate::measured::{Measured, Parameter, Value};
-use crate::root::{safeguarded_newton, safeguarded_newton_to};
+use crate::root::{monotone_newton, Failure, Search, NEWTON_ACCEPT};
 use crate::scales::PhScale;
 use crate::warning::Warning;
 
@@ -358,8 +358,8 @@ pub(crate) fn solve(
             })
         }
     };
-    let ph = -crate::numeric::log10(h);
-    if !(PH_MIN..=PH_MAX).contains(&ph) || !dic.is_finite() || dic <= 0.0 {
+    if !(H_AT_PH_MAX..=H_AT_PH_MIN).contains(&h) || !dic.is_finite() || dic <= 0.0 {
+        let ph = -crate::numeric::log10(h);
         return Err(pair.no_water(format!(
             "they imply a pH of {ph:.3} ({} scale), outside {PH_MIN} to {PH_MAX}",
             k.working_scale.name()
@@ -369,13 +369,18 @@ pub(crate) fn solve(
     Ok(Solution { h, dic, warnings })
 }
 
-/// First guess for (TA, DIC), as ln h: the root of the carbonate-only
-/// equation TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0.
+/// First guess for (TA, DIC): the root of the carbonate-only equation
+/// TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0. In sea water it lies
+/// about 0.2 pH above the root, which Newton steps close in four
+/// evaluations. Better guesses were tried (a fixed-point step for the
+/// borate alkalinity, with Aitken's extrapolation): they save an
+/// evaluation but cost more than one in square roots and divisions.
 fn carbonate_guess(k: &Constants, ta: f64, dic: f64) -> f64 {
     carbonate_only_root(k, ta, dic)
 }
 
-/// The root of TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0, as ln h.
+/// The positive root h of TA h² + (TA − DIC) K1 h + (TA − 2 DIC) K1 K2 = 0,
+/// or NaN where there is none (TA not between 0 and 2 DIC).
 fn carbonate_only_root(k: &Constants, ta: f64, dic: f64) -> f64 {
     if ta <= 0.0 || ta >= 2.0 * dic {
         return f64::NAN;
@@ -388,64 +393,56 @@ fn carbonate_only_root(k: &Constants, ta: f64, dic: f64) -> f64 {
         return f64::NAN;
     }
     // c < 0 so the positive root is (-b + sqrt(disc)) / 2a = 2c / (-b - sqrt(disc)).
-    let h = if b >= 0.0 {
+    if b >= 0.0 {
         2.0 * c / (-b - disc.sqrt())
     } else {
         (-b + disc.sqrt()) / (2.0 * a)
-    };
-    if h > 0.0 {
-        h.ln()
-    } else {
-        f64::NAN
     }
 }
 
 /// Root in h of carbonate(h) + non_carbonate(h) = ta, where the carbonate
-/// part is decreasing in h (so the whole is decreasing).
+/// part is decreasing in h (so the whole is decreasing, every
+/// non-carbonate part being decreasing too). Newton steps are taken in h
+/// with relative tolerances and bisection in ln h, and the ends of the pH
+/// range are evaluated only if the iteration needs them
+/// ([`monotone_newton`]).
 fn ta_root<C>(k: &Constants, pair: &Pair, ta: f64, carbonate: C, guess: f64) -> Result<f64>
 where
     C: Fn(f64) -> (f64, f64),
 {
-    let at_h = |h: f64| {
+    let f = |h: f64| {
         let (c, dc) = carbonate(h);
         let (n, dn) = non_carbonate(k, h);
-        (c + n - ta, h * (dc + dn))
+        (c + n - ta, dc + dn)
     };
-    let f = |x: f64| at_h(x.exp());
-    let lo = -PH_MAX * LN10;
-    let hi = -PH_MIN * LN10;
-    let (f_lo, _) = at_h(H_AT_PH_MAX);
-    let (f_hi, _) = at_h(H_AT_PH_MIN);
-    if f_lo < 0.0 {
-        return Err(pair.no_water(format!(
+    let guess = if guess > 0.0 { guess } else { 1e-8 };
+    let search = Search::new(H_AT_PH_MAX, H_AT_PH_MIN, true);
+    match monotone_newton(f, &search, guess) {
+        Ok(h) => Ok(h),
+        Err(Failure::AtLo(_)) => Err(pair.no_water(format!(
             "the alkalinity is higher than any water with that {} can have below pH {PH_MAX}",
             pair.b.parameter().name()
-        )));
-    }
-    if f_hi > 0.0 {
-        return Err(pair.no_water(format!(
+        ))),
+        Err(Failure::AtHi(_)) => Err(pair.no_water(format!(
             "the alkalinity is lower than any water with that {} can have above pH {PH_MIN}",
             pair.b.parameter().name()
-        )));
+        ))),
+        Err(Failure::NoConvergence(n)) => Err(pair.no_convergence(n)),
     }
-    let guess = if guess.is_finite() {
-        guess
-    } else {
-        -8.0 * LN10
-    };
-    safeguarded_newton(f, lo, f_lo, hi, f_hi, guess)
-        .map(f64::exp)
-        .map_err(|n| pair.no_convergence(n))
 }
 
 fn pick(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
-    // lower_h is the higher pH.
-    let ph_of = |h: f64| -h.log10();
+    // lower_h is the higher pH. The distance of a pH from 8 is
+    // |log10(h / 1e-8)|, which orders as max(h / 1e-8, 1e-8 / h).
+    let from_ph_8 = |h: f64| {
+        let r = h * 1e8;
+        r.max(1.0 / r)
+    };
     match root {
         RootChoice::LowerPh => (higher_h, lower_h),
         RootChoice::HigherPh => (lower_h, higher_h),
         RootChoice::Natural => {
-            if (ph_of(lower_h) - 8.0).abs() < (ph_of(higher_h) - 8.0).abs() {
+            if from_ph_8(lower_h) < from_ph_8(higher_h) {
                 (lower_h, higher_h)
             } else {
                 (higher_h, lower_h)
@@ -502,14 +499,14 @@ fn ta_co3_root(
     root: RootChoice,
     warnings: &mut Vec<Warning>,
 ) -> Result<f64> {
-    let g = |x: f64| {
-        let h = x.exp();
+    // g and dg/dh at h.
+    let g = |h: f64| {
         let (n, dn) = non_carbonate(k, h);
-        (co3 * (h / k.k2e + 2.0) + n - ta, h * (co3 / k.k2e + dn))
+        (co3 * (h / k.k2e + 2.0) + n - ta, co3 / k.k2e + dn)
     };
-    let lo = -PH_MAX * LN10;
-    let hi = -PH_MIN * LN10;
-    // The minimum: dg/dh = CO3/K2 + d(non-carbonate)/dh = 0.
+    let (lo, hi) = (H_AT_PH_MAX, H_AT_PH_MIN);
+    // The minimum: dg/dh = CO3/K2 + d(non-carbonate)/dh = 0, searched in
+    // x = ln h.
     let slope = |x: f64| {
         let h = x.exp();
         co3 / k.k2e + non_carbonate(k, h).1
@@ -517,39 +514,43 @@ fn ta_co3_root(
     // Where hydroxide dominates the non-carbonate part, the minimum is near
     // h = sqrt(KW K2 / CO3); if g is already negative there, that point
     // separates the roots and no search is needed.
-    let x_guess = (0.5 * (k.kw * k.k2e / co3).ln()).clamp(lo, hi);
-    let g_guess = g(x_guess).0;
-    let x_min = if g_guess < 0.0 {
-        x_guess
-    } else if slope(hi) <= 0.0 {
+    let h_guess = (k.kw * k.k2e / co3).sqrt().clamp(lo, hi);
+    let g_guess = g(h_guess).0;
+    let h_min = if g_guess < 0.0 {
+        h_guess
+    } else if g(hi).1 <= 0.0 {
         hi
-    } else if slope(lo) >= 0.0 {
+    } else if g(lo).1 >= 0.0 {
         lo
     } else {
         // Any point where g < 0 separates the two roots, so the minimum is
         // first found loosely (1e-6 in ln h) and refined only if g there is
         // not yet negative (a near-double root).
+        let (x_lo, x_hi) = (-PH_MAX * LN10, -PH_MIN * LN10);
         let mut conv = roots::SimpleConvergency {
             eps: 1e-6,
             max_iter: 200,
         };
-        let x = roots::find_root_brent(lo, hi, slope, &mut conv)
+        let x = roots::find_root_brent(x_lo, x_hi, slope, &mut conv)
             .map_err(|_| pair.no_convergence(200))?;
-        if g(x).0 < 0.0 {
-            x
+        let h = x.exp().clamp(lo, hi);
+        if g(h).0 < 0.0 {
+            h
         } else {
             let mut conv = roots::SimpleConvergency {
                 eps: 1e-14,
                 max_iter: 400,
             };
-            roots::find_root_brent(lo, hi, slope, &mut conv)
+            roots::find_root_brent(x_lo, x_hi, slope, &mut conv)
                 .map_err(|_| pair.no_convergence(400))?
+                .exp()
+                .clamp(lo, hi)
         }
     };
-    let g_min = if x_min == x_guess {
+    let g_min = if h_min == h_guess {
         g_guess
     } else {
-        g(x_min).0
+        g(h_min).0
     };
     if g_min > 0.0 {
         return Err(pair.no_water(format!(
@@ -557,10 +558,9 @@ fn ta_co3_root(
             (g_min + ta) * 1e6
         )));
     }
-    let g_at_h = |h: f64| co3 * (h / k.k2e + 2.0) + non_carbonate(k, h).0 - ta;
-    let g_lo = g_at_h(H_AT_PH_MAX);
-    let g_hi = g_at_h(H_AT_PH_MIN);
-    // Root at lower h (higher pH), between lo and x_min.
+    // Root at lower h (higher pH), between lo and h_min; root at higher h
+    // between h_min and hi. g falls to its minimum and rises again, so each
+    // side is monotone and its far end is evaluated only if needed.
     // First guesses: hydroxide carries the alkalinity at the high-pH root,
     // carbonate at the low-pH one.
     let guess_high = {
@@ -571,11 +571,11 @@ fn ta_co3_root(
         let rest = |h: f64| non_carbonate(k, h).0 - k.kw / h + co3 * h / k.k2e;
         let excess1 = if h0 > 0.0 { excess - rest(h0) } else { 0.0 };
         if excess1 > 0.0 {
-            (k.kw / excess1).ln()
+            k.kw / excess1
         } else if h0 > 0.0 {
-            h0.ln()
+            h0
         } else {
-            0.5 * (lo + x_min)
+            (lo * h_min).sqrt()
         }
     };
     let guess_low = {
@@ -587,52 +587,67 @@ fn ta_co3_root(
             h0
         };
         if h1 > 0.0 {
-            h1.ln()
+            h1
         } else if h0 > 0.0 {
-            h0.ln()
+            h0
         } else {
-            0.5 * (x_min + hi)
+            (h_min * hi).sqrt()
         }
     };
-    // Both roots to about 1e-4 in ln h (enough to report the other one);
-    // the chosen one is then polished to full precision.
+    // Both roots to about 1e-4 relative in h (enough to report the other
+    // one); the chosen one is then polished to full precision.
     const ROUGH: f64 = 1e-2;
-    let high_ph = if g_lo >= 0.0 && x_min > lo {
-        Some(
-            safeguarded_newton_to(g, lo, g_lo, x_min, g_min, guess_high, ROUGH)
-                .map_err(|n| pair.no_convergence(n))?,
-        )
-    } else {
-        None
-    };
-    let low_ph = if g_hi >= 0.0 && x_min < hi {
-        Some(
-            safeguarded_newton_to(g, x_min, g_min, hi, g_hi, guess_low, ROUGH)
-                .map_err(|n| pair.no_convergence(n))?,
-        )
-    } else {
-        None
-    };
-    let polish = |x: f64, on_high_side: bool| -> Result<f64> {
-        let r = if on_high_side {
-            safeguarded_newton(g, lo, g_lo, x_min, g_min, x)
-        } else {
-            safeguarded_newton(g, x_min, g_min, hi, g_hi, x)
+    let high_side = |guess: f64, accept: f64| {
+        let search = Search {
+            at_hi: Some(g_min),
+            accept,
+            ..Search::new(lo, h_min, true)
         };
-        r.map(f64::exp).map_err(|n| pair.no_convergence(n))
+        monotone_newton(g, &search, guess)
     };
-    let (high_ph, low_ph) = (high_ph.map(f64::exp), low_ph.map(f64::exp));
+    let low_side = |guess: f64, accept: f64| {
+        let search = Search {
+            at_lo: Some(g_min),
+            accept,
+            ..Search::new(h_min, hi, false)
+        };
+        monotone_newton(g, &search, guess)
+    };
+    let found = |r: std::result::Result<f64, Failure>| match r {
+        Ok(h) => Ok(Some(h)),
+        Err(Failure::NoConvergence(n)) => Err(pair.no_convergence(n)),
+        // The far end is on the same side as the minimum: no root there.
+        Err(Failure::AtLo(_) | Failure::AtHi(_)) => Ok(None),
+    };
+    let high_ph = if h_min > lo {
+        found(high_side(guess_high, ROUGH))?
+    } else {
+        None
+    };
+    let low_ph = if h_min < hi {
+        found(low_side(guess_low, ROUGH))?
+    } else {
+        None
+    };
+    let polish = |h: f64, on_high_side: bool| -> Result<f64> {
+        let r = if on_high_side {
+            high_side(h, NEWTON_ACCEPT)
+        } else {
+            low_side(h, NEWTON_ACCEPT)
+        };
+        found(r)?.ok_or_else(|| pair.no_convergence(0))
+    };
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
             let (chosen, other) = pick(root, h_low, h_high);
-            let chosen = polish(chosen.ln(), chosen == h_low)?;
+            let chosen = polish(chosen, chosen == h_low)?;
             if (h_high / h_low - 1.0).abs() > 1e-9 {
                 warnings.push(other_root_warning(pair, k, chosen, other));
             }
             Ok(chosen)
         }
-        (Some(h), None) => polish(h.ln(), true),
-        (None, Some(h)) => polish(h.ln(), false),
+        (Some(h), None) => polish(h, true),
+        (None, Some(h)) => polish(h, false),
         (None, None) => Err(pair.no_water(format!(
             "no pH between {PH_MIN} and {PH_MAX} gives that alkalinity with that CO3"
         ))),

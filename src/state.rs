@@ -1,6 +1,6 @@
 //! The complete carbonate state of a sample.
 
-use crate::alkalinity::{carbonate_per_dic, non_carbonate, parts};
+use crate::alkalinity::parts_with_slopes;
 use crate::conditions::Conditions;
 use crate::constants::{Constants, FitsUsed};
 use crate::error::Result;
@@ -161,7 +161,7 @@ pub struct State {
     /// Cautions: fits used outside their range, other roots, approximations.
     pub warnings: Vec<Warning>,
     #[serde(skip)]
-    water_sample: std::sync::Arc<Water>,
+    water_sample: Water,
     #[serde(skip)]
     h: f64,
 }
@@ -270,15 +270,18 @@ impl State {
         )
     }
 
-    /// Builds the state from the solved h and DIC.
+    /// Builds the state from the solved h and DIC of the measured pair
+    /// (`a`, `b`), refusing it as [`implausible`] where its alkalinity is
+    /// beyond any measurement.
     pub(crate) fn build(
         water: &Water,
         k: &Constants,
         h: f64,
         dic: f64,
         warnings: Vec<Warning>,
-    ) -> State {
-        Self::build_fresh_or_saline(water, k, h, dic, warnings, None)
+        (a, b): (&Measured, &Measured),
+    ) -> Result<State> {
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, None, a, b)
     }
 
     /// Builds a fresh-water state with its extras.
@@ -289,10 +292,15 @@ impl State {
         dic: f64,
         warnings: Vec<Warning>,
         extras: FreshExtras,
-    ) -> State {
-        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras))
+        (a, b): (&Measured, &Measured),
+    ) -> Result<State> {
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras), a, b)
     }
 
+    // The two measurements are passed apart from the rest so that the
+    // implausibility error can name them; the state is checked before it is
+    // built, so a large value is never built only to be thrown away.
+    #[allow(clippy::too_many_arguments)]
     fn build_fresh_or_saline(
         water: &Water,
         k: &Constants,
@@ -300,17 +308,22 @@ impl State {
         dic: f64,
         mut warnings: Vec<Warning>,
         extras: Option<FreshExtras>,
-    ) -> State {
+        a: &Measured,
+        b: &Measured,
+    ) -> Result<State> {
         let k12 = k.k1e * k.k2e;
         let d = h * h + k.k1e * h + k12;
-        let co2 = dic * h * h / d;
+        let dic_per_d = dic / d;
+        let co2 = dic_per_d * h * h;
         // Carbon-balance totals, then the free ions and the Ca pairs.
-        let hco3_t = dic * k.k1e * h / d;
-        let co3_t = dic * k12 / d;
+        let hco3_t = dic_per_d * k.k1e * h;
+        let co3_t = dic_per_d * k12;
         let hco3 = hco3_t / (1.0 + k.pair_hco3);
         let co3 = co3_t / (1.0 + k.pair_co3);
-        let p = parts(k, h, dic);
+        let s = parts_with_slopes(k, h, dic);
+        let p = s.parts;
         let ta = p.total();
+        implausible(ta * 1e6, a, b)?;
         let fco2 = co2 / k.k0;
         let pco2 = fco2 / k.fugacity_factor;
         let xco2 = pco2 / (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
@@ -320,18 +333,23 @@ impl State {
         let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite);
 
         // Revelle factor at constant TA (and pairs): dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
-        let (c, dc) = carbonate_per_dic(k, h);
-        let (_, dn) = non_carbonate(k, h);
-        let dh_ddic = -c / (dic * dc + dn);
+        let dh_ddic = -s.carbonate_per_dic / (dic * s.d_carbonate_per_dic + s.d_non_carbonate);
         let revelle = 1.0 + dic * (k.k1e * h + 2.0 * k12) / (h * d) * dh_ddic;
 
         let rho = k.density_kg_m3;
-        let mut all = k.warnings.clone();
-        all.append(&mut warnings);
+        // The constants' warnings first; no allocation when there are none.
+        let all = if k.warnings.is_empty() {
+            warnings
+        } else {
+            let mut all = Vec::with_capacity(k.warnings.len() + warnings.len());
+            all.extend_from_slice(&k.warnings);
+            all.append(&mut warnings);
+            all
+        };
         let u = 1e6;
         let fresh = extras.is_some();
         let fresh_only = |v: f64| fresh.then_some(v);
-        State {
+        Ok(State {
             temperature_c: k.conditions.temperature_c(),
             salinity: k.conditions.salinity(),
             pressure_dbar: k.conditions.pressure_dbar(),
@@ -381,11 +399,11 @@ impl State {
             dic_mg_l_c: dic * rho * C_G_MOL,
             free_co2_mg_l: co2 * rho * CO2_G_MOL,
             density_kg_m3: rho,
-            constants: k.fits_used.clone(),
+            constants: k.fits_used,
             warnings: all,
-            water_sample: std::sync::Arc::new(water.clone()),
+            water_sample: water.clone(),
             h,
-        }
+        })
     }
 }
 
@@ -461,26 +479,24 @@ impl Water {
             return crate::fresh::solve_fresh(self, a, b, options);
         }
         let sol = solve(k, &a, &b, options)?;
-        State::build(self, k, sol.h, sol.dic, sol.warnings).plausible(&a, &b)
+        State::build(self, k, sol.h, sol.dic, sol.warnings, (&a, &b))
     }
 }
 
-impl State {
-    /// A state whose alkalinity is beyond what any measurement may be
-    /// (for example DIC with a pH near 0, which needs an alkalinity of
-    /// about −1 mol/kg) fits no real water.
-    pub(crate) fn plausible(self, a: &Measured, b: &Measured) -> Result<State> {
-        let (_, max) = Parameter::Alkalinity.accepted_range();
-        let v = self.alkalinity_umol_kg;
-        if v.is_finite() && v.abs() <= max {
-            return Ok(self);
-        }
-        Err(crate::Error::NoWaterFits {
-            first: a.parameter().name(),
-            first_value: a.describe(),
-            second: b.parameter().name(),
-            second_value: b.describe(),
-            reason: format!("the alkalinity would be {v:.3e} µmol/kg, beyond ±{max} µmol/kg"),
-        })
+/// A state whose alkalinity (µmol/kg) is beyond what any measurement may be
+/// (for example DIC with a pH near 0, which needs an alkalinity of about
+/// −1 mol/kg) fits no real water.
+fn implausible(alkalinity_umol_kg: f64, a: &Measured, b: &Measured) -> Result<()> {
+    let (_, max) = Parameter::Alkalinity.accepted_range();
+    let v = alkalinity_umol_kg;
+    if v.is_finite() && v.abs() <= max {
+        return Ok(());
     }
+    Err(crate::Error::NoWaterFits {
+        first: a.parameter().name(),
+        first_value: a.describe(),
+        second: b.parameter().name(),
+        second_value: b.describe(),
+        reason: format!("the alkalinity would be {v:.3e} µmol/kg, beyond ±{max} µmol/kg"),
+    })
 }

@@ -152,7 +152,7 @@ fn k1_over_k2_is_at_least_1000() {
                 .unwrap()
                 .constants()
                 .unwrap();
-            check(k.fits_used.carbonic, t, s, k.k1 / k.k2);
+            check(k.fits_used.carbonic.as_str(), t, s, k.k1 / k.k2);
         }
     }
 }

@@ -35,6 +35,7 @@ pub mod fluoride;
 pub mod fresh;
 pub mod gas;
 pub mod minerals;
+mod names;
 pub mod nutrients;
 pub mod pressure;
 mod range;
@@ -45,6 +46,7 @@ pub mod water;
 pub use boron::BoronTotalFit;
 pub use carbonic::CarbonicFit;
 pub use fluoride::FluorideFit;
+pub use names::FitName;
 pub use range::FitRange;
 
 use crate::conditions::Conditions;
@@ -179,48 +181,57 @@ impl Fits {
 }
 
 /// The names of the fits and methods behind a result, by constant.
-/// Serialised as the `constants` object of the JSON output.
-#[derive(Debug, Clone, PartialEq, Eq, Serialize)]
+/// Serialised as the `constants` object of the JSON output, each value the
+/// author-year name of its [`FitName`].
+///
+/// ```
+/// use travertine::{Conditions, Water};
+/// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+/// assert_eq!(k.fits_used.carbonic, "lueker2000");
+/// assert_eq!(k.fits_used.calcium.as_str(), "riley-tongudai1967");
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 #[non_exhaustive]
 pub struct FitsUsed {
     /// CO2 solubility.
-    pub k0: &'static str,
+    pub k0: FitName,
     /// CO2 fugacity coefficient.
-    pub fugacity: &'static str,
+    pub fugacity: FitName,
     /// Water vapour pressure.
-    pub vapour_pressure: &'static str,
+    pub vapour_pressure: FitName,
     /// K1 and K2 of carbonic acid.
-    pub carbonic: &'static str,
+    pub carbonic: FitName,
     /// KB of boric acid.
-    pub boric: &'static str,
+    pub boric: FitName,
     /// Total boron.
-    pub boron_total: &'static str,
+    pub boron_total: FitName,
     /// KW of water.
-    pub water: &'static str,
+    pub water: FitName,
     /// KS of bisulfate.
-    pub bisulfate: &'static str,
+    pub bisulfate: FitName,
     /// Total sulfate.
-    pub sulfate_total: &'static str,
+    pub sulfate_total: FitName,
     /// KF of hydrogen fluoride.
-    pub fluoride: &'static str,
+    pub fluoride: FitName,
     /// Total fluoride.
-    pub fluoride_total: &'static str,
+    pub fluoride_total: FitName,
     /// Phosphoric and silicic acids.
-    pub phosphate_silicate: &'static str,
+    pub phosphate_silicate: FitName,
     /// Ammonium.
-    pub ammonium: &'static str,
+    pub ammonium: FitName,
     /// Hydrogen sulfide.
-    pub sulfide: &'static str,
+    pub sulfide: FitName,
     /// Calcite and aragonite solubility.
-    pub minerals: &'static str,
+    pub minerals: FitName,
     /// Calcium.
-    pub calcium: &'static str,
+    pub calcium: FitName,
     /// Pressure corrections.
-    pub pressure: &'static str,
+    pub pressure: FitName,
     /// The NBS scale.
-    pub nbs_scale: &'static str,
+    pub nbs_scale: FitName,
     /// Density for per-litre units.
-    pub density: &'static str,
+    pub density: FitName,
 }
 
 /// Totals of the acid systems and calcium, mol/kg-soln.
@@ -557,46 +568,39 @@ impl Constants {
             vapour_pressure_atm,
             density_kg_m3: density,
             fits_used: FitsUsed {
-                k0: "weiss1974",
-                fugacity: "weiss1974",
-                vapour_pressure: "weiss-price1980",
-                carbonic: carbonic.name(),
-                boric: "dickson1990",
-                boron_total: if composition.boron_given() {
-                    "measured"
-                } else {
-                    fits.boron_total.name()
-                },
-                water: "millero1995",
-                bisulfate: fits.bisulfate.name(),
-                sulfate_total: if composition.sulfate_given() {
-                    "measured"
-                } else {
-                    "morris-riley1966"
-                },
-                fluoride: fits.fluoride.name(),
-                fluoride_total: if composition.fluoride_given() {
-                    "measured"
-                } else {
-                    "riley1965"
-                },
-                phosphate_silicate: "millero1995",
-                ammonium: "johansson-wedborg1980",
-                sulfide: "millero1988",
-                minerals: "mucci1983",
-                calcium: if composition.calcium_given() {
-                    "measured"
-                } else {
-                    "riley-tongudai1967"
-                },
-                pressure: "millero1995",
-                nbs_scale: "takahashi1982",
-                density: "millero-poisson1981",
+                k0: FitName::Weiss1974,
+                fugacity: FitName::Weiss1974,
+                vapour_pressure: FitName::WeissPrice1980,
+                carbonic: carbonic.into(),
+                boric: FitName::Dickson1990,
+                boron_total: measured_or(composition.boron_given(), fits.boron_total.into()),
+                water: FitName::Millero1995,
+                bisulfate: fits.bisulfate.into(),
+                sulfate_total: measured_or(composition.sulfate_given(), FitName::MorrisRiley1966),
+                fluoride: fits.fluoride.into(),
+                fluoride_total: measured_or(composition.fluoride_given(), FitName::Riley1965),
+                phosphate_silicate: FitName::Millero1995,
+                ammonium: FitName::JohanssonWedborg1980,
+                sulfide: FitName::Millero1988,
+                minerals: FitName::Mucci1983,
+                calcium: measured_or(composition.calcium_given(), FitName::RileyTongudai1967),
+                pressure: FitName::Millero1995,
+                nbs_scale: FitName::Takahashi1982,
+                density: FitName::MilleroPoisson1981,
             },
             warnings,
             gammas: None,
             k_cahco3: 0.0,
             k_caco3: 0.0,
         })
+    }
+}
+
+/// `measured` where the total was given, else the fit that supplies it.
+fn measured_or(given: bool, fit: FitName) -> FitName {
+    if given {
+        FitName::Measured
+    } else {
+        fit
     }
 }

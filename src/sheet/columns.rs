@@ -138,7 +138,7 @@ computed! {
     Hco3MgL => "hco3_mg_l", |s| n(mg_l(s, s.hco3_umol_kg, HCO3_G_MOL));
     Co3MgL => "co3_mg_l", |s| n(mg_l(s, s.co3_umol_kg, CO3_G_MOL));
     Density => "density_kg_m3", |s| n(s.density_kg_m3);
-    CarbonicFitUsed => "carbonic_fit", |s| Value::Text(s.constants.carbonic);
+    CarbonicFitUsed => "carbonic_fit", |s| Value::Text(s.constants.carbonic.as_str());
 }
 
 impl Computed {
