@@ -28,7 +28,7 @@ use crate::scales::PhScale;
 use crate::solve::{to_known, Known, Pair, RootChoice, SolveOptions};
 use crate::state::{FreshExtras, State};
 use crate::units::CACO3_G_MOL;
-use crate::warning::Warning;
+use crate::warning::{Warning, Warnings};
 use crate::water::Water;
 use serde::Serialize;
 
@@ -653,7 +653,7 @@ pub(crate) fn solve_fresh(
     // conversion is repeated until the ionic strength it used is the final one.
     for _ in 0..MAX_OUTER {
         let k_conv = th.constants(water, i_guess, 0.0);
-        let mut warnings = Vec::new();
+        let mut warnings = Warnings::new();
         let mut ka = to_known(&k_conv, &a, &mut warnings);
         let mut kb = to_known(&k_conv, &b, &mut warnings);
         let (mut ma, mut mb) = (&a, &b);
@@ -715,7 +715,7 @@ pub(crate) fn solve_fresh(
     })
 }
 
-fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Vec<Warning>) {
+fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Warnings) {
     let f = water.fresh_options();
     let unused = [
         (
@@ -773,7 +773,7 @@ fn extras(
     dic: f64,
     r: IonicStrengthRoute,
     imbalance: f64,
-    warnings: &mut Vec<Warning>,
+    warnings: &mut Warnings,
 ) -> FreshExtras {
     let ca_t = k.totals.calcium_mol_kg;
     let mut e = FreshExtras {

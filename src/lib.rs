@@ -62,5 +62,5 @@ pub use measured::{Measured, Parameter};
 pub use scales::PhScale;
 pub use solve::{RootChoice, SolveOptions};
 pub use state::State;
-pub use warning::Warning;
+pub use warning::{Warning, Warnings};
 pub use water::{Medium, Water};

@@ -21,7 +21,7 @@ use crate::error::{Error, Result};
 use crate::measured::{Measured, Parameter, Value};
 use crate::root::{monotone_newton, Failure, Search, NEWTON_ACCEPT};
 use crate::scales::PhScale;
-use crate::warning::Warning;
+use crate::warning::{Warning, Warnings};
 
 /// Which root to return for the pairs that have two.
 ///
@@ -91,7 +91,7 @@ impl SolveOptions {
 pub(crate) struct Solution {
     pub h: f64,
     pub dic: f64,
-    pub warnings: Vec<Warning>,
+    pub warnings: Warnings,
 }
 
 /// Lowest working-scale pH searched.
@@ -127,7 +127,7 @@ impl Known {
     }
 }
 
-pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Vec<Warning>) -> Known {
+pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> Known {
     let rho = k.density_kg_m3;
     match (m.parameter(), m.value()) {
         (_, Value::Ph(ph, scale)) => {
@@ -245,7 +245,7 @@ pub(crate) fn solve(
     options: &SolveOptions,
 ) -> Result<Solution> {
     check_pair(a, b)?;
-    let mut warnings = Vec::new();
+    let mut warnings = Warnings::new();
     let mut ka = to_known(k, a, &mut warnings);
     let mut kb = to_known(k, b, &mut warnings);
     let (mut ma, mut mb) = (a, b);
@@ -468,7 +468,7 @@ fn dic_hco3_root(
     dic: f64,
     hco3: f64,
     root: RootChoice,
-    warnings: &mut Vec<Warning>,
+    warnings: &mut Warnings,
 ) -> Result<f64> {
     let c = hco3 / dic;
     let q = 1.0 - c;
@@ -497,7 +497,7 @@ fn ta_co3_root(
     ta: f64,
     co3: f64,
     root: RootChoice,
-    warnings: &mut Vec<Warning>,
+    warnings: &mut Warnings,
 ) -> Result<f64> {
     // g and dg/dh at h.
     let g = |h: f64| {

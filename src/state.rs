@@ -9,7 +9,7 @@ use crate::measured::{Measured, Parameter};
 use crate::scales::PhScale;
 use crate::solve::{solve, SolveOptions};
 use crate::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
-use crate::warning::Warning;
+use crate::warning::Warnings;
 use crate::water::{Medium, Water};
 use serde::Serialize;
 
@@ -159,7 +159,7 @@ pub struct State {
     /// The fit used for each constant.
     pub constants: FitsUsed,
     /// Cautions: fits used outside their range, other roots, approximations.
-    pub warnings: Vec<Warning>,
+    pub warnings: Warnings,
     #[serde(skip)]
     water_sample: Water,
     #[serde(skip)]
@@ -278,7 +278,7 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        warnings: Vec<Warning>,
+        warnings: Warnings,
         (a, b): (&Measured, &Measured),
     ) -> Result<State> {
         Self::build_fresh_or_saline(water, k, h, dic, warnings, None, a, b)
@@ -290,7 +290,7 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        warnings: Vec<Warning>,
+        warnings: Warnings,
         extras: FreshExtras,
         (a, b): (&Measured, &Measured),
     ) -> Result<State> {
@@ -306,7 +306,7 @@ impl State {
         k: &Constants,
         h: f64,
         dic: f64,
-        mut warnings: Vec<Warning>,
+        warnings: Warnings,
         extras: Option<FreshExtras>,
         a: &Measured,
         b: &Measured,
@@ -337,15 +337,8 @@ impl State {
         let revelle = 1.0 + dic * (k.k1e * h + 2.0 * k12) / (h * d) * dh_ddic;
 
         let rho = k.density_kg_m3;
-        // The constants' warnings first; no allocation when there are none.
-        let all = if k.warnings.is_empty() {
-            warnings
-        } else {
-            let mut all = Vec::with_capacity(k.warnings.len() + warnings.len());
-            all.extend_from_slice(&k.warnings);
-            all.append(&mut warnings);
-            all
-        };
+        // The constants' warnings first.
+        let all = warnings.after(&k.warnings);
         let u = 1e6;
         let fresh = extras.is_some();
         let fresh_only = |v: f64| fresh.then_some(v);

@@ -3,7 +3,9 @@
 
 use crate::constants::FitRange;
 use serde::{Serialize, Serializer};
+use smallvec::SmallVec;
 use std::fmt;
+use std::ops::Deref;
 
 /// A caution about a result: a fit used outside its published range, a
 /// second root, an approximation.
@@ -106,5 +108,96 @@ impl fmt::Display for Warning {
 impl Serialize for Warning {
     fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
         serializer.collect_str(self)
+    }
+}
+
+/// The cautions of a result, in order. Most results carry none or one, so
+/// the first is held in place and only a second one allocates: a solve
+/// that raises a caution (a second root, a fit used out of range) stays
+/// free of heap allocation. Reads as a slice of [`Warning`]; serialised as
+/// a JSON array of messages.
+///
+/// ```
+/// use travertine::{Conditions, Measured, Water};
+/// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+///     .solve(Measured::dic_umol_kg(2000.0)?, Measured::hco3_umol_kg(1777.7)?)?;
+/// assert_eq!(s.warnings.len(), 1); // the other root
+/// assert!(s.warnings.iter().any(|w| w.to_string().contains("also fits")));
+/// let json = serde_json::to_value(&s.warnings).unwrap();
+/// assert!(json[0].as_str().unwrap().contains("also fits"));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Warnings(SmallVec<[Warning; 1]>);
+
+impl Warnings {
+    /// No cautions.
+    ///
+    /// ```
+    /// # use travertine::warning::Warnings;
+    /// assert!(Warnings::new().is_empty());
+    /// ```
+    pub fn new() -> Self {
+        Warnings(SmallVec::new())
+    }
+
+    /// Adds a caution at the end.
+    pub(crate) fn push(&mut self, w: Warning) {
+        self.0.push(w);
+    }
+
+    /// These cautions after `first`, in order.
+    pub(crate) fn after(self, first: &[Warning]) -> Self {
+        if first.is_empty() {
+            return self;
+        }
+        let mut all = SmallVec::with_capacity(first.len() + self.0.len());
+        all.extend(first.iter().cloned());
+        all.extend(self.0);
+        Warnings(all)
+    }
+}
+
+impl Deref for Warnings {
+    type Target = [Warning];
+    fn deref(&self) -> &[Warning] {
+        &self.0
+    }
+}
+
+impl<'a> IntoIterator for &'a Warnings {
+    type Item = &'a Warning;
+    type IntoIter = std::slice::Iter<'a, Warning>;
+    fn into_iter(self) -> Self::IntoIter {
+        self.0.iter()
+    }
+}
+
+impl From<Warnings> for Vec<Warning> {
+    fn from(w: Warnings) -> Self {
+        w.0.into_vec()
+    }
+}
+
+impl Serialize for Warnings {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        self.0.as_slice().serialize(serializer)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn warnings_keep_their_order_past_the_inline_one() {
+        let mut w = Warnings::new();
+        w.push(Warning::Note("third"));
+        w.push(Warning::Note("fourth"));
+        let all = w.after(&[Warning::Note("first"), Warning::Note("second")]);
+        let text: Vec<String> = all.iter().map(|w| w.to_string()).collect();
+        assert_eq!(text, ["first", "second", "third", "fourth"]);
+        assert_eq!(Vec::from(all).len(), 4);
+        assert!(Warnings::new().after(&[]).is_empty());
     }
 }
