@@ -161,9 +161,12 @@ where
         // from it by O(d³), below the O(d²) error of the Newton step itself,
         // so convergence stays quadratic at the cost of a division instead
         // of an exponential.
-        let d = fx / (dfx * x);
+        // With s = x df/dx: d = f/s and x (2 − d)/(2 + d) = x (2s − f)/(2s + f),
+        // so the new point waits on one division, not two.
+        let slope = dfx * x;
+        let d = fx / slope;
         let xn = if d.abs() < 0.5 {
-            x * (2.0 - d) / (2.0 + d)
+            x * (2.0 * slope - fx) / (2.0 * slope + fx)
         } else {
             x * (-d).exp()
         };

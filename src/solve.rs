@@ -563,13 +563,19 @@ fn ta_co3_root(
     // side is monotone and its far end is evaluated only if needed.
     // First guesses: hydroxide carries the alkalinity at the high-pH root,
     // carbonate at the low-pH one.
+    // The corrections take only the borate and water parts at the first
+    // estimate, a few divisions against a full evaluation.
+    let borate = |h: f64| k.totals.boron_mol_kg * k.kb / (k.kb + h);
     let guess_high = {
         // TA − 2 CO3 ≈ OH + borate + CO3 h/K2 there: the hydroxide estimate,
-        // then one correction for everything else at that h.
+        // then one correction for the borate and carbonate at that h.
         let excess = ta - 2.0 * co3;
         let h0 = if excess > 0.0 { k.kw / excess } else { 0.0 };
-        let rest = |h: f64| non_carbonate(k, h).0 - k.kw / h + co3 * h / k.k2e;
-        let excess1 = if h0 > 0.0 { excess - rest(h0) } else { 0.0 };
+        let excess1 = if h0 > 0.0 {
+            excess - borate(h0) - co3 * h0 / k.k2e
+        } else {
+            0.0
+        };
         if excess1 > 0.0 {
             k.kw / excess1
         } else if h0 > 0.0 {
@@ -579,20 +585,17 @@ fn ta_co3_root(
         }
     };
     let guess_low = {
+        // Two corrections for the borate and hydroxide: h = K2 (TA′/CO3 − 2),
+        // a fixed-point step that contracts fast where carbonate carries
+        // the alkalinity.
+        let step = |h: f64| k.k2e * ((ta - borate(h) - k.kw / h) / co3 - 2.0);
         let h0 = k.k2e * (ta / co3 - 2.0);
-        // One correction for the non-carbonate alkalinity at that h.
-        let h1 = if h0 > 0.0 {
-            k.k2e * ((ta - non_carbonate(k, h0).0) / co3 - 2.0)
-        } else {
-            h0
-        };
-        if h1 > 0.0 {
-            h1
-        } else if h0 > 0.0 {
-            h0
-        } else {
-            (h_min * hi).sqrt()
-        }
+        let h1 = if h0 > 0.0 { step(h0) } else { h0 };
+        let h2 = if h1 > 0.0 { step(h1) } else { h1 };
+        [h2, h1, h0]
+            .into_iter()
+            .find(|h| *h > 0.0)
+            .unwrap_or((h_min * hi).sqrt())
     };
     // Both roots to about 1e-4 relative in h (enough to report the other
     // one); the chosen one is then polished to full precision.
