@@ -455,7 +455,7 @@ fn other_root_warning(pair: &Pair, k: &Constants, chosen: f64, other: f64) -> Wa
     Warning::OtherRoot {
         first: pair.a.parameter().name(),
         second: pair.b.parameter().name(),
-        ph: -other.log10(),
+        ph: -crate::numeric::log10(other),
         scale: k.working_scale.name(),
         higher: other < chosen,
     }

@@ -15,8 +15,6 @@
 
 use serde::Deserialize;
 use std::f64::consts::LN_10;
-use std::fmt::Write as _;
-use std::path::PathBuf;
 use travertine::constants::{
     ammonia, boron, carbonic, fluoride, gas, minerals, nutrients, pressure, sulfate, sulfide,
     water, BoronTotalFit, CarbonicFit, Constants, Fits, FluorideFit,
@@ -25,130 +23,8 @@ use travertine::units::Amount;
 use travertine::water::Composition;
 use travertine::{Conditions, Measured, PhScale, Water};
 
-/// The provenances a row may carry.
-const PROVENANCES: [&str; 3] = ["published", "memory", "computed"];
-
-/// A table in `tables/`, read with serde. Rows that do not parse are
-/// returned as errors with their line, so that they fail rather than vanish.
-fn read_table<T: for<'de> Deserialize<'de>>(name: &str) -> Vec<Result<T, String>> {
-    let path: PathBuf = [env!("CARGO_MANIFEST_DIR"), "tables", name]
-        .iter()
-        .collect();
-    let mut reader = csv::Reader::from_path(&path)
-        .unwrap_or_else(|e| panic!("cannot open {}: {e}", path.display()));
-    reader
-        .deserialize()
-        .enumerate()
-        .map(|(i, r)| r.map_err(|e| format!("{name} data row {}: cannot read: {e}", i + 1)))
-        .collect()
-}
-
-/// A tolerance: absolute (plain number) or relative (number followed by `%`).
-#[derive(Debug, Clone, Copy)]
-enum Tolerance {
-    Absolute(f64),
-    Relative(f64),
-}
-
-impl Tolerance {
-    fn parse(text: &str) -> Result<Self, String> {
-        let t = text.trim();
-        let (number, relative) = match t.strip_suffix('%') {
-            Some(n) => (n.trim(), true),
-            None => (t, false),
-        };
-        let x: f64 = number
-            .parse()
-            .map_err(|_| format!("tolerance {text:?} is not a number or a percentage"))?;
-        if !x.is_finite() || x < 0.0 {
-            return Err(format!(
-                "tolerance {text:?} must be finite and not negative"
-            ));
-        }
-        Ok(if relative {
-            Tolerance::Relative(x / 100.0)
-        } else {
-            Tolerance::Absolute(x)
-        })
-    }
-
-    /// The allowed absolute difference around `expected`.
-    fn allowed(self, expected: f64) -> f64 {
-        match self {
-            Tolerance::Absolute(a) => a,
-            Tolerance::Relative(r) => r * expected.abs(),
-        }
-    }
-}
-
-/// The outcome of one row: how much of its tolerance it used.
-struct Checked {
-    label: String,
-    expected: f64,
-    actual: f64,
-    allowed: f64,
-}
-
-impl Checked {
-    fn used(&self) -> f64 {
-        let d = (self.actual - self.expected).abs();
-        if self.allowed > 0.0 {
-            d / self.allowed
-        } else if d == 0.0 {
-            0.0
-        } else {
-            f64::INFINITY
-        }
-    }
-    fn passes(&self) -> bool {
-        // NaN fails: the comparison is false.
-        (self.actual - self.expected).abs() <= self.allowed
-    }
-    fn line(&self) -> String {
-        format!(
-            "{}\n      expected {:<16} actual {:<22} |diff| {:.3e}  allowed {:.3e}",
-            self.label,
-            self.expected,
-            self.actual,
-            (self.actual - self.expected).abs(),
-            self.allowed
-        )
-    }
-}
-
-/// Prints the rows that used most of their tolerance, then fails with every
-/// failure if there is any.
-fn finish(table: &str, rows_read: usize, checked: &[Checked], failures: &[String]) {
-    let mut ranked: Vec<&Checked> = checked.iter().filter(|c| c.passes()).collect();
-    ranked.sort_by(|a, b| b.used().total_cmp(&a.used()));
-    println!("{table}: {rows_read} rows; closest to their tolerance:");
-    for c in ranked.iter().take(8) {
-        println!("  {:5.1} % of tolerance  {}", 100.0 * c.used(), c.line());
-    }
-    if !failures.is_empty() {
-        let mut msg = format!(
-            "{} of {rows_read} rows of {table} failed:\n",
-            failures.len()
-        );
-        for f in failures {
-            let _ = writeln!(msg, "  - {f}");
-        }
-        panic!("{msg}");
-    }
-}
-
-fn check_source_and_provenance(source: &str, provenance: &str) -> Result<(), String> {
-    if source.trim().is_empty() {
-        return Err("the source is empty".to_string());
-    }
-    if !PROVENANCES.contains(&provenance.trim()) {
-        return Err(format!(
-            "provenance {provenance:?} is not one of {}",
-            PROVENANCES.join(", ")
-        ));
-    }
-    Ok(())
-}
+mod common;
+use common::{check_source_and_provenance, check_table, Checked, Tolerance};
 
 // ---------------------------------------------------------------------------
 // tables/check_values.csv
@@ -557,28 +433,7 @@ fn check_row(row: &CheckRow) -> Result<Checked, String> {
 
 #[test]
 fn check_values_table() {
-    let rows = read_table::<CheckRow>("check_values.csv");
-    assert!(
-        !rows.is_empty(),
-        "tables/check_values.csv gave zero rows: nothing was checked"
-    );
-    let mut checked = Vec::new();
-    let mut failures = Vec::new();
-    for (i, row) in rows.iter().enumerate() {
-        let row = match row {
-            Ok(r) => r,
-            Err(e) => {
-                failures.push(e.clone());
-                continue;
-            }
-        };
-        match check_row(row) {
-            Ok(c) if c.passes() => checked.push(c),
-            Ok(c) => failures.push(format!("data row {}: {}", i + 1, c.line())),
-            Err(e) => failures.push(format!("data row {}: {}: {e}", i + 1, row.label())),
-        }
-    }
-    finish("tables/check_values.csv", rows.len(), &checked, &failures);
+    check_table("check_values.csv", CheckRow::label, check_row);
 }
 
 /// A typo in a row must fail, never skip: the dispatcher refuses unknown
@@ -686,51 +541,30 @@ fn worked_saline_table() {
 
     let json = serde_json::to_value(&state).expect("the state serialises");
     let object = json.as_object().expect("the state is a JSON object");
-    let rows = read_table::<WorkedRow>("worked_saline.csv");
-    assert!(
-        !rows.is_empty(),
-        "tables/worked_saline.csv gave zero rows: nothing was checked"
-    );
-    let mut checked = Vec::new();
-    let mut failures = Vec::new();
-    let mut seen = Vec::new();
-    for (i, row) in rows.iter().enumerate() {
-        let row = match row {
-            Ok(r) => r,
-            Err(e) => {
-                failures.push(e.clone());
-                continue;
+    let mut seen: Vec<String> = Vec::new();
+    check_table(
+        "worked_saline.csv",
+        |row: &WorkedRow| row.key.clone(),
+        |row| {
+            if seen.contains(&row.key) {
+                return Err(format!("key {:?} is listed twice", row.key));
             }
-        };
-        let result = check_source_and_provenance(&row.source, &row.provenance)
-            .and_then(|()| Tolerance::parse(&row.tolerance))
-            .and_then(|tol| {
-                let actual = object
-                    .get(&row.key)
-                    .ok_or_else(|| format!("key {:?} is not in the JSON output", row.key))?
-                    .as_f64()
-                    .ok_or_else(|| format!("key {:?} is not a number in the JSON", row.key))?;
-                Ok(Checked {
-                    label: format!("{} ({})", row.key, row.provenance),
-                    expected: row.value,
-                    actual,
-                    allowed: tol.allowed(row.value),
-                })
-            });
-        match result {
-            Ok(c) if c.passes() => checked.push(c),
-            Ok(c) => failures.push(format!("data row {}: {}", i + 1, c.line())),
-            Err(e) => failures.push(format!("data row {}: {}: {e}", i + 1, row.key)),
-        }
-        if seen.contains(&row.key) {
-            failures.push(format!(
-                "data row {}: key {:?} is listed twice",
-                i + 1,
-                row.key
-            ));
-        }
-        seen.push(row.key.clone());
-    }
+            seen.push(row.key.clone());
+            check_source_and_provenance(&row.source, &row.provenance)?;
+            let tol = Tolerance::parse(&row.tolerance)?;
+            let actual = object
+                .get(&row.key)
+                .ok_or_else(|| format!("key {:?} is not in the JSON output", row.key))?
+                .as_f64()
+                .ok_or_else(|| format!("key {:?} is not a number in the JSON", row.key))?;
+            Ok(Checked {
+                label: format!("{} ({})", row.key, row.provenance),
+                expected: row.value,
+                actual,
+                allowed: tol.allowed(row.value),
+            })
+        },
+    );
     let uncovered: Vec<&String> = object
         .iter()
         .filter(|(k, v)| v.is_number() && !seen.contains(k))
@@ -739,7 +573,6 @@ fn worked_saline_table() {
     if !uncovered.is_empty() {
         println!("numeric JSON keys not yet in tables/worked_saline.csv: {uncovered:?}");
     }
-    finish("tables/worked_saline.csv", rows.len(), &checked, &failures);
 }
 
 /// The worked case with Uppström (1974) boron: equations.md §13 gives

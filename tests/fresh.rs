@@ -16,7 +16,6 @@
 use serde::Deserialize;
 use std::f64::consts::LN_10;
 use std::fmt::Write as _;
-use std::path::PathBuf;
 use travertine::activity::{self, ActivityModel, Gammas};
 use travertine::constants::{fluoride, fresh, minerals, sulfate, BoronTotalFit, Constants};
 use travertine::fresh::IonicStrengthRoute;
@@ -24,8 +23,8 @@ use travertine::units::Amount;
 use travertine::water::Composition;
 use travertine::{Conditions, Measured, State, Water};
 
-/// The provenances a row may carry.
-const PROVENANCES: [&str; 3] = ["published", "memory", "computed"];
+mod common;
+use common::{check_source_and_provenance, check_table, Checked, Tolerance};
 
 // ---------------------------------------------------------------------------
 // Small helpers
@@ -83,45 +82,6 @@ impl Row {
             self.constant, self.fit, self.quantity, self.provenance
         )
     }
-}
-
-fn read_rows() -> Vec<Result<Row, String>> {
-    let path: PathBuf = [
-        env!("CARGO_MANIFEST_DIR"),
-        "tables",
-        "fresh_check_values.csv",
-    ]
-    .iter()
-    .collect();
-    let mut reader = csv::Reader::from_path(&path)
-        .unwrap_or_else(|e| panic!("cannot open {}: {e}", path.display()));
-    reader
-        .deserialize()
-        .enumerate()
-        .map(|(i, r)| r.map_err(|e| format!("data row {}: cannot read: {e}", i + 1)))
-        .collect()
-}
-
-/// The allowed absolute difference: a plain number, or a percentage of the value.
-fn allowed(text: &str, expected: f64) -> Result<f64, String> {
-    let t = text.trim();
-    let (number, relative) = match t.strip_suffix('%') {
-        Some(n) => (n.trim(), true),
-        None => (t, false),
-    };
-    let x: f64 = number
-        .parse()
-        .map_err(|_| format!("tolerance {text:?} is not a number or a percentage"))?;
-    if !x.is_finite() || x < 0.0 {
-        return Err(format!(
-            "tolerance {text:?} must be finite and not negative"
-        ));
-    }
-    Ok(if relative {
-        x / 100.0 * expected.abs()
-    } else {
-        x
-    })
 }
 
 /// The parameters of a row: charge, ionic strength, Debye–Hückel A.
@@ -339,75 +299,21 @@ fn evaluate(row: &Row) -> Result<f64, String> {
     }
 }
 
-/// Checks one row: Ok((expected, actual, allowed)) or why it cannot be checked.
-fn check_row(row: &Row) -> Result<(f64, f64, f64), String> {
-    if row.source.trim().is_empty() {
-        return Err("the source is empty".to_string());
-    }
-    if !PROVENANCES.contains(&row.provenance.trim()) {
-        return Err(format!(
-            "provenance {:?} is not one of {}",
-            row.provenance,
-            PROVENANCES.join(", ")
-        ));
-    }
-    let tol = allowed(&row.tolerance, row.value)?;
-    Ok((row.value, evaluate(row)?, tol))
+/// Checks one row, or says why it cannot be checked.
+fn check_row(row: &Row) -> Result<Checked, String> {
+    check_source_and_provenance(&row.source, &row.provenance)?;
+    let tolerance = Tolerance::parse(&row.tolerance)?;
+    Ok(Checked {
+        label: format!("{} ({})", row.label(), row.provenance),
+        expected: row.value,
+        actual: evaluate(row)?,
+        allowed: tolerance.allowed(row.value),
+    })
 }
 
 #[test]
 fn fresh_check_values_table() {
-    let rows = read_rows();
-    assert!(
-        !rows.is_empty(),
-        "tables/fresh_check_values.csv gave zero rows: nothing was checked"
-    );
-    let mut failures = Vec::new();
-    let mut passed = Vec::new();
-    for (n, row) in rows.iter().enumerate() {
-        let row = match row {
-            Ok(r) => r,
-            Err(e) => {
-                failures.push(e.clone());
-                continue;
-            }
-        };
-        match check_row(row) {
-            // NaN fails: the comparison is false.
-            Ok((e, a, tol)) if (a - e).abs() <= tol => {
-                passed.push(((a - e).abs() / tol.max(1e-300), row.label(), e, a));
-            }
-            Ok((e, a, tol)) => failures.push(format!(
-                "data row {}: {}\n      expected {e} actual {a} |diff| {:.3e} allowed {tol:.3e}",
-                n + 1,
-                row.label(),
-                (a - e).abs()
-            )),
-            Err(why) => failures.push(format!("data row {}: {}: {why}", n + 1, row.label())),
-        }
-    }
-    passed.sort_by(|x, y| y.0.total_cmp(&x.0));
-    println!(
-        "tables/fresh_check_values.csv: {} rows; closest to their tolerance:",
-        rows.len()
-    );
-    for (used, label, e, a) in passed.iter().take(8) {
-        println!(
-            "  {:5.1} % of tolerance  {label}: expected {e}, actual {a}",
-            100.0 * used
-        );
-    }
-    if !failures.is_empty() {
-        let mut msg = format!(
-            "{} of {} rows of tables/fresh_check_values.csv failed:\n",
-            failures.len(),
-            rows.len()
-        );
-        for f in &failures {
-            let _ = writeln!(msg, "  - {f}");
-        }
-        panic!("{msg}");
-    }
+    check_table("fresh_check_values.csv", Row::label, check_row);
 }
 
 /// A typo in a row must fail, never skip.
@@ -425,8 +331,9 @@ fn fresh_check_values_refuse_unknown_rows() {
         source: "Plummer & Busenberg 1982".into(),
         provenance: "published".into(),
     };
-    let (e, a, tol) = check_row(&good).expect("the good row is evaluated");
-    assert!((a - e).abs() <= tol);
+    assert!(check_row(&good)
+        .expect("the good row is evaluated")
+        .passes());
     let bad = [
         Row {
             constant: "k3".into(),

@@ -15,6 +15,8 @@
 //!
 //! pH is on the NBS scale throughout, the working scale of the medium.
 
+mod common;
+use common::{measured_from, two_roots};
 use proptest::prelude::*;
 use travertine::activity::ActivityModel;
 use travertine::fresh::IonicStrengthRoute;
@@ -23,12 +25,6 @@ use travertine::water::Composition;
 use travertine::{
     Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
 };
-
-fn measured_from(state: &State, p: Parameter) -> Measured {
-    state
-        .measured(p)
-        .expect("outputs of a valid state are valid inputs")
-}
 
 /// (name, value, scale): compared within 1e-9 of max(|value|, scale).
 fn outputs(s: &State) -> Vec<(&'static str, f64, f64)> {
@@ -101,12 +97,6 @@ fn mismatch(a: &State, b: &State) -> Option<String> {
         }
     }
     None
-}
-
-fn two_roots(a: Parameter, b: Parameter) -> bool {
-    let mut p = [a, b];
-    p.sort();
-    p == [Parameter::Alkalinity, Parameter::Co3] || p == [Parameter::Dic, Parameter::Hco3]
 }
 
 /// Where the ionic strength comes from.

@@ -6,18 +6,14 @@
 //! within 0.1 pH of each other are skipped for that pair only: there the
 //! problem itself is ill-conditioned (a double root), not the solver.
 
+mod common;
+use common::{measured_from, two_roots};
 use proptest::prelude::*;
 use travertine::units::Amount;
 use travertine::water::Composition;
 use travertine::{
     Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
 };
-
-fn measured_from(state: &State, p: Parameter) -> Measured {
-    state
-        .measured(p)
-        .expect("outputs of a valid state are valid inputs")
-}
 
 fn outputs(s: &State) -> [(&'static str, f64); 14] {
     [
@@ -46,12 +42,6 @@ fn mismatch(a: &State, b: &State) -> Option<String> {
         }
     }
     None
-}
-
-fn two_roots(a: Parameter, b: Parameter) -> bool {
-    let mut p = [a, b];
-    p.sort();
-    p == [Parameter::Alkalinity, Parameter::Co3] || p == [Parameter::Dic, Parameter::Hco3]
 }
 
 #[derive(Debug, Clone)]

@@ -1,0 +1,183 @@
+//! Helpers shared by the integration tests: reading the reference tables of
+//! `tables/`, their tolerances, and the checks every table row must pass.
+//!
+//! Each test crate uses only some of these, so unused ones are allowed.
+#![allow(dead_code)]
+
+use serde::Deserialize;
+use std::fmt::Write as _;
+use std::path::PathBuf;
+use travertine::{Measured, Parameter, State};
+
+/// The provenances a row may carry.
+pub const PROVENANCES: [&str; 3] = ["published", "memory", "computed"];
+
+/// A table in `tables/`, read with serde. Rows that do not parse are
+/// returned as errors with their line, so that they fail rather than vanish.
+pub fn read_table<T: for<'de> Deserialize<'de>>(name: &str) -> Vec<Result<T, String>> {
+    let path: PathBuf = [env!("CARGO_MANIFEST_DIR"), "tables", name]
+        .iter()
+        .collect();
+    let mut reader = csv::Reader::from_path(&path)
+        .unwrap_or_else(|e| panic!("cannot open {}: {e}", path.display()));
+    reader
+        .deserialize()
+        .enumerate()
+        .map(|(i, r)| r.map_err(|e| format!("{name} data row {}: cannot read: {e}", i + 1)))
+        .collect()
+}
+
+/// A tolerance: absolute (plain number) or relative (number followed by `%`).
+#[derive(Debug, Clone, Copy)]
+pub enum Tolerance {
+    Absolute(f64),
+    Relative(f64),
+}
+
+impl Tolerance {
+    pub fn parse(text: &str) -> Result<Self, String> {
+        let t = text.trim();
+        let (number, relative) = match t.strip_suffix('%') {
+            Some(n) => (n.trim(), true),
+            None => (t, false),
+        };
+        let x: f64 = number
+            .parse()
+            .map_err(|_| format!("tolerance {text:?} is not a number or a percentage"))?;
+        if !x.is_finite() || x < 0.0 {
+            return Err(format!(
+                "tolerance {text:?} must be finite and not negative"
+            ));
+        }
+        Ok(if relative {
+            Tolerance::Relative(x / 100.0)
+        } else {
+            Tolerance::Absolute(x)
+        })
+    }
+
+    /// The allowed absolute difference around `expected`.
+    pub fn allowed(self, expected: f64) -> f64 {
+        match self {
+            Tolerance::Absolute(a) => a,
+            Tolerance::Relative(r) => r * expected.abs(),
+        }
+    }
+}
+
+/// The outcome of one row: how much of its tolerance it used.
+pub struct Checked {
+    pub label: String,
+    pub expected: f64,
+    pub actual: f64,
+    pub allowed: f64,
+}
+
+impl Checked {
+    pub fn used(&self) -> f64 {
+        let d = (self.actual - self.expected).abs();
+        if self.allowed > 0.0 {
+            d / self.allowed
+        } else if d == 0.0 {
+            0.0
+        } else {
+            f64::INFINITY
+        }
+    }
+    pub fn passes(&self) -> bool {
+        // NaN fails: the comparison is false.
+        (self.actual - self.expected).abs() <= self.allowed
+    }
+    pub fn line(&self) -> String {
+        format!(
+            "{}\n      expected {:<16} actual {:<22} |diff| {:.3e}  allowed {:.3e}",
+            self.label,
+            self.expected,
+            self.actual,
+            (self.actual - self.expected).abs(),
+            self.allowed
+        )
+    }
+}
+
+/// A row must name its source and carry one of the [`PROVENANCES`].
+pub fn check_source_and_provenance(source: &str, provenance: &str) -> Result<(), String> {
+    if source.trim().is_empty() {
+        return Err("the source is empty".to_string());
+    }
+    if !PROVENANCES.contains(&provenance.trim()) {
+        return Err(format!(
+            "provenance {provenance:?} is not one of {}",
+            PROVENANCES.join(", ")
+        ));
+    }
+    Ok(())
+}
+
+/// Prints the rows that used most of their tolerance, then fails with every
+/// failure if there is any.
+pub fn finish(table: &str, rows_read: usize, checked: &[Checked], failures: &[String]) {
+    let mut ranked: Vec<&Checked> = checked.iter().filter(|c| c.passes()).collect();
+    ranked.sort_by(|a, b| b.used().total_cmp(&a.used()));
+    println!("{table}: {rows_read} rows; closest to their tolerance:");
+    for c in ranked.iter().take(8) {
+        println!("  {:5.1} % of tolerance  {}", 100.0 * c.used(), c.line());
+    }
+    if !failures.is_empty() {
+        let mut msg = format!(
+            "{} of {rows_read} rows of {table} failed:\n",
+            failures.len()
+        );
+        for f in failures {
+            let _ = writeln!(msg, "  - {f}");
+        }
+        panic!("{msg}");
+    }
+}
+
+/// Reads table `name`, checks every row with `check` (`label` names a row
+/// in messages), prints the rows that used most of their tolerance, and
+/// fails with every failure if there is any, or if the table has no rows.
+pub fn check_table<T, L, C>(name: &str, label: L, mut check: C)
+where
+    T: for<'de> Deserialize<'de>,
+    L: Fn(&T) -> String,
+    C: FnMut(&T) -> Result<Checked, String>,
+{
+    let rows = read_table::<T>(name);
+    assert!(
+        !rows.is_empty(),
+        "tables/{name} gave zero rows: nothing was checked"
+    );
+    let mut checked = Vec::new();
+    let mut failures = Vec::new();
+    for (i, row) in rows.iter().enumerate() {
+        let row = match row {
+            Ok(r) => r,
+            Err(e) => {
+                failures.push(e.clone());
+                continue;
+            }
+        };
+        match check(row) {
+            Ok(c) if c.passes() => checked.push(c),
+            Ok(c) => failures.push(format!("data row {}: {}", i + 1, c.line())),
+            Err(e) => failures.push(format!("data row {}: {}: {e}", i + 1, label(row))),
+        }
+    }
+    finish(&format!("tables/{name}"), rows.len(), &checked, &failures);
+}
+
+/// The pairs that can have two valid states.
+pub fn two_roots(a: Parameter, b: Parameter) -> bool {
+    let mut p = [a, b];
+    p.sort();
+    p == [Parameter::Alkalinity, Parameter::Co3] || p == [Parameter::Dic, Parameter::Hco3]
+}
+
+/// Parameter `p` of a state as a measurement: the input that reproduces it.
+pub fn measured_from(state: &State, p: Parameter) -> Measured {
+    state
+        .measured(p)
+        .expect("outputs of a valid state are valid inputs")
+}
