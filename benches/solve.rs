@@ -6,6 +6,9 @@
 //!   (the 36 pairs of nine parameters minus the 6 pairs of two gas
 //!   parameters), in sea water at salinity 35, 25 °C, alkalinity 2300 and
 //!   DIC 2000 µmol/kg;
+//! - `floor_beside/<a>+<b>`: the constants floor again, measured just before
+//!   each pair, for a ratio that does not depend on how the shared machine's
+//!   speed drifts over the run;
 //! - `deep_nutrients/*`: the same water at 2000 dbar with phosphate 2 and
 //!   silicate 50 µmol/kg, constants and the alkalinity + DIC pair;
 //! - `low_salinity/*`: salinity 5, constants and the alkalinity + DIC pair.
@@ -121,8 +124,16 @@ fn bench_full_solve(c: &mut Criterion) {
         })
         .collect();
 
-    let mut group = c.benchmark_group("full_solve");
+    // Each pair is measured right after the constants floor, so that the
+    // ratio of the two compares measurements a few seconds apart: on a
+    // shared machine the speed drifts by tens of percent over a run.
     for (name, a, b) in &cases {
+        let mut floor = c.benchmark_group("floor_beside");
+        floor.bench_function(name.as_str(), |bench| {
+            bench.iter(|| black_box(&water).constants().expect("constants"))
+        });
+        floor.finish();
+        let mut group = c.benchmark_group("full_solve");
         group.bench_function(name.as_str(), |bench| {
             bench.iter(|| {
                 black_box(&water)
@@ -130,8 +141,8 @@ fn bench_full_solve(c: &mut Criterion) {
                     .expect("solve")
             })
         });
+        group.finish();
     }
-    group.finish();
 }
 
 /// Constants and the alkalinity + DIC solve for one other water.

@@ -251,6 +251,7 @@ impl Thermo {
             gammas: Some(g),
             k_cahco3,
             k_caco3,
+            logs: None,
         }
     }
 }

@@ -331,6 +331,11 @@ impl State {
         let ca_free = k.calcium_free_mol_kg;
         let omega_c = ca_known.then(|| ca_free * co3 / k.ksp_calcite);
         let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite);
+        // One logarithm for the four pH values and one for both indices.
+        let logs = k.log10s();
+        let ph_working = -crate::numeric::log10(h);
+        let ph = |scale: usize| ph_working - logs.per_working[scale];
+        let log_iap = ca_known.then(|| crate::numeric::log10(ca_free * co3));
 
         // Revelle factor at constant TA (and pairs): dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
         let dh_ddic = -s.carbonate_per_dic / (dic * s.d_carbonate_per_dic + s.d_non_carbonate);
@@ -347,10 +352,10 @@ impl State {
             salinity: k.conditions.salinity(),
             pressure_dbar: k.conditions.pressure_dbar(),
             water: water.medium(),
-            ph_total: k.ph_from_h(h, PhScale::Total),
-            ph_seawater: k.ph_from_h(h, PhScale::Seawater),
-            ph_free: k.ph_from_h(h, PhScale::Free),
-            ph_nbs: k.ph_from_h(h, PhScale::Nbs),
+            ph_total: ph(0),
+            ph_seawater: ph(1),
+            ph_free: ph(2),
+            ph_nbs: ph(3),
             alkalinity_umol_kg: ta * u,
             dic_umol_kg: dic * u,
             co2_umol_kg: co2 * u,
@@ -361,8 +366,8 @@ impl State {
             xco2_ppm: xco2 * u,
             omega_calcite: omega_c,
             omega_aragonite: omega_a,
-            si_calcite: omega_c.map(crate::numeric::log10),
-            si_aragonite: omega_a.map(crate::numeric::log10),
+            si_calcite: log_iap.map(|l| l - logs.ksp_calcite),
+            si_aragonite: log_iap.map(|l| l - logs.ksp_aragonite),
             revelle_factor: revelle,
             carbonate_alkalinity_umol_kg: p.carbonate * u,
             borate_alkalinity_umol_kg: p.borate * u,

@@ -367,6 +367,24 @@ pub struct Constants {
     pub k_cahco3: f64,
     /// [CaCO3⁰]/([Ca++][CO3--]), concentration basis (fresh water; 0 in saline).
     pub k_caco3: f64,
+    /// The logarithms a state needs, where evaluated with the constants.
+    #[serde(skip)]
+    pub(crate) logs: Option<Log10s>,
+}
+
+/// log10 of the pH-scale factors and of the solubility products. Saline
+/// constants evaluate them once (the Mucci 1983 fits give log10 Ksp
+/// directly), so that a state needs one logarithm for its four pH values
+/// and one for both saturation indices; fresh-water constants, evaluated on
+/// every trial of their inner iterations, leave them to the state.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Log10s {
+    /// log10 of [H+] on the total, sea-water, free and NBS scales per unit
+    /// of working-scale h, in that order.
+    pub per_working: [f64; 4],
+    /// log10 Ksp of calcite and of aragonite (with the pressure correction).
+    pub ksp_calcite: f64,
+    pub ksp_aragonite: f64,
 }
 
 impl Constants {
@@ -396,6 +414,23 @@ impl Constants {
     /// ```
     pub fn ph_from_h(&self, h: f64, scale: PhScale) -> f64 {
         -crate::numeric::log10(h * self.per_working(scale))
+    }
+
+    /// The logarithms a state needs: stored, or evaluated now.
+    pub(crate) fn log10s(&self) -> Log10s {
+        self.logs.unwrap_or_else(|| {
+            let log10 = crate::numeric::log10;
+            Log10s {
+                per_working: [
+                    log10(self.total_per_working),
+                    log10(self.seawater_per_working),
+                    log10(self.free_per_working),
+                    log10(self.nbs_per_working),
+                ],
+                ksp_calcite: log10(self.ksp_calcite),
+                ksp_aragonite: log10(self.ksp_aragonite),
+            }
+        })
     }
 
     fn per_working(&self, scale: PhScale) -> f64 {
@@ -492,9 +527,7 @@ impl Constants {
         }
 
         minerals::MUCCI1983_RANGE.check_for("calcite and aragonite", t_c, s, &mut warnings);
-        let (lc, la) = minerals::mucci1983_log_ksp(t, s);
-        let mut ksp_calcite = crate::numeric::pow10(lc);
-        let mut ksp_aragonite = crate::numeric::pow10(la);
+        let (mut lc, mut la) = minerals::mucci1983_log_ksp(t, s);
 
         let (mut ks, mut kf) = (ks0, kf0);
         if p_bar > 0.0 {
@@ -512,9 +545,11 @@ impl Constants {
             ksi *= f(&KSI);
             knh4 *= f(&KNH4);
             kh2s *= f(&KH2S);
-            ksp_calcite *= f(&CALCITE);
-            ksp_aragonite *= f(&ARAGONITE);
+            lc += pressure_ln_factor(&CALCITE, t_c, p_bar) * std::f64::consts::LOG10_E;
+            la += pressure_ln_factor(&ARAGONITE, t_c, p_bar) * std::f64::consts::LOG10_E;
         }
+        let ksp_calcite = crate::numeric::pow10(lc);
+        let ksp_aragonite = crate::numeric::pow10(la);
 
         // Sea-water scale to the working (total) scale at pressure.
         let tot = 1.0 + totals.sulfate_mol_kg / ks;
@@ -534,6 +569,18 @@ impl Constants {
 
         let seawater_per_working = sws / tot;
         let fh = takahashi1982_fh(t, s);
+        let nbs_per_working = fh * seawater_per_working;
+        let log10 = crate::numeric::log10;
+        let logs = Log10s {
+            per_working: [
+                0.0,
+                log10(seawater_per_working),
+                -log10(tot),
+                log10(nbs_per_working),
+            ],
+            ksp_calcite: lc,
+            ksp_aragonite: la,
+        };
 
         Ok(Constants {
             conditions: *conditions,
@@ -563,7 +610,7 @@ impl Constants {
             free_per_working: 1.0 / tot,
             seawater_per_working,
             total_per_working: 1.0,
-            nbs_per_working: fh * seawater_per_working,
+            nbs_per_working,
             fugacity_factor,
             vapour_pressure_atm,
             density_kg_m3: density,
@@ -592,6 +639,7 @@ impl Constants {
             gammas: None,
             k_cahco3: 0.0,
             k_caco3: 0.0,
+            logs: Some(logs),
         })
     }
 }
@@ -602,5 +650,28 @@ fn measured_or(given: bool, fit: FitName) -> FitName {
         FitName::Measured
     } else {
         fit
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The logarithms stored with saline constants are those of the values
+    /// stored beside them, at the surface and under pressure.
+    #[test]
+    fn stored_logarithms_match_the_values() {
+        for (t, s, p) in [(25.0, 35.0, 0.0), (2.0, 5.0, 0.0), (10.0, 38.0, 4000.0)] {
+            let c = Conditions::new(t, s).and_then(|c| c.with_pressure_dbar(p));
+            let k =
+                Constants::saline(&c.unwrap(), &Composition::default(), &Fits::default()).unwrap();
+            let stored = k.log10s();
+            let evaluated = Constants { logs: None, ..k }.log10s();
+            for (a, b) in stored.per_working.iter().zip(evaluated.per_working) {
+                assert!((a - b).abs() < 1e-13, "{a} against {b}");
+            }
+            assert!((stored.ksp_calcite - evaluated.ksp_calcite).abs() < 1e-12);
+            assert!((stored.ksp_aragonite - evaluated.ksp_aragonite).abs() < 1e-12);
+        }
     }
 }

@@ -76,9 +76,25 @@ pub fn pressure_factor(c: &PressureCoefficients, temperature_c: f64, pressure_ba
     if pressure_bar == 0.0 {
         return 1.0;
     }
+    pressure_ln_factor(c, temperature_c, pressure_bar).exp()
+}
+
+/// ln(K_P / K_0) = (−ΔV P + ½ ΔK P²)/(R T), with ΔV = a0 + a1 t + a2 t² and
+/// ΔK = (b0 + b1 t)·1e-3 (Millero 1995).
+///
+/// ```
+/// use travertine::constants::pressure::{CALCITE, pressure_ln_factor};
+/// assert!((pressure_ln_factor(&CALCITE, 25.0, 1000.0) - 3.979f64.ln()).abs() < 3e-4);
+/// assert_eq!(pressure_ln_factor(&CALCITE, 25.0, 0.0), 0.0);
+/// ```
+#[inline]
+pub fn pressure_ln_factor(c: &PressureCoefficients, temperature_c: f64, pressure_bar: f64) -> f64 {
+    if pressure_bar == 0.0 {
+        return 0.0;
+    }
     let t = temperature_c;
     let rt = R_CM3_BAR * (t + 273.15);
     let dv = c.a[0] + c.a[1] * t + c.a[2] * t * t;
     let dk = (c.b[0] + c.b[1] * t) * 1e-3;
-    ((-dv * pressure_bar + 0.5 * dk * pressure_bar * pressure_bar) / rt).exp()
+    (-dv * pressure_bar + 0.5 * dk * pressure_bar * pressure_bar) / rt
 }
