@@ -432,17 +432,15 @@ where
 }
 
 fn pick(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
-    // lower_h is the higher pH. The distance of a pH from 8 is
-    // |log10(h / 1e-8)|, which orders as max(h / 1e-8, 1e-8 / h).
-    let from_ph_8 = |h: f64| {
-        let r = h * 1e8;
-        r.max(1.0 / r)
-    };
+    // lower_h is the higher pH. Of two pH values, the higher is nearer 8
+    // exactly when their mean is below 8 (both below 8, or on either side
+    // with the higher one closer): when lower_h higher_h > 1e-16, a product
+    // in place of two logarithms.
     match root {
         RootChoice::LowerPh => (higher_h, lower_h),
         RootChoice::HigherPh => (lower_h, higher_h),
         RootChoice::Natural => {
-            if from_ph_8(lower_h) < from_ph_8(higher_h) {
+            if (lower_h * 1e8) * (higher_h * 1e8) > 1.0 {
                 (lower_h, higher_h)
             } else {
                 (higher_h, lower_h)
@@ -500,16 +498,17 @@ fn ta_co3_root(
     warnings: &mut Warnings,
 ) -> Result<f64> {
     // g and dg/dh at h.
+    let co3_per_k2 = co3 / k.k2e;
     let g = |h: f64| {
         let (n, dn) = non_carbonate(k, h);
-        (co3 * (h / k.k2e + 2.0) + n - ta, co3 / k.k2e + dn)
+        (co3_per_k2 * h + 2.0 * co3 + n - ta, co3_per_k2 + dn)
     };
     let (lo, hi) = (H_AT_PH_MAX, H_AT_PH_MIN);
     // The minimum: dg/dh = CO3/K2 + d(non-carbonate)/dh = 0, searched in
     // x = ln h.
     let slope = |x: f64| {
         let h = x.exp();
-        co3 / k.k2e + non_carbonate(k, h).1
+        co3_per_k2 + non_carbonate(k, h).1
     };
     // Where hydroxide dominates the non-carbonate part, the minimum is near
     // h = sqrt(KW K2 / CO3); if g is already negative there, that point
@@ -572,7 +571,7 @@ fn ta_co3_root(
         let excess = ta - 2.0 * co3;
         let h0 = if excess > 0.0 { k.kw / excess } else { 0.0 };
         let excess1 = if h0 > 0.0 {
-            excess - borate(h0) - co3 * h0 / k.k2e
+            excess - borate(h0) - co3_per_k2 * h0
         } else {
             0.0
         };
@@ -654,5 +653,29 @@ fn ta_co3_root(
         (None, None) => Err(pair.no_water(format!(
             "no pH between {PH_MIN} and {PH_MAX} gives that alkalinity with that CO3"
         ))),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_natural_root_is_the_one_nearer_ph_8() {
+        let h = |ph: f64| 10f64.powf(-ph);
+        // (higher pH, lower pH, the natural choice)
+        for (high, low, natural) in [
+            (10.35, 8.14, 8.14),
+            (8.3, 6.0, 8.3),
+            (9.5, 7.0, 7.0),
+            (7.5, 6.0, 7.5),
+            (11.0, 9.0, 9.0),
+        ] {
+            let (chosen, other) = pick(RootChoice::Natural, h(high), h(low));
+            assert!((-chosen.log10() - natural).abs() < 1e-9, "{high}, {low}");
+            assert!((-other.log10() - natural).abs() > 0.1);
+            assert_eq!(pick(RootChoice::HigherPh, h(high), h(low)).0, h(high));
+            assert_eq!(pick(RootChoice::LowerPh, h(high), h(low)).0, h(low));
+        }
     }
 }
