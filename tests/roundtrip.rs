@@ -213,3 +213,26 @@ proptest! {
         }
     }
 }
+
+/// Measurements at the limits of their accepted ranges solve: rounding in
+/// the solve must not push a limit value just over its own limit.
+#[test]
+fn measurements_at_the_range_limits_solve() {
+    let w = Water::saline(Conditions::new(25.0, 35.0).unwrap()).unwrap();
+    let (_, ta_max) = Parameter::Alkalinity.accepted_range();
+    let s = w
+        .solve(
+            Measured::alkalinity_umol_kg(ta_max).unwrap(),
+            Measured::co2_umol_kg(0.001).unwrap(),
+        )
+        .expect("alkalinity at its upper limit solves");
+    assert!((s.alkalinity_umol_kg / ta_max - 1.0).abs() < 1e-9);
+    let (_, dic_max) = Parameter::Dic.accepted_range();
+    let s = w
+        .solve(
+            Measured::dic_umol_kg(dic_max).unwrap(),
+            Measured::ph(7.0, None).unwrap(),
+        )
+        .expect("DIC at its upper limit solves");
+    assert!((s.dic_umol_kg / dic_max - 1.0).abs() < 1e-12);
+}
