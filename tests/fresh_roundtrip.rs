@@ -16,7 +16,7 @@
 //! pH is on the NBS scale throughout, the working scale of the medium.
 
 mod common;
-use common::{measured_from, two_roots};
+use common::check_every_pair;
 use proptest::prelude::*;
 use travertine::activity::ActivityModel;
 use travertine::fresh::IonicStrengthRoute;
@@ -227,41 +227,7 @@ proptest! {
         prop_assert!(base.ionic_strength >= 0.0 && base.ionic_strength <= 0.11,
             "I {} outside the domain", base.ionic_strength);
         prop_assert_eq!(base.omega_calcite.is_some(), c.calcium.is_some());
-        let mut pairs = 0;
-        for (i, &a) in Parameter::ALL.iter().enumerate() {
-            for &b in &Parameter::ALL[i + 1..] {
-                if a.is_gas() && b.is_gas() {
-                    continue;
-                }
-                let (ma, mb) = (measured_from(&base, a), measured_from(&base, b));
-                if two_roots(a, b) {
-                    let lower = w.solve_with(ma, mb, &SolveOptions::default().with_root(RootChoice::LowerPh));
-                    let higher = w.solve_with(ma, mb, &SolveOptions::default().with_root(RootChoice::HigherPh));
-                    prop_assert!(lower.is_ok() && higher.is_ok(), "{a:?}+{b:?}: lower {:?}, higher {:?}",
-                        lower.as_ref().err(), higher.as_ref().err());
-                    let (lower, higher) = (lower.unwrap(), higher.unwrap());
-                    if (lower.ph_nbs - higher.ph_nbs).abs() < 0.1 {
-                        continue;
-                    }
-                    let ok = mismatch(&base, &lower).is_none() || mismatch(&base, &higher).is_none();
-                    prop_assert!(ok, "{a:?}+{b:?}: neither root returns the state; lower {:?}, higher {:?}",
-                        mismatch(&base, &lower), mismatch(&base, &higher));
-                    // The default is the root nearer pH 8.
-                    let natural = w.solve(ma, mb);
-                    prop_assert!(natural.is_ok(), "{a:?}+{b:?}, nearer pH 8: {:?}", natural.err());
-                    let natural = natural.unwrap();
-                    let nearer = if (lower.ph_nbs - 8.0).abs() < (higher.ph_nbs - 8.0).abs() { &lower } else { &higher };
-                    prop_assert!(mismatch(nearer, &natural).is_none());
-                    prop_assert!(natural.warnings.iter().any(|w| w.to_string().contains("also fits")));
-                } else {
-                    let s = w.solve(ma, mb);
-                    prop_assert!(s.is_ok(), "{a:?}+{b:?} failed: {:?}", s.err());
-                    let s = s.unwrap();
-                    prop_assert!(mismatch(&base, &s).is_none(), "{a:?}+{b:?}: {}", mismatch(&base, &s).unwrap());
-                }
-                pairs += 1;
-            }
-        }
+        let pairs = check_every_pair(&w, &base, |s| s.ph_nbs, mismatch)?;
         prop_assert!(pairs >= 28, "only {pairs} pairs checked");
     }
 

@@ -7,13 +7,11 @@
 //! problem itself is ill-conditioned (a double root), not the solver.
 
 mod common;
-use common::{measured_from, two_roots};
+use common::check_every_pair;
 use proptest::prelude::*;
 use travertine::units::Amount;
 use travertine::water::Composition;
-use travertine::{
-    Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
-};
+use travertine::{Conditions, Measured, Parameter, PhScale, State, Water};
 
 fn outputs(s: &State) -> [(&'static str, f64); 14] {
     [
@@ -104,37 +102,7 @@ proptest! {
         // Some (TA, DIC) combinations imply a pH outside 0–14: not a state to round-trip.
         let Ok(base) = base else { return Ok(()); };
         prop_assume!(base.ph_total > 4.0 && base.ph_total < 10.5);
-        let mut pairs = 0;
-        for (i, &a) in Parameter::ALL.iter().enumerate() {
-            for &b in &Parameter::ALL[i + 1..] {
-                if a.is_gas() && b.is_gas() {
-                    continue;
-                }
-                let (ma, mb) = (measured_from(&base, a), measured_from(&base, b));
-                if two_roots(a, b) {
-                    let lower = w.solve_with(ma, mb, &SolveOptions::default().with_root(RootChoice::LowerPh));
-                    let higher = w.solve_with(ma, mb, &SolveOptions::default().with_root(RootChoice::HigherPh));
-                    let (lower, higher) = (lower.unwrap(), higher.unwrap());
-                    if (lower.ph_total - higher.ph_total).abs() < 0.1 {
-                        continue;
-                    }
-                    let ok = mismatch(&base, &lower).is_none() || mismatch(&base, &higher).is_none();
-                    prop_assert!(ok, "{a:?}+{b:?}: neither root returns the state; lower {:?}, higher {:?}",
-                        mismatch(&base, &lower), mismatch(&base, &higher));
-                    // The default is the root nearer pH 8.
-                    let natural = w.solve(ma, mb).unwrap();
-                    let nearer = if (lower.ph_total - 8.0).abs() < (higher.ph_total - 8.0).abs() { &lower } else { &higher };
-                    prop_assert!(mismatch(nearer, &natural).is_none());
-                    prop_assert!(natural.warnings.iter().any(|w| w.to_string().contains("also fits")));
-                } else {
-                    let s = w.solve(ma, mb);
-                    prop_assert!(s.is_ok(), "{a:?}+{b:?} failed: {:?}", s.err());
-                    let s = s.unwrap();
-                    prop_assert!(mismatch(&base, &s).is_none(), "{a:?}+{b:?}: {}", mismatch(&base, &s).unwrap());
-                }
-                pairs += 1;
-            }
-        }
+        let pairs = check_every_pair(&w, &base, |s| s.ph_total, mismatch)?;
         prop_assert!(pairs >= 28, "only {pairs} pairs checked");
     }
 

@@ -4,10 +4,11 @@
 //! Each test crate uses only some of these, so unused ones are allowed.
 #![allow(dead_code)]
 
+use proptest::prelude::*;
 use serde::Deserialize;
 use std::fmt::Write as _;
 use std::path::PathBuf;
-use travertine::{Measured, Parameter, State};
+use travertine::{Measured, Parameter, RootChoice, SolveOptions, State, Water};
 
 /// The provenances a row may carry.
 pub const PROVENANCES: [&str; 3] = ["published", "memory", "computed"];
@@ -180,4 +181,75 @@ pub fn measured_from(state: &State, p: Parameter) -> Measured {
     state
         .measured(p)
         .expect("outputs of a valid state are valid inputs")
+}
+
+/// Solves `water` again from every usable pair of the outputs of `base` and
+/// checks each result with `mismatch` (None: the same state). For the two
+/// pairs that can have two roots, one of the two must be `base`, the
+/// default must be the one nearer pH 8 (on the working scale `ph`), and it
+/// must warn of the other; pairs whose roots lie within 0.1 pH of each
+/// other are skipped (a near-double root). Returns the number of pairs
+/// checked.
+pub fn check_every_pair(
+    water: &Water,
+    base: &State,
+    ph: fn(&State) -> f64,
+    mismatch: fn(&State, &State) -> Option<String>,
+) -> Result<usize, TestCaseError> {
+    let mut pairs = 0;
+    for (i, &a) in Parameter::ALL.iter().enumerate() {
+        for &b in &Parameter::ALL[i + 1..] {
+            if a.is_gas() && b.is_gas() {
+                continue;
+            }
+            let (ma, mb) = (measured_from(base, a), measured_from(base, b));
+            if two_roots(a, b) {
+                let choose = |root| SolveOptions::default().with_root(root);
+                let lower = water.solve_with(ma, mb, &choose(RootChoice::LowerPh));
+                let higher = water.solve_with(ma, mb, &choose(RootChoice::HigherPh));
+                prop_assert!(
+                    lower.is_ok() && higher.is_ok(),
+                    "{a:?}+{b:?}: lower {:?}, higher {:?}",
+                    lower.as_ref().err(),
+                    higher.as_ref().err()
+                );
+                let (lower, higher) = (lower.unwrap(), higher.unwrap());
+                if (ph(&lower) - ph(&higher)).abs() < 0.1 {
+                    continue;
+                }
+                let ok = mismatch(base, &lower).is_none() || mismatch(base, &higher).is_none();
+                prop_assert!(
+                    ok,
+                    "{a:?}+{b:?}: neither root returns the state; lower {:?}, higher {:?}",
+                    mismatch(base, &lower),
+                    mismatch(base, &higher)
+                );
+                let natural = water.solve(ma, mb);
+                prop_assert!(
+                    natural.is_ok(),
+                    "{a:?}+{b:?}, nearer pH 8: {:?}",
+                    natural.err()
+                );
+                let natural = natural.unwrap();
+                let nearer = if (ph(&lower) - 8.0).abs() < (ph(&higher) - 8.0).abs() {
+                    &lower
+                } else {
+                    &higher
+                };
+                prop_assert!(mismatch(nearer, &natural).is_none());
+                prop_assert!(natural
+                    .warnings
+                    .iter()
+                    .any(|w| w.to_string().contains("also fits")));
+            } else {
+                let s = water.solve(ma, mb);
+                prop_assert!(s.is_ok(), "{a:?}+{b:?} failed: {:?}", s.err());
+                let s = s.unwrap();
+                let m = mismatch(base, &s);
+                prop_assert!(m.is_none(), "{a:?}+{b:?}: {}", m.unwrap_or_default());
+            }
+            pairs += 1;
+        }
+    }
+    Ok(pairs)
 }
