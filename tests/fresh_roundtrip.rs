@@ -16,7 +16,7 @@
 //! pH is on the NBS scale throughout, the working scale of the medium.
 
 mod common;
-use common::check_every_pair;
+use common::{any_value, check_every_pair};
 use proptest::prelude::*;
 use travertine::activity::ActivityModel;
 use travertine::fresh::IonicStrengthRoute;
@@ -250,18 +250,6 @@ proptest! {
         prop_assert!((moved.dic_umol_kg / base.dic_umol_kg - 1.0).abs() < 1e-12);
         prop_assert!((moved.alkalinity_umol_kg / base.alkalinity_umol_kg - 1.0).abs() < 1e-9);
     }
-}
-
-fn any_value() -> impl Strategy<Value = f64> {
-    prop_oneof![
-        any::<f64>(),
-        Just(f64::NAN),
-        Just(f64::INFINITY),
-        Just(f64::NEG_INFINITY),
-        Just(0.0),
-        -10.0..60.0f64,
-        0.0..10000.0f64,
-    ]
 }
 
 /// Inside the domain most of the time, anything at all otherwise.

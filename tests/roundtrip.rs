@@ -7,7 +7,7 @@
 //! problem itself is ill-conditioned (a double root), not the solver.
 
 mod common;
-use common::check_every_pair;
+use common::{any_value, check_every_pair};
 use proptest::prelude::*;
 use travertine::units::Amount;
 use travertine::water::Composition;
@@ -119,18 +119,6 @@ proptest! {
         prop_assert!(mismatch(&base, &back).is_none(), "{}", mismatch(&base, &back).unwrap());
         prop_assert!((moved.dic_umol_kg / base.dic_umol_kg - 1.0).abs() < 1e-12);
     }
-}
-
-fn any_value() -> impl Strategy<Value = f64> {
-    prop_oneof![
-        any::<f64>(),
-        Just(f64::NAN),
-        Just(f64::INFINITY),
-        Just(f64::NEG_INFINITY),
-        Just(0.0),
-        -10.0..60.0f64,
-        0.0..10000.0f64,
-    ]
 }
 
 fn all_numbers_finite(v: &serde_json::Value) -> bool {

@@ -253,3 +253,17 @@ pub fn check_every_pair(
     }
     Ok(pairs)
 }
+
+/// Any f64, with the awkward ones (NaN, infinities, zero) and plausible
+/// ranges weighted in: for the no-panic property tests.
+pub fn any_value() -> impl Strategy<Value = f64> {
+    prop_oneof![
+        any::<f64>(),
+        Just(f64::NAN),
+        Just(f64::INFINITY),
+        Just(f64::NEG_INFINITY),
+        Just(0.0),
+        -10.0..60.0f64,
+        0.0..10000.0f64,
+    ]
+}
