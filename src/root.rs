@@ -94,7 +94,7 @@ where
         at_hi,
         accept,
     } = *search;
-    if !(lo < hi && lo > 0.0) {
+    if !(lo < hi && lo > 0.0 && hi.is_finite()) {
         return Err(Failure::NoConvergence(0));
     }
     // Work with s·f, which is decreasing: positive towards lo, negative
@@ -171,8 +171,9 @@ where
             x * (-d).exp()
         };
         let in_interval = xn.is_finite() && xn >= lo && xn <= hi;
-        if in_interval && d.abs() < accept {
-            // Converged: a short Newton step that stays in [lo, hi].
+        if in_interval && slope < 0.0 && d.abs() < accept {
+            // Converged: a short Newton step, in the direction the known
+            // monotonicity allows, that stays in [lo, hi].
             return Ok(xn);
         }
         let newton_ok =
@@ -195,7 +196,8 @@ where
                 }
                 hi_checked = true;
             }
-            let middle = (pos * neg).sqrt();
+            // The geometric middle, without the product's underflow.
+            let middle = pos.sqrt() * neg.sqrt();
             dx = (x / middle).ln();
             middle
         };
@@ -316,10 +318,19 @@ mod tests {
         let f = |x: f64| (0.5 - x.powi(3), 0.0);
         let r = monotone_newton(f, &search(0.1, 1.0, true), 0.9).unwrap();
         assert!((r - 0.5f64.cbrt()).abs() < 1e-12);
+        // A derivative of the wrong sign never ends the search at a non-root.
+        let f = |x: f64| (1.0 - x, 1.0);
+        let r = monotone_newton(f, &search(0.5, 2.0, true), 1.0 + 1e-7).unwrap();
+        assert!((r - 1.0).abs() < 1e-12, "{r}");
+        // Intervals far from 1 bisect without underflow.
+        let f = |x: f64| (1e-170 / x - 1.0, 0.0);
+        let r = monotone_newton(f, &search(1e-200, 1e-150, true), 1e-190).unwrap();
+        assert!((r / 1e-170 - 1.0).abs() < 1e-10, "{r}");
         // An empty or reversed interval is refused, not looped on.
         let f = |x: f64| (x, 1.0);
         assert!(monotone_newton(f, &search(1.0, 0.5, true), 0.7).is_err());
         assert!(monotone_newton(f, &search(f64::NAN, 1.0, true), 0.5).is_err());
         assert!(monotone_newton(f, &search(-1.0, 1.0, true), 0.5).is_err());
+        assert!(monotone_newton(f, &search(0.5, f64::INFINITY, true), 0.7).is_err());
     }
 }

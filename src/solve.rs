@@ -208,13 +208,34 @@ impl Pair<'_> {
 pub(crate) fn check_dic(pair: &Pair, dic: f64) -> Result<()> {
     let (min, max) = Parameter::Dic.accepted_range();
     let umol = dic * 1e6;
-    // As for alkalinity, a DIC measured at a limit passes despite rounding.
-    if umol.is_finite() && umol >= min * (1.0 - 1e-9) && umol <= max * (1.0 + 1e-9) {
+    if dic_in_range(dic) {
         return Ok(());
     }
     Err(pair.no_water(format!(
         "the DIC would be {umol:.3e} µmol/kg, beyond the accepted {min} to {max} µmol/kg"
     )))
+}
+
+/// Whether h lies in pH 0–14 (a pH given as exactly 0 or 14 may come back a
+/// few ulp outside).
+fn h_in_range(h: f64) -> bool {
+    (H_AT_PH_MAX * (1.0 - 1e-12)..=H_AT_PH_MIN * (1.0 + 1e-12)).contains(&h)
+}
+
+/// Whether a DIC (mol/kg) is one a measurement could have; a DIC measured
+/// at a limit passes despite rounding.
+fn dic_in_range(dic: f64) -> bool {
+    let (min, max) = Parameter::Dic.accepted_range();
+    let umol = dic * 1e6;
+    umol.is_finite() && umol >= min * (1.0 - 1e-9) && umol <= max * (1.0 + 1e-9)
+}
+
+/// Whether an alkalinity (mol/kg) is one a measurement could have (the
+/// test of `State`'s build, for a root not yet built).
+fn alkalinity_in_range(ta: f64) -> bool {
+    let (_, max) = Parameter::Alkalinity.accepted_range();
+    let umol = ta * 1e6;
+    umol.is_finite() && umol.abs() <= max * (1.0 + 1e-9)
 }
 
 /// Checks that a pair can be used together.
@@ -312,7 +333,8 @@ pub(crate) fn solve(
             (h, hco3 * dic_per_hco3(k, h))
         }
         (Known::Ta(ta), Known::Co3(co3)) => {
-            let h = ta_co3_root(k, &pair, ta, co3, options.root, &mut warnings)?;
+            let fits = |h: f64| h_in_range(h) && dic_in_range(co3 * dic_per_co3(k, h));
+            let h = ta_co3_root(k, &pair, ta, co3, options.root, fits, &mut warnings)?;
             (h, co3 * dic_per_co3(k, h))
         }
         (Known::Dic(dic), Known::H(h)) => (h, dic),
@@ -325,7 +347,10 @@ pub(crate) fn solve(
             ((c * k.k1e + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
         }
         (Known::Dic(dic), Known::Hco3(hco3)) => {
-            let h = dic_hco3_root(k, &pair, dic, hco3, options.root, &mut warnings)?;
+            let fits = |h: f64| {
+                h_in_range(h) && alkalinity_in_range(crate::alkalinity::parts(k, h, dic).total())
+            };
+            let h = dic_hco3_root(k, &pair, dic, hco3, options.root, fits, &mut warnings)?;
             (h, dic)
         }
         (Known::Dic(dic), Known::Co3(co3)) => {
@@ -359,7 +384,7 @@ pub(crate) fn solve(
             })
         }
     };
-    if !(H_AT_PH_MAX..=H_AT_PH_MIN).contains(&h) || !dic.is_finite() || dic <= 0.0 {
+    if !h_in_range(h) || !dic.is_finite() || dic <= 0.0 {
         let ph = -crate::numeric::log10(h);
         return Err(pair.no_water(format!(
             "they imply a pH of {ph:.3} ({} scale), outside {PH_MIN} to {PH_MAX}",
@@ -403,10 +428,10 @@ fn carbonate_only_root(k: &Constants, ta: f64, dic: f64) -> f64 {
 
 /// Root in h of carbonate(h) + non_carbonate(h) = ta, where the carbonate
 /// part is decreasing in h (so the whole is decreasing, every
-/// non-carbonate part being decreasing too). Newton steps are taken in h
-/// with relative tolerances and bisection in ln h, and the ends of the pH
-/// range are evaluated only if the iteration needs them
-/// ([`monotone_newton`]).
+/// non-carbonate part being decreasing too). Newton steps are taken in
+/// ln h (with h kept and updated without an exponential) and bisection in
+/// ln h, and the ends of the pH range are evaluated only if the iteration
+/// needs them ([`monotone_newton`]).
 fn ta_root<C>(k: &Constants, pair: &Pair, ta: f64, carbonate: C, guess: f64) -> Result<f64>
 where
     C: Fn(f64) -> (f64, f64),
@@ -467,6 +492,7 @@ fn dic_hco3_root(
     dic: f64,
     hco3: f64,
     root: RootChoice,
+    fits: impl Fn(f64) -> bool,
     warnings: &mut Warnings,
 ) -> Result<f64> {
     let c = hco3 / dic;
@@ -481,11 +507,28 @@ fn dic_hco3_root(
     }
     let h_high = (q * k.k1e + disc.sqrt()) / (2.0 * c);
     let h_low = k.k1e * k.k2e / h_high;
-    let (chosen, other) = pick(root, h_low, h_high);
-    if (h_high / h_low - 1.0).abs() > 1e-9 {
+    let two = (h_high / h_low - 1.0).abs() > 1e-9;
+    let (chosen, other) = settle(pick(root, h_low, h_high), root, two, &fits);
+    if two && fits(other) {
         warnings.push(other_root_warning(pair, k, chosen, other));
     }
     Ok(chosen)
+}
+
+/// The default choice falls back to the other root when the one nearer pH 8
+/// fits no measurable water (its pH, DIC or alkalinity beyond what a
+/// measurement may be) and the other does. An explicit choice is kept.
+fn settle(
+    (chosen, other): (f64, f64),
+    root: RootChoice,
+    two: bool,
+    fits: impl Fn(f64) -> bool,
+) -> (f64, f64) {
+    if two && root == RootChoice::Natural && !fits(chosen) && fits(other) {
+        (other, chosen)
+    } else {
+        (chosen, other)
+    }
 }
 
 /// Alkalinity with CO3--: g(h) = CO3 (h/K2 + 2) + non-carbonate(h) − TA is
@@ -496,6 +539,7 @@ fn ta_co3_root(
     ta: f64,
     co3: f64,
     root: RootChoice,
+    fits: impl Fn(f64) -> bool,
     warnings: &mut Warnings,
 ) -> Result<f64> {
     // g and dg/dh at h.
@@ -559,8 +603,12 @@ fn ta_co3_root(
         )));
     }
     // Root at lower h (higher pH), between lo and h_min; root at higher h
-    // between h_min and hi. g falls to its minimum and rises again, so each
-    // side is monotone and its far end is evaluated only if needed.
+    // between h_min and hi. g is convex with g(h_min) < 0, so on each side
+    // it changes sign once, and its far end is evaluated only if needed.
+    // (Where h_min is only a point with g < 0 rather than the minimum
+    // itself, g may still fall for a while beyond it; the search needs only
+    // the single sign change, and a derivative of the unexpected sign never
+    // ends it early: see `monotone_newton`.)
     // First guesses: hydroxide carries the alkalinity at the high-pH root,
     // carbonate at the low-pH one.
     // The corrections take only the borate and water parts at the first
@@ -642,9 +690,10 @@ fn ta_co3_root(
     };
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
-            let (chosen, other) = pick(root, h_low, h_high);
+            let two = (h_high / h_low - 1.0).abs() > 1e-9;
+            let (chosen, other) = settle(pick(root, h_low, h_high), root, two, &fits);
             let chosen = polish(chosen, chosen == h_low)?;
-            if (h_high / h_low - 1.0).abs() > 1e-9 {
+            if two && fits(other) {
                 warnings.push(other_root_warning(pair, k, chosen, other));
             }
             Ok(chosen)

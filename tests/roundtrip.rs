@@ -11,7 +11,9 @@ use common::{any_value, check_every_pair};
 use proptest::prelude::*;
 use travertine::units::Amount;
 use travertine::water::Composition;
-use travertine::{Conditions, Measured, Parameter, PhScale, State, Water};
+use travertine::{
+    Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
+};
 
 fn outputs(s: &State) -> [(&'static str, f64); 14] {
     [
@@ -191,4 +193,34 @@ fn measurements_at_the_range_limits_solve() {
         )
         .expect("DIC at its upper limit solves");
     assert!((s.dic_umol_kg / dic_max - 1.0).abs() < 1e-12);
+}
+
+/// When the root nearer pH 8 fits no measurable water, the default falls
+/// back to the other one and does not advertise the first; an explicit
+/// choice of the unmeasurable root is refused.
+#[test]
+fn the_default_root_falls_back_when_the_nearer_one_fits_no_water() {
+    let w = Water::saline(Conditions::new(25.0, 35.0).unwrap()).unwrap();
+    let (ta, co3) = (
+        Measured::alkalinity_umol_kg(13000.0).unwrap(),
+        Measured::co3_umol_kg(1.0).unwrap(),
+    );
+    // The lower-pH root would need a DIC of about 1.4e5 µmol/kg.
+    let lower = w.solve_with(
+        ta,
+        co3,
+        &SolveOptions::default().with_root(RootChoice::LowerPh),
+    );
+    assert!(lower.is_err());
+    let natural = w.solve(ta, co3).expect("the higher-pH root fits");
+    let higher = w
+        .solve_with(
+            ta,
+            co3,
+            &SolveOptions::default().with_root(RootChoice::HigherPh),
+        )
+        .unwrap();
+    assert!((natural.ph_total - higher.ph_total).abs() < 1e-12);
+    assert!(natural.ph_total > 11.0);
+    assert!(natural.warnings.is_empty(), "{:?}", natural.warnings);
 }
