@@ -610,6 +610,52 @@ fn roots_scan(
             }
         }
     }
+    if roots.is_empty() {
+        // A root can hide between a defined sample and an undefined
+        // neighbour (where the alkalinity left for carbon runs out, the
+        // residual tends to −1 without a sample to show it): find the edge
+        // of the defined region by bisection and look for a sign change
+        // there. Only done when the scan found nothing, so it costs an
+        // ordinary solve nothing.
+        let edge = |inside: f64, outside: f64, i_start: f64| -> Option<(f64, f64, f64)> {
+            let (mut a, mut b) = (inside, outside);
+            let mut last = None;
+            for _ in 0..48 {
+                let m = 0.5 * (a + b);
+                last_i.set(i_start);
+                match resid(m) {
+                    Some(r) => {
+                        a = m;
+                        last = Some((m, r, last_i.get()));
+                    }
+                    None => b = m,
+                }
+            }
+            last
+        };
+        for n in 0..samples.len() {
+            let Some((ph, r, i_here)) = samples[n] else {
+                continue;
+            };
+            let neighbours = [n.checked_sub(1), Some(n + 1).filter(|&m| m < samples.len())];
+            for m in neighbours.into_iter().flatten() {
+                if samples[m].is_some() {
+                    continue;
+                }
+                let outside = 14.0 * m as f64 / steps as f64;
+                if let Some((pe, re, ie)) = edge(ph, outside, i_here) {
+                    if re != 0.0 && (re < 0.0) != (r < 0.0) {
+                        let (lo, hi, i_lo) = if pe < ph {
+                            (pe, ph, ie)
+                        } else {
+                            (ph, pe, i_here)
+                        };
+                        roots.push(refine(lo, hi, i_lo)?);
+                    }
+                }
+            }
+        }
+    }
     Ok(roots
         .into_iter()
         .map(|(ph, i)| (crate::numeric::pow10(-ph), i))

@@ -594,3 +594,26 @@ fn other_root_warning_names_the_other_root() {
         );
     }
 }
+
+/// Waters whose root lies between the last pH sample of the scan that
+/// leaves carbon alkalinity and the first that leaves none (tiny DIC, high
+/// pH) are found, not refused.
+#[test]
+fn roots_beside_the_edge_of_the_scan_are_found() {
+    let w = Water::fresh(Conditions::new(25.0, 0.1).unwrap()).unwrap();
+    for (ph, dic) in [(11.0, 1.0), (10.0, 0.1), (11.5, 5.0), (7.0, 0.01)] {
+        let base = w
+            .solve(
+                Measured::ph(ph, None).unwrap(),
+                Measured::dic_umol_kg(dic).unwrap(),
+            )
+            .unwrap();
+        let back = w
+            .solve(
+                Measured::alkalinity_umol_kg(base.alkalinity_umol_kg).unwrap(),
+                Measured::dic_umol_kg(dic).unwrap(),
+            )
+            .unwrap_or_else(|e| panic!("pH {ph}, DIC {dic}: {e}"));
+        assert!((back.ph_nbs - ph).abs() < 1e-9, "pH {ph}: {}", back.ph_nbs);
+    }
+}
