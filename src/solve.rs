@@ -692,8 +692,18 @@ fn ta_co3_root(
         (Some(h_low), Some(h_high)) => {
             let two = (h_high / h_low - 1.0).abs() > 1e-9;
             let (chosen, other) = settle(pick(root, h_low, h_high), root, two, &fits);
-            let chosen = polish(chosen, chosen == h_low)?;
+            let chosen_on_high_side = chosen == h_low;
+            let other_on_high_side = !chosen_on_high_side;
+            let chosen = polish(chosen, chosen_on_high_side)?;
             if two && fits(other) {
+                // Roots within a pH unit of each other are near a double
+                // root, where the rough one is least accurate: polish it
+                // too, so that the warning's four decimals hold.
+                let other = if h_high < 10.0 * h_low {
+                    polish(other, other_on_high_side)?
+                } else {
+                    other
+                };
                 warnings.push(other_root_warning(pair, k, chosen, other));
             }
             Ok(chosen)

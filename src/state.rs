@@ -448,7 +448,9 @@ impl Water {
     }
 
     /// As [`Water::solve_with`], reusing constants already evaluated for this
-    /// water (they must come from [`Water::constants`] of the same water).
+    /// water (they must come from [`Water::constants`] of the same water,
+    /// unchanged: saline constants also carry logarithms of some of their
+    /// values, which a field changed by hand would leave stale).
     /// Fresh water iterates its activity coefficients with the speciation,
     /// so there the constants are evaluated afresh and `k` is not used.
     ///
