@@ -347,8 +347,22 @@ pub(crate) fn solve(
             ((c * k.k1e + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
         }
         (Known::Dic(dic), Known::Hco3(hco3)) => {
+            // The alkalinity at h is bounded by 2 DIC, every total and the
+            // water terms; only where that bound is beyond the accepted range
+            // is the alkalinity itself evaluated.
+            let t = &k.totals;
+            let totals = t.boron_mol_kg
+                + t.silicate_mol_kg
+                + t.ammonia_mol_kg
+                + t.sulfide_mol_kg
+                + 2.0 * t.phosphate_mol_kg
+                + t.sulfate_mol_kg
+                + t.fluoride_mol_kg;
             let fits = |h: f64| {
-                h_in_range(h) && alkalinity_in_range(crate::alkalinity::parts(k, h, dic).total())
+                let bound = 2.0 * dic + totals + k.kw / h + h * k.free_per_working;
+                h_in_range(h)
+                    && (alkalinity_in_range(bound)
+                        || alkalinity_in_range(crate::alkalinity::parts(k, h, dic).total()))
             };
             let h = dic_hco3_root(k, &pair, dic, hco3, options.root, fits, &mut warnings)?;
             (h, dic)
