@@ -231,8 +231,9 @@ fn dic_in_range(dic: f64) -> bool {
 }
 
 /// Whether an alkalinity (mol/kg) is one a measurement could have (the
-/// test of `State`'s build, for a root not yet built).
-fn alkalinity_in_range(ta: f64) -> bool {
+/// test of a state's build, also used here for a root not yet built); an
+/// alkalinity measured at the limit passes despite rounding.
+pub(crate) fn alkalinity_in_range(ta: f64) -> bool {
     let (_, max) = Parameter::Alkalinity.accepted_range();
     let umol = ta * 1e6;
     umol.is_finite() && umol.abs() <= max * (1.0 + 1e-9)
@@ -522,8 +523,8 @@ fn dic_hco3_root(
     let h_high = (q * k.k1e + disc.sqrt()) / (2.0 * c);
     let h_low = k.k1e * k.k2e / h_high;
     let two = (h_high / h_low - 1.0).abs() > 1e-9;
-    let (chosen, other) = settle(pick(root, h_low, h_high), root, two, &fits);
-    if two && fits(other) {
+    let (chosen, other, report) = settle(pick(root, h_low, h_high), root, two, &fits);
+    if report {
         warnings.push(other_root_warning(pair, k, chosen, other));
     }
     Ok(chosen)
@@ -532,16 +533,22 @@ fn dic_hco3_root(
 /// The default choice falls back to the other root when the one nearer pH 8
 /// fits no measurable water (its pH, DIC or alkalinity beyond what a
 /// measurement may be) and the other does. An explicit choice is kept.
+/// Returns the chosen root, the other, and whether the other is a second
+/// water to report (distinct and measurable).
 fn settle(
     (chosen, other): (f64, f64),
     root: RootChoice,
     two: bool,
     fits: impl Fn(f64) -> bool,
-) -> (f64, f64) {
-    if two && root == RootChoice::Natural && !fits(chosen) && fits(other) {
-        (other, chosen)
+) -> (f64, f64, bool) {
+    if !two {
+        return (chosen, other, false);
+    }
+    let other_fits = fits(other);
+    if root == RootChoice::Natural && other_fits && !fits(chosen) {
+        (other, chosen, false)
     } else {
-        (chosen, other)
+        (chosen, other, other_fits)
     }
 }
 
@@ -705,11 +712,11 @@ fn ta_co3_root(
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
             let two = (h_high / h_low - 1.0).abs() > 1e-9;
-            let (chosen, other) = settle(pick(root, h_low, h_high), root, two, &fits);
+            let (chosen, other, report) = settle(pick(root, h_low, h_high), root, two, &fits);
             let chosen_on_high_side = chosen == h_low;
             let other_on_high_side = !chosen_on_high_side;
             let chosen = polish(chosen, chosen_on_high_side)?;
-            if two && fits(other) {
+            if report {
                 // Roots within a pH unit of each other are near a double
                 // root, where the rough one is least accurate: polish it
                 // too, so that the warning's four decimals hold.

@@ -323,7 +323,7 @@ impl State {
         let s = parts_with_slopes(k, h, dic);
         let p = s.parts;
         let ta = p.total();
-        implausible(ta * 1e6, a, b)?;
+        implausible(ta, a, b)?;
         let fco2 = co2 / k.k0;
         let pco2 = fco2 / k.fugacity_factor;
         let xco2 = pco2 / (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
@@ -486,14 +486,12 @@ impl Water {
 /// A state whose alkalinity (µmol/kg) is beyond what any measurement may be
 /// (for example DIC with a pH near 0, which needs an alkalinity of about
 /// −1 mol/kg) fits no real water.
-fn implausible(alkalinity_umol_kg: f64, a: &Measured, b: &Measured) -> Result<()> {
-    let (_, max) = Parameter::Alkalinity.accepted_range();
-    let v = alkalinity_umol_kg;
-    // The slack lets an alkalinity measured at the limit itself through
-    // when rounding puts the solved value a few ulp above it.
-    if v.is_finite() && v.abs() <= max * (1.0 + 1e-9) {
+fn implausible(alkalinity_mol_kg: f64, a: &Measured, b: &Measured) -> Result<()> {
+    if crate::solve::alkalinity_in_range(alkalinity_mol_kg) {
         return Ok(());
     }
+    let (_, max) = Parameter::Alkalinity.accepted_range();
+    let v = alkalinity_mol_kg * 1e6;
     Err(crate::Error::NoWaterFits {
         first: a.parameter().name(),
         first_value: a.describe(),
