@@ -110,7 +110,7 @@ pub fn debye_huckel_b(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
 /// ```
 pub fn davies_gamma(a: f64, z: f64, i: f64) -> f64 {
     let ri = i.sqrt();
-    10f64.powf(-a * z * z * (ri / (1.0 + ri) - 0.3 * i))
+    crate::numeric::pow10(-a * z * z * (ri / (1.0 + ri) - 0.3 * i))
 }
 
 /// Extended Debye–Hückel activity coefficient with ion size `size_angstrom`.
@@ -175,20 +175,38 @@ impl Gammas {
     /// ```
     pub fn new(model: ActivityModel, temperature_c: f64, rho_w_g_cm3: f64, i: f64) -> Self {
         let a = debye_huckel_a(temperature_c, rho_w_g_cm3);
+        let b = debye_huckel_b(temperature_c, rho_w_g_cm3);
+        Self::from_coefficients(model, a, b, i)
+    }
+
+    /// The coefficients under `model` from the Debye–Hückel A and B already
+    /// evaluated for the temperature (see [`debye_huckel_a`],
+    /// [`debye_huckel_b`]; B is used only by the extended equation), at
+    /// ionic strength `i` (mol/kg). A solve that iterates the ionic strength
+    /// evaluates A and B once.
+    ///
+    /// ```
+    /// # use travertine::activity::{debye_huckel_a, debye_huckel_b, ActivityModel, Gammas};
+    /// let (a, b) = (debye_huckel_a(25.0, 0.997048), debye_huckel_b(25.0, 0.997048));
+    /// let g = Gammas::from_coefficients(ActivityModel::Davies, a, b, 0.01);
+    /// assert_eq!(g, Gammas::new(ActivityModel::Davies, 25.0, 0.997048, 0.01));
+    /// ```
+    pub fn from_coefficients(model: ActivityModel, a: f64, b: f64, i: f64) -> Self {
         match model {
             ActivityModel::Davies => {
+                // log γ is proportional to z²: γ2 = γ1⁴ and γ3 = γ1⁹, one
+                // exponential for the three.
                 let g1 = davies_gamma(a, 1.0, i);
-                let g2 = davies_gamma(a, 2.0, i);
+                let g2 = (g1 * g1) * (g1 * g1);
                 Self {
                     hydrogen: g1,
                     monovalent: g1,
                     carbonate: g2,
                     calcium: g2,
-                    trivalent: davies_gamma(a, 3.0, i),
+                    trivalent: g2 * g2 * g1,
                 }
             }
             ActivityModel::ExtendedDebyeHuckel => {
-                let b = debye_huckel_b(temperature_c, rho_w_g_cm3);
                 let g = |z: f64, size: f64| extended_debye_huckel_gamma(a, b, z, size, i);
                 Self {
                     hydrogen: g(1.0, ion_size::H),

@@ -1,6 +1,7 @@
-//! The fresh medium: thermodynamic constants, activity coefficients, ionic
-//! strength, calcium ion pairs, the Langelier index and the calcium
-//! carbonate precipitation potential.
+//! The fresh medium: thermodynamic constants made apparent with activity
+//! coefficients, the ionic strength, the calcium ion pairs, and the fixed
+//! point that runs the shared solver of [`crate::solve`] at them; the
+//! Langelier index and the calcium carbonate precipitation potential.
 //!
 //! The constants are apparent constants on the NBS scale, where the working
 //! h is the activity of H+:
@@ -13,19 +14,33 @@
 //! [CaHCO3+] = K γCa [Ca][HCO3-]              [CaCO3⁰] = K γCa γ2 [Ca][CO3--]
 //! ```
 //! with γ1, γ2, γ3 the coefficients of ions of charge 1, 2, 3 and neutral
-//! species at γ = 1. The ionic strength and free calcium are iterated with
-//! the speciation until both agree to 1e-13 relative.
+//! species at γ = 1.
+//!
+//! # One solver for both media
+//! The apparent constants depend on the ionic strength I and the free
+//! calcium Ca, which depend on the speciation. A solve is therefore a fixed
+//! point around the shared solver:
+//!
+//! ```text
+//! (I, Ca) → apparent constants → shared pair algebra and root → (h, DIC)
+//!         → Ca from the exact pair balance at that h and DIC,
+//!           I from the ions (unless it comes from conductance, TDS or salinity)
+//! ```
+//! repeated until I and Ca change by less than 1e-12 relative. The root
+//! policy is the shared one; where a pair has two roots, each is settled at
+//! its own ionic strength and calcium, so the root nearer pH 8 and the
+//! other root's warning hold for the converged waters.
 
-use crate::activity::Gammas;
-use crate::alkalinity::non_carbonate;
+use crate::activity::{ActivityModel, Gammas};
+use crate::conditions::Conditions;
 use crate::conductivity::{langelier1936_ionic_strength, russell1976_ionic_strength};
 use crate::constants::fresh as pb;
 use crate::constants::{nutrients, sulfate, sulfide, Constants, FitName, FitsUsed, Totals};
 use crate::density::density_kg_m3;
 use crate::error::{Error, Result};
-use crate::measured::Measured;
+use crate::measured::{Measured, Parameter};
 use crate::scales::PhScale;
-use crate::solve::{to_known, Known, Pair, RootChoice, SolveOptions};
+use crate::solve::{solve, RootChoice, Solution, SolveOptions};
 use crate::state::{FreshExtras, State};
 use crate::units::CACO3_G_MOL;
 use crate::warning::{Warning, Warnings};
@@ -80,9 +95,19 @@ impl IonicStrengthRoute {
     }
 }
 
-/// Temperature-only thermodynamic constants, evaluated once per solve.
-#[derive(Debug, Clone)]
-pub(crate) struct Thermo {
+/// Everything about a fresh water that does not depend on its speciation:
+/// the thermodynamic constants at its temperature and pressure, the
+/// Debye–Hückel coefficients, the totals, the ionic-strength route and the
+/// range warnings. Evaluated once per prepared water; apparent constants at
+/// any ionic strength and free calcium then cost the activity coefficients
+/// and a few products.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct FreshBasis {
+    conditions: Conditions,
+    model: ActivityModel,
+    /// Debye–Hückel A and B at this temperature.
+    dh_a: f64,
+    dh_b: f64,
     kh: f64,
     k1: f64,
     k2: f64,
@@ -98,14 +123,27 @@ pub(crate) struct Thermo {
     ksp_aragonite: f64,
     k_cahco3: f64,
     k_caco3: f64,
-    rho_w_g_cm3: f64,
+    fugacity_factor: f64,
+    vapour_pressure_atm: f64,
     density: f64,
     totals: Totals,
+    fits_used: FitsUsed,
+    route: IonicStrengthRoute,
+    /// The ionic strength where it does not depend on the speciation.
+    fixed_i: Option<f64>,
+    /// The first ionic strength of a fixed point where it comes from the ions.
+    i_start: f64,
     warnings: Vec<Warning>,
 }
 
-impl Thermo {
-    fn new(water: &Water) -> Result<Self> {
+/// Iteration cap of a fixed point; reaching it is reported as non-convergence.
+const MAX_OUTER: u32 = 200;
+/// Relative change of I and Ca below which a fixed point has converged.
+const OUTER_TOLERANCE: f64 = 1e-12;
+
+impl FreshBasis {
+    /// The basis of `water`, a fresh water.
+    pub(crate) fn new(water: &Water) -> Result<Self> {
         let c = water.conditions();
         let t_c = c.temperature_c();
         let t = c.temperature_k();
@@ -129,7 +167,13 @@ impl Thermo {
         }
         let p10 = crate::numeric::pow10;
         let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
-        let mut th = Thermo {
+        let model = water.fresh_options().activity;
+        let route = route(water);
+        let mut b = FreshBasis {
+            conditions: *c,
+            model,
+            dh_a: crate::activity::debye_huckel_a(t_c, rho_w),
+            dh_b: crate::activity::debye_huckel_b(t_c, rho_w),
             kh: p10(pb::log_kh(t)),
             k1: p10(pb::log_k1(t)),
             k2: p10(pb::log_k2(t)),
@@ -146,44 +190,53 @@ impl Thermo {
             ksp_aragonite: p10(pb::log_ksp_aragonite(t)),
             k_cahco3: p10(pb::log_k_cahco3(t)),
             k_caco3: p10(pb::log_k_caco3(t)),
-            rho_w_g_cm3: rho_w,
+            fugacity_factor: crate::constants::gas::weiss1974_fugacity_factor(
+                t,
+                c.air_pressure_atm(),
+            ),
+            vapour_pressure_atm: crate::constants::gas::weiss_price1980_vapour_pressure_atm(t, 0.0),
             density,
             totals,
+            fits_used: fresh_fits_used(&totals, model),
+            route,
+            fixed_i: fixed_ionic_strength(water, route),
+            i_start: 0.0,
             warnings,
         };
         let p_bar = c.pressure_bar();
         if p_bar > 0.0 {
             use crate::constants::pressure::*;
             let f = |k: &PressureCoefficients| pressure_factor(k, t_c, p_bar);
-            th.k1 *= f(&K1);
-            th.k2 *= f(&K2);
-            th.kw *= f(&KW);
-            th.kb *= f(&KB);
-            th.kp = (th.kp.0 * f(&KP1), th.kp.1 * f(&KP2), th.kp.2 * f(&KP3));
-            th.ksi *= f(&KSI);
-            th.ks *= f(&KS);
-            th.kf *= f(&KF);
-            th.knh4 *= f(&KNH4);
-            th.kh2s *= f(&KH2S);
-            th.ksp_calcite *= f(&CALCITE);
-            th.ksp_aragonite *= f(&ARAGONITE);
-            th.warnings.push(Warning::Note(
+            b.k1 *= f(&K1);
+            b.k2 *= f(&K2);
+            b.kw *= f(&KW);
+            b.kb *= f(&KB);
+            b.kp = (b.kp.0 * f(&KP1), b.kp.1 * f(&KP2), b.kp.2 * f(&KP3));
+            b.ksi *= f(&KSI);
+            b.ks *= f(&KS);
+            b.kf *= f(&KF);
+            b.knh4 *= f(&KNH4);
+            b.kh2s *= f(&KH2S);
+            b.ksp_calcite *= f(&CALCITE);
+            b.ksp_aragonite *= f(&ARAGONITE);
+            b.warnings.push(Warning::Note(
                 "fresh water under pressure: the Millero (1995) corrections use sea-water \
                  coefficients",
             ));
         }
-        Ok(th)
+        // Where the ions give the ionic strength, start from the ions given
+        // (with all calcium free) and no carbon.
+        if b.fixed_i.is_none() {
+            let ca = b.totals.calcium_mol_kg;
+            b.i_start = ion_sum(&b.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
+        }
+        Ok(b)
     }
 
-    /// Apparent constants at ionic strength `i` with free calcium `ca_free`.
-    fn constants(&self, water: &Water, i: f64, ca_free: f64) -> Constants {
-        let c = water.conditions();
-        let g = Gammas::new(
-            water.fresh_options().activity,
-            c.temperature_c(),
-            self.rho_w_g_cm3,
-            i,
-        );
+    /// Apparent constants at ionic strength `i`, free calcium `ca_free` and
+    /// total calcium `ca_total` (mol/kg), without the range warnings.
+    fn constants_at(&self, i: f64, ca_free: f64, ca_total: f64) -> Constants {
+        let g = Gammas::from_coefficients(self.model, self.dh_a, self.dh_b, i);
         let (g1, g2, g3, gh, gca) = (
             g.monovalent,
             g.carbonate,
@@ -197,10 +250,15 @@ impl Thermo {
         let k_caco3 = self.k_caco3 * gca * g2;
         let pair_hco3 = k_cahco3 * ca_free;
         let pair_co3 = k_caco3 * ca_free;
-        let t = &self.totals;
+        let mut t = self.totals;
+        t.calcium_mol_kg = ca_total;
         let on = |total: f64, k: f64| if total > 0.0 { k } else { 0.0 };
+        // Concentration constants on free [H+]: [H][SO4]/[HSO4] = KS γ1/(γH γ2),
+        // [H][F]/[HF] = KF/(γH γ1).
+        let ks_free = self.ks * g1 / (gh * g2);
+        let kf_free = self.kf / (gh * g1);
         Constants {
-            conditions: *c,
+            conditions: self.conditions,
             working_scale: PhScale::Nbs,
             k0: self.kh,
             k1,
@@ -219,34 +277,24 @@ impl Thermo {
             ksi: on(t.silicate_mol_kg, self.ksi / g1),
             knh4: on(t.ammonia_mol_kg, self.knh4 * g1),
             kh2s: on(t.sulfide_mol_kg, self.kh2s / g1),
-            // Concentration constants on free [H+]: [H][SO4]/[HSO4] = KS γ1/(γH γ2),
-            // [H][F]/[HF] = KF/(γH γ1).
-            ks_free: self.ks * g1 / (gh * g2),
-            kf_free: self.kf / (gh * g1),
+            ks_free,
+            kf_free,
             ksp_calcite: self.ksp_calcite / (gca * g2),
             ksp_aragonite: self.ksp_aragonite / (gca * g2),
-            totals: *t,
+            totals: t,
             free_per_working: 1.0 / gh,
             // Defined as in sea water, from the free [H+] and the sulfate and
             // fluoride given (equal to the free scale when there are none).
-            seawater_per_working: (1.0
-                + t.sulfate_mol_kg / (self.ks * g1 / (gh * g2))
-                + t.fluoride_mol_kg / (self.kf / (gh * g1)))
+            seawater_per_working: (1.0 + t.sulfate_mol_kg / ks_free + t.fluoride_mol_kg / kf_free)
                 / gh,
-            total_per_working: (1.0 + t.sulfate_mol_kg / (self.ks * g1 / (gh * g2))) / gh,
+            total_per_working: (1.0 + t.sulfate_mol_kg / ks_free) / gh,
             nbs_per_working: 1.0,
-            fugacity_factor: crate::constants::gas::weiss1974_fugacity_factor(
-                c.temperature_k(),
-                c.air_pressure_atm(),
-            ),
-            vapour_pressure_atm: crate::constants::gas::weiss_price1980_vapour_pressure_atm(
-                c.temperature_k(),
-                0.0,
-            ),
+            fugacity_factor: self.fugacity_factor,
+            vapour_pressure_atm: self.vapour_pressure_atm,
             density_kg_m3: self.density,
-            fits_used: fresh_fits_used(t, water.fresh_options().activity),
+            fits_used: self.fits_used,
             // Attached only to the constants a caller sees (not on every
-            // trial of the inner iterations, where it would allocate).
+            // trial of a fixed point, where it would allocate).
             warnings: Vec::new(),
             gammas: Some(g),
             k_cahco3,
@@ -254,6 +302,518 @@ impl Thermo {
             logs: None,
         }
     }
+
+    /// The constants at the first ionic strength of a solve, with all
+    /// calcium free, and the range warnings: what [`Water::constants`]
+    /// returns for a fresh water.
+    pub(crate) fn starting_constants(&self) -> Constants {
+        let ca = self.totals.calcium_mol_kg;
+        let mut k = self.constants_at(self.fixed_i.unwrap_or(self.i_start), ca, ca);
+        k.warnings = self.warnings.clone();
+        k
+    }
+
+    /// The fixed point of a solve: the shared solver at the apparent
+    /// constants of (I, Ca), until the free calcium and the ionic strength
+    /// are those of its (h, DIC). `held_i` holds the ionic strength (the
+    /// derived figures hold the sample's); `pair` gives the measured pair at
+    /// the current constants (the saturation pH asks for the CO3 that
+    /// saturates the current free calcium). Returns the constants of the
+    /// last solve, with which its (h, DIC) are exactly consistent.
+    ///
+    /// Where the ions give the ionic strength, it is the outer unknown and
+    /// the free calcium the inner one, each a one-dimensional fixed point
+    /// ([`fixed_point`]). A solve that fails on the way (the pair fits no
+    /// water at that ionic strength) steps back towards the last ionic
+    /// strength that solved; before any has, the ionic strength of the ions
+    /// given without carbon, a lower bound, is doubled.
+    fn settle<F>(
+        &self,
+        ca_total: f64,
+        held_i: Option<f64>,
+        root: RootChoice,
+        pair: F,
+    ) -> Result<(Constants, Solution)>
+    where
+        F: Fn(&Constants) -> Result<(Measured, Measured)>,
+    {
+        let options = SolveOptions::default().with_root(root);
+        let calcium = std::cell::Cell::new(None);
+        let at = |i: f64| self.settle_calcium(ca_total, i, calcium.get(), &options, &pair);
+        match held_i.or(self.fixed_i) {
+            Some(i) => at(i).map(|(k, sol, _)| (k, sol)),
+            None => {
+                let bracket = Bracket {
+                    lo: Some(0.0),
+                    hi: None,
+                    failure: Failure::Unknown,
+                    floor: 1e-12,
+                };
+                let (k, sol, _) = fixed_point(self.i_start, bracket, |i| {
+                    let (k, sol, ca) = at(i)?;
+                    calcium.set(Some(ca));
+                    Ok((ion_sum(&k, sol.h, sol.dic).0, (k, sol, ca)))
+                })?;
+                Ok((k, sol))
+            }
+        }
+    }
+
+    /// The inner fixed point at ionic strength `i`: the free calcium,
+    /// starting from `start` (else from the free ions given, else all
+    /// calcium free). Returns the constants and solution of the last
+    /// solve, and the free calcium.
+    fn settle_calcium<F>(
+        &self,
+        ca_total: f64,
+        i: f64,
+        start: Option<f64>,
+        options: &SolveOptions,
+        pair: &F,
+    ) -> Result<(Constants, Solution, f64)>
+    where
+        F: Fn(&Constants) -> Result<(Measured, Measured)>,
+    {
+        let solve_at = |ca: f64| -> Result<(Constants, Solution)> {
+            let k = self.constants_at(i, ca, ca_total);
+            let (a, b) = pair(&k)?;
+            let sol = solve(&k, &a, &b, options)?;
+            Ok((k, sol))
+        };
+        if ca_total <= 0.0 {
+            let (k, sol) = solve_at(0.0)?;
+            return Ok((k, sol, 0.0));
+        }
+        let start = start.unwrap_or_else(|| {
+            // A free ion given fixes its own pair: a first calcium much
+            // nearer the settled one than all calcium free.
+            let k = self.constants_at(i, ca_total, ca_total);
+            pair(&k).map_or(ca_total, |(a, b)| {
+                ca_total / (1.0 + free_ion_pairs(&k, &a) + free_ion_pairs(&k, &b))
+            })
+        });
+        // g(Ca) = F(Ca) − Ca > 0 at Ca = 0 and ≤ 0 at CaT (pairs only take
+        // calcium away). All calcium taken as free overstates the pairs of
+        // the free ions given (HCO3-, CO3--) or of the carbon they bind,
+        // and the pair may then fit no water: a failure is too much calcium.
+        let bracket = Bracket {
+            lo: Some(0.0),
+            hi: Some(ca_total),
+            failure: Failure::High,
+            floor: 1e-30,
+        };
+        fixed_point(start.clamp(0.0, ca_total), bracket, |ca| {
+            let (k, sol) = solve_at(ca)?;
+            let f = free_calcium(&k, sol.h, sol.dic, ca_total);
+            Ok((f, (k, sol, ca)))
+        })
+    }
+
+    /// The complete state of `water` (whose basis this is) from two
+    /// measured parameters.
+    pub(crate) fn solve(
+        &self,
+        water: &Water,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+    ) -> Result<State> {
+        let ca_total = self.totals.calcium_mol_kg;
+        let given = |_: &Constants| Ok((a, b));
+        let (mut k, sol) = if two_roots(&a, &b) {
+            self.two_roots(&a, &b, options.root)?
+        } else {
+            self.settle(ca_total, None, options.root, given)?
+        };
+        let Solution {
+            h,
+            dic,
+            mut warnings,
+        } = sol;
+        k.warnings = self.warnings.clone();
+        let imbalance = ion_sum(&k, h, dic).1;
+        add_route_warnings(water, self.route, k.ionic_strength, &mut warnings);
+        let extras = self.extras(&k, h, dic, imbalance, options, &mut warnings);
+        State::build_fresh(water, &k, h, dic, warnings, extras, (&a, &b))
+    }
+
+    /// A pair that can fit two waters (alkalinity with CO3, DIC with HCO3).
+    /// Each side is settled at its own ionic strength and calcium, and the
+    /// shared root policy is applied to the settled roots: the one asked
+    /// for, or by default the one nearer pH 8; the other, where it is a
+    /// distinct, measurable water, is named in the warning.
+    ///
+    /// Near a double root the side of a root at fixed constants need not be
+    /// its side once the ionic strength and calcium are settled, so a side
+    /// can fail to settle. The default then takes the side that settles; a
+    /// side asked for that does not settle, where the other does, is
+    /// refused with the other root's pH.
+    fn two_roots(
+        &self,
+        a: &Measured,
+        b: &Measured,
+        root: RootChoice,
+    ) -> Result<(Constants, Solution)> {
+        let ca_total = self.totals.calcium_mol_kg;
+        let given = |_: &Constants| Ok((*a, *b));
+        let side = |r| self.settle(ca_total, None, r, given);
+        let ph = |s: &Solution| -crate::numeric::log10(s.h);
+        let (lower, higher) = (side(RootChoice::LowerPh), side(RootChoice::HigherPh));
+        let (chosen, other) = match root {
+            RootChoice::LowerPh => (lower, higher),
+            RootChoice::HigherPh => (higher, lower),
+            _ => match (&lower, &higher) {
+                (Ok(l), Ok(h)) if (ph(&h.1) - 8.0).abs() < (ph(&l.1) - 8.0).abs() => {
+                    (higher, lower)
+                }
+                (Err(_), Ok(_)) => (higher, lower),
+                _ => (lower, higher),
+            },
+        };
+        let (k, mut sol) = match (chosen, &other) {
+            (Ok(found), _) => found,
+            (Err(e @ Error::NoConvergence { .. }), Ok((_, found))) => {
+                return Err(Error::NoWaterFits {
+                    first: a.parameter().name(),
+                    first_value: a.describe(),
+                    second: b.parameter().name(),
+                    second_value: b.describe(),
+                    reason: format!(
+                        "that root does not settle with its own ionic strength and calcium \
+                         ({e}); the pair fits a water of pH {:.4} (nbs scale), and near it \
+                         the two roots are one water within the precision of a measurement",
+                        ph(found)
+                    ),
+                })
+            }
+            (Err(e), _) => return Err(e),
+        };
+        let distinct = |o: &Solution| (o.h / sol.h - 1.0).abs() > 1e-9;
+        let measurable = |k: &Constants, o: &Solution| {
+            crate::solve::alkalinity_in_range(crate::alkalinity::parts(k, o.h, o.dic).total())
+        };
+        let named = match &other {
+            Ok((ko, o)) if distinct(o) && measurable(ko, o) => Some(ph(o)),
+            // The other side did not settle: the chosen solve's own
+            // report, at its constants, stands.
+            Err(Error::NoConvergence { .. }) => sol.warnings.other_root().map(|(p, _)| p),
+            _ => None,
+        };
+        let (first, second) = if a.parameter() < b.parameter() {
+            (a, b)
+        } else {
+            (b, a)
+        };
+        let here = ph(&sol);
+        sol.warnings
+            .replace_other_root(named.map(|p| Warning::OtherRoot {
+                first: first.parameter().name(),
+                second: second.parameter().name(),
+                ph: p,
+                scale: PhScale::Nbs.name(),
+                higher: p > here,
+            }));
+        Ok((k, sol))
+    }
+
+    fn extras(
+        &self,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        imbalance: f64,
+        options: &SolveOptions,
+        warnings: &mut Warnings,
+    ) -> FreshExtras {
+        let mut e = FreshExtras {
+            ionic_strength_from: self.route,
+            charge_balance_percent: (self.route == IonicStrengthRoute::MajorIons)
+                .then_some(100.0 * imbalance),
+            saturation_ph_nbs: None,
+            langelier_index: None,
+            precipitation_potential_mg_l_caco3: None,
+        };
+        if self.totals.calcium_mol_kg <= 0.0 {
+            return e;
+        }
+        let ta = crate::alkalinity::parts(k, h, dic).total();
+        match self.saturation_ph(k, ta) {
+            Some(phs) => {
+                e.saturation_ph_nbs = Some(phs);
+                e.langelier_index = Some(-crate::numeric::log10(h) - phs);
+            }
+            None => warnings.push(Warning::Note(
+                "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
+                 calcium: Langelier index not computed",
+            )),
+        }
+        if options.precipitation_potential {
+            match self.precipitation_potential(k, ta, dic) {
+                Some(x) => {
+                    e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL)
+                }
+                None => warnings.push(Warning::Note(
+                    "the calcium carbonate precipitation potential could not be bracketed",
+                )),
+            }
+        }
+        e
+    }
+
+    /// pHs of the Langelier index: the NBS pH at which this water, with its
+    /// alkalinity and total calcium (and the ionic strength of `k`, the
+    /// sample's), is exactly saturated with calcite. That is the
+    /// alkalinity + CO3 pair of the shared solver, with free CO3 = Ksp'/Ca
+    /// at the free calcium of each iteration, and its lower-pH root (the
+    /// first pH, going up, at which the water saturates; the higher root
+    /// is where hydroxide has taken the alkalinity). `None` outside pH 4–13.
+    fn saturation_ph(&self, k: &Constants, ta: f64) -> Option<f64> {
+        let alkalinity = Measured::per_kg(Parameter::Alkalinity, ta).ok()?;
+        let pair = |kc: &Constants| {
+            let co3 = kc.ksp_calcite / kc.calcium_free_mol_kg;
+            Ok((alkalinity, Measured::per_kg(Parameter::Co3, co3)?))
+        };
+        let held = Some(k.ionic_strength);
+        let (_, sol) = self
+            .settle(self.totals.calcium_mol_kg, held, RootChoice::LowerPh, pair)
+            .ok()?;
+        let ph = -crate::numeric::log10(sol.h);
+        (4.0..=13.0).contains(&ph).then_some(ph)
+    }
+
+    /// Calcium carbonate precipitation potential (mol/kg): the calcite that
+    /// would precipitate (positive) or dissolve (negative) in a closed
+    /// system to reach saturation, removing x of calcium and DIC and 2x of
+    /// alkalinity (Rossum & Merrill 1983; from memory, unverified). Each
+    /// trial x is a full solve of (TA − 2x, DIC − x) with calcium Ca − x
+    /// through the shared solver, the ionic strength held at the sample's;
+    /// the root in x is Brent's, to 1e-12 relative.
+    fn precipitation_potential(&self, k: &Constants, ta: f64, dic: f64) -> Option<f64> {
+        let ca_t = self.totals.calcium_mol_kg;
+        let held = Some(k.ionic_strength);
+        let log_omega = |x: f64| -> f64 {
+            let pair = (
+                Measured::per_kg(Parameter::Alkalinity, ta - 2.0 * x),
+                Measured::per_kg(Parameter::Dic, dic - x),
+            );
+            let (Ok(a), Ok(b)) = pair else {
+                return f64::NAN;
+            };
+            match self.settle(ca_t - x, held, RootChoice::Natural, |_| Ok((a, b))) {
+                Ok((kx, s)) => {
+                    let co3 = free_carbonate(&kx, s.h, s.dic);
+                    (kx.calcium_free_mol_kg * co3 / kx.ksp_calcite).ln()
+                }
+                Err(_) => f64::NAN,
+            }
+        };
+        let f0 = log_omega(0.0);
+        if !f0.is_finite() {
+            return None;
+        }
+        if f0 == 0.0 {
+            return Some(0.0);
+        }
+        // Supersaturated: the root lies between 0 and the most that can
+        // precipitate; undersaturated: between 0 and 0.01 mol/kg dissolved.
+        let (lo, hi) = if f0 > 0.0 {
+            (0.0, ca_t.min(dic).min(ta / 2.0) * (1.0 - 1e-9))
+        } else {
+            (-0.01, 0.0)
+        };
+        let far = if f0 > 0.0 { hi } else { lo };
+        let f_far = log_omega(far);
+        if !f_far.is_finite() || f_far * f0 > 0.0 {
+            return None;
+        }
+        let mut conv = crate::root::Relative {
+            rel: 1e-12,
+            y_tol: 1e-13,
+            max_iter: 200,
+        };
+        roots::find_root_brent(lo, hi, log_omega, &mut conv).ok()
+    }
+}
+
+/// What is known of where a fixed point x = F(x) lies, for
+/// [`fixed_point`]: g(x) = F(x) − x is positive below it and negative
+/// above it.
+#[derive(Debug, Clone, Copy)]
+struct Bracket {
+    /// A value at or below the fixed point, if known.
+    lo: Option<f64>,
+    /// A value at or above it, if known.
+    hi: Option<f64>,
+    /// Where a value at which F cannot be evaluated lies.
+    failure: Failure,
+    /// Absolute floor of the relative tolerance.
+    floor: f64,
+}
+
+/// Where a value at which a fixed point's F cannot be evaluated lies.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Failure {
+    /// Above the fixed point.
+    High,
+    /// Either side: the iteration steps back halfway to the last value
+    /// that could be evaluated (or, before any, doubles).
+    Unknown,
+}
+
+/// A one-dimensional fixed point x = F(x), where g(x) = F(x) − x falls
+/// through zero once, by a safeguarded secant iteration: each step is the
+/// secant step on g through the last two values where it falls inside the
+/// bracket of values known to lie on either side, else the plain step F(x),
+/// else a bisection of the bracket (or an expansion of it where it is open
+/// above). The secant converges superlinearly where the plain iteration
+/// x ← F(x) converges slowly or not at all (near a double root of a
+/// two-root pair the root moves fast with the constants, and F is steep),
+/// and the bracket makes convergence certain. `eval` returns F(x) and the
+/// value to return if x is the fixed point, or an error where F cannot be
+/// evaluated (the pair fits no water at x), which moves the bracket. Stops
+/// when |F(x) − x| ≤ 1e-12 max(|x|, floor).
+///
+/// # Errors
+/// Where no evaluation succeeded, the last evaluation error once the
+/// bracket has shrunk to nothing; otherwise [`Error::NoConvergence`] (the
+/// fixed point did not settle).
+fn fixed_point<T>(
+    start: f64,
+    bracket: Bracket,
+    mut eval: impl FnMut(f64) -> Result<(f64, T)>,
+) -> Result<T> {
+    let Bracket {
+        mut lo,
+        mut hi,
+        failure,
+        floor,
+    } = bracket;
+    let mut x = start;
+    let mut previous: Option<(f64, f64)> = None;
+    let mut last_error = None;
+    let mut solved_once = false;
+    let mut feasible = None;
+    let not_settled = || Error::NoConvergence {
+        first: "ionic strength",
+        second: "free calcium",
+        iterations: MAX_OUTER,
+    };
+    for _ in 0..MAX_OUTER {
+        let (f, value) = match eval(x) {
+            Ok(v) => v,
+            Err(e) => {
+                previous = None;
+                let next = match (failure, feasible) {
+                    // Back halfway to the last value that solved.
+                    (Failure::Unknown, Some(v)) => 0.5 * (x + v),
+                    (Failure::Unknown, None) => 2.0 * x + 1e-4,
+                    (Failure::High, _) => {
+                        hi = Some(x);
+                        lo.map_or(0.5 * x, |l| 0.5 * (l + x))
+                    }
+                };
+                if (next - x).abs() <= OUTER_TOLERANCE * x.abs().max(floor) {
+                    // Solved on one side, failing on the other: no fixed
+                    // point between (it did not settle).
+                    return Err(if solved_once { not_settled() } else { e });
+                }
+                x = next;
+                last_error = Some(e);
+                continue;
+            }
+        };
+        solved_once = true;
+        feasible = Some(x);
+        let g = f - x;
+        if g.abs() <= OUTER_TOLERANCE * x.abs().max(floor) {
+            return Ok(value);
+        }
+        if g > 0.0 {
+            lo = Some(x);
+        } else {
+            hi = Some(x);
+        }
+        let inside =
+            |v: f64| v.is_finite() && lo.map_or(true, |l| v > l) && hi.map_or(true, |h| v < h);
+        let secant = match previous {
+            Some((x0, g0)) if g0 != g => x - g * (x - x0) / (g - g0),
+            _ => f,
+        };
+        previous = Some((x, g));
+        x = if inside(secant) {
+            secant
+        } else if inside(f) {
+            f
+        } else {
+            match (lo, hi) {
+                (Some(l), Some(h)) => 0.5 * (l + h),
+                (Some(l), None) => 2.0 * l + 1e-4,
+                (None, Some(h)) => 0.5 * h,
+                (None, None) => f,
+            }
+        };
+    }
+    Err(match last_error {
+        Some(e) if !solved_once => e,
+        _ => not_settled(),
+    })
+}
+
+/// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
+/// the balance (p − S c)(1 + S w) = S q.
+fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
+    if w == 0.0 {
+        return p / c;
+    }
+    let b = c + q - p * w;
+    let disc = (b * b + 4.0 * c * w * p).sqrt();
+    if b > 0.0 {
+        2.0 * p / (b + disc)
+    } else {
+        (disc - b) / (2.0 * c * w)
+    }
+}
+
+/// The free calcium that is exactly consistent with h and DIC at the
+/// apparent constants of `k`: with CO2* = S, HCO3- = S u, CO3-- = S v,
+/// u = K1'/h, v = K1'K2'/h², the pairs give DIC = S (1 + u + v) + Ca S w,
+/// w = a u + b v, and Ca = CaT/(1 + S w); one quadratic in S.
+fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f64 {
+    let u = k.k1 / h;
+    let v = k.k1 * k.k2 / (h * h);
+    let w = k.k_cahco3 * u + k.k_caco3 * v;
+    let s = balance_root(1.0 + u + v, w, ca_total * w, dic);
+    ca_total / (1.0 + s * w)
+}
+
+/// Whether a pair can fit two waters (alkalinity with CO3, DIC with HCO3).
+fn two_roots(a: &Measured, b: &Measured) -> bool {
+    let mut p = [a.parameter(), b.parameter()];
+    p.sort();
+    matches!(
+        p,
+        [Parameter::Alkalinity, Parameter::Co3] | [Parameter::Dic, Parameter::Hco3]
+    )
+}
+
+/// [CaHCO3+]/[Ca++] or [CaCO3⁰]/[Ca++] of a free ion given (0 for any
+/// other parameter), at the apparent pair constants of `k`.
+fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
+    let amount = |m: &Measured| match m.value() {
+        crate::measured::Value::Amount(a) => a.mol_kg(k.density_kg_m3),
+        _ => 0.0,
+    };
+    match m.parameter() {
+        Parameter::Hco3 => k.k_cahco3 * amount(m),
+        Parameter::Co3 => k.k_caco3 * amount(m),
+        _ => 0.0,
+    }
+}
+
+/// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).
+fn free_carbonate(k: &Constants, h: f64, dic: f64) -> f64 {
+    let k12 = k.k1e * k.k2e;
+    dic * k12 / (h * h + k.k1e * h + k12) / (1.0 + k.pair_co3)
 }
 
 fn fresh_fits_used(t: &Totals, activity: crate::activity::ActivityModel) -> FitsUsed {
@@ -388,380 +948,6 @@ fn ion_sum(k: &Constants, h: f64, dic: f64) -> (f64, f64) {
     )
 }
 
-const MAX_OUTER: u32 = 200;
-const OUTER_TOLERANCE: f64 = 1e-13;
-
-/// Starting constants: the fixed ionic strength of the route, or that of the
-/// given ions alone; calcium all free.
-pub(crate) fn starting_constants(water: &Water) -> Result<Constants> {
-    let th = Thermo::new(water)?;
-    let r = route(water);
-    let i = fixed_ionic_strength(water, r).unwrap_or(0.0);
-    let k0 = th.constants(water, i, th.totals.calcium_mol_kg);
-    let i = match r {
-        IonicStrengthRoute::MajorIons | IonicStrengthRoute::AlkalinityOnly => {
-            ion_sum(&k0, 1e-8, 0.0).0
-        }
-        _ => i,
-    };
-    let mut k = th.constants(water, i, th.totals.calcium_mol_kg);
-    k.warnings = th.warnings.clone();
-    Ok(k)
-}
-
-/// The speciation at one h, from one carbon parameter, with the calcium
-/// pairs solved exactly: free CO2* = S, HCO3- = S u, CO3-- = S v with
-/// u = K1'/h, v = K1'K2'/h², free Ca = CaT/(1 + S w), w = a u + b v.
-#[derive(Debug, Clone, Copy)]
-struct Spec {
-    co2: f64,
-    hco3: f64,
-    co3: f64,
-    ca_free: f64,
-    dic: f64,
-    ta: f64,
-}
-
-/// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
-/// the balance (p − S c)(1 + S w) = S q.
-fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
-    if w == 0.0 {
-        return p / c;
-    }
-    let b = c + q - p * w;
-    let disc = (b * b + 4.0 * c * w * p).sqrt();
-    if b > 0.0 {
-        2.0 * p / (b + disc)
-    } else {
-        (disc - b) / (2.0 * c * w)
-    }
-}
-
-fn speciate(k: &Constants, h: f64, carbon: Known) -> Option<Spec> {
-    let ca_t = k.totals.calcium_mol_kg;
-    let (a, b) = (k.k_cahco3, k.k_caco3);
-    let u = k.k1 / h;
-    let v = k.k1 * k.k2 / (h * h);
-    let w = if ca_t > 0.0 { a * u + b * v } else { 0.0 };
-    let nc = non_carbonate(k, h).0;
-    let s = match carbon {
-        Known::Co2(x) => x,
-        Known::Hco3(x) => x / u,
-        Known::Co3(x) => x / v,
-        Known::Dic(d) => balance_root(1.0 + u + v, w, ca_t * w, d),
-        Known::Ta(t) => {
-            let carb = t - nc;
-            if carb <= 0.0 {
-                return None;
-            }
-            let w2 = if ca_t > 0.0 { a * u + 2.0 * b * v } else { 0.0 };
-            balance_root(u + 2.0 * v, w, ca_t * w2, carb)
-        }
-        Known::H(_) => return None,
-    };
-    if !(s.is_finite() && s > 0.0) {
-        return None;
-    }
-    let (hco3, co3) = (s * u, s * v);
-    let ca_free = if ca_t > 0.0 {
-        ca_t / (1.0 + s * w)
-    } else {
-        0.0
-    };
-    let (pair1, pair2) = (a * ca_free * hco3, b * ca_free * co3);
-    Some(Spec {
-        co2: s,
-        hco3,
-        co3,
-        ca_free,
-        dic: s + hco3 + co3 + pair1 + pair2,
-        ta: hco3 + 2.0 * co3 + pair1 + 2.0 * pair2 + nc,
-    })
-}
-
-fn value_of(spec: &Spec, which: Known) -> f64 {
-    match which {
-        Known::Ta(_) => spec.ta,
-        Known::Dic(_) => spec.dic,
-        Known::Co2(_) => spec.co2,
-        Known::Hco3(_) => spec.hco3,
-        Known::Co3(_) => spec.co3,
-        Known::H(_) => f64::NAN,
-    }
-}
-
-fn measured_value(k: Known) -> f64 {
-    match k {
-        Known::Ta(v) | Known::Dic(v) | Known::Co2(v) | Known::Hco3(v) | Known::Co3(v) => v,
-        Known::H(h) => h,
-    }
-}
-
-/// The speciation at h from one carbon parameter, with the ionic strength
-/// (when it comes from the ions) made consistent with it, starting from
-/// `i0`. Returns the speciation, the ionic strength and the constants.
-fn consistent(
-    water: &Water,
-    th: &Thermo,
-    fixed: Option<f64>,
-    h: f64,
-    carbon: Known,
-    i0: f64,
-) -> Option<(Spec, f64)> {
-    let mut i = fixed.unwrap_or(i0);
-    for _ in 0..MAX_OUTER {
-        let k0 = th.constants(water, i, 0.0);
-        let spec = speciate(&k0, h, carbon)?;
-        if fixed.is_some() {
-            return Some((spec, i));
-        }
-        let k = th.constants(water, i, spec.ca_free);
-        let i_new = ion_sum(&k, h, spec.dic).0;
-        if (i_new - i).abs() <= OUTER_TOLERANCE * i.max(1e-12) {
-            return Some((spec, i));
-        }
-        i = i_new;
-    }
-    None
-}
-
-/// Every h in pH 0–14 at which the pair fits, each with its own consistent
-/// ionic strength. One parameter fixes the speciation at each h; the other
-/// is matched by scanning pH in steps of 0.1 for sign changes and refining
-/// each with Brent's method to 1e-13 pH.
-#[allow(clippy::too_many_arguments)]
-fn roots_scan(
-    water: &Water,
-    th: &Thermo,
-    fixed: Option<f64>,
-    first: Known,
-    second: Known,
-    i0: f64,
-    pair: &Pair,
-) -> Result<Vec<(f64, f64)>> {
-    let target = measured_value(second);
-    let last_i = std::cell::Cell::new(i0);
-    let resid = |ph: f64| -> Option<f64> {
-        let h = crate::numeric::pow10(-ph);
-        let (spec, i) = consistent(water, th, fixed, h, first, last_i.get())?;
-        last_i.set(i);
-        Some(value_of(&spec, second) / target - 1.0)
-    };
-    let steps = 140;
-    let mut samples: Vec<Option<(f64, f64, f64)>> = Vec::with_capacity(steps + 1);
-    for n in 0..=steps {
-        let ph = 14.0 * n as f64 / steps as f64;
-        samples.push(resid(ph).map(|r| (ph, r, last_i.get())));
-    }
-    let refine = |lo: f64, hi: f64, i_start: f64| -> Result<(f64, f64)> {
-        last_i.set(i_start);
-        let f = |x: f64| resid(x).unwrap_or(f64::NAN);
-        let mut conv = roots::SimpleConvergency {
-            eps: 1e-13,
-            max_iter: 200,
-        };
-        let x =
-            roots::find_root_brent(lo, hi, f, &mut conv).map_err(|_| pair.no_convergence(200))?;
-        Ok((x, last_i.get()))
-    };
-    let mut roots = Vec::new();
-    for n in 0..samples.len() {
-        let Some((ph, r, i_here)) = samples[n] else {
-            continue;
-        };
-        if r == 0.0 {
-            roots.push((ph, i_here));
-            continue;
-        }
-        let prev = if n > 0 { samples[n - 1] } else { None };
-        let next = samples.get(n + 1).copied().flatten();
-        if let Some((p0, r0, i0)) = prev {
-            if r0 != 0.0 && (r0 < 0.0) != (r < 0.0) {
-                roots.push(refine(p0, ph, i0)?);
-            }
-        }
-        // Two roots closer than one step leave no sign change: look for an
-        // extremum of the residual that reaches across zero.
-        if let (Some((p0, r0, i0)), Some((p1, r1, _))) = (prev, next) {
-            let same_sign = (r0 < 0.0) == (r < 0.0) && (r1 < 0.0) == (r < 0.0);
-            if same_sign && r.abs() < r0.abs() && r.abs() < r1.abs() {
-                let sign = r.signum();
-                let (mut a, mut b) = (p0, p1);
-                let g = 0.5 * (5f64.sqrt() - 1.0);
-                for _ in 0..80 {
-                    let (c, d) = (b - g * (b - a), a + g * (b - a));
-                    last_i.set(i0);
-                    let (rc, rd) = (resid(c), resid(d));
-                    match (rc, rd) {
-                        (Some(rc), Some(rd)) if rc * sign < rd * sign => b = d,
-                        (Some(_), Some(_)) => a = c,
-                        _ => break,
-                    }
-                }
-                let m = 0.5 * (a + b);
-                last_i.set(i0);
-                if let Some(rm) = resid(m) {
-                    if rm * sign < 0.0 {
-                        let im = last_i.get();
-                        roots.push(refine(p0, m, i0)?);
-                        roots.push(refine(m, p1, im)?);
-                    }
-                }
-            }
-        }
-    }
-    if roots.is_empty() {
-        // A root can hide between a defined sample and an undefined
-        // neighbour (where the alkalinity left for carbon runs out, the
-        // residual tends to −1 without a sample to show it): find the edge
-        // of the defined region by bisection and look for a sign change
-        // there. Only done when the scan found nothing, so it costs an
-        // ordinary solve nothing.
-        let edge = |inside: f64, outside: f64, i_start: f64| -> Option<(f64, f64, f64)> {
-            let (mut a, mut b) = (inside, outside);
-            let mut last = None;
-            for _ in 0..48 {
-                let m = 0.5 * (a + b);
-                last_i.set(i_start);
-                match resid(m) {
-                    Some(r) => {
-                        a = m;
-                        last = Some((m, r, last_i.get()));
-                    }
-                    None => b = m,
-                }
-            }
-            last
-        };
-        for n in 0..samples.len() {
-            let Some((ph, r, i_here)) = samples[n] else {
-                continue;
-            };
-            let neighbours = [n.checked_sub(1), Some(n + 1).filter(|&m| m < samples.len())];
-            for m in neighbours.into_iter().flatten() {
-                if samples[m].is_some() {
-                    continue;
-                }
-                let outside = 14.0 * m as f64 / steps as f64;
-                if let Some((pe, re, ie)) = edge(ph, outside, i_here) {
-                    if re != 0.0 && (re < 0.0) != (r < 0.0) {
-                        let (lo, hi, i_lo) = if pe < ph {
-                            (pe, ph, ie)
-                        } else {
-                            (ph, pe, i_here)
-                        };
-                        roots.push(refine(lo, hi, i_lo)?);
-                    }
-                }
-            }
-        }
-    }
-    Ok(roots
-        .into_iter()
-        .map(|(ph, i)| (crate::numeric::pow10(-ph), i))
-        .collect())
-}
-
-fn choose(roots: &[(f64, f64)], root: RootChoice) -> Option<(f64, f64)> {
-    let ph = |h: f64| -h.log10();
-    let key = |r: &(f64, f64)| -> f64 {
-        match root {
-            RootChoice::LowerPh => ph(r.0),
-            RootChoice::HigherPh => -ph(r.0),
-            _ => (ph(r.0) - 8.0).abs(),
-        }
-    };
-    roots
-        .iter()
-        .copied()
-        .min_by(|a, b| key(a).total_cmp(&key(b)))
-}
-
-/// The fresh-water solve. At each trial h the pair's carbon parameter fixes
-/// the speciation, with the calcium pairs solved exactly and the ionic
-/// strength (when it comes from the ions) iterated to 1e-13; pairs without a
-/// pH are then a scan-and-refine root in pH, so every root is found with its
-/// own ionic strength.
-pub(crate) fn solve_fresh(
-    water: &Water,
-    a: Measured,
-    b: Measured,
-    options: &SolveOptions,
-) -> Result<State> {
-    crate::solve::check_pair(&a, &b)?;
-    let th = Thermo::new(water)?;
-    let r = route(water);
-    let fixed = fixed_ionic_strength(water, r);
-    let mut i_guess = match fixed {
-        Some(i) => i,
-        None => ion_sum(&th.constants(water, 0.0, 0.0), 1e-8, 0.0).0,
-    };
-    // A pH on a scale other than NBS depends on the activity of H+, so its
-    // conversion is repeated until the ionic strength it used is the final one.
-    for _ in 0..MAX_OUTER {
-        let k_conv = th.constants(water, i_guess, 0.0);
-        let mut warnings = Warnings::new();
-        let mut ka = to_known(&k_conv, &a, &mut warnings);
-        let mut kb = to_known(&k_conv, &b, &mut warnings);
-        let (mut ma, mut mb) = (&a, &b);
-        if ka.rank() > kb.rank() {
-            std::mem::swap(&mut ka, &mut kb);
-            std::mem::swap(&mut ma, &mut mb);
-        }
-        let pair = Pair { a: ma, b: mb };
-        let (h, carbon, roots) = match (ka, kb) {
-            (Known::H(h), c) | (c, Known::H(h)) => (h, c, vec![(h, i_guess)]),
-            (first, second) => {
-                let roots = roots_scan(water, &th, fixed, first, second, i_guess, &pair)?;
-                let Some((h, _)) = choose(&roots, options.root) else {
-                    return Err(pair.no_water(
-                        "no pH between 0 and 14 gives both at these conditions".to_string(),
-                    ));
-                };
-                (h, first, roots)
-            }
-        };
-        let Some((spec, i)) = consistent(water, &th, fixed, h, carbon, i_guess) else {
-            return Err(pair.no_water(
-                "the alkalinity left for carbon at this pH is not positive".to_string(),
-            ));
-        };
-        let ph_scale_depends_on_i = [&a, &b].iter().any(|m| {
-            matches!(
-                m.value(),
-                crate::measured::Value::Ph(_, Some(s)) if s != PhScale::Nbs
-            )
-        });
-        if ph_scale_depends_on_i && (i - i_guess).abs() > OUTER_TOLERANCE * i.max(1e-12) {
-            i_guess = i;
-            continue;
-        }
-        crate::solve::check_dic(&pair, spec.dic)?;
-        let mut k = th.constants(water, i, spec.ca_free);
-        k.warnings = th.warnings.clone();
-        let (_, imbalance) = ion_sum(&k, h, spec.dic);
-        add_route_warnings(water, r, i, &mut warnings);
-        for &(other, _) in &roots {
-            if (other / h - 1.0).abs() > 1e-6 {
-                warnings.push(Warning::OtherRoot {
-                    first: pair.a.parameter().name(),
-                    second: pair.b.parameter().name(),
-                    ph: -other.log10(),
-                    scale: k.working_scale.name(),
-                    higher: other < h,
-                });
-            }
-        }
-        let extras = extras(&k, h, spec.dic, r, imbalance, &mut warnings);
-        return State::build_fresh(water, &k, h, spec.dic, warnings, extras, (&a, &b));
-    }
-    Err(Error::NoConvergence {
-        first: a.parameter().name(),
-        second: b.parameter().name(),
-        iterations: MAX_OUTER,
-    })
-}
-
 fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Warnings) {
     let f = water.fresh_options();
     let unused = [
@@ -811,179 +997,4 @@ fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Warn
         "calcium not given: calcite and aragonite saturation and the Langelier index are \
          not computed",
     ));
-}
-
-#[allow(clippy::too_many_arguments)]
-fn extras(
-    k: &Constants,
-    h: f64,
-    dic: f64,
-    r: IonicStrengthRoute,
-    imbalance: f64,
-    warnings: &mut Warnings,
-) -> FreshExtras {
-    let ca_t = k.totals.calcium_mol_kg;
-    let mut e = FreshExtras {
-        ionic_strength_from: r,
-        charge_balance_percent: if r == IonicStrengthRoute::MajorIons {
-            Some(100.0 * imbalance)
-        } else {
-            None
-        },
-        saturation_ph_nbs: None,
-        langelier_index: None,
-        precipitation_potential_mg_l_caco3: None,
-    };
-    if ca_t <= 0.0 {
-        return e;
-    }
-    let ta = crate::alkalinity::parts(k, h, dic).total();
-    match saturation_ph(k, ta) {
-        Some(phs) => {
-            e.saturation_ph_nbs = Some(phs);
-            e.langelier_index = Some(-h.log10() - phs);
-        }
-        None => warnings.push(Warning::Note(
-            "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
-             calcium: Langelier index not computed",
-        )),
-    }
-    match precipitation_potential(k, ta, dic, h) {
-        Some(x) => e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL),
-        None => warnings.push(Warning::Note(
-            "the calcium carbonate precipitation potential could not be bracketed",
-        )),
-    }
-    e
-}
-
-/// ln(IAP/Ksp) of calcite at h for alkalinity `ta` and the calcium of `k`,
-/// with the pairs solved exactly and the ionic strength held.
-fn log_saturation_at(k: &Constants, ta: f64, h: f64) -> Option<f64> {
-    let spec = speciate(k, h, Known::Ta(ta))?;
-    Some((spec.ca_free * spec.co3 / k.ksp_calcite).ln())
-}
-
-/// pHs of the Langelier index: the NBS pH at which this water, with its
-/// alkalinity and calcium (and ionic strength), is exactly saturated with
-/// calcite. Scans pH 4–13 for the lowest saturating pH, then refines with Brent.
-fn saturation_ph(k: &Constants, ta: f64) -> Option<f64> {
-    let f = |ph: f64| log_saturation_at(k, ta, 10f64.powf(-ph));
-    let mut prev: Option<(f64, f64)> = None;
-    let mut ph = 4.0;
-    while ph <= 13.0 + 1e-9 {
-        if let Some(v) = f(ph) {
-            if let Some((p0, v0)) = prev {
-                if v0 < 0.0 && v >= 0.0 {
-                    let g = |x: f64| f(x).unwrap_or(-1e3);
-                    let mut conv = roots::SimpleConvergency {
-                        eps: 1e-12,
-                        max_iter: 200,
-                    };
-                    return roots::find_root_brent(p0, ph, g, &mut conv).ok();
-                }
-            }
-            prev = Some((ph, v));
-        }
-        ph += 0.25;
-    }
-    None
-}
-
-/// Calcium carbonate precipitation potential (mol/kg): the calcite that
-/// would precipitate (positive) or dissolve (negative) in a closed system
-/// to reach saturation, removing x of calcium and DIC and 2x of alkalinity
-/// (Rossum & Merrill 1983; from memory, unverified). Ionic strength is held
-/// at the sample's.
-fn precipitation_potential(k: &Constants, ta: f64, dic: f64, h: f64) -> Option<f64> {
-    let ca_t = k.totals.calcium_mol_kg;
-    let mut kx = k.clone();
-    kx.warnings.clear();
-    // The pH of the last trial, to start the next one's bracket near it.
-    let last_ph = std::cell::Cell::new(-h.log10());
-    let mut log_omega = |x: f64| -> f64 {
-        kx.totals.calcium_mol_kg = ca_t - x;
-        let (ta2, dic2) = (ta - 2.0 * x, dic - x);
-        // At fixed alkalinity DIC rises with h: one bracketed root in pH.
-        let resid = |ph: f64| {
-            speciate(&kx, crate::numeric::pow10(-ph), Known::Ta(ta2))
-                .map_or(f64::NAN, |s| s.dic / dic2 - 1.0)
-        };
-        let ph0 = last_ph.get();
-        let (mut lo, mut hi) = (ph0 - 0.1, ph0 + 0.1);
-        let mut widen = 0.2;
-        while resid(lo).partial_cmp(&0.0) != Some(std::cmp::Ordering::Greater) && lo > 0.0 {
-            lo -= widen;
-            widen *= 2.0;
-        }
-        // Above some pH the alkalinity is all hydroxide and no carbon fits
-        // (NaN); just below that edge DIC tends to 0, so the residual is negative.
-        let mut valid = lo;
-        widen = 0.2;
-        let mut edge: Option<f64> = None;
-        for _ in 0..200 {
-            let r = resid(hi);
-            if r < 0.0 {
-                break;
-            }
-            if r.is_nan() {
-                edge = Some(hi);
-            } else {
-                valid = hi;
-            }
-            // Widen until past the root or onto the edge, then bisect
-            // between the last positive point and the edge.
-            hi = match edge {
-                Some(e) => 0.5 * (valid + e),
-                None => {
-                    widen *= 2.0;
-                    hi + widen
-                }
-            };
-            if hi > 14.0 && edge.is_none() {
-                edge = Some(14.0);
-            }
-        }
-        if !(resid(lo) > 0.0 && resid(hi) < 0.0) {
-            return f64::NAN;
-        }
-        let mut conv = crate::root::Relative {
-            rel: 1e-15,
-            y_tol: 1e-15,
-            max_iter: 200,
-        };
-        let Ok(ph) = roots::find_root_brent(lo, hi, resid, &mut conv) else {
-            return f64::NAN;
-        };
-        last_ph.set(ph);
-        let h = crate::numeric::pow10(-ph);
-        speciate(&kx, h, Known::Ta(ta2))
-            .map_or(f64::NAN, |s| (s.ca_free * s.co3 / kx.ksp_calcite).ln())
-    };
-    let f0 = log_omega(0.0);
-    if !f0.is_finite() {
-        return None;
-    }
-    if f0 == 0.0 {
-        return Some(0.0);
-    }
-    // Supersaturated: the root lies between 0 and the most that can
-    // precipitate; undersaturated: between 0 and 0.01 mol/kg dissolved.
-    let (lo, hi) = if f0 > 0.0 {
-        (0.0, ca_t.min(dic).min(ta / 2.0) * (1.0 - 1e-9))
-    } else {
-        (-0.01, 0.0)
-    };
-    let far = if f0 > 0.0 { hi } else { lo };
-    let f_far = log_omega(far);
-    if !f_far.is_finite() || f_far * f0 > 0.0 {
-        return None;
-    }
-    // Relative 1e-12, whatever the size of the potential.
-    let mut conv = crate::root::Relative {
-        rel: 1e-12,
-        y_tol: 1e-13,
-        max_iter: 200,
-    };
-    roots::find_root_brent(lo, hi, log_omega, &mut conv).ok()
 }

@@ -359,7 +359,10 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
 
     let water = sample(a)?.water().map_err(flagged)?;
     let root: RootChoice = a.root.parse().map_err(at_flag("--root"))?;
-    let options = SolveOptions::default().with_root(root);
+    // One sample: the precipitation potential's cost does not matter.
+    let options = SolveOptions::default()
+        .with_root(root)
+        .with_precipitation_potential(true);
     let state = water
         .solve_with(measured[0], measured[1], &options)
         .map_err(at_flag(&flags.join(", ")))?;
@@ -376,7 +379,11 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
                 .with_pressure_dbar(p)
                 .map_err(at_flag("--output-pressure"))?;
         }
-        Some(state.at(c).map_err(at_flag("--output-temperature"))?)
+        Some(
+            state
+                .at_with(c, &options)
+                .map_err(at_flag("--output-temperature"))?,
+        )
     } else {
         None
     };

@@ -406,6 +406,24 @@ impl Measured {
         Measured::new(Parameter::Co3, Quantity::new(value, Unit::UmolPerKg))
     }
 
+    /// A concentration parameter (alkalinity, DIC, CO2*, HCO3-, CO3--)
+    /// from mol/kg, checked against its accepted range: the internal route
+    /// for derived solves, which hold their amounts in mol/kg.
+    pub(crate) fn per_kg(parameter: Parameter, mol_kg: f64) -> Result<Self> {
+        Measured::new(parameter, Quantity::new(mol_kg * 1e6, Unit::UmolPerKg))
+    }
+
+    /// A pH whose scale is unstated, given `scale`; anything else unchanged.
+    pub(crate) fn with_scale_if_unstated(self, scale: PhScale) -> Self {
+        match self.value {
+            Value::Ph(v, None) => Self {
+                value: Value::Ph(v, Some(scale)),
+                ..self
+            },
+            _ => self,
+        }
+    }
+
     /// Which parameter this is.
     ///
     /// ```

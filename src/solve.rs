@@ -65,12 +65,31 @@ impl std::str::FromStr for RootChoice {
 /// use travertine::{RootChoice, SolveOptions};
 /// let o = SolveOptions::default().with_root(RootChoice::LowerPh);
 /// assert_eq!(o.root, RootChoice::LowerPh);
+/// assert!(!o.precipitation_potential && o.compare_media);
 /// ```
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
 #[non_exhaustive]
 pub struct SolveOptions {
     /// Which root to return where two fit.
     pub root: RootChoice,
+    /// Whether to compute the calcium carbonate precipitation potential of
+    /// a fresh water with calcium (a root of full solves, about twenty
+    /// times the cost of the solve itself). Off by default.
+    pub precipitation_potential: bool,
+    /// Whether a water of salinity 0.5 to 5, where both media apply, is
+    /// also solved in the other medium, with a caution where their pCO2
+    /// differ by more than 5 %. On by default.
+    pub compare_media: bool,
+}
+
+impl Default for SolveOptions {
+    fn default() -> Self {
+        SolveOptions {
+            root: RootChoice::Natural,
+            precipitation_potential: false,
+            compare_media: true,
+        }
+    }
 }
 
 impl SolveOptions {
@@ -80,8 +99,33 @@ impl SolveOptions {
     /// # use travertine::{RootChoice, SolveOptions};
     /// assert_eq!(SolveOptions::default().with_root(RootChoice::HigherPh).root, RootChoice::HigherPh);
     /// ```
+    #[must_use]
     pub fn with_root(mut self, root: RootChoice) -> Self {
         self.root = root;
+        self
+    }
+
+    /// With or without the precipitation potential.
+    ///
+    /// ```
+    /// # use travertine::SolveOptions;
+    /// assert!(SolveOptions::default().with_precipitation_potential(true).precipitation_potential);
+    /// ```
+    #[must_use]
+    pub fn with_precipitation_potential(mut self, on: bool) -> Self {
+        self.precipitation_potential = on;
+        self
+    }
+
+    /// With or without the comparison of the two media in their overlap.
+    ///
+    /// ```
+    /// # use travertine::SolveOptions;
+    /// assert!(!SolveOptions::default().with_media_comparison(false).compare_media);
+    /// ```
+    #[must_use]
+    pub fn with_media_comparison(mut self, on: bool) -> Self {
+        self.compare_media = on;
         self
     }
 }

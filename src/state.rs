@@ -2,12 +2,12 @@
 
 use crate::alkalinity::parts_with_slopes;
 use crate::conditions::Conditions;
-use crate::constants::{Constants, FitsUsed};
+use crate::constants::{CarbonicFit, Constants, FitsUsed};
 use crate::error::Result;
 use crate::fresh::IonicStrengthRoute;
 use crate::measured::{Measured, Parameter};
 use crate::scales::PhScale;
-use crate::solve::{solve, SolveOptions};
+use crate::solve::SolveOptions;
 use crate::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
 use crate::warning::Warnings;
 use crate::water::{Medium, Water};
@@ -247,7 +247,9 @@ impl State {
     }
 
     /// The same water at other conditions: alkalinity, DIC and the totals are
-    /// kept, and the state is solved again. For example, pH measured in the
+    /// kept, and the state is solved again with the same medium and fits (an
+    /// automatic carbonic fit is fixed to the one this state used, with a
+    /// range warning if the new conditions lie outside it). For example, pH measured in the
     /// laboratory at 25 °C reported at the in-situ 9 °C and 120 dbar.
     ///
     /// # Errors
@@ -263,10 +265,41 @@ impl State {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn at(&self, conditions: Conditions) -> Result<State> {
-        let water = self.water_sample.at(conditions)?;
-        water.solve(
+        self.at_with(conditions, &SolveOptions::default())
+    }
+
+    /// As [`State::at`], with solve options (for example the precipitation
+    /// potential).
+    ///
+    /// # Errors
+    /// As [`Water::at`] and [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, SolveOptions, Water};
+    /// # use travertine::{units::Amount, water::Composition};
+    /// let well = Water::fresh(Conditions::new(12.0, 0.3)?)?
+    ///     .with_composition(Composition::default().with_calcium(Amount::PerKg(1.5e-3))?)
+    ///     .solve(Measured::ph(7.1, None)?, Measured::alkalinity_umol_kg(3600.0)?)?;
+    /// let options = SolveOptions::default().with_precipitation_potential(true);
+    /// let warm = well.at_with(Conditions::new(25.0, 0.3)?, &options)?;
+    /// assert!(warm.precipitation_potential_mg_l_caco3.is_some());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn at_with(&self, conditions: Conditions, options: &SolveOptions) -> Result<State> {
+        let mut water = self.water_sample.at(conditions)?;
+        // The measured state's model is kept: an automatic carbonic fit
+        // becomes the one the measured state used, so that the default
+        // cannot switch fits between the two states.
+        if water.medium() == Medium::Saline && water.fits().carbonic.is_none() {
+            if let Ok(fit) = self.constants.carbonic.as_str().parse::<CarbonicFit>() {
+                let fits = water.fits().with_carbonic(fit);
+                water = water.with_fits(fits);
+            }
+        }
+        water.solve_with(
             Measured::alkalinity_umol_kg(self.alkalinity_umol_kg)?,
             Measured::dic_umol_kg(self.dic_umol_kg)?,
+            options,
         )
     }
 
@@ -402,84 +435,6 @@ impl State {
             water_sample: water.clone(),
             h,
         })
-    }
-}
-
-impl Water {
-    /// The complete state from two measured parameters, with default options.
-    ///
-    /// # Errors
-    /// [`crate::Error::IncompatiblePair`] for a pair that carries one piece of
-    /// information (two gas parameters, or one parameter twice);
-    /// [`crate::Error::NoWaterFits`] when no water in pH 0–14 fits both;
-    /// [`crate::Error::NoConvergence`] if the solver fails (never a wrong number).
-    ///
-    /// ```
-    /// # use travertine::{Conditions, Measured, Water};
-    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
-    /// let s = w.solve(Measured::pco2_uatm(400.0)?, Measured::alkalinity_umol_kg(2300.0)?)?;
-    /// assert!((s.pco2_uatm - 400.0).abs() < 1e-9);
-    /// assert!(w.solve(Measured::pco2_uatm(400.0)?, Measured::xco2_ppm(410.0)?).is_err());
-    /// # Ok::<(), travertine::Error>(())
-    /// ```
-    pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {
-        self.solve_with(a, b, &SolveOptions::default())
-    }
-
-    /// As [`Water::solve`], with options (for example which of two roots).
-    ///
-    /// # Errors
-    /// As [`Water::solve`].
-    ///
-    /// ```
-    /// # use travertine::{Conditions, Measured, RootChoice, SolveOptions, Water};
-    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
-    /// let opts = SolveOptions::default().with_root(RootChoice::LowerPh);
-    /// let s = w.solve_with(Measured::dic_umol_kg(2000.0)?, Measured::hco3_umol_kg(1777.7)?, &opts)?;
-    /// assert!(s.ph_total < 7.4);
-    /// # Ok::<(), travertine::Error>(())
-    /// ```
-    pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
-        if self.medium() == Medium::Fresh {
-            return crate::fresh::solve_fresh(self, a, b, options);
-        }
-        let k = self.constants()?;
-        self.solve_with_constants(&k, a, b, options)
-    }
-
-    /// As [`Water::solve_with`], reusing constants already evaluated for this
-    /// water (they must come from [`Water::constants`] of the same water,
-    /// unchanged: saline constants also carry logarithms of some of their
-    /// values, which a field changed by hand would leave stale).
-    /// Fresh water iterates its activity coefficients with the speciation,
-    /// so there the constants are evaluated afresh and `k` is not used.
-    ///
-    /// # Errors
-    /// As [`Water::solve`].
-    ///
-    /// ```
-    /// # use travertine::{Conditions, Measured, SolveOptions, Water};
-    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
-    /// let k = w.constants()?;
-    /// for ph in [7.8, 7.9, 8.0] {
-    ///     let s = w.solve_with_constants(&k, Measured::ph(ph, None)?,
-    ///         Measured::alkalinity_umol_kg(2300.0)?, &SolveOptions::default())?;
-    ///     assert!(s.dic_umol_kg > 1800.0);
-    /// }
-    /// # Ok::<(), travertine::Error>(())
-    /// ```
-    pub fn solve_with_constants(
-        &self,
-        k: &Constants,
-        a: Measured,
-        b: Measured,
-        options: &SolveOptions,
-    ) -> Result<State> {
-        if self.medium() == Medium::Fresh {
-            return crate::fresh::solve_fresh(self, a, b, options);
-        }
-        let sol = solve(k, &a, &b, options)?;
-        State::build(self, k, sol.h, sol.dic, sol.warnings, (&a, &b))
     }
 }
 

@@ -48,6 +48,18 @@ pub enum Warning {
         /// Whether the other root has the higher pH.
         higher: bool,
     },
+    /// In the overlap of the media (salinity 0.5 to 5), the other medium
+    /// gives a pCO2 that differs by more than 5 %.
+    MediaDisagree {
+        /// Practical salinity of the sample.
+        salinity: f64,
+        /// The other medium, `fresh` or `saline`.
+        other: &'static str,
+        /// pCO2 in the other medium, µatm.
+        pco2_uatm: f64,
+        /// Its difference from this result, % of this result.
+        percent: f64,
+    },
     /// A fixed caution.
     Note(&'static str),
     /// Any other caution.
@@ -99,10 +111,32 @@ impl fmt::Display for Warning {
                      for the {which}-pH root to get it"
                 )
             }
+            Warning::MediaDisagree {
+                salinity,
+                other,
+                pco2_uatm,
+                percent,
+            } => write!(
+                f,
+                "at salinity {salinity} both media apply, and they disagree: the {other} \
+                 constants give pCO2 {} µatm, {percent:+.1} % from this result \
+                 (mostly their K2; the default medium changes at salinity 1)",
+                four_figures(*pco2_uatm)
+            ),
             Warning::Note(s) => f.write_str(s),
             Warning::Text(s) => f.write_str(s),
         }
     }
+}
+
+/// A positive number to four significant figures, in plain notation
+/// between 0.001 and 10⁶.
+fn four_figures(v: f64) -> String {
+    if !(1e-3..1e6).contains(&v.abs()) {
+        return format!("{v:.3e}");
+    }
+    let decimals = (3 - v.abs().log10().floor() as i32).max(0) as usize;
+    format!("{v:.decimals$}")
 }
 
 impl Serialize for Warning {
@@ -147,6 +181,24 @@ impl Warnings {
     }
 
     /// These cautions after `first`, in order.
+    /// The other root named by an [`Warning::OtherRoot`] among these: its
+    /// pH and whether it is the higher one.
+    pub(crate) fn other_root(&self) -> Option<(f64, bool)> {
+        self.0.iter().find_map(|w| match w {
+            Warning::OtherRoot { ph, higher, .. } => Some((*ph, *higher)),
+            _ => None,
+        })
+    }
+
+    /// Replaces any [`Warning::OtherRoot`] among these with `w` (fresh
+    /// water settles each root at its own ionic strength and calcium).
+    pub(crate) fn replace_other_root(&mut self, w: Option<Warning>) {
+        self.0.retain(|x| !matches!(x, Warning::OtherRoot { .. }));
+        if let Some(w) = w {
+            self.0.push(w);
+        }
+    }
+
     pub(crate) fn after(self, first: &[Warning]) -> Self {
         if first.is_empty() {
             return self;

@@ -470,6 +470,12 @@ impl Water {
         Ok(self)
     }
 
+    /// With the fresh-medium settings of another water.
+    pub(crate) fn with_fresh_options(mut self, fresh: FreshOptions) -> Self {
+        self.fresh = fresh;
+        self
+    }
+
     /// The fresh-medium settings.
     ///
     /// ```
@@ -593,7 +599,7 @@ impl Water {
     pub fn constants(&self) -> Result<Constants> {
         match self.medium {
             Medium::Saline => Constants::saline(&self.conditions, &self.composition, &self.fits),
-            Medium::Fresh => crate::fresh::starting_constants(self),
+            Medium::Fresh => Ok(crate::fresh::FreshBasis::new(self)?.starting_constants()),
         }
     }
 }

@@ -21,7 +21,7 @@ use travertine::constants::{fluoride, fresh, minerals, sulfate, BoronTotalFit, C
 use travertine::fresh::IonicStrengthRoute;
 use travertine::units::Amount;
 use travertine::water::Composition;
-use travertine::{Conditions, Measured, State, Water};
+use travertine::{Conditions, Measured, Parameter, SolveOptions, State, Water};
 
 mod common;
 use common::{check_source_and_provenance, check_table, Checked, Tolerance};
@@ -593,7 +593,18 @@ fn calcite_in_equilibrium_with_air() {
     // precipitates (definitions, equations.md §9).
     assert!(s.langelier_index.unwrap().abs() < 1e-6);
     assert!((s.saturation_ph_nbs.unwrap() - s.ph_nbs).abs() < 1e-6);
-    assert!(s.precipitation_potential_mg_l_caco3.unwrap().abs() < 1e-3);
+    // The precipitation potential is computed on request.
+    assert_eq!(s.precipitation_potential_mg_l_caco3, None);
+    let with_potential = SolveOptions::default().with_precipitation_potential(true);
+    let asked = s
+        .water_sample()
+        .solve_with(
+            s.measured(Parameter::Ph).unwrap(),
+            s.measured(Parameter::Alkalinity).unwrap(),
+            &with_potential,
+        )
+        .unwrap();
+    assert!(asked.precipitation_potential_mg_l_caco3.unwrap().abs() < 1e-3);
     // Ω aragonite / Ω calcite = Kc/Ka: 10^(-8.4798 + 8.3361) at 25 °C
     // (Plummer & Busenberg 1982, equations.md §9).
     let ratio = s.omega_aragonite.unwrap() / omega;

@@ -167,7 +167,8 @@ fn bicarbonate_peaks_midway_between_pk1_and_pk2() {
     let cases = [(25.0, 35.0), (2.0, 35.0), (10.0, 5.0), (30.0, 20.0)];
     for (t, s) in cases {
         let water = Water::saline(Conditions::new(t, s).unwrap()).unwrap();
-        let k = water.constants().unwrap();
+        let prepared = water.prepare().unwrap();
+        let k = prepared.constants();
         // pK on the working (total) scale, and pH scanned on the same scale.
         let midpoint = -(k.k1.log10() + k.k2.log10()) / 2.0;
         let dic = Measured::dic_umol_kg(2000.0).unwrap();
@@ -176,9 +177,8 @@ fn bicarbonate_peaks_midway_between_pk1_and_pk2() {
         let mut best = (f64::NAN, f64::NEG_INFINITY);
         for i in 0..=n {
             let ph = 4.0 + i as f64 * STEP;
-            let state = water
-                .solve_with_constants(
-                    &k,
+            let state = prepared
+                .solve_with(
                     Measured::ph(ph, Some(PhScale::Total)).unwrap(),
                     dic,
                     &options,

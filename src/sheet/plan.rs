@@ -287,6 +287,7 @@ impl Plan {
             _ => None,
         });
 
+        let wants_potential = computed.contains(&Computed::PrecipitationPotential);
         Ok(Plan {
             width: headers.len(),
             headers,
@@ -298,7 +299,11 @@ impl Plan {
             computed,
             added,
             units: options.units,
-            options: SolveOptions::default().with_root(options.root),
+            // The precipitation potential costs about twenty solves: only
+            // when its column is asked for.
+            options: SolveOptions::default()
+                .with_root(options.root)
+                .with_precipitation_potential(wants_potential),
             decimal_comma: options.decimal_comma,
             warm_check,
             passed,

@@ -5,14 +5,15 @@ use super::columns::{Computed, UnitSystem, Value};
 use super::header::{Field, Total};
 use super::plan::{Label, Plan};
 use crate::activity::ActivityModel;
-use crate::constants::{BoronTotalFit, CarbonicFit, Constants, FluorideFit};
+use crate::constants::{BoronTotalFit, CarbonicFit, FluorideFit};
 use crate::error::Error;
 use crate::measured::{Measured, Parameter};
+use crate::prepared::PreparedWater;
 use crate::sample::{Conductivity, MediumChoice, Sample};
 use crate::scales::PhScale;
 use crate::state::State;
 use crate::units::{Amount, Quantity, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
-use crate::water::{Medium, Water};
+use crate::water::Medium;
 
 /// The order in which a row's measured parameters are taken for its pair:
 /// the first two present that can be used together. Alkalinity and DIC are
@@ -175,9 +176,8 @@ pub(crate) struct Scratch {
     pub residuals: Vec<Option<f64>>,
     pub issues: Vec<Issue>,
     pub status: Status,
-    /// The saline water of the last row, and its constants once a row repeats it.
-    last_water: Option<Water>,
-    constants: Option<Constants>,
+    /// The last row's water, prepared.
+    prepared: Option<PreparedWater>,
 }
 
 impl Scratch {
@@ -527,26 +527,19 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
         }
     }
     let (ma, mb) = (pair[0]?, pair[1]?);
-    // Rows with the same saline water (a sheet of one station, or values
-    // from --set) share its constants; other rows cost no copy of them.
-    let result = if water.medium() == Medium::Saline && s.last_water.as_ref() == Some(&water) {
-        if s.constants.is_none() {
-            match water.constants() {
-                Ok(k) => s.constants = Some(k),
-                Err(e) => {
-                    library_issue(plan, record, &e, s);
-                    return None;
-                }
+    // Rows with the same water (a sheet of one station or one pond, or
+    // values from --set) share its prepared constants.
+    if s.prepared.as_ref().map(|p| p.water()) != Some(&water) {
+        match water.prepare() {
+            Ok(p) => s.prepared = Some(p),
+            Err(e) => {
+                s.prepared = None;
+                library_issue(plan, record, &e, s);
+                return None;
             }
         }
-        water.solve_with_constants(s.constants.as_ref()?, ma, mb, &plan.options)
-    } else {
-        if water.medium() == Medium::Saline {
-            s.last_water = Some(water.clone());
-            s.constants = None;
-        }
-        water.solve_with(ma, mb, &plan.options)
-    };
+    }
+    let result = s.prepared.as_ref()?.solve_with(ma, mb, &plan.options);
     let state = match result {
         Ok(state) => state,
         Err(e) => {

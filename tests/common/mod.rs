@@ -188,7 +188,8 @@ pub fn measured_from(state: &State, p: Parameter) -> Measured {
 /// pairs that can have two roots, one of the two must be `base`, the
 /// default must be the one nearer pH 8 (on the working scale `ph`), and it
 /// must warn of the other; pairs whose roots lie within 0.1 pH of each
-/// other are skipped (a near-double root). Returns the number of pairs
+/// other are skipped (a near-double root), and so are pairs with an output
+/// beyond the accepted range of its input. Returns the number of pairs
 /// checked.
 pub fn check_every_pair(
     water: &Water,
@@ -202,11 +203,47 @@ pub fn check_every_pair(
             if a.is_gas() && b.is_gas() {
                 continue;
             }
-            let (ma, mb) = (measured_from(base, a), measured_from(base, b));
+            // An output beyond what a measurement may be (CO3 below
+            // 1e-6 µmol/kg in acid water, say) is no input to round-trip.
+            let (Ok(ma), Ok(mb)) = (base.measured(a), base.measured(b)) else {
+                continue;
+            };
             if two_roots(a, b) {
                 let choose = |root| SolveOptions::default().with_root(root);
                 let lower = water.solve_with(ma, mb, &choose(RootChoice::LowerPh));
                 let higher = water.solve_with(ma, mb, &choose(RootChoice::HigherPh));
+                // One side only: the other root fits no measurable water,
+                // or (fresh water, near a double root) does not settle with
+                // its own ionic strength and calcium and is refused naming
+                // the other. The one side must be the state, and the
+                // default; within 0.1 pH of a double root the pair is
+                // skipped, as the tolerance policy says.
+                if let (Ok(one), Err(e)) | (Err(e), Ok(one)) = (&lower, &higher) {
+                    let other = one.warnings.iter().find_map(|w| match w {
+                        travertine::Warning::OtherRoot { ph: p, .. } => Some(*p),
+                        _ => None,
+                    });
+                    let near = other.is_some_and(|p| (p - ph(one)).abs() < 0.1);
+                    if near && e.to_string().contains("does not settle") {
+                        continue;
+                    }
+                    prop_assert!(
+                        matches!(e, travertine::Error::NoWaterFits { .. }),
+                        "{a:?}+{b:?}: {e}"
+                    );
+                    let m = mismatch(base, one);
+                    prop_assert!(
+                        m.is_none(),
+                        "{a:?}+{b:?}, the one root: {}",
+                        m.unwrap_or_default()
+                    );
+                    let natural = water.solve(ma, mb);
+                    prop_assert!(natural.is_ok(), "{a:?}+{b:?}: {:?}", natural.err());
+                    let natural = natural.unwrap();
+                    prop_assert!(mismatch(one, &natural).is_none());
+                    pairs += 1;
+                    continue;
+                }
                 prop_assert!(
                     lower.is_ok() && higher.is_ok(),
                     "{a:?}+{b:?}: lower {:?}, higher {:?}",

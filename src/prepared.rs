@@ -1,0 +1,263 @@
+//! A water bound to its constants: the one entry to the shared solver for
+//! both media.
+//!
+//! ```text
+//! Water ──prepare──▶ PreparedWater ──solve(a, b)──▶ State
+//!   saline: every constant evaluated once (Constants)
+//!   fresh:  the temperature-only constants once; each solve runs the shared
+//!           solver inside the ionic-strength and free-calcium fixed point
+//! ```
+
+use crate::constants::Constants;
+use crate::error::Result;
+use crate::fresh::FreshBasis;
+use crate::measured::{Measured, Parameter};
+use crate::scales::PhScale;
+use crate::solve::{solve, SolveOptions};
+use crate::state::State;
+use crate::warning::Warning;
+use crate::water::{Medium, Water};
+
+/// Salinities where both media apply and a solve is checked against the
+/// other medium (see DEVELOPERS.md, "Fresh and saline media in the overlap").
+pub const MEDIA_OVERLAP_SALINITY: (f64, f64) = (0.5, 5.0);
+/// Relative difference in pCO2 between the media above which a caution is
+/// given (in the overlap).
+pub const MEDIA_PCO2_CAUTION: f64 = 0.05;
+
+/// What a prepared water holds besides the water.
+#[derive(Debug, Clone, PartialEq)]
+enum Prepared {
+    /// Every constant of a saline water.
+    Saline(Constants),
+    /// The speciation-independent part of a fresh water's constants.
+    Fresh(FreshBasis),
+}
+
+/// A water with its constants evaluated, ready to solve any number of
+/// measured pairs. It cannot be given another water's constants: it makes
+/// its own. It is `Send + Sync`, so one prepared water can serve many
+/// threads.
+///
+/// # Example
+/// ```
+/// use travertine::{Conditions, Measured, Water};
+/// let pond = Water::fresh(Conditions::new(22.0, 0.2)?)?.prepare()?;
+/// let ta = Measured::alkalinity_umol_kg(2400.0)?;
+/// for ph in [7.2, 7.6, 8.0] {
+///     let s = pond.solve(ta, Measured::ph(ph, None)?)?;
+///     assert!((s.ph_nbs - ph).abs() < 1e-12);
+/// }
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq)]
+pub struct PreparedWater {
+    water: Water,
+    prepared: Prepared,
+}
+
+impl Water {
+    /// This water bound to its constants, for repeated solves.
+    ///
+    /// # Errors
+    /// [`crate::Error::Computation`] if the density cannot be computed.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// assert_eq!(sea.water().conditions().salinity(), 35.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn prepare(&self) -> Result<PreparedWater> {
+        let prepared = match self.medium() {
+            Medium::Saline => Prepared::Saline(Constants::saline(
+                self.conditions(),
+                self.composition(),
+                self.fits(),
+            )?),
+            Medium::Fresh => Prepared::Fresh(FreshBasis::new(self)?),
+        };
+        Ok(PreparedWater {
+            water: self.clone(),
+            prepared,
+        })
+    }
+
+    /// The complete state from two measured parameters, with default options.
+    ///
+    /// # Errors
+    /// [`crate::Error::IncompatiblePair`] for a pair that carries one piece of
+    /// information (two gas parameters, or one parameter twice);
+    /// [`crate::Error::NoWaterFits`] when no water in pH 0–14 fits both;
+    /// [`crate::Error::NoConvergence`] if the solver fails (never a wrong number).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::pco2_uatm(400.0)?, Measured::alkalinity_umol_kg(2300.0)?)?;
+    /// assert!((s.pco2_uatm - 400.0).abs() < 1e-9);
+    /// assert!(w.solve(Measured::pco2_uatm(400.0)?, Measured::xco2_ppm(410.0)?).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {
+        self.solve_with(a, b, &SolveOptions::default())
+    }
+
+    /// As [`Water::solve`], with options (for example which of two roots).
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, RootChoice, SolveOptions, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let opts = SolveOptions::default().with_root(RootChoice::LowerPh);
+    /// let s = w.solve_with(Measured::dic_umol_kg(2000.0)?, Measured::hco3_umol_kg(1777.7)?, &opts)?;
+    /// assert!(s.ph_total < 7.4);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        self.prepare()?.solve_with(a, b, options)
+    }
+
+    /// The same water in the other medium, with the same conditions,
+    /// composition, fits and fresh-medium settings.
+    fn in_other_medium(&self) -> Result<Water> {
+        let other = match self.medium() {
+            Medium::Saline => Water::fresh(*self.conditions())?,
+            Medium::Fresh => Water::saline(*self.conditions())?,
+        };
+        Ok(other
+            .with_composition(*self.composition())
+            .with_fits(*self.fits())
+            .with_fresh_options(*self.fresh_options()))
+    }
+}
+
+impl PreparedWater {
+    /// The water.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Medium, Water};
+    /// let p = Water::fresh(Conditions::new(12.0, 0.1)?)?.prepare()?;
+    /// assert_eq!(p.water().medium(), Medium::Fresh);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn water(&self) -> &Water {
+        &self.water
+    }
+
+    /// The constants: in saline water every constant; in fresh water those
+    /// at the starting ionic strength with all calcium free (a solve refines
+    /// both with the speciation), as [`Water::constants`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// assert!((-p.constants().k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn constants(&self) -> Constants {
+        match &self.prepared {
+            Prepared::Saline(k) => k.clone(),
+            Prepared::Fresh(b) => b.starting_constants(),
+        }
+    }
+
+    /// The complete state from two measured parameters, with default options.
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// let s = p.solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.pco2_uatm - 402.75).abs() < 0.05); // equations.md §13 worked value (computed)
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {
+        self.solve_with(a, b, &SolveOptions::default())
+    }
+
+    /// As [`PreparedWater::solve`], with options.
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, RootChoice, SolveOptions, Water};
+    /// // An invented fresh water of pH 11.43 (NBS) at 25 °C: alkalinity with
+    /// // CO3 fits it and a water near pH 8.4.
+    /// let p = Water::fresh(Conditions::new(25.0, 0.2)?)?.prepare()?;
+    /// let (ta, co3) = (Measured::alkalinity_umol_kg(3000.0)?, Measured::co3_umol_kg(39.97)?);
+    /// let high = p.solve_with(ta, co3, &SolveOptions::default().with_root(RootChoice::HigherPh))?;
+    /// assert!((high.ph_nbs - 11.43).abs() < 0.01);
+    /// let natural = p.solve(ta, co3)?;
+    /// assert!((natural.ph_nbs - 8.38).abs() < 0.01);
+    /// assert!(natural.warnings.iter().any(|w| w.to_string().contains("pH 11.4")));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        let mut state = match &self.prepared {
+            Prepared::Saline(k) => {
+                let sol = solve(k, &a, &b, options)?;
+                State::build(&self.water, k, sol.h, sol.dic, sol.warnings, (&a, &b))?
+            }
+            Prepared::Fresh(basis) => basis.solve(&self.water, a, b, options)?,
+        };
+        if options.compare_media {
+            if let Some(w) = self.media_caution(&state, a, b, options) {
+                state.warnings.push(w);
+            }
+        }
+        Ok(state)
+    }
+
+    /// In the overlap of the two media, the same sample solved in the other
+    /// medium; a caution with the figure where pCO2 differs by more than
+    /// [`MEDIA_PCO2_CAUTION`]. A pH with its scale unstated keeps the
+    /// scale it had in this medium (NBS in fresh water, total in saline).
+    fn media_caution(
+        &self,
+        state: &State,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+    ) -> Option<Warning> {
+        let s = self.water.conditions().salinity();
+        let (lo, hi) = MEDIA_OVERLAP_SALINITY;
+        if !(lo..=hi).contains(&s) {
+            return None;
+        }
+        let scale = match self.water.medium() {
+            Medium::Fresh => PhScale::Nbs,
+            _ => PhScale::Total,
+        };
+        let stated = |m: Measured| match m.parameter() {
+            Parameter::Ph => m.with_scale_if_unstated(scale),
+            _ => m,
+        };
+        let other = self.water.in_other_medium().ok()?;
+        let quiet = options.with_media_comparison(false);
+        let there = other.solve_with(stated(a), stated(b), &quiet).ok()?;
+        let difference = there.pco2_uatm / state.pco2_uatm - 1.0;
+        (difference.abs() > MEDIA_PCO2_CAUTION).then(|| Warning::MediaDisagree {
+            salinity: s,
+            other: other.medium().name(),
+            pco2_uatm: there.pco2_uatm,
+            percent: 100.0 * difference,
+        })
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_prepared_water_can_be_shared_between_threads() {
+        fn shareable<T: Send + Sync>() {}
+        shareable::<PreparedWater>();
+    }
+}
