@@ -13,8 +13,14 @@
 //!    /dev/null, polling its peak resident memory (VmHWM in
 //!    /proc/PID/status) until it exits.
 //!
+//! 4. Times a fresh sheet with calcium (temperature, specific conductance,
+//!    calcium hardness, alkalinity in mg/L as CaCO3, NBS pH; an invented
+//!    pond) against a saline sheet of the same size and shape, back to back,
+//!    best of three each.
+//!
 //! `cargo bench --bench sheet_throughput`. Environment: `SHEET_BENCH_ROWS`
-//! (default 1000000) and `SHEET_BENCH_RSS_ROWS` (default 10000000; 0 skips
+//! (default 1000000), `SHEET_BENCH_MEDIA_ROWS` (default 200000; 0 skips the
+//! media comparison) and `SHEET_BENCH_RSS_ROWS` (default 10000000; 0 skips
 //! the memory run).
 
 use std::fs::File;
@@ -56,6 +62,85 @@ fn generate(path: &Path, rows: u64) -> std::io::Result<()> {
         )?;
     }
     w.flush()
+}
+
+/// Writes `rows` rows of an invented fresh sheet (pond water: temperature,
+/// specific conductance, calcium hardness, alkalinity and NBS pH), or of a
+/// saline sheet of the same shape (temperature, salinity, calcium,
+/// alkalinity and total-scale pH).
+fn generate_medium(path: &Path, rows: u64, fresh: bool) -> std::io::Result<()> {
+    let mut w = BufWriter::with_capacity(1 << 20, File::create(path)?);
+    let mut rng = Rng(0x2545_F491_4F6C_DD1D);
+    if fresh {
+        writeln!(
+            w,
+            "Temp (°C),Specific conductance (µS/cm),Calcium hardness (mg/L as CaCO3),\
+             Alkalinity (mg/L as CaCO3),pH (NBS)"
+        )?;
+    } else {
+        writeln!(
+            w,
+            "temperature_c,salinity,calcium_mg_l,alkalinity_mg_l_caco3,ph_total"
+        )?;
+    }
+    for _ in 0..rows {
+        let t = rng.between(10.0, 30.0);
+        if fresh {
+            writeln!(
+                w,
+                "{t:.1},{:.0},{:.0},{:.0},{:.2}",
+                rng.between(150.0, 900.0),
+                rng.between(40.0, 250.0),
+                rng.between(30.0, 200.0),
+                rng.between(6.8, 9.0)
+            )?;
+        } else {
+            writeln!(
+                w,
+                "{t:.1},{:.3},{:.0},{:.1},{:.4}",
+                rng.between(30.0, 38.0),
+                rng.between(380.0, 430.0),
+                rng.between(105.0, 122.0),
+                rng.between(7.85, 8.15)
+            )?;
+        }
+    }
+    w.flush()
+}
+
+/// A fresh sheet with calcium against a saline sheet of the same size and
+/// shape, back to back, best of three each.
+fn media(dir: &Path, rows: u64) {
+    let options = SheetOptions::default();
+    let mut times = Vec::new();
+    for fresh in [true, false] {
+        let input = dir.join(if fresh { "fresh.csv" } else { "saline.csv" });
+        let output = dir.join("media_out.csv");
+        generate_medium(&input, rows, fresh).expect("input generated");
+        let (time, runs) = best_of(3, || {
+            let t = Instant::now();
+            let s = run(
+                &options,
+                &Source::Path(input.clone()),
+                &Sink::Path(output.clone()),
+            )
+            .expect("the sheet runs");
+            let d = t.elapsed();
+            assert_eq!(s.rows, rows);
+            assert_eq!(s.error, 0, "every generated row solves");
+            d
+        });
+        println!(
+            "  {:<6} {rows} rows       {:.3} s  {:.2} M rows/s  (runs: {runs} s)",
+            if fresh { "fresh" } else { "saline" },
+            time.as_secs_f64(),
+            rows as f64 / time.as_secs_f64() / 1e6
+        );
+        times.push(time.as_secs_f64());
+        let _ = std::fs::remove_file(&input);
+        let _ = std::fs::remove_file(&output);
+    }
+    println!("  fresh / saline          {:.2}x", times[0] / times[1]);
 }
 
 /// The fields the sheet's default output adds to each row (computed
@@ -225,6 +310,14 @@ fn main() {
     let _ = std::fs::remove_file(&output);
     let _ = std::fs::remove_file(&floor_out);
     let _ = std::fs::remove_file(&input);
+
+    let media_rows = rows_from_env("SHEET_BENCH_MEDIA_ROWS", 200_000);
+    if media_rows > 0 {
+        println!(
+            "fresh sheet with calcium against a saline sheet of the same shape (default columns)"
+        );
+        media(&dir, media_rows);
+    }
 
     let big_rows = rows_from_env("SHEET_BENCH_RSS_ROWS", 10_000_000);
     if big_rows > 0 {

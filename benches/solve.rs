@@ -11,7 +11,13 @@
 //!   speed drifts over the run;
 //! - `deep_nutrients/*`: the same water at 2000 dbar with phosphate 2 and
 //!   silicate 50 µmol/kg, constants and the alkalinity + DIC pair;
-//! - `low_salinity/*`: salinity 5, constants and the alkalinity + DIC pair.
+//! - `low_salinity/*`: salinity 5, constants and the alkalinity + DIC pair;
+//! - `fresh_with_calcium/<a>+<b>`: every pair in an invented pond (fresh
+//!   medium, specific conductance and calcium given), each measured right
+//!   after `saline_beside/fresh_with_calcium/<a>+<b>`, the same pair in the
+//!   sea water above;
+//! - `fresh_without_calcium/*`: the same pond without calcium, alkalinity
+//!   with pH and with DIC, each beside its saline pair.
 //!
 //! The values of the other seven parameters come from solving the
 //! alkalinity + DIC pair once, so every pair describes the same water.
@@ -174,39 +180,92 @@ fn bench_low_salinity(c: &mut Criterion) {
     bench_other_water(c, "low_salinity", low_salinity_water());
 }
 
-/// An invented pond water in the fresh medium: alkalinity with pH (direct)
-/// and with DIC (a scan over pH with the ionic strength iterated).
-fn bench_fresh(c: &mut Criterion) {
-    use travertine::units::Amount;
-    use travertine::water::Composition;
+/// An invented pond in the fresh medium: 22 °C, specific conductance
+/// 350 µS/cm (the ionic strength from Russell 1976, as on a field sheet),
+/// with or without calcium 1.2 mmol/L; its state from alkalinity 2400
+/// µmol/kg and pH 7.6 (NBS).
+fn pond(calcium: bool) -> Water {
     let water = Water::fresh(Conditions::new(22.0, 0.2).expect("conditions"))
         .expect("fresh")
-        .with_composition(
-            Composition::default()
-                .with_calcium(Amount::PerLitre(1.2e-3))
-                .expect("calcium"),
-        );
+        .with_specific_conductance_us_cm(350.0)
+        .expect("conductance");
+    if !calcium {
+        return water;
+    }
+    water.with_composition(
+        Composition::default()
+            .with_calcium(Amount::PerLitre(1.2e-3))
+            .expect("calcium"),
+    )
+}
+
+/// Every fresh pair with calcium, each measured right after the same pair
+/// in sea water (`saline_beside/<pair>`), for a ratio that does not depend
+/// on how the machine's speed drifts over the run; and alkalinity + pH and
+/// alkalinity + DIC without calcium.
+fn bench_fresh(c: &mut Criterion) {
+    let sea = sea_water();
+    let sea_reference = sea
+        .solve(alkalinity_dic().0, alkalinity_dic().1)
+        .expect("sea");
     let ta = Measured::alkalinity_umol_kg(2400.0).expect("alkalinity");
     let ph = Measured::ph(7.6, None).expect("ph");
-    let reference = water.solve(ta, ph).expect("alkalinity+ph solves");
-    let dic = Measured::dic_umol_kg(reference.dic_umol_kg).expect("dic");
-    check_pair(&water, &reference, ta, dic);
-    let mut group = c.benchmark_group("fresh_pond");
-    group.bench_function("alkalinity+ph", |bench| {
-        bench.iter(|| {
-            black_box(&water)
-                .solve(black_box(ta), black_box(ph))
-                .expect("solve")
-        })
-    });
-    group.bench_function("alkalinity+dic", |bench| {
-        bench.iter(|| {
-            black_box(&water)
-                .solve(black_box(ta), black_box(dic))
-                .expect("solve")
-        })
-    });
-    group.finish();
+    for (group_name, calcium) in [
+        ("fresh_with_calcium", true),
+        ("fresh_without_calcium", false),
+    ] {
+        let water = pond(calcium);
+        let reference = water.solve(ta, ph).expect("alkalinity+ph solves");
+        let pairs = if calcium {
+            usable_pairs()
+        } else {
+            vec![
+                (Parameter::Alkalinity, Parameter::Ph),
+                (Parameter::Alkalinity, Parameter::Dic),
+            ]
+        };
+        for (pa, pb) in pairs {
+            let name = format!("{}+{}", pa.name(), pb.name());
+            let (a, b) = (measured(pa, &reference), measured(pb, &reference));
+            check_fresh_pair(&water, &reference, a, b);
+            let (sa, sb) = (measured(pa, &sea_reference), measured(pb, &sea_reference));
+            let mut beside = c.benchmark_group("saline_beside");
+            beside.bench_function(format!("{group_name}/{name}"), |bench| {
+                bench.iter(|| {
+                    black_box(&sea)
+                        .solve(black_box(sa), black_box(sb))
+                        .expect("solve")
+                })
+            });
+            beside.finish();
+            let mut group = c.benchmark_group(group_name);
+            group.bench_function(name.as_str(), |bench| {
+                bench.iter(|| {
+                    black_box(&water)
+                        .solve(black_box(a), black_box(b))
+                        .expect("solve")
+                })
+            });
+            group.finish();
+        }
+    }
+}
+
+/// As [`check_pair`], on the NBS scale of the fresh medium.
+fn check_fresh_pair(water: &Water, reference: &State, a: Measured, b: Measured) {
+    let name = format!("{}+{}", a.parameter().name(), b.parameter().name());
+    let s = water
+        .solve(a, b)
+        .unwrap_or_else(|e| panic!("fresh {name} does not solve: {e}"));
+    assert!(
+        (s.ph_nbs - reference.ph_nbs).abs() < 1e-6
+            && (s.dic_umol_kg / reference.dic_umol_kg - 1.0).abs() < 1e-6,
+        "fresh {name}: pH {} DIC {} against {} {}",
+        s.ph_nbs,
+        s.dic_umol_kg,
+        reference.ph_nbs,
+        reference.dic_umol_kg
+    );
 }
 
 fn settings() -> Criterion {

@@ -136,6 +136,19 @@ pub(crate) struct FreshBasis {
     warnings: Vec<Warning>,
 }
 
+/// A settled solve: the ionic strength and free calcium it was solved at
+/// (its constants are [`FreshBasis::constants_of`] them), and its solution.
+#[derive(Debug, Clone, PartialEq)]
+struct Settled {
+    i: f64,
+    ca: f64,
+    ca_total: f64,
+    /// The ionic strength of the ions at the solution (`i` where the ionic
+    /// strength does not come from the ions).
+    ions: f64,
+    sol: Solution,
+}
+
 /// Iteration cap of a fixed point; reaching it is reported as non-convergence.
 const MAX_OUTER: u32 = 200;
 /// Relative change of I and Ca below which a fixed point has converged.
@@ -248,8 +261,6 @@ impl FreshBasis {
         let k2 = self.k2 * g1 / g2;
         let k_cahco3 = self.k_cahco3 * gca;
         let k_caco3 = self.k_caco3 * gca * g2;
-        let pair_hco3 = k_cahco3 * ca_free;
-        let pair_co3 = k_caco3 * ca_free;
         let mut t = self.totals;
         t.calcium_mol_kg = ca_total;
         let on = |total: f64, k: f64| if total > 0.0 { k } else { 0.0 };
@@ -257,17 +268,18 @@ impl FreshBasis {
         // [H][F]/[HF] = KF/(γH γ1).
         let ks_free = self.ks * g1 / (gh * g2);
         let kf_free = self.kf / (gh * g1);
-        Constants {
+        let mut k = Constants {
             conditions: self.conditions,
             working_scale: PhScale::Nbs,
             k0: self.kh,
             k1,
             k2,
-            k1e: k1 * (1.0 + pair_hco3),
-            k2e: k2 * (1.0 + pair_co3) / (1.0 + pair_hco3),
-            pair_hco3,
-            pair_co3,
-            calcium_free_mol_kg: ca_free,
+            // Set with the free calcium below.
+            k1e: k1,
+            k2e: k2,
+            pair_hco3: 0.0,
+            pair_co3: 0.0,
+            calcium_free_mol_kg: 0.0,
             ionic_strength: i,
             kb: on(t.boron_mol_kg, self.kb / g1),
             kw: self.kw / g1,
@@ -300,7 +312,9 @@ impl FreshBasis {
             k_cahco3,
             k_caco3,
             logs: None,
-        }
+        };
+        set_free_calcium(&mut k, ca_free);
+        k
     }
 
     /// The constants at the first ionic strength of a solve, with all
@@ -325,23 +339,31 @@ impl FreshBasis {
     /// the free calcium the inner one, each a one-dimensional fixed point
     /// ([`fixed_point`]). A solve that fails on the way (the pair fits no
     /// water at that ionic strength) steps back towards the last ionic
-    /// strength that solved; before any has, the ionic strength of the ions
-    /// given without carbon, a lower bound, is doubled.
+    /// strength that solved; before any has, ionic strengths ever further
+    /// from the first (that of the ions given, without carbon) are tried on
+    /// either side.
     fn settle<F>(
         &self,
         ca_total: f64,
         held_i: Option<f64>,
+        start_calcium: Option<f64>,
         root: RootChoice,
         pair: F,
-    ) -> Result<(Constants, Solution)>
+    ) -> Result<Settled>
     where
         F: Fn(&Constants) -> Result<(Measured, Measured)>,
     {
-        let options = SolveOptions::default().with_root(root);
-        let calcium = std::cell::Cell::new(None);
-        let at = |i: f64| self.settle_calcium(ca_total, i, calcium.get(), &options, &pair);
+        let options = SolveOptions {
+            // The other root of a two-root pair is settled on its own.
+            report_other_root: root == RootChoice::Natural,
+            ..SolveOptions::default().with_root(root)
+        };
+        let calcium = std::cell::Cell::new(start_calcium);
+        let from_ions = held_i.is_none() && self.fixed_i.is_none();
+        let at =
+            |i: f64| self.settle_calcium(ca_total, i, calcium.get(), &options, &pair, from_ions);
         match held_i.or(self.fixed_i) {
-            Some(i) => at(i).map(|(k, sol, _)| (k, sol)),
+            Some(i) => at(i),
             None => {
                 let bracket = Bracket {
                     lo: Some(0.0),
@@ -349,20 +371,25 @@ impl FreshBasis {
                     failure: Failure::Unknown,
                     floor: 1e-12,
                 };
-                let (k, sol, _) = fixed_point(self.i_start, bracket, |i| {
-                    let (k, sol, ca) = at(i)?;
-                    calcium.set(Some(ca));
-                    Ok((ion_sum(&k, sol.h, sol.dic).0, (k, sol, ca)))
+                let mut last = None;
+                fixed_point(self.i_start, bracket, |i| {
+                    let settled = last.insert(at(i)?);
+                    calcium.set(Some(settled.ca));
+                    Ok((settled.ions, ()))
                 })?;
-                Ok((k, sol))
+                last.ok_or(Error::NoConvergence {
+                    first: "ionic strength",
+                    second: "free calcium",
+                    iterations: 0,
+                })
             }
         }
     }
 
     /// The inner fixed point at ionic strength `i`: the free calcium,
     /// starting from `start` (else from the free ions given, else all
-    /// calcium free). Returns the constants and solution of the last
-    /// solve, and the free calcium.
+    /// calcium free). With `ions`, also the ionic strength of the ions at
+    /// the result.
     fn settle_calcium<F>(
         &self,
         ca_total: f64,
@@ -370,19 +397,42 @@ impl FreshBasis {
         start: Option<f64>,
         options: &SolveOptions,
         pair: &F,
-    ) -> Result<(Constants, Solution, f64)>
+        ions: bool,
+    ) -> Result<Settled>
     where
         F: Fn(&Constants) -> Result<(Measured, Measured)>,
     {
-        let solve_at = |ca: f64| -> Result<(Constants, Solution)> {
-            let k = self.constants_at(i, ca, ca_total);
-            let (a, b) = pair(&k)?;
-            let sol = solve(&k, &a, &b, options)?;
-            Ok((k, sol))
+        // Only small values pass through the iteration: the constants, a
+        // large value to copy, are made again from (I, Ca) where needed.
+        // The constants at this ionic strength, made once; each trial sets
+        // only the free calcium and what follows from it.
+        let mut k = self.constants_at(i, ca_total, ca_total);
+        let mut solve_at = |ca: f64| -> Result<(Settled, f64)> {
+            set_free_calcium(&mut k, ca);
+            let k = &k;
+            let (a, b) = pair(k)?;
+            let sol = solve(k, &a, &b, options)?;
+            let f = if ca_total > 0.0 {
+                free_calcium(k, sol.h, sol.dic, ca_total)
+            } else {
+                0.0
+            };
+            let ions = if ions {
+                ion_sum(k, sol.h, sol.dic).0
+            } else {
+                i
+            };
+            let settled = Settled {
+                i,
+                ca,
+                ca_total,
+                ions,
+                sol,
+            };
+            Ok((settled, f))
         };
         if ca_total <= 0.0 {
-            let (k, sol) = solve_at(0.0)?;
-            return Ok((k, sol, 0.0));
+            return solve_at(0.0).map(|(s, _)| s);
         }
         let start = start.unwrap_or_else(|| {
             // A free ion given fixes its own pair: a first calcium much
@@ -402,11 +452,22 @@ impl FreshBasis {
             failure: Failure::High,
             floor: 1e-30,
         };
+        let mut last = None;
         fixed_point(start.clamp(0.0, ca_total), bracket, |ca| {
-            let (k, sol) = solve_at(ca)?;
-            let f = free_calcium(&k, sol.h, sol.dic, ca_total);
-            Ok((f, (k, sol, ca)))
+            let (settled, f) = solve_at(ca)?;
+            last = Some(settled);
+            Ok((f, ()))
+        })?;
+        last.ok_or(Error::NoConvergence {
+            first: "free calcium",
+            second: "ionic strength",
+            iterations: 0,
         })
+    }
+
+    /// The constants of a settled solve, exactly those it was solved with.
+    fn constants_of(&self, s: &Settled) -> Constants {
+        self.constants_at(s.i, s.ca, s.ca_total)
     }
 
     /// The complete state of `water` (whose basis this is) from two
@@ -420,16 +481,17 @@ impl FreshBasis {
     ) -> Result<State> {
         let ca_total = self.totals.calcium_mol_kg;
         let given = |_: &Constants| Ok((a, b));
-        let (mut k, sol) = if two_roots(&a, &b) {
+        let settled = if two_roots(&a, &b) {
             self.two_roots(&a, &b, options.root)?
         } else {
-            self.settle(ca_total, None, options.root, given)?
+            self.settle(ca_total, None, None, options.root, given)?
         };
+        let mut k = self.constants_of(&settled);
         let Solution {
             h,
             dic,
             mut warnings,
-        } = sol;
+        } = settled.sol;
         k.warnings = self.warnings.clone();
         let imbalance = ion_sum(&k, h, dic).1;
         add_route_warnings(water, self.route, k.ionic_strength, &mut warnings);
@@ -448,31 +510,29 @@ impl FreshBasis {
     /// can fail to settle. The default then takes the side that settles; a
     /// side asked for that does not settle, where the other does, is
     /// refused with the other root's pH.
-    fn two_roots(
-        &self,
-        a: &Measured,
-        b: &Measured,
-        root: RootChoice,
-    ) -> Result<(Constants, Solution)> {
+    fn two_roots(&self, a: &Measured, b: &Measured, root: RootChoice) -> Result<Settled> {
         let ca_total = self.totals.calcium_mol_kg;
         let given = |_: &Constants| Ok((*a, *b));
-        let side = |r| self.settle(ca_total, None, r, given);
-        let ph = |s: &Solution| -crate::numeric::log10(s.h);
+        let side = |r| self.settle(ca_total, None, None, r, given);
+        let ph = |s: &Settled| -crate::numeric::log10(s.sol.h);
         let (lower, higher) = (side(RootChoice::LowerPh), side(RootChoice::HigherPh));
-        let (chosen, other) = match root {
-            RootChoice::LowerPh => (lower, higher),
-            RootChoice::HigherPh => (higher, lower),
+        let higher_first = match root {
+            RootChoice::LowerPh => false,
+            RootChoice::HigherPh => true,
             _ => match (&lower, &higher) {
-                (Ok(l), Ok(h)) if (ph(&h.1) - 8.0).abs() < (ph(&l.1) - 8.0).abs() => {
-                    (higher, lower)
-                }
-                (Err(_), Ok(_)) => (higher, lower),
-                _ => (lower, higher),
+                (Ok(l), Ok(h)) => (ph(h) - 8.0).abs() < (ph(l) - 8.0).abs(),
+                (Err(_), Ok(_)) => true,
+                _ => false,
             },
         };
-        let (k, mut sol) = match (chosen, &other) {
+        let (chosen, other, other_side) = if higher_first {
+            (higher, lower, RootChoice::LowerPh)
+        } else {
+            (lower, higher, RootChoice::HigherPh)
+        };
+        let mut found = match (chosen, &other) {
             (Ok(found), _) => found,
-            (Err(e @ Error::NoConvergence { .. }), Ok((_, found))) => {
+            (Err(e @ Error::NoConvergence { .. }), Ok(settled)) => {
                 return Err(Error::NoWaterFits {
                     first: a.parameter().name(),
                     first_value: a.describe(),
@@ -482,21 +542,28 @@ impl FreshBasis {
                         "that root does not settle with its own ionic strength and calcium \
                          ({e}); the pair fits a water of pH {:.4} (nbs scale), and near it \
                          the two roots are one water within the precision of a measurement",
-                        ph(found)
+                        ph(settled)
                     ),
                 })
             }
             (Err(e), _) => return Err(e),
         };
-        let distinct = |o: &Solution| (o.h / sol.h - 1.0).abs() > 1e-9;
-        let measurable = |k: &Constants, o: &Solution| {
-            crate::solve::alkalinity_in_range(crate::alkalinity::parts(k, o.h, o.dic).total())
+        let distinct = |o: &Settled| (o.sol.h / found.sol.h - 1.0).abs() > 1e-9;
+        let measurable = |o: &Settled| {
+            let parts = crate::alkalinity::parts(&self.constants_of(o), o.sol.h, o.sol.dic);
+            crate::solve::alkalinity_in_range(parts.total())
         };
         let named = match &other {
-            Ok((ko, o)) if distinct(o) && measurable(ko, o) => Some(ph(o)),
-            // The other side did not settle: the chosen solve's own
-            // report, at its constants, stands.
-            Err(Error::NoConvergence { .. }) => sol.warnings.other_root().map(|(p, _)| p),
+            Ok(o) if distinct(o) && measurable(o) => Some(ph(o)),
+            // The other side did not settle: it is reported as it is at
+            // the constants of the chosen one.
+            Err(Error::NoConvergence { .. }) => {
+                let options = SolveOptions::default().with_root(other_side);
+                solve(&self.constants_of(&found), a, b, &options)
+                    .ok()
+                    .filter(|o| (o.h / found.sol.h - 1.0).abs() > 1e-9)
+                    .map(|o| -crate::numeric::log10(o.h))
+            }
             _ => None,
         };
         let (first, second) = if a.parameter() < b.parameter() {
@@ -504,8 +571,10 @@ impl FreshBasis {
         } else {
             (b, a)
         };
-        let here = ph(&sol);
-        sol.warnings
+        let here = ph(&found);
+        found
+            .sol
+            .warnings
             .replace_other_root(named.map(|p| Warning::OtherRoot {
                 first: first.parameter().name(),
                 second: second.parameter().name(),
@@ -513,7 +582,7 @@ impl FreshBasis {
                 scale: PhScale::Nbs.name(),
                 higher: p > here,
             }));
-        Ok((k, sol))
+        Ok(found)
     }
 
     fn extras(
@@ -537,7 +606,7 @@ impl FreshBasis {
             return e;
         }
         let ta = crate::alkalinity::parts(k, h, dic).total();
-        match self.saturation_ph(k, ta) {
+        match self.saturation_ph(k, ta, -crate::numeric::log10(h)) {
             Some(phs) => {
                 e.saturation_ph_nbs = Some(phs);
                 e.langelier_index = Some(-crate::numeric::log10(h) - phs);
@@ -562,23 +631,85 @@ impl FreshBasis {
 
     /// pHs of the Langelier index: the NBS pH at which this water, with its
     /// alkalinity and total calcium (and the ionic strength of `k`, the
-    /// sample's), is exactly saturated with calcite. That is the
-    /// alkalinity + CO3 pair of the shared solver, with free CO3 = Ksp'/Ca
-    /// at the free calcium of each iteration, and its lower-pH root (the
-    /// first pH, going up, at which the water saturates; the higher root
-    /// is where hydroxide has taken the alkalinity). `None` outside pH 4–13.
-    fn saturation_ph(&self, k: &Constants, ta: f64) -> Option<f64> {
-        let alkalinity = Measured::per_kg(Parameter::Alkalinity, ta).ok()?;
-        let pair = |kc: &Constants| {
-            let co3 = kc.ksp_calcite / kc.calcium_free_mol_kg;
-            Ok((alkalinity, Measured::per_kg(Parameter::Co3, co3)?))
+    /// sample's), is exactly saturated with calcite; the lowest such pH
+    /// between 4 and 13, else `None`.
+    ///
+    /// At fixed alkalinity, ln Ω rises with pH to a maximum (where hydroxide
+    /// starts to take the alkalinity from carbonate) and falls beyond, and
+    /// each trial pH costs one quadratic ([`ln_omega_at_alkalinity`]). From
+    /// the sample's pH a first step assumes the slope ln 10 of a
+    /// bicarbonate water; steps of 0.5 pH then walk to a sign change on the
+    /// rising side, and Brent's method refines it to 1e-12 pH. This is the
+    /// same root as the alkalinity + CO3 pair at CO3 = Ksp'/Ca (its lower
+    /// root), at a tenth of the cost.
+    fn saturation_ph(&self, k: &Constants, ta: f64, ph: f64) -> Option<f64> {
+        const LOWEST: f64 = 4.0;
+        const HIGHEST: f64 = 13.0;
+        const STEP: f64 = 0.5;
+        let ca_total = self.totals.calcium_mol_kg;
+        let f = |p: f64| ln_omega_at_alkalinity(k, ta, ca_total, crate::numeric::pow10(-p));
+        let refine = |lo: f64, hi: f64| {
+            let mut conv = roots::SimpleConvergency {
+                eps: 1e-12,
+                max_iter: 200,
+            };
+            let g = |p: f64| f(p).unwrap_or(f64::NAN);
+            roots::find_root_brent(lo, hi, g, &mut conv)
+                .ok()
+                .filter(|p| (LOWEST..=HIGHEST).contains(p))
         };
-        let held = Some(k.ionic_strength);
-        let (_, sol) = self
-            .settle(self.totals.calcium_mol_kg, held, RootChoice::LowerPh, pair)
-            .ok()?;
-        let ph = -crate::numeric::log10(sol.h);
-        (4.0..=13.0).contains(&ph).then_some(ph)
+        let p0 = ph.clamp(LOWEST, HIGHEST);
+        let f0 = f(p0)?;
+        if f0 == 0.0 {
+            return Some(p0);
+        }
+        // The first step, then steps of 0.5, towards saturation.
+        let first = (p0 - f0 / std::f64::consts::LN_10).clamp(LOWEST, HIGHEST);
+        let f1 = f(first);
+        if let Some(f1) = f1 {
+            if (f1 < 0.0) != (f0 < 0.0) {
+                let (lo, hi) = if first < p0 { (first, p0) } else { (p0, first) };
+                return refine(lo, hi);
+            }
+        }
+        if f0 > 0.0 {
+            // Supersaturated: walk down to an undersaturated pH.
+            let mut hi = p0;
+            while hi > LOWEST {
+                let lo = (hi - STEP).max(LOWEST);
+                match f(lo) {
+                    Some(v) if v < 0.0 => return refine(lo, hi),
+                    _ => hi = lo,
+                }
+            }
+            return None;
+        }
+        // Undersaturated: walk up while ln Ω rises; past its maximum, the
+        // rising side (and any root) lies below the sample's pH.
+        let mut lo = p0;
+        let mut f_lo = f0;
+        while lo < HIGHEST {
+            let hi = (lo + STEP).min(HIGHEST);
+            match f(hi) {
+                Some(v) if v >= 0.0 => return refine(lo, hi),
+                Some(v) if v > f_lo => (lo, f_lo) = (hi, v),
+                _ => break,
+            }
+        }
+        // Past the maximum: walk down over it to a supersaturated pH, then
+        // on to the undersaturated one below it.
+        let mut hi = p0;
+        let mut supersaturated = false;
+        while hi > LOWEST {
+            let lo = (hi - STEP).max(LOWEST);
+            match f(lo) {
+                Some(v) if v >= 0.0 => supersaturated = true,
+                Some(_) if supersaturated => return refine(lo, hi),
+                _ => {}
+            }
+            hi = lo;
+        }
+        None
     }
 
     /// Calcium carbonate precipitation potential (mol/kg): the calcite that
@@ -599,8 +730,9 @@ impl FreshBasis {
             let (Ok(a), Ok(b)) = pair else {
                 return f64::NAN;
             };
-            match self.settle(ca_t - x, held, RootChoice::Natural, |_| Ok((a, b))) {
-                Ok((kx, s)) => {
+            match self.settle(ca_t - x, held, None, RootChoice::Natural, |_| Ok((a, b))) {
+                Ok(settled) => {
+                    let (kx, s) = (self.constants_of(&settled), settled.sol);
                     let co3 = free_carbonate(&kx, s.h, s.dic);
                     (kx.calcium_free_mol_kg * co3 / kx.ksp_calcite).ln()
                 }
@@ -650,13 +782,22 @@ struct Bracket {
     floor: f64,
 }
 
+/// Multiples of the start tried in turn when F cannot be evaluated at the
+/// start, nor yet anywhere, and the side of the failure is unknown; then
+/// the values of [`LADDER`].
+const AROUND_START: [f64; 10] = [1.001, 0.999, 1.01, 0.99, 1.03, 0.97, 1.1, 0.9, 1.3, 0.75];
+/// Values tried after [`AROUND_START`]: ionic strengths (mol/kg) over the
+/// range of the activity models and beyond.
+const LADDER: [f64; 10] = [1e-4, 3e-4, 1e-3, 3e-3, 0.01, 0.03, 0.1, 0.3, 1.0, 3.0];
+
 /// Where a value at which a fixed point's F cannot be evaluated lies.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 enum Failure {
     /// Above the fixed point.
     High,
     /// Either side: the iteration steps back halfway to the last value
-    /// that could be evaluated (or, before any, doubles).
+    /// that could be evaluated (or, before any, tries values ever further
+    /// from the start on either side).
     Unknown,
 }
 
@@ -693,6 +834,7 @@ fn fixed_point<T>(
     let mut last_error = None;
     let mut solved_once = false;
     let mut feasible = None;
+    let mut tried = 0;
     let not_settled = || Error::NoConvergence {
         first: "ionic strength",
         second: "free calcium",
@@ -706,7 +848,19 @@ fn fixed_point<T>(
                 let next = match (failure, feasible) {
                     // Back halfway to the last value that solved.
                     (Failure::Unknown, Some(v)) => 0.5 * (x + v),
-                    (Failure::Unknown, None) => 2.0 * x + 1e-4,
+                    // Before any has solved: values ever further from the
+                    // start on either side, then give up.
+                    (Failure::Unknown, None) => {
+                        let n = tried;
+                        tried += 1;
+                        if let Some(m) = AROUND_START.get(n) {
+                            start.abs().max(floor) * m
+                        } else if let Some(v) = LADDER.get(n - AROUND_START.len()) {
+                            *v
+                        } else {
+                            return Err(e);
+                        }
+                    }
                     (Failure::High, _) => {
                         hi = Some(x);
                         lo.map_or(0.5 * x, |l| 0.5 * (l + x))
@@ -759,6 +913,20 @@ fn fixed_point<T>(
     })
 }
 
+/// Sets the free calcium of fresh-water constants and what follows from
+/// it: the pair ratios and the pair-inclusive K1e, K2e (see
+/// [`Constants::k1e`]). The one place these are computed, so that
+/// constants made again from (I, Ca) are exactly those solved with.
+fn set_free_calcium(k: &mut Constants, ca_free: f64) {
+    let pair_hco3 = k.k_cahco3 * ca_free;
+    let pair_co3 = k.k_caco3 * ca_free;
+    k.pair_hco3 = pair_hco3;
+    k.pair_co3 = pair_co3;
+    k.k1e = k.k1 * (1.0 + pair_hco3);
+    k.k2e = k.k2 * (1.0 + pair_co3) / (1.0 + pair_hco3);
+    k.calcium_free_mol_kg = ca_free;
+}
+
 /// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
 /// the balance (p − S c)(1 + S w) = S q.
 fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
@@ -808,6 +976,28 @@ fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
         Parameter::Co3 => k.k_caco3 * amount(m),
         _ => 0.0,
     }
+}
+
+/// ln Ω of calcite at activity h (NBS) for alkalinity `ta` and total
+/// calcium `ca_total` (mol/kg), at the apparent constants of `k` (its
+/// ionic strength held), with the calcium pairs solved exactly: with
+/// CO2* = S, HCO3- = S u, CO3-- = S v, u = K1'/h, v = K1'K2'/h², the
+/// carbonate alkalinity TA − (non-carbonate) = S (u + 2v) + Ca S (a u + 2 b v)
+/// and Ca = CaT/(1 + S (a u + b v)): one quadratic in S. `None` where the
+/// alkalinity left for carbon is not positive.
+fn ln_omega_at_alkalinity(k: &Constants, ta: f64, ca_total: f64, h: f64) -> Option<f64> {
+    let carbon = ta - crate::alkalinity::non_carbonate(k, h).0;
+    if carbon <= 0.0 {
+        return None;
+    }
+    let u = k.k1 / h;
+    let v = k.k1 * k.k2 / (h * h);
+    let (a, b) = (k.k_cahco3, k.k_caco3);
+    let w = a * u + b * v;
+    let s = balance_root(u + 2.0 * v, w, ca_total * (a * u + 2.0 * b * v), carbon);
+    let ca = ca_total / (1.0 + s * w);
+    let ln = (ca * s * v / k.ksp_calcite).ln();
+    ln.is_finite().then_some(ln)
 }
 
 /// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).

@@ -80,6 +80,10 @@ pub struct SolveOptions {
     /// also solved in the other medium, with a caution where their pCO2
     /// differ by more than 5 %. On by default.
     pub compare_media: bool,
+    /// Whether a two-root pair with an explicit choice also looks for the
+    /// other root to report it (off only for the crate's own derived
+    /// solves, which read the chosen root alone).
+    pub(crate) report_other_root: bool,
 }
 
 impl Default for SolveOptions {
@@ -88,6 +92,7 @@ impl Default for SolveOptions {
             root: RootChoice::Natural,
             precipitation_potential: false,
             compare_media: true,
+            report_other_root: true,
         }
     }
 }
@@ -379,7 +384,7 @@ pub(crate) fn solve(
         }
         (Known::Ta(ta), Known::Co3(co3)) => {
             let fits = |h: f64| h_in_range(h) && dic_in_range(co3 * dic_per_co3(k, h));
-            let h = ta_co3_root(k, &pair, ta, co3, options.root, fits, &mut warnings)?;
+            let h = ta_co3_root(k, &pair, ta, co3, options, fits, &mut warnings)?;
             (h, co3 * dic_per_co3(k, h))
         }
         (Known::Dic(dic), Known::H(h)) => (h, dic),
@@ -409,7 +414,7 @@ pub(crate) fn solve(
                     && (alkalinity_in_range(bound)
                         || alkalinity_in_range(crate::alkalinity::parts(k, h, dic).total()))
             };
-            let h = dic_hco3_root(k, &pair, dic, hco3, options.root, fits, &mut warnings)?;
+            let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, &mut warnings)?;
             (h, dic)
         }
         (Known::Dic(dic), Known::Co3(co3)) => {
@@ -550,10 +555,11 @@ fn dic_hco3_root(
     pair: &Pair,
     dic: f64,
     hco3: f64,
-    root: RootChoice,
+    options: &SolveOptions,
     fits: impl Fn(f64) -> bool,
     warnings: &mut Warnings,
 ) -> Result<f64> {
+    let root = options.root;
     let c = hco3 / dic;
     let q = 1.0 - c;
     let disc = q * q * k.k1e * k.k1e - 4.0 * c * c * k.k1e * k.k2e;
@@ -566,6 +572,9 @@ fn dic_hco3_root(
     }
     let h_high = (q * k.k1e + disc.sqrt()) / (2.0 * c);
     let h_low = k.k1e * k.k2e / h_high;
+    if !options.report_other_root && root != RootChoice::Natural {
+        return Ok(pick(root, h_low, h_high).0);
+    }
     let two = (h_high / h_low - 1.0).abs() > 1e-9;
     let (chosen, other, report) = settle(pick(root, h_low, h_high), root, two, &fits);
     if report {
@@ -603,10 +612,11 @@ fn ta_co3_root(
     pair: &Pair,
     ta: f64,
     co3: f64,
-    root: RootChoice,
+    options: &SolveOptions,
     fits: impl Fn(f64) -> bool,
     warnings: &mut Warnings,
 ) -> Result<f64> {
+    let root = options.root;
     // g and dg/dh at h.
     let co3_per_k2 = co3 / k.k2e;
     let g = |h: f64| {
@@ -735,15 +745,19 @@ fn ta_co3_root(
         // The far end is on the same side as the minimum: no root there.
         Err(Failure::AtLo(_) | Failure::AtHi(_)) => Ok(None),
     };
-    let high_ph = if h_min > lo {
-        found(high_side(guess_high, ROUGH))?
-    } else {
-        None
+    let rough_high = || {
+        if h_min > lo {
+            found(high_side(guess_high, ROUGH))
+        } else {
+            Ok(None)
+        }
     };
-    let low_ph = if h_min < hi {
-        found(low_side(guess_low, ROUGH))?
-    } else {
-        None
+    let rough_low = || {
+        if h_min < hi {
+            found(low_side(guess_low, ROUGH))
+        } else {
+            Ok(None)
+        }
     };
     let polish = |h: f64, on_high_side: bool| -> Result<f64> {
         let r = if on_high_side {
@@ -753,6 +767,19 @@ fn ta_co3_root(
         };
         found(r)?.ok_or_else(|| pair.no_convergence(0))
     };
+    // An explicit side with no report of the other: that side alone,
+    // unless it has no root.
+    if !options.report_other_root {
+        let side = match root {
+            RootChoice::HigherPh => rough_high()?.map(|h| (h, true)),
+            RootChoice::LowerPh => rough_low()?.map(|h| (h, false)),
+            _ => None,
+        };
+        if let Some((h, on_high_side)) = side {
+            return polish(h, on_high_side);
+        }
+    }
+    let (high_ph, low_ph) = (rough_high()?, rough_low()?);
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
             let two = (h_high / h_low - 1.0).abs() > 1e-9;

@@ -181,15 +181,6 @@ impl Warnings {
     }
 
     /// These cautions after `first`, in order.
-    /// The other root named by an [`Warning::OtherRoot`] among these: its
-    /// pH and whether it is the higher one.
-    pub(crate) fn other_root(&self) -> Option<(f64, bool)> {
-        self.0.iter().find_map(|w| match w {
-            Warning::OtherRoot { ph, higher, .. } => Some((*ph, *higher)),
-            _ => None,
-        })
-    }
-
     /// Replaces any [`Warning::OtherRoot`] among these with `w` (fresh
     /// water settles each root at its own ionic strength and calcium).
     pub(crate) fn replace_other_root(&mut self, w: Option<Warning>) {
