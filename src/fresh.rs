@@ -155,8 +155,11 @@ const MAX_OUTER: u32 = 200;
 const OUTER_TOLERANCE: f64 = 1e-12;
 
 impl FreshBasis {
-    /// The basis of `water`, a fresh water.
-    pub(crate) fn new(water: &Water) -> Result<Self> {
+    /// The basis of `water`, a fresh water. With `every_constant` false,
+    /// the constants of acid systems whose total is zero, and the calcium
+    /// constants without calcium, are not evaluated and hold 0 (as in
+    /// saline water); a solve never reads them.
+    pub(crate) fn new(water: &Water, every_constant: bool) -> Result<Self> {
         let c = water.conditions();
         let t_c = c.temperature_c();
         let t = c.temperature_k();
@@ -179,7 +182,22 @@ impl FreshBasis {
             pb::EMERSON1975_RANGE.check_for("KNH4", t_c, 0.0, &mut warnings);
         }
         let p10 = crate::numeric::pow10;
-        let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
+        // A constant whose total is zero is not evaluated (it stays 0, as in
+        // saline water): each costs an exponential per prepared water.
+        let given = |total: f64, k: &dyn Fn() -> f64| {
+            if every_constant || total > 0.0 {
+                k()
+            } else {
+                0.0
+            }
+        };
+        let kp = if every_constant || totals.phosphate_mol_kg > 0.0 {
+            let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
+            (lp1.exp(), lp2.exp(), lp3.exp())
+        } else {
+            (0.0, 0.0, 0.0)
+        };
+        let calcium = totals.calcium_mol_kg;
         let model = water.fresh_options().activity;
         let route = route(water);
         let mut b = FreshBasis {
@@ -192,17 +210,25 @@ impl FreshBasis {
             k2: p10(pb::log_k2(t)),
             kw: p10(pb::log_kw(t)),
             // Pure-water limits (S = 0) of the sea-water fits.
-            kb: crate::constants::boron::dickson1990_ln_kb(t, 0.0).exp(),
-            kp: (lp1.exp(), lp2.exp(), lp3.exp()),
-            ksi: nutrients::millero1995_ln_ksi(t, 0.0).exp(),
-            ks: sulfate::dickson1990_ln_ks(t, 0.0).exp(),
-            kf: (1590.2 / t - 12.641).exp(),
-            knh4: p10(-pb::emerson1975_pka(t)),
-            kh2s: p10(-sulfide::millero1988_pk1(t, 0.0)),
-            ksp_calcite: p10(pb::log_ksp_calcite(t)),
-            ksp_aragonite: p10(pb::log_ksp_aragonite(t)),
-            k_cahco3: p10(pb::log_k_cahco3(t)),
-            k_caco3: p10(pb::log_k_caco3(t)),
+            kb: given(totals.boron_mol_kg, &|| {
+                crate::constants::boron::dickson1990_ln_kb(t, 0.0).exp()
+            }),
+            kp,
+            ksi: given(totals.silicate_mol_kg, &|| {
+                nutrients::millero1995_ln_ksi(t, 0.0).exp()
+            }),
+            ks: given(totals.sulfate_mol_kg, &|| {
+                sulfate::dickson1990_ln_ks(t, 0.0).exp()
+            }),
+            kf: given(totals.fluoride_mol_kg, &|| (1590.2 / t - 12.641).exp()),
+            knh4: given(totals.ammonia_mol_kg, &|| p10(-pb::emerson1975_pka(t))),
+            kh2s: given(totals.sulfide_mol_kg, &|| {
+                p10(-sulfide::millero1988_pk1(t, 0.0))
+            }),
+            ksp_calcite: given(calcium, &|| p10(pb::log_ksp_calcite(t))),
+            ksp_aragonite: given(calcium, &|| p10(pb::log_ksp_aragonite(t))),
+            k_cahco3: given(calcium, &|| p10(pb::log_k_cahco3(t))),
+            k_caco3: given(calcium, &|| p10(pb::log_k_caco3(t))),
             fugacity_factor: crate::constants::gas::weiss1974_fugacity_factor(
                 t,
                 c.air_pressure_atm(),
@@ -268,6 +294,10 @@ impl FreshBasis {
         // [H][F]/[HF] = KF/(γH γ1).
         let ks_free = self.ks * g1 / (gh * g2);
         let kf_free = self.kf / (gh * g1);
+        // [HSO4-]/[SO4--] and [HF]/[F-] per unit free [H+] (0 without them).
+        let per = |total: f64, k: f64| if total > 0.0 { total / k } else { 0.0 };
+        let sulfate = per(self.totals.sulfate_mol_kg, ks_free);
+        let fluoride = per(self.totals.fluoride_mol_kg, kf_free);
         let mut k = Constants {
             conditions: self.conditions,
             working_scale: PhScale::Nbs,
@@ -297,9 +327,8 @@ impl FreshBasis {
             free_per_working: 1.0 / gh,
             // Defined as in sea water, from the free [H+] and the sulfate and
             // fluoride given (equal to the free scale when there are none).
-            seawater_per_working: (1.0 + t.sulfate_mol_kg / ks_free + t.fluoride_mol_kg / kf_free)
-                / gh,
-            total_per_working: (1.0 + t.sulfate_mol_kg / ks_free) / gh,
+            seawater_per_working: (1.0 + sulfate + fluoride) / gh,
+            total_per_working: (1.0 + sulfate) / gh,
             nbs_per_working: 1.0,
             fugacity_factor: self.fugacity_factor,
             vapour_pressure_atm: self.vapour_pressure_atm,
@@ -639,7 +668,7 @@ impl FreshBasis {
     /// each trial pH costs one quadratic ([`ln_omega_at_alkalinity`]). From
     /// the sample's pH a first step assumes the slope ln 10 of a
     /// bicarbonate water; steps of 0.5 pH then walk to a sign change on the
-    /// rising side, and Brent's method refines it to 1e-12 pH. This is the
+    /// rising side, and [`falsi`] refines it to 1e-12 pH. This is the
     /// same root as the alkalinity + CO3 pair at CO3 = Ksp'/Ca (its lower
     /// root), at a tenth of the cost.
     fn saturation_ph(&self, k: &Constants, ta: f64, ph: f64) -> Option<f64> {
@@ -649,13 +678,7 @@ impl FreshBasis {
         let ca_total = self.totals.calcium_mol_kg;
         let f = |p: f64| ln_omega_at_alkalinity(k, ta, ca_total, crate::numeric::pow10(-p));
         let refine = |lo: f64, hi: f64| {
-            let mut conv = roots::SimpleConvergency {
-                eps: 1e-12,
-                max_iter: 200,
-            };
-            let g = |p: f64| f(p).unwrap_or(f64::NAN);
-            roots::find_root_brent(lo, hi, g, &mut conv)
-                .ok()
+            falsi(|p| f(p).unwrap_or(f64::NAN), lo, hi)
                 .filter(|p| (LOWEST..=HIGHEST).contains(p))
         };
         let p0 = ph.clamp(LOWEST, HIGHEST);
@@ -925,6 +948,52 @@ fn set_free_calcium(k: &mut Constants, ca_free: f64) {
     k.k1e = k.k1 * (1.0 + pair_hco3);
     k.k2e = k.k2 * (1.0 + pair_co3) / (1.0 + pair_hco3);
     k.calcium_free_mol_kg = ca_free;
+}
+
+/// The root of f in [a, b], where f changes sign, by the Illinois
+/// variant of regula falsi (Dowell & Jarratt 1971): a secant step inside
+/// the bracket, with the value kept at an end that stays twice in a row
+/// halved, so the bracket closes from both sides and convergence is
+/// superlinear. Stops at a step below 1e-12 (absolute: the unknown is a pH)
+/// or an exact zero; `None` without a sign change or on a NaN.
+fn falsi(f: impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> Option<f64> {
+    let (mut fa, mut fb) = (f(a), f(b));
+    if fa == 0.0 {
+        return Some(a);
+    }
+    if fb == 0.0 {
+        return Some(b);
+    }
+    if !(fa * fb < 0.0) {
+        return None;
+    }
+    let mut kept = 0i8;
+    let mut last = f64::NAN;
+    for _ in 0..MAX_OUTER {
+        let c = (a * fb - b * fa) / (fb - fa);
+        let fc = f(c);
+        if fc.is_nan() {
+            return None;
+        }
+        if fc == 0.0 || (c - last).abs() <= 1e-12 {
+            return Some(c);
+        }
+        last = c;
+        if (fc < 0.0) == (fb < 0.0) {
+            (b, fb) = (c, fc);
+            if kept == -1 {
+                fa *= 0.5;
+            }
+            kept = -1;
+        } else {
+            (a, fa) = (c, fc);
+            if kept == 1 {
+                fb *= 0.5;
+            }
+            kept = 1;
+        }
+    }
+    None
 }
 
 /// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),

@@ -75,7 +75,7 @@ impl Water {
                 self.composition(),
                 self.fits(),
             )?),
-            Medium::Fresh => Prepared::Fresh(FreshBasis::new(self)?),
+            Medium::Fresh => Prepared::Fresh(FreshBasis::new(self, false)?),
         };
         Ok(PreparedWater {
             water: self.clone(),
@@ -154,13 +154,17 @@ impl PreparedWater {
     /// ```
     /// # use travertine::{Conditions, Water};
     /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
-    /// assert!((-p.constants().k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+    /// assert!((-p.constants()?.k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn constants(&self) -> Constants {
+    ///
+    /// # Errors
+    /// As [`Water::constants`].
+    pub fn constants(&self) -> Result<Constants> {
         match &self.prepared {
-            Prepared::Saline(k) => k.clone(),
-            Prepared::Fresh(b) => b.starting_constants(),
+            Prepared::Saline(k) => Ok(k.clone()),
+            // Every constant, also those a solve of this water never reads.
+            Prepared::Fresh(_) => self.water.constants(),
         }
     }
 

@@ -118,7 +118,7 @@ impl fmt::Display for Warning {
                 percent,
             } => write!(
                 f,
-                "at salinity {salinity} both media apply, and they disagree: the {other} \
+                "at salinity {salinity:.3} both media apply, and they disagree: the {other} \
                  constants give pCO2 {} µatm, {percent:+.1} % from this result \
                  (mostly their K2; the default medium changes at salinity 1)",
                 four_figures(*pco2_uatm)

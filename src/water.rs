@@ -599,7 +599,7 @@ impl Water {
     pub fn constants(&self) -> Result<Constants> {
         match self.medium {
             Medium::Saline => Constants::saline(&self.conditions, &self.composition, &self.fits),
-            Medium::Fresh => Ok(crate::fresh::FreshBasis::new(self)?.starting_constants()),
+            Medium::Fresh => Ok(crate::fresh::FreshBasis::new(self, true)?.starting_constants()),
         }
     }
 }

@@ -168,7 +168,7 @@ fn bicarbonate_peaks_midway_between_pk1_and_pk2() {
     for (t, s) in cases {
         let water = Water::saline(Conditions::new(t, s).unwrap()).unwrap();
         let prepared = water.prepare().unwrap();
-        let k = prepared.constants();
+        let k = prepared.constants().unwrap();
         // pK on the working (total) scale, and pH scanned on the same scale.
         let midpoint = -(k.k1.log10() + k.k2.log10()) / 2.0;
         let dic = Measured::dic_umol_kg(2000.0).unwrap();
