@@ -678,8 +678,7 @@ impl FreshBasis {
         let ca_total = self.totals.calcium_mol_kg;
         let f = |p: f64| ln_omega_at_alkalinity(k, ta, ca_total, crate::numeric::pow10(-p));
         let refine = |lo: f64, hi: f64| {
-            falsi(|p| f(p).unwrap_or(f64::NAN), lo, hi)
-                .filter(|p| (LOWEST..=HIGHEST).contains(p))
+            falsi(|p| f(p).unwrap_or(f64::NAN), lo, hi).filter(|p| (LOWEST..=HIGHEST).contains(p))
         };
         let p0 = ph.clamp(LOWEST, HIGHEST);
         let f0 = f(p0)?;
@@ -964,7 +963,7 @@ fn falsi(f: impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> Option<f64> {
     if fb == 0.0 {
         return Some(b);
     }
-    if !(fa * fb < 0.0) {
+    if fa.is_nan() || fb.is_nan() || (fa < 0.0) == (fb < 0.0) {
         return None;
     }
     let mut kept = 0i8;

@@ -25,6 +25,14 @@ pub const MEDIA_OVERLAP_SALINITY: (f64, f64) = (0.5, 5.0);
 /// given (in the overlap).
 pub const MEDIA_PCO2_CAUTION: f64 = 0.05;
 
+/// A borrowed [`Prepared`], so that a one-off solve need not move its
+/// constants (a large value) into one.
+#[derive(Clone, Copy)]
+enum Basis<'a> {
+    Saline(&'a Constants),
+    Fresh(&'a FreshBasis),
+}
+
 /// What a prepared water holds besides the water.
 #[derive(Debug, Clone, PartialEq)]
 enum Prepared {
@@ -69,17 +77,9 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn prepare(&self) -> Result<PreparedWater> {
-        let prepared = match self.medium() {
-            Medium::Saline => Prepared::Saline(Constants::saline(
-                self.conditions(),
-                self.composition(),
-                self.fits(),
-            )?),
-            Medium::Fresh => Prepared::Fresh(FreshBasis::new(self, false)?),
-        };
         Ok(PreparedWater {
             water: self.clone(),
-            prepared,
+            prepared: prepared(self)?,
         })
     }
 
@@ -117,7 +117,17 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
-        self.prepare()?.solve_with(a, b, options)
+        // As a prepared water, without moving the constants into one.
+        match self.medium() {
+            Medium::Saline => {
+                let k = Constants::saline(self.conditions(), self.composition(), self.fits())?;
+                solve_in(self, Basis::Saline(&k), a, b, options)
+            }
+            Medium::Fresh => {
+                let basis = FreshBasis::new(self, false)?;
+                solve_in(self, Basis::Fresh(&basis), a, b, options)
+            }
+        }
     }
 
     /// The same water in the other medium, with the same conditions,
@@ -203,56 +213,87 @@ impl PreparedWater {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
-        let mut state = match &self.prepared {
-            Prepared::Saline(k) => {
-                let sol = solve(k, &a, &b, options)?;
-                State::build(&self.water, k, sol.h, sol.dic, sol.warnings, (&a, &b))?
-            }
-            Prepared::Fresh(basis) => basis.solve(&self.water, a, b, options)?,
+        let basis = match &self.prepared {
+            Prepared::Saline(k) => Basis::Saline(k),
+            Prepared::Fresh(b) => Basis::Fresh(b),
         };
-        if options.compare_media {
-            if let Some(w) = self.media_caution(&state, a, b, options) {
-                state.warnings.push(w);
-            }
-        }
-        Ok(state)
+        solve_in(&self.water, basis, a, b, options)
     }
+}
 
-    /// In the overlap of the two media, the same sample solved in the other
-    /// medium; a caution with the figure where pCO2 differs by more than
-    /// [`MEDIA_PCO2_CAUTION`]. A pH with its scale unstated keeps the
-    /// scale it had in this medium (NBS in fresh water, total in saline).
-    fn media_caution(
-        &self,
-        state: &State,
-        a: Measured,
-        b: Measured,
-        options: &SolveOptions,
-    ) -> Option<Warning> {
-        let s = self.water.conditions().salinity();
-        let (lo, hi) = MEDIA_OVERLAP_SALINITY;
-        if !(lo..=hi).contains(&s) {
-            return None;
+/// The constants of `water`, or the basis of its fresh-water constants.
+fn prepared(water: &Water) -> Result<Prepared> {
+    Ok(match water.medium() {
+        Medium::Saline => Prepared::Saline(Constants::saline(
+            water.conditions(),
+            water.composition(),
+            water.fits(),
+        )?),
+        Medium::Fresh => Prepared::Fresh(FreshBasis::new(water, false)?),
+    })
+}
+
+/// The state of `water`, prepared as `prepared`, from a measured pair: the
+/// one solver in both media, then the comparison of the media in their
+/// overlap.
+#[inline(always)]
+fn solve_in(
+    water: &Water,
+    basis: Basis,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Result<State> {
+    // The state stays inside its result (a large value, not moved out).
+    let mut result = match basis {
+        Basis::Saline(k) => match solve(k, &a, &b, options) {
+            Ok(sol) => State::build(water, k, sol.h, sol.dic, sol.warnings, (&a, &b)),
+            Err(e) => Err(e),
+        },
+        Basis::Fresh(basis) => basis.solve(water, a, b, options),
+    };
+    if let (true, Ok(state)) = (options.compare_media, &mut result) {
+        if let Some(w) = media_caution(water, state, a, b, options) {
+            state.warnings.push(w);
         }
-        let scale = match self.water.medium() {
-            Medium::Fresh => PhScale::Nbs,
-            _ => PhScale::Total,
-        };
-        let stated = |m: Measured| match m.parameter() {
-            Parameter::Ph => m.with_scale_if_unstated(scale),
-            _ => m,
-        };
-        let other = self.water.in_other_medium().ok()?;
-        let quiet = options.with_media_comparison(false);
-        let there = other.solve_with(stated(a), stated(b), &quiet).ok()?;
-        let difference = there.pco2_uatm / state.pco2_uatm - 1.0;
-        (difference.abs() > MEDIA_PCO2_CAUTION).then(|| Warning::MediaDisagree {
-            salinity: s,
-            other: other.medium().name(),
-            pco2_uatm: there.pco2_uatm,
-            percent: 100.0 * difference,
-        })
     }
+    result
+}
+
+/// In the overlap of the two media, the same sample solved in the other
+/// medium; a caution with the figure where pCO2 differs by more than
+/// [`MEDIA_PCO2_CAUTION`]. A pH with its scale unstated keeps the scale it
+/// had in this medium (NBS in fresh water, total in saline).
+fn media_caution(
+    water: &Water,
+    state: &State,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Option<Warning> {
+    let s = water.conditions().salinity();
+    let (lo, hi) = MEDIA_OVERLAP_SALINITY;
+    if !(lo..=hi).contains(&s) {
+        return None;
+    }
+    let scale = match water.medium() {
+        Medium::Fresh => PhScale::Nbs,
+        _ => PhScale::Total,
+    };
+    let stated = |m: Measured| match m.parameter() {
+        Parameter::Ph => m.with_scale_if_unstated(scale),
+        _ => m,
+    };
+    let other = water.in_other_medium().ok()?;
+    let quiet = options.with_media_comparison(false);
+    let there = other.solve_with(stated(a), stated(b), &quiet).ok()?;
+    let difference = there.pco2_uatm / state.pco2_uatm - 1.0;
+    (difference.abs() > MEDIA_PCO2_CAUTION).then(|| Warning::MediaDisagree {
+        salinity: s,
+        other: other.medium().name(),
+        pco2_uatm: there.pco2_uatm,
+        percent: 100.0 * difference,
+    })
 }
 
 #[cfg(test)]
