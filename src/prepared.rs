@@ -244,15 +244,14 @@ fn solve_in(
     b: Measured,
     options: &SolveOptions,
 ) -> Result<State> {
-    // The state stays inside its result (a large value, not moved out).
-    let mut result = match basis {
-        Basis::Saline(k) => match solve(k, &a, &b, options) {
-            Ok(sol) => State::build(water, k, sol.h, sol.dic, sol.warnings, (&a, &b)),
-            Err(e) => Err(e),
-        },
-        Basis::Fresh(basis) => basis.solve(water, a, b, options),
-    };
-    if let (true, Ok(state)) = (options.compare_media, &mut result) {
+    let (lo, hi) = MEDIA_OVERLAP_SALINITY;
+    let in_overlap = (lo..=hi).contains(&water.conditions().salinity());
+    if !(options.compare_media && in_overlap) {
+        // Returned as built: a state is a large value to copy.
+        return solve_once(water, basis, a, b, options);
+    }
+    let mut result = solve_once(water, basis, a, b, options);
+    if let Ok(state) = &mut result {
         if let Some(w) = media_caution(water, state, a, b, options) {
             state.warnings.push(w);
         }
@@ -260,8 +259,26 @@ fn solve_in(
     result
 }
 
-/// In the overlap of the two media, the same sample solved in the other
-/// medium; a caution with the figure where pCO2 differs by more than
+/// The state of `water` from a measured pair by the one solver.
+#[inline(always)]
+fn solve_once(
+    water: &Water,
+    basis: Basis,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Result<State> {
+    match basis {
+        Basis::Saline(k) => match solve(k, &a, &b, options) {
+            Ok(sol) => State::build(water, k, sol.h, sol.dic, sol.warnings, (&a, &b)),
+            Err(e) => Err(e),
+        },
+        Basis::Fresh(basis) => basis.solve(water, a, b, options),
+    }
+}
+
+/// In the overlap of the two media (the caller checks the salinity), the
+/// same sample solved in the other medium; a caution with the figure where pCO2 differs by more than
 /// [`MEDIA_PCO2_CAUTION`]. A pH with its scale unstated keeps the scale it
 /// had in this medium (NBS in fresh water, total in saline).
 fn media_caution(
@@ -272,10 +289,6 @@ fn media_caution(
     options: &SolveOptions,
 ) -> Option<Warning> {
     let s = water.conditions().salinity();
-    let (lo, hi) = MEDIA_OVERLAP_SALINITY;
-    if !(lo..=hi).contains(&s) {
-        return None;
-    }
     let scale = match water.medium() {
         Medium::Fresh => PhScale::Nbs,
         _ => PhScale::Total,
