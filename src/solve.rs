@@ -720,8 +720,8 @@ fn ta_co3_root(
             .find(|h| *h > 0.0)
             .unwrap_or((h_min * hi).sqrt())
     };
-    // Both roots to about 1e-4 relative in h (enough to report the other
-    // one); the chosen one is then polished to full precision.
+    // The high-pH root to about 1e-4 relative in h (enough to report it),
+    // polished to full precision when it is chosen or lies near the other.
     const ROUGH: f64 = 1e-2;
     let high_side = |guess: f64, accept: f64| {
         let search = Search {
@@ -752,34 +752,35 @@ fn ta_co3_root(
             Ok(None)
         }
     };
-    let rough_low = || {
+    // The low-pH root, where natural waters lie and the default usually
+    // chooses, is found to full precision at once; the other roughly, and
+    // polished only if needed.
+    let precise_low = || {
         if h_min < hi {
-            found(low_side(guess_low, ROUGH))
+            found(low_side(guess_low, NEWTON_ACCEPT))
         } else {
             Ok(None)
         }
     };
     let polish = |h: f64, on_high_side: bool| -> Result<f64> {
-        let r = if on_high_side {
-            high_side(h, NEWTON_ACCEPT)
-        } else {
-            low_side(h, NEWTON_ACCEPT)
-        };
-        found(r)?.ok_or_else(|| pair.no_convergence(0))
+        if !on_high_side {
+            return Ok(h);
+        }
+        found(high_side(h, NEWTON_ACCEPT))?.ok_or_else(|| pair.no_convergence(0))
     };
     // An explicit side with no report of the other: that side alone,
     // unless it has no root.
     if !options.report_other_root {
         let side = match root {
             RootChoice::HigherPh => rough_high()?.map(|h| (h, true)),
-            RootChoice::LowerPh => rough_low()?.map(|h| (h, false)),
+            RootChoice::LowerPh => precise_low()?.map(|h| (h, false)),
             _ => None,
         };
         if let Some((h, on_high_side)) = side {
             return polish(h, on_high_side);
         }
     }
-    let (high_ph, low_ph) = (rough_high()?, rough_low()?);
+    let (high_ph, low_ph) = (rough_high()?, precise_low()?);
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
             let two = (h_high / h_low - 1.0).abs() > 1e-9;
