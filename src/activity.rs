@@ -83,7 +83,7 @@ pub fn dielectric_constant(temperature_c: f64) -> f64 {
 ///
 /// ```
 /// let a = travertine::activity::debye_huckel_a(25.0, 0.997048);
-/// assert!((a - 0.5108).abs() < 5e-4); // equations.md §9 (computed); tables quote 0.509–0.511
+/// assert!((a - 0.5108).abs() < 5e-4); // computed from Malmberg & Maryott (1956); tables quote 0.509–0.511
 /// ```
 pub fn debye_huckel_a(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
     let et = dielectric_constant(temperature_c) * (temperature_c + 273.15);
@@ -104,7 +104,7 @@ pub fn debye_huckel_b(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
 /// Davies activity coefficient of an ion of charge `z` at ionic strength `i`.
 ///
 /// ```
-/// // equations.md §9 test value (computed): γ(z = 1, I = 0.01, A = 0.509) = 0.9021
+/// // Davies (1962), computed: γ(z = 1, I = 0.01, A = 0.509) = 0.9021
 /// let g = travertine::activity::davies_gamma(0.509, 1.0, 0.01);
 /// assert!((g - 0.9021).abs() < 5e-5);
 /// ```

@@ -24,17 +24,17 @@ use serde::Serialize;
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
 #[non_exhaustive]
 pub struct AlkalinityParts {
-    /// [HCO3-] + 2[CO3--] (+ [CaHCO3+] + 2[CaCO3⁰] in fresh water).
+    /// [HCO3-] + 2[CO3--] (+ [CaHCO3+] + 2\[CaCO3⁰\] in fresh water).
     pub carbonate: f64,
     /// [B(OH)4-].
     pub borate: f64,
     /// [OH-].
     pub hydroxide: f64,
-    /// [HPO4--] + 2[PO4---] - [H3PO4].
+    /// [HPO4--] + 2[PO4---] - \[H3PO4\].
     pub phosphate: f64,
     /// [SiO(OH)3-].
     pub silicate: f64,
-    /// [NH3].
+    /// \[NH3\].
     pub ammonia: f64,
     /// [HS-].
     pub sulfide: f64,
@@ -42,7 +42,7 @@ pub struct AlkalinityParts {
     pub free_hydrogen: f64,
     /// [HSO4-] (counted negatively).
     pub bisulfate: f64,
-    /// [HF] (counted negatively).
+    /// \[HF\] (counted negatively).
     pub hydrogen_fluoride: f64,
 }
 
@@ -197,7 +197,7 @@ fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
 /// use travertine::{alkalinity::parts, Conditions, Water};
 /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
 /// let p = parts(&k, 10f64.powf(-8.0402), 2000e-6);
-/// assert!((p.total() * 1e6 - 2300.0).abs() < 0.5); // equations.md §13 worked value (computed)
+/// assert!((p.total() * 1e6 - 2300.0).abs() < 0.5); // worked value computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn parts(k: &Constants, h: f64, dic_mol_kg: f64) -> AlkalinityParts {

@@ -20,7 +20,7 @@ use crate::error::{Error, Result};
 
 /// Density in kg/m³ at the surface, from practical salinity and temperature (°C).
 ///
-/// Check values (computed from the equation, equations.md §10):
+/// Check values (computed from the equation of Millero & Poisson 1981):
 /// 1023.3431 kg/m³ at S 35, 25 °C; 997.0480 for pure water at 25 °C;
 /// 1027.6755 at S 35, 5 °C.
 ///
@@ -77,7 +77,7 @@ mod tests {
 
     #[test]
     fn check_values() {
-        // Millero & Poisson (1981), values computed from the equation (equations.md §10).
+        // Millero & Poisson (1981), values computed from the equation .
         assert!((density_kg_m3(0.0, 25.0).unwrap() - 997.0480).abs() < 1e-4);
         assert!((density_kg_m3(35.0, 5.0).unwrap() - 1027.6755).abs() < 1e-4);
     }

@@ -17,7 +17,7 @@
 //!     Measured::parse(travertine::Parameter::Alkalinity, "2300 umol/kg")?,
 //!     Measured::dic_umol_kg(2000.0)?,
 //! )?;
-//! // equations.md §13 worked values (computed from the published equations)
+//! // worked values computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
 //! assert!((state.ph(PhScale::Total) - 8.0402).abs() < 5e-4);
 //! assert!((state.omega_aragonite.unwrap() - 3.346).abs() < 5e-3);
 //!
@@ -50,6 +50,7 @@ pub mod report;
 pub(crate) mod root;
 pub mod sample;
 pub mod scales;
+#[cfg(feature = "sheet")]
 pub mod sheet;
 pub mod solve;
 pub mod state;
@@ -66,3 +67,8 @@ pub use solve::{RootChoice, SolveOptions};
 pub use state::State;
 pub use warning::{Warning, Warnings};
 pub use water::{Medium, Water};
+
+/// The README's Rust examples, run as doctests so that they keep working.
+#[cfg(doctest)]
+#[doc = include_str!("../README.md")]
+pub struct ReadmeDoctests;

@@ -187,7 +187,7 @@ impl PreparedWater {
     /// # use travertine::{Conditions, Measured, Water};
     /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
     /// let s = p.solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
-    /// assert!((s.pco2_uatm - 402.75).abs() < 0.05); // equations.md §13 worked value (computed)
+    /// assert!((s.pco2_uatm - 402.75).abs() < 0.05); // worked value computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {

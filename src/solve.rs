@@ -5,7 +5,7 @@
 //! one species) are solved directly, the quadratics in their numerically
 //! stable forms. Pairs with alkalinity are one bracketed root of the
 //! alkalinity equation in x = ln h over pH 0 to 14, found by the
-//! safeguarded Newton iteration of [`crate::root`], with the analytic
+//! safeguarded Newton iteration of `src/root.rs` (`monotone_newton`), with the analytic
 //! derivative. The first guess for (TA, DIC) is the root of the
 //! carbonate-only quadratic (Munhoven 2013 uses the same idea for his
 //! bounds); other pairs start from the middle of the bracket.

@@ -40,7 +40,7 @@ pub(crate) struct FreshExtras {
 /// use travertine::{Conditions, Measured, Water};
 /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
 ///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
-/// // equations.md §13 worked values (computed from the published equations)
+/// // worked values computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
 /// assert!((s.co3_umol_kg - 210.90).abs() < 0.05);
 /// assert!((s.omega_aragonite.unwrap() - 3.346).abs() < 5e-3);
 /// assert!((s.fco2_uatm - 401.47).abs() < 0.05);
@@ -97,11 +97,11 @@ pub struct State {
     pub borate_alkalinity_umol_kg: f64,
     /// Hydroxide, [OH-].
     pub hydroxide_umol_kg: f64,
-    /// Phosphate alkalinity, [HPO4--] + 2[PO4---] − [H3PO4].
+    /// Phosphate alkalinity, [HPO4--] + 2[PO4---] − \[H3PO4\].
     pub phosphate_alkalinity_umol_kg: f64,
     /// Silicate alkalinity.
     pub silicate_alkalinity_umol_kg: f64,
-    /// Ammonia alkalinity, [NH3].
+    /// Ammonia alkalinity, \[NH3\].
     pub ammonia_alkalinity_umol_kg: f64,
     /// Sulfide alkalinity, [HS-].
     pub sulfide_alkalinity_umol_kg: f64,

@@ -274,7 +274,7 @@ pub const SALINE_TEMPERATURE_MAX_C: f64 = 50.0;
 /// use travertine::{Conditions, Measured, PhScale, Water};
 /// let water = Water::saline(Conditions::new(25.0, 35.0)?)?;
 /// let state = water.solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
-/// assert!((state.ph(PhScale::Total) - 8.0402).abs() < 5e-4); // equations.md §13 worked value (computed)
+/// assert!((state.ph(PhScale::Total) - 8.0402).abs() < 5e-4); // worked value computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq, Serialize)]

@@ -1,6 +1,6 @@
 //! First and second dissociation constants of carbonic acid in saline water.
 //!
-//! Each fit gives K1 = [H+][HCO3-]/[CO2*] and K2 = [H+][CO3--]/[HCO3-] in
+//! Each fit gives K1 = [H+]\[HCO3-\]/\[CO2*\] and K2 = [H+]\[CO3--\]/[HCO3-] in
 //! mol per kg of solution, on the pH scale the authors used. The caller
 //! converts them to the working scale.
 

@@ -5,7 +5,7 @@ use crate::constants::sulfate::seawater_ionic_strength;
 use crate::scales::PhScale;
 use serde::Serialize;
 
-/// A published fit of KF = [H+][F-]/[HF].
+/// A published fit of KF = [H+]\[F-\]/\[HF\].
 ///
 /// # Example
 /// ```

@@ -278,7 +278,7 @@ pub struct Totals {
 ///
 /// The working scale is the total scale in saline water and the NBS
 /// (activity) scale in fresh water. Acid constants are
-/// K = [H+][A-]/[HA] with [H+] on that scale; `kw` is [H+][OH-].
+/// K = [H+]\[A-\]/\[HA\] with [H+] on that scale; `kw` is [H+]\[OH-\].
 /// Constants of acid systems whose total is zero are not evaluated and hold 0.
 ///
 /// # Example
@@ -325,13 +325,13 @@ pub struct Constants {
     /// water) DIC and alkalinity count CaHCO3+ with HCO3- and CaCO3⁰ with
     /// CO3--, which is the same as using K1e = K1 (1 + p1) and
     /// K2e = K2 (1 + p2)/(1 + p1), where p1 = [CaHCO3+]/[HCO3-] and
-    /// p2 = [CaCO3⁰]/[CO3--]. Without pairs K1e = K1, K2e = K2.
+    /// p2 = \[CaCO3⁰\]/[CO3--]. Without pairs K1e = K1, K2e = K2.
     pub k1e: f64,
     /// See `k1e`.
     pub k2e: f64,
     /// [CaHCO3+]/[HCO3-] (0 in saline water, where pairs are in the constants).
     pub pair_hco3: f64,
-    /// [CaCO3⁰]/[CO3--] (0 in saline water).
+    /// \[CaCO3⁰\]/[CO3--] (0 in saline water).
     pub pair_co3: f64,
     /// Free calcium used for the pairs and Ω, mol/kg (total calcium in saline water).
     pub calcium_free_mol_kg: f64,
@@ -363,9 +363,9 @@ pub struct Constants {
     pub warnings: Vec<Warning>,
     /// Activity coefficients (fresh water only).
     pub gammas: Option<crate::activity::Gammas>,
-    /// [CaHCO3+]/([Ca++][HCO3-]), concentration basis (fresh water; 0 in saline).
+    /// [CaHCO3+]/([Ca++]\[HCO3-\]), concentration basis (fresh water; 0 in saline).
     pub k_cahco3: f64,
-    /// [CaCO3⁰]/([Ca++][CO3--]), concentration basis (fresh water; 0 in saline).
+    /// \[CaCO3⁰\]/([Ca++]\[CO3--\]), concentration basis (fresh water; 0 in saline).
     pub k_caco3: f64,
     /// The logarithms a state needs, where evaluated with the constants.
     #[serde(skip)]
@@ -407,7 +407,7 @@ impl Constants {
     /// use travertine::{Conditions, PhScale, Water};
     /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
     /// let sws = k.ph_from_h(1e-8, PhScale::Seawater);
-    /// // About 0.010 below the total scale (equations.md §6, computed); 0.013 with
+    /// // About 0.010 below the total scale (computed from Dickson 1990 KS and the Riley 1965 fluoride); 0.013 with
     /// // the default Perez & Fraga KF taken on the total scale.
     /// assert!(8.0 - sws > 0.008 && 8.0 - sws < 0.014);
     /// # Ok::<(), travertine::Error>(())

@@ -375,7 +375,7 @@ impl SheetOptions {
 /// let options = SheetOptions::default().with_columns("ph_total")?;
 /// process(&options, sheet.as_bytes(), &mut out)?;
 /// let text = String::from_utf8(out).unwrap();
-/// // equations.md §13 worked value (computed from the published equations): pH_T 8.0402
+/// // worked value computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974): pH_T 8.0402
 /// assert!(text.lines().nth(1).unwrap().starts_with("25,35,2300,2000,8.040"));
 /// # Ok::<(), travertine::sheet::SheetError>(())
 /// ```
