@@ -258,10 +258,11 @@ impl FreshBasis {
             b.kh2s *= f(&KH2S);
             b.ksp_calcite *= f(&CALCITE);
             b.ksp_aragonite *= f(&ARAGONITE);
-            b.warnings.push(Warning::Note(
-                "fresh water under pressure: the Millero (1995) corrections use sea-water \
+            b.warnings.push(Warning::Note {
+                code: "fresh_pressure_sea_water_coefficients",
+                text: "fresh water under pressure: the Millero (1995) corrections use sea-water \
                  coefficients",
-            ));
+            });
         }
         // Where the ions give the ionic strength, start from the ions given
         // (with all calcium free) and no carbon.
@@ -640,19 +641,21 @@ impl FreshBasis {
                 e.saturation_ph_nbs = Some(phs);
                 e.langelier_index = Some(-crate::numeric::log10(h) - phs);
             }
-            None => warnings.push(Warning::Note(
-                "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
+            None => warnings.push(Warning::Note {
+ code: "langelier_not_computed",
+ text: "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
                  calcium: Langelier index not computed",
-            )),
+ }),
         }
         if options.precipitation_potential {
             match self.precipitation_potential(k, ta, dic) {
                 Some(x) => {
                     e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL)
                 }
-                None => warnings.push(Warning::Note(
-                    "the calcium carbonate precipitation potential could not be bracketed",
-                )),
+                None => warnings.push(Warning::Note {
+                    code: "precipitation_potential_not_bracketed",
+                    text: "the calcium carbonate precipitation potential could not be bracketed",
+                }),
             }
         }
         e
@@ -1218,41 +1221,50 @@ fn add_route_warnings(water: &Water, r: IonicStrengthRoute, i: f64, w: &mut Warn
     ];
     for (given, other) in unused {
         if given && other != r {
-            w.push(Warning::Text(format!(
-                "ionic strength from {} was not used: {} comes first",
-                other.name(),
-                r.name()
-            )));
+            w.push(Warning::Text {
+                code: "ionic_strength_input_unused",
+                text: format!(
+                    "ionic strength from {} was not used: {} comes first",
+                    other.name(),
+                    r.name()
+                ),
+            });
         }
     }
     if r == IonicStrengthRoute::AlkalinityOnly {
-        w.push(Warning::Note(
-            "no major-ion analysis, conductance, TDS or ionic strength given: the ionic \
+        w.push(Warning::Note {
+            code: "ionic_strength_from_carbonate",
+            text: "no major-ion analysis, conductance, TDS or ionic strength given: the ionic \
              strength is computed from the carbonate species, any calcium given and a \
              monovalent ion balancing the charge",
-        ));
+        });
     }
     let limit = match water.fresh_options().activity {
         crate::activity::ActivityModel::ExtendedDebyeHuckel => 0.1,
         _ => 0.5,
     };
     if i > limit {
-        w.push(Warning::Text(format!(
-            "ionic strength {i:.3} mol/kg is above {limit}, where the {} activity model holds",
-            water.fresh_options().activity.name()
-        )));
+        w.push(Warning::Text {
+            code: "ionic_strength_above_model_range",
+            text: format!(
+                "ionic strength {i:.3} mol/kg is above {limit}, where the {} activity model holds",
+                water.fresh_options().activity.name()
+            ),
+        });
     }
     if water.composition().calcium_given() {
         return;
     }
     if water.composition().fresh_totals(1000.0).hardness_mol_kg > 0.0 {
-        w.push(Warning::Note(
-            "total hardness was given without a calcium fraction: it is not taken as \
+        w.push(Warning::Note {
+            code: "hardness_not_calcium",
+            text: "total hardness was given without a calcium fraction: it is not taken as \
              calcium (it counts in the ionic strength only); give calcium or a calcium fraction",
-        ));
+        });
     }
-    w.push(Warning::Note(
-        "calcium not given: calcite and aragonite saturation and the Langelier index are \
+    w.push(Warning::Note {
+        code: "calcium_not_given",
+        text: "calcium not given: calcite and aragonite saturation and the Langelier index are \
          not computed",
-    ));
+    });
 }

@@ -184,18 +184,21 @@ pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> 
             if k.working_scale == PhScale::Nbs
                 && matches!(scale, PhScale::Total | PhScale::Seawater)
             {
-                warnings.push(Warning::Note(
-                    "pH on the total or sea-water scale in fresh water is taken through the \
+                warnings.push(Warning::Note {
+                    code: "ph_scale_via_free_scale",
+                    text: "pH on the total or sea-water scale in fresh water is taken through the \
                      free scale with the sulfate and fluoride given; fresh-water pH is \
                      normally NBS",
-                ));
+                });
             }
             if scale == PhScale::Nbs && k.working_scale != PhScale::Nbs {
-                warnings.push(Warning::Note(
-                    "pH on the NBS scale in saline water is approximate: it is converted with \
+                warnings.push(Warning::Note {
+                    code: "nbs_ph_in_saline_approximate",
+                    text:
+                        "pH on the NBS scale in saline water is approximate: it is converted with \
                      the H+ activity coefficient of Takahashi et al. (1982), meant for salinity \
                      20 to 40, and electrode junction errors are not known",
-                ));
+                });
             }
             Known::H(k.h_from_ph(ph, scale))
         }

@@ -61,9 +61,19 @@ pub enum Warning {
         percent: f64,
     },
     /// A fixed caution.
-    Note(&'static str),
-    /// Any other caution.
-    Text(String),
+    Note {
+        /// Its stable snake_case code.
+        code: &'static str,
+        /// Its message.
+        text: &'static str,
+    },
+    /// A caution whose message carries figures.
+    Text {
+        /// Its stable snake_case code.
+        code: &'static str,
+        /// Its message.
+        text: String,
+    },
 }
 
 impl fmt::Display for Warning {
@@ -123,8 +133,8 @@ impl fmt::Display for Warning {
                  (mostly their K2; the default medium changes at salinity 1)",
                 four_figures(*pco2_uatm)
             ),
-            Warning::Note(s) => f.write_str(s),
-            Warning::Text(s) => f.write_str(s),
+            Warning::Note { text, .. } => f.write_str(text),
+            Warning::Text { text, .. } => f.write_str(text),
         }
     }
 }
@@ -137,6 +147,28 @@ fn four_figures(v: f64) -> String {
     }
     let decimals = (3 - v.abs().log10().floor() as i32).max(0) as usize;
     format!("{v:.decimals$}")
+}
+
+impl Warning {
+    /// The stable snake_case code of this caution, for programs that act on
+    /// it: `fit_extrapolated`, `other_root`, `media_disagree`, or the code
+    /// a note or text was raised with (`calcium_not_given`, ...).
+    ///
+    /// ```
+    /// use travertine::{Conditions, Measured, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 5.0)?)?
+    ///     .solve(Measured::ph(7.8, None)?, Measured::dic_umol_kg(600.0)?)?;
+    /// assert!(s.warnings.iter().any(|w| w.code() == "fit_extrapolated"));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn code(&self) -> &'static str {
+        match self {
+            Warning::Extrapolated { .. } => "fit_extrapolated",
+            Warning::OtherRoot { .. } => "other_root",
+            Warning::MediaDisagree { .. } => "media_disagree",
+            Warning::Note { code, .. } | Warning::Text { code, .. } => code,
+        }
+    }
 }
 
 impl Serialize for Warning {
@@ -232,12 +264,54 @@ impl Serialize for Warnings {
 mod tests {
     use super::*;
 
+    /// Every code is snake_case, and the codes raised in the crate's own
+    /// source (`code: "..."`) are each used for one caution only.
+    #[test]
+    fn codes_are_snake_case_and_each_names_one_caution() {
+        let snake = |c: &str| {
+            !c.is_empty()
+                && c.chars().all(|ch| ch.is_ascii_lowercase() || ch == '_')
+                && !c.starts_with('_')
+                && !c.ends_with('_')
+        };
+        let fixed = [
+            Warning::OtherRoot {
+                first: "alkalinity",
+                second: "co3",
+                ph: 9.0,
+                scale: "total",
+                higher: true,
+            },
+            Warning::MediaDisagree {
+                salinity: 1.0,
+                other: "fresh",
+                pco2_uatm: 400.0,
+                percent: 10.0,
+            },
+        ];
+        for w in &fixed {
+            assert!(snake(w.code()), "{}", w.code());
+        }
+        let mut seen = std::collections::BTreeSet::new();
+        for file in ["src/fresh.rs", "src/solve.rs"] {
+            let text = std::fs::read_to_string(format!("{}/{file}", env!("CARGO_MANIFEST_DIR")))
+                .expect("source readable");
+            for part in text.split("code: \"").skip(1) {
+                let code = part.split('"').next().unwrap_or_default();
+                assert!(snake(code), "{file}: {code}");
+                assert!(seen.insert(code.to_string()), "{file}: {code} used twice");
+            }
+        }
+        assert!(seen.len() >= 10, "only {} codes found", seen.len());
+    }
+
     #[test]
     fn warnings_keep_their_order_past_the_inline_one() {
         let mut w = Warnings::new();
-        w.push(Warning::Note("third"));
-        w.push(Warning::Note("fourth"));
-        let all = w.after(&[Warning::Note("first"), Warning::Note("second")]);
+        let note = |text| Warning::Note { code: "test", text };
+        w.push(note("third"));
+        w.push(note("fourth"));
+        let all = w.after(&[note("first"), note("second")]);
         let text: Vec<String> = all.iter().map(|w| w.to_string()).collect();
         assert_eq!(text, ["first", "second", "third", "fourth"]);
         assert_eq!(Vec::from(all).len(), 4);
