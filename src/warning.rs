@@ -293,9 +293,26 @@ mod tests {
             assert!(snake(w.code()), "{}", w.code());
         }
         let mut seen = std::collections::BTreeSet::new();
-        for file in ["src/fresh.rs", "src/solve.rs"] {
-            let text = std::fs::read_to_string(format!("{}/{file}", env!("CARGO_MANIFEST_DIR")))
-                .expect("source readable");
+        let mut files = Vec::new();
+        let mut folders = vec![std::path::PathBuf::from(concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/src"
+        ))];
+        while let Some(folder) = folders.pop() {
+            for entry in std::fs::read_dir(&folder).expect("src readable") {
+                let path = entry.expect("entry").path();
+                if path.is_dir() {
+                    folders.push(path);
+                } else if path.extension().is_some_and(|e| e == "rs")
+                    && !path.ends_with("warning.rs")
+                {
+                    files.push(path);
+                }
+            }
+        }
+        for file in files {
+            let file = file.display().to_string();
+            let text = std::fs::read_to_string(&file).expect("source readable");
             for part in text.split("code: \"").skip(1) {
                 let code = part.split('"').next().unwrap_or_default();
                 assert!(snake(code), "{file}: {code}");
