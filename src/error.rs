@@ -147,7 +147,118 @@ pub enum Error {
     },
 }
 
+/// What kind of error, as a stable snake_case code (serialised as that
+/// code), for programs that act on errors without parsing messages.
+///
+/// ```
+/// use travertine::{error::ErrorKind, Conditions};
+/// let err = Conditions::new(25.0, 99.0).unwrap_err();
+/// assert_eq!(err.kind(), ErrorKind::OutOfRange);
+/// assert_eq!(err.kind().code(), "out_of_range");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+#[non_exhaustive]
+pub enum ErrorKind {
+    /// [`Error::OutOfRange`].
+    OutOfRange,
+    /// [`Error::NotFinite`].
+    NotFinite,
+    /// [`Error::NotANumber`].
+    NotANumber,
+    /// [`Error::MissingUnit`].
+    MissingUnit,
+    /// [`Error::WrongUnit`].
+    WrongUnit,
+    /// [`Error::IncompatiblePair`].
+    IncompatiblePair,
+    /// [`Error::NoWaterFits`].
+    NoWaterFits,
+    /// [`Error::NoConvergence`].
+    NoConvergence,
+    /// [`Error::UnknownFit`].
+    UnknownFit,
+    /// [`Error::WrongMedium`].
+    WrongMedium,
+    /// [`Error::UnknownChoice`].
+    UnknownChoice,
+    /// [`Error::Computation`].
+    Computation,
+}
+
+impl ErrorKind {
+    /// The stable snake_case code.
+    ///
+    /// ```
+    /// # use travertine::error::ErrorKind;
+    /// assert_eq!(ErrorKind::NoWaterFits.code(), "no_water_fits");
+    /// ```
+    pub fn code(self) -> &'static str {
+        match self {
+            ErrorKind::OutOfRange => "out_of_range",
+            ErrorKind::NotFinite => "not_finite",
+            ErrorKind::NotANumber => "not_a_number",
+            ErrorKind::MissingUnit => "missing_unit",
+            ErrorKind::WrongUnit => "wrong_unit",
+            ErrorKind::IncompatiblePair => "incompatible_pair",
+            ErrorKind::NoWaterFits => "no_water_fits",
+            ErrorKind::NoConvergence => "no_convergence",
+            ErrorKind::UnknownFit => "unknown_fit",
+            ErrorKind::WrongMedium => "wrong_medium",
+            ErrorKind::UnknownChoice => "unknown_choice",
+            ErrorKind::Computation => "computation",
+        }
+    }
+}
+
+/// An error serialises as `{"kind": ..., "field": ..., "message": ...}`,
+/// `field` being null where the error names none.
+///
+/// ```
+/// use travertine::Conditions;
+/// let err = Conditions::new(25.0, 99.0).unwrap_err();
+/// let json = serde_json::to_value(&err).unwrap();
+/// assert_eq!(json["kind"], "out_of_range");
+/// assert_eq!(json["field"], "salinity");
+/// ```
+impl serde::Serialize for Error {
+    fn serialize<S: serde::Serializer>(
+        &self,
+        serializer: S,
+    ) -> std::result::Result<S::Ok, S::Error> {
+        use serde::ser::SerializeStruct;
+        let mut s = serializer.serialize_struct("Error", 3)?;
+        s.serialize_field("kind", &self.kind())?;
+        s.serialize_field("field", &self.field())?;
+        s.serialize_field("message", &self.to_string())?;
+        s.end()
+    }
+}
+
 impl Error {
+    /// The kind of this error.
+    ///
+    /// ```
+    /// use travertine::{error::ErrorKind, Measured};
+    /// assert_eq!(Measured::ph(15.0, None).unwrap_err().kind(), ErrorKind::OutOfRange);
+    /// ```
+    pub fn kind(&self) -> ErrorKind {
+        match self {
+            Error::OutOfRange { .. } => ErrorKind::OutOfRange,
+            Error::NotFinite { .. } => ErrorKind::NotFinite,
+            Error::NotANumber { .. } => ErrorKind::NotANumber,
+            Error::MissingUnit { .. } => ErrorKind::MissingUnit,
+            Error::WrongUnit { .. } => ErrorKind::WrongUnit,
+            Error::IncompatiblePair { .. } => ErrorKind::IncompatiblePair,
+            Error::NoWaterFits { .. } => ErrorKind::NoWaterFits,
+            Error::NoConvergence { .. } => ErrorKind::NoConvergence,
+            Error::UnknownFit { .. } => ErrorKind::UnknownFit,
+            Error::WrongMedium { .. } => ErrorKind::WrongMedium,
+            Error::UnknownChoice { .. } => ErrorKind::UnknownChoice,
+            Error::Computation { .. } => ErrorKind::Computation,
+        }
+    }
+
     /// The field the error is about, where there is one (for the first of a pair).
     ///
     /// ```
@@ -204,4 +315,31 @@ pub fn check_range(
         });
     }
     Ok(value)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::ErrorKind;
+
+    /// The code of each kind is the name it is serialised with.
+    #[test]
+    fn kind_codes_match_their_serialised_names() {
+        let kinds = [
+            ErrorKind::OutOfRange,
+            ErrorKind::NotFinite,
+            ErrorKind::NotANumber,
+            ErrorKind::MissingUnit,
+            ErrorKind::WrongUnit,
+            ErrorKind::IncompatiblePair,
+            ErrorKind::NoWaterFits,
+            ErrorKind::NoConvergence,
+            ErrorKind::UnknownFit,
+            ErrorKind::WrongMedium,
+            ErrorKind::UnknownChoice,
+            ErrorKind::Computation,
+        ];
+        for k in kinds {
+            assert_eq!(serde_json::to_value(k).unwrap(), k.code());
+        }
+    }
 }
