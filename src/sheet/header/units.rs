@@ -1,0 +1,273 @@
+//! Reading the unit of a header or of a cell: temperature, pH scale and
+//! conductivity words, and the units of the trade, for each field.
+
+use super::names::Hint;
+use super::{normalise, Column, Field, Reading};
+use crate::measured::Parameter;
+use crate::scales::PhScale;
+use crate::units::{Unit, MOLAR_UNITS};
+
+/// Whether some field would read `unit` as a unit.
+pub(super) fn is_unit_text(unit: &str) -> bool {
+    Unit::parse(unit).is_some()
+        || temperature_unit(unit).is_some()
+        || scale_word(unit).is_some()
+        || conductivity_unit(unit).is_some()
+        || matches!(
+            unit,
+            "psu"
+                | "pss"
+                | "pss-78"
+                | "ppt"
+                | "g/kg"
+                | "‰"
+                | "dbar"
+                | "db"
+                | "bar"
+                | "hpa"
+                | "mbar"
+                | "mmhg"
+                | "g/l"
+                | "%"
+                | "m"
+        )
+}
+
+pub(super) fn temperature_unit(u: &str) -> Option<Reading> {
+    match u {
+        "c" | "degc" | "deg c" | "celsius" | "degrees c" | "deg. c" => Some(Reading::Number {
+            scale: 1.0,
+            offset: 0.0,
+            label: "°C",
+        }),
+        "f" | "degf" | "deg f" | "fahrenheit" | "degrees f" | "deg. f" => Some(Reading::Number {
+            scale: 5.0 / 9.0,
+            offset: -32.0 * 5.0 / 9.0,
+            label: "°F",
+        }),
+        "k" | "kelvin" => Some(Reading::Number {
+            scale: 1.0,
+            offset: -273.15,
+            label: "K",
+        }),
+        _ => None,
+    }
+}
+
+pub(super) fn scale_word(u: &str) -> Option<Option<PhScale>> {
+    let u = u
+        .trim_end_matches(" scale")
+        .trim_start_matches("scale ")
+        .trim();
+    match u {
+        "nbs" | "nist" => Some(Some(PhScale::Nbs)),
+        "total" | "t" => Some(Some(PhScale::Total)),
+        "seawater" | "sea water" | "sws" => Some(Some(PhScale::Seawater)),
+        "free" | "f" => Some(Some(PhScale::Free)),
+        "su" | "s.u." | "units" | "std units" | "standard units" => Some(None),
+        _ => None,
+    }
+}
+
+pub(super) fn conductivity_unit(u: &str) -> Option<(f64, bool)> {
+    let compact: String = u.chars().filter(|c| !c.is_whitespace()).collect();
+    let (scale, rest) = if let Some(r) = compact.strip_prefix("us/cm") {
+        (1.0, r)
+    } else if let Some(r) = compact.strip_prefix("ms/cm") {
+        (1000.0, r)
+    } else {
+        return None;
+    };
+    match rest {
+        "" => Some((scale, false)),
+        "@25c" | "at25c" | "25c" | "@25" | "at25" => Some((scale, true)),
+        _ => None,
+    }
+}
+
+/// The reading of `field` with the unit text `unit` (normalised; empty
+/// when the header gives none), or what is wrong with it.
+pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading, String> {
+    let missing = || format!("the header gives no unit for {}", field.name());
+    let unknown = || {
+        format!(
+            "`{unit}` is not a unit travertine knows for {}",
+            field.name()
+        )
+    };
+    match field {
+        Field::Carbon(Parameter::Ph) => scale_word(unit)
+            .or(if unit.is_empty() { Some(None) } else { None })
+            .map(Reading::Ph)
+            .ok_or_else(|| format!("`{unit}` is not a pH scale")),
+        Field::Carbon(p) => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            let parsed = Unit::parse(unit).ok_or_else(unknown)?;
+            let resolved = match (p, parsed) {
+                (Parameter::Co2, Unit::MgPerL) => Unit::MgPerLCO2,
+                (Parameter::Hco3, Unit::MgPerL) => Unit::MgPerLHCO3,
+                (Parameter::Co3, Unit::MgPerL) => Unit::MgPerLCO3,
+                (Parameter::Alkalinity, Unit::MgPerL) => {
+                    return Err(format!(
+                    "`{unit}` does not say what alkalinity is expressed as (write mg/L as CaCO3)"
+                ))
+                }
+                (Parameter::Dic, Unit::MgPerL) => {
+                    return Err(format!(
+                        "`{unit}` does not say what DIC is expressed as (write mg/L as C)"
+                    ))
+                }
+                (_, u) => u,
+            };
+            if p.accepted_units().contains(&resolved) {
+                Ok(Reading::Quantity(resolved))
+            } else {
+                Err(format!("`{unit}` is not a unit of {}", p.name()))
+            }
+        }
+        Field::Temperature => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            temperature_unit(unit).ok_or_else(unknown)
+        }
+        Field::Salinity => match unit {
+            "" | "psu" | "pss" | "pss-78" | "pss78" | "practical" => Ok(Reading::PLAIN),
+            "ppt" | "g/kg" | "‰" | "permil" | "ppth" => Err(format!(
+                "`{unit}` may be absolute salinity (g/kg) rather than practical salinity"
+            )),
+            _ => Err(unknown()),
+        },
+        Field::Conductivity => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            let (scale, at_25) = conductivity_unit(unit).ok_or_else(unknown)?;
+            Ok(Reading::Conductivity {
+                scale,
+                specific: at_25 || hint == Hint::Specific,
+            })
+        }
+        Field::Pressure => match unit {
+            "" => Err(missing()),
+            "dbar" | "db" | "decibar" => Ok(Reading::Number {
+                scale: 1.0,
+                offset: 0.0,
+                label: "dbar",
+            }),
+            "bar" => Ok(Reading::Number {
+                scale: 10.0,
+                offset: 0.0,
+                label: "bar",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::AirPressure => {
+            let (scale, label) = match unit {
+                "" => return Err(missing()),
+                "atm" => (1.0, "atm"),
+                "hpa" | "mbar" => (1.0 / 1013.25, "hPa"),
+                "kpa" => (1.0 / 101.325, "kPa"),
+                "mmhg" => (1.0 / 760.0, "mmHg"),
+                _ => return Err(unknown()),
+            };
+            Ok(Reading::Number {
+                scale,
+                offset: 0.0,
+                label,
+            })
+        }
+        Field::Total(t) => {
+            if unit.is_empty() {
+                return Err(missing());
+            }
+            let parsed = Unit::parse(unit).ok_or_else(unknown)?;
+            let resolved = match (parsed, hint) {
+                (Unit::MgPerL, Hint::Nitrogen) => Unit::MgPerLN,
+                (Unit::MgPerL, Hint::Phosphorus) => Unit::MgPerLP,
+                (Unit::MgPerL, Hint::CalciumHardness) => {
+                    return Err(format!(
+                        "`{unit}` does not say what calcium hardness is expressed as (write mg/L \
+                         as CaCO3)"
+                    ))
+                }
+                (Unit::MgPerL, _) => t.own_mass_unit().ok_or_else(|| {
+                    format!(
+                        "`{unit}` does not say what {} is expressed as (write, for example, {})",
+                        t.name(),
+                        t.units().last().map_or("umol/kg", |u| u.spelling())
+                    )
+                })?,
+                (u, _) => u,
+            };
+            let ok = if hint == Hint::CalciumHardness {
+                resolved == Unit::MgPerLCaCO3 || MOLAR_UNITS.contains(&resolved)
+            } else {
+                t.units().contains(&resolved)
+            };
+            if ok {
+                Ok(Reading::Quantity(resolved))
+            } else {
+                Err(format!("`{unit}` is not a unit of {}", t.name()))
+            }
+        }
+        Field::CalciumFraction => match unit {
+            "" | "fraction" => Ok(Reading::PLAIN),
+            "%" | "percent" => Ok(Reading::Number {
+                scale: 0.01,
+                offset: 0.0,
+                label: "%",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::Tds => match unit {
+            "" => Err(missing()),
+            "mg/l" => Ok(Reading::Number {
+                scale: 1.0,
+                offset: 0.0,
+                label: "mg/L",
+            }),
+            "g/l" => Ok(Reading::Number {
+                scale: 1000.0,
+                offset: 0.0,
+                label: "g/L",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::IonicStrength => match unit {
+            "" | "mol/kg" | "m" => Ok(Reading::PLAIN),
+            "mmol/kg" => Ok(Reading::Number {
+                scale: 1e-3,
+                offset: 0.0,
+                label: "mmol/kg",
+            }),
+            _ => Err(unknown()),
+        },
+        Field::Medium
+        | Field::PhScale
+        | Field::CarbonicFit
+        | Field::BoronFit
+        | Field::FluorideFit
+        | Field::Activity => {
+            if unit.is_empty() {
+                Ok(Reading::Text)
+            } else {
+                Err(format!("{} takes no unit", field.name()))
+            }
+        }
+    }
+}
+
+/// The reading of a unit written after the number in a cell (`25 °C`,
+/// `120 mg/L as CaCO3`), for a column of `field`; `None` when the text is
+/// no unit of that field.
+pub(crate) fn cell_unit(column: &Column, text: &str) -> Option<Reading> {
+    let unit = normalise(text);
+    let hint = match column.reading {
+        Reading::Conductivity { specific: true, .. } => Hint::Specific,
+        _ => Hint::None,
+    };
+    interpret(column.field, hint, &unit).ok()
+}
