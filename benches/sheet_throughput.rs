@@ -46,64 +46,62 @@ impl Rng {
     }
 }
 
-/// Writes `rows` rows of invented sea-water measurements.
-fn generate(path: &Path, rows: u64) -> std::io::Result<()> {
-    let mut w = BufWriter::with_capacity(1 << 20, File::create(path)?);
-    writeln!(w, "temperature_c,salinity,alkalinity_umol_kg,ph_total")?;
-    let mut rng = Rng(0x9E37_79B9_7F4A_7C15);
-    for _ in 0..rows {
-        writeln!(
-            w,
-            "{:.2},{:.3},{:.1},{:.4}",
-            rng.between(10.0, 30.0),
-            rng.between(30.0, 38.0),
-            rng.between(2150.0, 2450.0),
-            rng.between(7.85, 8.15)
-        )?;
-    }
-    w.flush()
+/// An invented sheet: its header, and for each column the range of its
+/// values and the decimals they are written with.
+struct Shape {
+    header: &'static str,
+    columns: &'static [(f64, f64, usize)],
 }
 
-/// Writes `rows` rows of an invented fresh sheet (pond water: temperature,
-/// specific conductance, calcium hardness, alkalinity and NBS pH), or of a
-/// saline sheet of the same shape (temperature, salinity, calcium,
-/// alkalinity and total-scale pH).
-fn generate_medium(path: &Path, rows: u64, fresh: bool) -> std::io::Result<()> {
+/// Sea water: temperature, salinity, alkalinity in µmol/kg and total-scale pH.
+const SEA: Shape = Shape {
+    header: "temperature_c,salinity,alkalinity_umol_kg,ph_total",
+    columns: &[
+        (10.0, 30.0, 2),
+        (30.0, 38.0, 3),
+        (2150.0, 2450.0, 1),
+        (7.85, 8.15, 4),
+    ],
+};
+
+/// Pond water: temperature, specific conductance, calcium hardness,
+/// alkalinity in mg/L as CaCO3 and NBS pH.
+const POND: Shape = Shape {
+    header: "Temp (°C),Specific conductance (µS/cm),Calcium hardness (mg/L as CaCO3),\
+             Alkalinity (mg/L as CaCO3),pH (NBS)",
+    columns: &[
+        (10.0, 30.0, 1),
+        (150.0, 900.0, 0),
+        (40.0, 250.0, 0),
+        (30.0, 200.0, 0),
+        (6.8, 9.0, 2),
+    ],
+};
+
+/// Sea water in the shape of the pond sheet: temperature, salinity,
+/// calcium, alkalinity in mg/L as CaCO3 and total-scale pH.
+const SALINE_LIKE_POND: Shape = Shape {
+    header: "temperature_c,salinity,calcium_mg_l,alkalinity_mg_l_caco3,ph_total",
+    columns: &[
+        (10.0, 30.0, 1),
+        (30.0, 38.0, 3),
+        (380.0, 430.0, 0),
+        (105.0, 122.0, 1),
+        (7.85, 8.15, 4),
+    ],
+};
+
+/// Writes `rows` rows of invented values in `shape`.
+fn generate(path: &Path, rows: u64, shape: &Shape) -> std::io::Result<()> {
     let mut w = BufWriter::with_capacity(1 << 20, File::create(path)?);
-    let mut rng = Rng(0x2545_F491_4F6C_DD1D);
-    if fresh {
-        writeln!(
-            w,
-            "Temp (°C),Specific conductance (µS/cm),Calcium hardness (mg/L as CaCO3),\
-             Alkalinity (mg/L as CaCO3),pH (NBS)"
-        )?;
-    } else {
-        writeln!(
-            w,
-            "temperature_c,salinity,calcium_mg_l,alkalinity_mg_l_caco3,ph_total"
-        )?;
-    }
+    writeln!(w, "{}", shape.header)?;
+    let mut rng = Rng(0x9E37_79B9_7F4A_7C15);
     for _ in 0..rows {
-        let t = rng.between(10.0, 30.0);
-        if fresh {
-            writeln!(
-                w,
-                "{t:.1},{:.0},{:.0},{:.0},{:.2}",
-                rng.between(150.0, 900.0),
-                rng.between(40.0, 250.0),
-                rng.between(30.0, 200.0),
-                rng.between(6.8, 9.0)
-            )?;
-        } else {
-            writeln!(
-                w,
-                "{t:.1},{:.3},{:.0},{:.1},{:.4}",
-                rng.between(30.0, 38.0),
-                rng.between(380.0, 430.0),
-                rng.between(105.0, 122.0),
-                rng.between(7.85, 8.15)
-            )?;
+        for (n, &(lo, hi, decimals)) in shape.columns.iter().enumerate() {
+            let sep = if n == 0 { "" } else { "," };
+            write!(w, "{sep}{:.decimals$}", rng.between(lo, hi))?;
         }
+        writeln!(w)?;
     }
     w.flush()
 }
@@ -116,7 +114,8 @@ fn media(dir: &Path, rows: u64) {
     for fresh in [true, false] {
         let input = dir.join(if fresh { "fresh.csv" } else { "saline.csv" });
         let output = dir.join("media_out.csv");
-        generate_medium(&input, rows, fresh).expect("input generated");
+        let shape = if fresh { &POND } else { &SALINE_LIKE_POND };
+        generate(&input, rows, shape).expect("input generated");
         let (time, runs) = best_of(3, || {
             let t = Instant::now();
             let s = run(
@@ -261,7 +260,7 @@ fn main() {
     let floor_out = dir.join("floor_out.csv");
     eprintln!("machine: {}", machine());
     eprintln!("generating {rows} rows ...");
-    generate(&input, rows).expect("input generated");
+    generate(&input, rows, &SEA).expect("input generated");
     let extra = added_fields(&input, &dir);
 
     let options = SheetOptions::default();
@@ -323,7 +322,7 @@ fn main() {
     if big_rows > 0 {
         let big = dir.join("sea_big.csv");
         eprintln!("generating {big_rows} rows ...");
-        generate(&big, big_rows).expect("large input generated");
+        generate(&big, big_rows, &SEA).expect("large input generated");
         let t = Instant::now();
         let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
             .arg("sheet")
