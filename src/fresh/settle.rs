@@ -20,8 +20,9 @@ impl FreshBasis {
     /// are those of its (h, DIC). `held_i` holds the ionic strength (the
     /// derived figures hold the sample's); `pair` gives the measured pair at
     /// the current constants (the saturation pH asks for the CO3 that
-    /// saturates the current free calcium). Returns the constants of the
-    /// last solve, with which its (h, DIC) are exactly consistent.
+    /// saturates the current free calcium). Returns the last solve with the
+    /// ionic strength and free calcium it was made at, from which
+    /// [`FreshBasis::constants_of`] gives exactly its constants.
     ///
     /// Where the ions give the ionic strength, it is the outer unknown and
     /// the free calcium the inner one, each a one-dimensional fixed point
@@ -90,11 +91,18 @@ impl FreshBasis {
     where
         F: Fn(&Constants) -> Result<(Measured, Measured)>,
     {
-        // Only small values pass through the iteration: the constants, a
-        // large value to copy, are made again from (I, Ca) where needed.
-        // The constants at this ionic strength, made once; each trial sets
-        // only the free calcium and what follows from it.
+        // The constants at this ionic strength are made once, and each trial
+        // sets only the free calcium and what follows from it. Only small
+        // values pass through the iteration: the constants, a large value
+        // to copy, are made again from (I, Ca) where needed.
         let mut k = self.constants_at(i, ca_total, ca_total);
+        // A free ion given fixes its own pair: a first calcium much nearer
+        // the settled one than all calcium free.
+        let start = start.unwrap_or_else(|| {
+            pair(&k).map_or(ca_total, |(a, b)| {
+                ca_total / (1.0 + free_ion_pairs(&k, &a) + free_ion_pairs(&k, &b))
+            })
+        });
         let mut solve_at = |ca: f64| -> Result<(Settled, f64)> {
             set_free_calcium(&mut k, ca);
             let k = &k;
@@ -122,14 +130,6 @@ impl FreshBasis {
         if ca_total <= 0.0 {
             return solve_at(0.0).map(|(s, _)| s);
         }
-        let start = start.unwrap_or_else(|| {
-            // A free ion given fixes its own pair: a first calcium much
-            // nearer the settled one than all calcium free.
-            let k = self.constants_at(i, ca_total, ca_total);
-            pair(&k).map_or(ca_total, |(a, b)| {
-                ca_total / (1.0 + free_ion_pairs(&k, &a) + free_ion_pairs(&k, &b))
-            })
-        });
         // g(Ca) = F(Ca) − Ca > 0 at Ca = 0 and ≤ 0 at CaT (pairs only take
         // calcium away). All calcium taken as free overstates the pairs of
         // the free ions given (HCO3-, CO3--) or of the carbon they bind,
