@@ -106,29 +106,32 @@ fn generate(path: &Path, rows: u64, shape: &Shape) -> std::io::Result<()> {
     w.flush()
 }
 
+/// One run of the sheet with default options, file to file, timed; every
+/// row must solve.
+fn time_sheet(input: &Path, output: &Path, rows: u64) -> Duration {
+    let t = Instant::now();
+    let s = run(
+        &SheetOptions::default(),
+        &Source::Path(input.to_path_buf()),
+        &Sink::Path(output.to_path_buf()),
+    )
+    .expect("the sheet runs");
+    let d = t.elapsed();
+    assert_eq!(s.rows, rows);
+    assert_eq!(s.error, 0, "every generated row solves");
+    d
+}
+
 /// A fresh sheet with calcium against a saline sheet of the same size and
 /// shape, back to back, best of three each.
 fn media(dir: &Path, rows: u64) {
-    let options = SheetOptions::default();
     let mut times = Vec::new();
     for fresh in [true, false] {
         let input = dir.join(if fresh { "fresh.csv" } else { "saline.csv" });
         let output = dir.join("media_out.csv");
         let shape = if fresh { &POND } else { &SALINE_LIKE_POND };
         generate(&input, rows, shape).expect("input generated");
-        let (time, runs) = best_of(3, || {
-            let t = Instant::now();
-            let s = run(
-                &options,
-                &Source::Path(input.clone()),
-                &Sink::Path(output.clone()),
-            )
-            .expect("the sheet runs");
-            let d = t.elapsed();
-            assert_eq!(s.rows, rows);
-            assert_eq!(s.error, 0, "every generated row solves");
-            d
-        });
+        let (time, runs) = best_of(3, || time_sheet(&input, &output, rows));
         println!(
             "  {:<6} {rows} rows       {:.3} s  {:.2} M rows/s  (runs: {runs} s)",
             if fresh { "fresh" } else { "saline" },
@@ -263,20 +266,7 @@ fn main() {
     generate(&input, rows, &SEA).expect("input generated");
     let extra = added_fields(&input, &dir);
 
-    let options = SheetOptions::default();
-    let (sheet_time, sheet_runs) = best_of(3, || {
-        let t = Instant::now();
-        let s = run(
-            &options,
-            &Source::Path(input.clone()),
-            &Sink::Path(output.clone()),
-        )
-        .expect("the sheet runs");
-        let d = t.elapsed();
-        assert_eq!(s.rows, rows);
-        assert_eq!(s.error, 0, "every generated row solves");
-        d
-    });
+    let (sheet_time, sheet_runs) = best_of(3, || time_sheet(&input, &output, rows));
     let (floor_time, floor_runs) = best_of(3, || {
         let t = Instant::now();
         let n = floor(&input, &floor_out, extra).expect("the floor runs");
