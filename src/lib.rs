@@ -46,6 +46,7 @@ pub mod fresh;
 pub mod measured;
 pub(crate) mod numeric;
 pub mod prepared;
+pub mod range;
 pub mod report;
 pub(crate) mod root;
 pub mod sample;

@@ -83,6 +83,26 @@ impl Water {
         })
     }
 
+    /// Every constant evaluated for this water. In fresh water the activity
+    /// coefficients depend on the ionic strength, which a solve refines with
+    /// the speciation; these are the constants at the starting ionic strength.
+    ///
+    /// # Errors
+    /// [`crate::Error::Computation`] if the density cannot be computed.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert!((k.kb.ln() - -19.7964).abs() < 5e-5); // Dickson 1990, Guide check value
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn constants(&self) -> Result<Constants> {
+        match self.medium() {
+            Medium::Saline => Constants::saline(self.conditions(), self.composition(), self.fits()),
+            Medium::Fresh => Ok(FreshBasis::new(self, true)?.starting_constants()),
+        }
+    }
+
     /// The complete state from two measured parameters, with default options.
     ///
     /// # Errors

@@ -1,7 +1,7 @@
 //! Cautions that travel with a result. They are values, formatted only when
 //! shown, so a solve that raises one stays cheap.
 
-use crate::constants::FitRange;
+use crate::range::FitRange;
 use serde::{Serialize, Serializer};
 use smallvec::SmallVec;
 use std::fmt;
@@ -147,6 +147,41 @@ fn four_figures(v: f64) -> String {
     }
     let decimals = (3 - v.abs().log10().floor() as i32).max(0) as usize;
     format!("{v:.decimals$}")
+}
+
+impl FitRange {
+    /// Pushes a warning for `constant` when the conditions are outside the
+    /// range. A fit with a salinity range of (0, 0) is a pure-water fit and is
+    /// checked on temperature alone.
+    ///
+    /// ```
+    /// # use travertine::constants::FitRange;
+    /// let r = FitRange::new("mucci1983", (5.0, 40.0), (5.0, 44.0));
+    /// let mut w = Vec::new();
+    /// r.check_for("calcite and aragonite", 2.0, 35.0, &mut w);
+    /// assert!(w[0].to_string().contains("mucci1983"));
+    /// ```
+    pub fn check_for(
+        &self,
+        constant: &'static str,
+        temperature_c: f64,
+        salinity: f64,
+        warnings: &mut Vec<Warning>,
+    ) {
+        let s = if self.salinity == (0.0, 0.0) {
+            0.0
+        } else {
+            salinity
+        };
+        if !self.contains(temperature_c, s) {
+            warnings.push(Warning::Extrapolated {
+                constant,
+                range: *self,
+                temperature_c,
+                salinity,
+            });
+        }
+    }
 }
 
 impl Warning {

@@ -2,7 +2,7 @@
 
 use crate::activity::ActivityModel;
 use crate::conditions::Conditions;
-use crate::constants::{BoronTotalFit, Constants, Fits, Totals};
+use crate::constants::{BoronTotalFit, Fits, Totals};
 use crate::error::{check_range, Result};
 use crate::units::Amount;
 use serde::Serialize;
@@ -581,25 +581,5 @@ impl Water {
     /// ```
     pub fn fits(&self) -> &Fits {
         &self.fits
-    }
-
-    /// Every constant evaluated for this water. In fresh water the activity
-    /// coefficients depend on the ionic strength, which a solve refines with
-    /// the speciation; these are the constants at the starting ionic strength.
-    ///
-    /// # Errors
-    /// [`crate::Error::Computation`] if the density cannot be computed.
-    ///
-    /// ```
-    /// # use travertine::{Conditions, Water};
-    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
-    /// assert!((k.kb.ln() - -19.7964).abs() < 5e-5); // Dickson 1990, Guide check value
-    /// # Ok::<(), travertine::Error>(())
-    /// ```
-    pub fn constants(&self) -> Result<Constants> {
-        match self.medium {
-            Medium::Saline => Constants::saline(&self.conditions, &self.composition, &self.fits),
-            Medium::Fresh => Ok(crate::fresh::FreshBasis::new(self, true)?.starting_constants()),
-        }
     }
 }

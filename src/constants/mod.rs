@@ -38,16 +38,15 @@ pub mod minerals;
 mod names;
 pub mod nutrients;
 pub mod pressure;
-mod range;
 pub mod sulfate;
 pub mod sulfide;
 pub mod water;
 
+pub use crate::range::FitRange;
 pub use boron::BoronTotalFit;
 pub use carbonic::CarbonicFit;
 pub use fluoride::FluorideFit;
 pub use names::FitName;
-pub use range::FitRange;
 
 use crate::conditions::Conditions;
 use crate::density::density_kg_m3;

@@ -1,6 +1,6 @@
-//! Published validity ranges of fits, and the warnings given outside them.
+//! Published validity ranges of fits (the warning given outside one is
+//! [`FitRange::check_for`], with the warnings).
 
-use crate::warning::Warning;
 use serde::Serialize;
 
 /// The published validity range of a fit, with how well its coefficients
@@ -57,38 +57,5 @@ impl FitRange {
             && temperature_c <= self.temperature_c.1 + EPS
             && salinity >= self.salinity.0 - EPS
             && salinity <= self.salinity.1 + EPS
-    }
-
-    /// Pushes a warning for `constant` when the conditions are outside the
-    /// range. A fit with a salinity range of (0, 0) is a pure-water fit and is
-    /// checked on temperature alone.
-    ///
-    /// ```
-    /// # use travertine::constants::FitRange;
-    /// let r = FitRange::new("mucci1983", (5.0, 40.0), (5.0, 44.0));
-    /// let mut w = Vec::new();
-    /// r.check_for("calcite and aragonite", 2.0, 35.0, &mut w);
-    /// assert!(w[0].to_string().contains("mucci1983"));
-    /// ```
-    pub fn check_for(
-        &self,
-        constant: &'static str,
-        temperature_c: f64,
-        salinity: f64,
-        warnings: &mut Vec<Warning>,
-    ) {
-        let s = if self.salinity == (0.0, 0.0) {
-            0.0
-        } else {
-            salinity
-        };
-        if !self.contains(temperature_c, s) {
-            warnings.push(Warning::Extrapolated {
-                constant,
-                range: *self,
-                temperature_c,
-                salinity,
-            });
-        }
     }
 }
