@@ -2,6 +2,7 @@
 //! and the calcium carbonate precipitation potential.
 
 use super::fixed_point::falsi;
+use super::ionic::ion_sum;
 use super::speciation::{free_carbonate, ln_omega_at_alkalinity};
 use super::{FreshBasis, IonicStrengthRoute};
 use crate::constants::Constants;
@@ -17,14 +18,14 @@ impl FreshBasis {
         k: &Constants,
         h: f64,
         dic: f64,
-        imbalance: f64,
         options: &SolveOptions,
         warnings: &mut Warnings,
     ) -> FreshExtras {
         let mut e = FreshExtras {
             ionic_strength_from: self.route,
+            // The charge balance of an ion analysis; other routes have none.
             charge_balance_percent: (self.route == IonicStrengthRoute::MajorIons)
-                .then_some(100.0 * imbalance),
+                .then(|| 100.0 * ion_sum(k, h, dic).1),
             saturation_ph_nbs: None,
             langelier_index: None,
             precipitation_potential_mg_l_caco3: None,

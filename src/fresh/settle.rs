@@ -51,7 +51,7 @@ impl FreshBasis {
         let from_ions = held_i.is_none() && self.fixed_i.is_none();
         let at =
             |i: f64| self.settle_calcium(ca_total, i, calcium.get(), &options, &pair, from_ions);
-        match held_i.or(self.fixed_i) {
+        let settled = match held_i.or(self.fixed_i) {
             Some(i) => at(i),
             None => {
                 let bracket = Bracket {
@@ -72,7 +72,21 @@ impl FreshBasis {
                     iterations: 0,
                 })
             }
-        }
+        };
+        // A fixed point that did not settle names the measured pair.
+        settled.map_err(|e| match e {
+            Error::NoConvergence { iterations, .. } => {
+                match pair(&self.constants_at(self.i_start, ca_total, ca_total)) {
+                    Ok((a, b)) => Error::NoConvergence {
+                        first: a.parameter().name(),
+                        second: b.parameter().name(),
+                        iterations,
+                    },
+                    Err(other) => other,
+                }
+            }
+            other => other,
+        })
     }
 
     /// The inner fixed point at ionic strength `i`: the free calcium,
@@ -176,9 +190,8 @@ impl FreshBasis {
             mut warnings,
         } = settled.sol;
         k.warnings = self.warnings.clone();
-        let imbalance = ion_sum(&k, h, dic).1;
         add_route_warnings(water, self.route, k.ionic_strength, &mut warnings);
-        let extras = self.extras(&k, h, dic, imbalance, options, &mut warnings);
+        let extras = self.extras(&k, h, dic, options, &mut warnings);
         State::build_fresh(water, &k, h, dic, warnings, extras, (&a, &b))
     }
 
