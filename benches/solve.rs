@@ -26,8 +26,8 @@
 use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
 use std::time::Duration;
-use travertine::units::Amount;
-use travertine::water::Composition;
+use travertine::base::units::Amount;
+use travertine::sample::composition::Composition;
 use travertine::{Conditions, Measured, Parameter, State, Water};
 
 /// Alkalinity of the benchmark water, µmol/kg (demo value).

@@ -27,47 +27,56 @@
 //! # Ok::<(), travertine::Error>(())
 //! ```
 //!
-//! Data flow: [`Conditions`] and a [`water::Composition`] make a [`Water`];
-//! [`Water::constants`] evaluates every constant once into a
-//! [`constants::Constants`]; [`Water::solve`] finds [H+] from the two
+//! # The layers
+//! The crate is layered in the order data flows, and a module imports only
+//! from the layers above it (`tests/layers.rs` checks every `crate::` path):
+//!
+//! ```text
+//! base         errors, units, warnings with codes, fit ranges, the root finder
+//! properties   pH scales, activity, density, conductivity
+//! fits         the published fits, each a named value with its range; the choice of fits
+//! sample       conditions, composition, measured parameters and the pair rules, Water
+//! medium       fits -> one Constants value (saline; fresh with activities)
+//! speciation   species and alkalinity at a given [H+]; the calcium ion pairs
+//! solve        the pair algebra, the root policy and the fresh fixed point: one solver
+//! state        the complete result and the figures derived from it
+//! flow         the pipeline on one page: water -> constants -> solve -> state
+//! decisions    exchange, toxic fractions, doses, blends, flags (to come)
+//! output       the table and the JSON of a state
+//! sheet        the CSV batch (feature `sheet`)
+//! ```
+//! The binary (`src/main.rs`, feature `cli`) parses arguments, calls the
+//! library and prints. A [`Conditions`] and a [`Composition`] make a
+//! [`Water`]; [`Water::prepare`] evaluates its constants once
+//! ([`medium::Constants`]); [`Water::solve`] finds [H+] from the two
 //! [`Measured`] parameters and builds the [`State`].
 
 #![forbid(unsafe_code)]
 #![deny(missing_docs)]
 
-pub mod activity;
-pub mod alkalinity;
-pub mod conditions;
-pub mod conductivity;
-pub mod constants;
-pub mod density;
-pub mod error;
-pub mod fresh;
-pub mod measured;
-pub(crate) mod numeric;
-pub mod prepared;
-pub mod range;
-pub mod report;
-pub(crate) mod root;
+pub mod base;
+pub mod decisions;
+pub mod fits;
+pub mod flow;
+pub mod medium;
+pub mod output;
+pub mod properties;
 pub mod sample;
-pub mod scales;
 #[cfg(feature = "sheet")]
 pub mod sheet;
 pub mod solve;
+pub mod speciation;
 pub mod state;
-pub mod units;
-pub mod warning;
-pub mod water;
 
-pub use conditions::Conditions;
-pub use error::{Error, Result};
-pub use measured::{Measured, Parameter};
-pub use prepared::PreparedWater;
-pub use scales::PhScale;
+pub use base::error::{self, Error, Result};
+pub use base::units;
+pub use base::warning::{Warning, Warnings};
+pub use fits::{CarbonicFit, Fits};
+pub use flow::PreparedWater;
+pub use properties::scales::PhScale;
+pub use sample::{Composition, Conditions, Measured, Medium, Parameter, Water};
 pub use solve::{RootChoice, SolveOptions};
 pub use state::State;
-pub use warning::{Warning, Warnings};
-pub use water::{Medium, Water};
 
 /// The README's Rust examples, run as doctests so that they keep working.
 #[cfg(doctest)]

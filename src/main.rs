@@ -2,11 +2,11 @@
 
 use clap::{Args, Parser, Subcommand};
 use std::process::ExitCode;
-use travertine::activity::ActivityModel;
-use travertine::constants::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
-use travertine::sample::{Conductivity, MediumChoice, Sample};
+use travertine::base::units::{Quantity, Unit};
+use travertine::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
+use travertine::properties::activity::ActivityModel;
+use travertine::sample::trade::{Conductivity, MediumChoice, Sample};
 use travertine::sheet::{Format, Progress, SheetError, SheetOptions, Sink, Source, UnitSystem};
-use travertine::units::{Quantity, Unit};
 use travertine::{Error, Measured, Parameter, PhScale, RootChoice, SolveOptions, State};
 
 #[derive(Parser)]
@@ -392,10 +392,10 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
 
 fn render(measured: &State, reported: Option<&State>, json: bool) -> String {
     match (json, reported) {
-        (true, None) => travertine::report::json(measured, None),
-        (true, Some(r)) => travertine::report::json(r, Some(measured)),
-        (false, None) => travertine::report::table(measured, None),
-        (false, Some(r)) => travertine::report::table(r, Some(measured)),
+        (true, None) => travertine::output::json(measured, None),
+        (true, Some(r)) => travertine::output::json(r, Some(measured)),
+        (false, None) => travertine::output::table(measured, None),
+        (false, Some(r)) => travertine::output::table(r, Some(measured)),
     }
 }
 

@@ -15,12 +15,13 @@
 
 use serde::Deserialize;
 use std::f64::consts::LN_10;
-use travertine::constants::{
-    ammonia, boron, carbonic, fluoride, gas, minerals, nutrients, pressure, sulfate, sulfide,
-    water, BoronTotalFit, CarbonicFit, Constants, Fits, FluorideFit,
+use travertine::base::units::Amount;
+use travertine::fits::{
+    ammonia, boron, carbonic, fluoride, gas, kw, minerals, nutrients, pressure, sulfate, sulfide,
+    BoronTotalFit, CarbonicFit, Fits, FluorideFit,
 };
-use travertine::units::Amount;
-use travertine::water::Composition;
+use travertine::medium::Constants;
+use travertine::sample::composition::Composition;
 use travertine::{Conditions, Measured, PhScale, Water};
 
 mod common;
@@ -317,7 +318,7 @@ fn evaluate(row: &CheckRow) -> Result<f64, String> {
         ),
         ("kw", "millero1995") => (
             Some(PhScale::Total),
-            Native::Ln(water::millero1995_ln_kw(t, s)),
+            Native::Ln(kw::millero1995_ln_kw(t, s)),
         ),
         ("ks", "dickson1990") => (
             Some(PhScale::Free),
@@ -385,7 +386,7 @@ fn evaluate(row: &CheckRow) -> Result<f64, String> {
             None,
             Native::Value(
                 "kg_m3",
-                travertine::density::density_kg_m3(s, row.temperature_c)
+                travertine::properties::density::density_kg_m3(s, row.temperature_c)
                     .map_err(|e| e.to_string())?,
             ),
         ),

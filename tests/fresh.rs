@@ -16,11 +16,12 @@
 use serde::Deserialize;
 use std::f64::consts::LN_10;
 use std::fmt::Write as _;
-use travertine::activity::{self, ActivityModel, Gammas};
-use travertine::constants::{fluoride, fresh, minerals, sulfate, BoronTotalFit, Constants};
-use travertine::fresh::IonicStrengthRoute;
-use travertine::units::Amount;
-use travertine::water::Composition;
+use travertine::base::units::Amount;
+use travertine::fits::{fluoride, minerals, sulfate, thermodynamic, BoronTotalFit};
+use travertine::medium::Constants;
+use travertine::medium::IonicStrengthRoute;
+use travertine::properties::activity::{self, ActivityModel, Gammas};
+use travertine::sample::composition::Composition;
 use travertine::{Conditions, Measured, Parameter, SolveOptions, State, Water};
 
 mod common;
@@ -36,7 +37,7 @@ fn fresh_water(t: f64) -> Water {
 
 /// Density of pure water, g/cm³ (TEOS-10 at S 0), as the crate uses for A(T).
 fn rho_w_g_cm3(t: f64) -> f64 {
-    travertine::density::density_kg_m3(0.0, t).expect("density") / 1000.0
+    travertine::properties::density::density_kg_m3(0.0, t).expect("density") / 1000.0
 }
 
 fn solve(w: &Water, a: Measured, b: Measured) -> State {
@@ -149,47 +150,47 @@ fn constant_log10(row: &Row, t: f64) -> Result<f64, String> {
     let k = route_constants(t)?;
     let used = &k.fits_used;
     let (fit, named, routed, reported) = match row.constant.as_str() {
-        "kh" => ("plummer-busenberg1982", fresh::log_kh(tk), k.k0, used.k0),
+        "kh" => ("plummer-busenberg1982", thermodynamic::log_kh(tk), k.k0, used.k0),
         "k1" => (
             "plummer-busenberg1982",
-            fresh::log_k1(tk),
+            thermodynamic::log_k1(tk),
             k.k1,
             used.carbonic,
         ),
         "k2" => (
             "plummer-busenberg1982",
-            fresh::log_k2(tk),
+            thermodynamic::log_k2(tk),
             k.k2,
             used.carbonic,
         ),
         "ksp_calcite" => (
             "plummer-busenberg1982",
-            fresh::log_ksp_calcite(tk),
+            thermodynamic::log_ksp_calcite(tk),
             k.ksp_calcite,
             used.minerals,
         ),
         "ksp_aragonite" => (
             "plummer-busenberg1982",
-            fresh::log_ksp_aragonite(tk),
+            thermodynamic::log_ksp_aragonite(tk),
             k.ksp_aragonite,
             used.minerals,
         ),
         "k_cahco3" => (
             "plummer-busenberg1982",
-            fresh::log_k_cahco3(tk),
+            thermodynamic::log_k_cahco3(tk),
             k.k_cahco3,
             used.minerals,
         ),
         "k_caco3" => (
             "plummer-busenberg1982",
-            fresh::log_k_caco3(tk),
+            thermodynamic::log_k_caco3(tk),
             k.k_caco3,
             used.minerals,
         ),
-        "kw" => ("harned-owen1958", fresh::log_kw(tk), k.kw, used.water),
+        "kw" => ("harned-owen1958", thermodynamic::log_kw(tk), k.kw, used.water),
         "knh4" => (
             "emerson1975",
-            -fresh::emerson1975_pka(tk),
+            -thermodynamic::emerson1975_pka(tk),
             k.knh4,
             used.ammonium,
         ),
@@ -467,7 +468,7 @@ fn rainwater_matches_the_closed_form() {
         let s = rain(Measured::pco2_uatm(pco2).unwrap());
         let fco2 = s.fco2_uatm * 1e-6;
         let a_h =
-            (p10(fresh::log_k1(t)) * p10(fresh::log_kh(t)) * fco2 + p10(fresh::log_kw(t))).sqrt();
+            (p10(thermodynamic::log_k1(t)) * p10(thermodynamic::log_kh(t)) * fco2 + p10(thermodynamic::log_kw(t))).sqrt();
         // With Davies γH = γ(HCO3-) = γ(OH-), so the activity coefficients
         // cancel from [H+] = [HCO3-] + [OH-]; left out is CO3-- alone
         // (2 K2/aH ≈ 4e-5 of HCO3-, 1e-5 in pH).
@@ -609,7 +610,7 @@ fn calcite_in_equilibrium_with_air() {
     // (Plummer & Busenberg 1982, equations.md §9).
     let ratio = s.omega_aragonite.unwrap() / omega;
     let t = 298.15;
-    let expected = 10f64.powf(fresh::log_ksp_calcite(t) - fresh::log_ksp_aragonite(t));
+    let expected = 10f64.powf(thermodynamic::log_ksp_calcite(t) - thermodynamic::log_ksp_aragonite(t));
     assert!((ratio / expected - 1.0).abs() < 1e-9);
     assert!((ratio - 0.7184).abs() < 1e-3);
 }
@@ -695,7 +696,7 @@ fn bicarbonate_fraction_peaks_near_8_3() {
     // At I = 0 the maximum of K1 h/(h² + K1 h + K1 K2) is at h² = K1 K2:
     // pH = (pK1 + pK2)/2 = 8.3404 (Plummer & Busenberg 1982, equations.md §9).
     let t = 298.15;
-    let mid = -(fresh::log_k1(t) + fresh::log_k2(t)) / 2.0;
+    let mid = -(thermodynamic::log_k1(t) + thermodynamic::log_k2(t)) / 2.0;
     assert!((mid - 8.3404).abs() < 1e-4);
     let peak = hco3_peak(0.0);
     assert!((peak - mid).abs() < 1e-4, "peak {peak}, (pK1+pK2)/2 {mid}");
@@ -721,7 +722,7 @@ fn carbonate_exceeds_bicarbonate_only_above_ph_10_3() {
             1e-10,
         )
     };
-    let pk2 = -fresh::log_k2(298.15);
+    let pk2 = -thermodynamic::log_k2(298.15);
     let at_zero = cross(0.0);
     assert!(
         (at_zero - pk2).abs() < 1e-6,

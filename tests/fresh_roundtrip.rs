@@ -18,10 +18,10 @@
 mod common;
 use common::{any_value, check_every_pair};
 use proptest::prelude::*;
-use travertine::activity::ActivityModel;
-use travertine::fresh::IonicStrengthRoute;
-use travertine::units::Amount;
-use travertine::water::Composition;
+use travertine::base::units::Amount;
+use travertine::medium::IonicStrengthRoute;
+use travertine::properties::activity::ActivityModel;
+use travertine::sample::composition::Composition;
 use travertine::{
     Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
 };

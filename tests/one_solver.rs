@@ -6,9 +6,9 @@
 //! results from the published fits, named where they are used.
 
 use std::process::Command;
-use travertine::constants::CarbonicFit;
-use travertine::units::Amount;
-use travertine::water::Composition;
+use travertine::base::units::Amount;
+use travertine::fits::CarbonicFit;
+use travertine::sample::composition::Composition;
 use travertine::{
     Conditions, Measured, Medium, Parameter, PreparedWater, RootChoice, SolveOptions, State,
     Warning, Water,
@@ -165,7 +165,7 @@ fn a_recomputed_state_keeps_the_carbonic_fit_it_was_measured_with() {
     // A fit the user chose is kept too.
     let chosen = Water::saline(Conditions::new(25.0, 35.0).unwrap())
         .unwrap()
-        .with_fits(travertine::constants::Fits::default().with_carbonic(CarbonicFit::Roy1993))
+        .with_fits(travertine::fits::Fits::default().with_carbonic(CarbonicFit::Roy1993))
         .solve(
             Measured::ph(7.9, Some(travertine::PhScale::Total)).unwrap(),
             Measured::alkalinity_umol_kg(2300.0).unwrap(),

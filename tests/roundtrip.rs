@@ -9,8 +9,8 @@
 mod common;
 use common::{any_value, check_every_pair};
 use proptest::prelude::*;
-use travertine::units::Amount;
-use travertine::water::Composition;
+use travertine::base::units::Amount;
+use travertine::sample::composition::Composition;
 use travertine::{
     Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
 };

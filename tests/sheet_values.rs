@@ -1,9 +1,9 @@
 //! The sheet computes what the library computes: each row's values are the
 //! library's solve of the same sample, rounded to six significant digits.
 
-use travertine::sample::{Conductivity, Sample};
+use travertine::base::units::{Quantity, Unit};
+use travertine::sample::trade::{Conductivity, Sample};
 use travertine::sheet::{process, SheetOptions};
-use travertine::units::{Quantity, Unit};
 use travertine::{Measured, Parameter, PhScale};
 
 fn sheet(input: &str, options: &SheetOptions) -> (Vec<String>, Vec<String>) {

@@ -2,9 +2,11 @@
 //! check is marked "common practice" beside its assert: these are the
 //! textbook consequences of the definitions, not measured numbers.
 
-use travertine::constants::{CarbonicFit, Constants};
-use travertine::units::Amount;
-use travertine::water::{Composition, SALINE_SALINITY_MIN};
+use travertine::base::units::Amount;
+use travertine::fits::CarbonicFit;
+use travertine::medium::Constants;
+use travertine::sample::water::SALINE_SALINITY_MIN;
+use travertine::sample::Composition;
 use travertine::{Conditions, Measured, PhScale, SolveOptions, Water};
 
 /// Saline water with no boron, sulfate or fluoride, so that carbonic acid

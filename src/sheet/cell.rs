@@ -6,13 +6,13 @@
 //! for that row only.
 
 use super::header::{cell_unit, Column, Field, Reading};
-use crate::activity::ActivityModel;
-use crate::constants::{BoronTotalFit, CarbonicFit, FluorideFit};
-use crate::error::Error;
-use crate::sample::{Conductivity, MediumChoice};
-use crate::scales::PhScale;
-use crate::units::number_len;
-use crate::units::Quantity;
+use crate::base::error::Error;
+use crate::base::units::number_len;
+use crate::base::units::Quantity;
+use crate::fits::{BoronTotalFit, CarbonicFit, FluorideFit};
+use crate::properties::activity::ActivityModel;
+use crate::properties::scales::PhScale;
+use crate::sample::trade::{Conductivity, MediumChoice};
 
 /// A chosen name.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -288,7 +288,7 @@ pub(crate) fn parse(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::measured::Parameter;
+    use crate::sample::measured::Parameter;
     use crate::sheet::header::{recognise, Recognition};
 
     fn col(h: &str) -> Column {

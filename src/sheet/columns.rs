@@ -1,9 +1,9 @@
 //! The computed columns a sheet can write, and the default sets.
 
-use crate::measured::Parameter;
-use crate::scales::PhScale;
+use crate::base::units::{CO3_G_MOL, HCO3_G_MOL};
+use crate::properties::scales::PhScale;
+use crate::sample::measured::Parameter;
 use crate::state::State;
-use crate::units::{CO3_G_MOL, HCO3_G_MOL};
 
 /// The two families of units for the default columns and the residuals.
 ///

@@ -88,7 +88,7 @@ pub use error::SheetError;
 pub use files::{Sink, Source};
 pub use summary::{MessageCount, Summary};
 
-use crate::measured::Parameter;
+use crate::sample::measured::Parameter;
 use crate::solve::RootChoice;
 use std::io::{IsTerminal, Read, Write};
 

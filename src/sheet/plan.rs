@@ -7,8 +7,8 @@ use super::columns::{Computed, UnitSystem};
 use super::header::{self, Column, Field, Reading, Recognition};
 use super::row::{choose_pair, compatible, rank, Inputs, RANKING};
 use super::{SheetError, SheetOptions};
-use crate::measured::Parameter;
-use crate::scales::PhScale;
+use crate::properties::scales::PhScale;
+use crate::sample::measured::Parameter;
 use crate::solve::SolveOptions;
 
 /// A recognised column of the sheet.

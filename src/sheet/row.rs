@@ -4,16 +4,18 @@ use super::cell::{self, Choice, Parsed};
 use super::columns::{Computed, UnitSystem, Value};
 use super::header::{Field, Total};
 use super::plan::{Label, Plan};
-use crate::activity::ActivityModel;
-use crate::constants::{BoronTotalFit, CarbonicFit, FluorideFit};
-use crate::error::Error;
-use crate::measured::{Measured, Parameter};
-use crate::prepared::PreparedWater;
-use crate::sample::{Conductivity, MediumChoice, Sample};
-use crate::scales::PhScale;
+use crate::base::error::Error;
+use crate::base::units::{
+    Amount, Quantity, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL,
+};
+use crate::fits::{BoronTotalFit, CarbonicFit, FluorideFit};
+use crate::flow::PreparedWater;
+use crate::properties::activity::ActivityModel;
+use crate::properties::scales::PhScale;
+use crate::sample::measured::{Measured, Parameter};
+use crate::sample::trade::{Conductivity, MediumChoice, Sample};
+use crate::sample::water::Medium;
 use crate::state::State;
-use crate::units::{Amount, Quantity, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
-use crate::water::Medium;
 
 /// The order in which a row's measured parameters are taken for its pair:
 /// the first two present that can be used together. Alkalinity and DIC are

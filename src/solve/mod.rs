@@ -15,14 +15,16 @@
 //! natural waters cluster there; [`RootChoice`] picks the other, and the
 //! other root is always reported in a warning.
 
-use crate::alkalinity::{carbonate_per_dic, non_carbonate};
-use crate::constants::Constants;
-use crate::error::{Error, Result};
-use crate::measured::{Measured, Parameter, Value};
-use crate::root::{monotone_newton, Failure, Search};
-use crate::scales::PhScale;
-use crate::warning::{Warning, Warnings};
+use crate::base::error::{Error, Result};
+use crate::base::root::{monotone_newton, Failure, Search};
+use crate::base::warning::{Warning, Warnings};
+use crate::medium::Constants;
+use crate::properties::scales::PhScale;
+use crate::sample::measured::{check_pair, Measured, Parameter, Value};
+use crate::speciation::alkalinity::{carbonate_per_dic, non_carbonate};
 
+pub(crate) mod fixed_point;
+pub(crate) mod settle;
 mod two_roots;
 
 #[cfg(test)]
@@ -297,27 +299,6 @@ pub(crate) fn alkalinity_in_range(ta: f64) -> bool {
     umol.is_finite() && umol.abs() <= max * (1.0 + 1e-9)
 }
 
-/// Checks that a pair can be used together.
-pub(crate) fn check_pair(a: &Measured, b: &Measured) -> Result<()> {
-    let (pa, pb) = (a.parameter(), b.parameter());
-    if pa == pb {
-        return Err(Error::IncompatiblePair {
-            first: pa.name(),
-            second: pb.name(),
-            reason: "the same parameter twice is one measurement, and two are needed",
-        });
-    }
-    if pa.is_gas() && pb.is_gas() {
-        return Err(Error::IncompatiblePair {
-            first: pa.name(),
-            second: pb.name(),
-            reason: "pCO2, fCO2, xCO2 and CO2* carry the same information (each fixes the \
-                     dissolved CO2); pair one of them with alkalinity, DIC, pH, HCO3 or CO3",
-        });
-    }
-    Ok(())
-}
-
 /// Solves for h and DIC.
 pub(crate) fn solve(
     k: &Constants,
@@ -421,7 +402,9 @@ pub(crate) fn solve(
                 let bound = 2.0 * dic + totals + k.kw / h + h * k.free_per_working;
                 h_in_range(h)
                     && (alkalinity_in_range(bound)
-                        || alkalinity_in_range(crate::alkalinity::parts(k, h, dic).total()))
+                        || alkalinity_in_range(
+                            crate::speciation::alkalinity::parts(k, h, dic).total(),
+                        ))
             };
             let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, &mut warnings)?;
             (h, dic)
@@ -458,7 +441,7 @@ pub(crate) fn solve(
         }
     };
     if !h_in_range(h) || !dic.is_finite() || dic <= 0.0 {
-        let ph = -crate::numeric::log10(h);
+        let ph = -crate::base::numeric::log10(h);
         return Err(pair.no_water(format!(
             "they imply a pH of {ph:.3} ({} scale), outside {PH_MIN} to {PH_MAX}",
             k.working_scale.name()

@@ -3,11 +3,11 @@
 //! policy that chooses between their roots.
 
 use super::{Pair, RootChoice, SolveOptions, H_AT_PH_MAX, H_AT_PH_MIN, LN10, PH_MAX, PH_MIN};
-use crate::alkalinity::non_carbonate;
-use crate::constants::Constants;
-use crate::error::Result;
-use crate::root::{monotone_newton, Failure, Search, NEWTON_ACCEPT};
-use crate::warning::{Warning, Warnings};
+use crate::base::error::Result;
+use crate::base::root::{monotone_newton, Failure, Search, NEWTON_ACCEPT};
+use crate::base::warning::{Warning, Warnings};
+use crate::medium::Constants;
+use crate::speciation::alkalinity::non_carbonate;
 
 pub(super) fn pick(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
     // lower_h is the higher pH. Of two pH values, the higher is nearer 8
@@ -31,7 +31,7 @@ pub(super) fn other_root_warning(pair: &Pair, k: &Constants, chosen: f64, other:
     Warning::OtherRoot {
         first: pair.a.parameter().name(),
         second: pair.b.parameter().name(),
-        ph: -crate::numeric::log10(other),
+        ph: -crate::base::numeric::log10(other),
         scale: k.working_scale.name(),
         higher: other < chosen,
     }

@@ -9,9 +9,9 @@
 //! is of (calcium as Ca, bicarbonate as HCO3, total ammonia *nitrogen* as
 //! N), never for alkalinity, DIC or hardness.
 
-use crate::measured::Parameter;
-use crate::scales::PhScale;
-use crate::units::{list_units, Unit};
+use crate::base::units::{list_units, Unit};
+use crate::properties::scales::PhScale;
+use crate::sample::measured::Parameter;
 
 mod names;
 mod units;
@@ -91,7 +91,7 @@ impl Total {
 
     /// The units accepted, as in `Sample::units_for`.
     fn units(self) -> Vec<Unit> {
-        crate::sample::Sample::units_for(self.name())
+        crate::sample::trade::Sample::units_for(self.name())
     }
 }
 

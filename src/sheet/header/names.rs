@@ -2,7 +2,7 @@
 //! normalising, with the field it names and how to read its unit.
 
 use super::{Field, Total};
-use crate::measured::Parameter;
+use crate::sample::measured::Parameter;
 
 /// Flags of a name alias.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

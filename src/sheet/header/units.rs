@@ -3,9 +3,9 @@
 
 use super::names::Hint;
 use super::{normalise, Column, Field, Reading};
-use crate::measured::Parameter;
-use crate::scales::PhScale;
-use crate::units::{Unit, MOLAR_UNITS};
+use crate::base::units::{Unit, MOLAR_UNITS};
+use crate::properties::scales::PhScale;
+use crate::sample::measured::Parameter;
 
 /// Whether some field would read `unit` as a unit.
 pub(super) fn is_unit_text(unit: &str) -> bool {

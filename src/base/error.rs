@@ -1,0 +1,345 @@
+//! Errors of the whole crate.
+//!
+//! Every variant names the field that was wrong, the value it had and,
+//! where one exists, the accepted range or the accepted units, so that a
+//! message can be shown to a user as it is.
+
+use thiserror::Error;
+
+/// The result type of this crate.
+pub type Result<T> = std::result::Result<T, Error>;
+
+/// Everything that can go wrong while describing a water or solving it.
+///
+/// # Example
+/// ```
+/// use travertine::{Conditions, Error};
+/// let err = Conditions::new(300.0, 35.0).unwrap_err();
+/// assert!(matches!(err, Error::OutOfRange { field: "temperature_c", .. }));
+/// assert!(err.to_string().contains("300"));
+/// ```
+#[derive(Debug, Clone, PartialEq, Error)]
+#[non_exhaustive]
+pub enum Error {
+    /// A number lies outside the range the crate accepts for that field.
+    #[error("{field} = {value} is outside the accepted range {min} to {max}{unit}")]
+    OutOfRange {
+        /// The field, for example `temperature_c`.
+        field: &'static str,
+        /// The value given.
+        value: f64,
+        /// The smallest accepted value.
+        min: f64,
+        /// The largest accepted value.
+        max: f64,
+        /// The unit of `value`, `min` and `max`, with a leading space (may be empty).
+        unit: &'static str,
+    },
+    /// A number was NaN or infinite.
+    #[error("{field} = {value} is not a finite number")]
+    NotFinite {
+        /// The field.
+        field: &'static str,
+        /// The value given.
+        value: f64,
+    },
+    /// Text that should have been a number was not one.
+    #[error("{field}: `{text}` is not a number")]
+    NotANumber {
+        /// The field.
+        field: &'static str,
+        /// The text given.
+        text: String,
+    },
+    /// A concentration or gas value was given without a unit.
+    #[error("{field}: `{text}` has no unit; accepted units: {accepted}")]
+    MissingUnit {
+        /// The field.
+        field: &'static str,
+        /// The text given.
+        text: String,
+        /// The units this field accepts.
+        accepted: String,
+    },
+    /// A unit was not recognised, or is not one this field accepts.
+    #[error("{field}: unit `{unit}` is not accepted here; accepted units: {accepted}")]
+    WrongUnit {
+        /// The field.
+        field: &'static str,
+        /// The unit given.
+        unit: String,
+        /// The units this field accepts.
+        accepted: String,
+    },
+    /// Two measured parameters that cannot be used together.
+    #[error("{first} and {second} cannot be used together: {reason}")]
+    IncompatiblePair {
+        /// The first parameter.
+        first: &'static str,
+        /// The second parameter.
+        second: &'static str,
+        /// Why not.
+        reason: &'static str,
+    },
+    /// The two measured parameters are valid one by one, but no water fits both.
+    #[error("no water fits {first} = {first_value} with {second} = {second_value}: {reason}")]
+    NoWaterFits {
+        /// The first parameter.
+        first: &'static str,
+        /// Its value, with unit.
+        first_value: String,
+        /// The second parameter.
+        second: &'static str,
+        /// Its value, with unit.
+        second_value: String,
+        /// Why no water fits.
+        reason: String,
+    },
+    /// The solver did not converge. This is reported, never returned as a number.
+    #[error("the solver did not converge for {first} with {second} after {iterations} iterations")]
+    NoConvergence {
+        /// The first parameter.
+        first: &'static str,
+        /// The second parameter.
+        second: &'static str,
+        /// Iterations spent.
+        iterations: u32,
+    },
+    /// A published fit was named that does not exist for this constant.
+    #[error("{constant}: unknown fit `{name}`; accepted: {accepted}")]
+    UnknownFit {
+        /// The constant, for example `carbonic`.
+        constant: &'static str,
+        /// The name given.
+        name: String,
+        /// The accepted names.
+        accepted: String,
+    },
+    /// An option chosen that belongs to the other medium.
+    #[error("{field} `{name}` is for {medium} water only: {hint}")]
+    WrongMedium {
+        /// The option, for example `boron`.
+        field: &'static str,
+        /// The choice given.
+        name: String,
+        /// The medium it belongs to.
+        medium: &'static str,
+        /// What to do instead.
+        hint: &'static str,
+    },
+    /// A name that must be one of a fixed set was not.
+    #[error("{field}: unknown choice `{name}`; accepted: {accepted}")]
+    UnknownChoice {
+        /// The field.
+        field: &'static str,
+        /// The name given.
+        name: String,
+        /// The accepted names.
+        accepted: String,
+    },
+    /// A computed quantity (for example density) could not be evaluated.
+    #[error("{field} could not be computed: {reason}")]
+    Computation {
+        /// The quantity.
+        field: &'static str,
+        /// Why not.
+        reason: String,
+    },
+}
+
+/// What kind of error, as a stable snake_case code (serialised as that
+/// code), for programs that act on errors without parsing messages.
+///
+/// ```
+/// use travertine::{error::ErrorKind, Conditions};
+/// let err = Conditions::new(25.0, 99.0).unwrap_err();
+/// assert_eq!(err.kind(), ErrorKind::OutOfRange);
+/// assert_eq!(err.kind().code(), "out_of_range");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+#[non_exhaustive]
+pub enum ErrorKind {
+    /// [`Error::OutOfRange`].
+    OutOfRange,
+    /// [`Error::NotFinite`].
+    NotFinite,
+    /// [`Error::NotANumber`].
+    NotANumber,
+    /// [`Error::MissingUnit`].
+    MissingUnit,
+    /// [`Error::WrongUnit`].
+    WrongUnit,
+    /// [`Error::IncompatiblePair`].
+    IncompatiblePair,
+    /// [`Error::NoWaterFits`].
+    NoWaterFits,
+    /// [`Error::NoConvergence`].
+    NoConvergence,
+    /// [`Error::UnknownFit`].
+    UnknownFit,
+    /// [`Error::WrongMedium`].
+    WrongMedium,
+    /// [`Error::UnknownChoice`].
+    UnknownChoice,
+    /// [`Error::Computation`].
+    Computation,
+}
+
+impl ErrorKind {
+    /// The stable snake_case code.
+    ///
+    /// ```
+    /// # use travertine::base::error::ErrorKind;
+    /// assert_eq!(ErrorKind::NoWaterFits.code(), "no_water_fits");
+    /// ```
+    pub fn code(self) -> &'static str {
+        match self {
+            ErrorKind::OutOfRange => "out_of_range",
+            ErrorKind::NotFinite => "not_finite",
+            ErrorKind::NotANumber => "not_a_number",
+            ErrorKind::MissingUnit => "missing_unit",
+            ErrorKind::WrongUnit => "wrong_unit",
+            ErrorKind::IncompatiblePair => "incompatible_pair",
+            ErrorKind::NoWaterFits => "no_water_fits",
+            ErrorKind::NoConvergence => "no_convergence",
+            ErrorKind::UnknownFit => "unknown_fit",
+            ErrorKind::WrongMedium => "wrong_medium",
+            ErrorKind::UnknownChoice => "unknown_choice",
+            ErrorKind::Computation => "computation",
+        }
+    }
+}
+
+/// An error serialises as `{"kind": ..., "field": ..., "message": ...}`,
+/// `field` being null where the error names none.
+///
+/// ```
+/// use travertine::Conditions;
+/// let err = Conditions::new(25.0, 99.0).unwrap_err();
+/// let json = serde_json::to_value(&err).unwrap();
+/// assert_eq!(json["kind"], "out_of_range");
+/// assert_eq!(json["field"], "salinity");
+/// ```
+impl serde::Serialize for Error {
+    fn serialize<S: serde::Serializer>(
+        &self,
+        serializer: S,
+    ) -> std::result::Result<S::Ok, S::Error> {
+        use serde::ser::SerializeStruct;
+        let mut s = serializer.serialize_struct("Error", 3)?;
+        s.serialize_field("kind", &self.kind())?;
+        s.serialize_field("field", &self.field())?;
+        s.serialize_field("message", &self.to_string())?;
+        s.end()
+    }
+}
+
+impl Error {
+    /// The kind of this error.
+    ///
+    /// ```
+    /// use travertine::{error::ErrorKind, Measured};
+    /// assert_eq!(Measured::ph(15.0, None).unwrap_err().kind(), ErrorKind::OutOfRange);
+    /// ```
+    pub fn kind(&self) -> ErrorKind {
+        match self {
+            Error::OutOfRange { .. } => ErrorKind::OutOfRange,
+            Error::NotFinite { .. } => ErrorKind::NotFinite,
+            Error::NotANumber { .. } => ErrorKind::NotANumber,
+            Error::MissingUnit { .. } => ErrorKind::MissingUnit,
+            Error::WrongUnit { .. } => ErrorKind::WrongUnit,
+            Error::IncompatiblePair { .. } => ErrorKind::IncompatiblePair,
+            Error::NoWaterFits { .. } => ErrorKind::NoWaterFits,
+            Error::NoConvergence { .. } => ErrorKind::NoConvergence,
+            Error::UnknownFit { .. } => ErrorKind::UnknownFit,
+            Error::WrongMedium { .. } => ErrorKind::WrongMedium,
+            Error::UnknownChoice { .. } => ErrorKind::UnknownChoice,
+            Error::Computation { .. } => ErrorKind::Computation,
+        }
+    }
+
+    /// The field the error is about, where there is one (for the first of a pair).
+    ///
+    /// ```
+    /// use travertine::Conditions;
+    /// assert_eq!(Conditions::new(25.0, 99.0).unwrap_err().field(), Some("salinity"));
+    /// ```
+    pub fn field(&self) -> Option<&'static str> {
+        match self {
+            Error::OutOfRange { field, .. }
+            | Error::NotFinite { field, .. }
+            | Error::NotANumber { field, .. }
+            | Error::MissingUnit { field, .. }
+            | Error::WrongUnit { field, .. }
+            | Error::UnknownChoice { field, .. }
+            | Error::WrongMedium { field, .. }
+            | Error::Computation { field, .. } => Some(field),
+            Error::UnknownFit { constant, .. } => Some(constant),
+            Error::IncompatiblePair { first, .. }
+            | Error::NoWaterFits { first, .. }
+            | Error::NoConvergence { first, .. } => Some(first),
+        }
+    }
+}
+
+/// Checks that `value` is finite and within `[min, max]`.
+///
+/// # Errors
+/// [`Error::NotFinite`] for NaN or infinities, [`Error::OutOfRange`] otherwise.
+///
+/// # Example
+/// ```
+/// use travertine::base::error::check_range;
+/// assert!(check_range("salinity", 35.0, 0.0, 50.0, "").is_ok());
+/// assert!(check_range("salinity", 60.0, 0.0, 50.0, "").is_err());
+/// assert!(check_range("salinity", f64::NAN, 0.0, 50.0, "").is_err());
+/// ```
+pub fn check_range(
+    field: &'static str,
+    value: f64,
+    min: f64,
+    max: f64,
+    unit: &'static str,
+) -> Result<f64> {
+    if !value.is_finite() {
+        return Err(Error::NotFinite { field, value });
+    }
+    if value < min || value > max {
+        return Err(Error::OutOfRange {
+            field,
+            value,
+            min,
+            max,
+            unit,
+        });
+    }
+    Ok(value)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::ErrorKind;
+
+    /// The code of each kind is the name it is serialised with.
+    #[test]
+    fn kind_codes_match_their_serialised_names() {
+        let kinds = [
+            ErrorKind::OutOfRange,
+            ErrorKind::NotFinite,
+            ErrorKind::NotANumber,
+            ErrorKind::MissingUnit,
+            ErrorKind::WrongUnit,
+            ErrorKind::IncompatiblePair,
+            ErrorKind::NoWaterFits,
+            ErrorKind::NoConvergence,
+            ErrorKind::UnknownFit,
+            ErrorKind::WrongMedium,
+            ErrorKind::UnknownChoice,
+            ErrorKind::Computation,
+        ];
+        for k in kinds {
+            assert_eq!(serde_json::to_value(k).unwrap(), k.code());
+        }
+    }
+}

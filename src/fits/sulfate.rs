@@ -1,0 +1,65 @@
+//! Bisulfate: its dissociation constant, the ionic strength of sea water and
+//! total sulfate from salinity.
+
+use super::FitRange;
+
+/// Published range of Dickson (1990) KS (range from memory, unverified).
+pub const DICKSON1990_KS_RANGE: FitRange = FitRange::new("dickson1990", (0.0, 45.0), (5.0, 45.0));
+
+/// Ionic strength of sea water, mol/kg-H2O, from practical salinity.
+///
+/// ```text
+/// I = 19.924 S / (1000 - 1.005 S)
+/// ```
+/// Coefficients from memory (unverified); the form is the one used with
+/// Dickson (1990) KS.
+///
+/// ```
+/// let i = travertine::fits::sulfate::seawater_ionic_strength(35.0);
+/// assert!((i - 0.7227).abs() < 1e-4);
+/// ```
+#[inline]
+pub fn seawater_ionic_strength(salinity: f64) -> f64 {
+    19.924 * salinity / (1000.0 - 1.005 * salinity)
+}
+
+/// ln KS of Dickson (1990) for HSO4⁻, FREE scale, mol/kg-soln.
+///
+/// ```text
+/// ln KS = -4276.1/T + 141.328 - 23.093 ln T + (-13856/T + 324.57 - 47.986 ln T) I^0.5
+///         + (35474/T - 771.54 + 114.723 ln T) I - 2698/T I^1.5 + 1776/T I^2
+///         + ln(1 - 0.001005 S)
+/// ```
+/// Coefficients verified. Check value (Dickson, Sabine & Christian 2007):
+/// ln KS = −2.30 at S 35, 25 °C.
+///
+/// ```
+/// let l = travertine::fits::sulfate::dickson1990_ln_ks(298.15, 35.0);
+/// assert!((l - -2.30).abs() < 5e-3);
+/// ```
+#[inline]
+pub fn dickson1990_ln_ks(temperature_k: f64, salinity: f64) -> f64 {
+    let t = temperature_k;
+    let ln_t = t.ln();
+    let i = seawater_ionic_strength(salinity);
+    let ri = i.sqrt();
+    -4276.1 / t + 141.328 - 23.093 * ln_t
+        + (-13856.0 / t + 324.57 - 47.986 * ln_t) * ri
+        + (35474.0 / t - 771.54 + 114.723 * ln_t) * i
+        - 2698.0 / t * i * ri
+        + 1776.0 / t * i * i
+        + (1.0 - 0.001005 * salinity).ln()
+}
+
+/// Total sulfate, mol/kg-soln, from Morris & Riley (1966):
+/// `ST = (0.1400 / 96.062) * (S / 1.80655)`. Ratio from memory (unverified).
+/// Check value (computed): 0.02824 mol/kg at S 35.
+///
+/// ```
+/// let st = travertine::fits::sulfate::morris_riley1966_total_mol_kg(35.0);
+/// assert!((st - 0.02824).abs() < 5e-6);
+/// ```
+#[inline]
+pub fn morris_riley1966_total_mol_kg(salinity: f64) -> f64 {
+    (0.1400 / 96.062) * (salinity / 1.80655)
+}

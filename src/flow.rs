@@ -1,0 +1,426 @@
+//! A water bound to its constants: the one entry to the shared solver for
+//! both media.
+//!
+//! ```text
+//! Water ──prepare──▶ PreparedWater ──solve(a, b)──▶ State
+//!   saline: every constant evaluated once (Constants)
+//!   fresh:  the temperature-only constants once; each solve runs the shared
+//!           solver inside the ionic-strength and free-calcium fixed point
+//! ```
+
+use crate::base::error::Result;
+use crate::base::warning::Warning;
+use crate::fits::CarbonicFit;
+use crate::medium::fresh::ionic::add_route_warnings;
+use crate::medium::fresh::FreshBasis;
+use crate::medium::Constants;
+use crate::properties::scales::PhScale;
+use crate::sample::measured::{Measured, Parameter};
+use crate::sample::water::{Medium, Water};
+use crate::sample::Conditions;
+use crate::solve::{solve, Solution, SolveOptions};
+use crate::state::State;
+
+/// Salinities where both media apply and a solve is checked against the
+/// other medium (see DEVELOPERS.md, "Fresh and saline media in the overlap").
+pub const MEDIA_OVERLAP_SALINITY: (f64, f64) = (0.5, 5.0);
+/// Relative difference in pCO2 between the media above which a caution is
+/// given (in the overlap).
+pub const MEDIA_PCO2_CAUTION: f64 = 0.05;
+
+/// A borrowed [`Prepared`], so that a one-off solve need not move its
+/// constants (a large value) into one.
+#[derive(Clone, Copy)]
+enum Basis<'a> {
+    Saline(&'a Constants),
+    Fresh(&'a FreshBasis),
+}
+
+/// What a prepared water holds besides the water.
+#[derive(Debug, Clone, PartialEq)]
+enum Prepared {
+    /// Every constant of a saline water.
+    Saline(Constants),
+    /// The speciation-independent part of a fresh water's constants.
+    Fresh(FreshBasis),
+}
+
+/// A water with its constants evaluated, ready to solve any number of
+/// measured pairs. It cannot be given another water's constants: it makes
+/// its own. It is `Send + Sync`, so one prepared water can serve many
+/// threads.
+///
+/// # Example
+/// ```
+/// use travertine::{Conditions, Measured, Water};
+/// let pond = Water::fresh(Conditions::new(22.0, 0.2)?)?.prepare()?;
+/// let ta = Measured::alkalinity_umol_kg(2400.0)?;
+/// for ph in [7.2, 7.6, 8.0] {
+///     let s = pond.solve(ta, Measured::ph(ph, None)?)?;
+///     assert!((s.ph_nbs - ph).abs() < 1e-12);
+/// }
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq)]
+pub struct PreparedWater {
+    water: Water,
+    prepared: Prepared,
+}
+
+impl Water {
+    /// This water bound to its constants, for repeated solves.
+    ///
+    /// # Errors
+    /// [`crate::Error::Computation`] if the density cannot be computed.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// assert_eq!(sea.water().conditions().salinity(), 35.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn prepare(&self) -> Result<PreparedWater> {
+        Ok(PreparedWater {
+            water: self.clone(),
+            prepared: prepared(self)?,
+        })
+    }
+
+    /// Every constant evaluated for this water. In fresh water the activity
+    /// coefficients depend on the ionic strength, which a solve refines with
+    /// the speciation; these are the constants at the starting ionic strength.
+    ///
+    /// # Errors
+    /// [`crate::Error::Computation`] if the density cannot be computed.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert!((k.kb.ln() - -19.7964).abs() < 5e-5); // Dickson 1990, Guide check value
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn constants(&self) -> Result<Constants> {
+        match self.medium() {
+            Medium::Saline => Constants::saline(self.conditions(), self.composition(), self.fits()),
+            Medium::Fresh => Ok(FreshBasis::new(self, true)?.starting_constants()),
+        }
+    }
+
+    /// The complete state from two measured parameters, with default options.
+    ///
+    /// # Errors
+    /// [`crate::Error::IncompatiblePair`] for a pair that carries one piece of
+    /// information (two gas parameters, or one parameter twice);
+    /// [`crate::Error::NoWaterFits`] when no water in pH 0–14 fits both;
+    /// [`crate::Error::NoConvergence`] if the solver fails (never a wrong number).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::pco2_uatm(400.0)?, Measured::alkalinity_umol_kg(2300.0)?)?;
+    /// assert!((s.pco2_uatm - 400.0).abs() < 1e-9);
+    /// assert!(w.solve(Measured::pco2_uatm(400.0)?, Measured::xco2_ppm(410.0)?).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {
+        self.solve_with(a, b, &SolveOptions::default())
+    }
+
+    /// As [`Water::solve`], with options (for example which of two roots).
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, RootChoice, SolveOptions, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let opts = SolveOptions::default().with_root(RootChoice::LowerPh);
+    /// let s = w.solve_with(Measured::dic_umol_kg(2000.0)?, Measured::hco3_umol_kg(1777.7)?, &opts)?;
+    /// assert!(s.ph_total < 7.4);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        // As a prepared water, without moving the constants into one.
+        match self.medium() {
+            Medium::Saline => {
+                let k = Constants::saline(self.conditions(), self.composition(), self.fits())?;
+                solve_in(self, Basis::Saline(&k), a, b, options)
+            }
+            Medium::Fresh => {
+                let basis = FreshBasis::new(self, false)?;
+                solve_in(self, Basis::Fresh(&basis), a, b, options)
+            }
+        }
+    }
+
+    /// The same water in the other medium, with the same conditions,
+    /// composition, fits and fresh-medium settings.
+    fn in_other_medium(&self) -> Result<Water> {
+        let other = match self.medium() {
+            Medium::Saline => Water::fresh(*self.conditions())?,
+            Medium::Fresh => Water::saline(*self.conditions())?,
+        };
+        Ok(other
+            .with_composition(*self.composition())
+            .with_fits(*self.fits())
+            .with_fresh_options(*self.fresh_options()))
+    }
+}
+
+impl PreparedWater {
+    /// The water.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Medium, Water};
+    /// let p = Water::fresh(Conditions::new(12.0, 0.1)?)?.prepare()?;
+    /// assert_eq!(p.water().medium(), Medium::Fresh);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn water(&self) -> &Water {
+        &self.water
+    }
+
+    /// The constants: in saline water every constant; in fresh water those
+    /// at the starting ionic strength with all calcium free (a solve refines
+    /// both with the speciation), as [`Water::constants`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// assert!((-p.constants()?.k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    ///
+    /// # Errors
+    /// As [`Water::constants`].
+    pub fn constants(&self) -> Result<Constants> {
+        match &self.prepared {
+            Prepared::Saline(k) => Ok(k.clone()),
+            // Every constant, also those a solve of this water never reads.
+            Prepared::Fresh(_) => self.water.constants(),
+        }
+    }
+
+    /// The complete state from two measured parameters, with default options.
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// let s = p.solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.pco2_uatm - 402.75).abs() < 0.05); // worked value computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve(&self, a: Measured, b: Measured) -> Result<State> {
+        self.solve_with(a, b, &SolveOptions::default())
+    }
+
+    /// As [`PreparedWater::solve`], with options.
+    ///
+    /// # Errors
+    /// As [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, RootChoice, SolveOptions, Water};
+    /// // An invented fresh water of pH 11.43 (NBS) at 25 °C: alkalinity with
+    /// // CO3 fits it and a water near pH 8.4.
+    /// let p = Water::fresh(Conditions::new(25.0, 0.2)?)?.prepare()?;
+    /// let (ta, co3) = (Measured::alkalinity_umol_kg(3000.0)?, Measured::co3_umol_kg(39.97)?);
+    /// let high = p.solve_with(ta, co3, &SolveOptions::default().with_root(RootChoice::HigherPh))?;
+    /// assert!((high.ph_nbs - 11.43).abs() < 0.01);
+    /// let natural = p.solve(ta, co3)?;
+    /// assert!((natural.ph_nbs - 8.38).abs() < 0.01);
+    /// assert!(natural.warnings.iter().any(|w| w.to_string().contains("pH 11.4")));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        let basis = match &self.prepared {
+            Prepared::Saline(k) => Basis::Saline(k),
+            Prepared::Fresh(b) => Basis::Fresh(b),
+        };
+        solve_in(&self.water, basis, a, b, options)
+    }
+}
+
+impl State {
+    /// The same water at other conditions: alkalinity, DIC and the totals are
+    /// kept, and the state is solved again with the same medium and fits (an
+    /// automatic carbonic fit is fixed to the one this state used, with a
+    /// range warning if the new conditions lie outside it). For example, pH measured in the
+    /// laboratory at 25 °C reported at the in-situ 9 °C and 120 dbar.
+    ///
+    /// # Errors
+    /// As [`Water::at`] and [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let lab = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(7.9, None)?, Measured::alkalinity_umol_kg(2300.0)?)?;
+    /// let field = lab.at(Conditions::new(9.0, 35.0)?.with_pressure_dbar(120.0)?)?;
+    /// assert!((field.dic_umol_kg - lab.dic_umol_kg).abs() < 1e-9);
+    /// assert!(field.ph_total > lab.ph_total); // colder water, higher pH
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn at(&self, conditions: Conditions) -> Result<State> {
+        self.at_with(conditions, &SolveOptions::default())
+    }
+
+    /// As [`State::at`], with solve options (for example the precipitation
+    /// potential).
+    ///
+    /// # Errors
+    /// As [`Water::at`] and [`Water::solve`].
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, SolveOptions, Water};
+    /// # use travertine::{units::Amount, sample::Composition};
+    /// let well = Water::fresh(Conditions::new(12.0, 0.3)?)?
+    ///     .with_composition(Composition::default().with_calcium(Amount::PerKg(1.5e-3))?)
+    ///     .solve(Measured::ph(7.1, None)?, Measured::alkalinity_umol_kg(3600.0)?)?;
+    /// let options = SolveOptions::default().with_precipitation_potential(true);
+    /// let warm = well.at_with(Conditions::new(25.0, 0.3)?, &options)?;
+    /// assert!(warm.precipitation_potential_mg_l_caco3.is_some());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn at_with(&self, conditions: Conditions, options: &SolveOptions) -> Result<State> {
+        let mut water = self.water_sample().at(conditions)?;
+        // The measured state's model is kept: an automatic carbonic fit
+        // becomes the one the measured state used, so that the default
+        // cannot switch fits between the two states.
+        if water.medium() == Medium::Saline && water.fits().carbonic.is_none() {
+            if let Ok(fit) = self.constants.carbonic.as_str().parse::<CarbonicFit>() {
+                let fits = water.fits().with_carbonic(fit);
+                water = water.with_fits(fits);
+            }
+        }
+        water.solve_with(
+            Measured::alkalinity_umol_kg(self.alkalinity_umol_kg)?,
+            Measured::dic_umol_kg(self.dic_umol_kg)?,
+            options,
+        )
+    }
+}
+
+/// The constants of `water`, or the basis of its fresh-water constants.
+fn prepared(water: &Water) -> Result<Prepared> {
+    Ok(match water.medium() {
+        Medium::Saline => Prepared::Saline(Constants::saline(
+            water.conditions(),
+            water.composition(),
+            water.fits(),
+        )?),
+        Medium::Fresh => Prepared::Fresh(FreshBasis::new(water, false)?),
+    })
+}
+
+/// The state of `water`, prepared as `prepared`, from a measured pair: the
+/// one solver in both media, then the comparison of the media in their
+/// overlap.
+#[inline(always)]
+fn solve_in(
+    water: &Water,
+    basis: Basis,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Result<State> {
+    let (lo, hi) = MEDIA_OVERLAP_SALINITY;
+    let in_overlap = (lo..=hi).contains(&water.conditions().salinity());
+    if !(options.compare_media && in_overlap) {
+        // Returned as built: a state is a large value to copy.
+        return solve_once(water, basis, a, b, options);
+    }
+    let mut result = solve_once(water, basis, a, b, options);
+    if let Ok(state) = &mut result {
+        if let Some(w) = media_caution(water, state, a, b, options) {
+            state.warnings.push(w);
+        }
+    }
+    result
+}
+
+/// The state of `water` from a measured pair by the one solver.
+#[inline(always)]
+fn solve_once(
+    water: &Water,
+    basis: Basis,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Result<State> {
+    match basis {
+        Basis::Saline(k) => match solve(k, &a, &b, options) {
+            Ok(sol) => State::build(water, k, sol.h, sol.dic, sol.warnings, (&a, &b)),
+            Err(e) => Err(e),
+        },
+        Basis::Fresh(basis) => solve_fresh(water, basis, a, b, options),
+    }
+}
+
+/// The state of `water`, a fresh water with basis `basis`, from a measured
+/// pair: the pair settled at its own ionic strength and free calcium, then
+/// the state at exactly the constants it settled with.
+fn solve_fresh(
+    water: &Water,
+    basis: &FreshBasis,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Result<State> {
+    let settled = basis.settle_pair(&a, &b, options.root)?;
+    let mut k = basis.constants_of(&settled);
+    let Solution {
+        h,
+        dic,
+        mut warnings,
+    } = settled.sol;
+    k.warnings = basis.warnings.clone();
+    add_route_warnings(water, basis.route, k.ionic_strength, &mut warnings);
+    let extras = basis.extras(&k, h, dic, options, &mut warnings);
+    State::build_fresh(water, &k, h, dic, warnings, extras, (&a, &b))
+}
+
+/// In the overlap of the two media (the caller checks the salinity), the
+/// same sample solved in the other medium; a caution with the figure where pCO2 differs by more than
+/// [`MEDIA_PCO2_CAUTION`]. A pH with its scale unstated keeps the scale it
+/// had in this medium (NBS in fresh water, total in saline).
+fn media_caution(
+    water: &Water,
+    state: &State,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Option<Warning> {
+    let s = water.conditions().salinity();
+    let scale = match water.medium() {
+        Medium::Fresh => PhScale::Nbs,
+        _ => PhScale::Total,
+    };
+    let stated = |m: Measured| match m.parameter() {
+        Parameter::Ph => m.with_scale_if_unstated(scale),
+        _ => m,
+    };
+    let other = water.in_other_medium().ok()?;
+    let quiet = options.with_media_comparison(false);
+    let there = other.solve_with(stated(a), stated(b), &quiet).ok()?;
+    let difference = there.pco2_uatm / state.pco2_uatm - 1.0;
+    (difference.abs() > MEDIA_PCO2_CAUTION).then(|| Warning::MediaDisagree {
+        salinity: s,
+        other: other.medium().name(),
+        pco2_uatm: there.pco2_uatm,
+        percent: 100.0 * difference,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_prepared_water_can_be_shared_between_threads() {
+        fn shareable<T: Send + Sync>() {}
+        shareable::<PreparedWater>();
+    }
+}

@@ -1,0 +1,251 @@
+//! The speciation-independent part of a fresh water's constants, and the
+//! apparent constants at an ionic strength and free calcium.
+
+use super::ionic::{fixed_ionic_strength, ion_sum, route};
+use super::FreshBasis;
+use crate::base::error::Result;
+use crate::base::warning::Warning;
+use crate::fits::thermodynamic as pb;
+use crate::fits::{nutrients, sulfate, sulfide, FitName, FitsUsed};
+use crate::medium::Constants;
+use crate::properties::activity::Gammas;
+use crate::properties::density::density_kg_m3;
+use crate::properties::scales::PhScale;
+use crate::sample::water::Water;
+use crate::sample::Totals;
+
+impl FreshBasis {
+    /// The basis of `water`, a fresh water. With `every_constant` false,
+    /// the constants of acid systems whose total is zero, and the calcium
+    /// constants without calcium, are not evaluated and hold 0 (as in
+    /// saline water); a solve never reads them.
+    pub(crate) fn new(water: &Water, every_constant: bool) -> Result<Self> {
+        let c = water.conditions();
+        let t_c = c.temperature_c();
+        let t = c.temperature_k();
+        let mut warnings = Vec::new();
+        let density = density_kg_m3(c.salinity(), t_c)?;
+        let rho_w = density_kg_m3(0.0, t_c)? / 1000.0;
+        let totals = water.composition().fresh_totals(density);
+        pb::PLUMMER_BUSENBERG1982_RANGE.check_for(
+            "K0, K1, K2, calcite and aragonite",
+            t_c,
+            0.0,
+            &mut warnings,
+        );
+        pb::HARNED_OWEN_RANGE.check_for("KW", t_c, 0.0, &mut warnings);
+        if totals.calcium_mol_kg > 0.0 {
+            pb::CAHCO3_RANGE.check_for("CaHCO3+ pair", t_c, 0.0, &mut warnings);
+            pb::CACO3_RANGE.check_for("CaCO3 pair", t_c, 0.0, &mut warnings);
+        }
+        if totals.ammonia_mol_kg > 0.0 {
+            pb::EMERSON1975_RANGE.check_for("KNH4", t_c, 0.0, &mut warnings);
+        }
+        let p10 = crate::base::numeric::pow10;
+        // A constant whose total is zero is not evaluated (it stays 0, as in
+        // saline water): each costs an exponential per prepared water.
+        let given = |total: f64, k: &dyn Fn() -> f64| {
+            if every_constant || total > 0.0 {
+                k()
+            } else {
+                0.0
+            }
+        };
+        let kp = if every_constant || totals.phosphate_mol_kg > 0.0 {
+            let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
+            (lp1.exp(), lp2.exp(), lp3.exp())
+        } else {
+            (0.0, 0.0, 0.0)
+        };
+        let calcium = totals.calcium_mol_kg;
+        let model = water.fresh_options().activity;
+        let route = route(water);
+        let mut b = FreshBasis {
+            conditions: *c,
+            model,
+            dh_a: crate::properties::activity::debye_huckel_a(t_c, rho_w),
+            dh_b: crate::properties::activity::debye_huckel_b(t_c, rho_w),
+            kh: p10(pb::log_kh(t)),
+            k1: p10(pb::log_k1(t)),
+            k2: p10(pb::log_k2(t)),
+            kw: p10(pb::log_kw(t)),
+            // Pure-water limits (S = 0) of the sea-water fits.
+            kb: given(totals.boron_mol_kg, &|| {
+                crate::fits::boron::dickson1990_ln_kb(t, 0.0).exp()
+            }),
+            kp,
+            ksi: given(totals.silicate_mol_kg, &|| {
+                nutrients::millero1995_ln_ksi(t, 0.0).exp()
+            }),
+            ks: given(totals.sulfate_mol_kg, &|| {
+                sulfate::dickson1990_ln_ks(t, 0.0).exp()
+            }),
+            kf: given(totals.fluoride_mol_kg, &|| (1590.2 / t - 12.641).exp()),
+            knh4: given(totals.ammonia_mol_kg, &|| p10(-pb::emerson1975_pka(t))),
+            kh2s: given(totals.sulfide_mol_kg, &|| {
+                p10(-sulfide::millero1988_pk1(t, 0.0))
+            }),
+            ksp_calcite: given(calcium, &|| p10(pb::log_ksp_calcite(t))),
+            ksp_aragonite: given(calcium, &|| p10(pb::log_ksp_aragonite(t))),
+            k_cahco3: given(calcium, &|| p10(pb::log_k_cahco3(t))),
+            k_caco3: given(calcium, &|| p10(pb::log_k_caco3(t))),
+            fugacity_factor: crate::fits::gas::weiss1974_fugacity_factor(t, c.air_pressure_atm()),
+            vapour_pressure_atm: crate::fits::gas::weiss_price1980_vapour_pressure_atm(t, 0.0),
+            density,
+            totals,
+            fits_used: fresh_fits_used(&totals, model),
+            route,
+            fixed_i: fixed_ionic_strength(water, route),
+            i_start: 0.0,
+            warnings,
+        };
+        let p_bar = c.pressure_bar();
+        if p_bar > 0.0 {
+            use crate::fits::pressure::*;
+            let f = |k: &PressureCoefficients| pressure_factor(k, t_c, p_bar);
+            b.k1 *= f(&K1);
+            b.k2 *= f(&K2);
+            b.kw *= f(&KW);
+            b.kb *= f(&KB);
+            b.kp = (b.kp.0 * f(&KP1), b.kp.1 * f(&KP2), b.kp.2 * f(&KP3));
+            b.ksi *= f(&KSI);
+            b.ks *= f(&KS);
+            b.kf *= f(&KF);
+            b.knh4 *= f(&KNH4);
+            b.kh2s *= f(&KH2S);
+            b.ksp_calcite *= f(&CALCITE);
+            b.ksp_aragonite *= f(&ARAGONITE);
+            b.warnings.push(Warning::Note {
+                code: "fresh_pressure_sea_water_coefficients",
+                text: "fresh water under pressure: the Millero (1995) corrections use sea-water \
+                 coefficients",
+            });
+        }
+        // Where the ions give the ionic strength, start from the ions given
+        // (with all calcium free) and no carbon.
+        if b.fixed_i.is_none() {
+            let ca = b.totals.calcium_mol_kg;
+            b.i_start = ion_sum(&b.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
+        }
+        Ok(b)
+    }
+
+    /// Apparent constants at ionic strength `i`, free calcium `ca_free` and
+    /// total calcium `ca_total` (mol/kg), without the range warnings.
+    pub(crate) fn constants_at(&self, i: f64, ca_free: f64, ca_total: f64) -> Constants {
+        let g = Gammas::from_coefficients(self.model, self.dh_a, self.dh_b, i);
+        let (g1, g2, g3, gh, gca) = (
+            g.monovalent,
+            g.carbonate,
+            g.trivalent,
+            g.hydrogen,
+            g.calcium,
+        );
+        let k1 = self.k1 / g1;
+        let k2 = self.k2 * g1 / g2;
+        let k_cahco3 = self.k_cahco3 * gca;
+        let k_caco3 = self.k_caco3 * gca * g2;
+        let mut t = self.totals;
+        t.calcium_mol_kg = ca_total;
+        let on = |total: f64, k: f64| if total > 0.0 { k } else { 0.0 };
+        // Concentration constants on free [H+]: [H][SO4]/[HSO4] = KS γ1/(γH γ2),
+        // [H][F]/[HF] = KF/(γH γ1).
+        let ks_free = self.ks * g1 / (gh * g2);
+        let kf_free = self.kf / (gh * g1);
+        // [HSO4-]/[SO4--] and [HF]/[F-] per unit free [H+] (0 without them).
+        let per = |total: f64, k: f64| if total > 0.0 { total / k } else { 0.0 };
+        let sulfate = per(self.totals.sulfate_mol_kg, ks_free);
+        let fluoride = per(self.totals.fluoride_mol_kg, kf_free);
+        let mut k = Constants {
+            conditions: self.conditions,
+            working_scale: PhScale::Nbs,
+            k0: self.kh,
+            k1,
+            k2,
+            // Set with the free calcium below.
+            k1e: k1,
+            k2e: k2,
+            pair_hco3: 0.0,
+            pair_co3: 0.0,
+            calcium_free_mol_kg: 0.0,
+            ionic_strength: i,
+            kb: on(t.boron_mol_kg, self.kb / g1),
+            kw: self.kw / g1,
+            kp1: on(t.phosphate_mol_kg, self.kp.0 / g1),
+            kp2: on(t.phosphate_mol_kg, self.kp.1 * g1 / g2),
+            kp3: on(t.phosphate_mol_kg, self.kp.2 * g2 / g3),
+            ksi: on(t.silicate_mol_kg, self.ksi / g1),
+            knh4: on(t.ammonia_mol_kg, self.knh4 * g1),
+            kh2s: on(t.sulfide_mol_kg, self.kh2s / g1),
+            ks_free,
+            kf_free,
+            ksp_calcite: self.ksp_calcite / (gca * g2),
+            ksp_aragonite: self.ksp_aragonite / (gca * g2),
+            totals: t,
+            free_per_working: 1.0 / gh,
+            // Defined as in sea water, from the free [H+] and the sulfate and
+            // fluoride given (equal to the free scale when there are none).
+            seawater_per_working: (1.0 + sulfate + fluoride) / gh,
+            total_per_working: (1.0 + sulfate) / gh,
+            nbs_per_working: 1.0,
+            fugacity_factor: self.fugacity_factor,
+            vapour_pressure_atm: self.vapour_pressure_atm,
+            density_kg_m3: self.density,
+            fits_used: self.fits_used,
+            // Attached only to the constants a caller sees (not on every
+            // trial of a fixed point, where it would allocate).
+            warnings: Vec::new(),
+            gammas: Some(g),
+            k_cahco3,
+            k_caco3,
+            logs: None,
+        };
+        k.set_free_calcium(ca_free);
+        k
+    }
+
+    /// The constants at the first ionic strength of a solve, with all
+    /// calcium free, and the range warnings: what [`Water::constants`]
+    /// returns for a fresh water.
+    pub(crate) fn starting_constants(&self) -> Constants {
+        let ca = self.totals.calcium_mol_kg;
+        let mut k = self.constants_at(self.fixed_i.unwrap_or(self.i_start), ca, ca);
+        k.warnings = self.warnings.clone();
+        k
+    }
+}
+
+pub(crate) fn fresh_fits_used(
+    t: &Totals,
+    activity: crate::properties::activity::ActivityModel,
+) -> FitsUsed {
+    let pb = FitName::PlummerBusenberg1982;
+    let given = |total: f64| {
+        if total > 0.0 {
+            FitName::Measured
+        } else {
+            FitName::NoneGiven
+        }
+    };
+    FitsUsed {
+        k0: pb,
+        fugacity: FitName::Weiss1974,
+        vapour_pressure: FitName::WeissPrice1980,
+        carbonic: pb,
+        boric: FitName::Dickson1990AtS0,
+        boron_total: given(t.boron_mol_kg),
+        water: FitName::HarnedOwen1958,
+        bisulfate: FitName::Dickson1990AtS0,
+        sulfate_total: given(t.sulfate_mol_kg),
+        fluoride: FitName::DicksonRiley1979AtS0,
+        fluoride_total: given(t.fluoride_mol_kg),
+        phosphate_silicate: FitName::Millero1995AtS0,
+        ammonium: FitName::Emerson1975,
+        sulfide: FitName::Millero1988AtS0,
+        minerals: pb,
+        calcium: given(t.calcium_mol_kg),
+        pressure: FitName::Millero1995,
+        nbs_scale: activity.into(),
+        density: FitName::MilleroPoisson1981,
+    }
+}

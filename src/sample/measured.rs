@@ -1,0 +1,512 @@
+//! Measured carbonate parameters, validated at construction.
+
+use crate::base::error::{check_range, Error, Result};
+use crate::base::units::{list_units, units_with, Amount, Quantity, Unit};
+use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
+use crate::properties::scales::PhScale;
+use serde::Serialize;
+
+/// Which carbonate parameter was measured.
+///
+/// ```
+/// use travertine::Parameter;
+/// assert_eq!(Parameter::Pco2.name(), "pco2");
+/// assert!(Parameter::Xco2.is_gas());
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
+#[serde(rename_all = "lowercase")]
+#[non_exhaustive]
+pub enum Parameter {
+    /// Total alkalinity.
+    Alkalinity,
+    /// Dissolved inorganic carbon.
+    Dic,
+    /// pH (on a stated scale).
+    Ph,
+    /// Partial pressure of CO2 in air in equilibrium with the water.
+    Pco2,
+    /// Fugacity of CO2.
+    Fco2,
+    /// Mole fraction of CO2 in dry air in equilibrium with the water.
+    Xco2,
+    /// Dissolved CO2 plus H2CO3 (CO2*).
+    Co2,
+    /// Bicarbonate.
+    Hco3,
+    /// Carbonate.
+    Co3,
+}
+
+impl Parameter {
+    /// Every parameter.
+    pub const ALL: [Parameter; 9] = [
+        Parameter::Alkalinity,
+        Parameter::Dic,
+        Parameter::Ph,
+        Parameter::Pco2,
+        Parameter::Fco2,
+        Parameter::Xco2,
+        Parameter::Co2,
+        Parameter::Hco3,
+        Parameter::Co3,
+    ];
+
+    /// The plain name, as on the command line (without the dashes).
+    ///
+    /// ```
+    /// # use travertine::Parameter;
+    /// assert_eq!(Parameter::Hco3.name(), "hco3");
+    /// ```
+    pub fn name(self) -> &'static str {
+        match self {
+            Parameter::Alkalinity => "alkalinity",
+            Parameter::Dic => "dic",
+            Parameter::Ph => "ph",
+            Parameter::Pco2 => "pco2",
+            Parameter::Fco2 => "fco2",
+            Parameter::Xco2 => "xco2",
+            Parameter::Co2 => "co2",
+            Parameter::Hco3 => "hco3",
+            Parameter::Co3 => "co3",
+        }
+    }
+
+    /// pCO2, fCO2, xCO2 and CO2* all fix the dissolved CO2: they carry the
+    /// same information.
+    ///
+    /// ```
+    /// # use travertine::Parameter;
+    /// assert!(Parameter::Co2.is_gas() && !Parameter::Dic.is_gas());
+    /// ```
+    pub fn is_gas(self) -> bool {
+        matches!(
+            self,
+            Parameter::Pco2 | Parameter::Fco2 | Parameter::Xco2 | Parameter::Co2
+        )
+    }
+
+    /// The units this parameter accepts.
+    ///
+    /// ```
+    /// # use travertine::{Parameter, units::Unit};
+    /// assert!(Parameter::Alkalinity.accepted_units().contains(&Unit::MgPerLCaCO3));
+    /// assert!(Parameter::Ph.accepted_units().is_empty());
+    /// ```
+    pub fn accepted_units(self) -> Vec<Unit> {
+        match self {
+            Parameter::Alkalinity => units_with(Unit::MgPerLCaCO3),
+            Parameter::Dic => units_with(Unit::MgPerLC),
+            Parameter::Co2 => units_with(Unit::MgPerLCO2),
+            Parameter::Hco3 => units_with(Unit::MgPerLHCO3),
+            Parameter::Co3 => units_with(Unit::MgPerLCO3),
+            Parameter::Pco2 | Parameter::Fco2 => vec![Unit::Uatm, Unit::Atm, Unit::Pa, Unit::KPa],
+            Parameter::Xco2 => vec![Unit::Ppm],
+            Parameter::Ph => Vec::new(),
+        }
+    }
+
+    /// Whether this parameter accepts `unit` (no allocation).
+    ///
+    /// ```
+    /// # use travertine::{Parameter, units::Unit};
+    /// assert!(Parameter::Dic.accepts(Unit::MgPerLC));
+    /// assert!(!Parameter::Dic.accepts(Unit::MgPerLCaCO3));
+    /// ```
+    pub fn accepts(self, unit: Unit) -> bool {
+        match self {
+            Parameter::Ph => false,
+            Parameter::Pco2 | Parameter::Fco2 => {
+                matches!(unit, Unit::Uatm | Unit::Atm | Unit::Pa | Unit::KPa)
+            }
+            Parameter::Xco2 => unit == Unit::Ppm,
+            _ => crate::base::units::MOLAR_UNITS.contains(&unit) || unit == self.mass_unit().0,
+        }
+    }
+
+    fn mass_unit(self) -> (Unit, f64) {
+        match self {
+            Parameter::Alkalinity => (Unit::MgPerLCaCO3, CACO3_G_EQ),
+            Parameter::Dic => (Unit::MgPerLC, C_G_MOL),
+            Parameter::Co2 => (Unit::MgPerLCO2, CO2_G_MOL),
+            Parameter::Hco3 => (Unit::MgPerLHCO3, HCO3_G_MOL),
+            Parameter::Co3 => (Unit::MgPerLCO3, CO3_G_MOL),
+            _ => (Unit::MgPerLC, 1.0),
+        }
+    }
+
+    /// Accepted range in µmol/kg (concentrations), µatm (pCO2, fCO2), ppm
+    /// (xCO2) or pH units.
+    ///
+    /// ```
+    /// # use travertine::Parameter;
+    /// assert_eq!(Parameter::Ph.accepted_range(), (0.0, 14.0));
+    /// ```
+    pub fn accepted_range(self) -> (f64, f64) {
+        match self {
+            Parameter::Alkalinity => (0.0, 100_000.0),
+            Parameter::Dic => (1e-3, 100_000.0),
+            Parameter::Co2 | Parameter::Hco3 | Parameter::Co3 => (1e-6, 100_000.0),
+            Parameter::Pco2 | Parameter::Fco2 | Parameter::Xco2 => (1e-2, 1e6),
+            Parameter::Ph => (0.0, 14.0),
+        }
+    }
+
+    fn range_unit(self) -> &'static str {
+        match self {
+            Parameter::Pco2 | Parameter::Fco2 => " µatm",
+            Parameter::Xco2 => " ppm",
+            Parameter::Ph => "",
+            _ => " µmol/kg",
+        }
+    }
+}
+
+/// The value of a measured parameter in base units.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub(crate) enum Value {
+    /// mol/kg or mol/L (eq for alkalinity).
+    Amount(Amount),
+    /// pH and its scale (`None`: the medium's default).
+    Ph(f64, Option<PhScale>),
+    /// atm.
+    Atm(f64),
+    /// Mole fraction in dry air.
+    MoleFraction(f64),
+}
+
+/// One measured carbonate parameter with its value, validated.
+///
+/// # Example
+/// ```
+/// use travertine::{Measured, Parameter};
+/// let ta = Measured::parse(Parameter::Alkalinity, "120 mg/L as CaCO3")?;
+/// assert_eq!(ta.parameter(), Parameter::Alkalinity);
+/// assert!(Measured::parse(Parameter::Alkalinity, "120").is_err()); // no unit
+/// assert!(Measured::ph(20.0, None).is_err());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Measured {
+    parameter: Parameter,
+    value: Value,
+}
+
+impl Measured {
+    /// A measured parameter from a quantity with its unit.
+    ///
+    /// # Errors
+    /// [`Error::WrongUnit`] for a unit the parameter does not accept;
+    /// [`Error::OutOfRange`] or [`Error::NotFinite`] for a bad value.
+    /// For pH use [`Measured::ph`].
+    ///
+    /// ```
+    /// # use travertine::{Measured, Parameter, units::{Quantity, Unit}};
+    /// let m = Measured::new(Parameter::Pco2, Quantity::new(410.0, Unit::Uatm))?;
+    /// assert_eq!(m.parameter(), Parameter::Pco2);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn new(parameter: Parameter, quantity: Quantity) -> Result<Self> {
+        let field = parameter.name();
+        if !parameter.accepts(quantity.unit) {
+            let accepted = parameter.accepted_units();
+            return Err(Error::WrongUnit {
+                field,
+                unit: quantity.unit.spelling().to_string(),
+                accepted: if accepted.is_empty() {
+                    "a plain number".to_string()
+                } else {
+                    list_units(&accepted)
+                },
+            });
+        }
+        if !quantity.value.is_finite() {
+            return Err(Error::NotFinite {
+                field,
+                value: quantity.value,
+            });
+        }
+        let (min, max) = parameter.accepted_range();
+        let unit = parameter.range_unit();
+        let value = match parameter {
+            Parameter::Pco2 | Parameter::Fco2 => {
+                let atm = match quantity.unit {
+                    Unit::Uatm => quantity.value * 1e-6,
+                    Unit::Atm => quantity.value,
+                    Unit::Pa => quantity.value / 101_325.0,
+                    _ => quantity.value * 1000.0 / 101_325.0,
+                };
+                check_range(field, atm * 1e6, min, max, unit)?;
+                Value::Atm(atm)
+            }
+            Parameter::Xco2 => {
+                check_range(field, quantity.value, min, max, unit)?;
+                Value::MoleFraction(quantity.value * 1e-6)
+            }
+            _ => {
+                let (mass_unit, g) = parameter.mass_unit();
+                let amount = Amount::from_quantity(quantity, mass_unit, g).ok_or_else(|| {
+                    Error::WrongUnit {
+                        field,
+                        unit: quantity.unit.spelling().to_string(),
+                        accepted: list_units(&parameter.accepted_units()),
+                    }
+                })?;
+                check_range(field, amount.raw() * 1e6, min, max, unit)?;
+                Value::Amount(amount)
+            }
+        };
+        Ok(Self { parameter, value })
+    }
+
+    /// Parses text such as "2300umol/kg", "120 mg/L CaCO3" or, for pH, "8.1".
+    ///
+    /// # Errors
+    /// As [`Quantity::parse`] and [`Measured::new`].
+    ///
+    /// ```
+    /// # use travertine::{Measured, Parameter};
+    /// assert!(Measured::parse(Parameter::Dic, "2.1 mmol/kg").is_ok());
+    /// assert!(Measured::parse(Parameter::Ph, "7.9").is_ok());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn parse(parameter: Parameter, text: &str) -> Result<Self> {
+        if parameter == Parameter::Ph {
+            let v: f64 = text.trim().parse().map_err(|_| Error::NotANumber {
+                field: "ph",
+                text: text.to_string(),
+            })?;
+            return Measured::ph(v, None);
+        }
+        let q = Quantity::parse(parameter.name(), text, &parameter.accepted_units())?;
+        Measured::new(parameter, q)
+    }
+
+    /// A pH on a scale; `None` takes the medium's default scale (total in
+    /// saline water).
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 0 to 14, [`Error::NotFinite`] for NaN.
+    ///
+    /// ```
+    /// # use travertine::{Measured, PhScale};
+    /// assert!(Measured::ph(8.05, Some(PhScale::Total)).is_ok());
+    /// assert!(Measured::ph(-1.0, None).is_err());
+    /// ```
+    pub fn ph(value: f64, scale: Option<PhScale>) -> Result<Self> {
+        let (min, max) = Parameter::Ph.accepted_range();
+        check_range("ph", value, min, max, "")?;
+        Ok(Self {
+            parameter: Parameter::Ph,
+            value: Value::Ph(value, scale),
+        })
+    }
+
+    /// Total alkalinity in µmol/kg.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 0 to 100 000 µmol/kg.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::alkalinity_umol_kg(2300.0).is_ok());
+    /// assert!(Measured::alkalinity_umol_kg(-5.0).is_err());
+    /// ```
+    pub fn alkalinity_umol_kg(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Alkalinity, Quantity::new(value, Unit::UmolPerKg))
+    }
+
+    /// DIC in µmol/kg.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 0.001 to 100 000 µmol/kg.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::dic_umol_kg(2000.0).is_ok());
+    /// ```
+    pub fn dic_umol_kg(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Dic, Quantity::new(value, Unit::UmolPerKg))
+    }
+
+    /// pCO2 in µatm.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 0.01 to 1 000 000 µatm.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::pco2_uatm(410.0).is_ok());
+    /// ```
+    pub fn pco2_uatm(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Pco2, Quantity::new(value, Unit::Uatm))
+    }
+
+    /// fCO2 in µatm.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 0.01 to 1 000 000 µatm.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::fco2_uatm(400.0).is_ok());
+    /// ```
+    pub fn fco2_uatm(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Fco2, Quantity::new(value, Unit::Uatm))
+    }
+
+    /// xCO2 of dry air in ppm.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 0.01 to 1 000 000 ppm.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::xco2_ppm(420.0).is_ok());
+    /// ```
+    pub fn xco2_ppm(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Xco2, Quantity::new(value, Unit::Ppm))
+    }
+
+    /// Dissolved CO2* in µmol/kg.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 1e-6 to 100 000 µmol/kg.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::co2_umol_kg(11.4).is_ok());
+    /// ```
+    pub fn co2_umol_kg(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Co2, Quantity::new(value, Unit::UmolPerKg))
+    }
+
+    /// Bicarbonate in µmol/kg.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 1e-6 to 100 000 µmol/kg.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::hco3_umol_kg(1777.7).is_ok());
+    /// ```
+    pub fn hco3_umol_kg(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Hco3, Quantity::new(value, Unit::UmolPerKg))
+    }
+
+    /// Carbonate in µmol/kg.
+    ///
+    /// # Errors
+    /// [`Error::OutOfRange`] outside 1e-6 to 100 000 µmol/kg.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert!(Measured::co3_umol_kg(210.9).is_ok());
+    /// ```
+    pub fn co3_umol_kg(value: f64) -> Result<Self> {
+        Measured::new(Parameter::Co3, Quantity::new(value, Unit::UmolPerKg))
+    }
+
+    /// A concentration parameter (alkalinity, DIC, CO2*, HCO3-, CO3--)
+    /// from mol/kg, checked against its accepted range: the internal route
+    /// for derived solves, which hold their amounts in mol/kg.
+    pub(crate) fn per_kg(parameter: Parameter, mol_kg: f64) -> Result<Self> {
+        Measured::new(parameter, Quantity::new(mol_kg * 1e6, Unit::UmolPerKg))
+    }
+
+    /// A pH whose scale is unstated, given `scale`; anything else unchanged.
+    pub(crate) fn with_scale_if_unstated(self, scale: PhScale) -> Self {
+        match self.value {
+            Value::Ph(v, None) => Self {
+                value: Value::Ph(v, Some(scale)),
+                ..self
+            },
+            _ => self,
+        }
+    }
+
+    /// Which parameter this is.
+    ///
+    /// ```
+    /// # use travertine::{Measured, Parameter};
+    /// assert_eq!(Measured::dic_umol_kg(2000.0)?.parameter(), Parameter::Dic);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn parameter(&self) -> Parameter {
+        self.parameter
+    }
+
+    pub(crate) fn value(&self) -> Value {
+        self.value
+    }
+
+    /// The value as a user would read it, with its unit.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert_eq!(Measured::dic_umol_kg(2000.0)?.describe(), "2000 µmol/kg");
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn describe(&self) -> String {
+        match self.value {
+            Value::Amount(Amount::PerKg(v)) => format!("{} µmol/kg", round_sig(v * 1e6)),
+            Value::Amount(Amount::PerLitre(v)) => format!("{} µmol/L", round_sig(v * 1e6)),
+            Value::Ph(v, Some(s)) => format!("{v} ({})", s.name()),
+            Value::Ph(v, None) => format!("{v}"),
+            Value::Atm(v) => format!("{} µatm", round_sig(v * 1e6)),
+            Value::MoleFraction(v) => format!("{} ppm", round_sig(v * 1e6)),
+        }
+    }
+}
+
+fn round_sig(v: f64) -> f64 {
+    if v == 0.0 || !v.is_finite() {
+        return v;
+    }
+    let mag = 10f64.powi(8 - v.abs().log10().floor() as i32);
+    (v * mag).round() / mag
+}
+
+/// Checks that a pair can be used together: two different parameters, not
+/// two that fix the same dissolved CO2. The one statement of the rule; the
+/// command line and the sheet call it too.
+///
+/// # Errors
+/// [`Error::IncompatiblePair`] naming both parameters and why.
+///
+/// ```
+/// use travertine::sample::measured::check_pair;
+/// use travertine::Measured;
+/// let a = Measured::pco2_uatm(400.0)?;
+/// assert!(check_pair(&a, &Measured::fco2_uatm(398.0)?).is_err());
+/// assert!(check_pair(&a, &Measured::alkalinity_umol_kg(2300.0)?).is_ok());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn check_pair(a: &Measured, b: &Measured) -> Result<()> {
+    let (pa, pb) = (a.parameter(), b.parameter());
+    if pa == pb {
+        return Err(Error::IncompatiblePair {
+            first: pa.name(),
+            second: pb.name(),
+            reason: "the same parameter twice is one measurement, and two are needed",
+        });
+    }
+    if pa.is_gas() && pb.is_gas() {
+        return Err(Error::IncompatiblePair {
+            first: pa.name(),
+            second: pb.name(),
+            reason: "pCO2, fCO2, xCO2 and CO2* carry the same information (each fixes the \
+                     dissolved CO2); pair one of them with alkalinity, DIC, pH, HCO3 or CO3",
+        });
+    }
+    Ok(())
+}
+
+/// Whether a pair can fit two waters (alkalinity with CO3, DIC with HCO3).
+pub(crate) fn is_two_root_pair(a: &Measured, b: &Measured) -> bool {
+    let mut p = [a.parameter(), b.parameter()];
+    p.sort();
+    matches!(
+        p,
+        [Parameter::Alkalinity, Parameter::Co3] | [Parameter::Dic, Parameter::Hco3]
+    )
+}

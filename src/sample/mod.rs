@@ -1,0 +1,15 @@
+//! The sample: its conditions, its composition, the measured carbonate
+//! parameters with the rules for a valid pair, and the [`Water`] they make.
+//! [`Sample`] takes the same in trade units.
+
+pub mod composition;
+pub mod conditions;
+pub mod measured;
+pub mod trade;
+pub mod water;
+
+pub use composition::{Composition, Totals};
+pub use conditions::Conditions;
+pub use measured::{Measured, Parameter};
+pub use trade::{Conductivity, MediumChoice, Sample};
+pub use water::{Medium, Water};

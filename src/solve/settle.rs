@@ -1,0 +1,300 @@
+//! The fixed point around the shared solver: the free calcium inside the
+//! ionic strength, and both roots of a two-root pair settled apart.
+
+use super::fixed_point::{fixed_point, Bracket, Failure};
+use super::{solve, RootChoice, Solution, SolveOptions};
+use crate::base::error::{Error, Result};
+use crate::base::warning::Warning;
+use crate::medium::fresh::ionic::ion_sum;
+use crate::medium::fresh::FreshBasis;
+use crate::medium::Constants;
+use crate::properties::scales::PhScale;
+use crate::sample::measured::is_two_root_pair;
+use crate::sample::measured::Measured;
+use crate::speciation::calcium::{free_calcium, free_ion_pairs};
+
+impl FreshBasis {
+    /// The fixed point of a solve: the shared solver at the apparent
+    /// constants of (I, Ca), until the free calcium and the ionic strength
+    /// are those of its (h, DIC). `held_i` holds the ionic strength (the
+    /// derived figures hold the sample's); `pair` gives the measured pair at
+    /// the current constants (the saturation pH asks for the CO3 that
+    /// saturates the current free calcium). Returns the last solve with the
+    /// ionic strength and free calcium it was made at, from which
+    /// [`FreshBasis::constants_of`] gives exactly its constants.
+    ///
+    /// Where the ions give the ionic strength, it is the outer unknown and
+    /// the free calcium the inner one, each a one-dimensional fixed point
+    /// ([`fixed_point`]). A solve that fails on the way (the pair fits no
+    /// water at that ionic strength) steps back towards the last ionic
+    /// strength that solved; before any has, ionic strengths ever further
+    /// from the first (that of the ions given, without carbon) are tried on
+    /// either side.
+    pub(crate) fn settle<F>(
+        &self,
+        ca_total: f64,
+        held_i: Option<f64>,
+        start_calcium: Option<f64>,
+        root: RootChoice,
+        pair: F,
+    ) -> Result<Settled>
+    where
+        F: Fn(&Constants) -> Result<(Measured, Measured)>,
+    {
+        let options = SolveOptions {
+            // The other root of a two-root pair is settled on its own.
+            report_other_root: root == RootChoice::Natural,
+            ..SolveOptions::default().with_root(root)
+        };
+        let calcium = std::cell::Cell::new(start_calcium);
+        let from_ions = held_i.is_none() && self.fixed_i.is_none();
+        let at =
+            |i: f64| self.settle_calcium(ca_total, i, calcium.get(), &options, &pair, from_ions);
+        let settled = match held_i.or(self.fixed_i) {
+            Some(i) => at(i),
+            None => {
+                let bracket = Bracket {
+                    lo: Some(0.0),
+                    hi: None,
+                    failure: Failure::Unknown,
+                    floor: 1e-12,
+                };
+                let mut last = None;
+                fixed_point(self.i_start, bracket, |i| {
+                    let settled = last.insert(at(i)?);
+                    calcium.set(Some(settled.ca));
+                    Ok((settled.ions, ()))
+                })?;
+                last.ok_or(Error::NoConvergence {
+                    first: "ionic strength",
+                    second: "free calcium",
+                    iterations: 0,
+                })
+            }
+        };
+        // A fixed point that did not settle names the measured pair.
+        settled.map_err(|e| match e {
+            Error::NoConvergence { iterations, .. } => {
+                match pair(&self.constants_at(self.i_start, ca_total, ca_total)) {
+                    Ok((a, b)) => Error::NoConvergence {
+                        first: a.parameter().name(),
+                        second: b.parameter().name(),
+                        iterations,
+                    },
+                    Err(other) => other,
+                }
+            }
+            other => other,
+        })
+    }
+
+    /// The inner fixed point at ionic strength `i`: the free calcium,
+    /// starting from `start` (else from the free ions given, else all
+    /// calcium free). With `ions`, also the ionic strength of the ions at
+    /// the result.
+    pub(crate) fn settle_calcium<F>(
+        &self,
+        ca_total: f64,
+        i: f64,
+        start: Option<f64>,
+        options: &SolveOptions,
+        pair: &F,
+        ions: bool,
+    ) -> Result<Settled>
+    where
+        F: Fn(&Constants) -> Result<(Measured, Measured)>,
+    {
+        // The constants at this ionic strength are made once, and each trial
+        // sets only the free calcium and what follows from it. Only small
+        // values pass through the iteration: the constants, a large value
+        // to copy, are made again from (I, Ca) where needed.
+        let mut k = self.constants_at(i, ca_total, ca_total);
+        // A free ion given fixes its own pair: a first calcium much nearer
+        // the settled one than all calcium free.
+        let start = start.unwrap_or_else(|| {
+            pair(&k).map_or(ca_total, |(a, b)| {
+                ca_total / (1.0 + free_ion_pairs(&k, &a) + free_ion_pairs(&k, &b))
+            })
+        });
+        let mut solve_at = |ca: f64| -> Result<(Settled, f64)> {
+            k.set_free_calcium(ca);
+            let k = &k;
+            let (a, b) = pair(k)?;
+            let sol = solve(k, &a, &b, options)?;
+            let f = if ca_total > 0.0 {
+                free_calcium(k, sol.h, sol.dic, ca_total)
+            } else {
+                0.0
+            };
+            let ions = if ions {
+                ion_sum(k, sol.h, sol.dic).0
+            } else {
+                i
+            };
+            let settled = Settled {
+                i,
+                ca,
+                ca_total,
+                ions,
+                sol,
+            };
+            Ok((settled, f))
+        };
+        if ca_total <= 0.0 {
+            return solve_at(0.0).map(|(s, _)| s);
+        }
+        // g(Ca) = F(Ca) − Ca > 0 at Ca = 0 and ≤ 0 at CaT (pairs only take
+        // calcium away). All calcium taken as free overstates the pairs of
+        // the free ions given (HCO3-, CO3--) or of the carbon they bind,
+        // and the pair may then fit no water: a failure is too much calcium.
+        let bracket = Bracket {
+            lo: Some(0.0),
+            hi: Some(ca_total),
+            failure: Failure::High,
+            floor: 1e-30,
+        };
+        let mut last = None;
+        fixed_point(start.clamp(0.0, ca_total), bracket, |ca| {
+            let (settled, f) = solve_at(ca)?;
+            last = Some(settled);
+            Ok((f, ()))
+        })?;
+        last.ok_or(Error::NoConvergence {
+            first: "free calcium",
+            second: "ionic strength",
+            iterations: 0,
+        })
+    }
+
+    /// Settles a measured pair: one fixed point, or for a pair that can
+    /// fit two waters each side settled and the root policy applied.
+    pub(crate) fn settle_pair(
+        &self,
+        a: &Measured,
+        b: &Measured,
+        root: RootChoice,
+    ) -> Result<Settled> {
+        if is_two_root_pair(a, b) {
+            self.two_roots(a, b, root)
+        } else {
+            let (a, b) = (*a, *b);
+            self.settle(
+                self.totals.calcium_mol_kg,
+                None,
+                None,
+                root,
+                |_: &Constants| Ok((a, b)),
+            )
+        }
+    }
+
+    /// The constants of a settled solve, exactly those it was solved with.
+    pub(crate) fn constants_of(&self, s: &Settled) -> Constants {
+        self.constants_at(s.i, s.ca, s.ca_total)
+    }
+
+    /// A pair that can fit two waters (alkalinity with CO3, DIC with HCO3).
+    /// Each side is settled at its own ionic strength and calcium, and the
+    /// shared root policy is applied to the settled roots: the one asked
+    /// for, or by default the one nearer pH 8; the other, where it is a
+    /// distinct, measurable water, is named in the warning.
+    ///
+    /// Near a double root the side of a root at fixed constants need not be
+    /// its side once the ionic strength and calcium are settled, so a side
+    /// can fail to settle. The default then takes the side that settles; a
+    /// side asked for that does not settle, where the other does, is
+    /// refused with the other root's pH.
+    pub(crate) fn two_roots(
+        &self,
+        a: &Measured,
+        b: &Measured,
+        root: RootChoice,
+    ) -> Result<Settled> {
+        let ca_total = self.totals.calcium_mol_kg;
+        let given = |_: &Constants| Ok((*a, *b));
+        let side = |r| self.settle(ca_total, None, None, r, given);
+        let ph = |s: &Settled| -crate::base::numeric::log10(s.sol.h);
+        let (lower, higher) = (side(RootChoice::LowerPh), side(RootChoice::HigherPh));
+        let higher_first = match root {
+            RootChoice::LowerPh => false,
+            RootChoice::HigherPh => true,
+            _ => match (&lower, &higher) {
+                (Ok(l), Ok(h)) => (ph(h) - 8.0).abs() < (ph(l) - 8.0).abs(),
+                (Err(_), Ok(_)) => true,
+                _ => false,
+            },
+        };
+        let (chosen, other, other_side) = if higher_first {
+            (higher, lower, RootChoice::LowerPh)
+        } else {
+            (lower, higher, RootChoice::HigherPh)
+        };
+        let mut found = match (chosen, &other) {
+            (Ok(found), _) => found,
+            (Err(e @ Error::NoConvergence { .. }), Ok(settled)) => {
+                return Err(Error::NoWaterFits {
+                    first: a.parameter().name(),
+                    first_value: a.describe(),
+                    second: b.parameter().name(),
+                    second_value: b.describe(),
+                    reason: format!(
+                        "that root does not settle with its own ionic strength and calcium \
+                         ({e}); the pair fits a water of pH {:.4} (nbs scale), and near it \
+                         the two roots are one water within the precision of a measurement",
+                        ph(settled)
+                    ),
+                })
+            }
+            (Err(e), _) => return Err(e),
+        };
+        let distinct = |o: &Settled| (o.sol.h / found.sol.h - 1.0).abs() > 1e-9;
+        let measurable = |o: &Settled| {
+            let parts =
+                crate::speciation::alkalinity::parts(&self.constants_of(o), o.sol.h, o.sol.dic);
+            crate::solve::alkalinity_in_range(parts.total())
+        };
+        let named = match &other {
+            Ok(o) if distinct(o) && measurable(o) => Some(ph(o)),
+            // The other side did not settle: it is reported as it is at
+            // the constants of the chosen one.
+            Err(Error::NoConvergence { .. }) => {
+                let options = SolveOptions::default().with_root(other_side);
+                solve(&self.constants_of(&found), a, b, &options)
+                    .ok()
+                    .filter(|o| (o.h / found.sol.h - 1.0).abs() > 1e-9)
+                    .map(|o| -crate::base::numeric::log10(o.h))
+            }
+            _ => None,
+        };
+        let (first, second) = if a.parameter() < b.parameter() {
+            (a, b)
+        } else {
+            (b, a)
+        };
+        let here = ph(&found);
+        found
+            .sol
+            .warnings
+            .replace_other_root(named.map(|p| Warning::OtherRoot {
+                first: first.parameter().name(),
+                second: second.parameter().name(),
+                ph: p,
+                scale: PhScale::Nbs.name(),
+                higher: p > here,
+            }));
+        Ok(found)
+    }
+}
+
+/// A settled solve: the ionic strength and free calcium it was solved at
+/// (its constants are [`FreshBasis::constants_of`] them), and its solution.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct Settled {
+    pub(crate) i: f64,
+    pub(crate) ca: f64,
+    pub(crate) ca_total: f64,
+    /// The ionic strength of the ions at the solution (`i` where the ionic
+    /// strength does not come from the ions).
+    pub(crate) ions: f64,
+    pub(crate) sol: Solution,
+}

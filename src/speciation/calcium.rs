@@ -1,0 +1,74 @@
+//! The calcium ion pairs in the carbon balances: free calcium, the pair
+//! ratios in the constants, and ln Ω at a given alkalinity.
+
+use crate::medium::Constants;
+use crate::sample::measured::{Measured, Parameter, Value};
+
+/// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
+/// the balance (p − S c)(1 + S w) = S q.
+pub(crate) fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
+    if w == 0.0 {
+        return p / c;
+    }
+    let b = c + q - p * w;
+    let disc = (b * b + 4.0 * c * w * p).sqrt();
+    if b > 0.0 {
+        2.0 * p / (b + disc)
+    } else {
+        (disc - b) / (2.0 * c * w)
+    }
+}
+
+/// The free calcium that is exactly consistent with h and DIC at the
+/// apparent constants of `k`: with CO2* = S, HCO3- = S u, CO3-- = S v,
+/// u = K1'/h, v = K1'K2'/h², the pairs give DIC = S (1 + u + v) + Ca S w,
+/// w = a u + b v, and Ca = CaT/(1 + S w); one quadratic in S.
+pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f64 {
+    let u = k.k1 / h;
+    let v = k.k1 * k.k2 / (h * h);
+    let w = k.k_cahco3 * u + k.k_caco3 * v;
+    let s = balance_root(1.0 + u + v, w, ca_total * w, dic);
+    ca_total / (1.0 + s * w)
+}
+
+/// [CaHCO3+]/[Ca++] or [CaCO3⁰]/[Ca++] of a free ion given (0 for any
+/// other parameter), at the apparent pair constants of `k`.
+pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
+    let amount = |m: &Measured| match m.value() {
+        Value::Amount(a) => a.mol_kg(k.density_kg_m3),
+        _ => 0.0,
+    };
+    match m.parameter() {
+        Parameter::Hco3 => k.k_cahco3 * amount(m),
+        Parameter::Co3 => k.k_caco3 * amount(m),
+        _ => 0.0,
+    }
+}
+
+/// ln Ω of calcite at activity h (NBS) for alkalinity `ta` and total
+/// calcium `ca_total` (mol/kg), at the apparent constants of `k` (its
+/// ionic strength held), with the calcium pairs solved exactly: with
+/// CO2* = S, HCO3- = S u, CO3-- = S v, u = K1'/h, v = K1'K2'/h², the
+/// carbonate alkalinity TA − (non-carbonate) = S (u + 2v) + Ca S (a u + 2 b v)
+/// and Ca = CaT/(1 + S (a u + b v)): one quadratic in S. `None` where the
+/// alkalinity left for carbon is not positive.
+pub(crate) fn ln_omega_at_alkalinity(k: &Constants, ta: f64, ca_total: f64, h: f64) -> Option<f64> {
+    let carbon = ta - crate::speciation::alkalinity::non_carbonate(k, h).0;
+    if carbon <= 0.0 {
+        return None;
+    }
+    let u = k.k1 / h;
+    let v = k.k1 * k.k2 / (h * h);
+    let (a, b) = (k.k_cahco3, k.k_caco3);
+    let w = a * u + b * v;
+    let s = balance_root(u + 2.0 * v, w, ca_total * (a * u + 2.0 * b * v), carbon);
+    let ca = ca_total / (1.0 + s * w);
+    let ln = (ca * s * v / k.ksp_calcite).ln();
+    ln.is_finite().then_some(ln)
+}
+
+/// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).
+pub(crate) fn free_carbonate(k: &Constants, h: f64, dic: f64) -> f64 {
+    let k12 = k.k1e * k.k2e;
+    dic * k12 / (h * h + k.k1e * h + k12) / (1.0 + k.pair_co3)
+}

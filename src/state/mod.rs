@@ -1,0 +1,401 @@
+//! The complete carbonate state of a sample.
+
+use crate::base::error::Result;
+use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
+use crate::base::warning::Warnings;
+use crate::fits::FitsUsed;
+use crate::medium::Constants;
+use crate::medium::IonicStrengthRoute;
+use crate::properties::scales::PhScale;
+use crate::sample::measured::{Measured, Parameter};
+use crate::sample::water::{Medium, Water};
+use crate::speciation::alkalinity::parts_with_slopes;
+use serde::Serialize;
+
+mod fresh_figures;
+
+/// The fresh-water results computed beside the carbonate state.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct FreshExtras {
+    pub ionic_strength_from: IonicStrengthRoute,
+    pub charge_balance_percent: Option<f64>,
+    pub saturation_ph_nbs: Option<f64>,
+    pub langelier_index: Option<f64>,
+    pub precipitation_potential_mg_l_caco3: Option<f64>,
+}
+
+/// Every output of a solve. Field names are the JSON keys of the interface
+/// contract; concentrations are µmol per kg of solution unless the name says
+/// otherwise.
+///
+/// # Formulas
+/// ```text
+/// CO2* = DIC h²/D,  HCO3- = DIC K1 h/D,  CO3-- = DIC K1 K2/D,  D = h² + K1 h + K1 K2
+/// fCO2 = CO2*/K0,  pCO2 = fCO2 / (fugacity coefficient),  xCO2 = pCO2 / (P_air − pH2O)
+/// Ω = [Ca] [CO3--] / Ksp,  SI = log10 Ω
+/// Revelle factor = (∂ ln pCO2 / ∂ ln DIC) at constant alkalinity and totals (analytic)
+/// ```
+///
+/// # Example
+/// ```
+/// use travertine::{Conditions, Measured, Water};
+/// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+/// // worked values computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
+/// assert!((s.co3_umol_kg - 210.90).abs() < 0.05);
+/// assert!((s.omega_aragonite.unwrap() - 3.346).abs() < 5e-3);
+/// assert!((s.fco2_uatm - 401.47).abs() < 0.05);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq, Serialize)]
+#[non_exhaustive]
+pub struct State {
+    /// Temperature, °C.
+    pub temperature_c: f64,
+    /// Practical salinity.
+    pub salinity: f64,
+    /// Gauge pressure, dbar.
+    pub pressure_dbar: f64,
+    /// The medium: `saline`.
+    pub water: Medium,
+    /// pH, total scale.
+    pub ph_total: f64,
+    /// pH, sea-water scale.
+    pub ph_seawater: f64,
+    /// pH, free scale.
+    pub ph_free: f64,
+    /// pH, NBS scale (in saline water an approximation, Takahashi et al. 1982).
+    pub ph_nbs: f64,
+    /// Total alkalinity.
+    pub alkalinity_umol_kg: f64,
+    /// Dissolved inorganic carbon.
+    pub dic_umol_kg: f64,
+    /// CO2* (dissolved CO2 + H2CO3).
+    pub co2_umol_kg: f64,
+    /// Bicarbonate.
+    pub hco3_umol_kg: f64,
+    /// Carbonate.
+    pub co3_umol_kg: f64,
+    /// CO2 fugacity, µatm.
+    pub fco2_uatm: f64,
+    /// CO2 partial pressure (moist air at the air pressure), µatm.
+    pub pco2_uatm: f64,
+    /// CO2 mole fraction in dry air, ppm.
+    pub xco2_ppm: f64,
+    /// Saturation state of calcite (`None` in fresh water without calcium).
+    pub omega_calcite: Option<f64>,
+    /// Saturation state of aragonite.
+    pub omega_aragonite: Option<f64>,
+    /// Saturation index of calcite, log10 Ω (= log10 IAP/Ksp).
+    pub si_calcite: Option<f64>,
+    /// Saturation index of aragonite, log10 Ω.
+    pub si_aragonite: Option<f64>,
+    /// Revelle (buffer) factor.
+    pub revelle_factor: f64,
+    /// Carbonate alkalinity, [HCO3-] + 2[CO3--].
+    pub carbonate_alkalinity_umol_kg: f64,
+    /// Borate alkalinity.
+    pub borate_alkalinity_umol_kg: f64,
+    /// Hydroxide, [OH-].
+    pub hydroxide_umol_kg: f64,
+    /// Phosphate alkalinity, [HPO4--] + 2[PO4---] − \[H3PO4\].
+    pub phosphate_alkalinity_umol_kg: f64,
+    /// Silicate alkalinity.
+    pub silicate_alkalinity_umol_kg: f64,
+    /// Ammonia alkalinity, \[NH3\].
+    pub ammonia_alkalinity_umol_kg: f64,
+    /// Sulfide alkalinity, [HS-].
+    pub sulfide_alkalinity_umol_kg: f64,
+    /// Free hydrogen ion, counted against alkalinity.
+    pub free_hydrogen_umol_kg: f64,
+    /// Bisulfate, counted against alkalinity.
+    pub bisulfate_umol_kg: f64,
+    /// Hydrogen fluoride, counted against alkalinity.
+    pub hydrogen_fluoride_umol_kg: f64,
+    /// Total calcium (`None` in fresh water without calcium).
+    pub calcium_umol_kg: Option<f64>,
+    /// Free Ca++ (fresh water: total less the CaHCO3+ and CaCO3⁰ pairs).
+    pub calcium_free_umol_kg: Option<f64>,
+    /// Activity of free Ca++ (molal, fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub calcium_activity: Option<f64>,
+    /// CaHCO3+ ion pair (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub cahco3_umol_kg: Option<f64>,
+    /// CaCO3⁰ ion pair (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub caco3_pair_umol_kg: Option<f64>,
+    /// Ionic strength, mol/kg.
+    pub ionic_strength: f64,
+    /// Where the ionic strength came from (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub ionic_strength_from: Option<IonicStrengthRoute>,
+    /// Charge imbalance of the ions given, % of the total charge (fresh
+    /// water with major ions; positive: excess cations).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub charge_balance_percent: Option<f64>,
+    /// Activity coefficient of monovalent ions (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub gamma_monovalent: Option<f64>,
+    /// Activity coefficient of divalent ions such as CO3-- (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub gamma_divalent: Option<f64>,
+    /// pHs, the NBS pH of calcite saturation at this alkalinity and calcium (fresh water).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub saturation_ph_nbs: Option<f64>,
+    /// Langelier index, pH − pHs (fresh water with calcium; null otherwise).
+    pub langelier_index: Option<f64>,
+    /// Calcium carbonate precipitation potential, mg/L as CaCO3: positive to
+    /// precipitate, negative to dissolve (fresh water with calcium).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub precipitation_potential_mg_l_caco3: Option<f64>,
+    /// Alkalinity, mg/L as CaCO3.
+    pub alkalinity_mg_l_caco3: f64,
+    /// DIC, mg/L as C.
+    pub dic_mg_l_c: f64,
+    /// Free CO2 (CO2*), mg/L as CO2.
+    pub free_co2_mg_l: f64,
+    /// Density used for per-litre units, kg/m³ (Millero & Poisson 1981, EOS-80).
+    pub density_kg_m3: f64,
+    /// The fit used for each constant.
+    pub constants: FitsUsed,
+    /// Cautions: fits used outside their range, other roots, approximations.
+    pub warnings: Warnings,
+    #[serde(skip)]
+    water_sample: Water,
+    #[serde(skip)]
+    h: f64,
+}
+
+impl State {
+    /// pH on any scale.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, PhScale, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(8.0, Some(PhScale::Total))?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.ph(PhScale::Total) - 8.0).abs() < 1e-12);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn ph(&self, scale: PhScale) -> f64 {
+        match scale {
+            PhScale::Total => self.ph_total,
+            PhScale::Seawater => self.ph_seawater,
+            PhScale::Free => self.ph_free,
+            PhScale::Nbs => self.ph_nbs,
+        }
+    }
+
+    /// h on the working scale: [H+] on the total scale in saline water
+    /// (mol/kg), the H+ activity (NBS) in fresh water.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, PhScale, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(8.0, None)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.h_mol_kg() - 1e-8).abs() < 1e-20);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn h_mol_kg(&self) -> f64 {
+        self.h
+    }
+
+    /// Parameter `p` of this state as a measurement, with pH on the
+    /// medium's working scale (total in saline water, NBS in fresh water):
+    /// the input that reproduces this value. Useful for residuals against a
+    /// measured third parameter, and for round trips.
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] if the value lies outside what a
+    /// measurement may be (for example a pH above 14).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Parameter, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// let back = w.solve(s.measured(Parameter::Ph)?, s.measured(Parameter::Pco2)?)?;
+    /// assert!((back.dic_umol_kg - 2000.0).abs() < 1e-6);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn measured(&self, p: Parameter) -> Result<Measured> {
+        match p {
+            Parameter::Alkalinity => Measured::alkalinity_umol_kg(self.alkalinity_umol_kg),
+            Parameter::Dic => Measured::dic_umol_kg(self.dic_umol_kg),
+            Parameter::Ph => match self.water {
+                Medium::Fresh => Measured::ph(self.ph_nbs, Some(PhScale::Nbs)),
+                _ => Measured::ph(self.ph_total, Some(PhScale::Total)),
+            },
+            Parameter::Pco2 => Measured::pco2_uatm(self.pco2_uatm),
+            Parameter::Fco2 => Measured::fco2_uatm(self.fco2_uatm),
+            Parameter::Xco2 => Measured::xco2_ppm(self.xco2_ppm),
+            Parameter::Co2 => Measured::co2_umol_kg(self.co2_umol_kg),
+            Parameter::Hco3 => Measured::hco3_umol_kg(self.hco3_umol_kg),
+            Parameter::Co3 => Measured::co3_umol_kg(self.co3_umol_kg),
+        }
+    }
+
+    /// The water this state was solved for.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::ph(8.0, None)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert_eq!(s.water_sample(), &w);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn water_sample(&self) -> &Water {
+        &self.water_sample
+    }
+
+    /// Builds the state from the solved h and DIC of the measured pair
+    /// (`a`, `b`), refusing it as [`implausible`] where its alkalinity is
+    /// beyond any measurement.
+    pub(crate) fn build(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        warnings: Warnings,
+        (a, b): (&Measured, &Measured),
+    ) -> Result<State> {
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, None, a, b)
+    }
+
+    /// Builds a fresh-water state with its extras.
+    pub(crate) fn build_fresh(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        warnings: Warnings,
+        extras: FreshExtras,
+        (a, b): (&Measured, &Measured),
+    ) -> Result<State> {
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras), a, b)
+    }
+
+    // The two measurements are passed apart from the rest so that the
+    // implausibility error can name them; the state is checked before it is
+    // built, so a large value is never built only to be thrown away.
+    #[allow(clippy::too_many_arguments)]
+    fn build_fresh_or_saline(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        warnings: Warnings,
+        extras: Option<FreshExtras>,
+        a: &Measured,
+        b: &Measured,
+    ) -> Result<State> {
+        let k12 = k.k1e * k.k2e;
+        let d = h * h + k.k1e * h + k12;
+        let dic_per_d = dic / d;
+        let co2 = dic_per_d * h * h;
+        // Carbon-balance totals, then the free ions and the Ca pairs.
+        let hco3_t = dic_per_d * k.k1e * h;
+        let co3_t = dic_per_d * k12;
+        let hco3 = hco3_t / (1.0 + k.pair_hco3);
+        let co3 = co3_t / (1.0 + k.pair_co3);
+        let s = parts_with_slopes(k, h, dic);
+        let p = s.parts;
+        let ta = p.total();
+        implausible(ta, a, b)?;
+        let fco2 = co2 / k.k0;
+        let pco2 = fco2 / k.fugacity_factor;
+        let xco2 = pco2 / (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
+        let ca_known = k.totals.calcium_mol_kg > 0.0;
+        let ca_free = k.calcium_free_mol_kg;
+        let omega_c = ca_known.then(|| ca_free * co3 / k.ksp_calcite);
+        let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite);
+        // One logarithm for the four pH values and one for both indices.
+        let logs = k.log10s();
+        let ph_working = -crate::base::numeric::log10(h);
+        let ph = |scale: usize| ph_working - logs.per_working[scale];
+        let log_iap = ca_known.then(|| crate::base::numeric::log10(ca_free * co3));
+
+        // Revelle factor at constant TA (and pairs): dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
+        let dh_ddic = -s.carbonate_per_dic / (dic * s.d_carbonate_per_dic + s.d_non_carbonate);
+        let revelle = 1.0 + dic * (k.k1e * h + 2.0 * k12) / (h * d) * dh_ddic;
+
+        let rho = k.density_kg_m3;
+        // The constants' warnings first.
+        let all = warnings.after(&k.warnings);
+        let u = 1e6;
+        let fresh = extras.is_some();
+        let fresh_only = |v: f64| fresh.then_some(v);
+        Ok(State {
+            temperature_c: k.conditions.temperature_c(),
+            salinity: k.conditions.salinity(),
+            pressure_dbar: k.conditions.pressure_dbar(),
+            water: water.medium(),
+            ph_total: ph(0),
+            ph_seawater: ph(1),
+            ph_free: ph(2),
+            ph_nbs: ph(3),
+            alkalinity_umol_kg: ta * u,
+            dic_umol_kg: dic * u,
+            co2_umol_kg: co2 * u,
+            hco3_umol_kg: hco3 * u,
+            co3_umol_kg: co3 * u,
+            fco2_uatm: fco2 * u,
+            pco2_uatm: pco2 * u,
+            xco2_ppm: xco2 * u,
+            omega_calcite: omega_c,
+            omega_aragonite: omega_a,
+            si_calcite: log_iap.map(|l| l - logs.ksp_calcite),
+            si_aragonite: log_iap.map(|l| l - logs.ksp_aragonite),
+            revelle_factor: revelle,
+            carbonate_alkalinity_umol_kg: p.carbonate * u,
+            borate_alkalinity_umol_kg: p.borate * u,
+            hydroxide_umol_kg: p.hydroxide * u,
+            phosphate_alkalinity_umol_kg: p.phosphate * u,
+            silicate_alkalinity_umol_kg: p.silicate * u,
+            ammonia_alkalinity_umol_kg: p.ammonia * u,
+            sulfide_alkalinity_umol_kg: p.sulfide * u,
+            free_hydrogen_umol_kg: p.free_hydrogen * u,
+            bisulfate_umol_kg: p.bisulfate * u,
+            hydrogen_fluoride_umol_kg: p.hydrogen_fluoride * u,
+            calcium_umol_kg: ca_known.then_some(k.totals.calcium_mol_kg * u),
+            calcium_free_umol_kg: ca_known.then_some(ca_free * u),
+            calcium_activity: k.gammas.filter(|_| ca_known).map(|g| g.calcium * ca_free),
+            cahco3_umol_kg: fresh_only((hco3_t - hco3) * u).filter(|_| ca_known),
+            caco3_pair_umol_kg: fresh_only((co3_t - co3) * u).filter(|_| ca_known),
+            ionic_strength: k.ionic_strength,
+            ionic_strength_from: extras.map(|e| e.ionic_strength_from),
+            charge_balance_percent: extras.and_then(|e| e.charge_balance_percent),
+            gamma_monovalent: k.gammas.map(|g| g.monovalent),
+            gamma_divalent: k.gammas.map(|g| g.carbonate),
+            saturation_ph_nbs: extras.and_then(|e| e.saturation_ph_nbs),
+            langelier_index: extras.and_then(|e| e.langelier_index),
+            precipitation_potential_mg_l_caco3: extras
+                .and_then(|e| e.precipitation_potential_mg_l_caco3),
+            alkalinity_mg_l_caco3: ta * rho * CACO3_G_EQ,
+            dic_mg_l_c: dic * rho * C_G_MOL,
+            free_co2_mg_l: co2 * rho * CO2_G_MOL,
+            density_kg_m3: rho,
+            constants: k.fits_used,
+            warnings: all,
+            water_sample: water.clone(),
+            h,
+        })
+    }
+}
+
+/// A state whose alkalinity (µmol/kg) is beyond what any measurement may be
+/// (for example DIC with a pH near 0, which needs an alkalinity of about
+/// −1 mol/kg) fits no real water.
+fn implausible(alkalinity_mol_kg: f64, a: &Measured, b: &Measured) -> Result<()> {
+    if crate::solve::alkalinity_in_range(alkalinity_mol_kg) {
+        return Ok(());
+    }
+    let (_, max) = Parameter::Alkalinity.accepted_range();
+    let v = alkalinity_mol_kg * 1e6;
+    Err(crate::Error::NoWaterFits {
+        first: a.parameter().name(),
+        first_value: a.describe(),
+        second: b.parameter().name(),
+        second_value: b.describe(),
+        reason: format!("the alkalinity would be {v:.3e} µmol/kg, beyond ±{max} µmol/kg"),
+    })
+}
