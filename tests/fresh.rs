@@ -150,7 +150,12 @@ fn constant_log10(row: &Row, t: f64) -> Result<f64, String> {
     let k = route_constants(t)?;
     let used = &k.fits_used;
     let (fit, named, routed, reported) = match row.constant.as_str() {
-        "kh" => ("plummer-busenberg1982", thermodynamic::log_kh(tk), k.k0, used.k0),
+        "kh" => (
+            "plummer-busenberg1982",
+            thermodynamic::log_kh(tk),
+            k.k0,
+            used.k0,
+        ),
         "k1" => (
             "plummer-busenberg1982",
             thermodynamic::log_k1(tk),
@@ -187,7 +192,12 @@ fn constant_log10(row: &Row, t: f64) -> Result<f64, String> {
             k.k_caco3,
             used.minerals,
         ),
-        "kw" => ("harned-owen1958", thermodynamic::log_kw(tk), k.kw, used.water),
+        "kw" => (
+            "harned-owen1958",
+            thermodynamic::log_kw(tk),
+            k.kw,
+            used.water,
+        ),
         "knh4" => (
             "emerson1975",
             -thermodynamic::emerson1975_pka(tk),
@@ -467,8 +477,9 @@ fn rainwater_matches_the_closed_form() {
     for pco2 in [PCO2_10_M35_UATM, 350.0, 420.0] {
         let s = rain(Measured::pco2_uatm(pco2).unwrap());
         let fco2 = s.fco2_uatm * 1e-6;
-        let a_h =
-            (p10(thermodynamic::log_k1(t)) * p10(thermodynamic::log_kh(t)) * fco2 + p10(thermodynamic::log_kw(t))).sqrt();
+        let a_h = (p10(thermodynamic::log_k1(t)) * p10(thermodynamic::log_kh(t)) * fco2
+            + p10(thermodynamic::log_kw(t)))
+        .sqrt();
         // With Davies γH = γ(HCO3-) = γ(OH-), so the activity coefficients
         // cancel from [H+] = [HCO3-] + [OH-]; left out is CO3-- alone
         // (2 K2/aH ≈ 4e-5 of HCO3-, 1e-5 in pH).
@@ -610,7 +621,8 @@ fn calcite_in_equilibrium_with_air() {
     // (Plummer & Busenberg 1982, equations.md §9).
     let ratio = s.omega_aragonite.unwrap() / omega;
     let t = 298.15;
-    let expected = 10f64.powf(thermodynamic::log_ksp_calcite(t) - thermodynamic::log_ksp_aragonite(t));
+    let expected =
+        10f64.powf(thermodynamic::log_ksp_calcite(t) - thermodynamic::log_ksp_aragonite(t));
     assert!((ratio / expected - 1.0).abs() < 1e-9);
     assert!((ratio - 0.7184).abs() < 1e-3);
 }

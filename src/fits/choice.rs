@@ -1,51 +1,7 @@
 //! The choice of fits a water carries, and the record of the fits behind a result.
 
-use super::{BoronTotalFit, CarbonicFit, FitName, FluorideFit};
-use crate::base::error::{Error, Result};
+use super::{BisulfateFit, BoronTotalFit, CarbonicFit, FitName, FluorideFit};
 use serde::Serialize;
-
-/// The bisulfate fit. Only Dickson (1990) is offered; it is a value so that
-/// the choice is recorded like every other.
-///
-/// ```
-/// use travertine::fits::BisulfateFit;
-/// assert_eq!(BisulfateFit::default().name(), "dickson1990");
-/// ```
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Default)]
-#[non_exhaustive]
-pub enum BisulfateFit {
-    /// Dickson (1990), free scale.
-    #[default]
-    #[serde(rename = "dickson1990")]
-    Dickson1990,
-}
-
-impl BisulfateFit {
-    /// Author-year name.
-    ///
-    /// ```
-    /// # use travertine::fits::BisulfateFit;
-    /// assert_eq!(BisulfateFit::Dickson1990.name(), "dickson1990");
-    /// ```
-    pub fn name(self) -> &'static str {
-        "dickson1990"
-    }
-}
-
-impl std::str::FromStr for BisulfateFit {
-    type Err = Error;
-    fn from_str(s: &str) -> Result<Self> {
-        if s.trim().eq_ignore_ascii_case("dickson1990") {
-            Ok(BisulfateFit::Dickson1990)
-        } else {
-            Err(Error::UnknownFit {
-                constant: "bisulfate",
-                name: s.to_string(),
-                accepted: "dickson1990".to_string(),
-            })
-        }
-    }
-}
 
 /// The choice of published fits. `carbonic: None` chooses automatically:
 /// Lueker et al. (2000) inside its window (S 19–43, t 2–35 °C), Millero et

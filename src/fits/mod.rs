@@ -45,6 +45,7 @@ pub mod thermodynamic;
 pub use crate::base::range::FitRange;
 pub use boron::BoronTotalFit;
 pub use carbonic::CarbonicFit;
-pub use choice::{BisulfateFit, Fits, FitsUsed};
+pub use choice::{Fits, FitsUsed};
 pub use fluoride::FluorideFit;
 pub use names::FitName;
+pub use sulfate::BisulfateFit;

@@ -4,7 +4,10 @@
 //! one-byte value rather than a string, so that a result stays small and
 //! cheap to copy, serialised and displayed as the author-year name.
 
-use super::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
+use super::boron::BoronTotalFit;
+use super::carbonic::CarbonicFit;
+use super::fluoride::FluorideFit;
+use super::sulfate::BisulfateFit;
 use crate::properties::activity::ActivityModel;
 use serde::{Serialize, Serializer};
 use std::fmt;

@@ -2,6 +2,8 @@
 //! total sulfate from salinity.
 
 use super::FitRange;
+use crate::base::error::{Error, Result};
+use serde::Serialize;
 
 /// Published range of Dickson (1990) KS (range from memory, unverified).
 pub const DICKSON1990_KS_RANGE: FitRange = FitRange::new("dickson1990", (0.0, 45.0), (5.0, 45.0));
@@ -62,4 +64,47 @@ pub fn dickson1990_ln_ks(temperature_k: f64, salinity: f64) -> f64 {
 #[inline]
 pub fn morris_riley1966_total_mol_kg(salinity: f64) -> f64 {
     (0.1400 / 96.062) * (salinity / 1.80655)
+}
+
+/// The bisulfate fit. Only Dickson (1990) is offered; it is a value so that
+/// the choice is recorded like every other.
+///
+/// ```
+/// use travertine::fits::BisulfateFit;
+/// assert_eq!(BisulfateFit::default().name(), "dickson1990");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Default)]
+#[non_exhaustive]
+pub enum BisulfateFit {
+    /// Dickson (1990), free scale.
+    #[default]
+    #[serde(rename = "dickson1990")]
+    Dickson1990,
+}
+
+impl BisulfateFit {
+    /// Author-year name.
+    ///
+    /// ```
+    /// # use travertine::fits::BisulfateFit;
+    /// assert_eq!(BisulfateFit::Dickson1990.name(), "dickson1990");
+    /// ```
+    pub fn name(self) -> &'static str {
+        "dickson1990"
+    }
+}
+
+impl std::str::FromStr for BisulfateFit {
+    type Err = Error;
+    fn from_str(s: &str) -> Result<Self> {
+        if s.trim().eq_ignore_ascii_case("dickson1990") {
+            Ok(BisulfateFit::Dickson1990)
+        } else {
+            Err(Error::UnknownFit {
+                constant: "bisulfate",
+                name: s.to_string(),
+                accepted: "dickson1990".to_string(),
+            })
+        }
+    }
 }

@@ -85,6 +85,20 @@ impl Parameter {
         )
     }
 
+    /// Whether two parameters make a pair: two different ones, not two
+    /// that each fix the dissolved CO2 (pCO2, fCO2, xCO2, CO2*). The rule
+    /// behind [`check_pair`], for choosing a pair before any value is read.
+    ///
+    /// ```
+    /// use travertine::Parameter;
+    /// assert!(Parameter::Alkalinity.pairs_with(Parameter::Ph));
+    /// assert!(!Parameter::Pco2.pairs_with(Parameter::Co2));
+    /// assert!(!Parameter::Dic.pairs_with(Parameter::Dic));
+    /// ```
+    pub fn pairs_with(self, other: Parameter) -> bool {
+        self != other && !(self.is_gas() && other.is_gas())
+    }
+
     /// The units this parameter accepts.
     ///
     /// ```

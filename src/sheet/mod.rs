@@ -77,6 +77,7 @@ mod columns;
 mod error;
 mod files;
 mod header;
+mod inputs;
 mod pipeline;
 mod plan;
 mod row;

@@ -5,7 +5,7 @@
 use super::cell;
 use super::columns::{Computed, UnitSystem};
 use super::header::{self, Column, Field, Reading, Recognition};
-use super::row::{choose_pair, compatible, rank, Inputs, RANKING};
+use super::inputs::{choose_pair, rank, Inputs, RANKING};
 use super::{SheetError, SheetOptions};
 use crate::properties::scales::PhScale;
 use crate::sample::measured::Parameter;
@@ -482,7 +482,7 @@ pub(crate) fn parse_pair(spec: &str) -> Result<(Parameter, Parameter), SheetErro
                 ))
             })?;
     }
-    if !compatible(pair[0], pair[1]) {
+    if !pair[0].pairs_with(pair[1]) {
         return Err(bad(if pair[0] == pair[1] {
             format!("`{spec}` names {} twice", pair[0].name())
         } else {
