@@ -546,7 +546,7 @@ fn an_unknown_medium_errored() {
     let input = b"temperature_c,salinity,alkalinity_umol_kg,ph_total,water\n25,35,2300,8,lake\n";
     let (rows, _) = run(input, &default());
     let library = "lake"
-        .parse::<travertine::sample::trade::MediumChoice>()
+        .parse::<travertine::sample::values::MediumChoice>()
         .unwrap_err();
     assert_eq!(outcome(&rows, 0).1, format!("column `water`: {library}"));
 }

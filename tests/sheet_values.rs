@@ -2,7 +2,11 @@
 //! library's solve of the same sample, rounded to six significant digits.
 
 use travertine::base::units::{Quantity, Unit};
-use travertine::sample::trade::{Conductivity, Sample};
+use travertine::sample::{
+    inputs::{Input, Total},
+    values::InputValue,
+};
+use travertine::sample::{values::Conductivity, Sample};
 use travertine::sheet::{process, SheetOptions};
 use travertine::{Measured, Parameter, PhScale};
 
@@ -60,8 +64,14 @@ fn a_pond_row_is_the_library_solve_of_its_sample() {
     );
     let mut s = Sample::new(24.3);
     s.conductivity = Some(Conductivity::Specific { us_cm: 415.0 });
-    s.calcium = Some(Quantity::new(83.0, Unit::MgPerLCaCO3));
-    s.ammonia = Some(Quantity::new(0.41, Unit::MgPerLN));
+    s.put(
+        Input::Total(Total::Calcium),
+        InputValue::Quantity(Quantity::new(83.0, Unit::MgPerLCaCO3)),
+    );
+    s.put(
+        Input::Total(Total::Ammonia),
+        InputValue::Quantity(Quantity::new(0.41, Unit::MgPerLN)),
+    );
     let state = s
         .water()
         .unwrap()

@@ -4,6 +4,7 @@
 //! where one exists, the accepted range or the accepted units, so that a
 //! message can be shown to a user as it is.
 
+pub use super::field::Field;
 use thiserror::Error;
 
 /// The result type of this crate.
@@ -15,7 +16,7 @@ pub type Result<T> = std::result::Result<T, Error>;
 /// ```
 /// use travertine::{Conditions, Error};
 /// let err = Conditions::new(300.0, 35.0).unwrap_err();
-/// assert!(matches!(err, Error::OutOfRange { field: "temperature_c", .. }));
+/// assert!(matches!(err, Error::OutOfRange { field: travertine::base::field::Field::Temperature, .. }));
 /// assert!(err.to_string().contains("300"));
 /// ```
 #[derive(Debug, Clone, PartialEq, Error)]
@@ -25,7 +26,7 @@ pub enum Error {
     #[error("{field} = {value} is outside the accepted range {min} to {max}{unit}")]
     OutOfRange {
         /// The field, for example `temperature_c`.
-        field: &'static str,
+        field: Field,
         /// The value given.
         value: f64,
         /// The smallest accepted value.
@@ -39,7 +40,7 @@ pub enum Error {
     #[error("{field} = {value} is not a finite number")]
     NotFinite {
         /// The field.
-        field: &'static str,
+        field: Field,
         /// The value given.
         value: f64,
     },
@@ -47,7 +48,7 @@ pub enum Error {
     #[error("{field}: `{text}` is not a number")]
     NotANumber {
         /// The field.
-        field: &'static str,
+        field: Field,
         /// The text given.
         text: String,
     },
@@ -55,7 +56,7 @@ pub enum Error {
     #[error("{field}: `{text}` has no unit; accepted units: {accepted}")]
     MissingUnit {
         /// The field.
-        field: &'static str,
+        field: Field,
         /// The text given.
         text: String,
         /// The units this field accepts.
@@ -65,7 +66,7 @@ pub enum Error {
     #[error("{field}: unit `{unit}` is not accepted here; accepted units: {accepted}")]
     WrongUnit {
         /// The field.
-        field: &'static str,
+        field: Field,
         /// The unit given.
         unit: String,
         /// The units this field accepts.
@@ -75,9 +76,9 @@ pub enum Error {
     #[error("{first} and {second} cannot be used together: {reason}")]
     IncompatiblePair {
         /// The first parameter.
-        first: &'static str,
+        first: Field,
         /// The second parameter.
-        second: &'static str,
+        second: Field,
         /// Why not.
         reason: &'static str,
     },
@@ -85,11 +86,11 @@ pub enum Error {
     #[error("no water fits {first} = {first_value} with {second} = {second_value}: {reason}")]
     NoWaterFits {
         /// The first parameter.
-        first: &'static str,
+        first: Field,
         /// Its value, with unit.
         first_value: String,
         /// The second parameter.
-        second: &'static str,
+        second: Field,
         /// Its value, with unit.
         second_value: String,
         /// Why no water fits.
@@ -99,9 +100,9 @@ pub enum Error {
     #[error("the solver did not converge for {first} with {second} after {iterations} iterations")]
     NoConvergence {
         /// The first parameter.
-        first: &'static str,
+        first: Field,
         /// The second parameter.
-        second: &'static str,
+        second: Field,
         /// Iterations spent.
         iterations: u32,
     },
@@ -109,7 +110,7 @@ pub enum Error {
     #[error("{constant}: unknown fit `{name}`; accepted: {accepted}")]
     UnknownFit {
         /// The constant, for example `carbonic`.
-        constant: &'static str,
+        constant: Field,
         /// The name given.
         name: String,
         /// The accepted names.
@@ -119,7 +120,7 @@ pub enum Error {
     #[error("{field} `{name}` is for {medium} water only: {hint}")]
     WrongMedium {
         /// The option, for example `boron`.
-        field: &'static str,
+        field: Field,
         /// The choice given.
         name: String,
         /// The medium it belongs to.
@@ -131,17 +132,35 @@ pub enum Error {
     #[error("{field}: unknown choice `{name}`; accepted: {accepted}")]
     UnknownChoice {
         /// The field.
-        field: &'static str,
+        field: Field,
         /// The name given.
         name: String,
         /// The accepted names.
         accepted: String,
     },
+    /// An input that is required was not given.
+    #[error("{field} is required and was not given")]
+    Missing {
+        /// The field.
+        field: Field,
+    },
+    /// The wrong number of values of one kind was given.
+    #[error("give exactly {} {what}; {given} given", in_words(*.wanted))]
+    WrongCount {
+        /// The field of the kind counted.
+        field: Field,
+        /// How many were given.
+        given: usize,
+        /// How many are needed.
+        wanted: usize,
+        /// What is counted.
+        what: &'static str,
+    },
     /// A computed quantity (for example density) could not be evaluated.
     #[error("{field} could not be computed: {reason}")]
     Computation {
         /// The quantity.
-        field: &'static str,
+        field: Field,
         /// Why not.
         reason: String,
     },
@@ -182,6 +201,10 @@ pub enum ErrorKind {
     WrongMedium,
     /// [`Error::UnknownChoice`].
     UnknownChoice,
+    /// [`Error::Missing`].
+    Missing,
+    /// [`Error::WrongCount`].
+    WrongCount,
     /// [`Error::Computation`].
     Computation,
 }
@@ -206,6 +229,8 @@ impl ErrorKind {
             ErrorKind::UnknownFit => "unknown_fit",
             ErrorKind::WrongMedium => "wrong_medium",
             ErrorKind::UnknownChoice => "unknown_choice",
+            ErrorKind::Missing => "missing",
+            ErrorKind::WrongCount => "wrong_count",
             ErrorKind::Computation => "computation",
         }
     }
@@ -255,6 +280,8 @@ impl Error {
             Error::UnknownFit { .. } => ErrorKind::UnknownFit,
             Error::WrongMedium { .. } => ErrorKind::WrongMedium,
             Error::UnknownChoice { .. } => ErrorKind::UnknownChoice,
+            Error::Missing { .. } => ErrorKind::Missing,
+            Error::WrongCount { .. } => ErrorKind::WrongCount,
             Error::Computation { .. } => ErrorKind::Computation,
         }
     }
@@ -263,9 +290,10 @@ impl Error {
     ///
     /// ```
     /// use travertine::Conditions;
-    /// assert_eq!(Conditions::new(25.0, 99.0).unwrap_err().field(), Some("salinity"));
+    /// use travertine::base::field::Field;
+    /// assert_eq!(Conditions::new(25.0, 99.0).unwrap_err().field(), Some(Field::Salinity));
     /// ```
-    pub fn field(&self) -> Option<&'static str> {
+    pub fn field(&self) -> Option<Field> {
         match self {
             Error::OutOfRange { field, .. }
             | Error::NotFinite { field, .. }
@@ -274,13 +302,23 @@ impl Error {
             | Error::WrongUnit { field, .. }
             | Error::UnknownChoice { field, .. }
             | Error::WrongMedium { field, .. }
-            | Error::Computation { field, .. } => Some(field),
-            Error::UnknownFit { constant, .. } => Some(constant),
+            | Error::Missing { field }
+            | Error::WrongCount { field, .. }
+            | Error::Computation { field, .. } => Some(*field),
+            Error::UnknownFit { constant, .. } => Some(*constant),
             Error::IncompatiblePair { first, .. }
             | Error::NoWaterFits { first, .. }
-            | Error::NoConvergence { first, .. } => Some(first),
+            | Error::NoConvergence { first, .. } => Some(*first),
         }
     }
+}
+
+/// A small count in words, for messages ("two"), else in digits.
+fn in_words(n: usize) -> String {
+    const WORDS: [&str; 5] = ["none", "one", "two", "three", "four"];
+    WORDS
+        .get(n)
+        .map_or_else(|| n.to_string(), |w| (*w).to_string())
 }
 
 /// Checks that `value` is finite and within `[min, max]`.
@@ -290,13 +328,13 @@ impl Error {
 ///
 /// # Example
 /// ```
-/// use travertine::base::error::check_range;
-/// assert!(check_range("salinity", 35.0, 0.0, 50.0, "").is_ok());
-/// assert!(check_range("salinity", 60.0, 0.0, 50.0, "").is_err());
-/// assert!(check_range("salinity", f64::NAN, 0.0, 50.0, "").is_err());
+/// use travertine::base::error::{check_range, Field};
+/// assert!(check_range(Field::Salinity, 35.0, 0.0, 50.0, "").is_ok());
+/// assert!(check_range(Field::Salinity, 60.0, 0.0, 50.0, "").is_err());
+/// assert!(check_range(Field::Salinity, f64::NAN, 0.0, 50.0, "").is_err());
 /// ```
 pub fn check_range(
-    field: &'static str,
+    field: Field,
     value: f64,
     min: f64,
     max: f64,
@@ -336,6 +374,8 @@ mod tests {
             ErrorKind::UnknownFit,
             ErrorKind::WrongMedium,
             ErrorKind::UnknownChoice,
+            ErrorKind::Missing,
+            ErrorKind::WrongCount,
             ErrorKind::Computation,
         ];
         for k in kinds {

@@ -2,6 +2,7 @@
 //! helpers and the root finder. Imports nothing else from the crate.
 
 pub mod error;
+pub mod field;
 pub(crate) mod numeric;
 pub mod range;
 pub(crate) mod root;

@@ -5,6 +5,7 @@
 //! sample (see [`crate::properties::density`]).
 
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 use serde::Serialize;
 
 /// Molar mass of CaCO3, g/mol (IUPAC standard atomic weights).
@@ -247,13 +248,13 @@ impl Unit {
 ///
 /// # Example
 /// ```
-/// use travertine::base::units::{Quantity, Unit};
-/// let q = Quantity::parse("alkalinity", "120 mg/L as CaCO3", &[Unit::MgPerLCaCO3])?;
+/// use travertine::base::{field::Field, units::{Quantity, Unit}};
+/// let q = Quantity::parse(Field::Alkalinity, "120 mg/L as CaCO3", &[Unit::MgPerLCaCO3])?;
 /// assert_eq!(q.value, 120.0);
 /// assert_eq!(q.unit, Unit::MgPerLCaCO3);
-/// let q = Quantity::parse("dic", "2000umol/kg", &[Unit::UmolPerKg])?;
+/// let q = Quantity::parse(Field::Dic, "2000umol/kg", &[Unit::UmolPerKg])?;
 /// assert_eq!(q.value, 2000.0);
-/// assert!(Quantity::parse("dic", "2000", &[Unit::UmolPerKg]).is_err());
+/// assert!(Quantity::parse(Field::Dic, "2000", &[Unit::UmolPerKg]).is_err());
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -320,7 +321,7 @@ impl Quantity {
     /// A quantity from a number and a unit.
     ///
     /// ```
-    /// # use travertine::base::units::{Quantity, Unit};
+    /// # use travertine::base::{field::Field, units::{Quantity, Unit}};
     /// let q = Quantity::new(2.4, Unit::MmolPerL);
     /// assert_eq!(q.unit.spelling(), "mmol/L");
     /// ```
@@ -337,11 +338,11 @@ impl Quantity {
     /// text, [`Error::NotFinite`] for NaN or infinities.
     ///
     /// ```
-    /// # use travertine::base::units::{Quantity, Unit};
-    /// let e = Quantity::parse("alkalinity", "2300", &[Unit::UmolPerKg]).unwrap_err();
+    /// # use travertine::base::{field::Field, units::{Quantity, Unit}};
+    /// let e = Quantity::parse(Field::Alkalinity, "2300", &[Unit::UmolPerKg]).unwrap_err();
     /// assert!(e.to_string().contains("umol/kg"));
     /// ```
-    pub fn parse(field: &'static str, text: &str, accepted: &[Unit]) -> Result<Self> {
+    pub fn parse(field: Field, text: &str, accepted: &[Unit]) -> Result<Self> {
         let t = text.trim();
         let n = number_prefix_len(t);
         let lower = t.to_ascii_lowercase();

@@ -90,4 +90,4 @@ impl BoronTotalFit {
     }
 }
 
-fit_from_str!(BoronTotalFit, "boron");
+fit_from_str!(BoronTotalFit, crate::base::field::Field::BoronFit);

@@ -113,7 +113,7 @@ impl CarbonicFit {
     }
 }
 
-fit_from_str!(CarbonicFit, "carbonic");
+fit_from_str!(CarbonicFit, crate::base::field::Field::CarbonicFit);
 
 /// pK1 and pK2 of Lueker, Dickson & Keeling (2000), total scale, mol/kg-soln.
 ///

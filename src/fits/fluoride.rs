@@ -96,7 +96,7 @@ impl FluorideFit {
     }
 }
 
-fit_from_str!(FluorideFit, "fluoride");
+fit_from_str!(FluorideFit, crate::base::field::Field::FluorideFit);
 
 /// Total fluoride, mol/kg-soln, from Riley (1965):
 /// `FT = (6.7e-5 / 18.998) * (S / 1.80655)`. Ratio from memory (unverified).

@@ -9,7 +9,7 @@
 /// `FromStr` for a fit enum with `ALL` and `name()`: the author-year name,
 /// case-insensitive, or an error listing the accepted names.
 macro_rules! fit_from_str {
-    ($ty:ty, $constant:literal) => {
+    ($ty:ty, $constant:expr) => {
         impl std::str::FromStr for $ty {
             type Err = crate::base::error::Error;
             fn from_str(s: &str) -> crate::base::error::Result<Self> {

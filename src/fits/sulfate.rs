@@ -3,6 +3,7 @@
 
 use super::FitRange;
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 use serde::Serialize;
 
 /// Published range of Dickson (1990) KS (range from memory, unverified).
@@ -101,7 +102,7 @@ impl std::str::FromStr for BisulfateFit {
             Ok(BisulfateFit::Dickson1990)
         } else {
             Err(Error::UnknownFit {
-                constant: "bisulfate",
+                constant: Field::BisulfateFit,
                 name: s.to_string(),
                 accepted: "dickson1990".to_string(),
             })

@@ -14,6 +14,7 @@
 //! (TEOS-10 at S = 0). Neutral species have γ = 1 (no salting-out term).
 
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 use serde::Serialize;
 
 /// A model of ionic activity coefficients.
@@ -58,7 +59,7 @@ impl std::str::FromStr for ActivityModel {
             "davies" => Ok(ActivityModel::Davies),
             "extended-debye-huckel" => Ok(ActivityModel::ExtendedDebyeHuckel),
             _ => Err(Error::UnknownChoice {
-                field: "activity",
+                field: Field::Activity,
                 name: s.to_string(),
                 accepted: "davies, extended-debye-huckel".to_string(),
             }),

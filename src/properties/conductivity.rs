@@ -1,6 +1,7 @@
 //! Conductivity: temperature compensation and practical salinity.
 
 use crate::base::error::{check_range, Error, Result};
+use crate::base::field::Field;
 
 /// Linear temperature-compensation coefficient, per °C: 0.0191, the value
 /// of APHA Standard Methods 2510 for natural waters (common practice; from
@@ -25,8 +26,14 @@ pub const LINEAR_COMPENSATION_PER_C: f64 = 0.0191;
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn specific_conductance_us_cm(conductivity_us_cm: f64, temperature_c: f64) -> Result<f64> {
-    check_range("conductivity", conductivity_us_cm, 0.0, 100_000.0, " µS/cm")?;
-    check_range("temperature_c", temperature_c, 0.0, 50.0, " °C")?;
+    check_range(
+        Field::Conductivity,
+        conductivity_us_cm,
+        0.0,
+        100_000.0,
+        " µS/cm",
+    )?;
+    check_range(Field::Temperature, temperature_c, 0.0, 50.0, " °C")?;
     Ok(conductivity_us_cm / (1.0 + LINEAR_COMPENSATION_PER_C * (temperature_c - 25.0)))
 }
 
@@ -52,21 +59,27 @@ pub fn salinity_from_conductivity(
     temperature_c: f64,
     pressure_dbar: f64,
 ) -> Result<f64> {
-    check_range("conductivity", conductivity_us_cm, 0.0, 100_000.0, " µS/cm")?;
+    check_range(
+        Field::Conductivity,
+        conductivity_us_cm,
+        0.0,
+        100_000.0,
+        " µS/cm",
+    )?;
     let s = gsw::practical_salinity::sp_from_c(
         conductivity_us_cm / 1000.0,
         temperature_c,
         pressure_dbar,
     )
     .map_err(|e| Error::Computation {
-        field: "salinity",
+        field: Field::Salinity,
         reason: format!("{e:?}"),
     })?;
     if s.is_finite() {
         Ok(s.max(0.0))
     } else {
         Err(Error::Computation {
-            field: "salinity",
+            field: Field::Salinity,
             reason: "PSS-78 gave no finite salinity".to_string(),
         })
     }

@@ -17,6 +17,7 @@
 //! as much, which matters on the per-row path of a field sheet.
 
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 
 /// Density in kg/m³ at the surface, from practical salinity and temperature (°C).
 ///
@@ -48,7 +49,7 @@ pub fn density_kg_m3(salinity: f64, temperature_c: f64) -> Result<f64> {
         Ok(rho)
     } else {
         Err(Error::Computation {
-            field: "density",
+            field: Field::Density,
             reason: format!("the equation of state gave {rho} kg/m3"),
         })
     }

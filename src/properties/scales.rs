@@ -10,6 +10,7 @@
 //! computed with an activity coefficient.
 
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 use serde::Serialize;
 
 /// A pH scale. Every pH in this crate carries one.
@@ -70,7 +71,7 @@ impl std::str::FromStr for PhScale {
             .into_iter()
             .find(|p| p.name() == t || (t == "sws" && *p == PhScale::Seawater))
             .ok_or_else(|| Error::UnknownChoice {
-                field: "ph_scale",
+                field: Field::PhScale,
                 name: s.to_string(),
                 accepted: "total, seawater, free, nbs".to_string(),
             })

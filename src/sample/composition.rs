@@ -2,6 +2,7 @@
 //! acid systems and the major ions, and the totals they give.
 
 use crate::base::error::{check_range, Result};
+use crate::base::field::Field;
 use crate::base::units::Amount;
 use crate::fits::BoronTotalFit;
 use serde::Serialize;
@@ -40,13 +41,13 @@ pub struct Composition {
     hardness: Option<Amount>,
 }
 
-fn checked(field: &'static str, a: Amount, min: f64, max: f64) -> Result<Option<Amount>> {
+fn checked(field: Field, a: Amount, min: f64, max: f64) -> Result<Option<Amount>> {
     check_range(field, a.raw(), min, max, " mol/kg")?;
     Ok(Some(a))
 }
 
 macro_rules! setter {
-    ($(#[$doc:meta])* $fn:ident, $field:ident, $name:literal, $min:expr, $max:expr) => {
+    ($(#[$doc:meta])* $fn:ident, $field:ident, $name:expr, $min:expr, $max:expr) => {
         $(#[$doc])*
         ///
         /// # Errors
@@ -61,45 +62,45 @@ macro_rules! setter {
 impl Composition {
     setter!(
         /// With total phosphate.
-        with_phosphate, phosphate, "phosphate", 0.0, MINOR_TOTAL_MAX_MOL_KG);
+        with_phosphate, phosphate, Field::Phosphate, 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With total silicate.
-        with_silicate, silicate, "silicate", 0.0, MINOR_TOTAL_MAX_MOL_KG);
+        with_silicate, silicate, Field::Silicate, 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With total ammonia (NH3 + NH4+).
-        with_ammonia, ammonia, "ammonia", 0.0, MINOR_TOTAL_MAX_MOL_KG);
+        with_ammonia, ammonia, Field::Ammonia, 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With total sulfide (H2S + HS-).
-        with_sulfide, sulfide, "sulfide", 0.0, MINOR_TOTAL_MAX_MOL_KG);
+        with_sulfide, sulfide, Field::Sulfide, 0.0, MINOR_TOTAL_MAX_MOL_KG);
     setter!(
         /// With measured total boron instead of the salinity ratio.
-        with_boron, boron, "boron_total", 0.0, 0.01);
+        with_boron, boron, Field::BoronTotal, 0.0, 0.01);
     setter!(
         /// With measured total sulfate instead of the salinity ratio.
-        with_sulfate, sulfate, "sulfate", 0.0, 0.1);
+        with_sulfate, sulfate, Field::Sulfate, 0.0, 0.1);
     setter!(
         /// With measured total fluoride instead of the salinity ratio.
-        with_fluoride, fluoride, "fluoride", 0.0, 0.01);
+        with_fluoride, fluoride, Field::Fluoride, 0.0, 0.01);
     setter!(
         /// With measured calcium instead of the salinity ratio.
-        with_calcium, calcium, "calcium", 1e-9, 0.1);
+        with_calcium, calcium, Field::Calcium, 1e-9, 0.1);
     setter!(
         /// With magnesium (fresh water: counted in the ionic strength).
-        with_magnesium, magnesium, "magnesium", 0.0, 0.1);
+        with_magnesium, magnesium, Field::Magnesium, 0.0, 0.1);
     setter!(
         /// With sodium (fresh water: counted in the ionic strength).
-        with_sodium, sodium, "sodium", 0.0, 1.0);
+        with_sodium, sodium, Field::Sodium, 0.0, 1.0);
     setter!(
         /// With potassium (fresh water: counted in the ionic strength).
-        with_potassium, potassium, "potassium", 0.0, 0.1);
+        with_potassium, potassium, Field::Potassium, 0.0, 0.1);
     setter!(
         /// With chloride (fresh water: counted in the ionic strength).
-        with_chloride, chloride, "chloride", 0.0, 1.0);
+        with_chloride, chloride, Field::Chloride, 0.0, 1.0);
     setter!(
         /// With total hardness (Ca + Mg, mol/kg) whose split is unknown: it is
         /// counted in the ionic strength as divalent cations, and never taken
         /// as calcium.
-        with_unassigned_hardness, hardness, "hardness", 0.0, 0.1);
+        with_unassigned_hardness, hardness, Field::Hardness, 0.0, 0.1);
 
     /// Whether any major ion besides calcium was given (Mg, Na, K, Cl or
     /// SO4; fresh water: the ionic strength is then computed from the ions).

@@ -1,6 +1,7 @@
 //! The physical conditions of a sample: temperature, salinity, pressure.
 
 use crate::base::error::{check_range, Result};
+use crate::base::field::Field;
 use serde::Serialize;
 
 /// Lowest accepted temperature, °C (sea water freezes near −1.9 °C).
@@ -51,7 +52,7 @@ impl Conditions {
     /// assert!(Conditions::new(25.0, -1.0).is_err());
     /// ```
     pub fn new(temperature_c: f64, salinity: f64) -> Result<Self> {
-        check_range("salinity", salinity, 0.0, SALINITY_MAX, "")?;
+        check_range(Field::Salinity, salinity, 0.0, SALINITY_MAX, "")?;
         Self {
             temperature_c,
             salinity,
@@ -75,7 +76,7 @@ impl Conditions {
     /// ```
     pub fn with_pressure_dbar(mut self, pressure_dbar: f64) -> Result<Self> {
         check_range(
-            "pressure_dbar",
+            Field::Pressure,
             pressure_dbar,
             0.0,
             PRESSURE_MAX_DBAR,
@@ -99,7 +100,7 @@ impl Conditions {
     /// ```
     pub fn with_temperature_c(mut self, temperature_c: f64) -> Result<Self> {
         check_range(
-            "temperature_c",
+            Field::Temperature,
             temperature_c,
             TEMPERATURE_MIN_C,
             TEMPERATURE_MAX_C,
@@ -123,7 +124,7 @@ impl Conditions {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_air_pressure_atm(mut self, air_pressure_atm: f64) -> Result<Self> {
-        check_range("air_pressure_atm", air_pressure_atm, 0.5, 1.1, " atm")?;
+        check_range(Field::AirPressure, air_pressure_atm, 0.5, 1.1, " atm")?;
         self.air_pressure_atm = air_pressure_atm;
         Ok(self)
     }

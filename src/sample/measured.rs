@@ -1,6 +1,7 @@
 //! Measured carbonate parameters, validated at construction.
 
 use crate::base::error::{check_range, Error, Result};
+use crate::base::field::Field;
 use crate::base::units::{list_units, units_with, Amount, Quantity, Unit};
 use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::properties::scales::PhScale;
@@ -68,6 +69,27 @@ impl Parameter {
             Parameter::Co2 => "co2",
             Parameter::Hco3 => "hco3",
             Parameter::Co3 => "co3",
+        }
+    }
+
+    /// The field of this parameter, as errors name it.
+    ///
+    /// ```
+    /// use travertine::{base::field::Field, Parameter};
+    /// assert_eq!(Parameter::Dic.field(), Field::Dic);
+    /// assert_eq!(Parameter::Dic.field().name(), Parameter::Dic.name());
+    /// ```
+    pub fn field(self) -> Field {
+        match self {
+            Parameter::Alkalinity => Field::Alkalinity,
+            Parameter::Dic => Field::Dic,
+            Parameter::Ph => Field::Ph,
+            Parameter::Pco2 => Field::Pco2,
+            Parameter::Fco2 => Field::Fco2,
+            Parameter::Xco2 => Field::Xco2,
+            Parameter::Co2 => Field::Co2,
+            Parameter::Hco3 => Field::Hco3,
+            Parameter::Co3 => Field::Co3,
         }
     }
 
@@ -220,7 +242,7 @@ impl Measured {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn new(parameter: Parameter, quantity: Quantity) -> Result<Self> {
-        let field = parameter.name();
+        let field = parameter.field();
         if !parameter.accepts(quantity.unit) {
             let accepted = parameter.accepted_units();
             return Err(Error::WrongUnit {
@@ -286,12 +308,12 @@ impl Measured {
     pub fn parse(parameter: Parameter, text: &str) -> Result<Self> {
         if parameter == Parameter::Ph {
             let v: f64 = text.trim().parse().map_err(|_| Error::NotANumber {
-                field: "ph",
+                field: Field::Ph,
                 text: text.to_string(),
             })?;
             return Measured::ph(v, None);
         }
-        let q = Quantity::parse(parameter.name(), text, &parameter.accepted_units())?;
+        let q = Quantity::parse(parameter.field(), text, &parameter.accepted_units())?;
         Measured::new(parameter, q)
     }
 
@@ -308,7 +330,7 @@ impl Measured {
     /// ```
     pub fn ph(value: f64, scale: Option<PhScale>) -> Result<Self> {
         let (min, max) = Parameter::Ph.accepted_range();
-        check_range("ph", value, min, max, "")?;
+        check_range(Field::Ph, value, min, max, "")?;
         Ok(Self {
             parameter: Parameter::Ph,
             value: Value::Ph(value, scale),
@@ -499,15 +521,15 @@ pub fn check_pair(a: &Measured, b: &Measured) -> Result<()> {
     let (pa, pb) = (a.parameter(), b.parameter());
     if pa == pb {
         return Err(Error::IncompatiblePair {
-            first: pa.name(),
-            second: pb.name(),
+            first: pa.field(),
+            second: pb.field(),
             reason: "the same parameter twice is one measurement, and two are needed",
         });
     }
     if pa.is_gas() && pb.is_gas() {
         return Err(Error::IncompatiblePair {
-            first: pa.name(),
-            second: pb.name(),
+            first: pa.field(),
+            second: pb.field(),
             reason: "pCO2, fCO2, xCO2 and CO2* carry the same information (each fixes the \
                      dissolved CO2); pair one of them with alkalinity, DIC, pH, HCO3 or CO3",
         });

@@ -4,12 +4,15 @@
 
 pub mod composition;
 pub mod conditions;
+pub mod inputs;
 pub mod measured;
 pub mod trade;
+pub mod values;
 pub mod water;
 
 pub use composition::{Composition, Totals};
 pub use conditions::Conditions;
 pub use measured::{Measured, Parameter};
-pub use trade::{Conductivity, MediumChoice, Sample};
+pub use trade::{CarbonValue, Sample};
+pub use values::{Conductivity, MediumChoice};
 pub use water::{Medium, Water};

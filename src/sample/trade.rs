@@ -3,194 +3,112 @@
 //! validated [`Water`]. The command line and the field sheet share it.
 
 use crate::base::error::{check_range, Error, Result};
-use crate::base::units::*;
-use crate::fits::{BoronTotalFit, CarbonicFit, Fits, FluorideFit};
+use crate::base::field::Field;
+use crate::base::units::{list_units, Amount, Quantity, Unit, MOLAR_UNITS};
+use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit};
 use crate::properties::activity::ActivityModel;
 use crate::properties::conductivity::{salinity_from_conductivity, specific_conductance_us_cm};
+use crate::properties::scales::PhScale;
 use crate::sample::conditions::Conditions;
+use crate::sample::inputs::{Input, Total};
+use crate::sample::measured::{check_pair, Measured, Parameter};
+use crate::sample::values::{Choice, Conductivity, InputValue, MediumChoice};
 use crate::sample::{Composition, Medium, Water};
 
-/// Which medium to use.
-///
-/// ```
-/// use travertine::sample::trade::MediumChoice;
-/// assert_eq!("auto".parse::<MediumChoice>()?, MediumChoice::Auto);
-/// # Ok::<(), travertine::Error>(())
-/// ```
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-#[non_exhaustive]
-pub enum MediumChoice {
-    /// Fresh below salinity 1, saline at or above it.
-    #[default]
-    Auto,
-    /// Fresh water.
-    Fresh,
-    /// Saline water.
-    Saline,
-}
-
-impl std::str::FromStr for MediumChoice {
-    type Err = Error;
-    fn from_str(s: &str) -> Result<Self> {
-        match s.trim().to_ascii_lowercase().as_str() {
-            "auto" => Ok(MediumChoice::Auto),
-            "fresh" => Ok(MediumChoice::Fresh),
-            "saline" => Ok(MediumChoice::Saline),
-            _ => Err(Error::UnknownChoice {
-                field: "water",
-                name: s.to_string(),
-                accepted: "fresh, saline, auto".to_string(),
-            }),
-        }
-    }
-}
-
-/// A conductivity reading.
-///
-/// ```
-/// use travertine::sample::trade::Conductivity;
-/// let c = Conductivity::parse("350 uS/cm@25C")?;
-/// assert_eq!(c, Conductivity::Specific { us_cm: 350.0 });
-/// let c = Conductivity::parse("0.41mS/cm")?;
-/// assert_eq!(c, Conductivity::AtTemperature { us_cm: 410.0 });
-/// # Ok::<(), travertine::Error>(())
-/// ```
+/// A measured carbonate value as given: a pH with the scale it names, or
+/// a number with its unit.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[non_exhaustive]
-pub enum Conductivity {
-    /// Measured at the sample temperature, µS/cm.
-    AtTemperature {
-        /// The reading.
-        us_cm: f64,
-    },
-    /// Specific conductance, compensated to 25 °C, µS/cm.
-    Specific {
-        /// The reading.
-        us_cm: f64,
-    },
+pub enum CarbonValue {
+    /// A pH and the scale it names, if any.
+    Ph(f64, Option<PhScale>),
+    /// A number with its unit.
+    Quantity(Quantity),
 }
 
-/// The units a conductivity accepts.
-pub const CONDUCTIVITY_UNITS: [Unit; 4] = [
-    Unit::USPerCm,
-    Unit::MSPerCm,
-    Unit::USPerCmAt25,
-    Unit::MSPerCmAt25,
-];
-
-impl Conductivity {
-    /// Parses "350uS/cm", "0.35 mS/cm" or, for specific conductance at 25 °C,
-    /// "350 uS/cm@25C".
+impl CarbonValue {
+    /// The measured parameter `p` of this value; a pH that names no scale
+    /// takes `default_scale`.
     ///
     /// # Errors
-    /// As [`Quantity::parse`].
+    /// As [`Measured::ph`] and [`Measured::new`].
     ///
     /// ```
-    /// # use travertine::sample::trade::Conductivity;
-    /// assert!(Conductivity::parse("350").is_err());
+    /// use travertine::{sample::trade::CarbonValue, Parameter, PhScale};
+    /// let m = CarbonValue::Ph(7.8, None).measured(Parameter::Ph, Some(PhScale::Nbs))?;
+    /// assert_eq!(m.parameter(), Parameter::Ph);
+    /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn parse(text: &str) -> Result<Self> {
-        let q = Quantity::parse("conductivity", text, &CONDUCTIVITY_UNITS)?;
-        Ok(Conductivity::from_quantity(q))
-    }
-
-    /// From a quantity in one of [`CONDUCTIVITY_UNITS`].
-    ///
-    /// ```
-    /// # use travertine::{sample::Conductivity, units::{Quantity, Unit}};
-    /// let c = Conductivity::from_quantity(Quantity::new(1.2, Unit::MSPerCmAt25));
-    /// assert_eq!(c, Conductivity::Specific { us_cm: 1200.0 });
-    /// ```
-    pub fn from_quantity(q: Quantity) -> Self {
-        match q.unit {
-            Unit::MSPerCm => Conductivity::AtTemperature {
-                us_cm: q.value * 1000.0,
-            },
-            Unit::USPerCmAt25 => Conductivity::Specific { us_cm: q.value },
-            Unit::MSPerCmAt25 => Conductivity::Specific {
-                us_cm: q.value * 1000.0,
-            },
-            _ => Conductivity::AtTemperature { us_cm: q.value },
+    pub fn measured(self, p: Parameter, default_scale: Option<PhScale>) -> Result<Measured> {
+        match self {
+            CarbonValue::Ph(v, scale) => Measured::ph(v, scale.or(default_scale)),
+            CarbonValue::Quantity(q) => Measured::new(p, q),
         }
     }
 }
 
-/// A sample described in the trade's terms.
+/// A sample described in the trade's terms, input by input, as the
+/// command line and the field sheet give it (see [`crate::sample::inputs`]).
 ///
 /// # Example
 /// ```
-/// use travertine::{sample::{Conductivity, Sample}, Medium, Measured, units::Quantity};
+/// use travertine::sample::{inputs::{Input, Total}, Sample};
+/// use travertine::{Medium, Parameter};
 /// let mut s = Sample::new(22.0);
-/// s.conductivity = Some(Conductivity::parse("420 uS/cm")?);
-/// s.calcium = Some(Quantity::parse("calcium", "48 mg/L Ca", &Sample::calcium_units())?);
+/// s.set(Input::Conductivity, "420 uS/cm")?;
+/// s.set(Input::Total(Total::Calcium), "48 mg/L Ca")?;
+/// s.set(Input::Carbon(Parameter::Alkalinity), "120 mg/L CaCO3")?;
+/// s.set(Input::Carbon(Parameter::Ph), "7.6")?;
 /// let water = s.water()?;
 /// assert_eq!(water.medium(), Medium::Fresh);
-/// let state = water.solve(Measured::parse(travertine::Parameter::Alkalinity, "120 mg/L CaCO3")?,
-///                         Measured::ph(7.6, None)?)?;
+/// let (a, b) = s.pair()?;
+/// let state = water.solve(a, b)?;
 /// assert!(state.langelier_index.is_some());
 /// # Ok::<(), travertine::Error>(())
 /// ```
-#[derive(Debug, Clone, PartialEq, Default)]
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
 #[non_exhaustive]
 pub struct Sample {
     /// Temperature of the measurement, °C.
-    pub temperature_c: f64,
+    pub temperature_c: Option<f64>,
     /// Practical salinity, if known.
     pub salinity: Option<f64>,
     /// Conductivity, if measured.
     pub conductivity: Option<Conductivity>,
-    /// Gauge pressure, dbar.
-    pub pressure_dbar: f64,
+    /// Gauge pressure, dbar (default 0).
+    pub pressure_dbar: Option<f64>,
     /// Air pressure, atm (default 1).
     pub air_pressure_atm: Option<f64>,
     /// The medium.
     pub medium: MediumChoice,
+    /// The scale of a pH that names none.
+    pub ph_scale: Option<PhScale>,
     /// K1, K2 fit (saline only).
     pub carbonic: Option<CarbonicFit>,
     /// Total boron ratio (saline only).
     pub boron: Option<BoronTotalFit>,
     /// KF fit (saline only).
     pub fluoride_fit: Option<FluorideFit>,
+    /// KS fit (its one choice, Dickson 1990).
+    pub bisulfate: Option<BisulfateFit>,
     /// Activity model (fresh only).
     pub activity: Option<ActivityModel>,
-    /// Total phosphate.
-    pub phosphate: Option<Quantity>,
-    /// Total silicate.
-    pub silicate: Option<Quantity>,
-    /// Total ammonia nitrogen.
-    pub ammonia: Option<Quantity>,
-    /// Total sulfide.
-    pub sulfide: Option<Quantity>,
-    /// Calcium (as Ca, molar, or calcium hardness as CaCO3).
-    pub calcium: Option<Quantity>,
-    /// Total hardness (as CaCO3 or molar).
-    pub hardness: Option<Quantity>,
+    /// The measured carbonate values, in the order of [`Parameter::ALL`].
+    pub carbon: [Option<CarbonValue>; 9],
+    /// The measured totals, in the order of [`Total::ALL`].
+    pub totals: [Option<Quantity>; 12],
     /// Fraction of the total hardness that is calcium, 0–1.
     pub calcium_fraction: Option<f64>,
-    /// Magnesium.
-    pub magnesium: Option<Quantity>,
-    /// Sodium.
-    pub sodium: Option<Quantity>,
-    /// Potassium.
-    pub potassium: Option<Quantity>,
-    /// Chloride.
-    pub chloride: Option<Quantity>,
-    /// Sulfate.
-    pub sulfate: Option<Quantity>,
-    /// Measured total boron.
-    pub boron_total: Option<Quantity>,
     /// Total dissolved solids, mg/L.
     pub tds_mg_l: Option<f64>,
     /// Ionic strength given directly, mol/kg.
     pub ionic_strength: Option<f64>,
 }
 
-fn amount(
-    field: &'static str,
-    q: Option<Quantity>,
-    mass: &[(Unit, f64)],
-) -> Result<Option<Amount>> {
+/// The amount of a total: by its molar unit, or by one of its mass units.
+fn amount(total: Total, q: Option<Quantity>) -> Result<Option<Amount>> {
     let Some(q) = q else { return Ok(None) };
+    let mass = total.mass_units();
     for (unit, g) in mass {
         if q.unit == *unit {
             return Ok(Amount::from_quantity(q, *unit, *g));
@@ -199,15 +117,16 @@ fn amount(
     Amount::from_quantity(q, Unit::UmolPerKg, 1.0)
         .filter(|_| MOLAR_UNITS.contains(&q.unit))
         .map(Some)
-        .ok_or_else(|| {
-            let mut accepted = MOLAR_UNITS.to_vec();
-            accepted.extend(mass.iter().map(|(u, _)| *u));
-            Error::WrongUnit {
-                field,
-                unit: q.unit.spelling().to_string(),
-                accepted: list_units(&accepted),
-            }
+        .ok_or_else(|| Error::WrongUnit {
+            field: total.field(),
+            unit: q.unit.spelling().to_string(),
+            accepted: list_units(&total.units()),
         })
+}
+
+/// The place of a parameter in [`Sample::carbon`].
+fn slot(p: Parameter) -> usize {
+    Parameter::ALL.iter().position(|q| *q == p).unwrap_or(0)
 }
 
 impl Sample {
@@ -215,53 +134,139 @@ impl Sample {
     ///
     /// ```
     /// # use travertine::sample::trade::Sample;
-    /// assert_eq!(Sample::new(12.0).temperature_c, 12.0);
+    /// assert_eq!(Sample::new(12.0).temperature_c, Some(12.0));
     /// ```
     pub fn new(temperature_c: f64) -> Self {
         Self {
-            temperature_c,
+            temperature_c: Some(temperature_c),
             ..Self::default()
         }
     }
 
-    /// The units calcium accepts: molar, mg/L Ca, or mg/L as CaCO3 (calcium hardness).
+    /// Stores a value of `input`. A value of another kind than the input
+    /// reads (a name for a temperature) is not stored: [`Input::read`]
+    /// and the sheet's cells always give the input's own kind.
     ///
     /// ```
-    /// # use travertine::{sample::Sample, units::Unit};
-    /// assert!(Sample::calcium_units().contains(&Unit::MgPerLCaCO3));
+    /// use travertine::sample::{inputs::Input, values::InputValue, Sample};
+    /// let mut s = Sample::default();
+    /// s.put(Input::Salinity, InputValue::Number(0.3));
+    /// assert_eq!(s.salinity, Some(0.3));
     /// ```
-    pub fn calcium_units() -> Vec<Unit> {
-        let mut v = units_with(Unit::MgPerLCa);
-        v.push(Unit::MgPerLCaCO3);
-        v
+    pub fn put(&mut self, input: Input, value: InputValue) {
+        match (input, value) {
+            (Input::Carbon(p), InputValue::Ph(v, s)) => {
+                self.carbon[slot(p)] = Some(CarbonValue::Ph(v, s))
+            }
+            (Input::Carbon(p), InputValue::Quantity(q)) => {
+                self.carbon[slot(p)] = Some(CarbonValue::Quantity(q))
+            }
+            (Input::Temperature, InputValue::Number(v)) => self.temperature_c = Some(v),
+            (Input::Salinity, InputValue::Number(v)) => self.salinity = Some(v),
+            (Input::Conductivity, InputValue::Conductivity(c)) => self.conductivity = Some(c),
+            (Input::Pressure, InputValue::Number(v)) => self.pressure_dbar = Some(v),
+            (Input::AirPressure, InputValue::Number(v)) => self.air_pressure_atm = Some(v),
+            (Input::Total(t), InputValue::Quantity(q)) => self.totals[t.index()] = Some(q),
+            (Input::CalciumFraction, InputValue::Number(v)) => self.calcium_fraction = Some(v),
+            (Input::Tds, InputValue::Number(v)) => self.tds_mg_l = Some(v),
+            (Input::IonicStrength, InputValue::Number(v)) => self.ionic_strength = Some(v),
+            (_, InputValue::Choice(c)) => match c {
+                Choice::Medium(m) => self.medium = m,
+                Choice::Scale(s) => self.ph_scale = Some(s),
+                Choice::Carbonic(f) => self.carbonic = Some(f),
+                Choice::Boron(f) => self.boron = Some(f),
+                Choice::Fluoride(f) => self.fluoride_fit = Some(f),
+                Choice::Bisulfate(f) => self.bisulfate = Some(f),
+                Choice::Activity(m) => self.activity = Some(m),
+            },
+            _ => {}
+        }
     }
 
-    /// The units of each optional total, by field name (as in the errors).
+    /// Reads `text` as a value of `input` ([`Input::read`]) and stores it.
+    ///
+    /// # Errors
+    /// As [`Input::read`].
     ///
     /// ```
-    /// # use travertine::{sample::Sample, units::Unit};
-    /// assert!(Sample::units_for("ammonia").contains(&Unit::MgPerLN));
+    /// use travertine::sample::{inputs::Input, Sample};
+    /// let mut s = Sample::default();
+    /// s.set(Input::Medium, "fresh")?;
+    /// assert!(s.set(Input::Medium, "brine").is_err());
+    /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn units_for(field: &str) -> Vec<Unit> {
-        match field {
-            "calcium" => Self::calcium_units(),
-            "hardness" | "magnesium" => {
-                let mut v = units_with(Unit::MgPerLCaCO3);
-                if field == "magnesium" {
-                    v.push(Unit::MgPerLMg);
-                }
-                v
-            }
-            "phosphate" => units_with(Unit::MgPerLP),
-            "silicate" => units_with(Unit::MgPerLSi),
-            "ammonia" => units_with(Unit::MgPerLN),
-            "sulfide" => units_with(Unit::MgPerLS),
-            "sodium" => units_with(Unit::MgPerLNa),
-            "potassium" => units_with(Unit::MgPerLK),
-            "chloride" => units_with(Unit::MgPerLCl),
-            "sulfate" => units_with(Unit::MgPerLSO4),
-            _ => MOLAR_UNITS.to_vec(),
-        }
+    pub fn set(&mut self, input: Input, text: &str) -> Result<()> {
+        let value = input.read(text)?;
+        self.put(input, value);
+        Ok(())
+    }
+
+    /// A measured total, as given.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::{Input, Total}, Sample};
+    /// let mut s = Sample::default();
+    /// s.set(Input::Total(Total::Sodium), "12 mg/L Na")?;
+    /// assert!(s.total(Total::Sodium).is_some());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn total(&self, t: Total) -> Option<Quantity> {
+        self.totals[t.index()]
+    }
+
+    /// A measured carbonate value, as given.
+    pub fn carbon_value(&self, p: Parameter) -> Option<CarbonValue> {
+        self.carbon[slot(p)]
+    }
+
+    /// The measured parameter `p`, if given; a pH that names no scale takes
+    /// [`Sample::ph_scale`].
+    ///
+    /// ```
+    /// use travertine::{sample::Sample, Parameter};
+    /// assert!(Sample::new(20.0).measured(Parameter::Dic).is_none());
+    /// ```
+    pub fn measured(&self, p: Parameter) -> Option<Result<Measured>> {
+        self.carbon_value(p).map(|v| v.measured(p, self.ph_scale))
+    }
+
+    /// The measured pair: exactly two carbonate parameters given, which
+    /// can be used together.
+    ///
+    /// # Errors
+    /// [`Error::WrongCount`] unless exactly two are given; the pair rule
+    /// of [`check_pair`]; the validation of each value.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, Sample};
+    /// use travertine::Parameter;
+    /// let mut s = Sample::new(20.0);
+    /// s.set(Input::Carbon(Parameter::Ph), "8.1")?;
+    /// assert!(s.pair().is_err());
+    /// s.set(Input::Carbon(Parameter::Dic), "2000 umol/kg")?;
+    /// assert!(s.pair().is_ok());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn pair(&self) -> Result<(Measured, Measured)> {
+        let given: Vec<(Parameter, Result<Measured>)> = Parameter::ALL
+            .into_iter()
+            .filter_map(|p| self.measured(p).map(|m| (p, m)))
+            .collect();
+        let count = given.len();
+        let mut values = given.into_iter();
+        let (Some((_, ma)), Some((_, mb)), None) = (values.next(), values.next(), values.next())
+        else {
+            return Err(Error::WrongCount {
+                field: Field::Alkalinity,
+                given: count,
+                wanted: 2,
+                what: "measured carbonate parameters (of alkalinity, dic, ph, pco2, fco2, \
+                       xco2, co2, hco3, co3)",
+            });
+        };
+        let (ma, mb) = (ma?, mb?);
+        check_pair(&ma, &mb)?;
+        Ok((ma, mb))
     }
 
     /// The validated water.
@@ -284,7 +289,9 @@ impl Sample {
     /// assert!(s.water().is_err());
     /// ```
     pub fn water(&self) -> Result<Water> {
-        let t = self.temperature_c;
+        let t = self.temperature_c.ok_or(Error::Missing {
+            field: Field::Temperature,
+        })?;
         let mut spc = None;
         let mut salinity = self.salinity;
         if let Some(c) = self.conductivity {
@@ -293,7 +300,7 @@ impl Sample {
                     (us_cm, specific_conductance_us_cm(us_cm, t)?)
                 }
                 Conductivity::Specific { us_cm } => {
-                    check_range("conductivity", us_cm, 0.0, 100_000.0, " µS/cm")?;
+                    check_range(Field::Conductivity, us_cm, 0.0, 100_000.0, " µS/cm")?;
                     (us_cm, us_cm)
                 }
             };
@@ -306,8 +313,8 @@ impl Sample {
                 salinity = Some(salinity_from_conductivity(c_val, t_val, 0.0)?);
             }
         }
-        let mut conditions =
-            Conditions::new(t, salinity.unwrap_or(0.0))?.with_pressure_dbar(self.pressure_dbar)?;
+        let mut conditions = Conditions::new(t, salinity.unwrap_or(0.0))?
+            .with_pressure_dbar(self.pressure_dbar.unwrap_or(0.0))?;
         if let Some(p) = self.air_pressure_atm {
             conditions = conditions.with_air_pressure_atm(p)?;
         }
@@ -319,9 +326,9 @@ impl Sample {
         let fresh = water.medium() == Medium::Fresh;
         if fresh {
             let saline_only = [
-                ("carbonic", self.carbonic.map(|f| f.name())),
-                ("boron", self.boron.map(|f| f.name())),
-                ("fluoride", self.fluoride_fit.map(|f| f.name())),
+                (Field::CarbonicFit, self.carbonic.map(|f| f.name())),
+                (Field::BoronFit, self.boron.map(|f| f.name())),
+                (Field::FluorideFit, self.fluoride_fit.map(|f| f.name())),
             ];
             for (field, name) in saline_only {
                 if let Some(name) = name {
@@ -336,7 +343,7 @@ impl Sample {
             }
         } else if let Some(model) = self.activity {
             return Err(Error::WrongMedium {
-                field: "activity",
+                field: Field::Activity,
                 name: model.name().to_string(),
                 medium: "fresh",
                 hint: "saline constants are stoichiometric and need no activity model; drop \
@@ -353,36 +360,34 @@ impl Sample {
         if let Some(f) = self.fluoride_fit {
             fits = fits.with_fluoride(f);
         }
+        if let Some(f) = self.bisulfate {
+            fits.bisulfate = f;
+        }
 
         let mut comp = Composition::default();
-        let caco3 = (Unit::MgPerLCaCO3, CACO3_G_MOL);
-        if let Some(a) = amount("phosphate", self.phosphate, &[(Unit::MgPerLP, P_G_MOL)])? {
+        if let Some(a) = amount(Total::Phosphate, self.total(Total::Phosphate))? {
             comp = comp.with_phosphate(a)?;
         }
-        if let Some(a) = amount("silicate", self.silicate, &[(Unit::MgPerLSi, SI_G_MOL)])? {
+        if let Some(a) = amount(Total::Silicate, self.total(Total::Silicate))? {
             comp = comp.with_silicate(a)?;
         }
-        if let Some(a) = amount("ammonia", self.ammonia, &[(Unit::MgPerLN, N_G_MOL)])? {
+        if let Some(a) = amount(Total::Ammonia, self.total(Total::Ammonia))? {
             comp = comp.with_ammonia(a)?;
         }
-        if let Some(a) = amount("sulfide", self.sulfide, &[(Unit::MgPerLS, S_G_MOL)])? {
+        if let Some(a) = amount(Total::Sulfide, self.total(Total::Sulfide))? {
             comp = comp.with_sulfide(a)?;
         }
-        if let Some(a) = amount(
-            "calcium",
-            self.calcium,
-            &[(Unit::MgPerLCa, CA_G_MOL), caco3],
-        )? {
+        if let Some(a) = amount(Total::Calcium, self.total(Total::Calcium))? {
             comp = comp.with_calcium(a)?;
         }
-        if let Some(h) = amount("hardness", self.hardness, &[caco3])? {
+        if let Some(h) = amount(Total::Hardness, self.total(Total::Hardness))? {
             match self.calcium_fraction {
                 Some(f) => {
-                    check_range("calcium_fraction", f, 0.0, 1.0, "")?;
-                    if self.calcium.is_some() {
+                    check_range(Field::CalciumFraction, f, 0.0, 1.0, "")?;
+                    if self.total(Total::Calcium).is_some() {
                         return Err(Error::IncompatiblePair {
-                            first: "calcium",
-                            second: "calcium_fraction",
+                            first: Field::Calcium,
+                            second: Field::CalciumFraction,
                             reason: "give calcium, or hardness with a calcium fraction, not both",
                         });
                     }
@@ -395,30 +400,27 @@ impl Sample {
                     }
                     comp = comp.with_magnesium(scale(h, 1.0 - f))?;
                 }
-                None if self.calcium.is_some() || self.magnesium.is_some() => {}
+                None if self.total(Total::Calcium).is_some()
+                    || self.total(Total::Magnesium).is_some() => {}
                 None => comp = comp.with_unassigned_hardness(h)?,
             }
         }
-        if let Some(a) = amount(
-            "magnesium",
-            self.magnesium,
-            &[(Unit::MgPerLMg, MG_G_MOL), caco3],
-        )? {
+        if let Some(a) = amount(Total::Magnesium, self.total(Total::Magnesium))? {
             comp = comp.with_magnesium(a)?;
         }
-        if let Some(a) = amount("sodium", self.sodium, &[(Unit::MgPerLNa, NA_G_MOL)])? {
+        if let Some(a) = amount(Total::Sodium, self.total(Total::Sodium))? {
             comp = comp.with_sodium(a)?;
         }
-        if let Some(a) = amount("potassium", self.potassium, &[(Unit::MgPerLK, K_G_MOL)])? {
+        if let Some(a) = amount(Total::Potassium, self.total(Total::Potassium))? {
             comp = comp.with_potassium(a)?;
         }
-        if let Some(a) = amount("chloride", self.chloride, &[(Unit::MgPerLCl, CL_G_MOL)])? {
+        if let Some(a) = amount(Total::Chloride, self.total(Total::Chloride))? {
             comp = comp.with_chloride(a)?;
         }
-        if let Some(a) = amount("sulfate", self.sulfate, &[(Unit::MgPerLSO4, SO4_G_MOL)])? {
+        if let Some(a) = amount(Total::Sulfate, self.total(Total::Sulfate))? {
             comp = comp.with_sulfate(a)?;
         }
-        if let Some(a) = amount("boron_total", self.boron_total, &[])? {
+        if let Some(a) = amount(Total::Boron, self.total(Total::Boron))? {
             comp = comp.with_boron(a)?;
         }
 

@@ -1,6 +1,7 @@
 //! A water sample: its medium, conditions, composition and choice of fits.
 
 use crate::base::error::{check_range, Result};
+use crate::base::field::Field;
 use crate::fits::Fits;
 use crate::properties::activity::ActivityModel;
 use crate::sample::composition::Composition;
@@ -104,14 +105,14 @@ impl Water {
     /// ```
     pub fn saline(conditions: Conditions) -> Result<Self> {
         check_range(
-            "temperature_c",
+            Field::Temperature,
             conditions.temperature_c(),
             SALINE_TEMPERATURE_MIN_C,
             SALINE_TEMPERATURE_MAX_C,
             " °C",
         )?;
         check_range(
-            "salinity",
+            Field::Salinity,
             conditions.salinity(),
             SALINE_SALINITY_MIN,
             crate::sample::conditions::SALINITY_MAX,
@@ -141,14 +142,14 @@ impl Water {
     /// ```
     pub fn fresh(conditions: Conditions) -> Result<Self> {
         check_range(
-            "temperature_c",
+            Field::Temperature,
             conditions.temperature_c(),
             0.0,
             100.0,
             " °C",
         )?;
         check_range(
-            "salinity",
+            Field::Salinity,
             conditions.salinity(),
             0.0,
             FRESH_SALINITY_MAX,
@@ -210,7 +211,7 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_specific_conductance_us_cm(mut self, value: f64) -> Result<Self> {
-        check_range("specific_conductance", value, 0.0, 100_000.0, " µS/cm")?;
+        check_range(Field::SpecificConductance, value, 0.0, 100_000.0, " µS/cm")?;
         self.fresh.specific_conductance_us_cm = Some(value);
         Ok(self)
     }
@@ -228,7 +229,7 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_tds_mg_l(mut self, value: f64) -> Result<Self> {
-        check_range("tds", value, 0.0, 50_000.0, " mg/L")?;
+        check_range(Field::Tds, value, 0.0, 50_000.0, " mg/L")?;
         self.fresh.tds_mg_l = Some(value);
         Ok(self)
     }
@@ -245,7 +246,7 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_ionic_strength(mut self, value: f64) -> Result<Self> {
-        check_range("ionic_strength", value, 0.0, 1.0, " mol/kg")?;
+        check_range(Field::IonicStrength, value, 0.0, 1.0, " mol/kg")?;
         self.fresh.ionic_strength = Some(value);
         Ok(self)
     }

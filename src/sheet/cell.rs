@@ -5,36 +5,12 @@
 //! column's own unit (`25 °C` in a °C column); any other text is an error
 //! for that row only.
 
-use super::header::{cell_unit, Column, Field, Reading};
+use super::header::{cell_unit, Column, Reading};
 use crate::base::error::Error;
 use crate::base::units::number_len;
 use crate::base::units::Quantity;
-use crate::fits::{BoronTotalFit, CarbonicFit, FluorideFit};
-use crate::properties::activity::ActivityModel;
-use crate::properties::scales::PhScale;
-use crate::sample::trade::{Conductivity, MediumChoice};
-
-/// A chosen name.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub(crate) enum Choice {
-    Medium(MediumChoice),
-    Scale(PhScale),
-    Carbonic(CarbonicFit),
-    Boron(BoronTotalFit),
-    Fluoride(FluorideFit),
-    Activity(ActivityModel),
-}
-
-/// A cell's value.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub(crate) enum Parsed {
-    /// In the field's base unit (°C, dbar, atm, mg/L, mol/kg, fraction).
-    Number(f64),
-    Quantity(Quantity),
-    Conductivity(Conductivity),
-    Ph(f64, Option<PhScale>),
-    Choice(Choice),
-}
+use crate::sample::values::Conductivity;
+use crate::sample::values::InputValue;
 
 /// Why a cell cannot be read.
 #[derive(Debug, Clone, PartialEq)]
@@ -225,23 +201,12 @@ fn label(r: Reading) -> &'static str {
     }
 }
 
-fn choice(field: Field, t: &str) -> Result<Choice, Error> {
-    Ok(match field {
-        Field::Medium => Choice::Medium(t.parse()?),
-        Field::PhScale => Choice::Scale(t.parse()?),
-        Field::CarbonicFit => Choice::Carbonic(t.parse()?),
-        Field::BoronFit => Choice::Boron(t.parse()?),
-        Field::FluorideFit => Choice::Fluoride(t.parse()?),
-        _ => Choice::Activity(t.parse()?),
-    })
-}
-
 /// Reads a cell; `Ok(None)` when it is empty or marked as not measured.
 pub(crate) fn parse(
     column: &Column,
     bytes: &[u8],
     decimal_comma: bool,
-) -> Result<Option<Parsed>, Problem> {
+) -> Result<Option<InputValue>, Problem> {
     let trimmed = bytes.trim_ascii();
     // The common case, a plain decimal, needs no more than a look at its bytes.
     let fast = if column.reading == Reading::Text {
@@ -267,20 +232,20 @@ pub(crate) fn parse(
         None => number(column, t, decimal_comma),
     };
     let parsed = match column.reading {
-        Reading::Text => Parsed::Choice(choice(column.field, t).map_err(Problem::Choice)?),
+        Reading::Text => column.field.read(t).map_err(Problem::Choice)?,
         Reading::Number { scale, offset, .. } => {
-            Parsed::Number(value(decimal_comma)? * scale + offset)
+            InputValue::Number(value(decimal_comma)? * scale + offset)
         }
-        Reading::Quantity(unit) => Parsed::Quantity(Quantity::new(value(decimal_comma)?, unit)),
+        Reading::Quantity(unit) => InputValue::Quantity(Quantity::new(value(decimal_comma)?, unit)),
         Reading::Conductivity { scale, specific } => {
             let us_cm = value(decimal_comma)? * scale;
-            Parsed::Conductivity(if specific {
+            InputValue::Conductivity(if specific {
                 Conductivity::Specific { us_cm }
             } else {
                 Conductivity::AtTemperature { us_cm }
             })
         }
-        Reading::Ph(scale) => Parsed::Ph(value(decimal_comma)?, scale),
+        Reading::Ph(scale) => InputValue::Ph(value(decimal_comma)?, scale),
     };
     Ok(Some(parsed))
 }
@@ -288,6 +253,8 @@ pub(crate) fn parse(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::properties::scales::PhScale;
+    use crate::sample::inputs::Input;
     use crate::sample::measured::Parameter;
     use crate::sheet::header::{recognise, Recognition};
 
@@ -339,7 +306,7 @@ mod tests {
         let ph = col("pH (NBS)");
         assert_eq!(
             parse(&ph, b" 7.9 ", false),
-            Ok(Some(Parsed::Ph(7.9, Some(PhScale::Nbs))))
+            Ok(Some(InputValue::Ph(7.9, Some(PhScale::Nbs))))
         );
         assert_eq!(parse(&ph, b"", false), Ok(None));
         assert_eq!(parse(&ph, b"NA", false), Ok(None));
@@ -347,7 +314,7 @@ mod tests {
         assert_eq!(parse(&ph, b"7,9", false), Err(Problem::DecimalComma));
         assert_eq!(
             parse(&ph, b"7,9", true),
-            Ok(Some(Parsed::Ph(7.9, Some(PhScale::Nbs))))
+            Ok(Some(InputValue::Ph(7.9, Some(PhScale::Nbs))))
         );
         assert_eq!(parse(&ph, b"NaN", false), Err(Problem::NotFinite));
         assert_eq!(parse(&ph, b"-inf", false), Err(Problem::NotFinite));
@@ -355,7 +322,10 @@ mod tests {
         assert_eq!(parse(&ph, b"\xff7", false), Err(Problem::NotANumber));
 
         let t = col("Temp [°C]");
-        assert_eq!(parse(&t, b"25 C", false), Ok(Some(Parsed::Number(25.0))));
+        assert_eq!(
+            parse(&t, b"25 C", false),
+            Ok(Some(InputValue::Number(25.0)))
+        );
         assert_eq!(
             parse(&t, b"78 F", false),
             Err(Problem::OtherUnit {
@@ -364,13 +334,13 @@ mod tests {
             })
         );
         let f = col("temperature_f");
-        let Ok(Some(Parsed::Number(c))) = parse(&f, b"77", false) else {
+        let Ok(Some(InputValue::Number(c))) = parse(&f, b"77", false) else {
             panic!()
         };
         assert!((c - 25.0).abs() < 1e-12); // 77 °F is 25 °C (definition of the scales)
 
         let ta = col("Alkalinity (mg/L as CaCO3)");
-        assert_eq!(ta.field, Field::Carbon(Parameter::Alkalinity));
+        assert_eq!(ta.field, Input::Carbon(Parameter::Alkalinity));
         assert!(parse(&ta, b"120 mg/L as CaCO3", false).is_ok());
         assert!(parse(&ta, b"120 umol/kg", false).is_err());
     }

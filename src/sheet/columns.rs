@@ -15,7 +15,7 @@ use crate::state::State;
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 #[non_exhaustive]
 pub enum UnitSystem {
-    /// Field units: mg/L as CaCO3, mg/L as C, mg/L, µatm, pH on the NBS scale.
+    /// Input units: mg/L as CaCO3, mg/L as C, mg/L, µatm, pH on the NBS scale.
     #[default]
     Trade,
     /// Oceanographic units: µmol/kg, µatm, pH on the total scale.

@@ -77,7 +77,7 @@ mod columns;
 mod error;
 mod files;
 mod header;
-mod inputs;
+mod pair;
 mod pipeline;
 mod plan;
 mod row;

@@ -4,11 +4,13 @@
 
 use super::cell;
 use super::columns::{Computed, UnitSystem};
-use super::header::{self, Column, Field, Reading, Recognition};
-use super::inputs::{choose_pair, rank, Inputs, RANKING};
+use super::header::{self, Column, Reading, Recognition};
+use super::pair::{choose_pair, rank, RANKING};
 use super::{SheetError, SheetOptions};
 use crate::properties::scales::PhScale;
+use crate::sample::inputs::Input;
 use crate::sample::measured::Parameter;
+use crate::sample::Sample;
 use crate::solve::SolveOptions;
 
 /// A recognised column of the sheet.
@@ -46,9 +48,9 @@ pub(crate) struct Plan {
     /// The recognised columns, in the order of the row.
     pub read: Vec<ReadColumn>,
     /// Where each field comes from.
-    pub labels: Vec<(Field, Label)>,
+    pub labels: Vec<(Input, Label)>,
     /// The values given by `--set`.
-    pub template: Inputs,
+    pub template: Sample,
     pub forced_pair: Option<(Parameter, Parameter)>,
     pub residuals: Vec<Residual>,
     pub computed: Vec<Computed>,
@@ -65,7 +67,7 @@ pub(crate) struct Plan {
 
 impl Plan {
     /// Where `field` comes from.
-    pub(crate) fn label(&self, field: Field) -> Option<&Label> {
+    pub(crate) fn label(&self, field: Input) -> Option<&Label> {
         self.labels
             .iter()
             .find(|(f, _)| *f == field)
@@ -105,7 +107,7 @@ impl Plan {
         }
 
         let mut read = Vec::new();
-        let mut labels: Vec<(Field, Label)> = Vec::new();
+        let mut labels: Vec<(Input, Label)> = Vec::new();
         let mut passed = Vec::new();
         for (i, text) in texts.iter().enumerate() {
             let column = match mapped[i] {
@@ -125,7 +127,7 @@ impl Plan {
                             header: text.clone(),
                             problem: issue.problem,
                             accepted: issue.field.accepted(),
-                            canonical: issue.field.canonical(),
+                            canonical: issue.field.column(),
                         })
                     }
                 },
@@ -147,7 +149,7 @@ impl Plan {
         }
 
         // --set name=value: a value for every row.
-        let mut template = Inputs::default();
+        let mut template = Sample::default();
         for (name, value) in &options.sets {
             let spec = format!("{name}={value}");
             let column = set_name(name, &spec)?;
@@ -188,11 +190,11 @@ impl Plan {
         if let (Some(scale_label), Some(Label::Column(j))) = (
             labels
                 .iter()
-                .find(|(f, _)| *f == Field::PhScale)
+                .find(|(f, _)| *f == Input::PhScale)
                 .map(|(_, l)| l),
             labels
                 .iter()
-                .find(|(f, _)| *f == Field::Carbon(Parameter::Ph))
+                .find(|(f, _)| *f == Input::Carbon(Parameter::Ph))
                 .map(|(_, l)| l),
         ) {
             if let Reading::Ph(Some(s)) = read[*j].column.reading {
@@ -232,7 +234,7 @@ impl Plan {
             }
         };
 
-        if !labels.iter().any(|(f, _)| *f == Field::Temperature) {
+        if !labels.iter().any(|(f, _)| *f == Input::Temperature) {
             return Err(SheetError::Missing(
                 "no temperature: add a column such as `temperature_c` or `Temp (°C)`, or give \
                  one value for every row with --set temperature_c=VALUE"
@@ -280,7 +282,7 @@ impl Plan {
         push("message".into(), &mut added);
 
         let warm_check = labels.iter().find_map(|(f, l)| match (f, l) {
-            (Field::Temperature, Label::Column(j)) => match read[*j].column.reading {
+            (Input::Temperature, Label::Column(j)) => match read[*j].column.reading {
                 Reading::Number { label: "°C", .. } => Some(*j),
                 _ => None,
             },
@@ -328,7 +330,7 @@ fn map_name(name: &str, target: &str) -> Result<Column, SheetError> {
                 "{name}={target}: {}; accepted: {}; for example --map {}=\"{target}\"",
                 i.problem,
                 i.field.accepted(),
-                i.field.canonical()
+                i.field.column()
             ),
             None => format!(
                 "{name}={target}: `{name}` is not a column name travertine reads; use a name \
@@ -348,7 +350,7 @@ fn set_name(name: &str, spec: &str) -> Result<Column, SheetError> {
                 "{spec}: {}; accepted: {}; for example --set {}=VALUE",
                 i.problem,
                 i.field.accepted(),
-                i.field.canonical()
+                i.field.column()
             ),
             None => format!(
                 "{spec}: `{name}` is not a name travertine reads; use a name with its unit such \
@@ -359,10 +361,10 @@ fn set_name(name: &str, spec: &str) -> Result<Column, SheetError> {
 }
 
 /// Which carbonate parameters have a column or a `--set` value.
-fn present(labels: &[(Field, Label)]) -> [bool; 9] {
+fn present(labels: &[(Input, Label)]) -> [bool; 9] {
     let mut present = [false; 9];
     for (f, _) in labels {
-        if let Field::Carbon(p) = f {
+        if let Input::Carbon(p) = f {
             present[rank(*p)] = true;
         }
     }
@@ -370,13 +372,13 @@ fn present(labels: &[(Field, Label)]) -> [bool; 9] {
 }
 
 /// The carbonate parameters found, in words.
-fn found(labels: &[(Field, Label)], read: &[ReadColumn]) -> String {
+fn found(labels: &[(Input, Label)], read: &[ReadColumn]) -> String {
     let given: Vec<String> = RANKING
         .iter()
         .filter_map(|p| {
             labels
                 .iter()
-                .find(|(f, _)| *f == Field::Carbon(*p))
+                .find(|(f, _)| *f == Input::Carbon(*p))
                 .map(|(_, l)| match l {
                     Label::Column(j) => format!("{} (column `{}`)", p.name(), read[*j].header),
                     Label::Set(s) => format!("{} (--set {s})", p.name()),
@@ -390,7 +392,7 @@ fn found(labels: &[(Field, Label)], read: &[ReadColumn]) -> String {
 }
 
 fn no_pair(
-    labels: &[(Field, Label)],
+    labels: &[(Input, Label)],
     read: &[ReadColumn],
     passed: &[String],
     texts: &[String],
@@ -433,13 +435,13 @@ fn no_pair(
 /// name in the unit system, then `_residual`.
 fn residual_name(
     p: Parameter,
-    labels: &[(Field, Label)],
+    labels: &[(Input, Label)],
     read: &[ReadColumn],
     units: UnitSystem,
 ) -> String {
     let scale: Option<PhScale> = if p == Parameter::Ph {
         labels.iter().find_map(|(f, l)| match (f, l) {
-            (Field::Carbon(Parameter::Ph), Label::Column(j)) => match read[*j].column.reading {
+            (Input::Carbon(Parameter::Ph), Label::Column(j)) => match read[*j].column.reading {
                 Reading::Ph(s) => s,
                 _ => None,
             },

@@ -2,15 +2,16 @@
 
 use super::cell;
 use super::columns::{Computed, UnitSystem, Value};
-use super::header::{Field, Total};
-use super::inputs::{choose_pair, rank, CarbonValue, RANKING};
+use super::pair::{choose_pair, rank, RANKING};
 use super::plan::{Label, Plan};
 use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::flow::PreparedWater;
 use crate::properties::scales::PhScale;
+use crate::sample::inputs::Input;
 use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::Medium;
+use crate::sample::CarbonValue;
 use crate::state::State;
 
 /// The outcome of a row.
@@ -97,33 +98,6 @@ pub(crate) fn error_key(e: &Error) -> String {
     }
 }
 
-/// The field a library error names.
-fn field_of(name: &str) -> Option<Field> {
-    Some(match name {
-        "temperature_c" => Field::Temperature,
-        "salinity" => Field::Salinity,
-        "conductivity" | "specific_conductance" => Field::Conductivity,
-        "pressure_dbar" => Field::Pressure,
-        "air_pressure_atm" => Field::AirPressure,
-        "calcium_fraction" => Field::CalciumFraction,
-        "tds" => Field::Tds,
-        "ionic_strength" => Field::IonicStrength,
-        "water" => Field::Medium,
-        "ph_scale" => Field::PhScale,
-        "carbonic" => Field::CarbonicFit,
-        "boron" => Field::BoronFit,
-        "fluoride" => Field::FluorideFit,
-        "activity" => Field::Activity,
-        other => {
-            if let Some(p) = Parameter::ALL.iter().find(|p| p.name() == other) {
-                Field::Carbon(*p)
-            } else {
-                Field::Total(*Total::ALL.iter().find(|t| t.name() == other)?)
-            }
-        }
-    })
-}
-
 /// The cell text of a column in a record, for messages.
 fn cell_text(record: &csv::ByteRecord, index: usize) -> String {
     String::from_utf8_lossy(record.get(index).unwrap_or_default())
@@ -132,10 +106,10 @@ fn cell_text(record: &csv::ByteRecord, index: usize) -> String {
 }
 
 /// Where a value came from, for messages: `column `X` (`cell`)` or `--set x=v`.
-fn source_of(plan: &Plan, record: &csv::ByteRecord, field: Field) -> Option<(String, String)> {
+fn source_of(plan: &Plan, record: &csv::ByteRecord, field: Input) -> Option<(String, String)> {
     let label = plan.label(field).or_else(|| match field {
         // Salinity computed from the conductivity.
-        Field::Salinity => plan.label(Field::Conductivity),
+        Input::Salinity => plan.label(Input::Conductivity),
         _ => None,
     })?;
     Some(match label {
@@ -163,7 +137,7 @@ fn library_issue(plan: &Plan, record: &csv::ByteRecord, e: &Error, s: &mut Scrat
         None
     } else {
         e.field()
-            .and_then(field_of)
+            .and_then(Input::from_field)
             .and_then(|f| source_of(plan, record, f))
     };
     match source {
@@ -253,9 +227,9 @@ fn implausible(state: &State, a: &Measured, b: &Measured) -> Option<String> {
             return Some(format!(
                 "no water fits {} = {} with {} = {}: the {} would be {v:.3e} µmol/kg, beyond the \
                  accepted {min} to {max} µmol/kg",
-                a.parameter().name(),
+                a.parameter().field(),
                 a.describe(),
-                b.parameter().name(),
+                b.parameter().field(),
                 b.describe(),
                 p.name()
             ));
@@ -324,8 +298,8 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     if !s.issues.is_empty() {
         return None;
     }
-    let Some(t) = inputs.temperature else {
-        let label = match plan.label(Field::Temperature) {
+    let Some(t) = inputs.temperature_c else {
+        let label = match plan.label(Input::Temperature) {
             Some(Label::Column(i)) => format!("column `{}` is empty", plan.read[*i].header),
             _ => "no temperature".to_string(),
         };
@@ -348,7 +322,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
             );
         }
     }
-    let water = match inputs.sample(t).water() {
+    let water = match inputs.water() {
         Ok(w) => w,
         Err(e) => {
             library_issue(plan, record, &e, s);
@@ -363,7 +337,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
         Some((a, b)) => {
             for p in [a, b] {
                 if !present[rank(p)] {
-                    let where_ = match plan.label(Field::Carbon(p)) {
+                    let where_ = match plan.label(Input::Carbon(p)) {
                         Some(Label::Column(i)) => format!("column `{}`", plan.read[*i].header),
                         _ => p.name().to_string(),
                     };
@@ -501,7 +475,7 @@ fn no_pair(plan: &Plan, present: &[bool; 9], s: &mut Scratch) {
         .iter()
         .zip(present)
         .filter(|(_, p)| !**p)
-        .filter_map(|(q, _)| match plan.label(Field::Carbon(*q)) {
+        .filter_map(|(q, _)| match plan.label(Input::Carbon(*q)) {
             Some(Label::Column(i)) => Some(format!("`{}`", plan.read[*i].header)),
             _ => None,
         })

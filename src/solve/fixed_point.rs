@@ -2,6 +2,7 @@
 //! secant of a fixed point, and the Illinois regula falsi.
 
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 
 /// Iteration cap of a fixed point; reaching it is reported as non-convergence.
 const MAX_OUTER: u32 = 200;
@@ -79,8 +80,8 @@ pub(crate) fn fixed_point<T>(
     let mut feasible = None;
     let mut tried = 0;
     let not_settled = || Error::NoConvergence {
-        first: "ionic strength",
-        second: "free calcium",
+        first: Field::IonicStrength,
+        second: Field::Calcium,
         iterations: MAX_OUTER,
     };
     for _ in 0..MAX_OUTER {

@@ -16,6 +16,7 @@
 //! other root is always reported in a warning.
 
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 use crate::base::root::{monotone_newton, Failure, Search};
 use crate::base::warning::{Warning, Warnings};
 use crate::medium::Constants;
@@ -59,7 +60,7 @@ impl std::str::FromStr for RootChoice {
             "lower-ph" => Ok(RootChoice::LowerPh),
             "higher-ph" => Ok(RootChoice::HigherPh),
             _ => Err(Error::UnknownChoice {
-                field: "root",
+                field: Field::Root,
                 name: s.to_string(),
                 accepted: "natural, lower-ph, higher-ph".to_string(),
             }),
@@ -247,17 +248,17 @@ pub(crate) struct Pair<'a> {
 impl Pair<'_> {
     pub(crate) fn no_water(&self, reason: String) -> Error {
         Error::NoWaterFits {
-            first: self.a.parameter().name(),
+            first: self.a.parameter().field(),
             first_value: self.a.describe(),
-            second: self.b.parameter().name(),
+            second: self.b.parameter().field(),
             second_value: self.b.describe(),
             reason,
         }
     }
     pub(crate) fn no_convergence(&self, iterations: u32) -> Error {
         Error::NoConvergence {
-            first: self.a.parameter().name(),
-            second: self.b.parameter().name(),
+            first: self.a.parameter().field(),
+            second: self.b.parameter().field(),
             iterations,
         }
     }
@@ -434,8 +435,8 @@ pub(crate) fn solve(
         }
         _ => {
             return Err(Error::IncompatiblePair {
-                first: ma.parameter().name(),
-                second: mb.parameter().name(),
+                first: ma.parameter().field(),
+                second: mb.parameter().field(),
                 reason: "this pair is not supported",
             })
         }

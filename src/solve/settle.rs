@@ -4,6 +4,7 @@
 use super::fixed_point::{fixed_point, Bracket, Failure};
 use super::{solve, RootChoice, Solution, SolveOptions};
 use crate::base::error::{Error, Result};
+use crate::base::field::Field;
 use crate::base::warning::Warning;
 use crate::medium::fresh::ionic::ion_sum;
 use crate::medium::fresh::FreshBasis;
@@ -66,8 +67,8 @@ impl FreshBasis {
                     Ok((settled.ions, ()))
                 })?;
                 last.ok_or(Error::NoConvergence {
-                    first: "ionic strength",
-                    second: "free calcium",
+                    first: Field::IonicStrength,
+                    second: Field::Calcium,
                     iterations: 0,
                 })
             }
@@ -77,8 +78,8 @@ impl FreshBasis {
             Error::NoConvergence { iterations, .. } => {
                 match pair(&self.constants_at(self.i_start, ca_total, ca_total)) {
                     Ok((a, b)) => Error::NoConvergence {
-                        first: a.parameter().name(),
-                        second: b.parameter().name(),
+                        first: a.parameter().field(),
+                        second: b.parameter().field(),
                         iterations,
                     },
                     Err(other) => other,
@@ -160,8 +161,8 @@ impl FreshBasis {
             Ok((f, ()))
         })?;
         last.ok_or(Error::NoConvergence {
-            first: "free calcium",
-            second: "ionic strength",
+            first: Field::Calcium,
+            second: Field::IonicStrength,
             iterations: 0,
         })
     }
@@ -233,9 +234,9 @@ impl FreshBasis {
             (Ok(found), _) => found,
             (Err(e @ Error::NoConvergence { .. }), Ok(settled)) => {
                 return Err(Error::NoWaterFits {
-                    first: a.parameter().name(),
+                    first: a.parameter().field(),
                     first_value: a.describe(),
-                    second: b.parameter().name(),
+                    second: b.parameter().field(),
                     second_value: b.describe(),
                     reason: format!(
                         "that root does not settle with its own ionic strength and calcium \

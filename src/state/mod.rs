@@ -392,9 +392,9 @@ fn implausible(alkalinity_mol_kg: f64, a: &Measured, b: &Measured) -> Result<()>
     let (_, max) = Parameter::Alkalinity.accepted_range();
     let v = alkalinity_mol_kg * 1e6;
     Err(crate::Error::NoWaterFits {
-        first: a.parameter().name(),
+        first: a.parameter().field(),
         first_value: a.describe(),
-        second: b.parameter().name(),
+        second: b.parameter().field(),
         second_value: b.describe(),
         reason: format!("the alkalinity would be {v:.3e} µmol/kg, beyond ±{max} µmol/kg"),
     })

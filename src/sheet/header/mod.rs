@@ -9,220 +9,14 @@
 //! is of (calcium as Ca, bicarbonate as HCO3, total ammonia *nitrogen* as
 //! N), never for alkalinity, DIC or hardness.
 
-use crate::base::units::{list_units, Unit};
+use crate::base::units::Unit;
 use crate::properties::scales::PhScale;
-use crate::sample::measured::Parameter;
+use crate::sample::inputs::{Input, NameHint, INPUTS};
 
-mod names;
 mod units;
 
-use names::{Hint, NAMES};
 pub(crate) use units::cell_unit;
 use units::{interpret, is_unit_text};
-
-/// A measured total of the sample (the `Sample` fields of the same names).
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-pub(crate) enum Total {
-    Phosphate,
-    Silicate,
-    Ammonia,
-    Sulfide,
-    Calcium,
-    Hardness,
-    Magnesium,
-    Sodium,
-    Potassium,
-    Chloride,
-    Sulfate,
-    Boron,
-}
-
-impl Total {
-    pub(crate) const ALL: [Total; 12] = [
-        Total::Phosphate,
-        Total::Silicate,
-        Total::Ammonia,
-        Total::Sulfide,
-        Total::Calcium,
-        Total::Hardness,
-        Total::Magnesium,
-        Total::Sodium,
-        Total::Potassium,
-        Total::Chloride,
-        Total::Sulfate,
-        Total::Boron,
-    ];
-
-    /// The field name, as in `Sample::units_for` and the library's errors.
-    pub(crate) fn name(self) -> &'static str {
-        match self {
-            Total::Phosphate => "phosphate",
-            Total::Silicate => "silicate",
-            Total::Ammonia => "ammonia",
-            Total::Sulfide => "sulfide",
-            Total::Calcium => "calcium",
-            Total::Hardness => "hardness",
-            Total::Magnesium => "magnesium",
-            Total::Sodium => "sodium",
-            Total::Potassium => "potassium",
-            Total::Chloride => "chloride",
-            Total::Sulfate => "sulfate",
-            Total::Boron => "boron_total",
-        }
-    }
-
-    pub(crate) fn index(self) -> usize {
-        Total::ALL.iter().position(|t| *t == self).unwrap_or(0)
-    }
-
-    /// The unit that plain "mg/L" means for this total, where the name of
-    /// the total says what the mass is of.
-    fn own_mass_unit(self) -> Option<Unit> {
-        match self {
-            Total::Calcium => Some(Unit::MgPerLCa),
-            Total::Magnesium => Some(Unit::MgPerLMg),
-            Total::Sodium => Some(Unit::MgPerLNa),
-            Total::Potassium => Some(Unit::MgPerLK),
-            Total::Chloride => Some(Unit::MgPerLCl),
-            Total::Sulfate => Some(Unit::MgPerLSO4),
-            _ => None,
-        }
-    }
-
-    /// The units accepted, as in `Sample::units_for`.
-    fn units(self) -> Vec<Unit> {
-        crate::sample::trade::Sample::units_for(self.name())
-    }
-}
-
-/// What a recognised column gives.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-pub(crate) enum Field {
-    /// A measured carbonate parameter.
-    Carbon(Parameter),
-    /// Temperature of the measurement, °C.
-    Temperature,
-    /// Practical salinity.
-    Salinity,
-    /// Conductivity, at the sample temperature or specific (at 25 °C).
-    Conductivity,
-    /// Gauge pressure, dbar.
-    Pressure,
-    /// Air pressure over the water, atm.
-    AirPressure,
-    /// A measured total.
-    Total(Total),
-    /// Fraction of the total hardness that is calcium.
-    CalciumFraction,
-    /// Total dissolved solids, mg/L.
-    Tds,
-    /// Ionic strength, mol/kg.
-    IonicStrength,
-    /// fresh, saline or auto.
-    Medium,
-    /// The scale of a bare pH column.
-    PhScale,
-    /// K1 and K2 fit.
-    CarbonicFit,
-    /// Total boron ratio.
-    BoronFit,
-    /// KF fit.
-    FluorideFit,
-    /// Activity model.
-    Activity,
-}
-
-impl Field {
-    /// The plain name used in messages.
-    pub(crate) fn name(self) -> &'static str {
-        match self {
-            Field::Carbon(p) => p.name(),
-            Field::Temperature => "temperature",
-            Field::Salinity => "salinity",
-            Field::Conductivity => "conductivity",
-            Field::Pressure => "pressure",
-            Field::AirPressure => "air pressure",
-            Field::Total(t) => t.name(),
-            Field::CalciumFraction => "calcium fraction",
-            Field::Tds => "tds",
-            Field::IonicStrength => "ionic strength",
-            Field::Medium => "water",
-            Field::PhScale => "ph scale",
-            Field::CarbonicFit => "carbonic fit",
-            Field::BoronFit => "boron fit",
-            Field::FluorideFit => "fluoride fit",
-            Field::Activity => "activity model",
-        }
-    }
-
-    /// The canonical column name in the most common field unit, for
-    /// suggestions.
-    pub(crate) fn canonical(self) -> &'static str {
-        match self {
-            Field::Carbon(p) => match p {
-                Parameter::Alkalinity => "alkalinity_mg_l_caco3",
-                Parameter::Dic => "dic_umol_kg",
-                Parameter::Ph => "ph_nbs",
-                Parameter::Pco2 => "pco2_uatm",
-                Parameter::Fco2 => "fco2_uatm",
-                Parameter::Xco2 => "xco2_ppm",
-                Parameter::Co2 => "free_co2_mg_l",
-                Parameter::Hco3 => "hco3_mg_l",
-                Parameter::Co3 => "co3_mg_l",
-            },
-            Field::Temperature => "temperature_c",
-            Field::Salinity => "salinity",
-            Field::Conductivity => "specific_conductance_us_cm",
-            Field::Pressure => "pressure_dbar",
-            Field::AirPressure => "air_pressure_atm",
-            Field::Total(t) => match t {
-                Total::Phosphate => "phosphate_mg_l_p",
-                Total::Silicate => "silicate_mg_l_si",
-                Total::Ammonia => "ammonia_mg_l_n",
-                Total::Sulfide => "sulfide_mg_l_s",
-                Total::Calcium => "calcium_mg_l",
-                Total::Hardness => "hardness_mg_l_caco3",
-                Total::Magnesium => "magnesium_mg_l",
-                Total::Sodium => "sodium_mg_l",
-                Total::Potassium => "potassium_mg_l",
-                Total::Chloride => "chloride_mg_l",
-                Total::Sulfate => "sulfate_mg_l",
-                Total::Boron => "boron_total_umol_kg",
-            },
-            Field::CalciumFraction => "calcium_fraction",
-            Field::Tds => "tds_mg_l",
-            Field::IonicStrength => "ionic_strength",
-            Field::Medium => "water",
-            Field::PhScale => "ph_scale",
-            Field::CarbonicFit => "carbonic_fit",
-            Field::BoronFit => "boron_fit",
-            Field::FluorideFit => "fluoride_fit",
-            Field::Activity => "activity",
-        }
-    }
-
-    /// The units (or values) this field accepts, for messages.
-    pub(crate) fn accepted(self) -> String {
-        match self {
-            Field::Carbon(Parameter::Ph) => {
-                "a pH scale: nbs, total, seawater or free (or none: the medium's default)".into()
-            }
-            Field::Carbon(p) => list_units(&p.accepted_units()),
-            Field::Temperature => "°C, °F, K".into(),
-            Field::Salinity => "none (practical salinity), psu".into(),
-            Field::Conductivity => "uS/cm, mS/cm (at the sample temperature), uS/cm@25C, \
-                                    mS/cm@25C (specific conductance)"
-                .into(),
-            Field::Pressure => "dbar, bar".into(),
-            Field::AirPressure => "atm, hPa, mbar, kPa, mmHg".into(),
-            Field::Total(t) => list_units(&t.units()),
-            Field::CalciumFraction => "none (0 to 1), %".into(),
-            Field::Tds => "mg/L, g/L".into(),
-            Field::IonicStrength => "none (mol/kg), mol/kg, mmol/kg".into(),
-            _ => "none (a name in each cell)".into(),
-        }
-    }
-}
 
 /// How the cells of a recognised column are read.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -256,14 +50,14 @@ impl Reading {
 /// A recognised column.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub(crate) struct Column {
-    pub field: Field,
+    pub field: Input,
     pub reading: Reading,
 }
 
 /// A header whose field is known but whose unit is not.
 #[derive(Debug, Clone, PartialEq)]
 pub(crate) struct HeaderIssue {
-    pub field: Field,
+    pub field: Input,
     /// What is wrong, in words.
     pub problem: String,
 }
@@ -310,12 +104,15 @@ pub(crate) fn normalise(text: &str) -> String {
     out
 }
 
-fn lookup_name(name: &str) -> Option<(Field, Hint)> {
+/// The input a spelling names, from the list of inputs.
+fn lookup_name(name: &str) -> Option<(Input, NameHint)> {
     let name = name.trim_matches(|c: char| c == '.' || c == ':' || c == ' ');
-    NAMES
-        .iter()
-        .find(|(n, _, _)| *n == name)
-        .map(|(_, f, h)| (*f, *h))
+    INPUTS.iter().find_map(|spec| {
+        spec.spellings
+            .iter()
+            .find(|(n, _)| *n == name)
+            .map(|(_, h)| (spec.input, *h))
+    })
 }
 
 /// Splits a header into its name and unit text: `Name (unit)`, `Name
@@ -379,7 +176,7 @@ pub(crate) fn recognise(header: &str) -> Recognition {
             continue;
         };
         let unit = unit_from_tokens(&tokens[k..]);
-        if unit.is_empty() && hint == Hint::Short {
+        if unit.is_empty() && hint == NameHint::Short {
             // A bare short code such as "TA" or "Ca" may be anything.
             return Recognition::PassThrough;
         }
@@ -411,6 +208,8 @@ pub(crate) fn recognise_name(name: &str) -> Result<Column, Option<HeaderIssue>> 
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::sample::inputs::Total;
+    use crate::sample::measured::Parameter;
 
     fn column(h: &str) -> Column {
         match recognise(h) {
@@ -422,7 +221,7 @@ mod tests {
     #[test]
     fn canonical_names() {
         let c = column("alkalinity_mg_l_caco3");
-        assert_eq!(c.field, Field::Carbon(Parameter::Alkalinity));
+        assert_eq!(c.field, Input::Carbon(Parameter::Alkalinity));
         assert_eq!(c.reading, Reading::Quantity(Unit::MgPerLCaCO3));
         assert_eq!(
             column("alkalinity_umol_kg").reading,
@@ -433,10 +232,10 @@ mod tests {
             column("ph_total").reading,
             Reading::Ph(Some(PhScale::Total))
         );
-        assert_eq!(column("dic_umol_kg").field, Field::Carbon(Parameter::Dic));
+        assert_eq!(column("dic_umol_kg").field, Input::Carbon(Parameter::Dic));
         assert_eq!(column("pco2_uatm").reading, Reading::Quantity(Unit::Uatm));
-        assert_eq!(column("temperature_c").field, Field::Temperature);
-        assert_eq!(column("salinity").field, Field::Salinity);
+        assert_eq!(column("temperature_c").field, Input::Temperature);
+        assert_eq!(column("salinity").field, Input::Salinity);
         assert_eq!(
             column("conductivity_us_cm").reading,
             Reading::Conductivity {
@@ -455,14 +254,14 @@ mod tests {
             column("calcium_mg_l").reading,
             Reading::Quantity(Unit::MgPerLCa)
         );
-        assert_eq!(column("pressure_dbar").field, Field::Pressure);
+        assert_eq!(column("pressure_dbar").field, Input::Pressure);
         assert_eq!(
             column("ammonia_mg_l_n").reading,
             Reading::Quantity(Unit::MgPerLN)
         );
         assert_eq!(
             column("phosphate_umol_kg").field,
-            Field::Total(Total::Phosphate)
+            Input::Total(Total::Phosphate)
         );
         assert_eq!(
             column("free_co2_mg_l").reading,
@@ -476,11 +275,11 @@ mod tests {
             column("Alkalinity (mg/L as CaCO3)").reading,
             Reading::Quantity(Unit::MgPerLCaCO3)
         );
-        assert_eq!(column("Temp [°C]").field, Field::Temperature);
+        assert_eq!(column("Temp [°C]").field, Input::Temperature);
         assert_eq!(column("pH (NBS)").reading, Reading::Ph(Some(PhScale::Nbs)));
         assert_eq!(
             column("  TOTAL   ALKALINITY  (MG/L AS CACO3) ").field,
-            Field::Carbon(Parameter::Alkalinity)
+            Input::Carbon(Parameter::Alkalinity)
         );
         assert_eq!(
             column("Specific conductance (µS/cm)").reading,
@@ -504,10 +303,10 @@ mod tests {
             column("Calcium hardness (mg/L as CaCO3)").reading,
             Reading::Quantity(Unit::MgPerLCaCO3)
         );
-        assert_eq!(column("pCO₂ (µatm)").field, Field::Carbon(Parameter::Pco2));
+        assert_eq!(column("pCO₂ (µatm)").field, Input::Carbon(Parameter::Pco2));
         assert_eq!(
             column("Alkalinity, meq/L").field,
-            Field::Carbon(Parameter::Alkalinity)
+            Input::Carbon(Parameter::Alkalinity)
         );
         assert!(matches!(
             column("Temp (°F)").reading,

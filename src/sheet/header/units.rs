@@ -1,10 +1,10 @@
 //! Reading the unit of a header or of a cell: temperature, pH scale and
 //! conductivity words, and the units of the trade, for each field.
 
-use super::names::Hint;
-use super::{normalise, Column, Field, Reading};
+use super::{normalise, Column, Input, Reading};
 use crate::base::units::{Unit, MOLAR_UNITS};
 use crate::properties::scales::PhScale;
+use crate::sample::inputs::NameHint;
 use crate::sample::measured::Parameter;
 
 /// Whether some field would read `unit` as a unit.
@@ -87,7 +87,7 @@ pub(super) fn conductivity_unit(u: &str) -> Option<(f64, bool)> {
 
 /// The reading of `field` with the unit text `unit` (normalised; empty
 /// when the header gives none), or what is wrong with it.
-pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading, String> {
+pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Reading, String> {
     let missing = || format!("the header gives no unit for {}", field.name());
     let unknown = || {
         format!(
@@ -96,11 +96,11 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
         )
     };
     match field {
-        Field::Carbon(Parameter::Ph) => scale_word(unit)
+        Input::Carbon(Parameter::Ph) => scale_word(unit)
             .or(if unit.is_empty() { Some(None) } else { None })
             .map(Reading::Ph)
             .ok_or_else(|| format!("`{unit}` is not a pH scale")),
-        Field::Carbon(p) => {
+        Input::Carbon(p) => {
             if unit.is_empty() {
                 return Err(missing());
             }
@@ -127,30 +127,30 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
                 Err(format!("`{unit}` is not a unit of {}", p.name()))
             }
         }
-        Field::Temperature => {
+        Input::Temperature => {
             if unit.is_empty() {
                 return Err(missing());
             }
             temperature_unit(unit).ok_or_else(unknown)
         }
-        Field::Salinity => match unit {
+        Input::Salinity => match unit {
             "" | "psu" | "pss" | "pss-78" | "pss78" | "practical" => Ok(Reading::PLAIN),
             "ppt" | "g/kg" | "‰" | "permil" | "ppth" => Err(format!(
                 "`{unit}` may be absolute salinity (g/kg) rather than practical salinity"
             )),
             _ => Err(unknown()),
         },
-        Field::Conductivity => {
+        Input::Conductivity => {
             if unit.is_empty() {
                 return Err(missing());
             }
             let (scale, at_25) = conductivity_unit(unit).ok_or_else(unknown)?;
             Ok(Reading::Conductivity {
                 scale,
-                specific: at_25 || hint == Hint::Specific,
+                specific: at_25 || hint == NameHint::Specific,
             })
         }
-        Field::Pressure => match unit {
+        Input::Pressure => match unit {
             "" => Err(missing()),
             "dbar" | "db" | "decibar" => Ok(Reading::Number {
                 scale: 1.0,
@@ -164,7 +164,7 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
             }),
             _ => Err(unknown()),
         },
-        Field::AirPressure => {
+        Input::AirPressure => {
             let (scale, label) = match unit {
                 "" => return Err(missing()),
                 "atm" => (1.0, "atm"),
@@ -179,15 +179,15 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
                 label,
             })
         }
-        Field::Total(t) => {
+        Input::Total(t) => {
             if unit.is_empty() {
                 return Err(missing());
             }
             let parsed = Unit::parse(unit).ok_or_else(unknown)?;
             let resolved = match (parsed, hint) {
-                (Unit::MgPerL, Hint::Nitrogen) => Unit::MgPerLN,
-                (Unit::MgPerL, Hint::Phosphorus) => Unit::MgPerLP,
-                (Unit::MgPerL, Hint::CalciumHardness) => {
+                (Unit::MgPerL, NameHint::Nitrogen) => Unit::MgPerLN,
+                (Unit::MgPerL, NameHint::Phosphorus) => Unit::MgPerLP,
+                (Unit::MgPerL, NameHint::CalciumHardness) => {
                     return Err(format!(
                         "`{unit}` does not say what calcium hardness is expressed as (write mg/L \
                          as CaCO3)"
@@ -196,13 +196,13 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
                 (Unit::MgPerL, _) => t.own_mass_unit().ok_or_else(|| {
                     format!(
                         "`{unit}` does not say what {} is expressed as (write, for example, {})",
-                        t.name(),
+                        t.field().name(),
                         t.units().last().map_or("umol/kg", |u| u.spelling())
                     )
                 })?,
                 (u, _) => u,
             };
-            let ok = if hint == Hint::CalciumHardness {
+            let ok = if hint == NameHint::CalciumHardness {
                 resolved == Unit::MgPerLCaCO3 || MOLAR_UNITS.contains(&resolved)
             } else {
                 t.units().contains(&resolved)
@@ -210,10 +210,10 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
             if ok {
                 Ok(Reading::Quantity(resolved))
             } else {
-                Err(format!("`{unit}` is not a unit of {}", t.name()))
+                Err(format!("`{unit}` is not a unit of {}", t.field().name()))
             }
         }
-        Field::CalciumFraction => match unit {
+        Input::CalciumFraction => match unit {
             "" | "fraction" => Ok(Reading::PLAIN),
             "%" | "percent" => Ok(Reading::Number {
                 scale: 0.01,
@@ -222,7 +222,7 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
             }),
             _ => Err(unknown()),
         },
-        Field::Tds => match unit {
+        Input::Tds => match unit {
             "" => Err(missing()),
             "mg/l" => Ok(Reading::Number {
                 scale: 1.0,
@@ -236,7 +236,7 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
             }),
             _ => Err(unknown()),
         },
-        Field::IonicStrength => match unit {
+        Input::IonicStrength => match unit {
             "" | "mol/kg" | "m" => Ok(Reading::PLAIN),
             "mmol/kg" => Ok(Reading::Number {
                 scale: 1e-3,
@@ -245,12 +245,13 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
             }),
             _ => Err(unknown()),
         },
-        Field::Medium
-        | Field::PhScale
-        | Field::CarbonicFit
-        | Field::BoronFit
-        | Field::FluorideFit
-        | Field::Activity => {
+        Input::Medium
+        | Input::PhScale
+        | Input::CarbonicFit
+        | Input::BoronFit
+        | Input::FluorideFit
+        | Input::BisulfateFit
+        | Input::Activity => {
             if unit.is_empty() {
                 Ok(Reading::Text)
             } else {
@@ -266,8 +267,8 @@ pub(super) fn interpret(field: Field, hint: Hint, unit: &str) -> Result<Reading,
 pub(crate) fn cell_unit(column: &Column, text: &str) -> Option<Reading> {
     let unit = normalise(text);
     let hint = match column.reading {
-        Reading::Conductivity { specific: true, .. } => Hint::Specific,
-        _ => Hint::None,
+        Reading::Conductivity { specific: true, .. } => NameHint::Specific,
+        _ => NameHint::None,
     };
     interpret(column.field, hint, &unit).ok()
 }

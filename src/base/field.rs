@@ -1,0 +1,152 @@
+//! The identity of every named input and quantity an error can point to.
+//!
+//! An error names its field with a [`Field`], never with a string, so that
+//! the command line and the sheet can turn it into a flag or a column in
+//! one place (the list of inputs in [`crate::sample::inputs`]) and a
+//! renamed flag cannot silently detach from its errors.
+
+use serde::Serialize;
+use std::fmt;
+
+macro_rules! fields {
+    ($( $(#[$doc:meta])* $variant:ident => $name:literal, )*) => {
+        /// A named input or computed quantity.
+        ///
+        /// ```
+        /// use travertine::base::field::Field;
+        /// assert_eq!(Field::Temperature.name(), "temperature_c");
+        /// assert_eq!(Field::Temperature.to_string(), "temperature_c");
+        /// ```
+        #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+        #[non_exhaustive]
+        pub enum Field {
+            $( $(#[$doc])* $variant, )*
+        }
+
+        impl Field {
+            /// Every field, in the order of the list.
+            pub const ALL: &'static [Field] = &[ $( Field::$variant, )* ];
+
+            /// The plain snake_case name, as in messages and the JSON of an error.
+            ///
+            /// ```
+            /// # use travertine::base::field::Field;
+            /// assert_eq!(Field::Alkalinity.name(), "alkalinity");
+            /// ```
+            pub fn name(self) -> &'static str {
+                match self { $( Field::$variant => $name, )* }
+            }
+        }
+    };
+}
+
+fields! {
+    /// Total alkalinity.
+    Alkalinity => "alkalinity",
+    /// Dissolved inorganic carbon.
+    Dic => "dic",
+    /// pH.
+    Ph => "ph",
+    /// CO2 partial pressure.
+    Pco2 => "pco2",
+    /// CO2 fugacity.
+    Fco2 => "fco2",
+    /// CO2 mole fraction in dry air.
+    Xco2 => "xco2",
+    /// Dissolved CO2*.
+    Co2 => "co2",
+    /// Bicarbonate.
+    Hco3 => "hco3",
+    /// Carbonate.
+    Co3 => "co3",
+    /// Temperature of the measurement, °C.
+    Temperature => "temperature_c",
+    /// Practical salinity.
+    Salinity => "salinity",
+    /// Conductivity at the sample temperature.
+    Conductivity => "conductivity",
+    /// Specific conductance (conductivity at 25 °C).
+    SpecificConductance => "specific_conductance",
+    /// Gauge pressure, dbar.
+    Pressure => "pressure_dbar",
+    /// Air pressure over the water, atm.
+    AirPressure => "air_pressure_atm",
+    /// Total phosphate.
+    Phosphate => "phosphate",
+    /// Total silicate.
+    Silicate => "silicate",
+    /// Total ammonia.
+    Ammonia => "ammonia",
+    /// Total sulfide.
+    Sulfide => "sulfide",
+    /// Calcium.
+    Calcium => "calcium",
+    /// Total hardness.
+    Hardness => "hardness",
+    /// Magnesium.
+    Magnesium => "magnesium",
+    /// Sodium.
+    Sodium => "sodium",
+    /// Potassium.
+    Potassium => "potassium",
+    /// Chloride.
+    Chloride => "chloride",
+    /// Sulfate.
+    Sulfate => "sulfate",
+    /// Measured total boron.
+    BoronTotal => "boron_total",
+    /// Measured total fluoride.
+    Fluoride => "fluoride",
+    /// Fraction of the hardness that is calcium.
+    CalciumFraction => "calcium_fraction",
+    /// Total dissolved solids, mg/L.
+    Tds => "tds",
+    /// Ionic strength, mol/kg.
+    IonicStrength => "ionic_strength",
+    /// The ionic medium: fresh, saline or auto.
+    Medium => "water",
+    /// The scale of a pH.
+    PhScale => "ph_scale",
+    /// The fit of K1 and K2.
+    CarbonicFit => "carbonic_fit",
+    /// The fit of total boron from salinity.
+    BoronFit => "boron_fit",
+    /// The fit of KF.
+    FluorideFit => "fluoride_fit",
+    /// The fit of KS.
+    BisulfateFit => "bisulfate_fit",
+    /// The activity model of fresh water.
+    Activity => "activity",
+    /// Which root of a pair that fits two waters.
+    Root => "root",
+    /// The density of the solution (computed).
+    Density => "density",
+}
+
+impl fmt::Display for Field {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
+impl Serialize for Field {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> std::result::Result<S::Ok, S::Error> {
+        s.serialize_str(self.name())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::Field;
+
+    #[test]
+    fn names_are_unique_snake_case() {
+        let mut names: Vec<&str> = Field::ALL.iter().map(|f| f.name()).collect();
+        assert!(names.iter().all(|n| n
+            .chars()
+            .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '_')));
+        names.sort_unstable();
+        names.dedup();
+        assert_eq!(names.len(), Field::ALL.len());
+    }
+}

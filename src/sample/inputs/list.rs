@@ -1,0 +1,363 @@
+//! The list of inputs itself: one row per input.
+
+use super::{Input, InputSpec, NameHint, Total};
+use crate::sample::measured::Parameter;
+
+use NameHint::{
+    CalciumHardness as CaH, Nitrogen as N, None as Plain, Phosphorus as P, Short, Specific,
+};
+
+macro_rules! spec {
+    ($input:expr, $flag:literal, $column:literal, $help:literal, [$( ($name:literal, $hint:expr) ),* $(,)?]) => {
+        InputSpec {
+            input: $input,
+            flag: $flag,
+            column: $column,
+            help: $help,
+            spellings: &[ $( ($name, $hint), )* ],
+        }
+    };
+}
+
+/// Every input, in the order of the command line's help.
+pub const INPUTS: &[InputSpec] = &[
+    spec!(
+        Input::Carbon(Parameter::Alkalinity),
+        "alkalinity",
+        "alkalinity_mg_l_caco3",
+        "Total alkalinity, with a unit: umol/kg, mmol/kg, mmol/L, meq/L, \"mg/L CaCO3\", ...",
+        [
+            ("alkalinity", Plain),
+            ("total alkalinity", Plain),
+            ("alkalinity total", Plain),
+            ("alk", Short),
+            ("talk", Short),
+            ("ta", Short)
+        ]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Dic),
+        "dic",
+        "dic_umol_kg",
+        "Dissolved inorganic carbon, with a unit: umol/kg, mmol/L, \"mg/L C\", ...",
+        [
+            ("dic", Plain),
+            ("tic", Short),
+            ("ct", Short),
+            ("tco2", Short),
+            ("dissolved inorganic carbon", Plain),
+            ("total inorganic carbon", Plain)
+        ]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Ph),
+        "ph",
+        "ph_nbs",
+        "pH, a plain number on the scale given by --ph-scale",
+        [("ph", Plain)]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Pco2),
+        "pco2",
+        "pco2_uatm",
+        "CO2 partial pressure, with a unit: uatm, atm, Pa, kPa",
+        [
+            ("pco2", Plain),
+            ("co2 partial pressure", Plain),
+            ("partial pressure of co2", Plain)
+        ]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Fco2),
+        "fco2",
+        "fco2_uatm",
+        "CO2 fugacity, with a unit: uatm, atm, Pa, kPa",
+        [("fco2", Plain), ("co2 fugacity", Plain)]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Xco2),
+        "xco2",
+        "xco2_ppm",
+        "CO2 mole fraction in dry air, with a unit: ppm",
+        [("xco2", Plain)]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Co2),
+        "co2",
+        "free_co2_mg_l",
+        "Dissolved CO2* with a unit: umol/kg, \"mg/L CO2\", ...",
+        [
+            ("co2", Plain),
+            ("free co2", Plain),
+            ("co2 free", Plain),
+            ("co2*", Plain),
+            ("dissolved co2", Plain),
+            ("carbon dioxide", Plain),
+            ("free carbon dioxide", Plain)
+        ]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Hco3),
+        "hco3",
+        "hco3_mg_l",
+        "Bicarbonate with a unit: umol/kg, \"mg/L HCO3\", ...",
+        [("hco3", Plain), ("hco3-", Plain), ("bicarbonate", Plain)]
+    ),
+    spec!(
+        Input::Carbon(Parameter::Co3),
+        "co3",
+        "co3_mg_l",
+        "Carbonate with a unit: umol/kg, \"mg/L CO3\", ...",
+        [("co3", Plain), ("co3--", Plain), ("carbonate", Plain)]
+    ),
+    spec!(
+        Input::PhScale,
+        "ph-scale",
+        "ph_scale",
+        "Scale of a pH that names none: total, seawater, free or nbs (default: nbs in fresh \
+         water, total in saline water)",
+        [("ph scale", Plain)]
+    ),
+    spec!(
+        Input::Temperature,
+        "temperature",
+        "temperature_c",
+        "Temperature of the measurement, °C",
+        [
+            ("temperature", Plain),
+            ("temp", Plain),
+            ("water temperature", Plain),
+            ("water temp", Plain)
+        ]
+    ),
+    spec!(
+        Input::Salinity,
+        "salinity",
+        "salinity",
+        "Practical salinity (default: from --conductivity, else 0)",
+        [
+            ("salinity", Plain),
+            ("practical salinity", Plain),
+            ("sal", Short),
+            ("psal", Plain)
+        ]
+    ),
+    spec!(
+        Input::Conductivity,
+        "conductivity",
+        "specific_conductance_us_cm",
+        "Conductivity with a unit: uS/cm or mS/cm at the sample temperature, or \"uS/cm@25C\" \
+         for specific conductance",
+        [
+            ("conductivity", Plain),
+            ("cond", Short),
+            ("ec", Short),
+            ("electrical conductivity", Plain),
+            ("specific conductance", Specific),
+            ("specific conductivity", Specific),
+            ("spc", Specific),
+            ("spcond", Specific),
+            ("sp cond", Specific)
+        ]
+    ),
+    spec!(
+        Input::Tds,
+        "tds",
+        "tds_mg_l",
+        "Total dissolved solids, with a unit: mg/L (fresh water, for the ionic strength)",
+        [("tds", Plain), ("total dissolved solids", Plain)]
+    ),
+    spec!(
+        Input::IonicStrength,
+        "ionic-strength",
+        "ionic_strength",
+        "Ionic strength, mol/kg (fresh water)",
+        [("ionic strength", Plain)]
+    ),
+    spec!(
+        Input::Activity,
+        "activity",
+        "activity",
+        "Activity coefficients in fresh water: davies or extended-debye-huckel",
+        [("activity", Plain), ("activity model", Plain)]
+    ),
+    spec!(
+        Input::Total(Total::Hardness),
+        "hardness",
+        "hardness_mg_l_caco3",
+        "Total hardness with a unit (\"mg/L CaCO3\", mmol/L); never taken as calcium unless \
+         --calcium-fraction is given",
+        [("hardness", Plain), ("total hardness", Plain)]
+    ),
+    spec!(
+        Input::CalciumFraction,
+        "calcium-fraction",
+        "calcium_fraction",
+        "Fraction of --hardness that is calcium, 0 to 1 (the rest is magnesium)",
+        [("calcium fraction", Plain)]
+    ),
+    spec!(
+        Input::Total(Total::Magnesium),
+        "magnesium",
+        "magnesium_mg_l",
+        "Magnesium with a unit (\"mg/L Mg\", \"mg/L CaCO3\", mmol/L)",
+        [("magnesium", Plain), ("mg", Short)]
+    ),
+    spec!(
+        Input::Total(Total::Sodium),
+        "sodium",
+        "sodium_mg_l",
+        "Sodium with a unit (\"mg/L Na\", mmol/L)",
+        [("sodium", Plain), ("na", Short)]
+    ),
+    spec!(
+        Input::Total(Total::Potassium),
+        "potassium",
+        "potassium_mg_l",
+        "Potassium with a unit (\"mg/L K\", mmol/L)",
+        [("potassium", Plain), ("k", Short)]
+    ),
+    spec!(
+        Input::Total(Total::Chloride),
+        "chloride",
+        "chloride_mg_l",
+        "Chloride with a unit (\"mg/L Cl\", mmol/L)",
+        [("chloride", Plain), ("cl", Short)]
+    ),
+    spec!(
+        Input::Total(Total::Sulfate),
+        "sulfate",
+        "sulfate_mg_l",
+        "Sulfate with a unit (\"mg/L SO4\", mmol/L)",
+        [("sulfate", Plain), ("sulphate", Plain), ("so4", Short)]
+    ),
+    spec!(
+        Input::Pressure,
+        "pressure",
+        "pressure_dbar",
+        "Gauge pressure at the measurement, dbar (default 0)",
+        [
+            ("pressure", Plain),
+            ("water pressure", Plain),
+            ("sea pressure", Plain),
+            ("pres", Short)
+        ]
+    ),
+    spec!(
+        Input::AirPressure,
+        "air-pressure",
+        "air_pressure_atm",
+        "Total air pressure over the water, atm (for xCO2; default 1)",
+        [
+            ("air pressure", Plain),
+            ("barometric pressure", Plain),
+            ("atmospheric pressure", Plain)
+        ]
+    ),
+    spec!(
+        Input::Medium,
+        "water",
+        "water",
+        "The ionic medium: fresh, saline or auto (default auto: fresh below salinity 1)",
+        [("water", Plain), ("medium", Plain), ("water type", Plain)]
+    ),
+    spec!(
+        Input::CarbonicFit,
+        "carbonic",
+        "carbonic_fit",
+        "K1 and K2 of carbonic acid (saline): lueker2000, millero2006, roy1993, \
+         dickson-millero1987",
+        [("carbonic", Plain), ("carbonic fit", Plain)]
+    ),
+    spec!(
+        Input::BoronFit,
+        "boron",
+        "boron_fit",
+        "Total boron from salinity (saline): lee2010 or uppstrom1974",
+        [("boron fit", Plain)]
+    ),
+    spec!(
+        Input::FluorideFit,
+        "fluoride",
+        "fluoride_fit",
+        "KF of hydrogen fluoride (saline): perez-fraga1987 or dickson-riley1979",
+        [("fluoride fit", Plain)]
+    ),
+    spec!(
+        Input::BisulfateFit,
+        "bisulfate",
+        "bisulfate_fit",
+        "KS of bisulfate: dickson1990",
+        [("bisulfate fit", Plain)]
+    ),
+    spec!(
+        Input::Total(Total::Phosphate),
+        "phosphate",
+        "phosphate_mg_l_p",
+        "Total phosphate, with a unit (umol/kg, \"mg/L P\", ...)",
+        [
+            ("phosphate", Plain),
+            ("total phosphate", Plain),
+            ("po4", Short),
+            ("po4-p", P),
+            ("phosphate-p", P)
+        ]
+    ),
+    spec!(
+        Input::Total(Total::Silicate),
+        "silicate",
+        "silicate_mg_l_si",
+        "Total silicate, with a unit (umol/kg, \"mg/L Si\", ...)",
+        [("silicate", Plain), ("silicic acid", Plain)]
+    ),
+    spec!(
+        Input::Total(Total::Ammonia),
+        "ammonia",
+        "ammonia_mg_l_n",
+        "Total ammonia (NH3 + NH4+), with a unit (umol/kg, \"mg/L N\", ...)",
+        [
+            ("ammonia", Plain),
+            ("total ammonia", Plain),
+            ("ammonium", Plain),
+            ("tan", N),
+            ("total ammonia nitrogen", N),
+            ("total ammonia-nitrogen", N),
+            ("ammonia nitrogen", N),
+            ("ammonia-nitrogen", N),
+            ("nh3-n", N),
+            ("nh4-n", N)
+        ]
+    ),
+    spec!(
+        Input::Total(Total::Sulfide),
+        "sulfide",
+        "sulfide_mg_l_s",
+        "Total sulfide, with a unit (umol/kg, \"mg/L S\", ...)",
+        [
+            ("sulfide", Plain),
+            ("sulphide", Plain),
+            ("total sulfide", Plain),
+            ("h2s", Short)
+        ]
+    ),
+    spec!(
+        Input::Total(Total::Calcium),
+        "calcium",
+        "calcium_mg_l",
+        "Calcium, with a unit (umol/kg, mmol/L, \"mg/L Ca\", or \"mg/L CaCO3\" as calcium \
+         hardness)",
+        [
+            ("calcium", Plain),
+            ("ca", Short),
+            ("calcium hardness", CaH),
+            ("ca hardness", CaH)
+        ]
+    ),
+    spec!(
+        Input::Total(Total::Boron),
+        "boron-total",
+        "boron_total_umol_kg",
+        "Measured total boron, with a unit (umol/kg, ...)",
+        [("boron total", Plain), ("total boron", Plain)]
+    ),
+];

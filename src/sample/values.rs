@@ -1,0 +1,151 @@
+//! The values an input takes besides numbers and quantities: the medium
+//! chosen, a conductivity reading, a chosen name, and a value of any input.
+
+use crate::base::error::{Error, Result};
+use crate::base::field::Field;
+use crate::base::units::{Quantity, Unit};
+use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
+use crate::properties::activity::ActivityModel;
+use crate::properties::scales::PhScale;
+
+/// Which medium to use.
+///
+/// ```
+/// use travertine::sample::values::MediumChoice;
+/// assert_eq!("auto".parse::<MediumChoice>()?, MediumChoice::Auto);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+#[non_exhaustive]
+pub enum MediumChoice {
+    /// Fresh below salinity 1, saline at or above it.
+    #[default]
+    Auto,
+    /// Fresh water.
+    Fresh,
+    /// Saline water.
+    Saline,
+}
+
+impl std::str::FromStr for MediumChoice {
+    type Err = Error;
+    fn from_str(s: &str) -> Result<Self> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "auto" => Ok(MediumChoice::Auto),
+            "fresh" => Ok(MediumChoice::Fresh),
+            "saline" => Ok(MediumChoice::Saline),
+            _ => Err(Error::UnknownChoice {
+                field: Field::Medium,
+                name: s.to_string(),
+                accepted: "fresh, saline, auto".to_string(),
+            }),
+        }
+    }
+}
+
+/// A conductivity reading.
+///
+/// ```
+/// use travertine::sample::values::Conductivity;
+/// let c = Conductivity::parse("350 uS/cm@25C")?;
+/// assert_eq!(c, Conductivity::Specific { us_cm: 350.0 });
+/// let c = Conductivity::parse("0.41mS/cm")?;
+/// assert_eq!(c, Conductivity::AtTemperature { us_cm: 410.0 });
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum Conductivity {
+    /// Measured at the sample temperature, µS/cm.
+    AtTemperature {
+        /// The reading.
+        us_cm: f64,
+    },
+    /// Specific conductance, compensated to 25 °C, µS/cm.
+    Specific {
+        /// The reading.
+        us_cm: f64,
+    },
+}
+
+/// The units a conductivity accepts.
+pub const CONDUCTIVITY_UNITS: [Unit; 4] = [
+    Unit::USPerCm,
+    Unit::MSPerCm,
+    Unit::USPerCmAt25,
+    Unit::MSPerCmAt25,
+];
+
+impl Conductivity {
+    /// Parses "350uS/cm", "0.35 mS/cm" or, for specific conductance at 25 °C,
+    /// "350 uS/cm@25C".
+    ///
+    /// # Errors
+    /// As [`Quantity::parse`].
+    ///
+    /// ```
+    /// # use travertine::sample::values::Conductivity;
+    /// assert!(Conductivity::parse("350").is_err());
+    /// ```
+    pub fn parse(text: &str) -> Result<Self> {
+        let q = Quantity::parse(Field::Conductivity, text, &CONDUCTIVITY_UNITS)?;
+        Ok(Conductivity::from_quantity(q))
+    }
+
+    /// From a quantity in one of [`CONDUCTIVITY_UNITS`].
+    ///
+    /// ```
+    /// # use travertine::{sample::Conductivity, units::{Quantity, Unit}};
+    /// let c = Conductivity::from_quantity(Quantity::new(1.2, Unit::MSPerCmAt25));
+    /// assert_eq!(c, Conductivity::Specific { us_cm: 1200.0 });
+    /// ```
+    pub fn from_quantity(q: Quantity) -> Self {
+        match q.unit {
+            Unit::MSPerCm => Conductivity::AtTemperature {
+                us_cm: q.value * 1000.0,
+            },
+            Unit::USPerCmAt25 => Conductivity::Specific { us_cm: q.value },
+            Unit::MSPerCmAt25 => Conductivity::Specific {
+                us_cm: q.value * 1000.0,
+            },
+            _ => Conductivity::AtTemperature { us_cm: q.value },
+        }
+    }
+}
+
+/// A chosen name.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum Choice {
+    /// The medium.
+    Medium(MediumChoice),
+    /// The scale of a pH that names none.
+    Scale(PhScale),
+    /// K1 and K2.
+    Carbonic(CarbonicFit),
+    /// Total boron.
+    Boron(BoronTotalFit),
+    /// KF.
+    Fluoride(FluorideFit),
+    /// KS.
+    Bisulfate(BisulfateFit),
+    /// Activity model.
+    Activity(ActivityModel),
+}
+
+/// A value of an input, read from a flag, a `--set` or a cell.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum InputValue {
+    /// In the input's base unit (°C, practical salinity, dbar, atm, mg/L,
+    /// mol/kg, fraction).
+    Number(f64),
+    /// A number with its unit.
+    Quantity(Quantity),
+    /// A conductivity reading.
+    Conductivity(Conductivity),
+    /// A pH and the scale it names, if any.
+    Ph(f64, Option<PhScale>),
+    /// A name.
+    Choice(Choice),
+}
