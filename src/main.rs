@@ -2,7 +2,7 @@
 
 use clap::{Arg, ArgMatches, Args, FromArgMatches, Parser, Subcommand};
 use std::process::ExitCode;
-use travertine::sample::inputs::{Input, INPUTS};
+use travertine::sample::inputs::{Input, InputSpec, INPUTS};
 use travertine::sample::Sample;
 use travertine::sheet::{Format, Progress, SheetError, SheetOptions, Sink, Source, UnitSystem};
 use travertine::{Error, RootChoice, SolveOptions, State};
@@ -120,100 +120,123 @@ fn at_flag(flag: &str) -> impl Fn(Error) -> FlagError + '_ {
     }
 }
 
-/// The flags of the inputs of a sample, built from the library's list.
+/// Which rows of the library's list of inputs a group of flags offers, and
+/// how each flag reads.
+trait InputFlags: Sized {
+    /// Whether the group has a flag for this input.
+    fn offers(input: Input) -> bool;
+    /// The flag of one row of the list.
+    fn arg(spec: &'static InputSpec) -> Arg;
+    /// The group from the inputs given.
+    fn from_given(given: Vec<(Input, String)>) -> Self;
+}
+
+/// The inputs given in `m` of the group `F`, in the order of the list.
+fn given_inputs<F: InputFlags>(m: &ArgMatches) -> F {
+    F::from_given(
+        INPUTS
+            .iter()
+            .filter(|spec| F::offers(spec.input))
+            .filter_map(|spec| {
+                m.get_one::<String>(spec.flag)
+                    .map(|v| (spec.input, v.clone()))
+            })
+            .collect(),
+    )
+}
+
+/// `cmd` with a flag for every input of the group `F`.
+fn input_flags<F: InputFlags>(cmd: clap::Command) -> clap::Command {
+    INPUTS
+        .iter()
+        .filter(|spec| F::offers(spec.input))
+        .fold(cmd, |cmd, spec| cmd.arg(F::arg(spec)))
+}
+
+/// Implements clap's traits for a group of input flags.
+macro_rules! input_flag_group {
+    ($ty:ty) => {
+        impl FromArgMatches for $ty {
+            fn from_arg_matches(m: &ArgMatches) -> Result<Self, clap::Error> {
+                Ok(given_inputs::<$ty>(m))
+            }
+
+            fn update_from_arg_matches(&mut self, m: &ArgMatches) -> Result<(), clap::Error> {
+                *self = given_inputs::<$ty>(m);
+                Ok(())
+            }
+        }
+
+        impl Args for $ty {
+            fn augment_args(cmd: clap::Command) -> clap::Command {
+                input_flags::<$ty>(cmd)
+            }
+
+            fn augment_args_for_update(cmd: clap::Command) -> clap::Command {
+                input_flags::<$ty>(cmd)
+            }
+        }
+    };
+}
+
+/// The flags of the inputs of a sample: one per row of the library's list.
 struct SampleArgs {
     /// Each input given, with its text, in the order of the list.
     given: Vec<(Input, String)>,
 }
 
-impl FromArgMatches for SampleArgs {
-    fn from_arg_matches(m: &ArgMatches) -> Result<Self, clap::Error> {
-        let given = INPUTS
-            .iter()
-            .filter_map(|spec| {
-                m.get_one::<String>(spec.flag)
-                    .map(|v| (spec.input, v.clone()))
+impl InputFlags for SampleArgs {
+    fn offers(_: Input) -> bool {
+        true
+    }
+
+    fn arg(spec: &'static InputSpec) -> Arg {
+        Arg::new(spec.flag)
+            .long(spec.flag)
+            .value_name(if spec.input.is_choice() {
+                "NAME"
+            } else {
+                "VALUE"
             })
-            .collect();
-        Ok(Self { given })
+            .help(spec.help)
+            .allow_hyphen_values(true)
+            .required(spec.input == Input::Temperature)
     }
 
-    fn update_from_arg_matches(&mut self, m: &ArgMatches) -> Result<(), clap::Error> {
-        *self = Self::from_arg_matches(m)?;
-        Ok(())
-    }
-}
-
-impl Args for SampleArgs {
-    fn augment_args(cmd: clap::Command) -> clap::Command {
-        INPUTS.iter().fold(cmd, |cmd, spec| {
-            cmd.arg(
-                Arg::new(spec.flag)
-                    .long(spec.flag)
-                    .value_name(if spec.input.is_choice() {
-                        "NAME"
-                    } else {
-                        "VALUE"
-                    })
-                    .help(spec.help)
-                    .allow_hyphen_values(true)
-                    .required(spec.input == Input::Temperature),
-            )
-        })
-    }
-
-    fn augment_args_for_update(cmd: clap::Command) -> clap::Command {
-        Self::augment_args(cmd)
+    fn from_given(given: Vec<(Input, String)>) -> Self {
+        Self { given }
     }
 }
 
-/// The choices a sheet can take for every row, one flag per choice input of
-/// the library's list; each is the same as `--set COLUMN=VALUE`.
+input_flag_group!(SampleArgs);
+
+/// The choices a sheet can take for every row: one flag per choice in the
+/// library's list of inputs, each the same as `--set COLUMN=VALUE`.
 struct EveryRow {
     given: Vec<(Input, String)>,
 }
 
-impl FromArgMatches for EveryRow {
-    fn from_arg_matches(m: &ArgMatches) -> Result<Self, clap::Error> {
-        let given = INPUTS
-            .iter()
-            .filter(|spec| spec.input.is_choice())
-            .filter_map(|spec| {
-                m.get_one::<String>(spec.flag)
-                    .map(|v| (spec.input, v.clone()))
-            })
-            .collect();
-        Ok(Self { given })
+impl InputFlags for EveryRow {
+    fn offers(input: Input) -> bool {
+        input.is_choice()
     }
 
-    fn update_from_arg_matches(&mut self, m: &ArgMatches) -> Result<(), clap::Error> {
-        *self = Self::from_arg_matches(m)?;
-        Ok(())
+    fn arg(spec: &'static InputSpec) -> Arg {
+        Arg::new(spec.flag)
+            .long(spec.flag)
+            .value_name("NAME")
+            .help(format!(
+                "{}; for every row, the same as --set {}=VALUE",
+                spec.help, spec.column
+            ))
+    }
+
+    fn from_given(given: Vec<(Input, String)>) -> Self {
+        Self { given }
     }
 }
 
-impl Args for EveryRow {
-    fn augment_args(cmd: clap::Command) -> clap::Command {
-        INPUTS
-            .iter()
-            .filter(|spec| spec.input.is_choice())
-            .fold(cmd, |cmd, spec| {
-                cmd.arg(
-                    Arg::new(spec.flag)
-                        .long(spec.flag)
-                        .value_name("NAME")
-                        .help(format!(
-                            "{}; for every row, the same as --set {}=VALUE",
-                            spec.help, spec.column
-                        )),
-                )
-            })
-    }
-
-    fn augment_args_for_update(cmd: clap::Command) -> clap::Command {
-        Self::augment_args(cmd)
-    }
-}
+input_flag_group!(EveryRow);
 
 fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let mut sample = Sample::default();
