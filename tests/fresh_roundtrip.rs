@@ -299,21 +299,36 @@ fn in_domain(lo: f64, hi: f64) -> impl Strategy<Value = f64> {
     prop_oneof![3 => lo..hi, 1 => any_value()]
 }
 
-/// Keys that are null, legitimately, when no calcium was given.
-const NULL_WITHOUT_CALCIUM: [&str; 7] = [
+/// Keys that are null, legitimately, when no calcium was given (every key
+/// is written, null where the state has no value; the charge balance is
+/// null unless major ions were given).
+const NULL_WITHOUT_CALCIUM: [&str; 13] = [
     "omega_calcite",
     "omega_aragonite",
     "si_calcite",
     "si_aragonite",
     "calcium_umol_kg",
     "calcium_free_umol_kg",
+    "calcium_activity",
+    "cahco3_umol_kg",
+    "caco3_pair_umol_kg",
+    "saturation_ph_nbs",
     "langelier_index",
+    "precipitation_potential_mg_l_caco3",
+    "charge_balance_percent",
 ];
 
 /// Keys that may be null even with calcium: no pH 4–13 saturates the water
-/// (a warning says so). Their values, when present, are checked on the
+/// (a warning says so), the charge balance of ions not given, the
+/// precipitation potential not asked for. Every key is written, null where
+/// the state has no value; their values, when present, are checked on the
 /// state itself, since serde writes NaN as null too.
-const NULL_WITH_CALCIUM: [&str; 1] = ["langelier_index"];
+const NULL_WITH_CALCIUM: [&str; 4] = [
+    "saturation_ph_nbs",
+    "langelier_index",
+    "charge_balance_percent",
+    "precipitation_potential_mg_l_caco3",
+];
 
 /// Every optional number of the state, where present, is finite.
 fn options_finite(s: &State) -> bool {

@@ -123,15 +123,30 @@ proptest! {
     }
 }
 
+/// Keys that are null by design in saline water: the fresh-water figures
+/// (every key of the list is always written, null where the medium has none).
+const NULL_IN_SALINE: [&str; 10] = [
+    "calcium_activity",
+    "cahco3_umol_kg",
+    "caco3_pair_umol_kg",
+    "ionic_strength_from",
+    "gamma_monovalent",
+    "gamma_divalent",
+    "charge_balance_percent",
+    "saturation_ph_nbs",
+    "langelier_index",
+    "precipitation_potential_mg_l_caco3",
+];
+
 fn all_numbers_finite(v: &serde_json::Value) -> bool {
     match v {
         serde_json::Value::Null => false,
         serde_json::Value::Number(n) => n.as_f64().is_some_and(f64::is_finite),
         // serde_json writes NaN as null, so null means NaN, except for the
-        // Langelier index, which is null by design in saline water.
-        serde_json::Value::Object(m) => m
-            .iter()
-            .all(|(k, v)| (k == "langelier_index" && v.is_null()) || all_numbers_finite(v)),
+        // fresh-water figures, which are null by design in saline water.
+        serde_json::Value::Object(m) => m.iter().all(|(k, v)| {
+            (NULL_IN_SALINE.contains(&k.as_str()) && v.is_null()) || all_numbers_finite(v)
+        }),
         serde_json::Value::Array(a) => a.iter().all(all_numbers_finite),
         _ => true,
     }

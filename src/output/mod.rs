@@ -1,5 +1,11 @@
-//! Output: a state as an aligned table with units, or as JSON.
+//! Output: a state as an aligned table with units, or as JSON, both made
+//! from one list of outputs ([`Output`]), which the field sheet's computed
+//! columns use too.
 
+mod fields;
+mod json;
 mod table;
 
-pub use table::{json, table};
+pub use fields::{Output, Place, Section, Value};
+pub use json::json;
+pub use table::table;

@@ -1,130 +1,40 @@
 //! Human-readable output: an aligned table with units.
 
-use crate::sample::water::Medium;
+use super::fields::{Output, Place, Section, Value};
 use crate::state::State;
 use std::fmt::Write;
 
-/// One row of the table: label, value, unit, number of decimals.
-type Row = (&'static str, f64, &'static str, usize);
-
-fn opt(v: Option<f64>) -> f64 {
-    v.unwrap_or(f64::NAN)
+/// The sections of the table of a state, each with its rows in order: the
+/// outputs its medium shows (see [`Output::place`]) and their labels.
+/// Sections without a row are left out.
+fn rows(s: &State) -> Vec<(Section, Vec<(Output, &'static str)>)> {
+    Section::ALL
+        .iter()
+        .filter_map(|&section| {
+            let mut first = Vec::new();
+            let mut rest = Vec::new();
+            for &o in Output::ALL.iter().filter(|o| o.section() == section) {
+                match o.place(s.water) {
+                    Place::Hidden => {}
+                    Place::First => first.push((o, o.label())),
+                    Place::Row => rest.push((o, o.label())),
+                    Place::Labelled(label) => rest.push((o, label)),
+                }
+            }
+            first.extend(rest);
+            (!first.is_empty()).then_some((section, first))
+        })
+        .collect()
 }
 
-fn rows(s: &State) -> Vec<(&'static str, Vec<Row>)> {
-    let fresh = s.water == Medium::Fresh;
-    let acidity = if fresh {
-        vec![
-            ("pH, NBS scale", s.ph_nbs, "", 4),
-            ("pH, free scale", s.ph_free, "", 4),
-        ]
-    } else {
-        vec![
-            ("pH, total scale", s.ph_total, "", 4),
-            ("pH, sea-water scale", s.ph_seawater, "", 4),
-            ("pH, free scale", s.ph_free, "", 4),
-            ("pH, NBS scale (approximate)", s.ph_nbs, "", 4),
-        ]
-    };
-    let mut saturation = vec![
-        ("calcite Ω", opt(s.omega_calcite), "", 3),
-        ("aragonite Ω", opt(s.omega_aragonite), "", 3),
-        ("calcite SI (log10 Ω)", opt(s.si_calcite), "", 3),
-        ("aragonite SI (log10 Ω)", opt(s.si_aragonite), "", 3),
-        ("calcium", opt(s.calcium_umol_kg), "µmol/kg", 1),
-    ];
-    if fresh {
-        saturation.extend([
-            ("free calcium", opt(s.calcium_free_umol_kg), "µmol/kg", 1),
-            ("CaHCO3+ pair", opt(s.cahco3_umol_kg), "µmol/kg", 2),
-            ("CaCO3 pair", opt(s.caco3_pair_umol_kg), "µmol/kg", 2),
-            ("saturation pH, pHs (NBS)", opt(s.saturation_ph_nbs), "", 3),
-            ("Langelier index", opt(s.langelier_index), "", 3),
-            (
-                "CaCO3 precipitation potential",
-                opt(s.precipitation_potential_mg_l_caco3),
-                "mg/L as CaCO3",
-                2,
-            ),
-        ]);
+/// The printed value of an output: a number to its decimals, a text as it
+/// is, a dash for nothing.
+fn cell(o: Output, s: &State) -> String {
+    match o.value(s) {
+        Value::Number(v) => fmt_num(v.unwrap_or(f64::NAN), o.decimals()),
+        Value::Text(Some(t)) => t.to_string(),
+        Value::Text(None) => "—".to_string(),
     }
-    let mut sections = vec![
-        ("Acidity", acidity),
-        (
-            "Carbon",
-            vec![
-                ("alkalinity", s.alkalinity_umol_kg, "µmol/kg", 2),
-                ("dissolved inorganic carbon", s.dic_umol_kg, "µmol/kg", 2),
-                ("CO2*", s.co2_umol_kg, "µmol/kg", 3),
-                ("bicarbonate HCO3-", s.hco3_umol_kg, "µmol/kg", 2),
-                ("carbonate CO3--", s.co3_umol_kg, "µmol/kg", 2),
-                ("Revelle factor", s.revelle_factor, "", 3),
-            ],
-        ),
-        (
-            "Gas",
-            vec![
-                ("fCO2", s.fco2_uatm, "µatm", 2),
-                ("pCO2", s.pco2_uatm, "µatm", 2),
-                ("xCO2 (dry air)", s.xco2_ppm, "ppm", 2),
-            ],
-        ),
-        ("Saturation", saturation),
-        (
-            "Alkalinity parts",
-            vec![
-                ("carbonate", s.carbonate_alkalinity_umol_kg, "µmol/kg", 2),
-                ("borate", s.borate_alkalinity_umol_kg, "µmol/kg", 2),
-                ("hydroxide", s.hydroxide_umol_kg, "µmol/kg", 3),
-                ("phosphate", s.phosphate_alkalinity_umol_kg, "µmol/kg", 3),
-                ("silicate", s.silicate_alkalinity_umol_kg, "µmol/kg", 3),
-                ("ammonia", s.ammonia_alkalinity_umol_kg, "µmol/kg", 3),
-                ("sulfide", s.sulfide_alkalinity_umol_kg, "µmol/kg", 3),
-                (
-                    "free hydrogen (minus)",
-                    s.free_hydrogen_umol_kg,
-                    "µmol/kg",
-                    4,
-                ),
-                ("bisulfate (minus)", s.bisulfate_umol_kg, "µmol/kg", 4),
-                (
-                    "hydrogen fluoride (minus)",
-                    s.hydrogen_fluoride_umol_kg,
-                    "µmol/kg",
-                    4,
-                ),
-            ],
-        ),
-        (
-            "Trade units",
-            vec![
-                ("alkalinity", s.alkalinity_mg_l_caco3, "mg/L as CaCO3", 2),
-                ("dissolved inorganic carbon", s.dic_mg_l_c, "mg/L as C", 3),
-                ("free CO2", s.free_co2_mg_l, "mg/L", 3),
-                ("density used", s.density_kg_m3, "kg/m3", 3),
-            ],
-        ),
-    ];
-    let mut medium = vec![("ionic strength", s.ionic_strength, "mol/kg", 5)];
-    if fresh {
-        medium.extend([
-            (
-                "activity coefficient, z = 1",
-                opt(s.gamma_monovalent),
-                "",
-                4,
-            ),
-            ("activity coefficient, z = 2", opt(s.gamma_divalent), "", 4),
-            (
-                "charge balance of ions given",
-                opt(s.charge_balance_percent),
-                "%",
-                2,
-            ),
-        ]);
-    }
-    sections.push(("Medium", medium));
-    sections
 }
 
 fn header(s: &State) -> String {
@@ -157,10 +67,9 @@ fn header(s: &State) -> String {
 pub fn table(state: &State, measured: Option<&State>) -> String {
     let mut out = String::new();
     let sections = rows(state);
-    let other = measured.map(rows);
     let label_w = sections
         .iter()
-        .flat_map(|(_, r)| r.iter().map(|row| row.0.chars().count()))
+        .flat_map(|(_, r)| r.iter().map(|(_, label)| label.chars().count()))
         .max()
         .unwrap_or(10)
         + 2;
@@ -173,17 +82,16 @@ pub fn table(state: &State, measured: Option<&State>) -> String {
             "", "reported", "as measured"
         );
     }
-    for (i, (title, rs)) in sections.iter().enumerate() {
-        let _ = writeln!(out, "\n{title}");
-        for (j, (label, value, unit, dec)) in rs.iter().enumerate() {
-            let mut line = format!("  {label:<label_w$}{:>14}", fmt_num(*value, *dec));
-            if let Some(o) = &other {
-                let v = o[i].1[j].1;
-                line.push_str(&format!("{:>14}", fmt_num(v, *dec)));
+    for (section, rs) in &sections {
+        let _ = writeln!(out, "\n{}", section.title());
+        for &(o, label) in rs {
+            let mut line = format!("  {label:<label_w$}{:>14}", cell(o, state));
+            if let Some(m) = measured {
+                line.push_str(&format!("{:>14}", cell(o, m)));
             }
-            if !unit.is_empty() {
+            if !o.unit().is_empty() {
                 line.push_str("  ");
-                line.push_str(unit);
+                line.push_str(o.unit());
             }
             let _ = writeln!(out, "{}", line.trim_end());
         }
@@ -231,29 +139,4 @@ fn fmt_num(v: f64, decimals: usize) -> String {
         return format!("{v:.3e}");
     }
     format!("{v:.decimals$}")
-}
-
-/// One flat JSON object of a state. When `measured` is given (the state at
-/// the conditions of measurement), it is added under the key `as_measured`.
-///
-/// # Example
-/// ```
-/// use travertine::{output::json, Conditions, Measured, Water};
-/// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
-///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
-/// let v: serde_json::Value = serde_json::from_str(&json(&s, None)).unwrap();
-/// assert_eq!(v["water"], "saline");
-/// assert!(v["warnings"].as_array().unwrap().is_empty());
-/// # Ok::<(), travertine::Error>(())
-/// ```
-pub fn json(state: &State, measured: Option<&State>) -> String {
-    let mut v = serde_json::to_value(state).unwrap_or(serde_json::Value::Null);
-    if let (Some(m), Some(obj)) = (measured, v.as_object_mut()) {
-        obj.insert(
-            "as_measured".to_string(),
-            serde_json::to_value(m).unwrap_or(serde_json::Value::Null),
-        );
-    }
-    // Non-finite numbers have no JSON form: serde_json writes them as null.
-    serde_json::to_string_pretty(&v).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }

@@ -259,7 +259,9 @@ impl SheetOptions {
 
     /// The computed columns, comma-separated: names such as `ph_total`,
     /// `pco2_uatm`, `omega_aragonite`; `default` for the default set of the
-    /// unit system; `all` for every one.
+    /// unit system; `all` for every one. The names are the keys of
+    /// [`crate::output::Output`], the keys of the JSON of a state, and
+    /// `all` writes them in that list's order.
     ///
     /// # Errors
     /// [`SheetError::BadOption`] for a name that is not a computed column.

@@ -401,7 +401,7 @@ impl<'p> RowWriter<'p> {
                     out.push(style.delimiter);
                     csv_number(out, *v, style);
                 }
-                Some(Value::Text(t)) => csv_field(out, t.as_bytes(), style, first && i == 0),
+                Some(Value::Text(Some(t))) => csv_field(out, t.as_bytes(), style, first && i == 0),
                 _ => csv_field(out, b"", style, first && i == 0),
             }
         }
@@ -439,7 +439,7 @@ impl<'p> RowWriter<'p> {
             key(out, &mut k);
             match s.values.get(i) {
                 Some(Value::Number(Some(v))) if v.is_finite() => write_number(out, *v, &plain),
-                Some(Value::Text(t)) if !t.is_empty() => json_string(out, t.as_bytes()),
+                Some(Value::Text(Some(t))) if !t.is_empty() => json_string(out, t.as_bytes()),
                 _ => out.extend_from_slice(b"null"),
             }
         }

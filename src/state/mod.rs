@@ -10,7 +10,6 @@ use crate::properties::scales::PhScale;
 use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::{Medium, Water};
 use crate::speciation::alkalinity::parts_with_slopes;
-use serde::Serialize;
 
 mod fresh_figures;
 
@@ -27,6 +26,13 @@ pub(crate) struct FreshExtras {
 /// Every output of a solve. Field names are the JSON keys of the interface
 /// contract; concentrations are µmol per kg of solution unless the name says
 /// otherwise.
+///
+/// The outputs are listed once, in [`crate::output::Output`]: the JSON of a
+/// state (its `Serialize`, written in the output layer), the human table and
+/// the sheet's computed columns are all made from that list, which also has
+/// outputs derived from these fields (`hco3_mg_l`, `co3_mg_l`,
+/// `carbonic_fit`). Every key is always in the JSON, `null` where the
+/// medium has no value.
 ///
 /// # Formulas
 /// ```text
@@ -47,7 +53,7 @@ pub(crate) struct FreshExtras {
 /// assert!((s.fco2_uatm - 401.47).abs() < 0.05);
 /// # Ok::<(), travertine::Error>(())
 /// ```
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq)]
 #[non_exhaustive]
 pub struct State {
     /// Temperature, °C.
@@ -117,37 +123,28 @@ pub struct State {
     /// Free Ca++ (fresh water: total less the CaHCO3+ and CaCO3⁰ pairs).
     pub calcium_free_umol_kg: Option<f64>,
     /// Activity of free Ca++ (molal, fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub calcium_activity: Option<f64>,
     /// CaHCO3+ ion pair (fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub cahco3_umol_kg: Option<f64>,
     /// CaCO3⁰ ion pair (fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub caco3_pair_umol_kg: Option<f64>,
     /// Ionic strength, mol/kg.
     pub ionic_strength: f64,
     /// Where the ionic strength came from (fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub ionic_strength_from: Option<IonicStrengthRoute>,
     /// Charge imbalance of the ions given, % of the total charge (fresh
     /// water with major ions; positive: excess cations).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub charge_balance_percent: Option<f64>,
     /// Activity coefficient of monovalent ions (fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub gamma_monovalent: Option<f64>,
     /// Activity coefficient of divalent ions such as CO3-- (fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub gamma_divalent: Option<f64>,
     /// pHs, the NBS pH of calcite saturation at this alkalinity and calcium (fresh water).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub saturation_ph_nbs: Option<f64>,
     /// Langelier index, pH − pHs (fresh water with calcium; null otherwise).
     pub langelier_index: Option<f64>,
     /// Calcium carbonate precipitation potential, mg/L as CaCO3: positive to
     /// precipitate, negative to dissolve (fresh water with calcium).
-    #[serde(skip_serializing_if = "Option::is_none")]
     pub precipitation_potential_mg_l_caco3: Option<f64>,
     /// Alkalinity, mg/L as CaCO3.
     pub alkalinity_mg_l_caco3: f64,
@@ -161,9 +158,7 @@ pub struct State {
     pub constants: FitsUsed,
     /// Cautions: fits used outside their range, other roots, approximations.
     pub warnings: Warnings,
-    #[serde(skip)]
     water_sample: Water,
-    #[serde(skip)]
     h: f64,
 }
 

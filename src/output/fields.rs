@@ -1,0 +1,554 @@
+//! The outputs of a solve, described once.
+//!
+//! One list, in the `outputs!` invocation of this file, gives every output its
+//! key, human label, unit, decimals, table section, the tables that show
+//! it and how to read it from a [`State`]. Everything that writes a state
+//! is made from it:
+//!
+//! - the JSON of a state (`impl Serialize for State`, [`crate::output::json`]):
+//!   every key, in list order, then `constants` and `warnings`;
+//! - the human table ([`crate::output::table`]): the rows of each section;
+//! - the computed columns of the field sheet (`--columns all` is the list).
+//!
+//! Adding an output means adding one row to the list.
+//!
+//! ```
+//! use travertine::output::{Output, Value};
+//! use travertine::{Conditions, Measured, Water};
+//! let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+//!     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+//! for o in Output::ALL {
+//!     match o.value(&s) {
+//!         Value::Number(Some(v)) => println!("{} = {v} {}", o.key(), o.unit()),
+//!         Value::Number(None) | Value::Text(None) => println!("{}: none here", o.key()),
+//!         Value::Text(Some(t)) => println!("{} = {t}", o.key()),
+//!     }
+//! }
+//! assert_eq!(Output::Pco2.value(&s), Value::Number(Some(s.pco2_uatm)));
+//! # Ok::<(), travertine::Error>(())
+//! ```
+
+use crate::base::units::{CO3_G_MOL, HCO3_G_MOL};
+use crate::sample::water::Medium;
+use crate::state::State;
+use serde::{Serialize, Serializer};
+
+/// The value of one output in a state: a number, a missing number, or a
+/// text such as the medium's name.
+///
+/// A number is `None` where the state has none, for example Ω without
+/// calcium, or a fresh-water figure in saline water; a text is `None` the
+/// same way. It serialises as a JSON number or string, or `null` for a
+/// missing value and for a number that is not finite.
+///
+/// ```
+/// use travertine::output::Value;
+/// assert_eq!(serde_json::to_string(&Value::Number(Some(1.5))).unwrap(), "1.5");
+/// assert_eq!(serde_json::to_string(&Value::Number(None)).unwrap(), "null");
+/// assert_eq!(serde_json::to_string(&Value::Number(Some(f64::NAN))).unwrap(), "null");
+/// assert_eq!(serde_json::to_string(&Value::Text(Some("fresh"))).unwrap(), "\"fresh\"");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Value {
+    /// A number; `None` when the state has none.
+    Number(Option<f64>),
+    /// A name; `None` when the state has none.
+    Text(Option<&'static str>),
+}
+
+impl Serialize for Value {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        match *self {
+            Value::Number(Some(v)) if v.is_finite() => serializer.serialize_f64(v),
+            Value::Text(Some(t)) => serializer.serialize_str(t),
+            _ => serializer.serialize_none(),
+        }
+    }
+}
+
+/// A section of the human table, in the order the table prints them.
+///
+/// `Conditions` and `Fits` have no rows in the table: the conditions are
+/// in its header line and the fits in its `Constants` block.
+///
+/// ```
+/// use travertine::output::{Output, Section};
+/// assert_eq!(Output::Pco2.section(), Section::Gas);
+/// assert_eq!(Section::AlkalinityParts.title(), "Alkalinity parts");
+/// assert!(Section::ALL.windows(2).all(|w| w[0] != w[1]));
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
+pub enum Section {
+    /// Temperature, salinity, pressure and the medium.
+    Conditions,
+    /// pH on each scale.
+    Acidity,
+    /// Alkalinity, DIC, the species and the Revelle factor.
+    Carbon,
+    /// CO2 fugacity, partial pressure and mole fraction.
+    Gas,
+    /// Ω, saturation indices, calcium and the calcium carbonate figures.
+    Saturation,
+    /// Each part of the alkalinity.
+    AlkalinityParts,
+    /// Per-litre (mg/L) figures and the density used for them.
+    TradeUnits,
+    /// Ionic strength, activity coefficients and the charge balance.
+    Medium,
+    /// The fits used.
+    Fits,
+}
+
+impl Section {
+    /// Every section, in table order.
+    pub const ALL: &'static [Section] = &[
+        Section::Conditions,
+        Section::Acidity,
+        Section::Carbon,
+        Section::Gas,
+        Section::Saturation,
+        Section::AlkalinityParts,
+        Section::TradeUnits,
+        Section::Medium,
+        Section::Fits,
+    ];
+
+    /// The title printed above the section.
+    ///
+    /// ```
+    /// use travertine::output::Section;
+    /// assert_eq!(Section::TradeUnits.title(), "Trade units");
+    /// ```
+    pub fn title(self) -> &'static str {
+        match self {
+            Section::Conditions => "Conditions",
+            Section::Acidity => "Acidity",
+            Section::Carbon => "Carbon",
+            Section::Gas => "Gas",
+            Section::Saturation => "Saturation",
+            Section::AlkalinityParts => "Alkalinity parts",
+            Section::TradeUnits => "Trade units",
+            Section::Medium => "Medium",
+            Section::Fits => "Constants",
+        }
+    }
+}
+
+/// Where the table of one medium puts an output.
+///
+/// ```
+/// use travertine::output::{Output, Place};
+/// use travertine::Medium;
+/// // Fresh water leads with its working scale; saline water calls that pH approximate.
+/// assert_eq!(Output::PhNbs.place(Medium::Fresh), Place::First);
+/// assert_eq!(Output::PhNbs.place(Medium::Saline), Place::Labelled("pH, NBS scale (approximate)"));
+/// assert_eq!(Output::PhTotal.place(Medium::Fresh), Place::Hidden);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Place {
+    /// Not a row of this medium's table.
+    Hidden,
+    /// A row of its section, in list order.
+    Row,
+    /// A row ahead of the others of its section.
+    First,
+    /// A row of its section in list order, under this label rather than
+    /// [`Output::label`].
+    Labelled(&'static str),
+}
+
+impl Place {
+    /// Whether the table shows the output at all.
+    ///
+    /// ```
+    /// use travertine::output::Place;
+    /// assert!(Place::Row.shown() && !Place::Hidden.shown());
+    /// ```
+    pub fn shown(self) -> bool {
+        self != Place::Hidden
+    }
+}
+
+fn n(v: f64) -> Value {
+    Value::Number(Some(v))
+}
+
+fn o(v: Option<f64>) -> Value {
+    Value::Number(v)
+}
+
+/// µmol/kg to mg/L of a species of molar mass `g_mol`, with the density of the state.
+fn mg_l(s: &State, umol_kg: f64, g_mol: f64) -> f64 {
+    umol_kg * 1e-6 * s.density_kg_m3 * g_mol
+}
+
+/// Generates [`Output`] and its descriptions from one list. A row reads
+///
+/// ```text
+/// Variant => "key", "label", "unit", decimals, Section, [fresh place, saline place], |state| value;
+/// ```
+///
+/// where a place is `Hidden`, `Row`, `First` or `Labelled("label")` (see
+/// [`Place`]).
+macro_rules! outputs {
+    ($(
+        $variant:ident => $key:literal, $label:literal, $unit:literal, $decimals:literal,
+        $section:ident, [$fresh:expr, $saline:expr], |$s:ident| $value:expr;
+    )*) => {
+        /// An output of a solve: a JSON key of `travertine solve --json`,
+        /// a computed column of the field sheet and, where its medium shows
+        /// it, a row of the human table.
+        ///
+        /// ```
+        /// use travertine::output::Output;
+        /// assert_eq!(Output::from_key("pco2_uatm"), Some(Output::Pco2));
+        /// assert_eq!(Output::Pco2.key(), "pco2_uatm");
+        /// assert_eq!(Output::Pco2.unit(), "µatm");
+        /// ```
+        #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+        #[non_exhaustive]
+        pub enum Output {
+            $(
+                #[doc = concat!("`", $key, "`: ", $label, ".")]
+                $variant,
+            )*
+        }
+
+        impl Output {
+            /// Every output, in the order of the JSON keys and of `--columns all`.
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert_eq!(Output::ALL[0].key(), "temperature_c");
+            /// ```
+            pub const ALL: &'static [Output] = &[ $( Output::$variant, )* ];
+
+            /// The key: the JSON key and the sheet's column name, snake_case.
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert_eq!(Output::AlkalinityMgL.key(), "alkalinity_mg_l_caco3");
+            /// ```
+            pub fn key(self) -> &'static str {
+                match self { $( Output::$variant => $key, )* }
+            }
+
+            /// The label of its table row (see [`Output::place`] for a
+            /// medium that labels it otherwise).
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert_eq!(Output::Revelle.label(), "Revelle factor");
+            /// ```
+            pub fn label(self) -> &'static str {
+                match self { $( Output::$variant => $label, )* }
+            }
+
+            /// The unit, as printed (empty for a plain number or a text).
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert_eq!(Output::DicMgL.unit(), "mg/L as C");
+            /// assert_eq!(Output::PhTotal.unit(), "");
+            /// ```
+            pub fn unit(self) -> &'static str {
+                match self { $( Output::$variant => $unit, )* }
+            }
+
+            /// Decimals printed in the table.
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert_eq!(Output::PhTotal.decimals(), 4);
+            /// ```
+            pub fn decimals(self) -> usize {
+                match self { $( Output::$variant => $decimals, )* }
+            }
+
+            /// The table section it belongs to.
+            ///
+            /// ```
+            /// use travertine::output::{Output, Section};
+            /// assert_eq!(Output::Langelier.section(), Section::Saturation);
+            /// ```
+            pub fn section(self) -> Section {
+                match self { $( Output::$variant => Section::$section, )* }
+            }
+
+            /// Where the table of a state in `medium` shows it.
+            ///
+            /// ```
+            /// use travertine::output::{Output, Place};
+            /// use travertine::Medium;
+            /// assert_eq!(Output::Langelier.place(Medium::Fresh), Place::Row);
+            /// assert_eq!(Output::Langelier.place(Medium::Saline), Place::Hidden);
+            /// ```
+            pub fn place(self, medium: Medium) -> Place {
+                #[allow(unused_imports)]
+                use Place::*;
+                let fresh = medium == Medium::Fresh;
+                match self {
+                    $( Output::$variant => if fresh { $fresh } else { $saline }, )*
+                }
+            }
+
+            /// Its value in a state. A plain match: cheap enough for every
+            /// cell of a sheet.
+            ///
+            /// ```
+            /// use travertine::output::{Output, Value};
+            /// use travertine::{Conditions, Measured, Water};
+            /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+            ///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+            /// assert_eq!(Output::Water.value(&s), Value::Text(Some("saline")));
+            /// assert_eq!(Output::Langelier.value(&s), Value::Number(None));
+            /// # Ok::<(), travertine::Error>(())
+            /// ```
+            #[inline(always)]
+            pub fn value(self, state: &State) -> Value {
+                match self {
+                    $( Output::$variant => {
+                        let $s = state;
+                        $value
+                    } )*
+                }
+            }
+        }
+    };
+}
+
+outputs! {
+    // Conditions: in the table's header line, not in its rows.
+    TemperatureC => "temperature_c", "temperature", "°C", 2,
+        Conditions, [Hidden, Hidden], |s| n(s.temperature_c);
+    Salinity => "salinity", "practical salinity", "", 4,
+        Conditions, [Hidden, Hidden], |s| n(s.salinity);
+    PressureDbar => "pressure_dbar", "gauge pressure", "dbar", 1,
+        Conditions, [Hidden, Hidden], |s| n(s.pressure_dbar);
+    Water => "water", "medium", "", 0,
+        Conditions, [Hidden, Hidden], |s| Value::Text(Some(s.water.name()));
+
+    // Acidity: fresh water leads with its working scale, the NBS scale.
+    PhTotal => "ph_total", "pH, total scale", "", 4,
+        Acidity, [Hidden, Row], |s| n(s.ph_total);
+    PhSeawater => "ph_seawater", "pH, sea-water scale", "", 4,
+        Acidity, [Hidden, Row], |s| n(s.ph_seawater);
+    PhFree => "ph_free", "pH, free scale", "", 4,
+        Acidity, [Row, Row], |s| n(s.ph_free);
+    PhNbs => "ph_nbs", "pH, NBS scale", "", 4,
+        Acidity, [First, Labelled("pH, NBS scale (approximate)")], |s| n(s.ph_nbs);
+
+    AlkalinityUmolKg => "alkalinity_umol_kg", "alkalinity", "µmol/kg", 2,
+        Carbon, [Row, Row], |s| n(s.alkalinity_umol_kg);
+    DicUmolKg => "dic_umol_kg", "dissolved inorganic carbon", "µmol/kg", 2,
+        Carbon, [Row, Row], |s| n(s.dic_umol_kg);
+    Co2UmolKg => "co2_umol_kg", "CO2*", "µmol/kg", 3,
+        Carbon, [Row, Row], |s| n(s.co2_umol_kg);
+    Hco3UmolKg => "hco3_umol_kg", "bicarbonate HCO3-", "µmol/kg", 2,
+        Carbon, [Row, Row], |s| n(s.hco3_umol_kg);
+    Co3UmolKg => "co3_umol_kg", "carbonate CO3--", "µmol/kg", 2,
+        Carbon, [Row, Row], |s| n(s.co3_umol_kg);
+
+    Fco2 => "fco2_uatm", "fCO2", "µatm", 2,
+        Gas, [Row, Row], |s| n(s.fco2_uatm);
+    Pco2 => "pco2_uatm", "pCO2", "µatm", 2,
+        Gas, [Row, Row], |s| n(s.pco2_uatm);
+    Xco2 => "xco2_ppm", "xCO2 (dry air)", "ppm", 2,
+        Gas, [Row, Row], |s| n(s.xco2_ppm);
+
+    OmegaCalcite => "omega_calcite", "calcite Ω", "", 3,
+        Saturation, [Row, Row], |s| o(s.omega_calcite);
+    OmegaAragonite => "omega_aragonite", "aragonite Ω", "", 3,
+        Saturation, [Row, Row], |s| o(s.omega_aragonite);
+    SiCalcite => "si_calcite", "calcite SI (log10 Ω)", "", 3,
+        Saturation, [Row, Row], |s| o(s.si_calcite);
+    SiAragonite => "si_aragonite", "aragonite SI (log10 Ω)", "", 3,
+        Saturation, [Row, Row], |s| o(s.si_aragonite);
+
+    Revelle => "revelle_factor", "Revelle factor", "", 3,
+        Carbon, [Row, Row], |s| n(s.revelle_factor);
+
+    CarbonateAlkalinity => "carbonate_alkalinity_umol_kg", "carbonate", "µmol/kg", 2,
+        AlkalinityParts, [Row, Row], |s| n(s.carbonate_alkalinity_umol_kg);
+    BorateAlkalinity => "borate_alkalinity_umol_kg", "borate", "µmol/kg", 2,
+        AlkalinityParts, [Row, Row], |s| n(s.borate_alkalinity_umol_kg);
+    Hydroxide => "hydroxide_umol_kg", "hydroxide", "µmol/kg", 3,
+        AlkalinityParts, [Row, Row], |s| n(s.hydroxide_umol_kg);
+    PhosphateAlkalinity => "phosphate_alkalinity_umol_kg", "phosphate", "µmol/kg", 3,
+        AlkalinityParts, [Row, Row], |s| n(s.phosphate_alkalinity_umol_kg);
+    SilicateAlkalinity => "silicate_alkalinity_umol_kg", "silicate", "µmol/kg", 3,
+        AlkalinityParts, [Row, Row], |s| n(s.silicate_alkalinity_umol_kg);
+    AmmoniaAlkalinity => "ammonia_alkalinity_umol_kg", "ammonia", "µmol/kg", 3,
+        AlkalinityParts, [Row, Row], |s| n(s.ammonia_alkalinity_umol_kg);
+    SulfideAlkalinity => "sulfide_alkalinity_umol_kg", "sulfide", "µmol/kg", 3,
+        AlkalinityParts, [Row, Row], |s| n(s.sulfide_alkalinity_umol_kg);
+    FreeHydrogen => "free_hydrogen_umol_kg", "free hydrogen (minus)", "µmol/kg", 4,
+        AlkalinityParts, [Row, Row], |s| n(s.free_hydrogen_umol_kg);
+    Bisulfate => "bisulfate_umol_kg", "bisulfate (minus)", "µmol/kg", 4,
+        AlkalinityParts, [Row, Row], |s| n(s.bisulfate_umol_kg);
+    HydrogenFluoride => "hydrogen_fluoride_umol_kg", "hydrogen fluoride (minus)", "µmol/kg", 4,
+        AlkalinityParts, [Row, Row], |s| n(s.hydrogen_fluoride_umol_kg);
+
+    Calcium => "calcium_umol_kg", "calcium", "µmol/kg", 1,
+        Saturation, [Row, Row], |s| o(s.calcium_umol_kg);
+    CalciumFree => "calcium_free_umol_kg", "free calcium", "µmol/kg", 1,
+        Saturation, [Row, Hidden], |s| o(s.calcium_free_umol_kg);
+    CalciumActivity => "calcium_activity", "free calcium activity", "", 6,
+        Saturation, [Hidden, Hidden], |s| o(s.calcium_activity);
+    Cahco3 => "cahco3_umol_kg", "CaHCO3+ pair", "µmol/kg", 2,
+        Saturation, [Row, Hidden], |s| o(s.cahco3_umol_kg);
+    Caco3Pair => "caco3_pair_umol_kg", "CaCO3 pair", "µmol/kg", 2,
+        Saturation, [Row, Hidden], |s| o(s.caco3_pair_umol_kg);
+
+    // The source of the ionic strength is in the table's header line.
+    IonicStrength => "ionic_strength", "ionic strength", "mol/kg", 5,
+        Medium, [Row, Row], |s| n(s.ionic_strength);
+    IonicStrengthFrom => "ionic_strength_from", "ionic strength from", "", 0,
+        Medium, [Hidden, Hidden], |s| Value::Text(s.ionic_strength_from.map(|r| r.name()));
+    GammaMonovalent => "gamma_monovalent", "activity coefficient, z = 1", "", 4,
+        Medium, [Row, Hidden], |s| o(s.gamma_monovalent);
+    GammaDivalent => "gamma_divalent", "activity coefficient, z = 2", "", 4,
+        Medium, [Row, Hidden], |s| o(s.gamma_divalent);
+    ChargeBalance => "charge_balance_percent", "charge balance of ions given", "%", 2,
+        Medium, [Row, Hidden], |s| o(s.charge_balance_percent);
+
+    SaturationPh => "saturation_ph_nbs", "saturation pH, pHs (NBS)", "", 3,
+        Saturation, [Row, Hidden], |s| o(s.saturation_ph_nbs);
+    Langelier => "langelier_index", "Langelier index", "", 3,
+        Saturation, [Row, Hidden], |s| o(s.langelier_index);
+    PrecipitationPotential => "precipitation_potential_mg_l_caco3",
+        "CaCO3 precipitation potential", "mg/L as CaCO3", 2,
+        Saturation, [Row, Hidden], |s| o(s.precipitation_potential_mg_l_caco3);
+
+    AlkalinityMgL => "alkalinity_mg_l_caco3", "alkalinity", "mg/L as CaCO3", 2,
+        TradeUnits, [Row, Row], |s| n(s.alkalinity_mg_l_caco3);
+    DicMgL => "dic_mg_l_c", "dissolved inorganic carbon", "mg/L as C", 3,
+        TradeUnits, [Row, Row], |s| n(s.dic_mg_l_c);
+    FreeCo2MgL => "free_co2_mg_l", "free CO2", "mg/L", 3,
+        TradeUnits, [Row, Row], |s| n(s.free_co2_mg_l);
+    Hco3MgL => "hco3_mg_l", "bicarbonate HCO3-", "mg/L", 2,
+        TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.hco3_umol_kg, HCO3_G_MOL));
+    Co3MgL => "co3_mg_l", "carbonate CO3--", "mg/L", 3,
+        TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.co3_umol_kg, CO3_G_MOL));
+    Density => "density_kg_m3", "density used", "kg/m3", 3,
+        TradeUnits, [Row, Row], |s| n(s.density_kg_m3);
+
+    // The fits are in the table's Constants block.
+    CarbonicFit => "carbonic_fit", "K1, K2", "", 0,
+        Fits, [Hidden, Hidden], |s| Value::Text(Some(s.constants.carbonic.as_str()));
+}
+
+impl Output {
+    /// The output of this key.
+    ///
+    /// ```
+    /// use travertine::output::Output;
+    /// assert_eq!(Output::from_key("langelier_index"), Some(Output::Langelier));
+    /// assert_eq!(Output::from_key("no_such_key"), None);
+    /// ```
+    pub fn from_key(key: &str) -> Option<Output> {
+        Output::ALL.iter().copied().find(|o| o.key() == key)
+    }
+
+    /// The label of its row in the table of `medium`, `None` where that
+    /// table does not show it.
+    ///
+    /// ```
+    /// use travertine::output::Output;
+    /// use travertine::Medium;
+    /// assert_eq!(Output::PhNbs.label_in(Medium::Fresh), Some("pH, NBS scale"));
+    /// assert_eq!(Output::PhTotal.label_in(Medium::Fresh), None);
+    /// ```
+    pub fn label_in(self, medium: Medium) -> Option<&'static str> {
+        match self.place(medium) {
+            Place::Hidden => None,
+            Place::Row | Place::First => Some(self.label()),
+            Place::Labelled(l) => Some(l),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The unit a key's suffix promises, most specific suffix first.
+    const SUFFIX_UNITS: &[(&str, &str)] = &[
+        ("_mg_l_caco3", "mg/L as CaCO3"),
+        ("_mg_l_c", "mg/L as C"),
+        ("_mg_l", "mg/L"),
+        ("_umol_kg", "µmol/kg"),
+        ("_uatm", "µatm"),
+        ("_ppm", "ppm"),
+        ("_kg_m3", "kg/m3"),
+        ("_percent", "%"),
+        ("_dbar", "dbar"),
+        ("_c", "°C"),
+    ];
+
+    #[test]
+    fn keys_are_unique_and_snake_case() {
+        let mut keys: Vec<&str> = Output::ALL.iter().map(|o| o.key()).collect();
+        for k in &keys {
+            let snake = !k.is_empty()
+                && k.starts_with(|c: char| c.is_ascii_lowercase())
+                && !k.ends_with('_')
+                && !k.contains("__")
+                && k.chars()
+                    .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '_');
+            assert!(snake, "`{k}` is not snake_case");
+        }
+        keys.sort_unstable();
+        keys.dedup();
+        assert_eq!(keys.len(), Output::ALL.len(), "a key is listed twice");
+        for o in Output::ALL {
+            assert_eq!(Output::from_key(o.key()), Some(*o));
+        }
+        // The JSON adds these two after the list.
+        assert!(Output::from_key("constants").is_none());
+        assert!(Output::from_key("warnings").is_none());
+    }
+
+    #[test]
+    fn units_agree_with_key_suffixes() {
+        for o in Output::ALL {
+            let (key, unit) = (o.key(), o.unit());
+            if let Some((suffix, expected)) = SUFFIX_UNITS.iter().find(|(s, _)| key.ends_with(s)) {
+                assert_eq!(unit, *expected, "`{key}` ends in `{suffix}`");
+            }
+            // And a unit that has a suffix is never given without it.
+            if let Some((suffix, _)) = SUFFIX_UNITS.iter().find(|(_, u)| *u == unit) {
+                assert!(
+                    key.ends_with(suffix),
+                    "`{key}` is in {unit} but lacks `{suffix}`"
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn every_section_but_the_header_ones_has_rows_in_a_table() {
+        for section in Section::ALL {
+            let shown = Output::ALL.iter().any(|o| {
+                o.section() == *section
+                    && (o.place(Medium::Fresh).shown() || o.place(Medium::Saline).shown())
+            });
+            let header_only = matches!(section, Section::Conditions | Section::Fits);
+            assert_eq!(shown, !header_only, "{section:?}");
+        }
+    }
+
+    #[test]
+    fn a_section_has_at_most_one_first_row_per_medium() {
+        for medium in [Medium::Fresh, Medium::Saline] {
+            for section in Section::ALL {
+                let first = Output::ALL
+                    .iter()
+                    .filter(|o| o.section() == *section && o.place(medium) == Place::First)
+                    .count();
+                assert!(first <= 1, "{section:?} in {medium:?}");
+            }
+        }
+    }
+}
