@@ -7,12 +7,13 @@
 //! published range. The fresh medium ([`super::fresh`]) makes the same value
 //! from thermodynamic constants and activity coefficients.
 
-use crate::base::error::Result;
+use crate::base::error::{Error, Result};
 use crate::base::warning::Warning;
 use crate::fits::{
     ammonia, boron, gas, kw, minerals, nutrients, pressure, sulfate, sulfide, FitName, Fits,
     FitsUsed,
 };
+use crate::properties::activity::Gammas;
 use crate::properties::density::density_kg_m3;
 use crate::properties::scales::{takahashi1982_fh, PhScale};
 use crate::sample::{Composition, Conditions, Totals};
@@ -26,95 +27,300 @@ use serde::Serialize;
 /// K = [H+]\[A-\]/\[HA\] with [H+] on that scale; `kw` is [H+]\[OH-\].
 /// Constants of acid systems whose total is zero are not evaluated and hold 0.
 ///
+/// # Invariants
+/// The fields are private to the medium layer, which makes the value, and
+/// are read through accessors ([`Constants::k1()`], [`Constants::totals()`],
+/// ...). Several values follow from others and must stay in step:
+/// - `k1e`, `k2e` are K1 and K2 with the calcium ion pairs folded in, and
+///   the pair ratios follow from the pair constants and the free calcium
+///   (see [`Constants::k1e()`]);
+/// - the four `*_per_working` pH-scale factors follow from KS, KF, the
+///   sulfate and fluoride totals and the H+ activity factor;
+/// - saline constants store log10 of the scale factors and of both Ksp.
+///
+/// To change one constant (for example to propagate its uncertainty) use
+/// [`Constants::with_pk`] or [`Constants::with_scaled`], which re-derive
+/// whatever follows from it.
+///
 /// # Example
 /// ```
 /// use travertine::{Conditions, Water};
 /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
-/// assert!((-k.k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+/// assert!((-k.k1().log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq, Serialize)]
 #[non_exhaustive]
 pub struct Constants {
     /// The conditions evaluated.
-    pub conditions: Conditions,
+    pub(in crate::medium) conditions: Conditions,
     /// The working pH scale of every acid constant.
-    pub working_scale: PhScale,
+    pub(in crate::medium) working_scale: PhScale,
     /// CO2 solubility, mol kg⁻¹ atm⁻¹.
-    pub k0: f64,
+    pub(in crate::medium) k0: f64,
     /// First dissociation constant of carbonic acid.
-    pub k1: f64,
+    pub(in crate::medium) k1: f64,
     /// Second dissociation constant of carbonic acid.
-    pub k2: f64,
+    pub(in crate::medium) k2: f64,
     /// Boric acid.
-    pub kb: f64,
+    pub(in crate::medium) kb: f64,
     /// Ion product of water.
-    pub kw: f64,
+    pub(in crate::medium) kw: f64,
     /// Phosphoric acid, first.
-    pub kp1: f64,
+    pub(in crate::medium) kp1: f64,
     /// Phosphoric acid, second.
-    pub kp2: f64,
+    pub(in crate::medium) kp2: f64,
     /// Phosphoric acid, third.
-    pub kp3: f64,
+    pub(in crate::medium) kp3: f64,
     /// Silicic acid.
-    pub ksi: f64,
+    pub(in crate::medium) ksi: f64,
     /// Ammonium.
-    pub knh4: f64,
+    pub(in crate::medium) knh4: f64,
     /// Hydrogen sulfide.
-    pub kh2s: f64,
+    pub(in crate::medium) kh2s: f64,
     /// Bisulfate, free scale.
-    pub ks_free: f64,
+    pub(in crate::medium) ks_free: f64,
     /// Hydrogen fluoride, free scale.
-    pub kf_free: f64,
+    pub(in crate::medium) kf_free: f64,
     /// K1 and K2 for the carbon balances: with calcium ion pairs (fresh
     /// water) DIC and alkalinity count CaHCO3+ with HCO3- and CaCO3⁰ with
     /// CO3--, which is the same as using K1e = K1 (1 + p1) and
     /// K2e = K2 (1 + p2)/(1 + p1), where p1 = [CaHCO3+]/[HCO3-] and
     /// p2 = \[CaCO3⁰\]/[CO3--]. Without pairs K1e = K1, K2e = K2.
-    pub k1e: f64,
+    pub(in crate::medium) k1e: f64,
     /// See `k1e`.
-    pub k2e: f64,
+    pub(in crate::medium) k2e: f64,
     /// [CaHCO3+]/[HCO3-] (0 in saline water, where pairs are in the constants).
-    pub pair_hco3: f64,
+    pub(in crate::medium) pair_hco3: f64,
     /// \[CaCO3⁰\]/[CO3--] (0 in saline water).
-    pub pair_co3: f64,
+    pub(in crate::medium) pair_co3: f64,
     /// Free calcium used for the pairs and Ω, mol/kg (total calcium in saline water).
-    pub calcium_free_mol_kg: f64,
+    pub(in crate::medium) calcium_free_mol_kg: f64,
     /// Ionic strength, mol/kg (sea water: 19.924 S/(1000 − 1.005 S)).
-    pub ionic_strength: f64,
+    pub(in crate::medium) ionic_strength: f64,
     /// Calcite solubility product, (mol/kg)².
-    pub ksp_calcite: f64,
+    pub(in crate::medium) ksp_calcite: f64,
     /// Aragonite solubility product, (mol/kg)².
-    pub ksp_aragonite: f64,
+    pub(in crate::medium) ksp_aragonite: f64,
     /// The totals used.
-    pub totals: Totals,
+    pub(in crate::medium) totals: Totals,
     /// [H+] on the free scale per unit of working-scale h.
-    pub free_per_working: f64,
+    pub(in crate::medium) free_per_working: f64,
     /// [H+] on the sea-water scale per unit of working-scale h.
-    pub seawater_per_working: f64,
+    pub(in crate::medium) seawater_per_working: f64,
     /// [H+] on the total scale per unit of working-scale h.
-    pub total_per_working: f64,
+    pub(in crate::medium) total_per_working: f64,
     /// H+ activity (NBS) per unit of working-scale h.
-    pub nbs_per_working: f64,
+    pub(in crate::medium) nbs_per_working: f64,
     /// fCO2 / pCO2.
-    pub fugacity_factor: f64,
+    pub(in crate::medium) fugacity_factor: f64,
     /// Water vapour pressure, atm.
-    pub vapour_pressure_atm: f64,
+    pub(in crate::medium) vapour_pressure_atm: f64,
     /// Solution density at the surface, kg/m³.
-    pub density_kg_m3: f64,
+    pub(in crate::medium) density_kg_m3: f64,
     /// The fits behind these numbers.
-    pub fits_used: FitsUsed,
+    pub(in crate::medium) fits_used: FitsUsed,
     /// Every fit used outside its published range, and other cautions.
-    pub warnings: Vec<Warning>,
+    pub(in crate::medium) warnings: Vec<Warning>,
     /// Activity coefficients (fresh water only).
-    pub gammas: Option<crate::properties::activity::Gammas>,
+    pub(in crate::medium) gammas: Option<Gammas>,
     /// [CaHCO3+]/([Ca++]\[HCO3-\]), concentration basis (fresh water; 0 in saline).
-    pub k_cahco3: f64,
+    pub(in crate::medium) k_cahco3: f64,
     /// \[CaCO3⁰\]/([Ca++]\[CO3--\]), concentration basis (fresh water; 0 in saline).
-    pub k_caco3: f64,
+    pub(in crate::medium) k_caco3: f64,
     /// The logarithms a state needs, where evaluated with the constants.
     #[serde(skip)]
-    pub(crate) logs: Option<Log10s>,
+    pub(in crate::medium) logs: Option<Log10s>,
+    /// How the NBS scale ties to the concentration scales, for the scale
+    /// factors ([`scale_factors`]).
+    #[serde(skip)]
+    pub(in crate::medium) scale_link: ScaleLink,
+}
+
+/// How H+ activity (the NBS scale) ties to the concentration scales, the
+/// one input of the pH-scale factors besides KS, KF and the totals.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(in crate::medium) enum ScaleLink {
+    /// Saline water: the working scale is the total scale, and the H+
+    /// activity per unit of sea-water-scale [H+] is fH (Takahashi et al. 1982).
+    Total {
+        /// fH.
+        fh: f64,
+    },
+    /// Fresh water: the working scale is the NBS scale (h is the H+
+    /// activity), and free [H+] = h/γH.
+    Nbs {
+        /// γH, the activity coefficient of H+.
+        gamma_h: f64,
+    },
+}
+
+/// [H+] on each scale per unit of working-scale h, and what the saline
+/// constants store of them.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(in crate::medium) struct ScaleFactors {
+    pub(in crate::medium) free_per_working: f64,
+    pub(in crate::medium) seawater_per_working: f64,
+    pub(in crate::medium) total_per_working: f64,
+    pub(in crate::medium) nbs_per_working: f64,
+    /// [H+] on the total scale per unit of [H+] on the sea-water scale:
+    /// the factor that takes a constant from the sea-water scale to the
+    /// total scale.
+    pub(in crate::medium) total_per_seawater: f64,
+    /// log10 of the four factors (total, sea-water, free, NBS), on the
+    /// total working scale only, where the constants store them.
+    pub(in crate::medium) logs: Option<[f64; 4]>,
+}
+
+/// The pH-scale factors from free-scale KS and KF and the sulfate and
+/// fluoride totals (mol/kg): the one place they are derived, for the saline
+/// constants, the fresh-water apparent constants and a perturbed KS or KF.
+///
+/// With S = ST/KS and F = FT/KF (the definitions of the total and
+/// sea-water scales), [H+]T = [H+]F (1 + S) and [H+]SWS = [H+]F (1 + S + F);
+/// in saline water aH = fH [H+]SWS (Takahashi et al. 1982), in fresh water
+/// aH = γH [H+]F.
+#[inline]
+pub(in crate::medium) fn scale_factors(
+    link: ScaleLink,
+    sulfate_mol_kg: f64,
+    fluoride_mol_kg: f64,
+    ks_free: f64,
+    kf_free: f64,
+) -> ScaleFactors {
+    match link {
+        ScaleLink::Total { fh } => {
+            let tot = 1.0 + sulfate_mol_kg / ks_free;
+            let sws = tot + fluoride_mol_kg / kf_free;
+            let seawater_per_working = sws / tot;
+            let nbs_per_working = fh * seawater_per_working;
+            let log10 = crate::base::numeric::log10;
+            ScaleFactors {
+                free_per_working: 1.0 / tot,
+                seawater_per_working,
+                total_per_working: 1.0,
+                nbs_per_working,
+                total_per_seawater: tot / sws,
+                logs: Some([
+                    0.0,
+                    log10(seawater_per_working),
+                    -log10(tot),
+                    log10(nbs_per_working),
+                ]),
+            }
+        }
+        ScaleLink::Nbs { gamma_h } => {
+            // [HSO4-]/[SO4--] and [HF]/[F-] per unit free [H+] (0 without
+            // them, whose constants may not be evaluated).
+            let per = |total: f64, k: f64| if total > 0.0 { total / k } else { 0.0 };
+            let sulfate = per(sulfate_mol_kg, ks_free);
+            let fluoride = per(fluoride_mol_kg, kf_free);
+            ScaleFactors {
+                free_per_working: 1.0 / gamma_h,
+                // Defined as in sea water, from the free [H+] and the sulfate and
+                // fluoride given (equal to the free scale when there are none).
+                seawater_per_working: (1.0 + sulfate + fluoride) / gamma_h,
+                total_per_working: (1.0 + sulfate) / gamma_h,
+                nbs_per_working: 1.0,
+                total_per_seawater: (1.0 + sulfate) / (1.0 + sulfate + fluoride),
+                logs: None,
+            }
+        }
+    }
+}
+
+/// One constant of a [`Constants`] value, to perturb with
+/// [`Constants::with_pk`] or [`Constants::with_scaled`].
+///
+/// ```
+/// use travertine::medium::ConstantName;
+/// assert_eq!(ConstantName::K1.name(), "K1");
+/// assert_eq!(ConstantName::ALL.len(), 16);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
+pub enum ConstantName {
+    /// K0, the CO2 solubility.
+    K0,
+    /// K1 of carbonic acid (K1e follows).
+    K1,
+    /// K2 of carbonic acid (K2e follows).
+    K2,
+    /// KB, boric acid.
+    Kb,
+    /// KW, the ion product of water.
+    Kw,
+    /// Ksp of calcite (its stored logarithm follows).
+    KspCalcite,
+    /// Ksp of aragonite (its stored logarithm follows).
+    KspAragonite,
+    /// KS, bisulfate on the free scale (the pH-scale factors follow).
+    Ks,
+    /// KF, hydrogen fluoride on the free scale (the pH-scale factors follow).
+    Kf,
+    /// KP1, phosphoric acid.
+    Kp1,
+    /// KP2, phosphoric acid.
+    Kp2,
+    /// KP3, phosphoric acid.
+    Kp3,
+    /// KSi, silicic acid.
+    Ksi,
+    /// KNH4, ammonium.
+    Knh4,
+    /// KH2S, hydrogen sulfide.
+    Kh2s,
+    /// The total boron, mol/kg (scaled like a constant).
+    BoronTotal,
+}
+
+impl ConstantName {
+    /// Every constant that can be perturbed.
+    pub const ALL: [ConstantName; 16] = [
+        ConstantName::K0,
+        ConstantName::K1,
+        ConstantName::K2,
+        ConstantName::Kb,
+        ConstantName::Kw,
+        ConstantName::KspCalcite,
+        ConstantName::KspAragonite,
+        ConstantName::Ks,
+        ConstantName::Kf,
+        ConstantName::Kp1,
+        ConstantName::Kp2,
+        ConstantName::Kp3,
+        ConstantName::Ksi,
+        ConstantName::Knh4,
+        ConstantName::Kh2s,
+        ConstantName::BoronTotal,
+    ];
+
+    /// The name, as in warnings and errors.
+    ///
+    /// ```
+    /// # use travertine::medium::ConstantName;
+    /// assert_eq!(ConstantName::KspCalcite.name(), "Ksp calcite");
+    /// ```
+    pub fn name(self) -> &'static str {
+        match self {
+            ConstantName::K0 => "K0",
+            ConstantName::K1 => "K1",
+            ConstantName::K2 => "K2",
+            ConstantName::Kb => "KB",
+            ConstantName::Kw => "KW",
+            ConstantName::KspCalcite => "Ksp calcite",
+            ConstantName::KspAragonite => "Ksp aragonite",
+            ConstantName::Ks => "KS",
+            ConstantName::Kf => "KF",
+            ConstantName::Kp1 => "KP1",
+            ConstantName::Kp2 => "KP2",
+            ConstantName::Kp3 => "KP3",
+            ConstantName::Ksi => "KSi",
+            ConstantName::Knh4 => "KNH4",
+            ConstantName::Kh2s => "KH2S",
+            ConstantName::BoronTotal => "total boron",
+        }
+    }
 }
 
 /// log10 of the pH-scale factors and of the solubility products. Saline
@@ -135,7 +341,7 @@ pub(crate) struct Log10s {
 impl Constants {
     /// Sets the free calcium of fresh-water constants and what follows from
     /// it: the pair ratios and the pair-inclusive K1e, K2e (see
-    /// [`Constants::k1e`]). The one place these are computed, so that
+    /// [`Constants::k1e()`]). The one place these are computed, so that
     /// constants made again from (I, Ca) are exactly those solved with.
     pub(crate) fn set_free_calcium(&mut self, ca_free: f64) {
         let pair_hco3 = self.k_cahco3 * ca_free;
@@ -145,6 +351,470 @@ impl Constants {
         self.k1e = self.k1 * (1.0 + pair_hco3);
         self.k2e = self.k2 * (1.0 + pair_co3) / (1.0 + pair_hco3);
         self.calcium_free_mol_kg = ca_free;
+    }
+
+    /// Re-derives the pH-scale factors from the stored KS, KF, totals and
+    /// scale link, by [`scale_factors`], with their stored logarithms.
+    fn refresh_scale_factors(&mut self) {
+        let f = scale_factors(
+            self.scale_link,
+            self.totals.sulfate_mol_kg,
+            self.totals.fluoride_mol_kg,
+            self.ks_free,
+            self.kf_free,
+        );
+        self.free_per_working = f.free_per_working;
+        self.seawater_per_working = f.seawater_per_working;
+        self.total_per_working = f.total_per_working;
+        self.nbs_per_working = f.nbs_per_working;
+        match (&mut self.logs, f.logs) {
+            (Some(logs), Some(per_working)) => logs.per_working = per_working,
+            // Not stored with the factors: evaluated by the state instead.
+            (logs, _) => *logs = None,
+        }
+    }
+
+    /// These constants with one of them multiplied by `factor`, and every
+    /// value that follows from it derived again:
+    /// - K1 or K2: K1e, K2e and the pair ratios, by the code that sets the
+    ///   free calcium, at the current free calcium (K1e = K1 (1 + p1),
+    ///   K2e = K2 (1 + p2)/(1 + p1); in saline water K1e = K1, K2e = K2);
+    /// - a Ksp: its stored logarithm, raised by log10 `factor`;
+    /// - KS or KF: the pH-scale factors, by the function that derives them
+    ///   for [`Constants::saline`] (see [`Constants::free_per_working`]).
+    ///   The other acid constants are held on the working scale: only the
+    ///   other scales, and the bisulfate and HF parts of the alkalinity,
+    ///   move.
+    ///
+    /// A constant that was not evaluated (its total is zero) stays 0. This is
+    /// the step of a perturbation analysis (the uncertainty of a result from
+    /// that of a constant); [`crate::PreparedWater::with_constants_perturbed`]
+    /// solves with the result.
+    ///
+    /// # Errors
+    /// [`crate::Error::NotFinite`] for a factor, or a result, that is not
+    /// finite; [`crate::Error::Computation`] for a factor that is not
+    /// positive, or a constant or scale factor it would take to zero or
+    /// beyond the largest number.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water, medium::ConstantName};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// let more = k.clone().with_scaled(ConstantName::KspCalcite, 1.5)?;
+    /// assert!((more.ksp_calcite() / k.ksp_calcite() - 1.5).abs() < 1e-15);
+    /// assert!(k.with_scaled(ConstantName::K1, f64::NAN).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_scaled(mut self, which: ConstantName, factor: f64) -> Result<Constants> {
+        use ConstantName as C;
+        if !factor.is_finite() {
+            return Err(Error::NotFinite {
+                field: "factor",
+                value: factor,
+            });
+        }
+        if factor <= 0.0 {
+            return Err(Error::Computation {
+                field: which.name(),
+                reason: format!("a constant can only be scaled by a positive factor, not {factor}"),
+            });
+        }
+        let slot = match which {
+            C::K0 => &mut self.k0,
+            C::K1 => &mut self.k1,
+            C::K2 => &mut self.k2,
+            C::Kb => &mut self.kb,
+            C::Kw => &mut self.kw,
+            C::KspCalcite => &mut self.ksp_calcite,
+            C::KspAragonite => &mut self.ksp_aragonite,
+            C::Ks => &mut self.ks_free,
+            C::Kf => &mut self.kf_free,
+            C::Kp1 => &mut self.kp1,
+            C::Kp2 => &mut self.kp2,
+            C::Kp3 => &mut self.kp3,
+            C::Ksi => &mut self.ksi,
+            C::Knh4 => &mut self.knh4,
+            C::Kh2s => &mut self.kh2s,
+            C::BoronTotal => &mut self.totals.boron_mol_kg,
+        };
+        let before = *slot;
+        let after = before * factor;
+        if !after.is_finite() {
+            return Err(Error::NotFinite {
+                field: which.name(),
+                value: after,
+            });
+        }
+        if before > 0.0 && after <= 0.0 {
+            return Err(Error::Computation {
+                field: which.name(),
+                reason: format!("scaled by {factor} it would be zero"),
+            });
+        }
+        *slot = after;
+        let log10 = crate::base::numeric::log10;
+        match which {
+            C::K1 | C::K2 => self.set_free_calcium(self.calcium_free_mol_kg),
+            C::KspCalcite => {
+                if let Some(logs) = &mut self.logs {
+                    logs.ksp_calcite += log10(factor);
+                }
+            }
+            C::KspAragonite => {
+                if let Some(logs) = &mut self.logs {
+                    logs.ksp_aragonite += log10(factor);
+                }
+            }
+            C::Ks | C::Kf => self.refresh_scale_factors(),
+            _ => {}
+        }
+        self.check_derived(which)?;
+        Ok(self)
+    }
+
+    /// These constants with pK = −log10 K of one of them raised by
+    /// `delta_pk`: K multiplied by 10^(−`delta_pk`), and everything that
+    /// follows from it derived again, as [`Constants::with_scaled`]. For
+    /// [`ConstantName::BoronTotal`] the total is multiplied by the same
+    /// factor (use [`Constants::with_scaled`] for a relative change).
+    ///
+    /// # Errors
+    /// As [`Constants::with_scaled`]; [`crate::Error::NotFinite`] also for a
+    /// `delta_pk` that is not finite.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water, medium::ConstantName};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// let p = k.clone().with_pk(ConstantName::K1, 0.01)?;
+    /// assert!((-p.k1().log10() + k.k1().log10() - 0.01).abs() < 1e-12);
+    /// assert_eq!(p.k1e(), p.k1()); // no calcium pairs in saline water
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_pk(self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+        if !delta_pk.is_finite() {
+            return Err(Error::NotFinite {
+                field: "delta_pk",
+                value: delta_pk,
+            });
+        }
+        self.with_scaled(which, crate::base::numeric::pow10(-delta_pk))
+    }
+
+    /// Refuses constants whose derived values a perturbation of `which`
+    /// took out of range (a K1e that overflows, a scale factor of zero).
+    fn check_derived(&self, which: ConstantName) -> Result<()> {
+        let positive = [
+            self.free_per_working,
+            self.seawater_per_working,
+            self.total_per_working,
+            self.nbs_per_working,
+        ];
+        let finite = [self.k1e, self.k2e, self.pair_hco3, self.pair_co3];
+        let logs = self.logs.map(|l| {
+            let [a, b, c, d] = l.per_working;
+            [a, b, c, d, l.ksp_calcite, l.ksp_aragonite]
+        });
+        let bad = positive
+            .iter()
+            .copied()
+            .find(|v| !(v.is_finite() && *v > 0.0))
+            .or_else(|| finite.iter().copied().find(|v| !v.is_finite()))
+            .or_else(|| logs.and_then(|l| l.into_iter().find(|v| !v.is_finite())));
+        match bad {
+            None => Ok(()),
+            Some(value) => Err(Error::Computation {
+                field: which.name(),
+                reason: format!("the perturbed constants would hold a value of {value}"),
+            }),
+        }
+    }
+
+    /// The conditions evaluated.
+    #[inline]
+    pub fn conditions(&self) -> &Conditions {
+        &self.conditions
+    }
+
+    /// The working pH scale of every acid constant: total in saline water,
+    /// NBS in fresh water.
+    ///
+    /// ```
+    /// use travertine::{Conditions, PhScale, Water};
+    /// let k = Water::fresh(Conditions::new(15.0, 0.1)?)?.constants()?;
+    /// assert_eq!(k.working_scale(), PhScale::Nbs);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn working_scale(&self) -> PhScale {
+        self.working_scale
+    }
+
+    /// K0, the CO2 solubility \[CO2*\]/fCO2, mol kg⁻¹ atm⁻¹.
+    #[inline]
+    pub fn k0(&self) -> f64 {
+        self.k0
+    }
+
+    /// K1 = h [HCO3-]/\[CO2*\], first dissociation constant of carbonic acid.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert!((-k.k1().log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn k1(&self) -> f64 {
+        self.k1
+    }
+
+    /// K2 = h [CO3--]/[HCO3-], second dissociation constant of carbonic acid.
+    #[inline]
+    pub fn k2(&self) -> f64 {
+        self.k2
+    }
+
+    /// KB = h [B(OH)4-]/[B(OH)3], boric acid (0 without boron).
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert!((k.kb().ln() - -19.7964).abs() < 5e-5); // Dickson 1990, Guide check value
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn kb(&self) -> f64 {
+        self.kb
+    }
+
+    /// KW = h [OH-], the ion product of water.
+    #[inline]
+    pub fn kw(&self) -> f64 {
+        self.kw
+    }
+
+    /// KP1 of phosphoric acid (0 without phosphate).
+    #[inline]
+    pub fn kp1(&self) -> f64 {
+        self.kp1
+    }
+
+    /// KP2 of phosphoric acid (0 without phosphate).
+    #[inline]
+    pub fn kp2(&self) -> f64 {
+        self.kp2
+    }
+
+    /// KP3 of phosphoric acid (0 without phosphate).
+    #[inline]
+    pub fn kp3(&self) -> f64 {
+        self.kp3
+    }
+
+    /// KSi of silicic acid (0 without silicate).
+    #[inline]
+    pub fn ksi(&self) -> f64 {
+        self.ksi
+    }
+
+    /// KNH4 of ammonium (0 without ammonia).
+    #[inline]
+    pub fn knh4(&self) -> f64 {
+        self.knh4
+    }
+
+    /// KH2S of hydrogen sulfide (0 without sulfide).
+    #[inline]
+    pub fn kh2s(&self) -> f64 {
+        self.kh2s
+    }
+
+    /// KS = [H+]F [SO4--]/[HSO4-], bisulfate on the free scale.
+    #[inline]
+    pub fn ks_free(&self) -> f64 {
+        self.ks_free
+    }
+
+    /// KF = [H+]F [F-]/\[HF\], hydrogen fluoride on the free scale.
+    #[inline]
+    pub fn kf_free(&self) -> f64 {
+        self.kf_free
+    }
+
+    /// K1 for the carbon balances. With calcium ion pairs (fresh water)
+    /// DIC and alkalinity count CaHCO3+ with HCO3- and CaCO3⁰ with CO3--,
+    /// which is the same as using K1e = K1 (1 + p1) and
+    /// K2e = K2 (1 + p2)/(1 + p1), where p1 = [CaHCO3+]/[HCO3-] and
+    /// p2 = \[CaCO3⁰\]/[CO3--] ([`Constants::pair_hco3`],
+    /// [`Constants::pair_co3`]). Without pairs (saline water, or no
+    /// calcium) K1e = K1 and K2e = K2.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water, units::Amount, sample::Composition};
+    /// let well = Water::fresh(Conditions::new(15.0, 0.3)?)?
+    ///     .with_composition(Composition::default().with_calcium(Amount::PerKg(2e-3))?);
+    /// let k = well.constants()?;
+    /// assert!((k.k1e() / (k.k1() * (1.0 + k.pair_hco3())) - 1.0).abs() < 1e-15);
+    /// assert!(k.pair_hco3() > 0.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn k1e(&self) -> f64 {
+        self.k1e
+    }
+
+    /// K2 for the carbon balances, K2e = K2 (1 + p2)/(1 + p1); see
+    /// [`Constants::k1e()`].
+    #[inline]
+    pub fn k2e(&self) -> f64 {
+        self.k2e
+    }
+
+    /// p1 = [CaHCO3+]/[HCO3-] = K(CaHCO3+) [Ca++] (0 in saline water, where
+    /// the pairs are in the constants).
+    #[inline]
+    pub fn pair_hco3(&self) -> f64 {
+        self.pair_hco3
+    }
+
+    /// p2 = \[CaCO3⁰\]/[CO3--] = K(CaCO3⁰) [Ca++] (0 in saline water).
+    #[inline]
+    pub fn pair_co3(&self) -> f64 {
+        self.pair_co3
+    }
+
+    /// Free calcium used for the pairs and Ω, mol/kg (total calcium in
+    /// saline water).
+    #[inline]
+    pub fn calcium_free_mol_kg(&self) -> f64 {
+        self.calcium_free_mol_kg
+    }
+
+    /// Ionic strength, mol/kg (sea water: 19.924 S/(1000 − 1.005 S)).
+    #[inline]
+    pub fn ionic_strength(&self) -> f64 {
+        self.ionic_strength
+    }
+
+    /// Calcite solubility product [Ca++]\[CO3--\] at saturation, (mol/kg)²,
+    /// with the pressure correction (apparent, with the activity
+    /// coefficients, in fresh water; 0 in fresh water without calcium).
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert!((k.ksp_calcite().log10() - -6.3693).abs() < 5e-4); // computed from the Mucci (1983) fit
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn ksp_calcite(&self) -> f64 {
+        self.ksp_calcite
+    }
+
+    /// Aragonite solubility product, (mol/kg)²; as [`Constants::ksp_calcite`].
+    #[inline]
+    pub fn ksp_aragonite(&self) -> f64 {
+        self.ksp_aragonite
+    }
+
+    /// The totals used (boron, sulfate, fluoride, calcium, nutrients, ...).
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// // Lee et al. (2010): 432.6 µmol/kg at S 35, from memory (unverified).
+    /// assert!((k.totals().boron_mol_kg * 1e6 - 432.6).abs() < 0.5);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn totals(&self) -> &Totals {
+        &self.totals
+    }
+
+    /// [H+] on the free scale per unit of working-scale h: 1/(1 + ST/KS)
+    /// in saline water, 1/γH in fresh water.
+    #[inline]
+    pub fn free_per_working(&self) -> f64 {
+        self.free_per_working
+    }
+
+    /// [H+] on the sea-water scale per unit of working-scale h:
+    /// (1 + ST/KS + FT/KF)/(1 + ST/KS) in saline water.
+    #[inline]
+    pub fn seawater_per_working(&self) -> f64 {
+        self.seawater_per_working
+    }
+
+    /// [H+] on the total scale per unit of working-scale h (1 in saline
+    /// water, whose working scale it is).
+    #[inline]
+    pub fn total_per_working(&self) -> f64 {
+        self.total_per_working
+    }
+
+    /// H+ activity (NBS) per unit of working-scale h: fH times the
+    /// sea-water factor in saline water (Takahashi et al. 1982), 1 in fresh
+    /// water.
+    #[inline]
+    pub fn nbs_per_working(&self) -> f64 {
+        self.nbs_per_working
+    }
+
+    /// fCO2/pCO2 (Weiss 1974).
+    #[inline]
+    pub fn fugacity_factor(&self) -> f64 {
+        self.fugacity_factor
+    }
+
+    /// Water vapour pressure, atm (Weiss & Price 1980).
+    #[inline]
+    pub fn vapour_pressure_atm(&self) -> f64 {
+        self.vapour_pressure_atm
+    }
+
+    /// Solution density at the surface, kg/m³.
+    #[inline]
+    pub fn density_kg_m3(&self) -> f64 {
+        self.density_kg_m3
+    }
+
+    /// The fits behind these numbers.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert_eq!(k.fits_used().carbonic, "lueker2000");
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn fits_used(&self) -> &FitsUsed {
+        &self.fits_used
+    }
+
+    /// Every fit used outside its published range, and other cautions.
+    #[inline]
+    pub fn warnings(&self) -> &[Warning] {
+        &self.warnings
+    }
+
+    /// Activity coefficients (fresh water only).
+    #[inline]
+    pub fn gammas(&self) -> Option<Gammas> {
+        self.gammas
+    }
+
+    /// K(CaHCO3+) = [CaHCO3+]/([Ca++]\[HCO3-\]), concentration basis (fresh
+    /// water; 0 in saline water).
+    #[inline]
+    pub fn k_cahco3(&self) -> f64 {
+        self.k_cahco3
+    }
+
+    /// K(CaCO3⁰) = \[CaCO3⁰\]/([Ca++]\[CO3--\]), concentration basis (fresh
+    /// water; 0 in saline water).
+    #[inline]
+    pub fn k_caco3(&self) -> f64 {
+        self.k_caco3
     }
 
     /// H on the working scale from a pH on `scale`.
@@ -210,7 +880,7 @@ impl Constants {
     /// use travertine::{Conditions, medium::Constants, fits::Fits, sample::Composition};
     /// let c = Conditions::new(25.0, 35.0)?;
     /// let k = Constants::saline(&c, &Composition::default(), &Fits::default())?;
-    /// assert!(k.warnings.is_empty());
+    /// assert!(k.warnings().is_empty());
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn saline(conditions: &Conditions, composition: &Composition, fits: &Fits) -> Result<Self> {
@@ -311,9 +981,17 @@ impl Constants {
         let ksp_aragonite = crate::base::numeric::pow10(la);
 
         // Sea-water scale to the working (total) scale at pressure.
-        let tot = 1.0 + totals.sulfate_mol_kg / ks;
-        let sws = tot + totals.fluoride_mol_kg / kf;
-        let sws_to_total = tot / sws;
+        let scale_link = ScaleLink::Total {
+            fh: takahashi1982_fh(t, s),
+        };
+        let factors = scale_factors(
+            scale_link,
+            totals.sulfate_mol_kg,
+            totals.fluoride_mol_kg,
+            ks,
+            kf,
+        );
+        let sws_to_total = factors.total_per_seawater;
         for k in [
             &mut k1, &mut k2, &mut kb, &mut kw, &mut kp1, &mut kp2, &mut kp3, &mut ksi, &mut knh4,
             &mut kh2s,
@@ -326,17 +1004,8 @@ impl Constants {
         let fugacity_factor = gas::weiss1974_fugacity_factor(t, conditions.air_pressure_atm());
         let vapour_pressure_atm = gas::weiss_price1980_vapour_pressure_atm(t, s);
 
-        let seawater_per_working = sws / tot;
-        let fh = takahashi1982_fh(t, s);
-        let nbs_per_working = fh * seawater_per_working;
-        let log10 = crate::base::numeric::log10;
         let logs = Log10s {
-            per_working: [
-                0.0,
-                log10(seawater_per_working),
-                -log10(tot),
-                log10(nbs_per_working),
-            ],
+            per_working: factors.logs.unwrap_or_default(),
             ksp_calcite: lc,
             ksp_aragonite: la,
         };
@@ -366,10 +1035,10 @@ impl Constants {
             ksp_calcite,
             ksp_aragonite,
             totals,
-            free_per_working: 1.0 / tot,
-            seawater_per_working,
-            total_per_working: 1.0,
-            nbs_per_working,
+            free_per_working: factors.free_per_working,
+            seawater_per_working: factors.seawater_per_working,
+            total_per_working: factors.total_per_working,
+            nbs_per_working: factors.nbs_per_working,
             fugacity_factor,
             vapour_pressure_atm,
             density_kg_m3: density,
@@ -399,6 +1068,7 @@ impl Constants {
             k_cahco3: 0.0,
             k_caco3: 0.0,
             logs: Some(logs),
+            scale_link,
         })
     }
 }
@@ -431,6 +1101,132 @@ mod tests {
             }
             assert!((stored.ksp_calcite - evaluated.ksp_calcite).abs() < 1e-12);
             assert!((stored.ksp_aragonite - evaluated.ksp_aragonite).abs() < 1e-12);
+        }
+    }
+
+    fn sea_water(p_dbar: f64) -> Constants {
+        let c = Conditions::new(25.0, 35.0).and_then(|c| c.with_pressure_dbar(p_dbar));
+        Constants::saline(&c.unwrap(), &Composition::default(), &Fits::default()).unwrap()
+    }
+
+    /// A perturbed Ksp, KS or KF keeps the stored logarithms those of the
+    /// values stored beside them, at the surface and under pressure.
+    #[test]
+    fn perturbed_constants_keep_their_logarithms_in_step() {
+        for p in [0.0, 3000.0] {
+            for which in [
+                ConstantName::KspCalcite,
+                ConstantName::KspAragonite,
+                ConstantName::Ks,
+                ConstantName::Kf,
+            ] {
+                let k = sea_water(p).with_pk(which, 0.07).unwrap();
+                let stored = k.log10s();
+                let evaluated = Constants { logs: None, ..k }.log10s();
+                for (a, b) in stored.per_working.iter().zip(evaluated.per_working) {
+                    assert!((a - b).abs() < 1e-13, "{which:?}: {a} against {b}");
+                }
+                assert!((stored.ksp_calcite - evaluated.ksp_calcite).abs() < 1e-12);
+                assert!((stored.ksp_aragonite - evaluated.ksp_aragonite).abs() < 1e-12);
+            }
+        }
+    }
+
+    /// Perturbing KS twice by opposite amounts gives the scale factors
+    /// back: they are derived from KS, not carried along.
+    #[test]
+    fn scale_factors_follow_ks_both_ways() {
+        let k = sea_water(1000.0);
+        let there_and_back = k
+            .clone()
+            .with_pk(ConstantName::Ks, 0.3)
+            .and_then(|k| k.with_pk(ConstantName::Ks, -0.3))
+            .unwrap();
+        for (a, b) in [
+            (k.free_per_working, there_and_back.free_per_working),
+            (k.seawater_per_working, there_and_back.seawater_per_working),
+            (k.nbs_per_working, there_and_back.nbs_per_working),
+        ] {
+            assert!((a / b - 1.0).abs() < 1e-14, "{a} against {b}");
+        }
+        // The moved KS moves the free scale as 1/(1 + ST/KS).
+        let moved = k.clone().with_pk(ConstantName::Ks, 0.3).unwrap();
+        let expected = 1.0 / (1.0 + k.totals.sulfate_mol_kg / (k.ks_free * 10f64.powf(-0.3)));
+        assert!((moved.free_per_working / expected - 1.0).abs() < 1e-14);
+        assert_eq!(moved.total_per_working, 1.0);
+    }
+
+    /// Every constant can be perturbed, and only the one named (and what
+    /// follows from it) moves.
+    #[test]
+    fn each_name_moves_its_own_constant() {
+        use crate::base::units::Amount;
+        let every_total = Composition::default()
+            .with_phosphate(Amount::PerKg(2e-6))
+            .and_then(|c| c.with_silicate(Amount::PerKg(50e-6)))
+            .and_then(|c| c.with_ammonia(Amount::PerKg(1e-6)))
+            .and_then(|c| c.with_sulfide(Amount::PerKg(1e-6)))
+            .unwrap();
+        let c = Conditions::new(25.0, 35.0).unwrap();
+        let k = Constants::saline(&c, &every_total, &Fits::default()).unwrap();
+        let value = |k: &Constants, which: ConstantName| match which {
+            ConstantName::K0 => k.k0,
+            ConstantName::K1 => k.k1,
+            ConstantName::K2 => k.k2,
+            ConstantName::Kb => k.kb,
+            ConstantName::Kw => k.kw,
+            ConstantName::KspCalcite => k.ksp_calcite,
+            ConstantName::KspAragonite => k.ksp_aragonite,
+            ConstantName::Ks => k.ks_free,
+            ConstantName::Kf => k.kf_free,
+            ConstantName::Kp1 => k.kp1,
+            ConstantName::Kp2 => k.kp2,
+            ConstantName::Kp3 => k.kp3,
+            ConstantName::Ksi => k.ksi,
+            ConstantName::Knh4 => k.knh4,
+            ConstantName::Kh2s => k.kh2s,
+            ConstantName::BoronTotal => k.totals.boron_mol_kg,
+        };
+        for which in ConstantName::ALL {
+            assert!(value(&k, which) > 0.0, "{which:?} not evaluated");
+            let p = k.clone().with_scaled(which, 1.25).unwrap();
+            for other in ConstantName::ALL {
+                let (a, b) = (value(&k, other), value(&p, other));
+                if other == which {
+                    assert!((b - 1.25 * a).abs() <= 1e-15 * b.abs(), "{which:?}");
+                } else {
+                    assert_eq!(a, b, "{which:?} moved {other:?}");
+                }
+            }
+        }
+    }
+
+    /// A perturbation that cannot give finite, positive constants is
+    /// refused, never a panic.
+    #[test]
+    fn impossible_perturbations_are_refused() {
+        let k = sea_water(0.0);
+        let refused = |which, factor: f64| k.clone().with_scaled(which, factor).is_err();
+        assert!(refused(ConstantName::K1, f64::NAN));
+        assert!(refused(ConstantName::K1, f64::INFINITY));
+        assert!(refused(ConstantName::K1, 0.0));
+        assert!(refused(ConstantName::K1, -1.0));
+        // A product beyond the largest number, one below the smallest.
+        let twice = k
+            .clone()
+            .with_scaled(ConstantName::K0, 1e300)
+            .and_then(|k| k.with_scaled(ConstantName::K0, 1e300));
+        assert!(matches!(twice, Err(Error::NotFinite { field: "K0", .. })));
+        assert!(refused(ConstantName::K1, 1e-320));
+        // A KF so small that FT/KF overflows the sea-water scale factor.
+        assert!(refused(ConstantName::Kf, 1e-310));
+        assert!(k.clone().with_pk(ConstantName::K1, f64::NAN).is_err());
+        assert!(k.clone().with_pk(ConstantName::K1, -400.0).is_err());
+        assert!(k.clone().with_pk(ConstantName::K1, 400.0).is_err());
+        // Errors name the constant.
+        match k.clone().with_scaled(ConstantName::Kf, 1e-310) {
+            Err(Error::Computation { field, .. }) => assert_eq!(field, "KF"),
+            other => panic!("{other:?}"),
         }
     }
 }

@@ -5,5 +5,5 @@
 pub mod constants;
 pub mod fresh;
 
-pub use constants::Constants;
+pub use constants::{ConstantName, Constants};
 pub use fresh::IonicStrengthRoute;
