@@ -131,10 +131,6 @@ pub struct Constants {
     /// The logarithms a state needs, where evaluated with the constants.
     #[serde(skip)]
     pub(in crate::medium) logs: Option<Log10s>,
-    /// How the NBS scale ties to the concentration scales, for the scale
-    /// factors ([`scale_factors`]).
-    #[serde(skip)]
-    pub(in crate::medium) scale_link: ScaleLink,
 }
 
 /// How H+ activity (the NBS scale) ties to the concentration scales, the
@@ -353,11 +349,30 @@ impl Constants {
         self.calcium_free_mol_kg = ca_free;
     }
 
-    /// Re-derives the pH-scale factors from the stored KS, KF, totals and
-    /// scale link, by [`scale_factors`], with their stored logarithms.
+    /// How the NBS scale ties to the others in these constants, recovered
+    /// rather than stored (a stored copy would be one more value to keep in
+    /// step): γH from the activity coefficients in fresh water; in saline
+    /// water fH as the ratio of the NBS and sea-water factors, which does not
+    /// depend on KS or KF.
+    fn scale_link(&self) -> ScaleLink {
+        match (self.working_scale, self.gammas) {
+            (PhScale::Nbs, Some(g)) => ScaleLink::Nbs {
+                gamma_h: g.hydrogen,
+            },
+            (PhScale::Nbs, None) => ScaleLink::Nbs {
+                gamma_h: 1.0 / self.free_per_working,
+            },
+            _ => ScaleLink::Total {
+                fh: self.nbs_per_working / self.seawater_per_working,
+            },
+        }
+    }
+
+    /// Re-derives the pH-scale factors from the stored KS, KF and totals, by
+    /// [`scale_factors`], with their stored logarithms.
     fn refresh_scale_factors(&mut self) {
         let f = scale_factors(
-            self.scale_link,
+            self.scale_link(),
             self.totals.sulfate_mol_kg,
             self.totals.fluoride_mol_kg,
             self.ks_free,
@@ -1068,7 +1083,6 @@ impl Constants {
             k_cahco3: 0.0,
             k_caco3: 0.0,
             logs: Some(logs),
-            scale_link,
         })
     }
 }

@@ -153,9 +153,8 @@ impl FreshBasis {
         // [H][F]/[HF] = KF/(γH γ1).
         let ks_free = self.ks * g1 / (gh * g2);
         let kf_free = self.kf / (gh * g1);
-        let scale_link = ScaleLink::Nbs { gamma_h: gh };
         let factors = scale_factors(
-            scale_link,
+            ScaleLink::Nbs { gamma_h: gh },
             self.totals.sulfate_mol_kg,
             self.totals.fluoride_mol_kg,
             ks_free,
@@ -202,7 +201,6 @@ impl FreshBasis {
             k_cahco3,
             k_caco3,
             logs: None,
-            scale_link,
         };
         k.set_free_calcium(ca_free);
         k
