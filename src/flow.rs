@@ -8,12 +8,12 @@
 //!           solver inside the ionic-strength and free-calcium fixed point
 //! ```
 
-use crate::base::error::Result;
+use crate::base::error::{Error, Result};
 use crate::base::warning::Warning;
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
 use crate::medium::fresh::FreshBasis;
-use crate::medium::Constants;
+use crate::medium::{ConstantName, Constants};
 use crate::properties::scales::PhScale;
 use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::{Medium, Water};
@@ -96,7 +96,7 @@ impl Water {
     /// ```
     /// # use travertine::{Conditions, Water};
     /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
-    /// assert!((k.kb.ln() - -19.7964).abs() < 5e-5); // Dickson 1990, Guide check value
+    /// assert!((k.kb().ln() - -19.7964).abs() < 5e-5); // Dickson 1990, Guide check value
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn constants(&self) -> Result<Constants> {
@@ -187,7 +187,7 @@ impl PreparedWater {
     /// ```
     /// # use travertine::{Conditions, Water};
     /// let p = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
-    /// assert!((-p.constants()?.k1.log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
+    /// assert!((-p.constants()?.k1().log10() - 5.8472).abs() < 5e-5); // Lueker 2000, Guide check value
     /// # Ok::<(), travertine::Error>(())
     /// ```
     ///
@@ -198,6 +198,52 @@ impl PreparedWater {
             Prepared::Saline(k) => Ok(k.clone()),
             // Every constant, also those a solve of this water never reads.
             Prepared::Fresh(_) => self.water.constants(),
+        }
+    }
+
+    /// This prepared water with one constant perturbed: pK = −log10 K
+    /// raised by `delta_pk` through [`Constants::with_pk`], which keeps
+    /// everything derived from that constant in step. Solves of the result
+    /// run the one solver with the perturbed constants; the water, and the
+    /// fits a state names, are unchanged. This is the hook for the
+    /// propagation of the uncertainty of a constant: the change of a result
+    /// over a small `delta_pk` is its sensitivity to that pK.
+    ///
+    /// Saline water only, for now: a fresh-water solve makes its constants
+    /// again at each ionic strength and free calcium of its fixed point, so
+    /// perturbed constants would not survive it. In the overlap of the media
+    /// (salinity 0.5 to 5) the comparison with the fresh medium, where it
+    /// is made, is with the unperturbed fresh water.
+    ///
+    /// # Errors
+    /// [`crate::Error::WrongMedium`] for a fresh water; as
+    /// [`Constants::with_pk`] for a perturbation that is not finite.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Measured, Water, medium::ConstantName};
+    /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?.prepare()?;
+    /// let (ta, dic) = (Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?);
+    /// let base = sea.solve(ta, dic)?;
+    /// // A weaker carbonic acid (pK1 up 0.01) leaves more CO2*: pCO2 rises.
+    /// let shifted = sea.with_constants_perturbed(ConstantName::K1, 0.01)?.solve(ta, dic)?;
+    /// assert!(shifted.pco2_uatm > base.pco2_uatm);
+    /// let pond = Water::fresh(Conditions::new(20.0, 0.2)?)?.prepare()?;
+    /// assert!(pond.with_constants_perturbed(ConstantName::K1, 0.01).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_constants_perturbed(&self, which: ConstantName, delta_pk: f64) -> Result<Self> {
+        match &self.prepared {
+            Prepared::Saline(k) => Ok(PreparedWater {
+                water: self.water.clone(),
+                prepared: Prepared::Saline(k.clone().with_pk(which, delta_pk)?),
+            }),
+            Prepared::Fresh(_) => Err(Error::WrongMedium {
+                field: crate::base::field::Field::Constant,
+                name: which.name().to_string(),
+                medium: Medium::Saline.name(),
+                hint: "a fresh-water solve makes its constants again at each ionic strength and \
+                       free calcium, so a perturbed constant is not kept; perturb a saline water",
+            }),
         }
     }
 
@@ -376,8 +422,8 @@ fn solve_fresh(
         dic,
         mut warnings,
     } = settled.sol;
-    k.warnings = basis.warnings.clone();
-    add_route_warnings(water, basis.route, k.ionic_strength, &mut warnings);
+    basis.attach_warnings(&mut k);
+    add_route_warnings(water, basis.route, k.ionic_strength(), &mut warnings);
     let extras = basis.extras(&k, h, dic, options, &mut warnings);
     State::build_fresh(water, &k, h, dic, warnings, extras, (&a, &b))
 }

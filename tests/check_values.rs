@@ -119,10 +119,10 @@ fn scale_name(scale: Option<PhScale>) -> &'static str {
 /// [H+] on `scale` per unit of working-scale h, from the constants.
 fn per_working(k: &Constants, scale: PhScale) -> f64 {
     match scale {
-        PhScale::Total => k.total_per_working,
-        PhScale::Seawater => k.seawater_per_working,
-        PhScale::Free => k.free_per_working,
-        PhScale::Nbs => k.nbs_per_working,
+        PhScale::Total => k.total_per_working(),
+        PhScale::Seawater => k.seawater_per_working(),
+        PhScale::Free => k.free_per_working(),
+        PhScale::Nbs => k.nbs_per_working(),
         other => panic!("no conversion known to scale {other:?}"),
     }
 }
@@ -180,16 +180,16 @@ fn route_fits(row: &CheckRow) -> Result<Fits, String> {
 /// An acid constant on the working scale, by name.
 fn working_k(k: &Constants, constant: &str) -> Result<f64, String> {
     Ok(match constant {
-        "k1" => k.k1,
-        "k2" => k.k2,
-        "kb" => k.kb,
-        "kw" => k.kw,
-        "kp1" => k.kp1,
-        "kp2" => k.kp2,
-        "kp3" => k.kp3,
-        "ksi" => k.ksi,
-        "knh4" => k.knh4,
-        "kh2s" => k.kh2s,
+        "k1" => k.k1(),
+        "k2" => k.k2(),
+        "kb" => k.kb(),
+        "kw" => k.kw(),
+        "kp1" => k.kp1(),
+        "kp2" => k.kp2(),
+        "kp3" => k.kp3(),
+        "ksi" => k.ksi(),
+        "knh4" => k.knh4(),
+        "kh2s" => k.kh2s(),
         other => {
             return Err(format!(
                 "constant {other:?} is not an acid constant of the crate"

@@ -148,60 +148,60 @@ fn route_constants(t: f64) -> Result<Constants, String> {
 fn constant_log10(row: &Row, t: f64) -> Result<f64, String> {
     let tk = t + 273.15;
     let k = route_constants(t)?;
-    let used = &k.fits_used;
+    let used = k.fits_used();
     let (fit, named, routed, reported) = match row.constant.as_str() {
         "kh" => (
             "plummer-busenberg1982",
             thermodynamic::log_kh(tk),
-            k.k0,
+            k.k0(),
             used.k0,
         ),
         "k1" => (
             "plummer-busenberg1982",
             thermodynamic::log_k1(tk),
-            k.k1,
+            k.k1(),
             used.carbonic,
         ),
         "k2" => (
             "plummer-busenberg1982",
             thermodynamic::log_k2(tk),
-            k.k2,
+            k.k2(),
             used.carbonic,
         ),
         "ksp_calcite" => (
             "plummer-busenberg1982",
             thermodynamic::log_ksp_calcite(tk),
-            k.ksp_calcite,
+            k.ksp_calcite(),
             used.minerals,
         ),
         "ksp_aragonite" => (
             "plummer-busenberg1982",
             thermodynamic::log_ksp_aragonite(tk),
-            k.ksp_aragonite,
+            k.ksp_aragonite(),
             used.minerals,
         ),
         "k_cahco3" => (
             "plummer-busenberg1982",
             thermodynamic::log_k_cahco3(tk),
-            k.k_cahco3,
+            k.k_cahco3(),
             used.minerals,
         ),
         "k_caco3" => (
             "plummer-busenberg1982",
             thermodynamic::log_k_caco3(tk),
-            k.k_caco3,
+            k.k_caco3(),
             used.minerals,
         ),
         "kw" => (
             "harned-owen1958",
             thermodynamic::log_kw(tk),
-            k.kw,
+            k.kw(),
             used.water,
         ),
         "knh4" => (
             "emerson1975",
             -thermodynamic::emerson1975_pka(tk),
-            k.knh4,
+            k.knh4(),
             used.ammonium,
         ),
         other => return Err(format!("unknown constant {other:?}")),
@@ -1012,8 +1012,8 @@ fn media_overlap_differ_in_k2() {
             let kf = diluted_seawater_as_fresh(t, s).constants().unwrap();
             let ks = saline_water(t, s).constants().unwrap();
             let p = |k: f64, per: f64| -(k * per).log10();
-            let d_pk1 = p(kf.k1e, kf.free_per_working) - p(ks.k1, ks.free_per_working);
-            let d_pk2 = p(kf.k2e, kf.free_per_working) - p(ks.k2, ks.free_per_working);
+            let d_pk1 = p(kf.k1e(), kf.free_per_working()) - p(ks.k1(), ks.free_per_working());
+            let d_pk2 = p(kf.k2e(), kf.free_per_working()) - p(ks.k2(), ks.free_per_working());
             assert!(d_pk1.abs() < 0.02, "{t} °C, S {s}: ΔpK1 {d_pk1}");
             assert!((0.07..0.24).contains(&d_pk2), "{t} °C, S {s}: ΔpK2 {d_pk2}");
             assert!(

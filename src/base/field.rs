@@ -121,6 +121,12 @@ fields! {
     Root => "root",
     /// The density of the solution (computed).
     Density => "density",
+    /// An equilibrium constant that is perturbed (the message names which).
+    Constant => "constant",
+    /// The factor a constant is scaled by.
+    Factor => "factor",
+    /// The change in a pK.
+    DeltaPk => "delta_pk",
 }
 
 impl fmt::Display for Field {

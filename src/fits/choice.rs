@@ -90,8 +90,8 @@ impl Fits {
 /// ```
 /// use travertine::{Conditions, Water};
 /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
-/// assert_eq!(k.fits_used.carbonic, "lueker2000");
-/// assert_eq!(k.fits_used.calcium.as_str(), "riley-tongudai1967");
+/// assert_eq!(k.fits_used().carbonic, "lueker2000");
+/// assert_eq!(k.fits_used().calcium.as_str(), "riley-tongudai1967");
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]

@@ -4,6 +4,9 @@
 
 pub mod constants;
 pub mod fresh;
+pub mod perturb;
+mod saline;
 
 pub use constants::Constants;
 pub use fresh::IonicStrengthRoute;
+pub use perturb::ConstantName;

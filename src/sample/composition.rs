@@ -232,7 +232,7 @@ impl Composition {
 /// ```
 /// use travertine::{Conditions, Water};
 /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
-/// assert!((k.totals.sulfate_mol_kg - 0.02824).abs() < 5e-6);
+/// assert!((k.totals().sulfate_mol_kg - 0.02824).abs() < 5e-6);
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]

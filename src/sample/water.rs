@@ -274,7 +274,7 @@ impl Water {
     /// # use travertine::{Conditions, Water, sample::Composition, units::Amount};
     /// let w = Water::saline(Conditions::new(10.0, 33.0)?)?
     ///     .with_composition(Composition::default().with_silicate(Amount::PerKg(50e-6))?);
-    /// assert!(w.constants()?.ksi > 0.0);
+    /// assert!(w.constants()?.ksi() > 0.0);
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_composition(mut self, composition: Composition) -> Self {
@@ -288,7 +288,7 @@ impl Water {
     /// # use travertine::{Conditions, Water, fits::{Fits, CarbonicFit}};
     /// let w = Water::saline(Conditions::new(10.0, 33.0)?)?
     ///     .with_fits(Fits::default().with_carbonic(CarbonicFit::Roy1993));
-    /// assert_eq!(w.constants()?.fits_used.carbonic, "roy1993");
+    /// assert_eq!(w.constants()?.fits_used().carbonic, "roy1993");
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_fits(mut self, fits: Fits) -> Self {

@@ -186,11 +186,11 @@ impl Known {
 }
 
 pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> Known {
-    let rho = k.density_kg_m3;
+    let rho = k.density_kg_m3();
     match (m.parameter(), m.value()) {
         (_, Value::Ph(ph, scale)) => {
-            let scale = scale.unwrap_or(k.working_scale);
-            if k.working_scale == PhScale::Nbs
+            let scale = scale.unwrap_or(k.working_scale());
+            if k.working_scale() == PhScale::Nbs
                 && matches!(scale, PhScale::Total | PhScale::Seawater)
             {
                 warnings.push(Warning::Note {
@@ -200,7 +200,7 @@ pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> 
                      normally NBS",
                 });
             }
-            if scale == PhScale::Nbs && k.working_scale != PhScale::Nbs {
+            if scale == PhScale::Nbs && k.working_scale() != PhScale::Nbs {
                 warnings.push(Warning::Note {
                     code: "nbs_ph_in_saline_approximate",
                     text:
@@ -211,17 +211,17 @@ pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> 
             }
             Known::H(k.h_from_ph(ph, scale))
         }
-        (Parameter::Pco2, Value::Atm(p)) => Known::Co2(k.k0 * p * k.fugacity_factor),
-        (_, Value::Atm(f)) => Known::Co2(k.k0 * f),
+        (Parameter::Pco2, Value::Atm(p)) => Known::Co2(k.k0() * p * k.fugacity_factor()),
+        (_, Value::Atm(f)) => Known::Co2(k.k0() * f),
         (_, Value::MoleFraction(x)) => {
-            let p = x * (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
-            Known::Co2(k.k0 * p * k.fugacity_factor)
+            let p = x * (k.conditions().air_pressure_atm() - k.vapour_pressure_atm());
+            Known::Co2(k.k0() * p * k.fugacity_factor())
         }
         (Parameter::Alkalinity, Value::Amount(a)) => Known::Ta(a.mol_kg(rho)),
         (Parameter::Dic, Value::Amount(a)) => Known::Dic(a.mol_kg(rho)),
         // Free ions, turned into their carbon-balance totals (with Ca pairs).
-        (Parameter::Hco3, Value::Amount(a)) => Known::Hco3(a.mol_kg(rho) * (1.0 + k.pair_hco3)),
-        (Parameter::Co3, Value::Amount(a)) => Known::Co3(a.mol_kg(rho) * (1.0 + k.pair_co3)),
+        (Parameter::Hco3, Value::Amount(a)) => Known::Hco3(a.mol_kg(rho) * (1.0 + k.pair_hco3())),
+        (Parameter::Co3, Value::Amount(a)) => Known::Co3(a.mol_kg(rho) * (1.0 + k.pair_co3())),
         (_, Value::Amount(a)) => Known::Co2(a.mol_kg(rho)),
     }
 }
@@ -229,15 +229,15 @@ pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> 
 /// DIC / CO2*, DIC / HCO3-, DIC / CO3-- at h.
 #[inline]
 fn dic_per_co2(k: &Constants, h: f64) -> f64 {
-    1.0 + k.k1e / h + k.k1e * k.k2e / (h * h)
+    1.0 + k.k1e() / h + k.k1e() * k.k2e() / (h * h)
 }
 #[inline]
 fn dic_per_hco3(k: &Constants, h: f64) -> f64 {
-    h / k.k1e + 1.0 + k.k2e / h
+    h / k.k1e() + 1.0 + k.k2e() / h
 }
 #[inline]
 fn dic_per_co3(k: &Constants, h: f64) -> f64 {
-    h * h / (k.k1e * k.k2e) + h / k.k2e + 1.0
+    h * h / (k.k1e() * k.k2e()) + h / k.k2e() + 1.0
 }
 
 pub(crate) struct Pair<'a> {
@@ -317,7 +317,7 @@ pub(crate) fn solve(
         std::mem::swap(&mut ma, &mut mb);
     }
     let pair = Pair { a: ma, b: mb };
-    let k12 = k.k1e * k.k2e;
+    let k12 = k.k1e() * k.k2e();
 
     let (h, dic) = match (ka, kb) {
         (Known::Ta(ta), Known::Dic(dic)) => {
@@ -351,8 +351,8 @@ pub(crate) fn solve(
                 &pair,
                 ta,
                 |h| {
-                    let v = co2 * (k.k1e / h + 2.0 * k12 / (h * h));
-                    (v, -co2 * (k.k1e / (h * h) + 4.0 * k12 / (h * h * h)))
+                    let v = co2 * (k.k1e() / h + 2.0 * k12 / (h * h));
+                    (v, -co2 * (k.k1e() / (h * h) + 4.0 * k12 / (h * h * h)))
                 },
                 f64::NAN,
             )?;
@@ -365,8 +365,8 @@ pub(crate) fn solve(
                 ta,
                 |h| {
                     (
-                        hco3 * (1.0 + 2.0 * k.k2e / h),
-                        -2.0 * hco3 * k.k2e / (h * h),
+                        hco3 * (1.0 + 2.0 * k.k2e() / h),
+                        -2.0 * hco3 * k.k2e() / (h * h),
                     )
                 },
                 f64::NAN,
@@ -384,14 +384,14 @@ pub(crate) fn solve(
             if c >= 1.0 {
                 return Err(pair.no_water("CO2* must be less than DIC".to_string()));
             }
-            let disc = c * c * k.k1e * k.k1e + 4.0 * (1.0 - c) * c * k12;
-            ((c * k.k1e + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
+            let disc = c * c * k.k1e() * k.k1e() + 4.0 * (1.0 - c) * c * k12;
+            ((c * k.k1e() + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
         }
         (Known::Dic(dic), Known::Hco3(hco3)) => {
             // The alkalinity at h is bounded by 2 DIC, every total and the
             // water terms; only where that bound is beyond the accepted range
             // is the alkalinity itself evaluated.
-            let t = &k.totals;
+            let t = &k.totals();
             let totals = t.boron_mol_kg
                 + t.silicate_mol_kg
                 + t.ammonia_mol_kg
@@ -400,7 +400,7 @@ pub(crate) fn solve(
                 + t.sulfate_mol_kg
                 + t.fluoride_mol_kg;
             let fits = |h: f64| {
-                let bound = 2.0 * dic + totals + k.kw / h + h * k.free_per_working;
+                let bound = 2.0 * dic + totals + k.kw() / h + h * k.free_per_working();
                 h_in_range(h)
                     && (alkalinity_in_range(bound)
                         || alkalinity_in_range(
@@ -415,14 +415,14 @@ pub(crate) fn solve(
             if c >= 1.0 {
                 return Err(pair.no_water("CO3 must be less than DIC".to_string()));
             }
-            let disc = c * c * k.k1e * k.k1e + 4.0 * c * (1.0 - c) * k12;
-            (2.0 * (1.0 - c) * k12 / (c * k.k1e + disc.sqrt()), dic)
+            let disc = c * c * k.k1e() * k.k1e() + 4.0 * c * (1.0 - c) * k12;
+            (2.0 * (1.0 - c) * k12 / (c * k.k1e() + disc.sqrt()), dic)
         }
         (Known::H(h), Known::Co2(co2)) => (h, co2 * dic_per_co2(k, h)),
         (Known::H(h), Known::Hco3(hco3)) => (h, hco3 * dic_per_hco3(k, h)),
         (Known::H(h), Known::Co3(co3)) => (h, co3 * dic_per_co3(k, h)),
         (Known::Co2(co2), Known::Hco3(hco3)) => {
-            let h = k.k1e * co2 / hco3;
+            let h = k.k1e() * co2 / hco3;
             (h, co2 * dic_per_co2(k, h))
         }
         (Known::Co2(co2), Known::Co3(co3)) => {
@@ -430,7 +430,7 @@ pub(crate) fn solve(
             (h, co2 * dic_per_co2(k, h))
         }
         (Known::Hco3(hco3), Known::Co3(co3)) => {
-            let h = k.k2e * hco3 / co3;
+            let h = k.k2e() * hco3 / co3;
             (h, hco3 * dic_per_hco3(k, h))
         }
         _ => {
@@ -445,7 +445,7 @@ pub(crate) fn solve(
         let ph = -crate::base::numeric::log10(h);
         return Err(pair.no_water(format!(
             "they imply a pH of {ph:.3} ({} scale), outside {PH_MIN} to {PH_MAX}",
-            k.working_scale.name()
+            k.working_scale().name()
         )));
     }
     check_dic(&pair, dic)?;
@@ -469,8 +469,8 @@ fn carbonate_only_root(k: &Constants, ta: f64, dic: f64) -> f64 {
         return f64::NAN;
     }
     let a = ta;
-    let b = (ta - dic) * k.k1e;
-    let c = (ta - 2.0 * dic) * k.k1e * k.k2e;
+    let b = (ta - dic) * k.k1e();
+    let c = (ta - 2.0 * dic) * k.k1e() * k.k2e();
     let disc = b * b - 4.0 * a * c;
     if disc < 0.0 {
         return f64::NAN;

@@ -32,7 +32,7 @@ pub(super) fn other_root_warning(pair: &Pair, k: &Constants, chosen: f64, other:
         first: pair.a.parameter().name(),
         second: pair.b.parameter().name(),
         ph: -crate::base::numeric::log10(other),
-        scale: k.working_scale.name(),
+        scale: k.working_scale().name(),
         higher: other < chosen,
     }
 }
@@ -50,16 +50,16 @@ pub(super) fn dic_hco3_root(
     let root = options.root;
     let c = hco3 / dic;
     let q = 1.0 - c;
-    let disc = q * q * k.k1e * k.k1e - 4.0 * c * c * k.k1e * k.k2e;
+    let disc = q * q * k.k1e() * k.k1e() - 4.0 * c * c * k.k1e() * k.k2e();
     if c >= 1.0 || disc < 0.0 {
-        let max = 1.0 / (1.0 + 2.0 * (k.k2e / k.k1e).sqrt());
+        let max = 1.0 / (1.0 + 2.0 * (k.k2e() / k.k1e()).sqrt());
         return Err(pair.no_water(format!(
             "HCO3 can be at most {:.4} of DIC at these conditions, but is {:.4} of it",
             max, c
         )));
     }
-    let h_high = (q * k.k1e + disc.sqrt()) / (2.0 * c);
-    let h_low = k.k1e * k.k2e / h_high;
+    let h_high = (q * k.k1e() + disc.sqrt()) / (2.0 * c);
+    let h_low = k.k1e() * k.k2e() / h_high;
     if !options.report_other_root && root != RootChoice::Natural {
         return Ok(pick(root, h_low, h_high).0);
     }
@@ -106,7 +106,7 @@ pub(super) fn ta_co3_root(
 ) -> Result<f64> {
     let root = options.root;
     // g and dg/dh at h.
-    let co3_per_k2 = co3 / k.k2e;
+    let co3_per_k2 = co3 / k.k2e();
     let g = |h: f64| {
         let (n, dn) = non_carbonate(k, h);
         (co3_per_k2 * h + 2.0 * co3 + n - ta, co3_per_k2 + dn)
@@ -121,7 +121,7 @@ pub(super) fn ta_co3_root(
     // Where hydroxide dominates the non-carbonate part, the minimum is near
     // h = sqrt(KW K2 / CO3); if g is already negative there, that point
     // separates the roots and no search is needed.
-    let h_guess = (k.kw * k.k2e / co3).sqrt().clamp(lo, hi);
+    let h_guess = (k.kw() * k.k2e() / co3).sqrt().clamp(lo, hi);
     let g_guess = g(h_guess).0;
     let h_min = if g_guess < 0.0 {
         h_guess
@@ -176,19 +176,19 @@ pub(super) fn ta_co3_root(
     // carbonate at the low-pH one.
     // The corrections take only the borate and water parts at the first
     // estimate, a few divisions against a full evaluation.
-    let borate = |h: f64| k.totals.boron_mol_kg * k.kb / (k.kb + h);
+    let borate = |h: f64| k.totals().boron_mol_kg * k.kb() / (k.kb() + h);
     let guess_high = {
         // TA − 2 CO3 ≈ OH + borate + CO3 h/K2 there: the hydroxide estimate,
         // then one correction for the borate and carbonate at that h.
         let excess = ta - 2.0 * co3;
-        let h0 = if excess > 0.0 { k.kw / excess } else { 0.0 };
+        let h0 = if excess > 0.0 { k.kw() / excess } else { 0.0 };
         let excess1 = if h0 > 0.0 {
             excess - borate(h0) - co3_per_k2 * h0
         } else {
             0.0
         };
         if excess1 > 0.0 {
-            k.kw / excess1
+            k.kw() / excess1
         } else if h0 > 0.0 {
             h0
         } else {
@@ -199,8 +199,8 @@ pub(super) fn ta_co3_root(
         // Two corrections for the borate and hydroxide: h = K2 (TA′/CO3 − 2),
         // a fixed-point step that contracts fast where carbonate carries
         // the alkalinity.
-        let step = |h: f64| k.k2e * ((ta - borate(h) - k.kw / h) / co3 - 2.0);
-        let h0 = k.k2e * (ta / co3 - 2.0);
+        let step = |h: f64| k.k2e() * ((ta - borate(h) - k.kw() / h) / co3 - 2.0);
+        let h0 = k.k2e() * (ta / co3 - 2.0);
         let h1 = if h0 > 0.0 { step(h0) } else { h0 };
         let h2 = if h1 > 0.0 { step(h1) } else { h1 };
         [h2, h1, h0]

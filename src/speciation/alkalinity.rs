@@ -76,13 +76,13 @@ impl AlkalinityParts {
 /// and its derivative with respect to h.
 #[inline]
 pub(crate) fn carbonate_per_dic(k: &Constants, h: f64) -> (f64, f64) {
-    let k12 = k.k1e * k.k2e;
-    let n = k.k1e * h + 2.0 * k12;
-    let d = h * h + k.k1e * h + k12;
+    let k12 = k.k1e() * k.k2e();
+    let n = k.k1e() * h + 2.0 * k12;
+    let d = h * h + k.k1e() * h + k12;
     let inv = 1.0 / d;
     let c = n * inv;
     // d/dh (n/d) = (K1 − c (2h + K1)) / d.
-    (c, (k.k1e - c * (2.0 * h + k.k1e)) * inv)
+    (c, (k.k1e() - c * (2.0 * h + k.k1e())) * inv)
 }
 
 /// Base form of a monoprotic acid, T·K/(K + h), and its derivative
@@ -110,19 +110,19 @@ fn acid_free(total: f64, ka: f64, hf: f64, ff: f64) -> (f64, f64) {
 /// their sum with respect to h.
 #[inline]
 fn non_carbonate_parts(k: &Constants, h: f64) -> (AlkalinityParts, f64) {
-    let t = &k.totals;
-    let (b, db) = base(t.boron_mol_kg, k.kb, h);
-    let (si, dsi) = base(t.silicate_mol_kg, k.ksi, h);
-    let (nh, dnh) = base(t.ammonia_mol_kg, k.knh4, h);
-    let (hs, dhs) = base(t.sulfide_mol_kg, k.kh2s, h);
+    let t = &k.totals();
+    let (b, db) = base(t.boron_mol_kg, k.kb(), h);
+    let (si, dsi) = base(t.silicate_mol_kg, k.ksi(), h);
+    let (nh, dnh) = base(t.ammonia_mol_kg, k.knh4(), h);
+    let (hs, dhs) = base(t.sulfide_mol_kg, k.kh2s(), h);
     let inv_h = 1.0 / h;
-    let oh = k.kw * inv_h;
+    let oh = k.kw() * inv_h;
     let doh = -oh * inv_h;
-    let ff = k.free_per_working;
+    let ff = k.free_per_working();
     let hf = h * ff;
     // HSO4- = ST hf/(KS + hf); HF = FT hf/(KF + hf) (both on the free scale).
-    let (hso4, dhso4) = acid_free(t.sulfate_mol_kg, k.ks_free, hf, ff);
-    let (hfl, dhfl) = acid_free(t.fluoride_mol_kg, k.kf_free, hf, ff);
+    let (hso4, dhso4) = acid_free(t.sulfate_mol_kg, k.ks_free(), hf, ff);
+    let (hfl, dhfl) = acid_free(t.fluoride_mol_kg, k.kf_free(), hf, ff);
     let (p, dp) = phosphate(k, h);
     let parts = AlkalinityParts {
         carbonate: 0.0,
@@ -174,11 +174,11 @@ pub(crate) fn parts_with_slopes(k: &Constants, h: f64, dic_mol_kg: f64) -> Parts
 
 #[inline]
 fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
-    let tp = k.totals.phosphate_mol_kg;
+    let tp = k.totals().phosphate_mol_kg;
     if tp == 0.0 {
         return (0.0, 0.0);
     }
-    let (k1, k12, k123) = (k.kp1, k.kp1 * k.kp2, k.kp1 * k.kp2 * k.kp3);
+    let (k1, k12, k123) = (k.kp1(), k.kp1() * k.kp2(), k.kp1() * k.kp2() * k.kp3());
     let h2 = h * h;
     let h3 = h2 * h;
     let d = h3 + k1 * h2 + k12 * h + k123;

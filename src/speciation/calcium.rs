@@ -24,9 +24,9 @@ pub(crate) fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
 /// u = K1'/h, v = K1'K2'/h², the pairs give DIC = S (1 + u + v) + Ca S w,
 /// w = a u + b v, and Ca = CaT/(1 + S w); one quadratic in S.
 pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f64 {
-    let u = k.k1 / h;
-    let v = k.k1 * k.k2 / (h * h);
-    let w = k.k_cahco3 * u + k.k_caco3 * v;
+    let u = k.k1() / h;
+    let v = k.k1() * k.k2() / (h * h);
+    let w = k.k_cahco3() * u + k.k_caco3() * v;
     let s = balance_root(1.0 + u + v, w, ca_total * w, dic);
     ca_total / (1.0 + s * w)
 }
@@ -35,12 +35,12 @@ pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f6
 /// other parameter), at the apparent pair constants of `k`.
 pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
     let amount = |m: &Measured| match m.value() {
-        Value::Amount(a) => a.mol_kg(k.density_kg_m3),
+        Value::Amount(a) => a.mol_kg(k.density_kg_m3()),
         _ => 0.0,
     };
     match m.parameter() {
-        Parameter::Hco3 => k.k_cahco3 * amount(m),
-        Parameter::Co3 => k.k_caco3 * amount(m),
+        Parameter::Hco3 => k.k_cahco3() * amount(m),
+        Parameter::Co3 => k.k_caco3() * amount(m),
         _ => 0.0,
     }
 }
@@ -57,18 +57,18 @@ pub(crate) fn ln_omega_at_alkalinity(k: &Constants, ta: f64, ca_total: f64, h: f
     if carbon <= 0.0 {
         return None;
     }
-    let u = k.k1 / h;
-    let v = k.k1 * k.k2 / (h * h);
-    let (a, b) = (k.k_cahco3, k.k_caco3);
+    let u = k.k1() / h;
+    let v = k.k1() * k.k2() / (h * h);
+    let (a, b) = (k.k_cahco3(), k.k_caco3());
     let w = a * u + b * v;
     let s = balance_root(u + 2.0 * v, w, ca_total * (a * u + 2.0 * b * v), carbon);
     let ca = ca_total / (1.0 + s * w);
-    let ln = (ca * s * v / k.ksp_calcite).ln();
+    let ln = (ca * s * v / k.ksp_calcite()).ln();
     ln.is_finite().then_some(ln)
 }
 
 /// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).
 pub(crate) fn free_carbonate(k: &Constants, h: f64, dic: f64) -> f64 {
-    let k12 = k.k1e * k.k2e;
-    dic * k12 / (h * h + k.k1e * h + k12) / (1.0 + k.pair_co3)
+    let k12 = k.k1e() * k.k2e();
+    dic * k12 / (h * h + k.k1e() * h + k12) / (1.0 + k.pair_co3())
 }

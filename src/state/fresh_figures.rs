@@ -48,7 +48,7 @@ impl FreshBasis {
         if options.precipitation_potential {
             match self.precipitation_potential(k, ta, dic) {
                 Some(x) => {
-                    e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3 * CACO3_G_MOL)
+                    e.precipitation_potential_mg_l_caco3 = Some(x * k.density_kg_m3() * CACO3_G_MOL)
                 }
                 None => warnings.push(Warning::Note {
                     code: "precipitation_potential_not_bracketed",
@@ -144,7 +144,7 @@ impl FreshBasis {
     /// the root in x is Brent's, to 1e-12 relative.
     pub(crate) fn precipitation_potential(&self, k: &Constants, ta: f64, dic: f64) -> Option<f64> {
         let ca_t = self.totals.calcium_mol_kg;
-        let held = Some(k.ionic_strength);
+        let held = Some(k.ionic_strength());
         let log_omega = |x: f64| -> f64 {
             let pair = (
                 Measured::per_kg(Parameter::Alkalinity, ta - 2.0 * x),
@@ -157,7 +157,7 @@ impl FreshBasis {
                 Ok(settled) => {
                     let (kx, s) = (self.constants_of(&settled), settled.sol);
                     let co3 = free_carbonate(&kx, s.h, s.dic);
-                    (kx.calcium_free_mol_kg * co3 / kx.ksp_calcite).ln()
+                    (kx.calcium_free_mol_kg() * co3 / kx.ksp_calcite()).ln()
                 }
                 Err(_) => f64::NAN,
             }

@@ -283,26 +283,26 @@ impl State {
         a: &Measured,
         b: &Measured,
     ) -> Result<State> {
-        let k12 = k.k1e * k.k2e;
-        let d = h * h + k.k1e * h + k12;
+        let k12 = k.k1e() * k.k2e();
+        let d = h * h + k.k1e() * h + k12;
         let dic_per_d = dic / d;
         let co2 = dic_per_d * h * h;
         // Carbon-balance totals, then the free ions and the Ca pairs.
-        let hco3_t = dic_per_d * k.k1e * h;
+        let hco3_t = dic_per_d * k.k1e() * h;
         let co3_t = dic_per_d * k12;
-        let hco3 = hco3_t / (1.0 + k.pair_hco3);
-        let co3 = co3_t / (1.0 + k.pair_co3);
+        let hco3 = hco3_t / (1.0 + k.pair_hco3());
+        let co3 = co3_t / (1.0 + k.pair_co3());
         let s = parts_with_slopes(k, h, dic);
         let p = s.parts;
         let ta = p.total();
         implausible(ta, a, b)?;
-        let fco2 = co2 / k.k0;
-        let pco2 = fco2 / k.fugacity_factor;
-        let xco2 = pco2 / (k.conditions.air_pressure_atm() - k.vapour_pressure_atm);
-        let ca_known = k.totals.calcium_mol_kg > 0.0;
-        let ca_free = k.calcium_free_mol_kg;
-        let omega_c = ca_known.then(|| ca_free * co3 / k.ksp_calcite);
-        let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite);
+        let fco2 = co2 / k.k0();
+        let pco2 = fco2 / k.fugacity_factor();
+        let xco2 = pco2 / (k.conditions().air_pressure_atm() - k.vapour_pressure_atm());
+        let ca_known = k.totals().calcium_mol_kg > 0.0;
+        let ca_free = k.calcium_free_mol_kg();
+        let omega_c = ca_known.then(|| ca_free * co3 / k.ksp_calcite());
+        let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite());
         // One logarithm for the four pH values and one for both indices.
         let logs = k.log10s();
         let ph_working = -crate::base::numeric::log10(h);
@@ -311,18 +311,18 @@ impl State {
 
         // Revelle factor at constant TA (and pairs): dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
         let dh_ddic = -s.carbonate_per_dic / (dic * s.d_carbonate_per_dic + s.d_non_carbonate);
-        let revelle = 1.0 + dic * (k.k1e * h + 2.0 * k12) / (h * d) * dh_ddic;
+        let revelle = 1.0 + dic * (k.k1e() * h + 2.0 * k12) / (h * d) * dh_ddic;
 
-        let rho = k.density_kg_m3;
+        let rho = k.density_kg_m3();
         // The constants' warnings first.
-        let all = warnings.after(&k.warnings);
+        let all = warnings.after(k.warnings());
         let u = 1e6;
         let fresh = extras.is_some();
         let fresh_only = |v: f64| fresh.then_some(v);
         Ok(State {
-            temperature_c: k.conditions.temperature_c(),
-            salinity: k.conditions.salinity(),
-            pressure_dbar: k.conditions.pressure_dbar(),
+            temperature_c: k.conditions().temperature_c(),
+            salinity: k.conditions().salinity(),
+            pressure_dbar: k.conditions().pressure_dbar(),
             water: water.medium(),
             ph_total: ph(0),
             ph_seawater: ph(1),
@@ -351,16 +351,16 @@ impl State {
             free_hydrogen_umol_kg: p.free_hydrogen * u,
             bisulfate_umol_kg: p.bisulfate * u,
             hydrogen_fluoride_umol_kg: p.hydrogen_fluoride * u,
-            calcium_umol_kg: ca_known.then_some(k.totals.calcium_mol_kg * u),
+            calcium_umol_kg: ca_known.then_some(k.totals().calcium_mol_kg * u),
             calcium_free_umol_kg: ca_known.then_some(ca_free * u),
-            calcium_activity: k.gammas.filter(|_| ca_known).map(|g| g.calcium * ca_free),
+            calcium_activity: k.gammas().filter(|_| ca_known).map(|g| g.calcium * ca_free),
             cahco3_umol_kg: fresh_only((hco3_t - hco3) * u).filter(|_| ca_known),
             caco3_pair_umol_kg: fresh_only((co3_t - co3) * u).filter(|_| ca_known),
-            ionic_strength: k.ionic_strength,
+            ionic_strength: k.ionic_strength(),
             ionic_strength_from: extras.map(|e| e.ionic_strength_from),
             charge_balance_percent: extras.and_then(|e| e.charge_balance_percent),
-            gamma_monovalent: k.gammas.map(|g| g.monovalent),
-            gamma_divalent: k.gammas.map(|g| g.carbonate),
+            gamma_monovalent: k.gammas().map(|g| g.monovalent),
+            gamma_divalent: k.gammas().map(|g| g.carbonate),
             saturation_ph_nbs: extras.and_then(|e| e.saturation_ph_nbs),
             langelier_index: extras.and_then(|e| e.langelier_index),
             precipitation_potential_mg_l_caco3: extras
@@ -369,7 +369,7 @@ impl State {
             dic_mg_l_c: dic * rho * C_G_MOL,
             free_co2_mg_l: co2 * rho * CO2_G_MOL,
             density_kg_m3: rho,
-            constants: k.fits_used,
+            constants: *k.fits_used(),
             warnings: all,
             water_sample: water.clone(),
             h,

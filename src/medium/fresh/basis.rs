@@ -7,6 +7,7 @@ use crate::base::error::Result;
 use crate::base::warning::Warning;
 use crate::fits::thermodynamic as pb;
 use crate::fits::{nutrients, sulfate, sulfide, FitName, FitsUsed};
+use crate::medium::constants::{scale_factors, ScaleLink};
 use crate::medium::Constants;
 use crate::properties::activity::Gammas;
 use crate::properties::density::density_kg_m3;
@@ -152,10 +153,13 @@ impl FreshBasis {
         // [H][F]/[HF] = KF/(γH γ1).
         let ks_free = self.ks * g1 / (gh * g2);
         let kf_free = self.kf / (gh * g1);
-        // [HSO4-]/[SO4--] and [HF]/[F-] per unit free [H+] (0 without them).
-        let per = |total: f64, k: f64| if total > 0.0 { total / k } else { 0.0 };
-        let sulfate = per(self.totals.sulfate_mol_kg, ks_free);
-        let fluoride = per(self.totals.fluoride_mol_kg, kf_free);
+        let factors = scale_factors(
+            ScaleLink::Nbs { gamma_h: gh },
+            self.totals.sulfate_mol_kg,
+            self.totals.fluoride_mol_kg,
+            ks_free,
+            kf_free,
+        );
         let mut k = Constants {
             conditions: self.conditions,
             working_scale: PhScale::Nbs,
@@ -182,12 +186,10 @@ impl FreshBasis {
             ksp_calcite: self.ksp_calcite / (gca * g2),
             ksp_aragonite: self.ksp_aragonite / (gca * g2),
             totals: t,
-            free_per_working: 1.0 / gh,
-            // Defined as in sea water, from the free [H+] and the sulfate and
-            // fluoride given (equal to the free scale when there are none).
-            seawater_per_working: (1.0 + sulfate + fluoride) / gh,
-            total_per_working: (1.0 + sulfate) / gh,
-            nbs_per_working: 1.0,
+            free_per_working: factors.free_per_working,
+            seawater_per_working: factors.seawater_per_working,
+            total_per_working: factors.total_per_working,
+            nbs_per_working: factors.nbs_per_working,
             fugacity_factor: self.fugacity_factor,
             vapour_pressure_atm: self.vapour_pressure_atm,
             density_kg_m3: self.density,
@@ -204,13 +206,19 @@ impl FreshBasis {
         k
     }
 
+    /// Attaches the range warnings of this basis to constants made from it
+    /// (those a caller sees; not those of every trial of a fixed point).
+    pub(crate) fn attach_warnings(&self, k: &mut Constants) {
+        k.warnings = self.warnings.clone();
+    }
+
     /// The constants at the first ionic strength of a solve, with all
     /// calcium free, and the range warnings: what [`Water::constants`]
     /// returns for a fresh water.
     pub(crate) fn starting_constants(&self) -> Constants {
         let ca = self.totals.calcium_mol_kg;
         let mut k = self.constants_at(self.fixed_i.unwrap_or(self.i_start), ca, ca);
-        k.warnings = self.warnings.clone();
+        self.attach_warnings(&mut k);
         k
     }
 }
@@ -247,5 +255,49 @@ pub(crate) fn fresh_fits_used(
         pressure: FitName::Millero1995,
         nbs_scale: activity.into(),
         density: FitName::MilleroPoisson1981,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::medium::ConstantName;
+    use crate::sample::{Composition, Conditions};
+
+    /// In fresh water with calcium, a perturbed K1 or K2 keeps
+    /// K1e = K1 (1 + p1) and K2e = K2 (1 + p2)/(1 + p1), and setting another
+    /// free calcium afterwards keeps them (with the perturbed K1, K2).
+    #[test]
+    fn pairs_follow_a_perturbed_k1_in_fresh_water() {
+        use crate::base::units::Amount;
+        let composition = Composition::default()
+            .with_calcium(Amount::PerKg(2e-3))
+            .unwrap();
+        let water = Water::fresh(Conditions::new(15.0, 0.3).unwrap())
+            .unwrap()
+            .with_composition(composition);
+        let k = FreshBasis::new(&water, true).unwrap().starting_constants();
+        assert!(k.pair_hco3 > 0.0 && k.pair_co3 > 0.0);
+        let consistent = |k: &Constants| {
+            let k1e = k.k1 * (1.0 + k.pair_hco3);
+            let k2e = k.k2 * (1.0 + k.pair_co3) / (1.0 + k.pair_hco3);
+            (k.k1e / k1e - 1.0).abs() < 1e-15 && (k.k2e / k2e - 1.0).abs() < 1e-15
+        };
+        for which in [ConstantName::K1, ConstantName::K2] {
+            let mut p = k.clone().with_pk(which, 0.01).unwrap();
+            assert!(consistent(&p), "{which:?}");
+            // The pair ratios depend on the free calcium only.
+            assert_eq!(p.pair_hco3, k.pair_hco3);
+            let (k1, k2) = (p.k1, p.k2);
+            p.set_free_calcium(0.5 * k.calcium_free_mol_kg);
+            assert!(consistent(&p), "{which:?} after set_free_calcium");
+            assert_eq!((p.k1, p.k2), (k1, k2), "the perturbation is kept");
+            assert!((p.pair_hco3 / k.pair_hco3 - 0.5).abs() < 1e-15);
+        }
+        // The perturbation moved K1 by the factor, K1e with it.
+        let p = k.clone().with_pk(ConstantName::K1, 0.01).unwrap();
+        let factor = crate::base::numeric::pow10(-0.01);
+        assert!((p.k1 / k.k1 / factor - 1.0).abs() < 1e-15);
+        assert!((p.k1e / k.k1e / factor - 1.0).abs() < 1e-14);
     }
 }

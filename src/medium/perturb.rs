@@ -1,0 +1,447 @@
+//! Perturbing one constant of a [`Constants`] value and re-deriving what
+//! follows from it: the hook for propagating the uncertainty of a constant.
+
+use super::constants::{scale_factors, Constants, ScaleLink};
+use crate::base::error::{Error, Result};
+use crate::base::field::Field;
+use crate::properties::scales::PhScale;
+
+/// One constant of a [`Constants`] value, to perturb with
+/// [`Constants::with_pk`] or [`Constants::with_scaled`].
+///
+/// ```
+/// use travertine::medium::ConstantName;
+/// assert_eq!(ConstantName::K1.name(), "K1");
+/// assert_eq!(ConstantName::ALL.len(), 16);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
+pub enum ConstantName {
+    /// K0, the CO2 solubility.
+    K0,
+    /// K1 of carbonic acid (K1e follows).
+    K1,
+    /// K2 of carbonic acid (K2e follows).
+    K2,
+    /// KB, boric acid.
+    Kb,
+    /// KW, the ion product of water.
+    Kw,
+    /// Ksp of calcite (its stored logarithm follows).
+    KspCalcite,
+    /// Ksp of aragonite (its stored logarithm follows).
+    KspAragonite,
+    /// KS, bisulfate on the free scale (the pH-scale factors follow).
+    Ks,
+    /// KF, hydrogen fluoride on the free scale (the pH-scale factors follow).
+    Kf,
+    /// KP1, phosphoric acid.
+    Kp1,
+    /// KP2, phosphoric acid.
+    Kp2,
+    /// KP3, phosphoric acid.
+    Kp3,
+    /// KSi, silicic acid.
+    Ksi,
+    /// KNH4, ammonium.
+    Knh4,
+    /// KH2S, hydrogen sulfide.
+    Kh2s,
+    /// The total boron, mol/kg (scaled like a constant).
+    BoronTotal,
+}
+
+impl ConstantName {
+    /// Every constant that can be perturbed.
+    pub const ALL: [ConstantName; 16] = [
+        ConstantName::K0,
+        ConstantName::K1,
+        ConstantName::K2,
+        ConstantName::Kb,
+        ConstantName::Kw,
+        ConstantName::KspCalcite,
+        ConstantName::KspAragonite,
+        ConstantName::Ks,
+        ConstantName::Kf,
+        ConstantName::Kp1,
+        ConstantName::Kp2,
+        ConstantName::Kp3,
+        ConstantName::Ksi,
+        ConstantName::Knh4,
+        ConstantName::Kh2s,
+        ConstantName::BoronTotal,
+    ];
+
+    /// The name, as in warnings and errors.
+    ///
+    /// ```
+    /// # use travertine::medium::ConstantName;
+    /// assert_eq!(ConstantName::KspCalcite.name(), "Ksp calcite");
+    /// ```
+    pub fn name(self) -> &'static str {
+        match self {
+            ConstantName::K0 => "K0",
+            ConstantName::K1 => "K1",
+            ConstantName::K2 => "K2",
+            ConstantName::Kb => "KB",
+            ConstantName::Kw => "KW",
+            ConstantName::KspCalcite => "Ksp calcite",
+            ConstantName::KspAragonite => "Ksp aragonite",
+            ConstantName::Ks => "KS",
+            ConstantName::Kf => "KF",
+            ConstantName::Kp1 => "KP1",
+            ConstantName::Kp2 => "KP2",
+            ConstantName::Kp3 => "KP3",
+            ConstantName::Ksi => "KSi",
+            ConstantName::Knh4 => "KNH4",
+            ConstantName::Kh2s => "KH2S",
+            ConstantName::BoronTotal => "total boron",
+        }
+    }
+}
+
+impl Constants {
+    /// How the NBS scale ties to the others in these constants, recovered
+    /// rather than stored (a stored copy would be one more value to keep in
+    /// step): γH from the activity coefficients in fresh water; in saline
+    /// water fH as the ratio of the NBS and sea-water factors, which does not
+    /// depend on KS or KF.
+    fn scale_link(&self) -> ScaleLink {
+        match (self.working_scale, self.gammas) {
+            (PhScale::Nbs, Some(g)) => ScaleLink::Nbs {
+                gamma_h: g.hydrogen,
+            },
+            (PhScale::Nbs, None) => ScaleLink::Nbs {
+                gamma_h: 1.0 / self.free_per_working,
+            },
+            _ => ScaleLink::Total {
+                fh: self.nbs_per_working / self.seawater_per_working,
+            },
+        }
+    }
+
+    /// Re-derives the pH-scale factors from the stored KS, KF and totals, by
+    /// [`scale_factors`], with their stored logarithms.
+    fn refresh_scale_factors(&mut self) {
+        let f = scale_factors(
+            self.scale_link(),
+            self.totals.sulfate_mol_kg,
+            self.totals.fluoride_mol_kg,
+            self.ks_free,
+            self.kf_free,
+        );
+        self.free_per_working = f.free_per_working;
+        self.seawater_per_working = f.seawater_per_working;
+        self.total_per_working = f.total_per_working;
+        self.nbs_per_working = f.nbs_per_working;
+        match (&mut self.logs, f.logs) {
+            (Some(logs), Some(per_working)) => logs.per_working = per_working,
+            // Not stored with the factors: evaluated by the state instead.
+            (logs, _) => *logs = None,
+        }
+    }
+
+    /// These constants with one of them multiplied by `factor`, and every
+    /// value that follows from it derived again:
+    /// - K1 or K2: K1e, K2e and the pair ratios, by the code that sets the
+    ///   free calcium, at the current free calcium (K1e = K1 (1 + p1),
+    ///   K2e = K2 (1 + p2)/(1 + p1); in saline water K1e = K1, K2e = K2);
+    /// - a Ksp: its stored logarithm, raised by log10 `factor`;
+    /// - KS or KF: the pH-scale factors, by the function that derives them
+    ///   for [`Constants::saline`] (see [`Constants::free_per_working`]).
+    ///   The other acid constants are held on the working scale: only the
+    ///   other scales, and the bisulfate and HF parts of the alkalinity,
+    ///   move.
+    ///
+    /// A constant that was not evaluated (its total is zero) stays 0. This is
+    /// the step of a perturbation analysis (the uncertainty of a result from
+    /// that of a constant); [`crate::PreparedWater::with_constants_perturbed`]
+    /// solves with the result.
+    ///
+    /// # Errors
+    /// [`crate::Error::NotFinite`] for a factor, or a result, that is not
+    /// finite; [`crate::Error::Computation`] for a factor that is not
+    /// positive, or a constant or scale factor it would take to zero or
+    /// beyond the largest number.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water, medium::ConstantName};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// let more = k.clone().with_scaled(ConstantName::KspCalcite, 1.5)?;
+    /// assert!((more.ksp_calcite() / k.ksp_calcite() - 1.5).abs() < 1e-15);
+    /// assert!(k.with_scaled(ConstantName::K1, f64::NAN).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_scaled(mut self, which: ConstantName, factor: f64) -> Result<Constants> {
+        use ConstantName as C;
+        if !factor.is_finite() {
+            return Err(Error::NotFinite {
+                field: Field::Factor,
+                value: factor,
+            });
+        }
+        if factor <= 0.0 {
+            return Err(Error::Computation {
+                field: Field::Constant,
+                reason: format!(
+                    "{} can only be scaled by a positive factor, not {factor}",
+                    which.name()
+                ),
+            });
+        }
+        let slot = match which {
+            C::K0 => &mut self.k0,
+            C::K1 => &mut self.k1,
+            C::K2 => &mut self.k2,
+            C::Kb => &mut self.kb,
+            C::Kw => &mut self.kw,
+            C::KspCalcite => &mut self.ksp_calcite,
+            C::KspAragonite => &mut self.ksp_aragonite,
+            C::Ks => &mut self.ks_free,
+            C::Kf => &mut self.kf_free,
+            C::Kp1 => &mut self.kp1,
+            C::Kp2 => &mut self.kp2,
+            C::Kp3 => &mut self.kp3,
+            C::Ksi => &mut self.ksi,
+            C::Knh4 => &mut self.knh4,
+            C::Kh2s => &mut self.kh2s,
+            C::BoronTotal => &mut self.totals.boron_mol_kg,
+        };
+        let before = *slot;
+        let after = before * factor;
+        if !after.is_finite() {
+            return Err(Error::Computation {
+                field: Field::Constant,
+                reason: format!("{} scaled by {factor} would be {after}", which.name()),
+            });
+        }
+        if before > 0.0 && after <= 0.0 {
+            return Err(Error::Computation {
+                field: Field::Constant,
+                reason: format!("{} scaled by {factor} would be zero", which.name()),
+            });
+        }
+        *slot = after;
+        let log10 = crate::base::numeric::log10;
+        match which {
+            C::K1 | C::K2 => self.set_free_calcium(self.calcium_free_mol_kg),
+            C::KspCalcite => {
+                if let Some(logs) = &mut self.logs {
+                    logs.ksp_calcite += log10(factor);
+                }
+            }
+            C::KspAragonite => {
+                if let Some(logs) = &mut self.logs {
+                    logs.ksp_aragonite += log10(factor);
+                }
+            }
+            C::Ks | C::Kf => self.refresh_scale_factors(),
+            _ => {}
+        }
+        self.check_derived(which)?;
+        Ok(self)
+    }
+
+    /// These constants with pK = −log10 K of one of them raised by
+    /// `delta_pk`: K multiplied by 10^(−`delta_pk`), and everything that
+    /// follows from it derived again, as [`Constants::with_scaled`]. For
+    /// [`ConstantName::BoronTotal`] the total is multiplied by the same
+    /// factor (use [`Constants::with_scaled`] for a relative change).
+    ///
+    /// # Errors
+    /// As [`Constants::with_scaled`]; [`crate::Error::NotFinite`] also for a
+    /// `delta_pk` that is not finite.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water, medium::ConstantName};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// let p = k.clone().with_pk(ConstantName::K1, 0.01)?;
+    /// assert!((-p.k1().log10() + k.k1().log10() - 0.01).abs() < 1e-12);
+    /// assert_eq!(p.k1e(), p.k1()); // no calcium pairs in saline water
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_pk(self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+        if !delta_pk.is_finite() {
+            return Err(Error::NotFinite {
+                field: Field::DeltaPk,
+                value: delta_pk,
+            });
+        }
+        self.with_scaled(which, crate::base::numeric::pow10(-delta_pk))
+    }
+
+    /// Refuses constants whose derived values a perturbation of `which`
+    /// took out of range (a K1e that overflows, a scale factor of zero).
+    fn check_derived(&self, which: ConstantName) -> Result<()> {
+        let positive = [
+            self.free_per_working,
+            self.seawater_per_working,
+            self.total_per_working,
+            self.nbs_per_working,
+        ];
+        let finite = [self.k1e, self.k2e, self.pair_hco3, self.pair_co3];
+        let logs = self.logs.map(|l| {
+            let [a, b, c, d] = l.per_working;
+            [a, b, c, d, l.ksp_calcite, l.ksp_aragonite]
+        });
+        let bad = positive
+            .iter()
+            .copied()
+            .find(|v| !(v.is_finite() && *v > 0.0))
+            .or_else(|| finite.iter().copied().find(|v| !v.is_finite()))
+            .or_else(|| logs.and_then(|l| l.into_iter().find(|v| !v.is_finite())));
+        match bad {
+            None => Ok(()),
+            Some(value) => Err(Error::Computation {
+                field: Field::Constant,
+                reason: format!(
+                    "perturbing {} would leave a derived value of {value}",
+                    which.name()
+                ),
+            }),
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::base::field::Field;
+    use crate::fits::Fits;
+    use crate::sample::{Composition, Conditions};
+
+    fn sea_water(p_dbar: f64) -> Constants {
+        let c = Conditions::new(25.0, 35.0).and_then(|c| c.with_pressure_dbar(p_dbar));
+        Constants::saline(&c.unwrap(), &Composition::default(), &Fits::default()).unwrap()
+    }
+
+    /// A perturbed Ksp, KS or KF keeps the stored logarithms those of the
+    /// values stored beside them, at the surface and under pressure.
+    #[test]
+    fn perturbed_constants_keep_their_logarithms_in_step() {
+        for p in [0.0, 3000.0] {
+            for which in [
+                ConstantName::KspCalcite,
+                ConstantName::KspAragonite,
+                ConstantName::Ks,
+                ConstantName::Kf,
+            ] {
+                let k = sea_water(p).with_pk(which, 0.07).unwrap();
+                let stored = k.log10s();
+                let evaluated = Constants { logs: None, ..k }.log10s();
+                for (a, b) in stored.per_working.iter().zip(evaluated.per_working) {
+                    assert!((a - b).abs() < 1e-13, "{which:?}: {a} against {b}");
+                }
+                assert!((stored.ksp_calcite - evaluated.ksp_calcite).abs() < 1e-12);
+                assert!((stored.ksp_aragonite - evaluated.ksp_aragonite).abs() < 1e-12);
+            }
+        }
+    }
+
+    /// Perturbing KS twice by opposite amounts gives the scale factors
+    /// back: they are derived from KS, not carried along.
+    #[test]
+    fn scale_factors_follow_ks_both_ways() {
+        let k = sea_water(1000.0);
+        let there_and_back = k
+            .clone()
+            .with_pk(ConstantName::Ks, 0.3)
+            .and_then(|k| k.with_pk(ConstantName::Ks, -0.3))
+            .unwrap();
+        for (a, b) in [
+            (k.free_per_working, there_and_back.free_per_working),
+            (k.seawater_per_working, there_and_back.seawater_per_working),
+            (k.nbs_per_working, there_and_back.nbs_per_working),
+        ] {
+            assert!((a / b - 1.0).abs() < 1e-14, "{a} against {b}");
+        }
+        // The moved KS moves the free scale as 1/(1 + ST/KS).
+        let moved = k.clone().with_pk(ConstantName::Ks, 0.3).unwrap();
+        let expected = 1.0 / (1.0 + k.totals.sulfate_mol_kg / (k.ks_free * 10f64.powf(-0.3)));
+        assert!((moved.free_per_working / expected - 1.0).abs() < 1e-14);
+        assert_eq!(moved.total_per_working, 1.0);
+    }
+
+    /// Every constant can be perturbed, and only the one named (and what
+    /// follows from it) moves.
+    #[test]
+    fn each_name_moves_its_own_constant() {
+        use crate::base::units::Amount;
+        let every_total = Composition::default()
+            .with_phosphate(Amount::PerKg(2e-6))
+            .and_then(|c| c.with_silicate(Amount::PerKg(50e-6)))
+            .and_then(|c| c.with_ammonia(Amount::PerKg(1e-6)))
+            .and_then(|c| c.with_sulfide(Amount::PerKg(1e-6)))
+            .unwrap();
+        let c = Conditions::new(25.0, 35.0).unwrap();
+        let k = Constants::saline(&c, &every_total, &Fits::default()).unwrap();
+        let value = |k: &Constants, which: ConstantName| match which {
+            ConstantName::K0 => k.k0,
+            ConstantName::K1 => k.k1,
+            ConstantName::K2 => k.k2,
+            ConstantName::Kb => k.kb,
+            ConstantName::Kw => k.kw,
+            ConstantName::KspCalcite => k.ksp_calcite,
+            ConstantName::KspAragonite => k.ksp_aragonite,
+            ConstantName::Ks => k.ks_free,
+            ConstantName::Kf => k.kf_free,
+            ConstantName::Kp1 => k.kp1,
+            ConstantName::Kp2 => k.kp2,
+            ConstantName::Kp3 => k.kp3,
+            ConstantName::Ksi => k.ksi,
+            ConstantName::Knh4 => k.knh4,
+            ConstantName::Kh2s => k.kh2s,
+            ConstantName::BoronTotal => k.totals.boron_mol_kg,
+        };
+        for which in ConstantName::ALL {
+            assert!(value(&k, which) > 0.0, "{which:?} not evaluated");
+            let p = k.clone().with_scaled(which, 1.25).unwrap();
+            for other in ConstantName::ALL {
+                let (a, b) = (value(&k, other), value(&p, other));
+                if other == which {
+                    assert!((b - 1.25 * a).abs() <= 1e-15 * b.abs(), "{which:?}");
+                } else {
+                    assert_eq!(a, b, "{which:?} moved {other:?}");
+                }
+            }
+        }
+    }
+
+    /// A perturbation that cannot give finite, positive constants is
+    /// refused, never a panic.
+    #[test]
+    fn impossible_perturbations_are_refused() {
+        let k = sea_water(0.0);
+        let refused = |which, factor: f64| k.clone().with_scaled(which, factor).is_err();
+        assert!(refused(ConstantName::K1, f64::NAN));
+        assert!(refused(ConstantName::K1, f64::INFINITY));
+        assert!(refused(ConstantName::K1, 0.0));
+        assert!(refused(ConstantName::K1, -1.0));
+        // A product beyond the largest number, one below the smallest.
+        let twice = k
+            .clone()
+            .with_scaled(ConstantName::K0, 1e300)
+            .and_then(|k| k.with_scaled(ConstantName::K0, 1e300));
+        assert!(matches!(
+            twice,
+            Err(Error::Computation {
+                field: Field::Constant,
+                ..
+            })
+        ));
+        assert!(refused(ConstantName::K1, 1e-320));
+        // A KF so small that FT/KF overflows the sea-water scale factor.
+        assert!(refused(ConstantName::Kf, 1e-310));
+        assert!(k.clone().with_pk(ConstantName::K1, f64::NAN).is_err());
+        assert!(k.clone().with_pk(ConstantName::K1, -400.0).is_err());
+        assert!(k.clone().with_pk(ConstantName::K1, 400.0).is_err());
+        // Errors name the constant.
+        match k.clone().with_scaled(ConstantName::Kf, 1e-310) {
+            Err(e @ Error::Computation { .. }) => {
+                assert_eq!(e.field(), Some(Field::Constant));
+                assert!(e.to_string().contains("KF"), "{e}");
+            }
+            other => panic!("{other:?}"),
+        }
+    }
+}
