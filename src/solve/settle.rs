@@ -246,6 +246,14 @@ impl FreshBasis {
                     ),
                 })
             }
+            // Neither side settles: the error names the measured pair.
+            (Err(Error::NoConvergence { iterations, .. }), _) => {
+                return Err(Error::NoConvergence {
+                    first: a.parameter().field(),
+                    second: b.parameter().field(),
+                    iterations,
+                })
+            }
             (Err(e), _) => return Err(e),
         };
         let distinct = |o: &Settled| (o.sol.h / found.sol.h - 1.0).abs() > 1e-9;
