@@ -336,7 +336,7 @@ impl State {
         // becomes the one the measured state used, so that the default
         // cannot switch fits between the two states.
         if water.medium() == Medium::Saline && water.fits().carbonic.is_none() {
-            if let Ok(fit) = self.constants.carbonic.as_str().parse::<CarbonicFit>() {
+            if let Ok(fit) = self.fits_used.carbonic.as_str().parse::<CarbonicFit>() {
                 let fits = water.fits().with_carbonic(fit);
                 water = water.with_fits(fits);
             }
@@ -415,7 +415,7 @@ fn solve_fresh(
     b: Measured,
     options: &SolveOptions,
 ) -> Result<State> {
-    let settled = basis.settle_pair(&a, &b, options.root)?;
+    let settled = basis.converge_pair(&a, &b, options.root)?;
     let mut k = basis.constants_of(&settled);
     let Solution {
         h,
@@ -424,7 +424,7 @@ fn solve_fresh(
     } = settled.sol;
     basis.attach_warnings(&mut k);
     add_route_warnings(water, basis.route, k.ionic_strength(), &mut warnings);
-    let extras = basis.extras(&k, h, dic, options, &mut warnings);
+    let extras = basis.fresh_figures(&k, h, dic, options, &mut warnings);
     State::build_fresh(water, &k, h, dic, warnings, extras, (&a, &b))
 }
 

@@ -528,11 +528,11 @@ fn worked_water() -> Water {
 fn worked_saline_table() {
     let state = worked_state(worked_water());
     // equations.md §13: the fits of the worked case are the defaults.
-    let used = &state.constants;
+    let used = &state.fits_used;
     assert_eq!(used.carbonic, "lueker2000");
     assert_eq!(used.boric, "dickson1990");
     assert_eq!(used.bisulfate, "dickson1990");
-    assert_eq!(used.water, "millero1995");
+    assert_eq!(used.kw, "millero1995");
     assert_eq!(used.fluoride, "perez-fraga1987");
     assert_eq!(used.boron_total, "lee2010");
     assert_eq!(used.minerals, "mucci1983");
@@ -612,7 +612,7 @@ fn worked_saline_uppstrom_boron() {
     let fitted = worked_state(
         worked_water().with_fits(Fits::default().with_boron_total(BoronTotalFit::Uppstrom1974)),
     );
-    assert_eq!(fitted.constants.boron_total, "uppstrom1974");
+    assert_eq!(fitted.fits_used.boron_total, "uppstrom1974");
     // equations.md §13 worked values (computed); tolerance: half a unit in the
     // last digit plus the effect of 416.0 against 415.76 µmol/kg of boron.
     assert!(

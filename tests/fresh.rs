@@ -196,7 +196,7 @@ fn constant_log10(row: &Row, t: f64) -> Result<f64, String> {
             "harned-owen1958",
             thermodynamic::log_kw(tk),
             k.kw(),
-            used.water,
+            used.kw,
         ),
         "knh4" => (
             "emerson1975",
@@ -1025,7 +1025,7 @@ fn media_overlap_differ_in_k2() {
     }
 }
 
-/// Known limitation (open): a hard pond water near the bicarbonate maximum
+/// WorkingValue limitation (open): a hard pond water near the bicarbonate maximum
 /// (18.27 °C, Davies, Na = Cl = 1.6466 mmol/kg, Ca 1.9853 mmol/kg, pH 8.1305
 /// with DIC 2878.37 µmol/kg; the values are a random case of the
 /// whole-domain property test) solved again from its own DIC and HCO3: the

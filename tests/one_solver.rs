@@ -146,10 +146,10 @@ fn a_recomputed_state_keeps_the_carbonic_fit_it_was_measured_with() {
             Measured::alkalinity_umol_kg(2300.0).unwrap(),
         )
         .unwrap();
-    assert_eq!(lab.constants.carbonic, "lueker2000");
+    assert_eq!(lab.fits_used.carbonic, "lueker2000");
     let above = lab.at(Conditions::new(2.01, 35.0).unwrap()).unwrap();
     let below = lab.at(Conditions::new(1.99, 35.0).unwrap()).unwrap();
-    assert_eq!(below.constants.carbonic, "lueker2000");
+    assert_eq!(below.fits_used.carbonic, "lueker2000");
     // Outside Lueker's published 2–35 °C: said, not silent.
     assert!(below.warnings.iter().any(|w| matches!(
         w,
@@ -172,7 +172,7 @@ fn a_recomputed_state_keeps_the_carbonic_fit_it_was_measured_with() {
         )
         .unwrap();
     let moved = chosen.at(Conditions::new(10.0, 35.0).unwrap()).unwrap();
-    assert_eq!(moved.constants.carbonic, "roy1993");
+    assert_eq!(moved.fits_used.carbonic, "roy1993");
 }
 
 fn media_caution(s: &State) -> Option<(&'static str, f64)> {
@@ -196,8 +196,8 @@ fn each_side_of_the_switch_names_the_other_medium() {
     let at = |s: f64| Water::auto(Conditions::new(20.0, s).unwrap()).unwrap();
     let fresh_side = at(0.99).solve(pair.0, pair.1).unwrap();
     let saline_side = at(1.0).solve(pair.0, pair.1).unwrap();
-    assert_eq!(fresh_side.water, Medium::Fresh);
-    assert_eq!(saline_side.water, Medium::Saline);
+    assert_eq!(fresh_side.medium, Medium::Fresh);
+    assert_eq!(saline_side.medium, Medium::Saline);
     // The figures of the report (this crate's results, 20 °C).
     assert!((fresh_side.pco2_uatm - 596.0).abs() < 1.0);
     assert!((saline_side.pco2_uatm - 736.0).abs() < 1.0);

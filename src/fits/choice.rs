@@ -109,8 +109,9 @@ pub struct FitsUsed {
     pub boric: FitName,
     /// Total boron.
     pub boron_total: FitName,
-    /// KW of water.
-    pub water: FitName,
+    /// KW of water (serialised as `water`, its key in the JSON).
+    #[serde(rename = "water")]
+    pub kw: FitName,
     /// KS of bisulfate.
     pub bisulfate: FitName,
     /// Total sulfate.

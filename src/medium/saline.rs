@@ -190,7 +190,7 @@ impl Constants {
                 carbonic: carbonic.into(),
                 boric: FitName::Dickson1990,
                 boron_total: measured_or(composition.boron_given(), fits.boron_total.into()),
-                water: FitName::Millero1995,
+                kw: FitName::Millero1995,
                 bisulfate: fits.bisulfate.into(),
                 sulfate_total: measured_or(composition.sulfate_given(), FitName::MorrisRiley1966),
                 fluoride: fits.fluoride.into(),

@@ -327,7 +327,7 @@ outputs! {
     PressureDbar => "pressure_dbar", "gauge pressure", "dbar", 1,
         Conditions, [Hidden, Hidden], |s| n(s.pressure_dbar);
     Water => "water", "medium", "", 0,
-        Conditions, [Hidden, Hidden], |s| Value::Text(Some(s.water.name()));
+        Conditions, [Hidden, Hidden], |s| Value::Text(Some(s.medium.name()));
 
     // Acidity: fresh water leads with its working scale, the NBS scale.
     PhTotal => "ph_total", "pH, total scale", "", 4,
@@ -436,7 +436,7 @@ outputs! {
 
     // The fits are in the table's Constants block.
     CarbonicFit => "carbonic_fit", "K1, K2", "", 0,
-        Fits, [Hidden, Hidden], |s| Value::Text(Some(s.constants.carbonic.as_str()));
+        Fits, [Hidden, Hidden], |s| Value::Text(Some(s.fits_used.carbonic.as_str()));
 }
 
 impl Output {

@@ -27,7 +27,7 @@ impl Serialize for State {
         for o in Output::ALL {
             object.serialize_field(o.key(), &o.value(self))?;
         }
-        object.serialize_field("constants", &self.constants)?;
+        object.serialize_field("constants", &self.fits_used)?;
         object.serialize_field("warnings", &self.warnings)?;
         object.end()
     }

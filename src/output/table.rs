@@ -14,7 +14,7 @@ fn rows(s: &State) -> Vec<(Section, Vec<(Output, &'static str)>)> {
             let mut first = Vec::new();
             let mut rest = Vec::new();
             for &o in Output::ALL.iter().filter(|o| o.section() == section) {
-                match o.place(s.water) {
+                match o.place(s.medium) {
                     Place::Hidden => {}
                     Place::First => first.push((o, o.label())),
                     Place::Row => rest.push((o, o.label())),
@@ -40,7 +40,7 @@ fn cell(o: Output, s: &State) -> String {
 fn header(s: &State) -> String {
     let mut h = format!(
         "{} water at {} °C, salinity {}, {} dbar",
-        s.water.name(),
+        s.medium.name(),
         s.temperature_c,
         (s.salinity * 1e4).round() / 1e4,
         s.pressure_dbar
@@ -96,13 +96,13 @@ pub fn table(state: &State, measured: Option<&State>) -> String {
             let _ = writeln!(out, "{}", line.trim_end());
         }
     }
-    let c = &state.constants;
+    let c = &state.fits_used;
     let _ = writeln!(out, "\nConstants");
     let fits = [
         ("K1, K2", c.carbonic),
         ("KB", c.boric),
         ("total boron", c.boron_total),
-        ("KW", c.water),
+        ("KW", c.kw),
         ("KS", c.bisulfate),
         ("KF", c.fluoride),
         ("K0, fugacity", c.k0),

@@ -199,7 +199,7 @@ impl Parameter {
 
 /// The value of a measured parameter in base units.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
-pub(crate) enum Value {
+pub(crate) enum MeasuredValue {
     /// mol/kg or mol/L (eq for alkalinity).
     Amount(Amount),
     /// pH and its scale (`None`: the medium's default).
@@ -224,7 +224,7 @@ pub(crate) enum Value {
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct Measured {
     parameter: Parameter,
-    value: Value,
+    value: MeasuredValue,
 }
 
 impl Measured {
@@ -272,11 +272,11 @@ impl Measured {
                     _ => quantity.value * 1000.0 / 101_325.0,
                 };
                 check_range(field, atm * 1e6, min, max, unit)?;
-                Value::Atm(atm)
+                MeasuredValue::Atm(atm)
             }
             Parameter::Xco2 => {
                 check_range(field, quantity.value, min, max, unit)?;
-                Value::MoleFraction(quantity.value * 1e-6)
+                MeasuredValue::MoleFraction(quantity.value * 1e-6)
             }
             _ => {
                 let (mass_unit, g) = parameter.mass_unit();
@@ -288,7 +288,7 @@ impl Measured {
                     }
                 })?;
                 check_range(field, amount.raw() * 1e6, min, max, unit)?;
-                Value::Amount(amount)
+                MeasuredValue::Amount(amount)
             }
         };
         Ok(Self { parameter, value })
@@ -333,7 +333,7 @@ impl Measured {
         check_range(Field::Ph, value, min, max, "")?;
         Ok(Self {
             parameter: Parameter::Ph,
-            value: Value::Ph(value, scale),
+            value: MeasuredValue::Ph(value, scale),
         })
     }
 
@@ -452,8 +452,8 @@ impl Measured {
     /// A pH whose scale is unstated, given `scale`; anything else unchanged.
     pub(crate) fn with_scale_if_unstated(self, scale: PhScale) -> Self {
         match self.value {
-            Value::Ph(v, None) => Self {
-                value: Value::Ph(v, Some(scale)),
+            MeasuredValue::Ph(v, None) => Self {
+                value: MeasuredValue::Ph(v, Some(scale)),
                 ..self
             },
             _ => self,
@@ -471,7 +471,7 @@ impl Measured {
         self.parameter
     }
 
-    pub(crate) fn value(&self) -> Value {
+    pub(crate) fn value(&self) -> MeasuredValue {
         self.value
     }
 
@@ -484,12 +484,12 @@ impl Measured {
     /// ```
     pub fn describe(&self) -> String {
         match self.value {
-            Value::Amount(Amount::PerKg(v)) => format!("{} µmol/kg", round_sig(v * 1e6)),
-            Value::Amount(Amount::PerLitre(v)) => format!("{} µmol/L", round_sig(v * 1e6)),
-            Value::Ph(v, Some(s)) => format!("{v} ({})", s.name()),
-            Value::Ph(v, None) => format!("{v}"),
-            Value::Atm(v) => format!("{} µatm", round_sig(v * 1e6)),
-            Value::MoleFraction(v) => format!("{} ppm", round_sig(v * 1e6)),
+            MeasuredValue::Amount(Amount::PerKg(v)) => format!("{} µmol/kg", round_sig(v * 1e6)),
+            MeasuredValue::Amount(Amount::PerLitre(v)) => format!("{} µmol/L", round_sig(v * 1e6)),
+            MeasuredValue::Ph(v, Some(s)) => format!("{v} ({})", s.name()),
+            MeasuredValue::Ph(v, None) => format!("{v}"),
+            MeasuredValue::Atm(v) => format!("{} µatm", round_sig(v * 1e6)),
+            MeasuredValue::MoleFraction(v) => format!("{} ppm", round_sig(v * 1e6)),
         }
     }
 }

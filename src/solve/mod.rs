@@ -21,15 +21,15 @@ use crate::base::root::{monotone_newton, Failure, Search};
 use crate::base::warning::{Warning, Warnings};
 use crate::medium::Constants;
 use crate::properties::scales::PhScale;
-use crate::sample::measured::{check_pair, Measured, Parameter, Value};
+use crate::sample::measured::{check_pair, Measured, MeasuredValue, Parameter};
 use crate::speciation::alkalinity::{carbonate_per_dic, non_carbonate};
 
+pub(crate) mod converge;
 pub(crate) mod fixed_point;
-pub(crate) mod settle;
 mod two_roots;
 
 #[cfg(test)]
-use two_roots::pick;
+use two_roots::by_root_policy;
 use two_roots::{dic_hco3_root, ta_co3_root};
 
 /// Which root to return for the pairs that have two.
@@ -163,7 +163,7 @@ const H_AT_PH_MIN: f64 = 1.0;
 
 /// The internal form of one measured parameter.
 #[derive(Clone, Copy, Debug)]
-pub(crate) enum Known {
+pub(crate) enum WorkingValue {
     Ta(f64),
     Dic(f64),
     H(f64),
@@ -172,23 +172,23 @@ pub(crate) enum Known {
     Co3(f64),
 }
 
-impl Known {
+impl WorkingValue {
     pub(crate) fn rank(self) -> u8 {
         match self {
-            Known::Ta(_) => 0,
-            Known::Dic(_) => 1,
-            Known::H(_) => 2,
-            Known::Co2(_) => 3,
-            Known::Hco3(_) => 4,
-            Known::Co3(_) => 5,
+            WorkingValue::Ta(_) => 0,
+            WorkingValue::Dic(_) => 1,
+            WorkingValue::H(_) => 2,
+            WorkingValue::Co2(_) => 3,
+            WorkingValue::Hco3(_) => 4,
+            WorkingValue::Co3(_) => 5,
         }
     }
 }
 
-pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> Known {
+pub(crate) fn to_working(k: &Constants, m: &Measured, warnings: &mut Warnings) -> WorkingValue {
     let rho = k.density_kg_m3();
     match (m.parameter(), m.value()) {
-        (_, Value::Ph(ph, scale)) => {
+        (_, MeasuredValue::Ph(ph, scale)) => {
             let scale = scale.unwrap_or(k.working_scale());
             if k.working_scale() == PhScale::Nbs
                 && matches!(scale, PhScale::Total | PhScale::Seawater)
@@ -209,20 +209,26 @@ pub(crate) fn to_known(k: &Constants, m: &Measured, warnings: &mut Warnings) -> 
                      20 to 40, and electrode junction errors are not known",
                 });
             }
-            Known::H(k.h_from_ph(ph, scale))
+            WorkingValue::H(k.h_from_ph(ph, scale))
         }
-        (Parameter::Pco2, Value::Atm(p)) => Known::Co2(k.k0() * p * k.fugacity_factor()),
-        (_, Value::Atm(f)) => Known::Co2(k.k0() * f),
-        (_, Value::MoleFraction(x)) => {
+        (Parameter::Pco2, MeasuredValue::Atm(p)) => {
+            WorkingValue::Co2(k.k0() * p * k.fugacity_factor())
+        }
+        (_, MeasuredValue::Atm(f)) => WorkingValue::Co2(k.k0() * f),
+        (_, MeasuredValue::MoleFraction(x)) => {
             let p = x * (k.conditions().air_pressure_atm() - k.vapour_pressure_atm());
-            Known::Co2(k.k0() * p * k.fugacity_factor())
+            WorkingValue::Co2(k.k0() * p * k.fugacity_factor())
         }
-        (Parameter::Alkalinity, Value::Amount(a)) => Known::Ta(a.mol_kg(rho)),
-        (Parameter::Dic, Value::Amount(a)) => Known::Dic(a.mol_kg(rho)),
+        (Parameter::Alkalinity, MeasuredValue::Amount(a)) => WorkingValue::Ta(a.mol_kg(rho)),
+        (Parameter::Dic, MeasuredValue::Amount(a)) => WorkingValue::Dic(a.mol_kg(rho)),
         // Free ions, turned into their carbon-balance totals (with Ca pairs).
-        (Parameter::Hco3, Value::Amount(a)) => Known::Hco3(a.mol_kg(rho) * (1.0 + k.pair_hco3())),
-        (Parameter::Co3, Value::Amount(a)) => Known::Co3(a.mol_kg(rho) * (1.0 + k.pair_co3())),
-        (_, Value::Amount(a)) => Known::Co2(a.mol_kg(rho)),
+        (Parameter::Hco3, MeasuredValue::Amount(a)) => {
+            WorkingValue::Hco3(a.mol_kg(rho) * (1.0 + k.pair_hco3()))
+        }
+        (Parameter::Co3, MeasuredValue::Amount(a)) => {
+            WorkingValue::Co3(a.mol_kg(rho) * (1.0 + k.pair_co3()))
+        }
+        (_, MeasuredValue::Amount(a)) => WorkingValue::Co2(a.mol_kg(rho)),
     }
 }
 
@@ -309,8 +315,8 @@ pub(crate) fn solve(
 ) -> Result<Solution> {
     check_pair(a, b)?;
     let mut warnings = Warnings::new();
-    let mut ka = to_known(k, a, &mut warnings);
-    let mut kb = to_known(k, b, &mut warnings);
+    let mut ka = to_working(k, a, &mut warnings);
+    let mut kb = to_working(k, b, &mut warnings);
     let (mut ma, mut mb) = (a, b);
     if ka.rank() > kb.rank() {
         std::mem::swap(&mut ka, &mut kb);
@@ -320,7 +326,7 @@ pub(crate) fn solve(
     let k12 = k.k1e() * k.k2e();
 
     let (h, dic) = match (ka, kb) {
-        (Known::Ta(ta), Known::Dic(dic)) => {
+        (WorkingValue::Ta(ta), WorkingValue::Dic(dic)) => {
             let h = ta_root(
                 k,
                 &pair,
@@ -333,7 +339,7 @@ pub(crate) fn solve(
             )?;
             (h, dic)
         }
-        (Known::Ta(ta), Known::H(h)) => {
+        (WorkingValue::Ta(ta), WorkingValue::H(h)) => {
             let carb = ta - non_carbonate(k, h).0;
             if carb <= 0.0 {
                 return Err(pair.no_water(format!(
@@ -345,7 +351,7 @@ pub(crate) fn solve(
             }
             (h, carb / carbonate_per_dic(k, h).0)
         }
-        (Known::Ta(ta), Known::Co2(co2)) => {
+        (WorkingValue::Ta(ta), WorkingValue::Co2(co2)) => {
             let h = ta_root(
                 k,
                 &pair,
@@ -358,7 +364,7 @@ pub(crate) fn solve(
             )?;
             (h, co2 * dic_per_co2(k, h))
         }
-        (Known::Ta(ta), Known::Hco3(hco3)) => {
+        (WorkingValue::Ta(ta), WorkingValue::Hco3(hco3)) => {
             let h = ta_root(
                 k,
                 &pair,
@@ -373,13 +379,13 @@ pub(crate) fn solve(
             )?;
             (h, hco3 * dic_per_hco3(k, h))
         }
-        (Known::Ta(ta), Known::Co3(co3)) => {
+        (WorkingValue::Ta(ta), WorkingValue::Co3(co3)) => {
             let fits = |h: f64| h_in_range(h) && dic_in_range(co3 * dic_per_co3(k, h));
             let h = ta_co3_root(k, &pair, ta, co3, options, fits, &mut warnings)?;
             (h, co3 * dic_per_co3(k, h))
         }
-        (Known::Dic(dic), Known::H(h)) => (h, dic),
-        (Known::Dic(dic), Known::Co2(co2)) => {
+        (WorkingValue::Dic(dic), WorkingValue::H(h)) => (h, dic),
+        (WorkingValue::Dic(dic), WorkingValue::Co2(co2)) => {
             let c = co2 / dic;
             if c >= 1.0 {
                 return Err(pair.no_water("CO2* must be less than DIC".to_string()));
@@ -387,7 +393,7 @@ pub(crate) fn solve(
             let disc = c * c * k.k1e() * k.k1e() + 4.0 * (1.0 - c) * c * k12;
             ((c * k.k1e() + disc.sqrt()) / (2.0 * (1.0 - c)), dic)
         }
-        (Known::Dic(dic), Known::Hco3(hco3)) => {
+        (WorkingValue::Dic(dic), WorkingValue::Hco3(hco3)) => {
             // The alkalinity at h is bounded by 2 DIC, every total and the
             // water terms; only where that bound is beyond the accepted range
             // is the alkalinity itself evaluated.
@@ -410,7 +416,7 @@ pub(crate) fn solve(
             let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, &mut warnings)?;
             (h, dic)
         }
-        (Known::Dic(dic), Known::Co3(co3)) => {
+        (WorkingValue::Dic(dic), WorkingValue::Co3(co3)) => {
             let c = co3 / dic;
             if c >= 1.0 {
                 return Err(pair.no_water("CO3 must be less than DIC".to_string()));
@@ -418,18 +424,18 @@ pub(crate) fn solve(
             let disc = c * c * k.k1e() * k.k1e() + 4.0 * c * (1.0 - c) * k12;
             (2.0 * (1.0 - c) * k12 / (c * k.k1e() + disc.sqrt()), dic)
         }
-        (Known::H(h), Known::Co2(co2)) => (h, co2 * dic_per_co2(k, h)),
-        (Known::H(h), Known::Hco3(hco3)) => (h, hco3 * dic_per_hco3(k, h)),
-        (Known::H(h), Known::Co3(co3)) => (h, co3 * dic_per_co3(k, h)),
-        (Known::Co2(co2), Known::Hco3(hco3)) => {
+        (WorkingValue::H(h), WorkingValue::Co2(co2)) => (h, co2 * dic_per_co2(k, h)),
+        (WorkingValue::H(h), WorkingValue::Hco3(hco3)) => (h, hco3 * dic_per_hco3(k, h)),
+        (WorkingValue::H(h), WorkingValue::Co3(co3)) => (h, co3 * dic_per_co3(k, h)),
+        (WorkingValue::Co2(co2), WorkingValue::Hco3(hco3)) => {
             let h = k.k1e() * co2 / hco3;
             (h, co2 * dic_per_co2(k, h))
         }
-        (Known::Co2(co2), Known::Co3(co3)) => {
+        (WorkingValue::Co2(co2), WorkingValue::Co3(co3)) => {
             let h = (k12 * co2 / co3).sqrt();
             (h, co2 * dic_per_co2(k, h))
         }
-        (Known::Hco3(hco3), Known::Co3(co3)) => {
+        (WorkingValue::Hco3(hco3), WorkingValue::Co3(co3)) => {
             let h = k.k2e() * hco3 / co3;
             (h, hco3 * dic_per_hco3(k, h))
         }
@@ -529,11 +535,17 @@ mod tests {
             (7.5, 6.0, 7.5),
             (11.0, 9.0, 9.0),
         ] {
-            let (chosen, other) = pick(RootChoice::Natural, h(high), h(low));
+            let (chosen, other) = by_root_policy(RootChoice::Natural, h(high), h(low));
             assert!((-chosen.log10() - natural).abs() < 1e-9, "{high}, {low}");
             assert!((-other.log10() - natural).abs() > 0.1);
-            assert_eq!(pick(RootChoice::HigherPh, h(high), h(low)).0, h(high));
-            assert_eq!(pick(RootChoice::LowerPh, h(high), h(low)).0, h(low));
+            assert_eq!(
+                by_root_policy(RootChoice::HigherPh, h(high), h(low)).0,
+                h(high)
+            );
+            assert_eq!(
+                by_root_policy(RootChoice::LowerPh, h(high), h(low)).0,
+                h(low)
+            );
         }
     }
 }

@@ -9,7 +9,7 @@ use crate::base::warning::{Warning, Warnings};
 use crate::medium::Constants;
 use crate::speciation::alkalinity::non_carbonate;
 
-pub(super) fn pick(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
+pub(super) fn by_root_policy(root: RootChoice, lower_h: f64, higher_h: f64) -> (f64, f64) {
     // lower_h is the higher pH. Of two pH values, the higher is nearer 8
     // exactly when their mean is below 8 (both below 8, or on either side
     // with the higher one closer): when lower_h higher_h > 1e-16, a product
@@ -61,10 +61,11 @@ pub(super) fn dic_hco3_root(
     let h_high = (q * k.k1e() + disc.sqrt()) / (2.0 * c);
     let h_low = k.k1e() * k.k2e() / h_high;
     if !options.report_other_root && root != RootChoice::Natural {
-        return Ok(pick(root, h_low, h_high).0);
+        return Ok(by_root_policy(root, h_low, h_high).0);
     }
     let two = (h_high / h_low - 1.0).abs() > 1e-9;
-    let (chosen, other, report) = settle(pick(root, h_low, h_high), root, two, &fits);
+    let (chosen, other, report) =
+        fall_back_to_measurable(by_root_policy(root, h_low, h_high), root, two, &fits);
     if report {
         warnings.push(other_root_warning(pair, k, chosen, other));
     }
@@ -76,7 +77,7 @@ pub(super) fn dic_hco3_root(
 /// measurement may be) and the other does. An explicit choice is kept.
 /// Returns the chosen root, the other, and whether the other is a second
 /// water to report (distinct and measurable).
-pub(super) fn settle(
+pub(super) fn fall_back_to_measurable(
     (chosen, other): (f64, f64),
     root: RootChoice,
     two: bool,
@@ -272,7 +273,8 @@ pub(super) fn ta_co3_root(
     match (high_ph, low_ph) {
         (Some(h_low), Some(h_high)) => {
             let two = (h_high / h_low - 1.0).abs() > 1e-9;
-            let (chosen, other, report) = settle(pick(root, h_low, h_high), root, two, &fits);
+            let (chosen, other, report) =
+                fall_back_to_measurable(by_root_policy(root, h_low, h_high), root, two, &fits);
             let chosen_on_high_side = chosen == h_low;
             let other_on_high_side = !chosen_on_high_side;
             let chosen = polish(chosen, chosen_on_high_side)?;

@@ -2,7 +2,7 @@
 //! ratios in the constants, and ln Ω at a given alkalinity.
 
 use crate::medium::Constants;
-use crate::sample::measured::{Measured, Parameter, Value};
+use crate::sample::measured::{Measured, MeasuredValue, Parameter};
 
 /// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
 /// the balance (p − S c)(1 + S w) = S q.
@@ -35,7 +35,7 @@ pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f6
 /// other parameter), at the apparent pair constants of `k`.
 pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
     let amount = |m: &Measured| match m.value() {
-        Value::Amount(a) => a.mol_kg(k.density_kg_m3()),
+        MeasuredValue::Amount(a) => a.mol_kg(k.density_kg_m3()),
         _ => 0.0,
     };
     match m.parameter() {

@@ -1,7 +1,7 @@
 //! Figures derived from a settled fresh water: the Langelier pHs and index,
 //! and the calcium carbonate precipitation potential.
 
-use super::FreshExtras;
+use super::FreshFigures;
 use crate::base::units::CACO3_G_MOL;
 use crate::base::warning::{Warning, Warnings};
 use crate::medium::fresh::ionic::ion_sum;
@@ -13,15 +13,15 @@ use crate::solve::{RootChoice, SolveOptions};
 use crate::speciation::calcium::{free_carbonate, ln_omega_at_alkalinity};
 
 impl FreshBasis {
-    pub(crate) fn extras(
+    pub(crate) fn fresh_figures(
         &self,
         k: &Constants,
         h: f64,
         dic: f64,
         options: &SolveOptions,
         warnings: &mut Warnings,
-    ) -> FreshExtras {
-        let mut e = FreshExtras {
+    ) -> FreshFigures {
+        let mut e = FreshFigures {
             ionic_strength_from: self.route,
             // The charge balance of an ion analysis; other routes have none.
             charge_balance_percent: (self.route == IonicStrengthRoute::MajorIons)
@@ -153,7 +153,7 @@ impl FreshBasis {
             let (Ok(a), Ok(b)) = pair else {
                 return f64::NAN;
             };
-            match self.settle(ca_t - x, held, None, RootChoice::Natural, |_| Ok((a, b))) {
+            match self.converge(ca_t - x, held, None, RootChoice::Natural, |_| Ok((a, b))) {
                 Ok(settled) => {
                     let (kx, s) = (self.constants_of(&settled), settled.sol);
                     let co3 = free_carbonate(&kx, s.h, s.dic);

@@ -15,7 +15,7 @@ mod fresh_figures;
 
 /// The fresh-water results computed beside the carbonate state.
 #[derive(Debug, Clone, Copy, PartialEq)]
-pub(crate) struct FreshExtras {
+pub(crate) struct FreshFigures {
     pub ionic_strength_from: IonicStrengthRoute,
     pub charge_balance_percent: Option<f64>,
     pub saturation_ph_nbs: Option<f64>,
@@ -63,7 +63,7 @@ pub struct State {
     /// Gauge pressure, dbar.
     pub pressure_dbar: f64,
     /// The medium: `saline`.
-    pub water: Medium,
+    pub medium: Medium,
     /// pH, total scale.
     pub ph_total: f64,
     /// pH, sea-water scale.
@@ -155,7 +155,7 @@ pub struct State {
     /// Density used for per-litre units, kg/m³ (Millero & Poisson 1981, EOS-80).
     pub density_kg_m3: f64,
     /// The fit used for each constant.
-    pub constants: FitsUsed,
+    pub fits_used: FitsUsed,
     /// Cautions: fits used outside their range, other roots, approximations.
     pub warnings: Warnings,
     water_sample: Water,
@@ -216,7 +216,7 @@ impl State {
         match p {
             Parameter::Alkalinity => Measured::alkalinity_umol_kg(self.alkalinity_umol_kg),
             Parameter::Dic => Measured::dic_umol_kg(self.dic_umol_kg),
-            Parameter::Ph => match self.water {
+            Parameter::Ph => match self.medium {
                 Medium::Fresh => Measured::ph(self.ph_nbs, Some(PhScale::Nbs)),
                 _ => Measured::ph(self.ph_total, Some(PhScale::Total)),
             },
@@ -263,7 +263,7 @@ impl State {
         h: f64,
         dic: f64,
         warnings: Warnings,
-        extras: FreshExtras,
+        extras: FreshFigures,
         (a, b): (&Measured, &Measured),
     ) -> Result<State> {
         Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras), a, b)
@@ -279,7 +279,7 @@ impl State {
         h: f64,
         dic: f64,
         warnings: Warnings,
-        extras: Option<FreshExtras>,
+        extras: Option<FreshFigures>,
         a: &Measured,
         b: &Measured,
     ) -> Result<State> {
@@ -323,7 +323,7 @@ impl State {
             temperature_c: k.conditions().temperature_c(),
             salinity: k.conditions().salinity(),
             pressure_dbar: k.conditions().pressure_dbar(),
-            water: water.medium(),
+            medium: water.medium(),
             ph_total: ph(0),
             ph_seawater: ph(1),
             ph_free: ph(2),
@@ -369,7 +369,7 @@ impl State {
             dic_mg_l_c: dic * rho * C_G_MOL,
             free_co2_mg_l: co2 * rho * CO2_G_MOL,
             density_kg_m3: rho,
-            constants: *k.fits_used(),
+            fits_used: *k.fits_used(),
             warnings: all,
             water_sample: water.clone(),
             h,

@@ -242,7 +242,7 @@ pub(crate) fn fresh_fits_used(
         carbonic: pb,
         boric: FitName::Dickson1990AtS0,
         boron_total: given(t.boron_mol_kg),
-        water: FitName::HarnedOwen1958,
+        kw: FitName::HarnedOwen1958,
         bisulfate: FitName::Dickson1990AtS0,
         sulfate_total: given(t.sulfate_mol_kg),
         fluoride: FitName::DicksonRiley1979AtS0,

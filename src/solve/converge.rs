@@ -31,14 +31,14 @@ impl FreshBasis {
     /// strength that solved; before any has, ionic strengths ever further
     /// from the first (that of the ions given, without carbon) are tried on
     /// either side.
-    pub(crate) fn settle<F>(
+    pub(crate) fn converge<F>(
         &self,
         ca_total: f64,
         held_i: Option<f64>,
         start_calcium: Option<f64>,
         root: RootChoice,
         pair: F,
-    ) -> Result<Settled>
+    ) -> Result<Converged>
     where
         F: Fn(&Constants) -> Result<(Measured, Measured)>,
     {
@@ -50,7 +50,7 @@ impl FreshBasis {
         let calcium = std::cell::Cell::new(start_calcium);
         let from_ions = held_i.is_none() && self.fixed_i.is_none();
         let at =
-            |i: f64| self.settle_calcium(ca_total, i, calcium.get(), &options, &pair, from_ions);
+            |i: f64| self.converge_calcium(ca_total, i, calcium.get(), &options, &pair, from_ions);
         let settled = match held_i.or(self.fixed_i) {
             Some(i) => at(i),
             None => {
@@ -93,7 +93,7 @@ impl FreshBasis {
     /// starting from `start` (else from the free ions given, else all
     /// calcium free). With `ions`, also the ionic strength of the ions at
     /// the result.
-    pub(crate) fn settle_calcium<F>(
+    pub(crate) fn converge_calcium<F>(
         &self,
         ca_total: f64,
         i: f64,
@@ -101,7 +101,7 @@ impl FreshBasis {
         options: &SolveOptions,
         pair: &F,
         ions: bool,
-    ) -> Result<Settled>
+    ) -> Result<Converged>
     where
         F: Fn(&Constants) -> Result<(Measured, Measured)>,
     {
@@ -117,7 +117,7 @@ impl FreshBasis {
                 ca_total / (1.0 + free_ion_pairs(&k, &a) + free_ion_pairs(&k, &b))
             })
         });
-        let mut solve_at = |ca: f64| -> Result<(Settled, f64)> {
+        let mut solve_at = |ca: f64| -> Result<(Converged, f64)> {
             k.set_free_calcium(ca);
             let k = &k;
             let (a, b) = pair(k)?;
@@ -132,7 +132,7 @@ impl FreshBasis {
             } else {
                 i
             };
-            let settled = Settled {
+            let settled = Converged {
                 i,
                 ca,
                 ca_total,
@@ -169,17 +169,17 @@ impl FreshBasis {
 
     /// Settles a measured pair: one fixed point, or for a pair that can
     /// fit two waters each side settled and the root policy applied.
-    pub(crate) fn settle_pair(
+    pub(crate) fn converge_pair(
         &self,
         a: &Measured,
         b: &Measured,
         root: RootChoice,
-    ) -> Result<Settled> {
+    ) -> Result<Converged> {
         if is_two_root_pair(a, b) {
             self.two_roots(a, b, root)
         } else {
             let (a, b) = (*a, *b);
-            self.settle(
+            self.converge(
                 self.totals.calcium_mol_kg,
                 None,
                 None,
@@ -190,7 +190,7 @@ impl FreshBasis {
     }
 
     /// The constants of a settled solve, exactly those it was solved with.
-    pub(crate) fn constants_of(&self, s: &Settled) -> Constants {
+    pub(crate) fn constants_of(&self, s: &Converged) -> Constants {
         self.constants_at(s.i, s.ca, s.ca_total)
     }
 
@@ -210,11 +210,11 @@ impl FreshBasis {
         a: &Measured,
         b: &Measured,
         root: RootChoice,
-    ) -> Result<Settled> {
+    ) -> Result<Converged> {
         let ca_total = self.totals.calcium_mol_kg;
         let given = |_: &Constants| Ok((*a, *b));
-        let side = |r| self.settle(ca_total, None, None, r, given);
-        let ph = |s: &Settled| -crate::base::numeric::log10(s.sol.h);
+        let side = |r| self.converge(ca_total, None, None, r, given);
+        let ph = |s: &Converged| -crate::base::numeric::log10(s.sol.h);
         let (lower, higher) = (side(RootChoice::LowerPh), side(RootChoice::HigherPh));
         let higher_first = match root {
             RootChoice::LowerPh => false,
@@ -256,8 +256,8 @@ impl FreshBasis {
             }
             (Err(e), _) => return Err(e),
         };
-        let distinct = |o: &Settled| (o.sol.h / found.sol.h - 1.0).abs() > 1e-9;
-        let measurable = |o: &Settled| {
+        let distinct = |o: &Converged| (o.sol.h / found.sol.h - 1.0).abs() > 1e-9;
+        let measurable = |o: &Converged| {
             let parts =
                 crate::speciation::alkalinity::parts(&self.constants_of(o), o.sol.h, o.sol.dic);
             crate::solve::alkalinity_in_range(parts.total())
@@ -298,7 +298,7 @@ impl FreshBasis {
 /// A settled solve: the ionic strength and free calcium it was solved at
 /// (its constants are [`FreshBasis::constants_of`] them), and its solution.
 #[derive(Debug, Clone, PartialEq)]
-pub(crate) struct Settled {
+pub(crate) struct Converged {
     pub(crate) i: f64,
     pub(crate) ca: f64,
     pub(crate) ca_total: f64,
