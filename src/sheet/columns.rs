@@ -1,5 +1,6 @@
 //! The computed columns a sheet can write, and the default sets.
 
+use crate::output::Output;
 use crate::properties::scales::PhScale;
 use crate::sample::measured::Parameter;
 
@@ -34,23 +35,17 @@ impl std::str::FromStr for UnitSystem {
     }
 }
 
-/// A computed column: one output of the list in [`crate::output::Output`],
-/// whose key is the column name and whose `value` reads the cell.
-pub(crate) use crate::output::Output as Computed;
-/// A computed value of a row.
-pub(crate) use crate::output::Value;
-
 // The sheet's own view of the outputs (names, default sets, the column of
 // a parameter), kept here beside the sheet's unit systems.
-impl Computed {
+impl Output {
     /// The column name: the output's key (the JSON key of `solve --json`).
     pub(crate) fn name(self) -> &'static str {
         self.key()
     }
 
     /// The default columns for field work in each unit system.
-    pub(crate) fn defaults(units: UnitSystem) -> &'static [Computed] {
-        use Computed::*;
+    pub(crate) fn defaults(units: UnitSystem) -> &'static [Output] {
+        use Output::*;
         match units {
             UnitSystem::Trade => &[
                 Water,
@@ -82,13 +77,13 @@ impl Computed {
     }
 
     /// The column of this name.
-    pub(crate) fn from_name(name: &str) -> Option<Computed> {
-        Computed::from_key(name)
+    pub(crate) fn from_name(name: &str) -> Option<Output> {
+        Output::from_key(name)
     }
 
     /// Every name, for messages.
     pub(crate) fn all_names() -> String {
-        Computed::ALL
+        Output::ALL
             .iter()
             .map(|c| c.name())
             .collect::<Vec<_>>()
@@ -97,12 +92,8 @@ impl Computed {
 
     /// The column of a carbonate parameter in a unit system, for the
     /// residual of that parameter; pH takes the scale of the measurement.
-    pub(crate) fn of_parameter(
-        p: Parameter,
-        units: UnitSystem,
-        scale: Option<PhScale>,
-    ) -> Computed {
-        use Computed::*;
+    pub(crate) fn of_parameter(p: Parameter, units: UnitSystem, scale: Option<PhScale>) -> Output {
+        use Output::*;
         let trade = units == UnitSystem::Trade;
         match p {
             Parameter::Alkalinity if trade => AlkalinityMgL,
@@ -136,12 +127,12 @@ mod tests {
 
     #[test]
     fn names_are_unique_and_found() {
-        for c in Computed::ALL {
-            assert_eq!(Computed::from_name(c.name()), Some(*c));
+        for c in Output::ALL {
+            assert_eq!(Output::from_name(c.name()), Some(*c));
         }
-        let mut names: Vec<&str> = Computed::ALL.iter().map(|c| c.name()).collect();
+        let mut names: Vec<&str> = Output::ALL.iter().map(|c| c.name()).collect();
         names.sort_unstable();
         names.dedup();
-        assert_eq!(names.len(), Computed::ALL.len());
+        assert_eq!(names.len(), Output::ALL.len());
     }
 }

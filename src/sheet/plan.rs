@@ -3,10 +3,11 @@
 //! is built once from the header row, before any data row is read.
 
 use super::cell;
-use super::columns::{Computed, UnitSystem};
+use super::columns::UnitSystem;
 use super::header::{self, Column, Reading, Recognition};
 use super::pair::{choose_pair, rank, RANKING};
 use super::{SheetError, SheetOptions};
+use crate::output::Output;
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::Parameter;
@@ -53,7 +54,7 @@ pub(crate) struct Plan {
     pub template: Sample,
     pub forced_pair: Option<(Parameter, Parameter)>,
     pub residuals: Vec<Residual>,
-    pub computed: Vec<Computed>,
+    pub computed: Vec<Output>,
     /// Names of the added columns: computed, residuals, `status`, `message`.
     pub added: Vec<String>,
     pub units: UnitSystem,
@@ -250,7 +251,7 @@ impl Plan {
 
         let computed = match &options.columns {
             Some(spec) => parse_columns(spec, options.units)?,
-            None => Computed::defaults(options.units).to_vec(),
+            None => Output::defaults(options.units).to_vec(),
         };
 
         // Added names, never equal to an input header.
@@ -289,7 +290,7 @@ impl Plan {
             _ => None,
         });
 
-        let wants_potential = computed.contains(&Computed::PrecipitationPotential);
+        let wants_potential = computed.contains(&Output::PrecipitationPotential);
         Ok(Plan {
             width: headers.len(),
             headers,
@@ -453,10 +454,7 @@ fn residual_name(
     if p == Parameter::Ph && scale.is_none() {
         return "ph_residual".to_string();
     }
-    format!(
-        "{}_residual",
-        Computed::of_parameter(p, units, scale).name()
-    )
+    format!("{}_residual", Output::of_parameter(p, units, scale).name())
 }
 
 /// Parses `--pair a,b`.
@@ -501,25 +499,25 @@ pub(crate) fn parse_pair(spec: &str) -> Result<(Parameter, Parameter), SheetErro
 
 /// Parses `--columns`: names of computed columns, `default` for the
 /// default set of the unit system, `all` for every one.
-pub(crate) fn parse_columns(spec: &str, units: UnitSystem) -> Result<Vec<Computed>, SheetError> {
-    let mut out: Vec<Computed> = Vec::new();
-    let add = |c: Computed, out: &mut Vec<Computed>| {
+pub(crate) fn parse_columns(spec: &str, units: UnitSystem) -> Result<Vec<Output>, SheetError> {
+    let mut out: Vec<Output> = Vec::new();
+    let add = |c: Output, out: &mut Vec<Output>| {
         if !out.contains(&c) {
             out.push(c);
         }
     };
     for name in spec.split(',').map(str::trim).filter(|n| !n.is_empty()) {
         match name.to_ascii_lowercase().as_str() {
-            "default" => Computed::defaults(units)
+            "default" => Output::defaults(units)
                 .iter()
                 .for_each(|c| add(*c, &mut out)),
-            "all" => Computed::ALL.iter().for_each(|c| add(*c, &mut out)),
+            "all" => Output::ALL.iter().for_each(|c| add(*c, &mut out)),
             lower => add(
-                Computed::from_name(lower).ok_or_else(|| SheetError::BadOption {
+                Output::from_name(lower).ok_or_else(|| SheetError::BadOption {
                     option: "--columns",
                     message: format!(
                         "`{name}` is not a computed column; accepted: default, all, {}",
-                        Computed::all_names()
+                        Output::all_names()
                     ),
                 })?,
                 &mut out,

@@ -1,12 +1,13 @@
 //! One row: its cells read, the sample built, the pair chosen and solved.
 
 use super::cell;
-use super::columns::{Computed, UnitSystem, Value};
+use super::columns::UnitSystem;
 use super::pair::{choose_pair, rank, RANKING};
 use super::plan::{Label, Plan};
 use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::flow::PreparedWater;
+use crate::output::{Output, Value};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::{Measured, Parameter};
@@ -186,7 +187,7 @@ fn measured_in_output(
                 Unit::KPa => q.value * 1000.0 / 101_325.0 * 1e6,
                 _ => f64::NAN,
             };
-            let calculated = match Computed::of_parameter(p, units, None).value(state) {
+            let calculated = match Output::of_parameter(p, units, None).value(state) {
                 Value::Number(v) => v?,
                 Value::Text(_) => return None,
             };

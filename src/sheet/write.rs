@@ -2,10 +2,10 @@
 //! per line. Numbers are rounded to six significant digits and written
 //! with `ryu` (shortest form).
 
-use super::columns::Value;
 use super::plan::Plan;
 use super::row::Scratch;
 use super::Format;
+use crate::output::Value;
 
 /// How the output is written.
 #[derive(Debug, Clone, Copy)]
