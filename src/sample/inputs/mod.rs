@@ -140,8 +140,16 @@ impl Total {
     }
 
     /// The unit plain "mg/L" means for this total, where its name says what
-    /// the mass is of (calcium as Ca, sodium as Na, ...).
-    pub(crate) fn own_mass_unit(self) -> Option<Unit> {
+    /// the mass is of (calcium as Ca, sodium as Na, ...); `None` where plain
+    /// mg/L is ambiguous (phosphate as P or as PO4, hardness as CaCO3 or as
+    /// the ions).
+    ///
+    /// ```
+    /// # use travertine::{sample::inputs::Total, units::Unit};
+    /// assert_eq!(Total::Calcium.own_mass_unit(), Some(Unit::MgPerLCa));
+    /// assert_eq!(Total::Phosphate.own_mass_unit(), None);
+    /// ```
+    pub fn own_mass_unit(self) -> Option<Unit> {
         match self {
             Total::Calcium => Some(Unit::MgPerLCa),
             Total::Magnesium => Some(Unit::MgPerLMg),
