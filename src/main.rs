@@ -341,13 +341,46 @@ fn sheet(a: &SheetArgs) -> ExitCode {
     });
     match result {
         Ok(summary) => {
-            eprint!("{summary}");
+            // The results are written; a summary that cannot be shown
+            // (standard error closed or full) does not change that.
+            say(&summary.to_string());
             ExitCode::SUCCESS
         }
         Err(e) if e.is_broken_pipe() => ExitCode::SUCCESS,
         Err(e) => {
-            eprintln!("travertine sheet: {e}");
+            say(&format!("travertine sheet: {e}\n"));
             ExitCode::from(e.exit_code())
+        }
+    }
+}
+
+/// Writes a message to standard error; one that cannot be written (the
+/// stream closed or full) is dropped rather than a panic.
+fn say(text: &str) {
+    use std::io::Write;
+    let mut err = std::io::stderr().lock();
+    let _ = err.write_all(text.as_bytes()).and_then(|()| err.flush());
+}
+
+/// Prints a result to standard output. A reader that went away (a broken
+/// pipe, as with `| head`) ends the command quietly; any other failure to
+/// write (a full disk, a closed stream) is reported in one line with exit
+/// code 1, never a panic.
+fn print_result(text: &str) -> ExitCode {
+    use std::io::Write;
+    let mut out = std::io::stdout().lock();
+    let written = out
+        .write_all(text.as_bytes())
+        .and_then(|()| out.write_all(b"\n"))
+        .and_then(|()| out.flush());
+    match written {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => ExitCode::SUCCESS,
+        Err(e) => {
+            say(&format!(
+                "travertine: the result could not be written: {e}\n"
+            ));
+            ExitCode::from(1)
         }
     }
 }
@@ -357,12 +390,9 @@ fn main() -> ExitCode {
     match cli.command {
         Command::Sheet(args) => sheet(&args),
         Command::Solve(args) => match run(&args) {
-            Ok(text) => {
-                println!("{}", text.trim_end());
-                ExitCode::SUCCESS
-            }
+            Ok(text) => print_result(text.trim_end()),
             Err(e) => {
-                eprintln!("travertine: {}: {}", e.flag, e.error);
+                say(&format!("travertine: {}: {}\n", e.flag, e.error));
                 ExitCode::from(2)
             }
         },

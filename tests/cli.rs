@@ -378,3 +378,74 @@ fn hardness_is_not_taken_as_calcium() {
     let warnings = v["warnings"].to_string();
     assert!(warnings.contains("not taken as calcium"), "{warnings}");
 }
+
+/// The arguments of a plain sea-water solve.
+fn sea_solve_args() -> Vec<&'static str> {
+    let mut args = vec![
+        "solve",
+        "--alkalinity",
+        "2300umol/kg",
+        "--dic",
+        "2000umol/kg",
+    ];
+    args.extend_from_slice(&SEA);
+    args
+}
+
+/// A full disk under standard output is one line on standard error and exit
+/// code 1; it used to panic (exit code 101).
+#[test]
+#[cfg(target_os = "linux")]
+fn a_full_disk_under_the_result_is_an_error_not_a_panic() {
+    let full = std::fs::OpenOptions::new()
+        .write(true)
+        .open("/dev/full")
+        .expect("/dev/full exists on Linux");
+    let o = Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(sea_solve_args())
+        .stdout(full)
+        .output()
+        .expect("the binary runs");
+    assert_eq!(o.status.code(), Some(1), "stderr: {}", stderr(&o));
+    assert!(
+        stderr(&o).contains("could not be written"),
+        "{}",
+        stderr(&o)
+    );
+    assert!(!stderr(&o).contains("panicked"));
+}
+
+/// A full standard error (the message of an error cannot be shown) keeps
+/// the exit code of the error and does not panic.
+#[test]
+#[cfg(target_os = "linux")]
+fn a_full_standard_error_keeps_the_exit_code() {
+    let full = std::fs::OpenOptions::new()
+        .write(true)
+        .open("/dev/full")
+        .expect("/dev/full exists on Linux");
+    let o = Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(["solve", "--alkalinity", "2300umol/kg"])
+        .args(SEA)
+        .stderr(full)
+        .output()
+        .expect("the binary runs");
+    assert_eq!(o.status.code(), Some(2));
+}
+
+/// A reader that goes away at once (as `| head -c 10` does) ends the
+/// command quietly: exit code 0, never a panic.
+#[test]
+fn a_reader_that_goes_away_ends_the_command_quietly() {
+    for _ in 0..20 {
+        let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
+            .args(sea_solve_args())
+            .stdout(std::process::Stdio::piped())
+            .stderr(std::process::Stdio::piped())
+            .spawn()
+            .expect("the binary runs");
+        drop(child.stdout.take());
+        let o = child.wait_with_output().expect("the binary ends");
+        assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    }
+}
