@@ -33,6 +33,7 @@ impl Fits {
     /// # use travertine::fits::{CarbonicFit, Fits};
     /// assert!(Fits::default().with_carbonic(CarbonicFit::Millero2006).carbonic.is_some());
     /// ```
+    #[must_use]
     pub fn with_carbonic(mut self, fit: CarbonicFit) -> Self {
         self.carbonic = Some(fit);
         self
@@ -45,6 +46,7 @@ impl Fits {
     /// let f = Fits::default().with_boron_total(BoronTotalFit::Uppstrom1974);
     /// assert_eq!(f.boron_total, BoronTotalFit::Uppstrom1974);
     /// ```
+    #[must_use]
     pub fn with_boron_total(mut self, fit: BoronTotalFit) -> Self {
         self.boron_total = fit;
         self
@@ -57,6 +59,7 @@ impl Fits {
     /// let f = Fits::default().with_fluoride(FluorideFit::DicksonRiley1979);
     /// assert_eq!(f.fluoride, FluorideFit::DicksonRiley1979);
     /// ```
+    #[must_use]
     pub fn with_fluoride(mut self, fit: FluorideFit) -> Self {
         self.fluoride = fit;
         self

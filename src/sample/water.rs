@@ -193,6 +193,7 @@ impl Water {
     /// assert_eq!(w.fresh_options().activity, ActivityModel::ExtendedDebyeHuckel);
     /// # Ok::<(), travertine::Error>(())
     /// ```
+    #[must_use]
     pub fn with_activity_model(mut self, model: ActivityModel) -> Self {
         self.fresh.activity = model;
         self
@@ -277,6 +278,7 @@ impl Water {
     /// assert!(w.constants()?.ksi() > 0.0);
     /// # Ok::<(), travertine::Error>(())
     /// ```
+    #[must_use]
     pub fn with_composition(mut self, composition: Composition) -> Self {
         self.composition = composition;
         self
@@ -291,6 +293,7 @@ impl Water {
     /// assert_eq!(w.constants()?.fits_used().carbonic, "roy1993");
     /// # Ok::<(), travertine::Error>(())
     /// ```
+    #[must_use]
     pub fn with_fits(mut self, fits: Fits) -> Self {
         self.fits = fits;
         self

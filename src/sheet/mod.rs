@@ -283,6 +283,7 @@ impl SheetOptions {
     /// # use travertine::sheet::{Format, SheetOptions};
     /// let _ = SheetOptions::default().with_format(Format::Jsonl);
     /// ```
+    #[must_use]
     pub fn with_format(mut self, format: Format) -> Self {
         self.format = format;
         self
@@ -294,6 +295,7 @@ impl SheetOptions {
     /// # use travertine::sheet::{SheetOptions, UnitSystem};
     /// let _ = SheetOptions::default().with_units(UnitSystem::Ocean);
     /// ```
+    #[must_use]
     pub fn with_units(mut self, units: UnitSystem) -> Self {
         self.units = units;
         self
@@ -335,6 +337,7 @@ impl SheetOptions {
     /// # use travertine::sheet::SheetOptions;
     /// let _ = SheetOptions::default().with_decimal_comma(true);
     /// ```
+    #[must_use]
     pub fn with_decimal_comma(mut self, on: bool) -> Self {
         self.decimal_comma = on;
         self
@@ -346,6 +349,7 @@ impl SheetOptions {
     /// # use travertine::{sheet::SheetOptions, RootChoice};
     /// let _ = SheetOptions::default().with_root(RootChoice::HigherPh);
     /// ```
+    #[must_use]
     pub fn with_root(mut self, root: RootChoice) -> Self {
         self.root = root;
         self
@@ -357,6 +361,7 @@ impl SheetOptions {
     /// # use travertine::sheet::{Progress, SheetOptions};
     /// let _ = SheetOptions::default().with_progress(Progress::Auto);
     /// ```
+    #[must_use]
     pub fn with_progress(mut self, progress: Progress) -> Self {
         self.progress = progress;
         self
