@@ -160,7 +160,11 @@ fn two_root_pairs_warn_and_can_choose() {
     ]);
     let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
     let natural = v["ph_total"].as_f64().unwrap();
-    assert!(v["warnings"][0].as_str().unwrap().contains("also fits"));
+    assert_eq!(v["warnings"][0]["code"], "other_root");
+    assert!(v["warnings"][0]["message"]
+        .as_str()
+        .unwrap()
+        .contains("also fits"));
     let o = solve(&[
         "--alkalinity",
         "2300umol/kg",

@@ -8,9 +8,9 @@ use std::fmt;
 use std::ops::Deref;
 
 /// A caution about a result: a fit used outside its published range, a
-/// second root, an approximation.
+/// second root, an approximation, or a note on an input not given.
 ///
-/// Serialised as its message (a JSON string).
+/// Serialised as `{"code": ..., "severity": "note" | "warning", "message": ...}`.
 ///
 /// # Example
 /// ```
@@ -206,9 +206,72 @@ impl Warning {
     }
 }
 
+/// How much a caution matters.
+///
+/// ```
+/// use travertine::base::warning::Severity;
+/// assert_eq!(Severity::Note.name(), "note");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[non_exhaustive]
+pub enum Severity {
+    /// Information about an input that was not given (no calcium, so no
+    /// saturation): the result is what was asked for.
+    Note,
+    /// The result may be wrong or is extrapolated: a fit out of its range,
+    /// another root, an approximation, an input not used.
+    Warning,
+}
+
+impl Severity {
+    /// The plain name, as in the JSON.
+    pub fn name(self) -> &'static str {
+        match self {
+            Severity::Note => "note",
+            Severity::Warning => "warning",
+        }
+    }
+}
+
+/// The codes of the cautions that are notes: each says what was not
+/// computed, or how a missing input was taken, because an optional input
+/// was not given.
+const NOTE_CODES: &[&str] = &[
+    "calcium_not_given",
+    "ionic_strength_from_carbonate",
+    "hardness_not_calcium",
+    "langelier_not_computed",
+];
+
+impl Warning {
+    /// Whether this is a note (an optional input not given) or a warning
+    /// (the result may be wrong or is extrapolated).
+    ///
+    /// ```
+    /// use travertine::{base::warning::Severity, Conditions, Measured, Water};
+    /// let pond = Water::fresh(Conditions::new(20.0, 0.2)?)?
+    ///     .solve(Measured::ph(7.5, None)?, Measured::alkalinity_umol_kg(1500.0)?)?;
+    /// let calcium = pond.warnings.iter().find(|w| w.code() == "calcium_not_given").unwrap();
+    /// assert_eq!(calcium.severity(), Severity::Note);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn severity(&self) -> Severity {
+        if NOTE_CODES.contains(&self.code()) {
+            Severity::Note
+        } else {
+            Severity::Warning
+        }
+    }
+}
+
 impl Serialize for Warning {
     fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
-        serializer.collect_str(self)
+        use serde::ser::SerializeStruct;
+        let mut s = serializer.serialize_struct("Warning", 3)?;
+        s.serialize_field("code", self.code())?;
+        s.serialize_field("severity", self.severity().name())?;
+        s.serialize_field("message", &self.to_string())?;
+        s.end()
     }
 }
 
@@ -216,7 +279,7 @@ impl Serialize for Warning {
 /// the first is held in place and only a second one allocates: a solve
 /// that raises a caution (a second root, a fit used out of range) stays
 /// free of heap allocation. Reads as a slice of [`Warning`]; serialised as
-/// a JSON array of messages.
+/// a JSON array of `{code, severity, message}` objects.
 ///
 /// ```
 /// use travertine::{Conditions, Measured, Water};
@@ -225,7 +288,9 @@ impl Serialize for Warning {
 /// assert_eq!(s.warnings.len(), 1); // the other root
 /// assert!(s.warnings.iter().any(|w| w.to_string().contains("also fits")));
 /// let json = serde_json::to_value(&s.warnings).unwrap();
-/// assert!(json[0].as_str().unwrap().contains("also fits"));
+/// assert_eq!(json[0]["code"], "other_root");
+/// assert_eq!(json[0]["severity"], "warning");
+/// assert!(json[0]["message"].as_str().unwrap().contains("also fits"));
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq, Default)]

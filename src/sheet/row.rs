@@ -6,6 +6,7 @@ use super::pair::{choose_pair, rank, RANKING};
 use super::plan::{Label, Plan};
 use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
+use crate::base::warning::Severity;
 use crate::flow::PreparedWater;
 use crate::output::{Output, Value};
 use crate::properties::scales::PhScale;
@@ -43,6 +44,8 @@ pub(crate) struct Issue {
     pub text: String,
     /// An error (the row is not computed) rather than a warning.
     pub error: bool,
+    /// A note (an optional input not given): shown, but the row stays `ok`.
+    pub note: bool,
 }
 
 /// A row's results, reused from row to row.
@@ -62,6 +65,7 @@ impl Scratch {
             key,
             text,
             error: true,
+            note: false,
         });
     }
 
@@ -70,6 +74,16 @@ impl Scratch {
             key,
             text,
             error: false,
+            note: false,
+        });
+    }
+
+    fn note(&mut self, key: String, text: String) {
+        self.issues.push(Issue {
+            key,
+            text,
+            error: false,
+            note: true,
         });
     }
 }
@@ -264,7 +278,7 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {
     }
     s.status = if s.issues.iter().any(|i| i.error) {
         Status::Error
-    } else if s.issues.is_empty() {
+    } else if s.issues.iter().all(|i| i.note) {
         Status::Ok
     } else {
         Status::Warning
@@ -436,7 +450,10 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     for w in &state.warnings {
         let text = w.to_string();
         let key = text.split(": ").next().unwrap_or(&text).to_string();
-        s.warning(key, text);
+        match w.severity() {
+            Severity::Note => s.note(key, text),
+            _ => s.warning(key, text),
+        }
     }
     Some(())
 }

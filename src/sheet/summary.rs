@@ -25,6 +25,9 @@ pub struct MessageCount {
     pub lines: Vec<u64>,
     /// Whether it is an error (the row was not computed) or a warning.
     pub error: bool,
+    /// Whether it is only a note (an optional input not given; the rows
+    /// stay `ok`).
+    pub note: bool,
 }
 
 /// What a sheet run did.
@@ -64,6 +67,8 @@ struct Entry {
     count: u64,
     lines: Vec<u64>,
     error: bool,
+    /// Some row had it as a warning (not an error, not a note).
+    warned: bool,
     order: usize,
 }
 
@@ -88,11 +93,18 @@ impl Tally {
             Status::Error => self.error += 1,
         }
         for issue in &s.issues {
-            self.count(&issue.key, 1, std::slice::from_ref(&line), issue.error);
+            let warned = !issue.error && !issue.note;
+            self.count(
+                &issue.key,
+                1,
+                std::slice::from_ref(&line),
+                issue.error,
+                warned,
+            );
         }
     }
 
-    fn count(&mut self, key: &str, n: u64, lines: &[u64], error: bool) {
+    fn count(&mut self, key: &str, n: u64, lines: &[u64], error: bool, warned: bool) {
         let order = self.kinds.len();
         let entry = if self.kinds.contains_key(key) || order < MAX_KINDS {
             self.kinds.entry(key.to_string()).or_insert(Entry {
@@ -104,6 +116,7 @@ impl Tally {
         };
         entry.count += n;
         entry.error |= error;
+        entry.warned |= warned;
         for l in lines {
             if entry.lines.len() < MAX_LINES {
                 entry.lines.push(*l);
@@ -120,12 +133,13 @@ impl Tally {
         let mut kinds: Vec<(String, Entry)> = other.kinds.into_iter().collect();
         kinds.sort_by_key(|(_, e)| e.order);
         for (k, e) in kinds {
-            self.count(&k, e.count, &e.lines, e.error);
+            self.count(&k, e.count, &e.lines, e.error, e.warned);
         }
         if other.other.count > 0 {
             let o = other.other;
             self.other.count += o.count;
             self.other.error |= o.error;
+            self.other.warned |= o.warned;
         }
     }
 
@@ -140,6 +154,7 @@ impl Tally {
                 count: e.count,
                 lines: e.lines,
                 error: e.error,
+                note: !e.error && !e.warned,
             })
             .collect();
         if self.other.count > 0 {
@@ -148,6 +163,7 @@ impl Tally {
                 count: self.other.count,
                 lines: self.other.lines,
                 error: self.other.error,
+                note: !self.other.error && !self.other.warned,
             });
         }
         Summary {
@@ -195,7 +211,13 @@ impl fmt::Display for Summary {
                     f,
                     "  {:>width$}  {} {} ({word} {}{more})",
                     m.count,
-                    if m.error { "error:" } else { "warning:" },
+                    if m.error {
+                        "error:"
+                    } else if m.note {
+                        "note:"
+                    } else {
+                        "warning:"
+                    },
                     m.message,
                     lines.join(", ")
                 )?;
