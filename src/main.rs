@@ -260,6 +260,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         other => flagged(other),
     })?;
     let water = sample.water().map_err(flagged)?;
+    sample.check_ph_scale(water.medium()).map_err(flagged)?;
     let root: RootChoice = a.root.parse().map_err(at_flag("--root"))?;
     // One sample: the precipitation potential's cost does not matter.
     let options = SolveOptions::default()

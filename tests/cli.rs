@@ -92,6 +92,8 @@ fn spaced_units_and_trade_units_are_read() {
         "117.79 mg/L as CaCO3",
         "--ph",
         "8.0402",
+        "--ph-scale",
+        "total",
         "--json",
     ]);
     assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
@@ -130,6 +132,8 @@ fn output_conditions_keep_dic_and_alkalinity() {
         "2300umol/kg",
         "--ph",
         "7.9",
+        "--ph-scale",
+        "total",
         "--output-temperature",
         "9",
         "--output-pressure",
@@ -452,4 +456,67 @@ fn a_reader_that_goes_away_ends_the_command_quietly() {
         let o = child.wait_with_output().expect("the binary ends");
         assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
     }
+}
+
+/// An oyster-hatchery intake (invented: S 28, 21 °C, alkalinity 1950
+/// µmol/kg, pH 7.92 from a hand-held meter). Without a scale the pH is
+/// refused in saline water, naming --ph-scale and how to choose; stated,
+/// the scale decides whether Ω aragonite passes 1.5 (the NBS reading gives
+/// less than 1.5, the same number on the total scale more: computed with
+/// this crate's constants, and the review found 1.35 and 1.72).
+#[test]
+fn a_saline_ph_without_its_scale_is_refused_and_the_scale_matters() {
+    let hatchery = |extra: &[&str]| {
+        let mut args = vec![
+            "solve",
+            "--temperature",
+            "21",
+            "--salinity",
+            "28",
+            "--alkalinity",
+            "1950umol/kg",
+            "--ph",
+            "7.92",
+            "--json",
+        ];
+        args.extend_from_slice(extra);
+        travertine(&args)
+    };
+    let o = hatchery(&[]);
+    assert_eq!(o.status.code(), Some(2));
+    let err = stderr(&o);
+    assert!(err.contains("--ph-scale"), "{err}");
+    assert!(
+        err.contains("nbs for a meter calibrated with NBS/IUPAC buffers"),
+        "{err}"
+    );
+    assert!(err.contains("total for spectrophotometric"), "{err}");
+    let omega = |scale: &str| {
+        let o = hatchery(&["--ph-scale", scale]);
+        assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+        let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+        v["omega_aragonite"].as_f64().unwrap()
+    };
+    let (nbs, total) = (omega("nbs"), omega("total"));
+    assert!(nbs < 1.5 && total > 1.5, "nbs {nbs}, total {total}");
+}
+
+/// In fresh water a pH without a scale is NBS, as before.
+#[test]
+fn a_fresh_ph_without_its_scale_is_nbs() {
+    let o = travertine(&[
+        "solve",
+        "--temperature",
+        "22",
+        "--water",
+        "fresh",
+        "--alkalinity",
+        "120 mg/L CaCO3",
+        "--ph",
+        "7.6",
+        "--json",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
+    assert!((v["ph_nbs"].as_f64().unwrap() - 7.6).abs() < 1e-9);
 }

@@ -313,3 +313,34 @@ fn the_sheet_writes_the_precipitation_potential_only_when_asked() {
     let v: serde_json::Value = serde_json::from_str(&json).unwrap();
     assert!(v["precipitation_potential_mg_l_caco3"].is_number());
 }
+
+/// A library call that gives a saline pH without its scale is solved on the
+/// total scale and says so with a warning of its own code; a stated scale
+/// raises none, and fresh water (NBS by definition) raises none.
+#[test]
+fn an_unstated_saline_ph_scale_is_a_stated_assumption() {
+    let sea = Water::saline(Conditions::new(21.0, 28.0).unwrap()).unwrap();
+    let ta = Measured::alkalinity_umol_kg(1950.0).unwrap();
+    let unstated = sea.solve(ta, Measured::ph(7.92, None).unwrap()).unwrap();
+    assert!(unstated
+        .warnings
+        .iter()
+        .any(|w| w.code() == "ph_scale_assumed_total"));
+    let stated = sea
+        .solve(
+            ta,
+            Measured::ph(7.92, Some(travertine::PhScale::Total)).unwrap(),
+        )
+        .unwrap();
+    assert!(!stated
+        .warnings
+        .iter()
+        .any(|w| w.code() == "ph_scale_assumed_total"));
+    assert_eq!(stated.ph_total, unstated.ph_total);
+    let pond = Water::fresh(Conditions::new(21.0, 0.2).unwrap()).unwrap();
+    let fresh = pond.solve(ta, Measured::ph(7.92, None).unwrap()).unwrap();
+    assert!(!fresh
+        .warnings
+        .iter()
+        .any(|w| w.code() == "ph_scale_assumed_total"));
+}

@@ -663,3 +663,46 @@ fn ocean_residuals_are_in_umol_per_kg() {
     let r: f64 = rows[1][k].parse().unwrap();
     assert!((r - 5.0).abs() < 1e-3, "{r}");
 }
+
+/// One plain `pH` column over a saline row and a fresh row (invented
+/// values): the fresh row reads it as NBS and is computed; the saline row
+/// is an error row that says how to state the scale, and the sheet goes on.
+#[test]
+fn a_plain_ph_in_a_saline_row_errored_and_the_fresh_row_is_computed() {
+    let (rows, summary) = run(
+        b"site,temperature_c,salinity,alkalinity_umol_kg,pH\n\
+          intake,21,28,1950,7.92\n\
+          pond,21,0.2,1950,7.92\n",
+        &default(),
+    );
+    assert_eq!((summary.error, summary.rows), (1, 2));
+    let (status, message) = outcome(&rows, 0);
+    assert_eq!(status, "error");
+    assert!(message.contains("pH scale is not stated"), "{message}");
+    assert!(message.contains("`pH (NBS)`"), "{message}");
+    assert!(message.contains("--ph-scale"), "{message}");
+    let (status, _) = outcome(&rows, 1);
+    assert_eq!(status, "ok");
+}
+
+/// `--set water=saline` with a plain `pH` column: every row would be
+/// refused, so the sheet stops before solving, with the same advice.
+#[test]
+fn a_plain_ph_column_in_saline_water_errored_before_solving() {
+    let options = default().with_set("water=saline").unwrap();
+    let e = fails(
+        b"temperature_c,salinity,alkalinity_umol_kg,pH\n21,28,1950,7.92\n",
+        &options,
+    );
+    let text = e.to_string();
+    assert!(text.contains("column `pH` in saline water"), "{text}");
+    assert!(text.contains("nbs for a meter"), "{text}");
+    assert_eq!(e.exit_code(), 2);
+    // Stated, it is computed (NBS in saline water carries its caution).
+    let options = options.with_set("ph_scale=nbs").unwrap();
+    let (rows, summary) = run(
+        b"temperature_c,salinity,alkalinity_umol_kg,pH\n21,28,1950,7.92\n",
+        &options,
+    );
+    assert_eq!(summary.error, 0, "{:?}", outcome(&rows, 0));
+}

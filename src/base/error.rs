@@ -7,6 +7,14 @@
 pub use super::field::Field;
 use thiserror::Error;
 
+/// Why a pH needs its scale in saline water, and how to choose it: the
+/// text of [`Error::UnstatedPhScale`], for front ends that say it before
+/// any value is read.
+pub const PH_SCALE_ADVICE: &str = "the pH scale is not stated, and it changes the answer (NBS \
+     and total differ by about 0.1 to 0.15 pH in sea water); state it: nbs for a meter \
+     calibrated with NBS/IUPAC buffers, total for spectrophotometric or Tris-buffer work, \
+     seawater or free where the method reports those";
+
 /// The result type of this crate.
 pub type Result<T> = std::result::Result<T, Error>;
 
@@ -138,6 +146,15 @@ pub enum Error {
         /// The accepted names.
         accepted: String,
     },
+    /// A pH was given in saline water without its scale. Between the NBS
+    /// scale of a glass electrode and the total scale of spectrophotometric
+    /// work lie about 0.1 to 0.15 pH, which moves Ω by a quarter or more,
+    /// so the scale is never assumed there.
+    #[error("pH {ph} in saline water: {}", PH_SCALE_ADVICE)]
+    UnstatedPhScale {
+        /// The pH given.
+        ph: f64,
+    },
     /// An input that is required was not given.
     #[error("{field} is required and was not given")]
     Missing {
@@ -201,6 +218,8 @@ pub enum ErrorKind {
     WrongMedium,
     /// [`Error::UnknownChoice`].
     UnknownChoice,
+    /// [`Error::UnstatedPhScale`].
+    UnstatedPhScale,
     /// [`Error::Missing`].
     Missing,
     /// [`Error::WrongCount`].
@@ -229,6 +248,7 @@ impl ErrorKind {
             ErrorKind::UnknownFit => "unknown_fit",
             ErrorKind::WrongMedium => "wrong_medium",
             ErrorKind::UnknownChoice => "unknown_choice",
+            ErrorKind::UnstatedPhScale => "unstated_ph_scale",
             ErrorKind::Missing => "missing",
             ErrorKind::WrongCount => "wrong_count",
             ErrorKind::Computation => "computation",
@@ -280,6 +300,7 @@ impl Error {
             Error::UnknownFit { .. } => ErrorKind::UnknownFit,
             Error::WrongMedium { .. } => ErrorKind::WrongMedium,
             Error::UnknownChoice { .. } => ErrorKind::UnknownChoice,
+            Error::UnstatedPhScale { .. } => ErrorKind::UnstatedPhScale,
             Error::Missing { .. } => ErrorKind::Missing,
             Error::WrongCount { .. } => ErrorKind::WrongCount,
             Error::Computation { .. } => ErrorKind::Computation,
@@ -306,6 +327,7 @@ impl Error {
             | Error::WrongCount { field, .. }
             | Error::Computation { field, .. } => Some(*field),
             Error::UnknownFit { constant, .. } => Some(*constant),
+            Error::UnstatedPhScale { .. } => Some(Field::PhScale),
             Error::IncompatiblePair { first, .. }
             | Error::NoWaterFits { first, .. }
             | Error::NoConvergence { first, .. } => Some(*first),
@@ -374,6 +396,7 @@ mod tests {
             ErrorKind::UnknownFit,
             ErrorKind::WrongMedium,
             ErrorKind::UnknownChoice,
+            ErrorKind::UnstatedPhScale,
             ErrorKind::Missing,
             ErrorKind::WrongCount,
             ErrorKind::Computation,

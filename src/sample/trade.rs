@@ -230,6 +230,37 @@ impl Sample {
         self.carbon_value(p).map(|v| v.measured(p, self.ph_scale))
     }
 
+    /// Refuses a pH without its scale in saline water ([`Error::UnstatedPhScale`]):
+    /// there the NBS and total scales differ by about 0.1 to 0.15 pH, so the
+    /// scale is never assumed. In fresh water a pH without a scale is NBS
+    /// (the activity scale). A scale is stated by the pH value itself (a
+    /// header such as `pH (NBS)`) or by [`Sample::ph_scale`].
+    ///
+    /// # Errors
+    /// [`Error::UnstatedPhScale`] in saline water.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, Sample};
+    /// use travertine::{Medium, Parameter};
+    /// let mut s = Sample::new(21.0);
+    /// s.set(Input::Carbon(Parameter::Ph), "7.92")?;
+    /// assert!(s.check_ph_scale(Medium::Saline).is_err());
+    /// assert!(s.check_ph_scale(Medium::Fresh).is_ok());
+    /// s.set(Input::PhScale, "nbs")?;
+    /// assert!(s.check_ph_scale(Medium::Saline).is_ok());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn check_ph_scale(&self, medium: Medium) -> Result<()> {
+        match self.carbon_value(Parameter::Ph) {
+            Some(CarbonValue::Ph(ph, None))
+                if medium == Medium::Saline && self.ph_scale.is_none() =>
+            {
+                Err(Error::UnstatedPhScale { ph })
+            }
+            _ => Ok(()),
+        }
+    }
+
     /// The measured pair: exactly two carbonate parameters given, which
     /// can be used together.
     ///

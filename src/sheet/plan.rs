@@ -7,12 +7,19 @@ use super::columns::UnitSystem;
 use super::header::{self, Column, Reading, Recognition};
 use super::pair::{choose_pair, rank, RANKING};
 use super::{SheetError, SheetOptions};
+use crate::base::error::PH_SCALE_ADVICE;
 use crate::output::Output;
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::Parameter;
+use crate::sample::values::MediumChoice;
 use crate::sample::Sample;
 use crate::solve::SolveOptions;
+
+/// How a sheet states the scale of a pH.
+pub(crate) const STATE_THE_SCALE: &str = "in a sheet, name the scale in the pH header (for \
+     example `pH (NBS)` or `ph_total`), or give it for every row with --ph-scale NAME or --set \
+     ph_scale=NAME";
 
 /// A recognised column of the sheet.
 #[derive(Debug, Clone)]
@@ -209,6 +216,28 @@ impl Plan {
                     read[*j].header,
                     s.name()
                 )));
+            }
+        }
+
+        // Saline water in every row (--water saline) and a pH column that
+        // names no scale, with none given: every row with a pH would be
+        // refused, so the sheet stops before solving.
+        let medium_column = labels
+            .iter()
+            .any(|(f, l)| *f == Input::Medium && matches!(l, Label::Column(_)));
+        let scale_given = labels.iter().any(|(f, _)| *f == Input::PhScale);
+        if template.medium == MediumChoice::Saline && !medium_column && !scale_given {
+            if let Some(Label::Column(j)) = labels
+                .iter()
+                .find(|(f, _)| *f == Input::Carbon(Parameter::Ph))
+                .map(|(_, l)| l)
+            {
+                if read[*j].column.reading == Reading::Ph(None) {
+                    return Err(SheetError::Missing(format!(
+                        "column `{}` in saline water: {PH_SCALE_ADVICE}; {STATE_THE_SCALE}",
+                        read[*j].header
+                    )));
+                }
             }
         }
 

@@ -3,7 +3,7 @@
 use super::cell;
 use super::columns::UnitSystem;
 use super::pair::{choose_pair, rank, RANKING};
-use super::plan::{Label, Plan};
+use super::plan::{Label, Plan, STATE_THE_SCALE};
 use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::base::warning::Severity;
@@ -344,6 +344,17 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
             return None;
         }
     };
+    if let Err(e) = inputs.check_ph_scale(water.medium()) {
+        let column = match plan.label(Input::Carbon(Parameter::Ph)) {
+            Some(Label::Column(i)) => format!("column `{}`: ", plan.read[*i].header),
+            _ => String::new(),
+        };
+        s.error(
+            format!("{column}pH scale not stated in saline water"),
+            format!("{column}{e}; {STATE_THE_SCALE}"),
+        );
+        return None;
+    }
     let mut present = [false; 9];
     for (i, v) in inputs.carbon.iter().enumerate() {
         present[i] = v.is_some();

@@ -189,6 +189,16 @@ pub(crate) fn to_working(k: &Constants, m: &Measured, warnings: &mut Warnings) -
     let rho = k.density_kg_m3();
     match (m.parameter(), m.value()) {
         (_, MeasuredValue::Ph(ph, scale)) => {
+            // In saline water the scale changes the answer: a library call
+            // that leaves it out is solved on the total scale, and says so
+            // (the command line and the sheet refuse it instead).
+            if scale.is_none() && k.working_scale() == PhScale::Total {
+                warnings.push(Warning::Note {
+                    code: "ph_scale_assumed_total",
+                    text: "pH without a scale in saline water is taken on the total scale; state \
+                     the scale (NBS and total differ by about 0.1 to 0.15 pH)",
+                });
+            }
             let scale = scale.unwrap_or(k.working_scale());
             if k.working_scale() == PhScale::Nbs
                 && matches!(scale, PhScale::Total | PhScale::Seawater)

@@ -114,8 +114,9 @@ pub const INPUTS: &[InputSpec] = &[
         Input::PhScale,
         "ph-scale",
         "ph_scale",
-        "Scale of a pH that names none: total, seawater, free or nbs (default: nbs in fresh \
-         water, total in saline water)",
+        "Scale of a pH that names none: total, seawater, free or nbs. Fresh water: nbs if \
+         not given. Saline water: must be stated (nbs for a meter calibrated with NBS/IUPAC \
+         buffers, total for spectrophotometric or Tris-buffer work)",
         [("ph scale", Plain)]
     ),
     spec!(
