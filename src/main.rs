@@ -78,12 +78,14 @@ struct SolveArgs {
     /// inputs (`travertine::sample::inputs::INPUTS`).
     #[command(flatten)]
     inputs: SampleArgs,
-    /// Report the state at this temperature (°C), keeping alkalinity, DIC and totals.
+    /// Give the answers at this temperature (°C), keeping alkalinity, DIC and
+    /// totals; the state as measured follows in a short block.
     #[arg(long, allow_hyphen_values = true)]
-    output_temperature: Option<f64>,
-    /// Report the state at this gauge pressure (dbar), keeping alkalinity, DIC and totals.
+    at_temperature: Option<f64>,
+    /// Give the answers at this gauge pressure (dbar), keeping alkalinity, DIC
+    /// and totals; the state as measured follows in a short block.
     #[arg(long, allow_hyphen_values = true)]
-    output_pressure: Option<f64>,
+    at_pressure: Option<f64>,
     /// Which root where two waters fit (alkalinity with CO3, DIC with HCO3): natural, lower-ph, higher-ph.
     #[arg(long, default_value = "natural")]
     root: String,
@@ -270,35 +272,39 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         .solve_with(first, second, &options)
         .map_err(at_flag(&pair_flags))?;
 
-    let reported = if a.output_temperature.is_some() || a.output_pressure.is_some() {
+    let reported = if a.at_temperature.is_some() || a.at_pressure.is_some() {
         let mut c = *water.conditions();
-        if let Some(t) = a.output_temperature {
+        if let Some(t) = a.at_temperature {
             c = c
                 .with_temperature_c(t)
-                .map_err(at_flag("--output-temperature"))?;
+                .map_err(at_flag("--at-temperature"))?;
         }
-        if let Some(p) = a.output_pressure {
-            c = c
-                .with_pressure_dbar(p)
-                .map_err(at_flag("--output-pressure"))?;
+        if let Some(p) = a.at_pressure {
+            c = c.with_pressure_dbar(p).map_err(at_flag("--at-pressure"))?;
         }
         Some(
             state
                 .at_with(c, &options)
-                .map_err(at_flag("--output-temperature"))?,
+                .map_err(at_flag("--at-temperature"))?,
         )
     } else {
         None
     };
-    Ok(render(&state, reported.as_ref(), a.json))
+    Ok(render(&state, reported.as_ref(), a.json, sample.ph_scale))
 }
 
-fn render(measured: &State, reported: Option<&State>, json: bool) -> String {
+fn render(
+    measured: &State,
+    reported: Option<&State>,
+    json: bool,
+    ph_scale: Option<travertine::PhScale>,
+) -> String {
+    use travertine::output::{json as to_json, table_on_scale};
     match (json, reported) {
-        (true, None) => travertine::output::json(measured, None),
-        (true, Some(r)) => travertine::output::json(r, Some(measured)),
-        (false, None) => travertine::output::table(measured, None),
-        (false, Some(r)) => travertine::output::table(r, Some(measured)),
+        (true, None) => to_json(measured, None),
+        (true, Some(r)) => to_json(r, Some(measured)),
+        (false, None) => table_on_scale(measured, None, ph_scale),
+        (false, Some(r)) => table_on_scale(r, Some(measured), ph_scale),
     }
 }
 

@@ -134,9 +134,9 @@ fn output_conditions_keep_dic_and_alkalinity() {
         "7.9",
         "--ph-scale",
         "total",
-        "--output-temperature",
+        "--at-temperature",
         "9",
-        "--output-pressure",
+        "--at-pressure",
         "120",
         "--json",
     ]);
@@ -519,4 +519,57 @@ fn a_fresh_ph_without_its_scale_is_nbs() {
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
     assert!((v["ph_nbs"].as_f64().unwrap() - 7.6).abs() < 1e-9);
+}
+
+/// The table leads with what the user of each medium asks first, and with
+/// --at-temperature gives the requested conditions first and the state as
+/// measured in a short block beneath; the old option names are gone.
+#[test]
+fn the_table_leads_with_the_key_figures_of_its_medium() {
+    let pond = travertine(&[
+        "solve",
+        "--temperature",
+        "22",
+        "--water",
+        "fresh",
+        "--calcium",
+        "48 mg/L Ca",
+        "--alkalinity",
+        "120 mg/L CaCO3",
+        "--ph",
+        "7.6",
+        "--at-temperature",
+        "30",
+    ]);
+    assert_eq!(pond.status.code(), Some(0), "{}", stderr(&pond));
+    let text = stdout(&pond);
+    let lines: Vec<&str> = text.lines().collect();
+    assert!(lines[0].starts_with("fresh water at 30 °C"), "{text}");
+    assert_eq!(lines[2], "Key figures");
+    for (line, label) in lines[3..9].iter().zip([
+        "pH, NBS scale",
+        "free CO2",
+        "pCO2",
+        "alkalinity",
+        "calcite SI",
+        "Langelier index",
+    ]) {
+        assert!(line.trim_start().starts_with(label), "{line} / {label}");
+    }
+    let measured = text
+        .find("As measured: fresh water at 22 °C")
+        .expect("a measured block");
+    assert!(measured > text.find("Medium").unwrap_or(0), "{text}");
+    let old = travertine(&[
+        "solve",
+        "--temperature",
+        "22",
+        "--alkalinity",
+        "120 mg/L CaCO3",
+        "--ph",
+        "7.6",
+        "--output-temperature",
+        "30",
+    ]);
+    assert_eq!(old.status.code(), Some(2));
 }

@@ -8,4 +8,4 @@ mod table;
 
 pub use fields::{Output, Place, Section, Value};
 pub use json::json;
-pub use table::table;
+pub use table::{key_figures, table, table_on_scale};

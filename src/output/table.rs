@@ -1,19 +1,65 @@
 //! Human-readable output: an aligned table with units.
 
 use super::fields::{Output, Place, Section, Value};
+use crate::properties::scales::PhScale;
+use crate::sample::Medium;
 use crate::state::State;
 use std::fmt::Write;
 
+/// What the user of each medium asks first, in that order: the key figures
+/// that open the table, and the block of the state as measured.
+///
+/// - fresh water: pH (NBS), free CO2 in mg/L, pCO2, alkalinity in mg/L as
+///   CaCO3, the calcite saturation index and the Langelier index;
+/// - saline water: pH on `scale` (the scale of the input; total where none
+///   was given), pCO2, Ω aragonite and calcite, DIC and alkalinity.
+///
+/// ```
+/// use travertine::{output::{key_figures, Output}, Medium, PhScale};
+/// assert_eq!(key_figures(Medium::Fresh, PhScale::Nbs)[1], Output::FreeCo2MgL);
+/// assert_eq!(key_figures(Medium::Saline, PhScale::Nbs)[0], Output::PhNbs);
+/// ```
+pub fn key_figures(medium: Medium, scale: PhScale) -> [Output; 6] {
+    use Output::*;
+    match medium {
+        Medium::Fresh => [PhNbs, FreeCo2MgL, Pco2, AlkalinityMgL, SiCalcite, Langelier],
+        _ => [
+            match scale {
+                PhScale::Total => PhTotal,
+                PhScale::Seawater => PhSeawater,
+                PhScale::Free => PhFree,
+                PhScale::Nbs => PhNbs,
+            },
+            Pco2,
+            OmegaAragonite,
+            OmegaCalcite,
+            DicUmolKg,
+            AlkalinityUmolKg,
+        ],
+    }
+}
+
+/// The label of an output in the table of a medium.
+fn label_in(o: Output, medium: Medium) -> &'static str {
+    match o.place(medium) {
+        Place::Labelled(label) => label,
+        _ => o.label(),
+    }
+}
+
 /// The sections of the table of a state, each with its rows in order: the
-/// outputs its medium shows (see [`Output::place`]) and their labels.
-/// Sections without a row are left out.
-fn rows(s: &State) -> Vec<(Section, Vec<(Output, &'static str)>)> {
+/// outputs its medium shows (see [`Output::place`]) and their labels, less
+/// the key figures shown above them. Sections without a row are left out.
+fn rows(s: &State, key: &[Output]) -> Vec<(Section, Vec<(Output, &'static str)>)> {
     Section::ALL
         .iter()
         .filter_map(|&section| {
             let mut first = Vec::new();
             let mut rest = Vec::new();
-            for &o in Output::ALL.iter().filter(|o| o.section() == section) {
+            for &o in Output::ALL
+                .iter()
+                .filter(|o| o.section() == section && !key.contains(o))
+            {
                 match o.place(s.medium) {
                     Place::Hidden => {}
                     Place::First => first.push((o, o.label())),
@@ -51,8 +97,8 @@ fn header(s: &State) -> String {
     h
 }
 
-/// An aligned table of a state, with units. When `measured` is given (the
-/// state at the conditions of measurement), both are shown side by side.
+/// An aligned table of a state, with units, as [`table_on_scale`] with the
+/// pH of saline water on the total scale.
 ///
 /// # Example
 /// ```
@@ -65,35 +111,70 @@ fn header(s: &State) -> String {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn table(state: &State, measured: Option<&State>) -> String {
+    table_on_scale(state, measured, None)
+}
+
+/// An aligned table of a state, with units: a header line with the
+/// conditions, the key figures of its medium ([`key_figures`], the pH of
+/// saline water on `ph_scale`, the scale of the input), then the detail by
+/// section, the fits used and the warnings. When `measured` is given (the
+/// same water at the conditions it was measured at), the table is of the
+/// requested conditions and a short block beneath gives the key figures as
+/// measured.
+///
+/// ```
+/// use travertine::{output::table_on_scale, Conditions, Measured, PhScale, Water};
+/// let lab = Water::saline(Conditions::new(25.0, 33.0)?)?
+///     .solve(Measured::ph(7.95, Some(PhScale::Nbs))?, Measured::alkalinity_umol_kg(2250.0)?)?;
+/// let field = lab.at(Conditions::new(9.0, 33.0)?.with_pressure_dbar(120.0)?)?;
+/// let t = table_on_scale(&field, Some(&lab), Some(PhScale::Nbs));
+/// let key = t.find("Key figures").unwrap();
+/// let measured = t.find("As measured").unwrap();
+/// assert!(key < measured);
+/// assert!(t.lines().nth(3).unwrap().contains("pH, NBS scale"));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn table_on_scale(
+    state: &State,
+    measured: Option<&State>,
+    ph_scale: Option<PhScale>,
+) -> String {
     let mut out = String::new();
-    let sections = rows(state);
+    let key = key_figures(state.medium, ph_scale.unwrap_or(PhScale::Total));
+    let sections = rows(state, &key);
     let label_w = sections
         .iter()
         .flat_map(|(_, r)| r.iter().map(|(_, label)| label.chars().count()))
+        .chain(
+            key.iter()
+                .map(|o| label_in(*o, state.medium).chars().count()),
+        )
         .max()
         .unwrap_or(10)
         + 2;
+    let line = |o: Output, label: &str, s: &State| {
+        let mut line = format!("  {label:<label_w$}{:>14}", cell(o, s));
+        if !o.unit().is_empty() {
+            line.push_str("  ");
+            line.push_str(o.unit());
+        }
+        line.trim_end().to_string()
+    };
     let _ = writeln!(out, "{}", header(state));
-    if let Some(m) = measured {
-        let _ = writeln!(out, "measured at: {}", header(m));
-        let _ = writeln!(
-            out,
-            "\n  {:<label_w$}{:>14}{:>14}",
-            "", "reported", "as measured"
-        );
+    let _ = writeln!(out, "\nKey figures");
+    for &o in &key {
+        let _ = writeln!(out, "{}", line(o, label_in(o, state.medium), state));
     }
     for (section, rs) in &sections {
         let _ = writeln!(out, "\n{}", section.title());
         for &(o, label) in rs {
-            let mut line = format!("  {label:<label_w$}{:>14}", cell(o, state));
-            if let Some(m) = measured {
-                line.push_str(&format!("{:>14}", cell(o, m)));
-            }
-            if !o.unit().is_empty() {
-                line.push_str("  ");
-                line.push_str(o.unit());
-            }
-            let _ = writeln!(out, "{}", line.trim_end());
+            let _ = writeln!(out, "{}", line(o, label, state));
+        }
+    }
+    if let Some(m) = measured {
+        let _ = writeln!(out, "\nAs measured: {}", header(m));
+        for &o in &key_figures(m.medium, ph_scale.unwrap_or(PhScale::Total)) {
+            let _ = writeln!(out, "{}", line(o, label_in(o, m.medium), m));
         }
     }
     let c = &state.fits_used;
