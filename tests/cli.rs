@@ -573,3 +573,61 @@ fn the_table_leads_with_the_key_figures_of_its_medium() {
     ]);
     assert_eq!(old.status.code(), Some(2));
 }
+
+/// Inputs that saline water would drop are refused, not ignored; a calcium
+/// fraction without a hardness, and calcium above the total hardness, are
+/// refused with the reason.
+#[test]
+fn ignored_or_contradictory_inputs_are_refused() {
+    let sea = |extra: &[&str]| {
+        let mut args = sea_solve_args();
+        args.extend_from_slice(extra);
+        travertine(&args)
+    };
+    for (flag, value) in [
+        ("--tds", "300 mg/L"),
+        ("--ionic-strength", "0.01"),
+        ("--hardness", "100 mg/L CaCO3"),
+        ("--magnesium", "10 mg/L Mg"),
+    ] {
+        let o = sea(&[flag, value]);
+        assert_eq!(o.status.code(), Some(2), "{flag}");
+        let err = stderr(&o);
+        assert!(
+            err.contains(flag) && err.contains("fresh water only"),
+            "{err}"
+        );
+    }
+    let pond = |extra: &[&str]| {
+        let mut args = vec![
+            "solve",
+            "--temperature",
+            "22",
+            "--water",
+            "fresh",
+            "--alkalinity",
+            "120 mg/L CaCO3",
+            "--ph",
+            "7.6",
+        ];
+        args.extend_from_slice(extra);
+        travertine(&args)
+    };
+    let o = pond(&["--calcium-fraction", "0.6"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--hardness"), "{}", stderr(&o));
+    let o = pond(&[
+        "--calcium",
+        "120 mg/L CaCO3",
+        "--hardness",
+        "100 mg/L CaCO3",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        stderr(&o).contains("more than the total hardness"),
+        "{}",
+        stderr(&o)
+    );
+    let o = pond(&["--calcium", "80 mg/L CaCO3", "--hardness", "100 mg/L CaCO3"]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+}

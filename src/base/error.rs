@@ -155,11 +155,23 @@ pub enum Error {
         /// The pH given.
         ph: f64,
     },
+    /// Two inputs that contradict each other.
+    #[error("{first} and {second} disagree: {reason}")]
+    Inconsistent {
+        /// The first input.
+        first: Field,
+        /// The second input.
+        second: Field,
+        /// How they disagree.
+        reason: &'static str,
+    },
     /// An input that is required was not given.
-    #[error("{field} is required and was not given")]
+    #[error("{field} is required and was not given{why}")]
     Missing {
         /// The field.
         field: Field,
+        /// Why it is needed, with a leading "; " (may be empty).
+        why: &'static str,
     },
     /// The wrong number of values of one kind was given.
     #[error("give exactly {} {what}; {given} given", in_words(*.wanted))]
@@ -220,6 +232,8 @@ pub enum ErrorKind {
     UnknownChoice,
     /// [`Error::UnstatedPhScale`].
     UnstatedPhScale,
+    /// [`Error::Inconsistent`].
+    Inconsistent,
     /// [`Error::Missing`].
     Missing,
     /// [`Error::WrongCount`].
@@ -249,6 +263,7 @@ impl ErrorKind {
             ErrorKind::WrongMedium => "wrong_medium",
             ErrorKind::UnknownChoice => "unknown_choice",
             ErrorKind::UnstatedPhScale => "unstated_ph_scale",
+            ErrorKind::Inconsistent => "inconsistent",
             ErrorKind::Missing => "missing",
             ErrorKind::WrongCount => "wrong_count",
             ErrorKind::Computation => "computation",
@@ -301,6 +316,7 @@ impl Error {
             Error::WrongMedium { .. } => ErrorKind::WrongMedium,
             Error::UnknownChoice { .. } => ErrorKind::UnknownChoice,
             Error::UnstatedPhScale { .. } => ErrorKind::UnstatedPhScale,
+            Error::Inconsistent { .. } => ErrorKind::Inconsistent,
             Error::Missing { .. } => ErrorKind::Missing,
             Error::WrongCount { .. } => ErrorKind::WrongCount,
             Error::Computation { .. } => ErrorKind::Computation,
@@ -323,12 +339,13 @@ impl Error {
             | Error::WrongUnit { field, .. }
             | Error::UnknownChoice { field, .. }
             | Error::WrongMedium { field, .. }
-            | Error::Missing { field }
+            | Error::Missing { field, .. }
             | Error::WrongCount { field, .. }
             | Error::Computation { field, .. } => Some(*field),
             Error::UnknownFit { constant, .. } => Some(*constant),
             Error::UnstatedPhScale { .. } => Some(Field::PhScale),
             Error::IncompatiblePair { first, .. }
+            | Error::Inconsistent { first, .. }
             | Error::NoWaterFits { first, .. }
             | Error::NoConvergence { first, .. } => Some(*first),
         }
@@ -397,6 +414,7 @@ mod tests {
             ErrorKind::WrongMedium,
             ErrorKind::UnknownChoice,
             ErrorKind::UnstatedPhScale,
+            ErrorKind::Inconsistent,
             ErrorKind::Missing,
             ErrorKind::WrongCount,
             ErrorKind::Computation,

@@ -265,6 +265,18 @@ pub struct Quantity {
     pub unit: Unit,
 }
 
+/// The number and its unit as a user writes them: `48 mg/L Ca`.
+///
+/// ```
+/// use travertine::units::{Quantity, Unit};
+/// assert_eq!(Quantity::new(48.0, Unit::MgPerLCa).to_string(), "48 mg/L Ca");
+/// ```
+impl std::fmt::Display for Quantity {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(f, "{} {}", self.value, self.unit.spelling())
+    }
+}
+
 /// Lists units for a message.
 pub fn list_units(units: &[Unit]) -> String {
     units

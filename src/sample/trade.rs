@@ -322,6 +322,7 @@ impl Sample {
     pub fn water(&self) -> Result<Water> {
         let t = self.temperature_c.ok_or(Error::Missing {
             field: Field::Temperature,
+            why: "",
         })?;
         let mut spc = None;
         let mut salinity = self.salinity;
@@ -380,6 +381,54 @@ impl Sample {
                 hint: "saline constants are stoichiometric and need no activity model; drop \
                        the option, or choose --water fresh",
             });
+        } else {
+            // Inputs that only set a fresh water's ionic strength would be
+            // dropped in saline water, where salinity sets it: refused, not
+            // ignored.
+            let fresh_only = [
+                (Field::Tds, self.tds_mg_l.map(|v| format!("{v} mg/L"))),
+                (
+                    Field::IonicStrength,
+                    self.ionic_strength.map(|v| format!("{v} mol/kg")),
+                ),
+                (
+                    Field::Hardness,
+                    self.total(Total::Hardness).map(|q| q.to_string()),
+                ),
+                (
+                    Field::Magnesium,
+                    self.total(Total::Magnesium).map(|q| q.to_string()),
+                ),
+                (
+                    Field::Sodium,
+                    self.total(Total::Sodium).map(|q| q.to_string()),
+                ),
+                (
+                    Field::Potassium,
+                    self.total(Total::Potassium).map(|q| q.to_string()),
+                ),
+                (
+                    Field::Chloride,
+                    self.total(Total::Chloride).map(|q| q.to_string()),
+                ),
+            ];
+            if let Some((field, Some(name))) = fresh_only.into_iter().find(|(_, v)| v.is_some()) {
+                return Err(Error::WrongMedium {
+                    field,
+                    name,
+                    medium: "fresh",
+                    hint: "in saline water the ionic strength and the major ions follow from \
+                           salinity, so this would not be used; drop it, or choose --water \
+                           fresh",
+                });
+            }
+        }
+        if self.calcium_fraction.is_some() && self.total(Total::Hardness).is_none() {
+            return Err(Error::Missing {
+                field: Field::Hardness,
+                why: "; a calcium fraction is a fraction of the total hardness: give the \
+                      hardness too, or give calcium itself",
+            });
         }
         let mut fits = Fits::default();
         if let Some(f) = self.carbonic {
@@ -412,6 +461,20 @@ impl Sample {
             comp = comp.with_calcium(a)?;
         }
         if let Some(h) = amount(Total::Hardness, self.total(Total::Hardness))? {
+            // Calcium is part of the total hardness; more calcium than
+            // hardness is a slip in one of them. Compared at 1 kg/L, with
+            // 1 % to spare for the per-litre and per-kilogram bases.
+            if let Some(ca) = amount(Total::Calcium, self.total(Total::Calcium))? {
+                if ca.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
+                    return Err(Error::Inconsistent {
+                        first: Field::Calcium,
+                        second: Field::Hardness,
+                        reason: "calcium is more than the total hardness, of which it is a part; \
+                                 check both (calcium hardness and total hardness are both \
+                                 written as mg/L CaCO3)",
+                    });
+                }
+            }
             match self.calcium_fraction {
                 Some(f) => {
                     check_range(Field::CalciumFraction, f, 0.0, 1.0, "")?;
