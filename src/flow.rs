@@ -424,8 +424,8 @@ fn solve_fresh(
     } = settled.sol;
     basis.attach_warnings(&mut k);
     add_route_warnings(water, basis.route, k.ionic_strength(), &mut warnings);
-    let extras = basis.fresh_figures(&k, h, dic, options, &mut warnings);
-    State::build_fresh(water, &k, h, dic, warnings, extras, (&a, &b))
+    let figures = basis.fresh_figures(&k, h, dic, options, &mut warnings);
+    State::build_fresh(water, &k, h, dic, warnings, figures, (&a, &b))
 }
 
 /// In the overlap of the two media (the caller checks the salinity), the

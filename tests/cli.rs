@@ -501,10 +501,10 @@ fn a_saline_ph_without_its_scale_is_refused_and_the_scale_matters() {
     assert!(nbs < 1.5 && total > 1.5, "nbs {nbs}, total {total}");
 }
 
-/// In fresh water a pH without a scale is NBS, as before.
-#[test]
-fn a_fresh_ph_without_its_scale_is_nbs() {
-    let o = travertine(&[
+/// A solve of an invented pond (22 °C, fresh, alkalinity 120 mg/L as
+/// CaCO3, pH 7.6), with more flags.
+fn pond_solve(extra: &[&str]) -> Output {
+    let mut args = vec![
         "solve",
         "--temperature",
         "22",
@@ -514,8 +514,15 @@ fn a_fresh_ph_without_its_scale_is_nbs() {
         "120 mg/L CaCO3",
         "--ph",
         "7.6",
-        "--json",
-    ]);
+    ];
+    args.extend_from_slice(extra);
+    travertine(&args)
+}
+
+/// In fresh water a pH without a scale is NBS, as before.
+#[test]
+fn a_fresh_ph_without_its_scale_is_nbs() {
+    let o = pond_solve(&["--json"]);
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     let v: serde_json::Value = serde_json::from_str(&stdout(&o)).unwrap();
     assert!((v["ph_nbs"].as_f64().unwrap() - 7.6).abs() < 1e-9);
@@ -526,21 +533,7 @@ fn a_fresh_ph_without_its_scale_is_nbs() {
 /// measured in a short block beneath; the old option names are gone.
 #[test]
 fn the_table_leads_with_the_key_figures_of_its_medium() {
-    let pond = travertine(&[
-        "solve",
-        "--temperature",
-        "22",
-        "--water",
-        "fresh",
-        "--calcium",
-        "48 mg/L Ca",
-        "--alkalinity",
-        "120 mg/L CaCO3",
-        "--ph",
-        "7.6",
-        "--at-temperature",
-        "30",
-    ]);
+    let pond = pond_solve(&["--calcium", "48 mg/L Ca", "--at-temperature", "30"]);
     assert_eq!(pond.status.code(), Some(0), "{}", stderr(&pond));
     let text = stdout(&pond);
     let lines: Vec<&str> = text.lines().collect();
@@ -598,21 +591,7 @@ fn ignored_or_contradictory_inputs_are_refused() {
             "{err}"
         );
     }
-    let pond = |extra: &[&str]| {
-        let mut args = vec![
-            "solve",
-            "--temperature",
-            "22",
-            "--water",
-            "fresh",
-            "--alkalinity",
-            "120 mg/L CaCO3",
-            "--ph",
-            "7.6",
-        ];
-        args.extend_from_slice(extra);
-        travertine(&args)
-    };
+    let pond = pond_solve;
     let o = pond(&["--calcium-fraction", "0.6"]);
     assert_eq!(o.status.code(), Some(2));
     assert!(stderr(&o).contains("--hardness"), "{}", stderr(&o));

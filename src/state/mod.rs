@@ -256,17 +256,17 @@ impl State {
         Self::build_fresh_or_saline(water, k, h, dic, warnings, None, a, b)
     }
 
-    /// Builds a fresh-water state with its extras.
+    /// Builds a fresh-water state with its figures.
     pub(crate) fn build_fresh(
         water: &Water,
         k: &Constants,
         h: f64,
         dic: f64,
         warnings: Warnings,
-        extras: FreshFigures,
+        figures: FreshFigures,
         (a, b): (&Measured, &Measured),
     ) -> Result<State> {
-        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(extras), a, b)
+        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(figures), a, b)
     }
 
     // The two measurements are passed apart from the rest so that the
@@ -279,7 +279,7 @@ impl State {
         h: f64,
         dic: f64,
         warnings: Warnings,
-        extras: Option<FreshFigures>,
+        figures: Option<FreshFigures>,
         a: &Measured,
         b: &Measured,
     ) -> Result<State> {
@@ -317,7 +317,7 @@ impl State {
         // The constants' warnings first.
         let all = warnings.after(k.warnings());
         let u = 1e6;
-        let fresh = extras.is_some();
+        let fresh = figures.is_some();
         let fresh_only = |v: f64| fresh.then_some(v);
         Ok(State {
             temperature_c: k.conditions().temperature_c(),
@@ -357,13 +357,13 @@ impl State {
             cahco3_umol_kg: fresh_only((hco3_t - hco3) * u).filter(|_| ca_known),
             caco3_pair_umol_kg: fresh_only((co3_t - co3) * u).filter(|_| ca_known),
             ionic_strength: k.ionic_strength(),
-            ionic_strength_from: extras.map(|e| e.ionic_strength_from),
-            charge_balance_percent: extras.and_then(|e| e.charge_balance_percent),
+            ionic_strength_from: figures.map(|e| e.ionic_strength_from),
+            charge_balance_percent: figures.and_then(|e| e.charge_balance_percent),
             gamma_monovalent: k.gammas().map(|g| g.monovalent),
             gamma_divalent: k.gammas().map(|g| g.carbonate),
-            saturation_ph_nbs: extras.and_then(|e| e.saturation_ph_nbs),
-            langelier_index: extras.and_then(|e| e.langelier_index),
-            precipitation_potential_mg_l_caco3: extras
+            saturation_ph_nbs: figures.and_then(|e| e.saturation_ph_nbs),
+            langelier_index: figures.and_then(|e| e.langelier_index),
+            precipitation_potential_mg_l_caco3: figures
                 .and_then(|e| e.precipitation_potential_mg_l_caco3),
             alkalinity_mg_l_caco3: ta * rho * CACO3_G_EQ,
             dic_mg_l_c: dic * rho * C_G_MOL,
