@@ -121,6 +121,10 @@ fields! {
     Root => "root",
     /// The density of the solution (computed).
     Density => "density",
+    /// A unit named on its own.
+    Unit => "unit",
+    /// A carbonate parameter named on its own.
+    Parameter => "parameter",
     /// An equilibrium constant that is perturbed (the message names which).
     Constant => "constant",
     /// The factor a constant is scaled by.

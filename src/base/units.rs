@@ -478,3 +478,34 @@ pub fn units_with(mass_unit: Unit) -> Vec<Unit> {
     v.push(mass_unit);
     v
 }
+
+/// The unit as written in messages: `mg/L CaCO3`.
+///
+/// ```
+/// use travertine::units::Unit;
+/// assert_eq!(Unit::MgPerLCaCO3.to_string(), Unit::MgPerLCaCO3.spelling());
+/// ```
+impl std::fmt::Display for Unit {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.spelling())
+    }
+}
+
+/// A unit from its spellings, as [`Unit::parse`] reads them.
+///
+/// ```
+/// use travertine::units::Unit;
+/// assert_eq!("umol/kg".parse::<Unit>()?, Unit::UmolPerKg);
+/// assert!("furlongs".parse::<Unit>().is_err());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl std::str::FromStr for Unit {
+    type Err = Error;
+    fn from_str(s: &str) -> Result<Self> {
+        Unit::parse(s).ok_or_else(|| Error::UnknownChoice {
+            field: crate::base::field::Field::Unit,
+            name: s.to_string(),
+            accepted: "a unit such as umol/kg, mmol/L, mg/L CaCO3, uatm or ppm".to_string(),
+        })
+    }
+}

@@ -91,3 +91,14 @@ impl BoronTotalFit {
 }
 
 fit_from_str!(BoronTotalFit, crate::base::field::Field::BoronFit);
+
+/// The plain name, as [`BoronTotalFit::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::fits::BoronTotalFit::Lee2010.to_string(), "lee2010");
+/// ```
+impl std::fmt::Display for BoronTotalFit {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

@@ -228,3 +228,14 @@ pub fn dickson_millero1987_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f
     let pk2 = 1394.7 / t + 4.777 - 0.0184 * s + 0.000118 * s * s;
     (pk1, pk2)
 }
+
+/// The plain name, as [`CarbonicFit::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::CarbonicFit::Lueker2000.to_string(), "lueker2000");
+/// ```
+impl std::fmt::Display for CarbonicFit {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

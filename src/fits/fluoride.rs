@@ -110,3 +110,14 @@ fit_from_str!(FluorideFit, crate::base::field::Field::FluorideFit);
 pub fn riley1965_total_mol_kg(salinity: f64) -> f64 {
     (6.7e-5 / 18.998) * (salinity / 1.80655)
 }
+
+/// The plain name, as [`FluorideFit::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::fits::FluorideFit::DicksonRiley1979.to_string(), "dickson-riley1979");
+/// ```
+impl std::fmt::Display for FluorideFit {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

@@ -109,3 +109,14 @@ impl std::str::FromStr for BisulfateFit {
         }
     }
 }
+
+/// The plain name, as [`BisulfateFit::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::fits::BisulfateFit::Dickson1990.to_string(), "dickson1990");
+/// ```
+impl std::fmt::Display for BisulfateFit {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

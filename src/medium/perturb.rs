@@ -303,6 +303,17 @@ impl Constants {
     }
 }
 
+/// The plain name, as [`ConstantName::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::medium::ConstantName::K1.to_string(), "K1");
+/// ```
+impl std::fmt::Display for ConstantName {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

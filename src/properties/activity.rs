@@ -220,3 +220,14 @@ impl Gammas {
         }
     }
 }
+
+/// The plain name, as [`ActivityModel::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::properties::activity::ActivityModel::Davies.to_string(), "davies");
+/// ```
+impl std::fmt::Display for ActivityModel {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

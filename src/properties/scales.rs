@@ -97,3 +97,14 @@ pub fn takahashi1982_fh(temperature_k: f64, salinity: f64) -> f64 {
     let t = temperature_k;
     1.2948 - 0.002036 * t + (0.0004607 - 0.000001475 * t) * salinity * salinity
 }
+
+/// The plain name, as [`PhScale::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::PhScale::Nbs.to_string(), "nbs");
+/// ```
+impl std::fmt::Display for PhScale {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

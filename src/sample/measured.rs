@@ -546,3 +546,38 @@ pub(crate) fn is_two_root_pair(a: &Measured, b: &Measured) -> bool {
         [Parameter::Alkalinity, Parameter::Co3] | [Parameter::Dic, Parameter::Hco3]
     )
 }
+
+/// The plain name, as [`Parameter::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::Parameter::Alkalinity.to_string(), "alkalinity");
+/// ```
+impl std::fmt::Display for Parameter {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
+/// A parameter by its name (`alkalinity`, `dic`, `ph`, `pco2`, `fco2`,
+/// `xco2`, `co2`, `hco3`, `co3`), case-insensitive.
+///
+/// ```
+/// use travertine::Parameter;
+/// assert_eq!("DIC".parse::<Parameter>()?, Parameter::Dic);
+/// assert!("salt".parse::<Parameter>().is_err());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl std::str::FromStr for Parameter {
+    type Err = Error;
+    fn from_str(s: &str) -> Result<Self> {
+        let wanted = s.trim().to_ascii_lowercase();
+        Parameter::ALL
+            .into_iter()
+            .find(|p| p.name() == wanted)
+            .ok_or_else(|| Error::UnknownChoice {
+                field: Field::Parameter,
+                name: s.to_string(),
+                accepted: Parameter::ALL.map(|p| p.name()).join(", "),
+            })
+    }
+}

@@ -367,3 +367,14 @@ impl Water {
         &self.fits
     }
 }
+
+/// The plain name, as [`Medium::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::Medium::Fresh.to_string(), "fresh");
+/// ```
+impl std::fmt::Display for Medium {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}

@@ -129,3 +129,14 @@ pub(crate) struct FreshBasis {
     pub(crate) i_start: f64,
     pub(crate) warnings: Vec<Warning>,
 }
+
+/// The plain name, as [`IonicStrengthRoute::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::medium::IonicStrengthRoute::MajorIons.to_string(), "major ions");
+/// ```
+impl std::fmt::Display for IonicStrengthRoute {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
+}
