@@ -457,14 +457,15 @@ impl Sample {
         if let Some(a) = amount(Total::Sulfide, self.total(Total::Sulfide))? {
             comp = comp.with_sulfide(a)?;
         }
-        if let Some(a) = amount(Total::Calcium, self.total(Total::Calcium))? {
+        let calcium = amount(Total::Calcium, self.total(Total::Calcium))?;
+        if let Some(a) = calcium {
             comp = comp.with_calcium(a)?;
         }
         if let Some(h) = amount(Total::Hardness, self.total(Total::Hardness))? {
             // Calcium is part of the total hardness; more calcium than
             // hardness is a slip in one of them. Compared at 1 kg/L, with
             // 1 % to spare for the per-litre and per-kilogram bases.
-            if let Some(ca) = amount(Total::Calcium, self.total(Total::Calcium))? {
+            if let Some(ca) = calcium {
                 if ca.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
                     return Err(Error::Inconsistent {
                         first: Field::Calcium,

@@ -245,19 +245,16 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
             }),
             _ => Err(unknown()),
         },
-        Input::Medium
-        | Input::PhScale
-        | Input::CarbonicFit
-        | Input::BoronFit
-        | Input::FluorideFit
-        | Input::BisulfateFit
-        | Input::Activity => {
+        // A name in each cell, no unit.
+        choice if choice.is_choice() => {
             if unit.is_empty() {
                 Ok(Reading::Text)
             } else {
                 Err(format!("{} takes no unit", field.name()))
             }
         }
+        // An input without a reading of its own here is never read.
+        _ => Err(unknown()),
     }
 }
 
