@@ -396,12 +396,21 @@ fn solve_once(
     b: Measured,
     options: &SolveOptions,
 ) -> Result<State> {
-    match basis {
+    let result = match basis {
         Basis::Saline(k) => match solve(k, &a, &b, options) {
             Ok(sol) => State::build(water, k, sol.h, sol.dic, sol.warnings, (&a, &b)),
             Err(e) => Err(e),
         },
         Basis::Fresh(basis) => solve_fresh(water, basis, a, b, options),
+    };
+    match result {
+        Ok(mut state) if !water.input_cautions().is_empty() => {
+            for w in water.input_cautions() {
+                state.warnings.push(w.clone());
+            }
+            Ok(state)
+        }
+        other => other,
     }
 }
 

@@ -29,7 +29,12 @@ enum Command {
 #[derive(Args)]
 struct SheetArgs {
     /// The sheet to read (CSV with a header row); `-` for standard input.
-    input: String,
+    #[arg(required_unless_present = "list_columns")]
+    input: Option<String>,
+    /// Print every input a sheet can give (its canonical column, the header
+    /// spellings and the units read) and stop.
+    #[arg(long)]
+    list_columns: bool,
     /// Where to write the results (replaced atomically when complete); `-` or
     /// nothing for standard output. Never the input file.
     #[arg(short, long)]
@@ -339,10 +344,13 @@ fn sheet_options(a: &SheetArgs) -> Result<SheetOptions, SheetError> {
 }
 
 fn sheet(a: &SheetArgs) -> ExitCode {
+    let Some(input) = a.input.as_deref().filter(|_| !a.list_columns) else {
+        return print_result(travertine::sheet::column_guide().trim_end());
+    };
     let result = sheet_options(a).and_then(|o| {
         travertine::sheet::run(
             &o,
-            &Source::from_arg(&a.input),
+            &Source::from_arg(input),
             &Sink::from_arg(a.output.as_deref()),
         )
     });

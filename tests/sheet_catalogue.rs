@@ -7,7 +7,7 @@
 //! same values, so the test pins down exactly what the sheet adds.
 
 use travertine::sheet::{process, SheetError, SheetOptions, Summary};
-use travertine::{Conditions, Measured, PhScale, Water};
+use travertine::{Conditions, Measured, Medium, PhScale, Water};
 
 /// The output rows (header first) and the summary.
 fn run(input: &[u8], options: &SheetOptions) -> (Vec<Vec<String>>, Summary) {
@@ -67,8 +67,8 @@ fn a_missing_unit_errored() {
     assert_eq!(
         e.to_string(),
         "column `Alkalinity`: the header gives no unit for alkalinity; accepted: umol/kg, \
-         mmol/kg, mol/kg, umol/L, mmol/L, mol/L, mg/L CaCO3. Write the unit in the header (for \
-         example `alkalinity_mg_l_caco3`), or map the column by hand: --map \
+         mmol/kg, mol/kg, umol/L, mmol/L, mol/L, mg/L CaCO3; ppm for mg/L in a sheet header. Write \
+         the unit in the header (for example `alkalinity_mg_l_caco3`), or map the column by hand: --map \
          alkalinity_mg_l_caco3=\"Alkalinity\""
     );
 }
@@ -82,23 +82,58 @@ fn an_ambiguous_unit_errored() {
     assert_eq!(
         e.to_string(),
         "column `Alkalinity (mg/L)`: `mg/l` does not say what alkalinity is expressed as (write \
-         mg/L as CaCO3); accepted: umol/kg, mmol/kg, mol/kg, umol/L, mmol/L, mol/L, mg/L CaCO3. \
-         Write the unit in the header (for example `alkalinity_mg_l_caco3`), or map the column \
+         mg/L as CaCO3); accepted: umol/kg, mmol/kg, mol/kg, umol/L, mmol/L, mol/L, mg/L CaCO3; \
+         ppm for mg/L in a sheet header. Write the unit in the header (for example `alkalinity_mg_l_caco3`), or map the column \
          by hand: --map alkalinity_mg_l_caco3=\"Alkalinity (mg/L)\""
     );
 }
 
+/// The trade writes salinity in ppt (‰): it is read as practical
+/// salinity, never silently: the summary carries a note on the column.
 #[test]
-fn practical_salinity_is_not_guessed_from_ppt_errored() {
+fn salinity_in_ppt_is_read_as_practical_salinity_with_a_note() {
+    let input = b"Temp (C),Salinity (ppt),Alkalinity (umol/kg),pH (total)\n25,35,2300,8\n";
+    let (rows, summary) = run(input, &default());
+    assert_eq!(outcome(&rows, 0).0, "ok");
+    assert_eq!(summary.unit_notes.len(), 1, "{summary:?}");
+    assert!(
+        summary.unit_notes[0].starts_with("column `Salinity (ppt)`: read as practical salinity"),
+        "{:?}",
+        summary.unit_notes
+    );
+    assert!(summary
+        .to_string()
+        .contains("note: column `Salinity (ppt)`"));
+    // The same water with the salinity as written in psu: the same answer.
+    let (psu, quiet) = run(
+        b"Temp (C),Salinity (psu),Alkalinity (umol/kg),pH (total)\n25,35,2300,8\n",
+        &default(),
+    );
+    assert_eq!(rows[1], psu[1]);
+    assert!(quiet.unit_notes.is_empty());
+}
+
+/// `ppm` is the trade's mg/L: read as mg/L with a note; plain `ppm` for
+/// alkalinity says no more than plain mg/L does, and is refused the same way.
+#[test]
+fn ppm_is_read_as_mg_per_litre_with_a_note() {
+    let ppm = b"Temp (C),Alkalinity (ppm CaCO3),pH (NBS),TAN (ppm)\n20,85,7.9,0.5\n";
+    let mgl = b"Temp (C),Alkalinity (mg/L CaCO3),pH (NBS),TAN (mg/L)\n20,85,7.9,0.5\n";
+    let (a, summary) = run(ppm, &default());
+    let (b, _) = run(mgl, &default());
+    assert_eq!(a[1], b[1]);
+    assert_eq!(summary.unit_notes.len(), 2, "{summary:?}");
+    assert!(summary
+        .unit_notes
+        .iter()
+        .all(|n| n.contains("ppm read as mg/L")));
     let e = fails(
-        b"Temp (C),Salinity (ppt),Alkalinity (umol/kg),pH (total)\n25,35,2300,8\n",
+        b"Temp (C),Alkalinity (ppm),pH (NBS)\n20,85,7.9\n",
         &default(),
     );
     assert!(
-        e.to_string().starts_with(
-            "column `Salinity (ppt)`: `ppt` may be absolute salinity (g/kg) rather than \
-             practical salinity; accepted: none (practical salinity), psu."
-        ),
+        e.to_string()
+            .contains("does not say what alkalinity is expressed as"),
         "{e}"
     );
 }
@@ -363,7 +398,9 @@ fn ph_0_and_ph_15_errored() {
 #[test]
 fn a_temperature_out_of_range_errored() {
     let (rows, _) = run(&sea_row("-5,35,2300,8"), &default());
-    let library = Conditions::new(-5.0, 35.0).unwrap_err();
+    // The range of saline water, the medium of the row (−2 to 50 °C).
+    let library = Medium::Saline.check_temperature_c(-5.0).unwrap_err();
+    assert!(library.to_string().contains("-2 to 50 °C"), "{library}");
     assert_eq!(
         outcome(&rows, 0).1,
         format!("column `temperature_c` (`-5`): {library}")

@@ -408,3 +408,34 @@ fn the_summary_is_plain_text_on_a_pipe() {
     let err = stderr(&o);
     assert!(!err.contains('\r') && !err.contains('\u{1b}'), "{err:?}");
 }
+
+/// `--list-columns` prints every input of the library's list with its
+/// canonical column, and needs no sheet.
+#[test]
+fn list_columns_prints_every_input() {
+    let o = travertine(&["sheet", "--list-columns"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let text = stdout(&o);
+    for spec in travertine::sample::inputs::INPUTS {
+        assert!(
+            text.contains(&format!("  column:  {}\n", spec.column)),
+            "{} missing",
+            spec.column
+        );
+    }
+    assert!(text.contains("total alkalinity"));
+    assert!(text.contains("ppm for mg/L"));
+}
+
+/// A cell with a unicode minus gets the hint, in the row's message.
+#[test]
+fn a_unicode_minus_in_a_cell_gets_a_hint() {
+    let o = with_stdin(
+        &["sheet", "-", "--columns", "ph_nbs"],
+        "temperature_c,alkalinity_umol_kg,ph_nbs,phosphate_umol_kg\n20,2000,7.9,\u{2212}1\n"
+            .as_bytes(),
+    );
+    assert!(o.status.success(), "{}", stderr(&o));
+    let out = stdout(&o);
+    assert!(out.contains("type `-1`"), "{out}");
+}

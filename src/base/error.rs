@@ -31,7 +31,14 @@ pub type Result<T> = std::result::Result<T, Error>;
 #[non_exhaustive]
 pub enum Error {
     /// A number lies outside the range the crate accepts for that field.
-    #[error("{field} = {value} is outside the accepted range {min} to {max}{unit}")]
+    #[error(
+        "{field} = {}{} is outside the accepted range {} to {}{}",
+        shown(*value),
+        spaced(unit),
+        shown_bound(*min),
+        shown_bound(*max),
+        spaced(unit)
+    )]
     OutOfRange {
         /// The field, for example `temperature_c`.
         field: Field,
@@ -41,11 +48,13 @@ pub enum Error {
         min: f64,
         /// The largest accepted value.
         max: f64,
-        /// The unit of `value`, `min` and `max`, with a leading space (may be empty).
+        /// The unit of `value`, `min` and `max` (may be empty; a leading
+        /// space is allowed and ignored). For a value typed with a unit it
+        /// is that unit, and `value` is the number as typed.
         unit: &'static str,
     },
     /// A number was NaN or infinite.
-    #[error("{field} = {value} is not a finite number")]
+    #[error("{field} = {} is not a finite number", shown(*value))]
     NotFinite {
         /// The field.
         field: Field,
@@ -53,12 +62,15 @@ pub enum Error {
         value: f64,
     },
     /// Text that should have been a number was not one.
-    #[error("{field}: `{text}` is not a number")]
+    #[error("{field}: `{text}` is not a number{}", slip.map_or(String::new(), |s| format!("; {}", s.advice(text))))]
     NotANumber {
         /// The field.
         field: Field,
         /// The text given.
         text: String,
+        /// The likely slip, where one is recognised (a unicode minus, a
+        /// decimal comma, a thousands separator, a hexadecimal number).
+        slip: Option<NumberSlip>,
     },
     /// A concentration or gas value was given without a unit.
     #[error("{field}: `{text}` has no unit; accepted units: {accepted}")]
@@ -358,6 +370,229 @@ fn in_words(n: usize) -> String {
     WORDS
         .get(n)
         .map_or_else(|| n.to_string(), |w| (*w).to_string())
+}
+
+/// A number as echoed in a message: as Rust writes it (the shortest text
+/// that reads back to the same number, which is what was typed for any
+/// typed decimal), but in exponent form beyond 10¹⁵ or below 10⁻⁴, so that
+/// `1e308` is not written out in 309 digits.
+///
+/// ```
+/// use travertine::base::error::shown;
+/// assert_eq!(shown(2300.0), "2300");
+/// assert_eq!(shown(-5.0), "-5");
+/// assert_eq!(shown(1e308), "1e308");
+/// assert_eq!(shown(f64::INFINITY), "inf");
+/// ```
+pub fn shown(v: f64) -> String {
+    let a = v.abs();
+    if v == 0.0 || !v.is_finite() || (1e-4..1e15).contains(&a) {
+        format!("{v}")
+    } else {
+        format!("{v:e}")
+    }
+}
+
+/// A range bound as written in a message: as [`shown`], to at most six
+/// significant figures (a bound converted to the unit the user typed, such
+/// as 100 000 µmol/kg in mg/L CaCO3, is 5004.35).
+fn shown_bound(v: f64) -> String {
+    if v == 0.0 || !v.is_finite() {
+        return shown(v);
+    }
+    let digits = 5 - v.abs().log10().floor() as i32;
+    let rounded = if (0..=15).contains(&digits) {
+        let p = 10f64.powi(digits);
+        (v * p).round() / p
+    } else {
+        v
+    };
+    shown(rounded)
+}
+
+/// A unit after a number: a space, then the unit; nothing for no unit.
+fn spaced(unit: &str) -> String {
+    let u = unit.trim_start();
+    if u.is_empty() {
+        String::new()
+    } else {
+        format!(" {u}")
+    }
+}
+
+/// A likely slip in text that should have been a number, for the hint of
+/// [`Error::NotANumber`].
+///
+/// ```
+/// use travertine::base::error::NumberSlip;
+/// assert_eq!(NumberSlip::find("−5"), Some(NumberSlip::UnicodeMinus));
+/// assert_eq!(NumberSlip::find("8,1"), Some(NumberSlip::DecimalComma));
+/// assert_eq!(NumberSlip::find("2,300umol/kg"), Some(NumberSlip::CommaInNumber));
+/// assert_eq!(NumberSlip::find("0x8FC umol/kg"), Some(NumberSlip::Hexadecimal));
+/// assert_eq!(NumberSlip::find("abc"), None);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[non_exhaustive]
+pub enum NumberSlip {
+    /// A minus sign other than the ASCII hyphen-minus (U+2212, or a dash).
+    UnicodeMinus,
+    /// A comma as the decimal mark (`8,1`): one comma, followed by one,
+    /// two or more than three digits.
+    DecimalComma,
+    /// A comma followed by exactly three digits (`2,300`): a thousands
+    /// separator or a decimal comma; either way not read.
+    CommaInNumber,
+    /// A hexadecimal number (`0x8FC`).
+    Hexadecimal,
+}
+
+impl NumberSlip {
+    /// The slip in `text`, if one of the known ones is there.
+    pub fn find(text: &str) -> Option<NumberSlip> {
+        let t = text.trim();
+        if t.starts_with([
+            '\u{2212}', '\u{2013}', '\u{2014}', '\u{2012}', '\u{fe63}', '\u{ff0d}',
+        ]) {
+            return Some(NumberSlip::UnicodeMinus);
+        }
+        let b = t.trim_start_matches(['+', '-']).as_bytes();
+        if b.len() > 2 && b[0] == b'0' && (b[1] == b'x' || b[1] == b'X') && b[2].is_ascii_hexdigit()
+        {
+            return Some(NumberSlip::Hexadecimal);
+        }
+        let lead = b.iter().take_while(|c| c.is_ascii_digit()).count();
+        if lead > 0 && b.get(lead) == Some(&b',') {
+            let after = b[lead + 1..]
+                .iter()
+                .take_while(|c| c.is_ascii_digit())
+                .count();
+            let more_comma = b.get(lead + 1 + after) == Some(&b',');
+            return match after {
+                0 => None,
+                3 => Some(NumberSlip::CommaInNumber),
+                _ if more_comma => Some(NumberSlip::CommaInNumber),
+                _ => Some(NumberSlip::DecimalComma),
+            };
+        }
+        None
+    }
+
+    /// What to do about it, for the text `text` it was found in.
+    ///
+    /// ```
+    /// use travertine::base::error::NumberSlip;
+    /// assert!(NumberSlip::DecimalComma.advice("7,9").contains("write 7.9"));
+    /// assert!(NumberSlip::Hexadecimal.advice("0x8FC umol/kg").contains("0x8FC is 2300"));
+    /// assert!(NumberSlip::UnicodeMinus.advice("\u{2212}5 umol/kg").contains("`-5 umol/kg`"));
+    /// ```
+    pub fn advice(self, text: &str) -> String {
+        let t = text.trim();
+        match self {
+            NumberSlip::UnicodeMinus => {
+                let fixed: String = t
+                    .chars()
+                    .map(|c| match c {
+                        '\u{2212}' | '\u{2013}' | '\u{2014}' | '\u{2012}' | '\u{fe63}'
+                        | '\u{ff0d}' => '-',
+                        c => c,
+                    })
+                    .collect();
+                format!(
+                    "the minus sign is not the ASCII hyphen-minus (word processors and \
+                     spreadsheets often write U+2212 or a dash); type `{fixed}`"
+                )
+            }
+            NumberSlip::DecimalComma => format!(
+                "a decimal comma? write {} with a decimal point; a sheet written with decimal \
+                 commas is read with its decimal-comma option",
+                t.replacen(',', ".", 1)
+            ),
+            NumberSlip::CommaInNumber => {
+                let digits: String = t
+                    .chars()
+                    .take_while(|c| c.is_ascii_digit() || *c == ',')
+                    .collect();
+                format!(
+                    "a comma inside the number: write {} if it separates thousands, or {} if it \
+                     is a decimal mark",
+                    digits.replace(',', ""),
+                    digits.replacen(',', ".", 1)
+                )
+            }
+            NumberSlip::Hexadecimal => {
+                let unsigned = t.trim_start_matches(['+', '-']);
+                let hex: String = unsigned[2..]
+                    .chars()
+                    .take_while(char::is_ascii_hexdigit)
+                    .collect();
+                match u64::from_str_radix(&hex, 16) {
+                    Ok(v) => format!(
+                        "hexadecimal numbers are not read; write the value in decimal \
+                         (0x{hex} is {v})"
+                    ),
+                    Err(_) => "hexadecimal numbers are not read; write the value in decimal".into(),
+                }
+            }
+        }
+    }
+}
+
+/// Reads a plain number (a pH, a temperature, a fraction), with a hint
+/// when the text looks like one with a slip in it.
+///
+/// # Errors
+/// [`Error::NotANumber`], with the slip where one is recognised;
+/// [`Error::NotFinite`] for NaN or an infinity.
+///
+/// ```
+/// use travertine::base::{error::{plain_number, Error, NumberSlip}, field::Field};
+/// assert_eq!(plain_number(Field::Ph, " 7.9 ")?, 7.9);
+/// assert!(matches!(plain_number(Field::Ph, "7,9"),
+///     Err(Error::NotANumber { slip: Some(NumberSlip::DecimalComma), .. })));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn plain_number(field: Field, text: &str) -> Result<f64> {
+    let v: f64 = text.trim().parse().map_err(|_| Error::NotANumber {
+        field,
+        text: text.to_string(),
+        slip: NumberSlip::find(text),
+    })?;
+    if !v.is_finite() {
+        return Err(Error::NotFinite { field, value: v });
+    }
+    Ok(v)
+}
+
+impl Error {
+    /// This error with its value and range in the unit the user typed: an
+    /// [`Error::OutOfRange`] raised on a value converted from the number
+    /// `typed` in `typed_unit`, where `base_per_unit` of the checked value
+    /// make one `typed_unit`, is given again with the number as typed, in
+    /// its unit, and the range converted to it. Other errors are returned
+    /// as they are.
+    ///
+    /// ```
+    /// use travertine::base::error::{check_range, Field};
+    /// // −5 µmol/kg checked as mol/kg.
+    /// let e = check_range(Field::Phosphate, -5e-6, 0.0, 0.01, "mol/kg").unwrap_err();
+    /// let e = e.in_typed_unit(-5.0, "umol/kg", 1e-6);
+    /// assert_eq!(e.to_string(), "phosphate = -5 umol/kg is outside the accepted range 0 to 10000 umol/kg");
+    /// ```
+    #[must_use]
+    pub fn in_typed_unit(self, typed: f64, typed_unit: &'static str, base_per_unit: f64) -> Error {
+        match self {
+            Error::OutOfRange {
+                field, min, max, ..
+            } if base_per_unit.is_finite() && base_per_unit > 0.0 => Error::OutOfRange {
+                field,
+                value: typed,
+                min: min / base_per_unit,
+                max: max / base_per_unit,
+                unit: typed_unit,
+            },
+            other => other,
+        }
+    }
 }
 
 /// Checks that `value` is finite and within `[min, max]`.

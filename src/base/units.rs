@@ -357,23 +357,32 @@ impl Quantity {
     pub fn parse(field: Field, text: &str, accepted: &[Unit]) -> Result<Self> {
         let t = text.trim();
         let n = number_prefix_len(t);
-        let lower = t.to_ascii_lowercase();
-        if n == 0 {
-            if lower.starts_with("nan") || lower.starts_with("inf") || lower.starts_with("-inf") {
-                return Err(Error::NotFinite {
-                    field,
-                    value: f64::NAN,
-                });
-            }
-            return Err(Error::NotANumber {
-                field,
-                text: text.to_string(),
-            });
-        }
-        let value: f64 = t[..n].parse().map_err(|_| Error::NotANumber {
+        let not_a_number = || Error::NotANumber {
             field,
             text: text.to_string(),
-        })?;
+            slip: crate::base::error::NumberSlip::find(t),
+        };
+        if n == 0 {
+            let lower = t.to_ascii_lowercase();
+            let unsigned = lower.trim_start_matches(['+', '-']);
+            let value = if unsigned.starts_with("nan") {
+                f64::NAN
+            } else if unsigned.starts_with("inf") {
+                if lower.starts_with('-') {
+                    f64::NEG_INFINITY
+                } else {
+                    f64::INFINITY
+                }
+            } else {
+                return Err(not_a_number());
+            };
+            return Err(Error::NotFinite { field, value });
+        }
+        // `2,300umol/kg` or `0x8FC umol/kg`: a slip in the number, not a unit.
+        if crate::base::error::NumberSlip::find(t).is_some() {
+            return Err(not_a_number());
+        }
+        let value: f64 = t[..n].parse().map_err(|_| not_a_number())?;
         if !value.is_finite() {
             return Err(Error::NotFinite { field, value });
         }

@@ -263,15 +263,22 @@ impl Measured {
         }
         let (min, max) = parameter.accepted_range();
         let unit = parameter.range_unit();
+        // A value out of range is echoed as typed, in its unit, with the
+        // range converted to that unit.
+        let typed = |e: Error, checked_per_unit: f64| {
+            e.in_typed_unit(quantity.value, quantity.unit.spelling(), checked_per_unit)
+        };
         let value = match parameter {
             Parameter::Pco2 | Parameter::Fco2 => {
-                let atm = match quantity.unit {
-                    Unit::Uatm => quantity.value * 1e-6,
-                    Unit::Atm => quantity.value,
-                    Unit::Pa => quantity.value / 101_325.0,
-                    _ => quantity.value * 1000.0 / 101_325.0,
+                let atm_per_unit = match quantity.unit {
+                    Unit::Uatm => 1e-6,
+                    Unit::Atm => 1.0,
+                    Unit::Pa => 1.0 / 101_325.0,
+                    _ => 1000.0 / 101_325.0,
                 };
-                check_range(field, atm * 1e6, min, max, unit)?;
+                let atm = quantity.value * atm_per_unit;
+                check_range(field, atm * 1e6, min, max, unit)
+                    .map_err(|e| typed(e, atm_per_unit * 1e6))?;
                 MeasuredValue::Atm(atm)
             }
             Parameter::Xco2 => {
@@ -280,14 +287,18 @@ impl Measured {
             }
             _ => {
                 let (mass_unit, g) = parameter.mass_unit();
-                let amount = Amount::from_quantity(quantity, mass_unit, g).ok_or_else(|| {
-                    Error::WrongUnit {
+                let of = |q: Quantity| {
+                    Amount::from_quantity(q, mass_unit, g).ok_or_else(|| Error::WrongUnit {
                         field,
-                        unit: quantity.unit.spelling().to_string(),
+                        unit: q.unit.spelling().to_string(),
                         accepted: list_units(&parameter.accepted_units()),
-                    }
+                    })
+                };
+                let amount = of(quantity)?;
+                check_range(field, amount.raw() * 1e6, min, max, unit).map_err(|e| {
+                    let one = of(Quantity::new(1.0, quantity.unit)).map_or(0.0, Amount::raw);
+                    typed(e, one * 1e6)
                 })?;
-                check_range(field, amount.raw() * 1e6, min, max, unit)?;
                 MeasuredValue::Amount(amount)
             }
         };
@@ -307,10 +318,7 @@ impl Measured {
     /// ```
     pub fn parse(parameter: Parameter, text: &str) -> Result<Self> {
         if parameter == Parameter::Ph {
-            let v: f64 = text.trim().parse().map_err(|_| Error::NotANumber {
-                field: Field::Ph,
-                text: text.to_string(),
-            })?;
+            let v = crate::base::error::plain_number(Field::Ph, text)?;
             return Measured::ph(v, None);
         }
         let q = Quantity::parse(parameter.field(), text, &parameter.accepted_units())?;

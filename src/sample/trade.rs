@@ -5,6 +5,7 @@
 use crate::base::error::{check_range, Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{list_units, Amount, Quantity, Unit, MOLAR_UNITS};
+use crate::base::warning::{Warning, Warnings};
 use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit};
 use crate::properties::activity::ActivityModel;
 use crate::properties::conductivity::{salinity_from_conductivity, specific_conductance_us_cm};
@@ -13,6 +14,7 @@ use crate::sample::conditions::Conditions;
 use crate::sample::inputs::{Input, Total};
 use crate::sample::measured::{check_pair, Measured, Parameter};
 use crate::sample::values::{Choice, Conductivity, InputValue, MediumChoice};
+use crate::sample::water::AUTO_FRESH_BELOW_SALINITY;
 use crate::sample::{Composition, Medium, Water};
 
 /// A measured carbonate value as given: a pH with the scale it names, or
@@ -122,6 +124,49 @@ fn amount(total: Total, q: Option<Quantity>) -> Result<Option<Amount>> {
             unit: q.unit.spelling().to_string(),
             accepted: list_units(&total.units()),
         })
+}
+
+/// An out-of-range error on a total, given again in the unit it was typed in.
+fn retyped(total: Total, q: Option<Quantity>) -> impl Fn(Error) -> Error {
+    move |e| match q {
+        Some(q) => {
+            let per_unit = amount(total, Some(Quantity::new(1.0, q.unit)))
+                .ok()
+                .flatten()
+                .map_or(0.0, Amount::raw);
+            e.in_typed_unit(q.value, q.unit.spelling(), per_unit)
+        }
+        None => e,
+    }
+}
+
+/// How far a given salinity may lie from the salinity of a conductivity
+/// given with it before they are said to disagree: 2 % of the salinity, and
+/// at least 0.01 (the resolution of a field salinity).
+pub const SALINITY_AGREEMENT: (f64, f64) = (0.02, 0.01);
+
+/// A warning when a given salinity and the salinity of a conductivity given
+/// with it disagree by more than [`SALINITY_AGREEMENT`]; the given salinity
+/// is the one used.
+fn salinity_disagreement(given: f64, from_conductivity: f64, c: Conductivity) -> Option<Warning> {
+    let (relative, absolute) = SALINITY_AGREEMENT;
+    let difference = from_conductivity - given;
+    if difference.abs() <= (relative * given.abs()).max(absolute) {
+        return None;
+    }
+    let percent = if given > 0.0 {
+        format!(" ({:+.1} %)", 100.0 * difference / given)
+    } else {
+        String::new()
+    };
+    Some(Warning::Text {
+        code: "salinity_conductivity_disagree",
+        text: format!(
+            "the salinity given, {given}, and the conductivity given, {c}, disagree: by PSS-78 \
+             the conductivity is salinity {from_conductivity:.3}{percent}; the salinity given \
+             was used; check the conductivity's unit and whether it was compensated to 25 °C"
+        ),
+    })
 }
 
 /// The place of a parameter in [`Sample::carbon`].
@@ -324,8 +369,35 @@ impl Sample {
             field: Field::Temperature,
             why: "",
         })?;
+        // The medium's own temperature range, where the medium is known
+        // before the conductivity is read (the widest range is checked by
+        // the conditions).
+        let known_medium = match (self.medium, self.salinity, self.conductivity) {
+            (MediumChoice::Fresh, ..) => Some(Medium::Fresh),
+            (MediumChoice::Saline, ..) => Some(Medium::Saline),
+            (MediumChoice::Auto, Some(s), _) if s < AUTO_FRESH_BELOW_SALINITY => {
+                Some(Medium::Fresh)
+            }
+            (MediumChoice::Auto, Some(_), _) => Some(Medium::Saline),
+            (MediumChoice::Auto, None, None) => Some(Medium::Fresh),
+            (MediumChoice::Auto, None, Some(_)) => None,
+        };
+        if let Some(m) = known_medium {
+            m.check_temperature_c(t)?;
+        }
+        if self.medium == MediumChoice::Saline
+            && self.salinity.is_none()
+            && self.conductivity.is_none()
+        {
+            return Err(Error::Missing {
+                field: Field::Salinity,
+                why: "; the constants of saline water follow its salinity: give the salinity, or \
+                      a conductivity to compute it from",
+            });
+        }
         let mut spc = None;
         let mut salinity = self.salinity;
+        let mut cautions = Warnings::new();
         if let Some(c) = self.conductivity {
             let (at_t, specific) = match c {
                 Conductivity::AtTemperature { us_cm } => {
@@ -337,12 +409,31 @@ impl Sample {
                 }
             };
             spc = Some(specific);
-            if salinity.is_none() {
-                let (c_val, t_val) = match c {
-                    Conductivity::AtTemperature { .. } => (at_t, t),
-                    Conductivity::Specific { .. } => (specific, 25.0),
-                };
-                salinity = Some(salinity_from_conductivity(c_val, t_val, 0.0)?);
+            let (c_val, t_val) = match c {
+                Conductivity::AtTemperature { .. } => (at_t, t),
+                Conductivity::Specific { .. } => (specific, 25.0),
+            };
+            let from_conductivity = salinity_from_conductivity(c_val, t_val, 0.0)?;
+            match salinity {
+                None => {
+                    salinity = Some(from_conductivity);
+                    let fresh_limit = crate::sample::water::FRESH_SALINITY_MAX;
+                    if self.medium == MediumChoice::Fresh && from_conductivity > fresh_limit {
+                        return Err(Error::WrongMedium {
+                            field: Field::Conductivity,
+                            name: c.to_string(),
+                            medium: "saline",
+                            hint: "by PSS-78 it is a salinity above 10, the most fresh water \
+                                   accepts; choose saline water (or auto), or check the reading \
+                                   and its unit",
+                        });
+                    }
+                }
+                Some(given) => {
+                    if let Some(w) = salinity_disagreement(given, from_conductivity, c) {
+                        cautions.push(w);
+                    }
+                }
             }
         }
         let mut conditions = Conditions::new(t, salinity.unwrap_or(0.0))?
@@ -354,7 +445,8 @@ impl Sample {
             MediumChoice::Auto => Water::auto(conditions)?,
             MediumChoice::Fresh => Water::fresh(conditions)?,
             MediumChoice::Saline => Water::saline(conditions)?,
-        };
+        }
+        .with_input_cautions(cautions);
         let fresh = water.medium() == Medium::Fresh;
         if fresh {
             let saline_only = [
@@ -446,20 +538,30 @@ impl Sample {
 
         let mut comp = Composition::default();
         if let Some(a) = amount(Total::Phosphate, self.total(Total::Phosphate))? {
-            comp = comp.with_phosphate(a)?;
+            comp = comp
+                .with_phosphate(a)
+                .map_err(retyped(Total::Phosphate, self.total(Total::Phosphate)))?;
         }
         if let Some(a) = amount(Total::Silicate, self.total(Total::Silicate))? {
-            comp = comp.with_silicate(a)?;
+            comp = comp
+                .with_silicate(a)
+                .map_err(retyped(Total::Silicate, self.total(Total::Silicate)))?;
         }
         if let Some(a) = amount(Total::Ammonia, self.total(Total::Ammonia))? {
-            comp = comp.with_ammonia(a)?;
+            comp = comp
+                .with_ammonia(a)
+                .map_err(retyped(Total::Ammonia, self.total(Total::Ammonia)))?;
         }
         if let Some(a) = amount(Total::Sulfide, self.total(Total::Sulfide))? {
-            comp = comp.with_sulfide(a)?;
+            comp = comp
+                .with_sulfide(a)
+                .map_err(retyped(Total::Sulfide, self.total(Total::Sulfide)))?;
         }
         let calcium = amount(Total::Calcium, self.total(Total::Calcium))?;
         if let Some(a) = calcium {
-            comp = comp.with_calcium(a)?;
+            comp = comp
+                .with_calcium(a)
+                .map_err(retyped(Total::Calcium, self.total(Total::Calcium)))?;
         }
         if let Some(h) = amount(Total::Hardness, self.total(Total::Hardness))? {
             // Calcium is part of the total hardness; more calcium than
@@ -497,26 +599,42 @@ impl Sample {
                 }
                 None if self.total(Total::Calcium).is_some()
                     || self.total(Total::Magnesium).is_some() => {}
-                None => comp = comp.with_unassigned_hardness(h)?,
+                None => {
+                    comp = comp
+                        .with_unassigned_hardness(h)
+                        .map_err(retyped(Total::Hardness, self.total(Total::Hardness)))?
+                }
             }
         }
         if let Some(a) = amount(Total::Magnesium, self.total(Total::Magnesium))? {
-            comp = comp.with_magnesium(a)?;
+            comp = comp
+                .with_magnesium(a)
+                .map_err(retyped(Total::Magnesium, self.total(Total::Magnesium)))?;
         }
         if let Some(a) = amount(Total::Sodium, self.total(Total::Sodium))? {
-            comp = comp.with_sodium(a)?;
+            comp = comp
+                .with_sodium(a)
+                .map_err(retyped(Total::Sodium, self.total(Total::Sodium)))?;
         }
         if let Some(a) = amount(Total::Potassium, self.total(Total::Potassium))? {
-            comp = comp.with_potassium(a)?;
+            comp = comp
+                .with_potassium(a)
+                .map_err(retyped(Total::Potassium, self.total(Total::Potassium)))?;
         }
         if let Some(a) = amount(Total::Chloride, self.total(Total::Chloride))? {
-            comp = comp.with_chloride(a)?;
+            comp = comp
+                .with_chloride(a)
+                .map_err(retyped(Total::Chloride, self.total(Total::Chloride)))?;
         }
         if let Some(a) = amount(Total::Sulfate, self.total(Total::Sulfate))? {
-            comp = comp.with_sulfate(a)?;
+            comp = comp
+                .with_sulfate(a)
+                .map_err(retyped(Total::Sulfate, self.total(Total::Sulfate)))?;
         }
         if let Some(a) = amount(Total::Boron, self.total(Total::Boron))? {
-            comp = comp.with_boron(a)?;
+            comp = comp
+                .with_boron(a)
+                .map_err(retyped(Total::Boron, self.total(Total::Boron)))?;
         }
 
         let mut water = water.with_fits(fits).with_composition(comp);

@@ -113,6 +113,24 @@ impl Conductivity {
     }
 }
 
+/// The reading as written in messages: `410 uS/cm`, or `350 uS/cm@25C`
+/// for specific conductance.
+///
+/// ```
+/// use travertine::sample::values::Conductivity;
+/// assert_eq!(Conductivity::parse("0.41 mS/cm")?.to_string(), "410 uS/cm");
+/// assert_eq!(Conductivity::parse("350 uS/cm@25C")?.to_string(), "350 uS/cm@25C");
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl std::fmt::Display for Conductivity {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Conductivity::AtTemperature { us_cm } => write!(f, "{us_cm} {}", Unit::USPerCm),
+            Conductivity::Specific { us_cm } => write!(f, "{us_cm} {}", Unit::USPerCmAt25),
+        }
+    }
+}
+
 /// A chosen name.
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[non_exhaustive]

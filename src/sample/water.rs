@@ -2,6 +2,7 @@
 
 use crate::base::error::{check_range, Result};
 use crate::base::field::Field;
+use crate::base::warning::Warnings;
 use crate::fits::Fits;
 use crate::properties::activity::ActivityModel;
 use crate::sample::composition::Composition;
@@ -37,6 +38,36 @@ impl Medium {
             Medium::Fresh => "fresh",
         }
     }
+    /// The temperatures this medium accepts, °C: −2 to 50 in saline water
+    /// (the widest saline carbonic fit, Millero et al. 2006), 0 to 100 in
+    /// fresh water (Plummer & Busenberg 1982).
+    ///
+    /// ```
+    /// # use travertine::Medium;
+    /// assert_eq!(Medium::Saline.temperature_range_c(), (-2.0, 50.0));
+    /// assert_eq!(Medium::Fresh.temperature_range_c(), (0.0, 100.0));
+    /// ```
+    pub fn temperature_range_c(self) -> (f64, f64) {
+        match self {
+            Medium::Saline => (SALINE_TEMPERATURE_MIN_C, SALINE_TEMPERATURE_MAX_C),
+            Medium::Fresh => (FRESH_TEMPERATURE_MIN_C, FRESH_TEMPERATURE_MAX_C),
+        }
+    }
+
+    /// Checks a temperature against [`Medium::temperature_range_c`].
+    ///
+    /// # Errors
+    /// [`crate::Error::OutOfRange`] naming this medium's range.
+    ///
+    /// ```
+    /// # use travertine::Medium;
+    /// let e = Medium::Fresh.check_temperature_c(-1.0).unwrap_err();
+    /// assert!(e.to_string().contains("0 to 100 °C"));
+    /// ```
+    pub fn check_temperature_c(self, temperature_c: f64) -> Result<f64> {
+        let (lo, hi) = self.temperature_range_c();
+        check_range(Field::Temperature, temperature_c, lo, hi, " °C")
+    }
 }
 
 /// Lowest temperature accepted for saline water, °C.
@@ -47,6 +78,12 @@ pub const SALINE_SALINITY_MIN: f64 = 0.1;
 /// Highest temperature accepted for saline water, °C: the top of the widest
 /// saline carbonic fit (Millero et al. 2006).
 pub const SALINE_TEMPERATURE_MAX_C: f64 = 50.0;
+/// Lowest temperature accepted for fresh water, °C: the bottom of Plummer
+/// & Busenberg (1982).
+pub const FRESH_TEMPERATURE_MIN_C: f64 = 0.0;
+/// Highest temperature accepted for fresh water, °C: the top of Plummer
+/// & Busenberg (1982).
+pub const FRESH_TEMPERATURE_MAX_C: f64 = 100.0;
 
 /// A water sample: medium, conditions, composition and fits, validated once.
 ///
@@ -65,6 +102,10 @@ pub struct Water {
     composition: Composition,
     fits: Fits,
     fresh: FreshOptions,
+    /// Cautions about the inputs the water was made from (a salinity and
+    /// a conductivity that disagree), passed on to every state solved.
+    #[serde(skip)]
+    input_cautions: Warnings,
 }
 
 /// Settings of the fresh medium: the activity model and the sources of the
@@ -104,13 +145,7 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn saline(conditions: Conditions) -> Result<Self> {
-        check_range(
-            Field::Temperature,
-            conditions.temperature_c(),
-            SALINE_TEMPERATURE_MIN_C,
-            SALINE_TEMPERATURE_MAX_C,
-            " °C",
-        )?;
+        Medium::Saline.check_temperature_c(conditions.temperature_c())?;
         check_range(
             Field::Salinity,
             conditions.salinity(),
@@ -124,6 +159,7 @@ impl Water {
             composition: Composition::default(),
             fits: Fits::default(),
             fresh: FreshOptions::default(),
+            input_cautions: Warnings::new(),
         })
     }
 
@@ -141,13 +177,7 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn fresh(conditions: Conditions) -> Result<Self> {
-        check_range(
-            Field::Temperature,
-            conditions.temperature_c(),
-            0.0,
-            100.0,
-            " °C",
-        )?;
+        Medium::Fresh.check_temperature_c(conditions.temperature_c())?;
         check_range(
             Field::Salinity,
             conditions.salinity(),
@@ -161,6 +191,7 @@ impl Water {
             composition: Composition::default(),
             fits: Fits::default(),
             fresh: FreshOptions::default(),
+            input_cautions: Warnings::new(),
         })
     }
 
@@ -365,6 +396,27 @@ impl Water {
     /// ```
     pub fn fits(&self) -> &Fits {
         &self.fits
+    }
+
+    /// With cautions about the inputs it was made from, passed on to every
+    /// state solved from it.
+    #[must_use]
+    pub(crate) fn with_input_cautions(mut self, cautions: Warnings) -> Self {
+        self.input_cautions = cautions;
+        self
+    }
+
+    /// Cautions about the inputs this water was made from, such as a
+    /// salinity and a conductivity that disagree; every state solved from
+    /// it carries them too.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// assert!(Water::saline(Conditions::new(25.0, 35.0)?)?.input_cautions().is_empty());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn input_cautions(&self) -> &Warnings {
+        &self.input_cautions
     }
 }
 

@@ -6,7 +6,7 @@
 //! for that row only.
 
 use super::header::{cell_unit, Column, Reading};
-use crate::base::error::Error;
+use crate::base::error::{Error, NumberSlip};
 use crate::base::units::number_len;
 use crate::base::units::Quantity;
 use crate::sample::values::Conductivity;
@@ -15,9 +15,9 @@ use crate::sample::values::InputValue;
 /// Why a cell cannot be read.
 #[derive(Debug, Clone, PartialEq)]
 pub(crate) enum Problem {
-    NotANumber,
-    /// `7,9` without `--decimal-comma`.
-    DecimalComma,
+    /// Not a number; with the likely slip where one is recognised (`7,9`
+    /// without `--decimal-comma`, a unicode minus, `0x…`, `2,300`).
+    NotANumber(Option<NumberSlip>),
     NotFinite,
     /// A unit after the number other than the column's.
     OtherUnit {
@@ -33,9 +33,13 @@ impl Problem {
     pub(crate) fn message(&self, header: &str, text: &str) -> String {
         let text = shorten(text);
         match self {
-            Problem::NotANumber => format!("column `{header}`: `{text}` is not a number"),
-            Problem::DecimalComma => format!(
+            Problem::NotANumber(None) => format!("column `{header}`: `{text}` is not a number"),
+            Problem::NotANumber(Some(NumberSlip::DecimalComma)) => format!(
                 "column `{header}`: `{text}` is not a number (a decimal comma? give --decimal-comma)"
+            ),
+            Problem::NotANumber(Some(slip)) => format!(
+                "column `{header}`: `{text}` is not a number; {}",
+                slip.advice(&text)
             ),
             Problem::NotFinite => format!("column `{header}`: `{text}` is not a finite number"),
             Problem::OtherUnit { cell, column } if !cell.is_empty() && !column.is_empty() => {
@@ -55,7 +59,7 @@ impl Problem {
     /// The message without the cell text, for counting alike problems.
     pub(crate) fn key(&self, header: &str) -> String {
         match self {
-            Problem::NotANumber | Problem::DecimalComma => {
+            Problem::NotANumber(_) => {
                 format!("column `{header}`: not a number")
             }
             Problem::NotFinite => format!("column `{header}`: not a finite number"),
@@ -128,7 +132,7 @@ fn number(column: &Column, t: &str, decimal_comma: bool) -> Result<f64, Problem>
     let mut swapped = [0u8; 64];
     let bytes = if decimal_comma && t.len() <= swapped.len() && t.contains(',') {
         if t.contains('.') {
-            return Err(Problem::NotANumber);
+            return Err(Problem::NotANumber(None));
         }
         for (dst, src) in swapped.iter_mut().zip(t.bytes()) {
             *dst = if src == b',' { b'.' } else { src };
@@ -143,7 +147,7 @@ fn number(column: &Column, t: &str, decimal_comma: bool) -> Result<f64, Problem>
         if lower.starts_with("nan") || lower.starts_with("inf") {
             return Err(Problem::NotFinite);
         }
-        return Err(Problem::NotANumber);
+        return Err(Problem::NotANumber(NumberSlip::find(t)));
     }
     // The prefix is ASCII, so it ends on a char boundary of `t` as well.
     let prefix = if bytes.as_ptr() == t.as_ptr() {
@@ -155,7 +159,7 @@ fn number(column: &Column, t: &str, decimal_comma: bool) -> Result<f64, Problem>
         Some(v) => v,
         None => prefix
             .and_then(|s| s.parse().ok())
-            .ok_or(Problem::NotANumber)?,
+            .ok_or(Problem::NotANumber(None))?,
     };
     let rest = t[n..].trim();
     if !rest.is_empty() {
@@ -168,15 +172,7 @@ fn number(column: &Column, t: &str, decimal_comma: bool) -> Result<f64, Problem>
                 })
             }
             None => {
-                let comma_decimal = !decimal_comma
-                    && rest.len() > 1
-                    && rest.starts_with(',')
-                    && rest[1..].bytes().all(|b| b.is_ascii_digit());
-                return Err(if comma_decimal {
-                    Problem::DecimalComma
-                } else {
-                    Problem::NotANumber
-                });
+                return Err(Problem::NotANumber(NumberSlip::find(t)));
             }
         }
     }
@@ -218,7 +214,7 @@ pub(crate) fn parse(
         Some(_) => "",
         None => {
             let Ok(text) = std::str::from_utf8(trimmed) else {
-                return Err(Problem::NotANumber);
+                return Err(Problem::NotANumber(None));
             };
             let t = text.trim();
             if not_measured(t) {
@@ -310,8 +306,15 @@ mod tests {
         );
         assert_eq!(parse(&ph, b"", false), Ok(None));
         assert_eq!(parse(&ph, b"NA", false), Ok(None));
-        assert_eq!(parse(&ph, b"7..9", false), Err(Problem::NotANumber));
-        assert_eq!(parse(&ph, b"7,9", false), Err(Problem::DecimalComma));
+        assert_eq!(parse(&ph, b"7..9", false), Err(Problem::NotANumber(None)));
+        assert_eq!(
+            parse(&ph, b"7,9", false),
+            Err(Problem::NotANumber(Some(NumberSlip::DecimalComma)))
+        );
+        assert_eq!(
+            parse(&ph, "\u{2212}7".as_bytes(), false),
+            Err(Problem::NotANumber(Some(NumberSlip::UnicodeMinus)))
+        );
         assert_eq!(
             parse(&ph, b"7,9", true),
             Ok(Some(InputValue::Ph(7.9, Some(PhScale::Nbs))))
@@ -319,7 +322,7 @@ mod tests {
         assert_eq!(parse(&ph, b"NaN", false), Err(Problem::NotFinite));
         assert_eq!(parse(&ph, b"-inf", false), Err(Problem::NotFinite));
         assert_eq!(parse(&ph, b"1e999", false), Err(Problem::NotFinite));
-        assert_eq!(parse(&ph, b"\xff7", false), Err(Problem::NotANumber));
+        assert_eq!(parse(&ph, b"\xff7", false), Err(Problem::NotANumber(None)));
 
         let t = col("Temp [°C]");
         assert_eq!(

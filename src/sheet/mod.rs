@@ -87,6 +87,7 @@ mod write;
 pub use columns::UnitSystem;
 pub use error::SheetError;
 pub use files::{Sink, Source};
+pub use header::column_guide;
 pub use summary::{MessageCount, Summary};
 
 use crate::sample::measured::Parameter;

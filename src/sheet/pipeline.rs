@@ -180,7 +180,7 @@ pub(crate) fn run<R: Read + Send, W: Write + Send>(
         match (failure, written) {
             (Some(e), _) => Err(e),
             (None, Err(e)) => Err(SheetError::WriteFailed(e)),
-            (None, Ok(w)) => Ok((tally.summary(plan.passed.clone()), w)),
+            (None, Ok(w)) => Ok((tally.summary(plan), w)),
         }
     })
 }

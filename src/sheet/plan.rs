@@ -71,6 +71,8 @@ pub(crate) struct Plan {
     pub warm_check: Option<usize>,
     /// Headers passed through without being read.
     pub passed: Vec<String>,
+    /// Notes on header units read only approximately as written.
+    pub unit_notes: Vec<String>,
 }
 
 impl Plan {
@@ -117,6 +119,7 @@ impl Plan {
         let mut read = Vec::new();
         let mut labels: Vec<(Input, Label)> = Vec::new();
         let mut passed = Vec::new();
+        let mut unit_notes = Vec::new();
         for (i, text) in texts.iter().enumerate() {
             let column = match mapped[i] {
                 Some(Some(c)) => c,
@@ -147,6 +150,9 @@ impl Plan {
                     first: first.header.clone(),
                     second: text.clone(),
                 });
+            }
+            if let Some(note) = column.note {
+                unit_notes.push(format!("column `{text}`: {note}"));
             }
             labels.push((column.field, Label::Column(read.len())));
             read.push(ReadColumn {
@@ -339,6 +345,7 @@ impl Plan {
             decimal_comma: options.decimal_comma,
             warm_check,
             passed,
+            unit_notes,
         })
     }
 }

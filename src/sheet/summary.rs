@@ -1,6 +1,7 @@
 //! The summary of a sheet: rows read, ok, warning and error, and the most
 //! common messages with their counts and first lines.
 
+use super::plan::Plan;
 use super::row::{Scratch, Status};
 use std::collections::HashMap;
 use std::fmt;
@@ -60,6 +61,9 @@ pub struct Summary {
     pub messages: Vec<MessageCount>,
     /// Headers passed through without being read.
     pub passed_through: Vec<String>,
+    /// Notes on header units read only approximately as written, such as
+    /// `ppm` read as mg/L or `ppt` read as practical salinity.
+    pub unit_notes: Vec<String>,
 }
 
 #[derive(Debug, Default)]
@@ -144,7 +148,7 @@ impl Tally {
     }
 
     /// The summary.
-    pub(crate) fn summary(self, passed_through: Vec<String>) -> Summary {
+    pub(crate) fn summary(self, plan: &Plan) -> Summary {
         let mut kinds: Vec<(String, Entry)> = self.kinds.into_iter().collect();
         kinds.sort_by(|a, b| b.1.count.cmp(&a.1.count).then(a.1.order.cmp(&b.1.order)));
         let mut messages: Vec<MessageCount> = kinds
@@ -172,7 +176,8 @@ impl Tally {
             warning: self.warning,
             error: self.error,
             messages,
-            passed_through,
+            passed_through: plan.passed.clone(),
+            unit_notes: plan.unit_notes.clone(),
         }
     }
 }
@@ -195,6 +200,9 @@ impl fmt::Display for Summary {
                 .map(|h| format!("`{h}`"))
                 .collect();
             writeln!(f, "passed through unread: {}", names.join(", "))?;
+        }
+        for n in &self.unit_notes {
+            writeln!(f, "note: {n}")?;
         }
         if !self.messages.is_empty() {
             writeln!(f, "most common messages:")?;

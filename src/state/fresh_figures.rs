@@ -12,6 +12,13 @@ use crate::solve::fixed_point::falsi;
 use crate::solve::{RootChoice, SolveOptions};
 use crate::speciation::calcium::{free_carbonate, ln_omega_at_alkalinity};
 
+/// The charge imbalance of the ions given, as % of the sum of their
+/// charges, beyond which a warning is raised. Laboratories accept about
+/// ±5 % for an ion analysis of ordinary waters (APHA Standard Methods 1030 E;
+/// common practice, from memory, unverified); twice that cannot be an
+/// analytical scatter.
+pub const CHARGE_BALANCE_CAUTION_PERCENT: f64 = 10.0;
+
 impl FreshBasis {
     pub(crate) fn fresh_figures(
         &self,
@@ -21,11 +28,24 @@ impl FreshBasis {
         options: &SolveOptions,
         warnings: &mut Warnings,
     ) -> FreshFigures {
+        // The charge balance of an ion analysis; other routes have none.
+        let charge_balance_percent =
+            (self.route == IonicStrengthRoute::MajorIons).then(|| 100.0 * ion_sum(k, h, dic).1);
+        if let Some(b) = charge_balance_percent.filter(|b| b.abs() > CHARGE_BALANCE_CAUTION_PERCENT)
+        {
+            let more = if b > 0.0 { "cations" } else { "anions" };
+            warnings.push(Warning::Text {
+                code: "ions_out_of_balance",
+                text: format!(
+                    "the ions given are out of balance by {b:+.1} % ({more} exceed): an ion is \
+                     missing from the analysis, or one is in the wrong unit; the ionic strength \
+                     taken from them may be wrong"
+                ),
+            });
+        }
         let mut e = FreshFigures {
             ionic_strength_from: self.route,
-            // The charge balance of an ion analysis; other routes have none.
-            charge_balance_percent: (self.route == IonicStrengthRoute::MajorIons)
-                .then(|| 100.0 * ion_sum(k, h, dic).1),
+            charge_balance_percent,
             saturation_ph_nbs: None,
             langelier_index: None,
             precipitation_potential_mg_l_caco3: None,

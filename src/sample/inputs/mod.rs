@@ -10,7 +10,7 @@
 //! into a flag or a column, in this one place. Adding an input means adding
 //! one row here and one slot in `Sample`.
 
-use crate::base::error::{Error, Result};
+use crate::base::error::Result;
 use crate::base::field::Field;
 use crate::base::units::{list_units, Quantity, Unit, MOLAR_UNITS};
 use crate::sample::measured::Parameter;
@@ -352,19 +352,29 @@ impl Input {
     pub fn accepted(self) -> String {
         match self {
             Input::Carbon(Parameter::Ph) => {
-                "a pH scale: nbs, total, seawater or free (or none: the medium's default)".into()
+                "a pH scale: nbs, total, seawater or free (none: NBS in fresh water; saline water \
+                 needs its scale stated)"
+                    .into()
             }
-            Input::Carbon(p) => list_units(&p.accepted_units()),
+            Input::Carbon(p) if p.is_gas() => list_units(&p.accepted_units()),
+            Input::Carbon(p) => format!(
+                "{}; ppm for mg/L in a sheet header",
+                list_units(&p.accepted_units())
+            ),
             Input::Temperature => "°C, °F, K".into(),
-            Input::Salinity => "none (practical salinity), psu".into(),
+            Input::Salinity => "none (practical salinity), psu, pss; in a sheet header ppt, ‰ and \
+                                g/kg are read as practical salinity, with a note"
+                .into(),
             Input::Conductivity => "uS/cm, mS/cm (at the sample temperature), uS/cm@25C, \
                                     mS/cm@25C (specific conductance)"
                 .into(),
             Input::Pressure => "dbar, bar".into(),
             Input::AirPressure => "atm, hPa, mbar, kPa, mmHg".into(),
-            Input::Total(t) => list_units(&t.units()),
+            Input::Total(t) => {
+                format!("{}; ppm for mg/L in a sheet header", list_units(&t.units()))
+            }
             Input::CalciumFraction => "none (0 to 1), %".into(),
-            Input::Tds => "mg/L, g/L".into(),
+            Input::Tds => "mg/L, g/L, ppm (as mg/L)".into(),
             Input::IonicStrength => "none (mol/kg), mol/kg, mmol/kg".into(),
             _ => "none (a name in each cell)".into(),
         }
@@ -386,12 +396,7 @@ impl Input {
     /// ```
     pub fn read(self, text: &str) -> Result<InputValue> {
         let field = self.field();
-        let number = || {
-            text.trim().parse::<f64>().map_err(|_| Error::NotANumber {
-                field,
-                text: text.to_string(),
-            })
-        };
+        let number = || crate::base::error::plain_number(field, text);
         Ok(match self {
             Input::Carbon(Parameter::Ph) => InputValue::Ph(number()?, None),
             Input::Carbon(p) => {

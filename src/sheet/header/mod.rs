@@ -16,7 +16,7 @@ use crate::sample::inputs::{Input, NameHint, INPUTS};
 mod units;
 
 pub(crate) use units::cell_unit;
-use units::{interpret, is_unit_text};
+use units::{interpret, is_unit_text, unit_note};
 
 /// How the cells of a recognised column are read.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -52,6 +52,9 @@ impl Reading {
 pub(crate) struct Column {
     pub field: Input,
     pub reading: Reading,
+    /// A note on a unit read only approximately as written (`ppm` as
+    /// mg/L, `ppt` as practical salinity), for the sheet's summary.
+    pub note: Option<&'static str>,
 }
 
 /// A header whose field is known but whose unit is not.
@@ -101,6 +104,50 @@ pub(crate) fn normalise(text: &str) -> String {
             out.push(l);
         }
     }
+    out
+}
+
+/// The guide to the columns a sheet can have: for every input of the
+/// list of inputs, its canonical column, the header spellings recognised
+/// and the units read. `travertine sheet --list-columns` prints it.
+///
+/// ```
+/// let guide = travertine::sheet::column_guide();
+/// assert!(guide.contains("alkalinity_mg_l_caco3"));
+/// assert!(guide.contains("total alkalinity"));
+/// ```
+pub fn column_guide() -> String {
+    use std::fmt::Write;
+    let mut out = String::from(
+        "Columns a sheet can have. A header is read without regard to case, spacing or `_`; \
+         its unit goes in brackets (`Alkalinity (mg/L as CaCO3)`), after a comma, or at the \
+         end of the name (`alkalinity_mg_l_caco3`). Any other column passes through unread.\n",
+    );
+    for spec in INPUTS {
+        let names: Vec<String> = spec
+            .spellings
+            .iter()
+            .map(|(n, hint)| match hint {
+                NameHint::Short => format!("{n} (only with a unit)"),
+                NameHint::Nitrogen => format!("{n} (mg/L as N)"),
+                NameHint::Phosphorus => format!("{n} (mg/L as P)"),
+                NameHint::CalciumHardness => format!("{n} (as CaCO3)"),
+                NameHint::Specific => format!("{n} (at 25 °C)"),
+                _ => (*n).to_string(),
+            })
+            .collect();
+        let _ = write!(
+            out,
+            "\n{}\n  column:  {}\n  headers: {}\n  units:   {}\n",
+            spec.input.name(),
+            spec.column,
+            names.join(", "),
+            spec.input.accepted()
+        );
+    }
+    out.push_str(
+        "\nThe computed columns are chosen with --columns; `--columns all` writes every one.\n",
+    );
     out
 }
 
@@ -161,7 +208,11 @@ pub(crate) fn recognise(header: &str) -> Recognition {
     if let Some((name, unit, bracketed)) = split_bracket(&h) {
         return match lookup_name(name) {
             Some((field, hint)) => match interpret(field, hint, unit) {
-                Ok(reading) => Recognition::Column(Column { field, reading }),
+                Ok(reading) => Recognition::Column(Column {
+                    field,
+                    reading,
+                    note: unit_note(field, unit),
+                }),
                 // "Temperature, surface": a qualifier after a comma, no unit.
                 Err(_) if !bracketed && !is_unit_text(unit) => Recognition::PassThrough,
                 Err(problem) => Recognition::Issue(HeaderIssue { field, problem }),
@@ -181,7 +232,11 @@ pub(crate) fn recognise(header: &str) -> Recognition {
             return Recognition::PassThrough;
         }
         return match interpret(field, hint, &unit) {
-            Ok(reading) => Recognition::Column(Column { field, reading }),
+            Ok(reading) => Recognition::Column(Column {
+                field,
+                reading,
+                note: unit_note(field, &unit),
+            }),
             // "temperature_notes": the rest is no unit at all, so this is
             // another column that happens to start with a known name.
             Err(_) if !unit.is_empty() && !is_unit_text(&unit) => Recognition::PassThrough,
@@ -339,7 +394,7 @@ mod tests {
             "Alkalinity (mg/L)",
             "DIC (mg/L)",
             "Temperature",
-            "Salinity (ppt)",
+            "Alkalinity (ppm)",
             "Hardness (mg/L)",
             "Ammonia (mg/L)",
             "Conductivity",
@@ -351,6 +406,61 @@ mod tests {
                 "{h}: {:?}",
                 recognise(h)
             );
+        }
+    }
+
+    /// The trade's spellings: ppm for mg/L, and ppt, ‰ or g/kg for
+    /// salinity, each read with a note, and ppm of an ambiguous mass still
+    /// refused (`Alkalinity (ppm)` above).
+    #[test]
+    fn trade_spellings_are_read_with_a_note() {
+        for (h, field, reading) in [
+            (
+                "Alkalinity (ppm CaCO3)",
+                Input::Carbon(crate::sample::measured::Parameter::Alkalinity),
+                Reading::Quantity(Unit::MgPerLCaCO3),
+            ),
+            (
+                "TAN (ppm)",
+                Input::Total(crate::sample::inputs::Total::Ammonia),
+                Reading::Quantity(Unit::MgPerLN),
+            ),
+            (
+                "Calcium hardness (ppm as CaCO3)",
+                Input::Total(crate::sample::inputs::Total::Calcium),
+                Reading::Quantity(Unit::MgPerLCaCO3),
+            ),
+            (
+                "Salinity (ppt)",
+                Input::Salinity,
+                Reading::Number {
+                    scale: 1.0,
+                    offset: 0.0,
+                    label: "ppt",
+                },
+            ),
+            (
+                "Salinity (‰)",
+                Input::Salinity,
+                Reading::Number {
+                    scale: 1.0,
+                    offset: 0.0,
+                    label: "ppt",
+                },
+            ),
+        ] {
+            match recognise(h) {
+                Recognition::Column(c) => {
+                    assert_eq!((c.field, c.reading), (field, reading), "{h}");
+                    assert!(c.note.is_some(), "{h}: no note");
+                }
+                other => panic!("{h}: {other:?}"),
+            }
+        }
+        // A unit read as written has no note.
+        match recognise("Salinity (psu)") {
+            Recognition::Column(c) => assert_eq!(c.note, None),
+            other => panic!("{other:?}"),
         }
     }
 }

@@ -104,7 +104,8 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
             if unit.is_empty() {
                 return Err(missing());
             }
-            let parsed = Unit::parse(unit).ok_or_else(unknown)?;
+            let ppm = (p != Parameter::Xco2).then(|| ppm_as_mg_l(unit)).flatten();
+            let parsed = Unit::parse(ppm.as_deref().unwrap_or(unit)).ok_or_else(unknown)?;
             let resolved = match (p, parsed) {
                 (Parameter::Co2, Unit::MgPerL) => Unit::MgPerLCO2,
                 (Parameter::Hco3, Unit::MgPerL) => Unit::MgPerLHCO3,
@@ -135,9 +136,12 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
         }
         Input::Salinity => match unit {
             "" | "psu" | "pss" | "pss-78" | "pss78" | "practical" => Ok(Reading::PLAIN),
-            "ppt" | "g/kg" | "‰" | "permil" | "ppth" => Err(format!(
-                "`{unit}` may be absolute salinity (g/kg) rather than practical salinity"
-            )),
+            // Read as practical salinity, with a note (see `unit_note`).
+            "ppt" | "g/kg" | "‰" | "permil" | "ppth" => Ok(Reading::Number {
+                scale: 1.0,
+                offset: 0.0,
+                label: "ppt",
+            }),
             _ => Err(unknown()),
         },
         Input::Conductivity => {
@@ -183,7 +187,8 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
             if unit.is_empty() {
                 return Err(missing());
             }
-            let parsed = Unit::parse(unit).ok_or_else(unknown)?;
+            let ppm = ppm_as_mg_l(unit);
+            let parsed = Unit::parse(ppm.as_deref().unwrap_or(unit)).ok_or_else(unknown)?;
             let resolved = match (parsed, hint) {
                 (Unit::MgPerL, NameHint::Nitrogen) => Unit::MgPerLN,
                 (Unit::MgPerL, NameHint::Phosphorus) => Unit::MgPerLP,
@@ -224,7 +229,7 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
         },
         Input::Tds => match unit {
             "" => Err(missing()),
-            "mg/l" => Ok(Reading::Number {
+            "mg/l" | "ppm" => Ok(Reading::Number {
                 scale: 1.0,
                 offset: 0.0,
                 label: "mg/L",
@@ -256,6 +261,35 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
         // An input without a reading of its own here is never read.
         _ => Err(unknown()),
     }
+}
+
+/// `ppm` (`ppm caco3`, `ppm as n`) as the trade writes it for mg/L: the
+/// unit text with `mg/l` in its place; `None` when the text is no ppm.
+fn ppm_as_mg_l(unit: &str) -> Option<String> {
+    let rest = unit.strip_prefix("ppm")?;
+    (rest.is_empty() || rest.starts_with(' ')).then(|| format!("mg/l{rest}"))
+}
+
+/// A note on a unit that is read, but only approximately as written: `ppm`
+/// read as mg/L, and `ppt`, `‰` or `g/kg` read as practical salinity.
+pub(super) fn unit_note(field: Input, unit: &str) -> Option<&'static str> {
+    let concentration = matches!(field, Input::Total(_) | Input::Tds)
+        || matches!(field, Input::Carbon(p) if p != Parameter::Xco2);
+    if concentration && ppm_as_mg_l(unit).is_some() {
+        return Some(
+            "ppm read as mg/L; the two agree within about 0.1 % in fresh water, but in sea \
+             water a ppm (mg/kg) is about 2.5 % more per litre, so give mg/L or a per-kg unit \
+             there",
+        );
+    }
+    if field == Input::Salinity && matches!(unit, "ppt" | "g/kg" | "‰" | "permil" | "ppth") {
+        return Some(
+            "read as practical salinity; if the values are absolute salinity (g/kg), they are \
+             about 0.5 % above practical salinity in sea water (TEOS-10: SA ≈ 1.0047 SP), so \
+             results are close but not exact",
+        );
+    }
+    None
 }
 
 /// The reading of a unit written after the number in a cell (`25 °C`,
