@@ -213,3 +213,54 @@ fn the_usual_slips_in_a_number_get_a_hint() {
     let e = PH.read("\u{2212}1").unwrap_err().to_string();
     assert!(e.contains("type `-1`"), "{e}");
 }
+
+/// Total hardness is calcium plus magnesium: with one of them given, the
+/// other is the difference, and said so; with both, a hardness that
+/// disagrees with their sum is warned about. Before, a hardness given with
+/// calcium was dropped without a word.
+#[test]
+fn hardness_with_calcium_or_magnesium_is_used_and_said_so() {
+    let pond = |extra: &[(Input, &str)]| {
+        let mut inputs = vec![(ALK, "120 mg/L CaCO3"), (PH, "7.8")];
+        inputs.extend_from_slice(extra);
+        solved(&sample(20.0, &inputs).unwrap()).unwrap()
+    };
+    let hardness = (Input::Total(Total::Hardness), "200 mg/L CaCO3");
+    let calcium = (Input::Total(Total::Calcium), "120 mg/L CaCO3");
+    let magnesium = (Input::Total(Total::Magnesium), "80 mg/L CaCO3");
+
+    let ca_only = pond(&[calcium]);
+    let ca_and_h = pond(&[calcium, hardness]);
+    let ca_and_mg = pond(&[calcium, magnesium]);
+    assert!(codes(&ca_and_h).contains(&"magnesium_from_hardness"));
+    // The magnesium of the difference counts in the ionic strength, as if
+    // it had been given.
+    assert!(ca_and_h.ionic_strength > ca_only.ionic_strength);
+    assert!((ca_and_h.ionic_strength - ca_and_mg.ionic_strength).abs() < 1e-12);
+
+    let mg_and_h = pond(&[magnesium, hardness]);
+    assert!(codes(&mg_and_h).contains(&"calcium_from_hardness"));
+    assert!((mg_and_h.omega_calcite.unwrap() - ca_and_mg.omega_calcite.unwrap()).abs() < 1e-9);
+
+    let agreeing = pond(&[calcium, magnesium, hardness]);
+    assert!(!codes(&agreeing).contains(&"hardness_disagrees"));
+    let off = pond(&[
+        calcium,
+        magnesium,
+        (Input::Total(Total::Hardness), "300 mg/L CaCO3"),
+    ]);
+    assert!(
+        codes(&off).contains(&"hardness_disagrees"),
+        "{:?}",
+        codes(&off)
+    );
+
+    let e = sample(
+        20.0,
+        &[(Input::Total(Total::Magnesium), "300 mg/L CaCO3"), hardness],
+    )
+    .unwrap()
+    .water()
+    .unwrap_err();
+    assert!(matches!(e, Error::Inconsistent { .. }), "{e}");
+}

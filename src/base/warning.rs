@@ -241,6 +241,8 @@ const NOTE_CODES: &[&str] = &[
     "ionic_strength_from_carbonate",
     "hardness_not_calcium",
     "langelier_not_computed",
+    "magnesium_from_hardness",
+    "calcium_from_hardness",
 ];
 
 impl Warning {

@@ -4,7 +4,7 @@
 
 use crate::base::error::{check_range, Error, Result};
 use crate::base::field::Field;
-use crate::base::units::{list_units, Amount, Quantity, Unit, MOLAR_UNITS};
+use crate::base::units::{list_units, Amount, Quantity, Unit, CACO3_G_MOL, MOLAR_UNITS};
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit};
 use crate::properties::activity::ActivityModel;
@@ -167,6 +167,22 @@ fn salinity_disagreement(given: f64, from_conductivity: f64, c: Conductivity) ->
              was used; check the conductivity's unit and whether it was compensated to 25 °C"
         ),
     })
+}
+
+/// How far calcium plus magnesium may lie from a total hardness given with
+/// them before they are said to disagree: 5 % of the hardness (an
+/// allowance for titration scatter; common practice, from memory).
+pub const HARDNESS_AGREEMENT: f64 = 0.05;
+
+/// `whole` less `part`, never below zero, on the basis of `whole` (per
+/// litre or per kilogram; a part on the other basis is taken at 1 kg/L, as
+/// for a fresh water).
+fn difference(whole: Amount, part: Amount) -> Amount {
+    match (whole, part) {
+        (Amount::PerLitre(w), Amount::PerLitre(p)) => Amount::PerLitre((w - p).max(0.0)),
+        (Amount::PerLitre(w), p) => Amount::PerLitre((w - p.mol_kg(1000.0)).max(0.0)),
+        (Amount::PerKg(w), p) => Amount::PerKg((w - p.mol_kg(1000.0)).max(0.0)),
+    }
 }
 
 /// The place of a parameter in [`Sample::carbon`].
@@ -350,8 +366,13 @@ impl Sample {
     /// Salinity: as given; otherwise from the conductivity by PSS-78 (Hill
     /// et al. 1986 below S 2); otherwise 0. Conductivity at the sample
     /// temperature becomes specific conductance by linear compensation
-    /// (0.0191 per °C). Total hardness is never taken as calcium: without a
-    /// calcium fraction it counts only in the ionic strength.
+    /// (0.0191 per °C). Total hardness is calcium plus magnesium (both as
+    /// CaCO3): with a calcium fraction it is split; with one of calcium and
+    /// magnesium given, the other is the difference (a note says so); with
+    /// both, a hardness more than 5 % from their sum is warned about; alone
+    /// it is never taken as calcium and counts only in the ionic strength.
+    /// A salinity given with a conductivity is used, and a warning raised
+    /// where the two disagree by more than 2 %.
     ///
     /// # Errors
     /// Any validation error of the parts, naming the field; a saline-only
@@ -445,8 +466,7 @@ impl Sample {
             MediumChoice::Auto => Water::auto(conditions)?,
             MediumChoice::Fresh => Water::fresh(conditions)?,
             MediumChoice::Saline => Water::saline(conditions)?,
-        }
-        .with_input_cautions(cautions);
+        };
         let fresh = water.medium() == Medium::Fresh;
         if fresh {
             let saline_only = [
@@ -597,12 +617,55 @@ impl Sample {
                     }
                     comp = comp.with_magnesium(scale(h, 1.0 - f))?;
                 }
-                None if self.total(Total::Calcium).is_some()
-                    || self.total(Total::Magnesium).is_some() => {}
                 None => {
-                    comp = comp
-                        .with_unassigned_hardness(h)
-                        .map_err(retyped(Total::Hardness, self.total(Total::Hardness)))?
+                    let magnesium = amount(Total::Magnesium, self.total(Total::Magnesium))?;
+                    match (calcium, magnesium) {
+                        // Total hardness is calcium plus magnesium (both as
+                        // CaCO3): the one not given is the difference.
+                        (Some(ca), None) => {
+                            comp = comp.with_magnesium(difference(h, ca))?;
+                            cautions.push(Warning::Note {
+                                code: "magnesium_from_hardness",
+                                text: "magnesium taken as the total hardness less the calcium",
+                            });
+                        }
+                        (None, Some(mg)) => {
+                            if mg.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
+                                return Err(Error::Inconsistent {
+                                    first: Field::Magnesium,
+                                    second: Field::Hardness,
+                                    reason: "magnesium is more than the total hardness, of which \
+                                             it is a part; check both",
+                                });
+                            }
+                            comp = comp.with_calcium(difference(h, mg))?;
+                            cautions.push(Warning::Note {
+                                code: "calcium_from_hardness",
+                                text: "calcium taken as the total hardness less the magnesium",
+                            });
+                        }
+                        (Some(ca), Some(mg)) => {
+                            let sum = ca.mol_kg(1000.0) + mg.mol_kg(1000.0);
+                            let total = h.mol_kg(1000.0);
+                            if (sum - total).abs() > HARDNESS_AGREEMENT * total {
+                                cautions.push(Warning::Text {
+                                    code: "hardness_disagrees",
+                                    text: format!(
+                                        "calcium and magnesium given add up to {:.0} mg/L as \
+                                         CaCO3, the total hardness given is {:.0}: calcium and \
+                                         magnesium were used; check the three",
+                                        sum * CACO3_G_MOL * 1000.0,
+                                        total * CACO3_G_MOL * 1000.0
+                                    ),
+                                });
+                            }
+                        }
+                        (None, None) => {
+                            comp = comp
+                                .with_unassigned_hardness(h)
+                                .map_err(retyped(Total::Hardness, self.total(Total::Hardness)))?
+                        }
+                    }
                 }
             }
         }
@@ -637,7 +700,10 @@ impl Sample {
                 .map_err(retyped(Total::Boron, self.total(Total::Boron)))?;
         }
 
-        let mut water = water.with_fits(fits).with_composition(comp);
+        let mut water = water
+            .with_fits(fits)
+            .with_composition(comp)
+            .with_input_cautions(cautions);
         if fresh {
             if let Some(m) = self.activity {
                 water = water.with_activity_model(m);

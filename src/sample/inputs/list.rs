@@ -186,8 +186,9 @@ pub const INPUTS: &[InputSpec] = &[
         Input::Total(Total::Hardness),
         "hardness",
         "hardness_mg_l_caco3",
-        "Total hardness with a unit (\"mg/L CaCO3\", mmol/L); never taken as calcium unless \
-         --calcium-fraction is given",
+        "Total hardness with a unit (\"mg/L CaCO3\", mmol/L): calcium plus magnesium; with one \
+         of them given the other is the difference, with --calcium-fraction it is split; alone \
+         it is never taken as calcium",
         [("hardness", Plain), ("total hardness", Plain)]
     ),
     spec!(
