@@ -82,9 +82,15 @@ pub struct State {
     pub hco3_umol_kg: f64,
     /// Carbonate.
     pub co3_umol_kg: f64,
-    /// CO2 fugacity, µatm.
+    /// CO2 fugacity, µatm: CO2*/K0, with K0 and the fugacity coefficient
+    /// at one atmosphere and no Poynting term. At depth CO2* is that of the
+    /// water at its pressure, so this is the fugacity it would have at the
+    /// surface pressure (the ocean convention); the fugacity in situ is
+    /// higher by exp(V̄ ΔP / RT), V̄ ≈ 32.3 cm³/mol (Weiss 1974; from memory,
+    /// unverified), about 1.4 % per 100 dbar at 10 °C.
     pub fco2_uatm: f64,
-    /// CO2 partial pressure (moist air at the air pressure), µatm.
+    /// CO2 partial pressure (moist air at the air pressure), µatm; at depth
+    /// on the same convention as `fco2_uatm`.
     pub pco2_uatm: f64,
     /// CO2 mole fraction in dry air, ppm.
     pub xco2_ppm: f64,
