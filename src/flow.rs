@@ -62,6 +62,7 @@ enum Prepared {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq)]
+#[non_exhaustive]
 pub struct PreparedWater {
     water: Water,
     prepared: Prepared,

@@ -17,6 +17,7 @@ use serde::Serialize;
 /// assert_eq!(warnings.len(), 1);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[non_exhaustive]
 pub struct FitRange {
     /// Author-year name of the fit.
     pub name: &'static str,

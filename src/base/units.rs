@@ -258,6 +258,7 @@ impl Unit {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[non_exhaustive]
 pub struct Quantity {
     /// The number.
     pub value: f64,
@@ -414,6 +415,7 @@ impl Quantity {
 /// assert!((a.mol_kg(1000.0) - 2.0e-3).abs() < 1e-15);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[non_exhaustive]
 pub enum Amount {
     /// mol (or eq) per kg of solution.
     PerKg(f64),

@@ -296,6 +296,7 @@ impl Serialize for Warning {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq, Default)]
+#[non_exhaustive]
 pub struct Warnings(SmallVec<[Warning; 1]>);
 
 impl Warnings {

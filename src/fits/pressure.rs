@@ -20,6 +20,7 @@ pub const R_CM3_BAR: f64 = 83.14472;
 /// assert!((pressure_factor(&K1, 25.0, 1000.0) - 2.417).abs() < 1e-3);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
 pub struct PressureCoefficients {
     /// a0, a1, a2 of ΔV.
     pub a: [f64; 3],

@@ -20,8 +20,8 @@
 //! for o in Output::ALL {
 //!     match o.value(&s) {
 //!         Value::Number(Some(v)) => println!("{} = {v} {}", o.key(), o.unit()),
-//!         Value::Number(None) | Value::Text(None) => println!("{}: none here", o.key()),
 //!         Value::Text(Some(t)) => println!("{} = {t}", o.key()),
+//!         _ => println!("{}: none here", o.key()),
 //!     }
 //! }
 //! assert_eq!(Output::Pco2.value(&s), Value::Number(Some(s.pco2_uatm)));
@@ -49,6 +49,7 @@ use serde::{Serialize, Serializer};
 /// assert_eq!(serde_json::to_string(&Value::Text(Some("fresh"))).unwrap(), "\"fresh\"");
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
 pub enum Value {
     /// A number; `None` when the state has none.
     Number(Option<f64>),
@@ -146,6 +147,7 @@ impl Section {
 /// assert_eq!(Output::PhTotal.place(Medium::Fresh), Place::Hidden);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[non_exhaustive]
 pub enum Place {
     /// Not a row of this medium's table.
     Hidden,

@@ -25,6 +25,7 @@ pub const MINOR_TOTAL_MAX_MOL_KG: f64 = 0.01;
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+#[non_exhaustive]
 pub struct Composition {
     phosphate: Option<Amount>,
     silicate: Option<Amount>,

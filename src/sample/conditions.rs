@@ -31,6 +31,7 @@ pub const PRESSURE_MAX_DBAR: f64 = 12_000.0;
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[non_exhaustive]
 pub struct Conditions {
     temperature_c: f64,
     salinity: f64,

@@ -222,6 +222,7 @@ pub(crate) enum MeasuredValue {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[non_exhaustive]
 pub struct Measured {
     parameter: Parameter,
     value: MeasuredValue,

@@ -96,6 +96,7 @@ pub const FRESH_TEMPERATURE_MAX_C: f64 = 100.0;
 /// # Ok::<(), travertine::Error>(())
 /// ```
 #[derive(Debug, Clone, PartialEq, Serialize)]
+#[non_exhaustive]
 pub struct Water {
     medium: Medium,
     conditions: Conditions,
@@ -111,6 +112,7 @@ pub struct Water {
 /// Settings of the fresh medium: the activity model and the sources of the
 /// ionic strength. Set through [`Water`]'s builder methods.
 #[derive(Debug, Clone, Copy, PartialEq, Default, Serialize)]
+#[non_exhaustive]
 pub struct FreshOptions {
     /// The activity-coefficient model.
     pub activity: ActivityModel,

@@ -158,6 +158,7 @@ pub const PROGRESS_MIN_BYTES: u64 = 32 * 1024 * 1024;
 /// # Ok::<(), travertine::sheet::SheetError>(())
 /// ```
 #[derive(Debug, Clone)]
+#[non_exhaustive]
 pub struct SheetOptions {
     maps: Vec<(String, String)>,
     sets: Vec<(String, String)>,

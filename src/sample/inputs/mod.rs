@@ -228,6 +228,7 @@ pub enum NameHint {
 
 /// One row of the list of inputs.
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
 pub struct InputSpec {
     /// The input.
     pub input: Input,
