@@ -2,6 +2,7 @@
 
 use clap::{Arg, ArgMatches, Args, FromArgMatches, Parser, Subcommand};
 use std::process::ExitCode;
+use std::sync::atomic::{AtomicBool, Ordering};
 use travertine::sample::inputs::{Input, InputSpec, INPUTS};
 use travertine::sample::Sample;
 use travertine::sheet::{Format, Progress, SheetError, SheetOptions, Sink, Source, UnitSystem};
@@ -35,8 +36,9 @@ struct SheetArgs {
     /// spellings and the units read) and stop.
     #[arg(long)]
     list_columns: bool,
-    /// Where to write the results (replaced atomically when complete); `-` or
-    /// nothing for standard output. Never the input file.
+    /// Where to write the results (replaced atomically when complete, keeping
+    /// its permissions; a link is followed, a pipe or device written into); `-`
+    /// or nothing for standard output. Never the input file.
     #[arg(short, long)]
     output: Option<String>,
     /// Read a column by hand: NAME=HEADER, such as alkalinity_mg_l_caco3=Alk;
@@ -347,13 +349,19 @@ fn sheet(a: &SheetArgs) -> ExitCode {
     let Some(input) = a.input.as_deref().filter(|_| !a.list_columns) else {
         return print_result(travertine::sheet::column_guide().trim_end());
     };
-    let result = sheet_options(a).and_then(|o| {
-        travertine::sheet::run(
-            &o,
-            &Source::from_arg(input),
-            &Sink::from_arg(a.output.as_deref()),
-        )
-    });
+    let sink = Sink::from_arg(a.output.as_deref());
+    match sink {
+        Sink::Stdout if stdout_closed() => {
+            say(&format!(
+                "travertine sheet: {CLOSED}; give -o FILE, or send it to a file or a pipe\n"
+            ));
+            return ExitCode::from(2);
+        }
+        Sink::Stdout => {}
+        _ => remove_unfinished_output_on_stop(),
+    }
+    let result =
+        sheet_options(a).and_then(|o| travertine::sheet::run(&o, &Source::from_arg(input), &sink));
     match result {
         Ok(summary) => {
             // The results are written; a summary that cannot be shown
@@ -367,6 +375,91 @@ fn sheet(a: &SheetArgs) -> ExitCode {
             ExitCode::from(e.exit_code())
         }
     }
+}
+
+/// The signals that stop the program: from the terminal (Ctrl-C, Ctrl-\\,
+/// a closed terminal), from `kill` and service managers, from timers and
+/// limits. The others are left as they are: the runtime ignores SIGPIPE,
+/// and SIGSEGV and the like cannot be handled safely.
+#[cfg(unix)]
+const STOP_SIGNALS: [i32; 11] = {
+    use signal_hook::consts::signal::*;
+    [
+        SIGHUP, SIGINT, SIGQUIT, SIGTERM, SIGALRM, SIGUSR1, SIGUSR2, SIGXCPU, SIGXFSZ, SIGVTALRM,
+        SIGPROF,
+    ]
+};
+
+/// On a stop signal, removes the hidden temporary file of an output still
+/// being written, then ends the program by that signal, as it would have
+/// ended without this (so a shell sees Ctrl-C as Ctrl-C). The work is done
+/// on a thread of its own, woken by the signal, not in a signal handler.
+#[cfg(unix)]
+fn remove_unfinished_output_on_stop() {
+    let Ok(mut signals) = signal_hook::iterator::Signals::new(STOP_SIGNALS) else {
+        return;
+    };
+    std::thread::spawn(move || {
+        if let Some(signal) = signals.forever().next() {
+            travertine::sheet::remove_unfinished_outputs();
+            let _ = signal_hook::low_level::emulate_default_handler(signal);
+            std::process::exit(128 + signal);
+        }
+    });
+}
+
+#[cfg(not(unix))]
+fn remove_unfinished_output_on_stop() {}
+
+/// The message for a closed standard output.
+const CLOSED: &str = "standard output is closed (as with >&-), so nothing could be written to it";
+
+/// Standard output was closed when the program started. The Rust runtime
+/// opens /dev/null over a closed standard stream before `main` runs, so
+/// that writes to it succeed and are lost; [`look_at_stdout`] looks before
+/// that, when the program is loaded.
+static STDOUT_CLOSED: AtomicBool = AtomicBool::new(false);
+
+/// Notes whether standard output is closed (`fcntl` fails with EBADF).
+/// Run by the loader before the Rust runtime starts, from the list of
+/// start-up functions of the executable.
+#[cfg(unix)]
+extern "C" fn look_at_stdout() {
+    // SAFETY: F_GETFD only reads the flags of a descriptor number, open or
+    // not; it touches no memory of ours.
+    if unsafe { libc::fcntl(libc::STDOUT_FILENO, libc::F_GETFD) } == -1 {
+        STDOUT_CLOSED.store(true, Ordering::Relaxed);
+    }
+}
+
+#[cfg(any(
+    target_os = "linux",
+    target_os = "android",
+    target_os = "freebsd",
+    target_os = "netbsd",
+    target_os = "openbsd",
+    target_os = "dragonfly",
+    target_os = "illumos",
+    target_os = "solaris"
+))]
+#[used]
+#[link_section = ".init_array"]
+static LOOK_AT_STDOUT: extern "C" fn() = look_at_stdout;
+
+#[cfg(any(target_os = "macos", target_os = "ios"))]
+#[used]
+#[link_section = "__DATA,__mod_init_func"]
+static LOOK_AT_STDOUT: extern "C" fn() = look_at_stdout;
+
+/// Whether standard output was closed when the program started.
+fn stdout_closed() -> bool {
+    #[cfg(unix)]
+    // SAFETY: as in `look_at_stdout`; for a system whose runtime leaves a
+    // closed stream closed.
+    let closed_now = unsafe { libc::fcntl(libc::STDOUT_FILENO, libc::F_GETFD) } == -1;
+    #[cfg(not(unix))]
+    let closed_now = false;
+    closed_now || STDOUT_CLOSED.load(Ordering::Relaxed)
 }
 
 /// Writes a message to standard error; one that cannot be written (the
@@ -383,6 +476,12 @@ fn say(text: &str) {
 /// code 1, never a panic.
 fn print_result(text: &str) -> ExitCode {
     use std::io::Write;
+    if stdout_closed() {
+        say(&format!(
+            "travertine: {CLOSED}; send the result to a file or a pipe\n"
+        ));
+        return ExitCode::from(1);
+    }
     let mut out = std::io::stdout().lock();
     let written = out
         .write_all(text.as_bytes())

@@ -441,6 +441,38 @@ fn a_full_standard_error_keeps_the_exit_code() {
     assert_eq!(o.status.code(), Some(2));
 }
 
+/// A closed standard output (`>&-`) is one line on standard error and exit
+/// code 1; it used to be exit code 0 with the result lost (the Rust runtime
+/// puts /dev/null in place of a closed stream before `main`).
+#[test]
+#[cfg(unix)]
+fn a_closed_standard_output_is_an_error() {
+    use std::os::unix::process::CommandExt;
+    let mut command = Command::new(env!("CARGO_BIN_EXE_travertine"));
+    command.args(sea_solve_args());
+    // SAFETY: close is async-signal-safe and only closes the child's fd 1.
+    unsafe {
+        command.pre_exec(|| {
+            libc::close(1);
+            Ok(())
+        });
+    }
+    let o = command.output().expect("the binary runs");
+    assert_eq!(o.status.code(), Some(1));
+    assert_eq!(
+        stderr(&o),
+        "travertine: standard output is closed (as with >&-), so nothing could be written to \
+         it; send the result to a file or a pipe\n"
+    );
+    // Sent to /dev/null on purpose, the result is written there: no error.
+    let o = Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(sea_solve_args())
+        .stdout(std::process::Stdio::null())
+        .output()
+        .expect("the binary runs");
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+}
+
 /// A reader that goes away at once (as `| head -c 10` does) ends the
 /// command quietly: exit code 0, never a panic.
 #[test]

@@ -439,3 +439,453 @@ fn a_unicode_minus_in_a_cell_gets_a_hint() {
     let out = stdout(&o);
     assert!(out.contains("type `-1`"), "{out}");
 }
+
+// ---- Outputs that are not plain files, stops, and what the input looks like ----
+
+#[cfg(unix)]
+fn c_path(p: &Path) -> std::ffi::CString {
+    use std::os::unix::ffi::OsStrExt;
+    std::ffi::CString::new(p.as_os_str().as_bytes()).expect("no NUL in the path")
+}
+
+/// `-o` onto a named pipe writes into the pipe: a reader at its other end
+/// gets every row, and the pipe is still a pipe. It used to be replaced by
+/// a plain file (and the reader got nothing).
+#[test]
+#[cfg(unix)]
+fn a_named_pipe_is_written_into_not_replaced() {
+    use std::os::unix::fs::FileTypeExt;
+    let dir = folder("fifo");
+    let fifo = dir.join("results.fifo");
+    // SAFETY: a valid NUL-terminated path; mkfifo touches nothing else.
+    assert_eq!(unsafe { libc::mkfifo(c_path(&fifo).as_ptr(), 0o600) }, 0);
+    let reader = {
+        let fifo = fifo.clone();
+        std::thread::spawn(move || std::fs::read(&fifo).expect("the pipe is read"))
+    };
+    let o = travertine(&["sheet", POND, "-o", fifo.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    // Looked at before the reader is joined: were the pipe replaced, the
+    // reader would wait for ever.
+    let kind = std::fs::symlink_metadata(&fifo).unwrap().file_type();
+    assert!(kind.is_fifo(), "the pipe was replaced: {kind:?}");
+    assert_eq!(names_in(&dir), vec!["results.fifo".to_string()]);
+    let text = String::from_utf8(reader.join().unwrap()).unwrap();
+    assert_eq!(records(&text).len(), 48);
+}
+
+/// A link to standard output (as `/dev/stdout` is, through /proc) writes
+/// into the pipe standard output is; the link used to be replaced by a
+/// plain file. The link is made in the test's folder, so that a program
+/// that replaced it would not replace /dev/stdout itself.
+#[test]
+#[cfg(target_os = "linux")]
+fn a_link_to_standard_output_writes_into_the_pipe() {
+    let dir = folder("stdout-link");
+    let link = dir.join("stdout");
+    std::os::unix::fs::symlink("/proc/self/fd/1", &link).unwrap();
+    let o = travertine(&["sheet", POND, "-o", link.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    assert_eq!(records(&stdout(&o)).len(), 48);
+    assert!(std::fs::symlink_metadata(&link)
+        .unwrap()
+        .file_type()
+        .is_symlink());
+    assert_eq!(names_in(&dir), vec!["stdout".to_string()]);
+}
+
+/// `-o` onto a device writes into it and leaves it a device. Run as root,
+/// the device is a null device made in the test's folder (the same numbers
+/// as /dev/null), so that a program that replaced it would not replace
+/// /dev/null itself; otherwise /dev/null, which a user cannot replace.
+#[test]
+#[cfg(target_os = "linux")]
+fn a_device_is_written_into_and_stays_a_device() {
+    use std::os::unix::fs::FileTypeExt;
+    let dir = folder("device");
+    let own = dir.join("null");
+    // SAFETY: a valid NUL-terminated path; mknod touches nothing else.
+    let made = unsafe {
+        libc::mknod(
+            c_path(&own).as_ptr(),
+            libc::S_IFCHR | 0o666,
+            libc::makedev(1, 3),
+        )
+    } == 0;
+    // SAFETY: geteuid has no preconditions.
+    let root = unsafe { libc::geteuid() } == 0;
+    let device = if made {
+        own
+    } else if !root {
+        PathBuf::from("/dev/null")
+    } else {
+        panic!("root could not make a device node in {}", dir.display());
+    };
+    let o = travertine(&["sheet", POND, "-o", device.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    assert!(stderr(&o).starts_with("rows read: 48;"), "{}", stderr(&o));
+    let kind = std::fs::symlink_metadata(&device).unwrap().file_type();
+    assert!(
+        kind.is_char_device(),
+        "{} was replaced: {kind:?}",
+        device.display()
+    );
+    if made {
+        assert_eq!(names_in(&dir), vec!["null".to_string()]);
+    }
+}
+
+/// A socket cannot take the results: refused with a message that says so,
+/// and left in place (it used to be replaced by a plain file).
+#[test]
+#[cfg(unix)]
+fn a_socket_is_refused() {
+    use std::os::unix::fs::FileTypeExt;
+    let dir = folder("socket");
+    let socket = dir.join("results.sock");
+    let _listener = std::os::unix::net::UnixListener::bind(&socket).expect("socket made");
+    let o = travertine(&["sheet", POND, "-o", socket.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(2), "stderr: {}", stderr(&o));
+    assert_eq!(
+        stderr(&o),
+        format!(
+            "travertine sheet: cannot write {}: it is a socket, which cannot be opened as a \
+             file; write to standard output and send that to the socket instead\n",
+            socket.display()
+        )
+    );
+    assert!(std::fs::symlink_metadata(&socket)
+        .unwrap()
+        .file_type()
+        .is_socket());
+}
+
+/// A symbolic link given as the output is followed: the file it names gets
+/// the results and the link stays a link (it used to be replaced by a
+/// plain file). A link to a file not made yet makes that file; a chain of
+/// links is followed to its end.
+#[test]
+#[cfg(unix)]
+fn a_link_is_followed_and_kept() {
+    let dir = folder("link");
+    let real = dir.join("real.csv");
+    std::fs::write(&real, "earlier results\n").unwrap();
+    let link = dir.join("link.csv");
+    std::os::unix::fs::symlink("real.csv", &link).unwrap();
+    let chain = dir.join("chain.csv");
+    std::os::unix::fs::symlink(&link, &chain).unwrap();
+    let dangling = dir.join("dangling.csv");
+    std::os::unix::fs::symlink("made.csv", &dangling).unwrap();
+    for (name, target, made) in [
+        (&link, "real.csv", &real),
+        (&chain, link.to_str().unwrap(), &real),
+        (&dangling, "made.csv", &dir.join("made.csv")),
+    ] {
+        std::fs::write(&real, "earlier results\n").unwrap();
+        let o = travertine(&["sheet", POND, "-o", name.to_str().unwrap()]);
+        assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+        let meta = std::fs::symlink_metadata(name).unwrap();
+        assert!(meta.file_type().is_symlink(), "{} replaced", name.display());
+        assert_eq!(std::fs::read_link(name).unwrap(), PathBuf::from(target));
+        let text = std::fs::read_to_string(made).unwrap();
+        assert_eq!(records(&text).len(), 48, "{}", name.display());
+    }
+    assert_eq!(
+        names_in(&dir),
+        [
+            "chain.csv",
+            "dangling.csv",
+            "link.csv",
+            "made.csv",
+            "real.csv"
+        ]
+    );
+}
+
+/// A file replaced keeps its permissions, and its owner where that can be
+/// set (as root); it used to get a new file's (0o644 under the usual umask).
+#[test]
+#[cfg(unix)]
+fn a_replaced_file_keeps_its_mode_and_owner() {
+    use std::os::unix::fs::{MetadataExt, PermissionsExt};
+    let dir = folder("mode");
+    let out = dir.join("results.csv");
+    // SAFETY: geteuid has no preconditions.
+    let root = unsafe { libc::geteuid() } == 0;
+    // Two modes, so that no umask gives both by chance.
+    for mode in [0o640, 0o604] {
+        std::fs::write(&out, "earlier results\n").unwrap();
+        std::fs::set_permissions(&out, std::fs::Permissions::from_mode(mode)).unwrap();
+        if root {
+            std::os::unix::fs::chown(&out, Some(4321), Some(4322)).unwrap();
+        }
+        let o = travertine(&["sheet", POND, "-o", out.to_str().unwrap()]);
+        assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+        let meta = std::fs::metadata(&out).unwrap();
+        assert_eq!(meta.permissions().mode() & 0o7777, mode);
+        if root {
+            assert_eq!((meta.uid(), meta.gid()), (4321, 4322));
+        }
+        assert_eq!(records(&std::fs::read_to_string(&out).unwrap()).len(), 48);
+    }
+}
+
+/// Ctrl-C, SIGTERM and SIGHUP while a sheet is being written to a file
+/// leave no hidden temporary file, and an earlier output as it was; the
+/// program ends by the signal. The sheet comes on standard input, which
+/// the test keeps open, so the program is surely still writing.
+#[test]
+#[cfg(unix)]
+fn a_stop_signal_leaves_no_temporary_file() {
+    use std::os::unix::process::ExitStatusExt;
+    let dir = folder("signals");
+    let out = dir.join("results.csv");
+    for signal in [libc::SIGTERM, libc::SIGINT, libc::SIGHUP] {
+        std::fs::write(&out, "earlier results\n").unwrap();
+        let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
+            .args(["sheet", "-", "-o", out.to_str().unwrap()])
+            .stdin(Stdio::piped())
+            .stdout(Stdio::piped())
+            .stderr(Stdio::piped())
+            .spawn()
+            .expect("the binary runs");
+        let mut input = child.stdin.take().expect("stdin");
+        input.write_all(SEA.as_bytes()).unwrap();
+        for _ in 0..20_000 {
+            input.write_all(b"25,35,2300,8\n").unwrap();
+        }
+        let started = std::time::Instant::now();
+        while names_in(&dir).len() < 2 {
+            assert!(
+                started.elapsed().as_secs() < 30,
+                "no temporary file appeared: {:?}",
+                names_in(&dir)
+            );
+            std::thread::sleep(std::time::Duration::from_millis(5));
+        }
+        let pid = libc::pid_t::try_from(child.id()).unwrap();
+        // SAFETY: kill has no memory preconditions; pid is our child.
+        assert_eq!(unsafe { libc::kill(pid, signal) }, 0);
+        let o = child.wait_with_output().expect("the binary ends");
+        drop(input);
+        assert_eq!(
+            o.status.signal(),
+            Some(signal),
+            "{:?} {}",
+            o.status,
+            stderr(&o)
+        );
+        assert_eq!(
+            names_in(&dir),
+            vec!["results.csv".to_string()],
+            "signal {signal}"
+        );
+        assert_eq!(std::fs::read_to_string(&out).unwrap(), "earlier results\n");
+    }
+}
+
+/// A command whose standard output is closed (`>&-`).
+#[cfg(unix)]
+fn with_stdout_closed(args: &[&str]) -> Output {
+    use std::os::unix::process::CommandExt;
+    let mut command = Command::new(env!("CARGO_BIN_EXE_travertine"));
+    command.args(args).current_dir(env!("CARGO_MANIFEST_DIR"));
+    // SAFETY: close is async-signal-safe and only closes the child's fd 1.
+    unsafe {
+        command.pre_exec(|| {
+            libc::close(1);
+            Ok(())
+        });
+    }
+    command.output().expect("the binary runs")
+}
+
+/// A closed standard output is an error, not exit code 0 with the results
+/// lost; with `-o` standard output is not needed.
+#[test]
+#[cfg(unix)]
+fn a_closed_standard_output_is_an_error() {
+    let o = with_stdout_closed(&["sheet", POND]);
+    assert_eq!(o.status.code(), Some(2));
+    assert_eq!(
+        stderr(&o),
+        "travertine sheet: standard output is closed (as with >&-), so nothing could be written \
+         to it; give -o FILE, or send it to a file or a pipe\n"
+    );
+    let dir = folder("closed");
+    let out = dir.join("results.csv");
+    let o = with_stdout_closed(&["sheet", POND, "-o", out.to_str().unwrap()]);
+    assert_eq!(o.status.code(), Some(0), "stderr: {}", stderr(&o));
+    assert_eq!(records(&std::fs::read_to_string(&out).unwrap()).len(), 48);
+}
+
+/// A full standard error: the summary cannot be shown, the results are
+/// written all the same and nothing panics; an error keeps its exit code.
+#[test]
+#[cfg(target_os = "linux")]
+fn a_full_standard_error_does_not_stop_the_sheet() {
+    let full = || {
+        std::fs::OpenOptions::new()
+            .write(true)
+            .open("/dev/full")
+            .expect("/dev/full exists on Linux")
+    };
+    let o = Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(["sheet", POND])
+        .current_dir(env!("CARGO_MANIFEST_DIR"))
+        .stderr(full())
+        .output()
+        .expect("the binary runs");
+    assert_eq!(o.status.code(), Some(0));
+    assert_eq!(records(&stdout(&o)).len(), 48);
+    let o = Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(["sheet", "no-such-sheet.csv"])
+        .stderr(full())
+        .output()
+        .expect("the binary runs");
+    assert_eq!(o.status.code(), Some(2));
+}
+
+/// The lines in messages are the lines an editor shows, whatever ends
+/// them: `\r\n` (Windows), a lone `\r` (old Mac) or a mix; a line break in
+/// a quoted cell is a line too. The CSV reader's own count was one early
+/// for CRLF and lost for a lone `\r`.
+#[test]
+fn messages_give_the_line_an_editor_shows() {
+    let header = "site,temperature_c,salinity,alkalinity_umol_kg,ph_total";
+    for (name, text, line) in [
+        (
+            "LF",
+            format!("{header}\na,25,35,2300,8\nb,25,35,2300,x\n"),
+            3,
+        ),
+        (
+            "CRLF",
+            format!("{header}\r\na,25,35,2300,8\r\nb,25,35,2300,x\r\n"),
+            3,
+        ),
+        (
+            "CR",
+            format!("{header}\ra,25,35,2300,8\rb,25,35,2300,x\r"),
+            3,
+        ),
+        (
+            "mixed",
+            format!("{header}\r\na,25,35,2300,8\nb,25,35,2300,x\rc,25,35,2300,8\n"),
+            3,
+        ),
+        (
+            "byte-order mark and CRLF",
+            format!("\u{feff}{header}\r\na,25,35,2300,8\r\nb,25,35,2300,x\r\n"),
+            3,
+        ),
+        (
+            "blank lines and a quoted break",
+            format!("{header}\r\n\r\n\"a\r\nshore\",25,35,2300,8\r\nb,25,35,2300,x\r\n"),
+            5,
+        ),
+    ] {
+        let o = with_stdin(&["sheet", "-"], text.as_bytes());
+        assert_eq!(o.status.code(), Some(0), "{name}: {}", stderr(&o));
+        let expected = format!("error: column `ph_total`: not a number (line {line})");
+        assert!(stderr(&o).contains(&expected), "{name}: {}", stderr(&o));
+        let summary = travertine::sheet::process(
+            &travertine::sheet::SheetOptions::default(),
+            text.as_bytes(),
+            Vec::new(),
+        )
+        .unwrap();
+        assert_eq!(summary.messages[0].lines, vec![line], "{name}");
+    }
+}
+
+/// A quote never closed swallows the lines after it into one cell. That
+/// row is an error naming the line where the quote opened and saying that
+/// the lines after it were read into the cell (which is written back
+/// unchanged, so nothing is lost). It used to be `ok`, with the lines gone
+/// from the sheet without a word. A note over a few lines stays `ok`.
+#[test]
+fn a_quote_never_closed_is_an_error_of_its_row() {
+    let mut text = String::from("site,temperature_c,salinity,alkalinity_umol_kg,ph_total,notes\n");
+    text.push_str("a,25,35,2300,8,\"calm\nno wind\"\n");
+    text.push_str("b,25,35,2300,8,\"lid left open\n");
+    for _ in 0..20 {
+        text.push_str("c,25,35,2300,8,\n");
+    }
+    let o = with_stdin(&["sheet", "-"], text.as_bytes());
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let out = stdout(&o);
+    assert_eq!(column(&out, "status"), vec!["ok", "error"]);
+    assert_eq!(
+        column(&out, "message")[1],
+        "column `notes`: the quote that opens this cell on line 4 seems never to be closed: the \
+         cell runs on over 21 lines (lines 4 to 24), so the lines after it were read into this \
+         one cell and are not rows of their own; close or remove the quote and run the sheet \
+         again"
+    );
+    assert_eq!(column(&out, "notes")[1].lines().count(), 21);
+    assert!(stderr(&o)
+        .contains("error: a quote that is never closed runs on over the lines after it (line 4)"));
+    // A few long lines swallowed: over 64 KiB in the cell.
+    let mut text = String::from("site,temperature_c,salinity,alkalinity_umol_kg,ph_total,notes\n");
+    text.push_str("b,25,35,2300,8,\"lid left open\n");
+    for _ in 0..3 {
+        text.push_str(&"x".repeat(30_000));
+        text.push('\n');
+    }
+    let o = with_stdin(&["sheet", "-"], text.as_bytes());
+    let out = stdout(&o);
+    assert_eq!(column(&out, "status"), vec!["error"]);
+    assert!(
+        column(&out, "message")[0].contains("on line 2 seems never to be closed: the cell runs on over 4 lines (lines 2 to 5, 87 KiB)"),
+        "{}",
+        column(&out, "message")[0]
+    );
+}
+
+/// A sheet saved as UTF-16 ("Unicode text") is refused with a message that
+/// says so and how to convert it; it used to be read as garbled headers.
+#[test]
+fn a_utf16_sheet_is_refused_with_advice() {
+    let le: Vec<u8> = SEA.encode_utf16().flat_map(u16::to_le_bytes).collect();
+    let be: Vec<u8> = SEA.encode_utf16().flat_map(u16::to_be_bytes).collect();
+    let with_bom = |bom: &[u8], body: &[u8]| [bom, body].concat();
+    for (name, bytes, how) in [
+        (
+            "LE with BOM",
+            with_bom(b"\xFF\xFE", &le),
+            "little-endian, with a byte-order mark), not UTF-8: save it as UTF-8 (in a \
+             spreadsheet, \"CSV UTF-8\"), or convert it, for example `iconv -f UTF-16 -t UTF-8",
+        ),
+        (
+            "BE with BOM",
+            with_bom(b"\xFE\xFF", &be),
+            "big-endian, with a byte-order mark), not UTF-8: save it as UTF-8 (in a \
+             spreadsheet, \"CSV UTF-8\"), or convert it, for example `iconv -f UTF-16 -t UTF-8",
+        ),
+        (
+            "LE without BOM",
+            le.clone(),
+            "little-endian, without a byte-order mark), not UTF-8: save it as UTF-8 (in a \
+             spreadsheet, \"CSV UTF-8\"), or convert it, for example `iconv -f UTF-16LE -t UTF-8",
+        ),
+        (
+            "BE without BOM",
+            be.clone(),
+            "big-endian, without a byte-order mark), not UTF-8: save it as UTF-8 (in a \
+             spreadsheet, \"CSV UTF-8\"), or convert it, for example `iconv -f UTF-16BE -t UTF-8",
+        ),
+    ] {
+        let o = with_stdin(&["sheet", "-"], &bytes);
+        assert_eq!(o.status.code(), Some(2), "{name}");
+        let expected = format!("travertine sheet: standard input is in UTF-16 ({how}");
+        assert!(stderr(&o).starts_with(&expected), "{name}: {}", stderr(&o));
+        assert!(stdout(&o).is_empty());
+    }
+    // UTF-8 with non-ASCII headers is still read.
+    let o = with_stdin(
+        &["sheet", "-"],
+        "Temp (°C),salinity,alkalinity_umol_kg,ph_total\n25,35,2300,8\n".as_bytes(),
+    );
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+}

@@ -32,6 +32,21 @@ pub enum SheetError {
         /// The cause.
         source: std::io::Error,
     },
+    /// The input is in UTF-16 (as some spreadsheet programs save "Unicode
+    /// text"), which the sheet does not read.
+    #[error(
+        "{what} is in UTF-16 ({order}), not UTF-8: save it as UTF-8 (in a spreadsheet, \
+         \"CSV UTF-8\"), or convert it, for example `iconv -f {iconv} -t UTF-8 FILE > FILE-utf8.csv`"
+    )]
+    Utf16 {
+        /// The input, as named by the user.
+        what: String,
+        /// `little-endian` or `big-endian`, and whether it has a byte-order
+        /// mark.
+        order: &'static str,
+        /// The name `iconv` knows this encoding by.
+        iconv: &'static str,
+    },
     /// A header names a known quantity without a unit that can be read.
     #[error(
         "column `{header}`: {problem}; accepted: {accepted}. Write the unit in the header \

@@ -43,6 +43,15 @@
 //!   fields are quoted in the message, so nothing is lost).
 //! - A temperature above 40 °C in a °C column is computed but cautioned:
 //!   it is often a reading in °F.
+//! - A cell with a line break that runs on over more than 10 lines or
+//!   64 KiB is taken for a quote never closed (which takes every line after
+//!   it into the cell): the row is an error naming the line where the
+//!   quote opened. The cell is written back unchanged.
+//! - Messages and the [`Summary`] give the line a row starts on as an
+//!   editor shows it: `\n`, `\r\n` and a lone `\r` each end a line, and a
+//!   line break in a quoted cell is a line.
+//! - The input is UTF-8 (invalid bytes pass through); a file in UTF-16
+//!   stops the sheet with [`SheetError::Utf16`].
 //!
 //! # Output
 //! The input's fields unchanged (invalid UTF-8 included), then the computed
@@ -77,6 +86,7 @@ mod columns;
 mod error;
 mod files;
 mod header;
+mod lines;
 mod pair;
 mod pipeline;
 mod plan;
@@ -86,7 +96,7 @@ mod write;
 
 pub use columns::UnitSystem;
 pub use error::SheetError;
-pub use files::{Sink, Source};
+pub use files::{remove_unfinished_outputs, Sink, Source};
 pub use header::column_guide;
 pub use summary::{MessageCount, Summary};
 
@@ -402,6 +412,35 @@ pub fn process<R: Read + Send, W: Write + Send>(
 const PEEK: u64 = 64 * 1024;
 const BOM: &[u8] = b"\xEF\xBB\xBF";
 
+/// Whether the head of a file is UTF-16: a byte-order mark, or (without
+/// one) text whose every other byte is zero, as ASCII in UTF-16 is. Gives
+/// how it is written and its name for `iconv` (which reads the byte-order
+/// mark itself, and takes UTF-16 without one as big-endian).
+fn utf16(head: &[u8]) -> Option<(&'static str, &'static str)> {
+    if head.starts_with(b"\xFF\xFE") {
+        return Some(("little-endian, with a byte-order mark", "UTF-16"));
+    }
+    if head.starts_with(b"\xFE\xFF") {
+        return Some(("big-endian, with a byte-order mark", "UTF-16"));
+    }
+    // Pairs of bytes of the first lines: in UTF-8 text a zero byte has no
+    // place at all.
+    let pairs: Vec<&[u8]> = head[..head.len().min(1024)].chunks_exact(2).collect();
+    if pairs.len() < 2 {
+        return None;
+    }
+    let mostly = |n: usize| n * 10 >= pairs.len() * 9;
+    let high_zero = pairs.iter().filter(|p| p[1] == 0 && p[0] != 0).count();
+    let low_zero = pairs.iter().filter(|p| p[0] == 0 && p[1] != 0).count();
+    if mostly(high_zero) {
+        Some(("little-endian, without a byte-order mark", "UTF-16LE"))
+    } else if mostly(low_zero) {
+        Some(("big-endian, without a byte-order mark", "UTF-16BE"))
+    } else {
+        None
+    }
+}
+
 fn process_stream<R: Read + Send, W: Write + Send>(
     options: &SheetOptions,
     mut input: R,
@@ -418,12 +457,19 @@ fn process_stream<R: Read + Send, W: Write + Send>(
         .take(PEEK)
         .read_to_end(&mut head)
         .map_err(unreadable)?;
+    if let Some((order, iconv)) = utf16(&head) {
+        return Err(SheetError::Utf16 {
+            what: what.to_string(),
+            order,
+            iconv,
+        });
+    }
     let bom = head.starts_with(BOM);
     let crlf = head
         .iter()
         .position(|b| *b == b'\n')
         .is_some_and(|i| i > 0 && head[i - 1] == b'\r');
-    let reader = std::io::Cursor::new(head).chain(input);
+    let reader = lines::Lines::new(std::io::Cursor::new(head).chain(input));
     let mut csv = csv::ReaderBuilder::new()
         .has_headers(false)
         .flexible(true)
@@ -480,12 +526,17 @@ fn process_stream<R: Read + Send, W: Write + Send>(
 ///
 /// The output file is written to a temporary file in the same folder and
 /// renamed when complete, so a failure part-way leaves no half file under
-/// its name. It is never the input file.
+/// its name; a file it replaces keeps its permissions (and its owner where
+/// the system allows). A symbolic link is followed: the file it names is
+/// replaced (or created, for a link to nothing yet) and the link stays. A
+/// named pipe or a device (`/dev/null`, a terminal) is written straight
+/// into, never replaced. The output is never the input file.
 ///
 /// # Errors
 /// As [`process`]; [`SheetError::Unreadable`] for an input that cannot be
 /// opened; [`SheetError::OverwriteInput`] when the output is the input;
-/// [`SheetError::Output`] when the output cannot be written.
+/// [`SheetError::Output`] when the output cannot be written (a folder, a
+/// socket, a folder that does not exist).
 ///
 /// ```no_run
 /// use travertine::sheet::{run, Sink, SheetOptions, Source};
@@ -557,15 +608,35 @@ fn to_sink<R: Read + Send>(
         Sink::Stdout => {
             process_stream(options, reader, std::io::stdout(), size, what).map(|(s, _)| s)
         }
-        Sink::Path(path) => {
-            let mut temp = files::TempFile::create(path)?;
-            let file = temp.take_file().ok_or_else(|| SheetError::Output {
-                path: path.clone(),
-                source: std::io::Error::other("the temporary file is gone"),
-            })?;
-            let (summary, file) = process_stream(options, reader, file, size, what)?;
-            temp.persist(file)?;
-            Ok(summary)
+        Sink::Path(shown) => {
+            let fail = |source| SheetError::Output {
+                path: shown.clone(),
+                source,
+            };
+            // What the path names is asked of the system first, which
+            // follows every link, /proc's links to open files included
+            // (`/dev/stdout` names the pipe standard output is).
+            match files::target_kind(shown)? {
+                files::Target::Stream => {
+                    // A pipe or a device cannot be replaced, only written
+                    // into; a file put in its place would hide it.
+                    let file = std::fs::OpenOptions::new()
+                        .write(true)
+                        .open(shown)
+                        .map_err(fail)?;
+                    process_stream(options, reader, file, size, what).map(|(s, _)| s)
+                }
+                files::Target::File => {
+                    let path = files::follow_links(shown).map_err(fail)?;
+                    let mut temp = files::TempFile::create(&path, shown)?;
+                    let file = temp
+                        .take_file()
+                        .ok_or_else(|| fail(std::io::Error::other("the temporary file is gone")))?;
+                    let (summary, file) = process_stream(options, reader, file, size, what)?;
+                    temp.persist(file)?;
+                    Ok(summary)
+                }
+            }
         }
     }
 }

@@ -2,6 +2,7 @@
 //! on every core, one thread writes the results in input order. At most a
 //! few chunks are alive at once, so memory does not grow with the rows.
 
+use super::lines::Lines;
 use super::plan::Plan;
 use super::row::{evaluate, Scratch};
 use super::summary::{Summary, Tally};
@@ -45,7 +46,7 @@ impl Chunk {
 }
 
 fn read_chunks<R: Read>(
-    mut reader: csv::Reader<R>,
+    mut reader: csv::Reader<Lines<R>>,
     full: SyncSender<Result<Chunk, SheetError>>,
     empty: Receiver<Chunk>,
 ) {
@@ -62,7 +63,8 @@ fn read_chunks<R: Read>(
             }
             match reader.read_byte_record(&mut chunk.records[i]) {
                 Ok(true) => {
-                    chunk.lines[i] = chunk.records[i].position().map_or(0, |p| p.line());
+                    let at = chunk.records[i].position().map_or(0, |p| p.byte());
+                    chunk.lines[i] = reader.get_mut().record_line(at);
                     bytes += chunk.records[i].as_slice().len();
                     chunk.len += 1;
                 }
@@ -71,7 +73,8 @@ fn read_chunks<R: Read>(
                     break;
                 }
                 Err(e) => {
-                    let line = reader.position().line();
+                    let at = reader.position().byte();
+                    let line = reader.get_mut().line_at(at);
                     let source = match e.into_kind() {
                         csv::ErrorKind::Io(io) => io,
                         other => std::io::Error::other(format!("{other:?}")),
@@ -114,7 +117,7 @@ fn task(
     let mut tally = Tally::default();
     let mut writer = RowWriter::new(style, keys, records.len() * 256);
     for (record, line) in records.iter().zip(lines) {
-        evaluate(plan, record, &mut scratch);
+        evaluate(plan, record, *line, &mut scratch);
         writer.row(plan, record, &scratch);
         tally.add(&scratch, *line);
     }
@@ -127,7 +130,7 @@ pub(crate) fn run<R: Read + Send, W: Write + Send>(
     plan: &Plan,
     style: Style,
     keys: &[Vec<u8>],
-    reader: csv::Reader<R>,
+    reader: csv::Reader<Lines<R>>,
     out: W,
     header: Vec<u8>,
     progress: Option<&ProgressBar>,

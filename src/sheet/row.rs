@@ -2,6 +2,7 @@
 
 use super::cell;
 use super::columns::UnitSystem;
+use super::lines::count_line_ends;
 use super::pair::{choose_pair, rank, RANKING};
 use super::plan::{Label, Plan, STATE_THE_SCALE};
 use crate::base::error::Error;
@@ -266,12 +267,16 @@ fn medium_scale(m: Medium) -> PhScale {
 pub(crate) const WARM_C: f64 = 40.0;
 
 /// Evaluates one row into `s`.
-pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {
+pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut Scratch) {
     s.issues.clear();
     s.values.clear();
     s.residuals.clear();
     s.residuals.resize(plan.residuals.len(), None);
-    let status = solve_row(plan, record, s);
+    let status = if unclosed_quote(plan, record, line, s) {
+        None
+    } else {
+        solve_row(plan, record, s)
+    };
     if status.is_none() {
         s.values.clear();
         s.residuals.iter_mut().for_each(|r| *r = None);
@@ -283,6 +288,58 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {
     } else {
         Status::Warning
     };
+}
+
+/// A cell that holds a line break and runs on over more than this many
+/// lines, or [`RUN_ON_BYTES`], is taken for a quote that was never closed.
+const RUN_ON_LINES: u64 = 10;
+/// See [`RUN_ON_LINES`].
+const RUN_ON_BYTES: usize = 64 * 1024;
+
+/// Makes the row an error when one of its cells looks like a quote left
+/// open: the CSV reader then reads every line after it, up to the next
+/// quote or the end of the file, into that one cell. Those lines are not
+/// lost (they are in the cell, written back unchanged) but they are not
+/// rows of their own, so the message says so and where the quote opened.
+fn unclosed_quote(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut Scratch) -> bool {
+    // The line each field starts on.
+    let mut at = line;
+    for (k, field) in record.iter().enumerate() {
+        let (all_ends, _) = count_line_ends(field, false);
+        // A quote open to the end of the file takes the file's last line
+        // end too, which starts no line.
+        let body = field
+            .strip_suffix(b"\r\n")
+            .or_else(|| field.strip_suffix(b"\n"))
+            .or_else(|| field.strip_suffix(b"\r"))
+            .unwrap_or(field);
+        let (ends, _) = count_line_ends(body, false);
+        if ends > 0 && (ends + 1 > RUN_ON_LINES || field.len() > RUN_ON_BYTES) {
+            let column = match plan.headers.get(k) {
+                Some(h) => format!("column `{}`", String::from_utf8_lossy(h).trim()),
+                None => format!("field {}", k + 1),
+            };
+            let size = if field.len() > RUN_ON_BYTES {
+                format!(", {} KiB", field.len() / 1024)
+            } else {
+                String::new()
+            };
+            s.error(
+                "a quote that is never closed runs on over the lines after it".into(),
+                format!(
+                    "{column}: the quote that opens this cell on line {at} seems never to be \
+                     closed: the cell runs on over {} lines (lines {at} to {}{size}), so the \
+                     lines after it were read into this one cell and are not rows of their own; \
+                     close or remove the quote and run the sheet again",
+                    ends + 1,
+                    at + ends,
+                ),
+            );
+            return true;
+        }
+        at += all_ends;
+    }
+    false
 }
 
 /// The work of [`evaluate`]; `None` when the row cannot be computed.
