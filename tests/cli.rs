@@ -842,6 +842,11 @@ fn full_digits_in_the_table_read_back_as_the_json() {
             checked += 1;
         }
         assert!(checked > 25, "{medium:?}: {checked} rows checked");
+        // The salinity of the header line too (computed from the
+        // conductivity in the pond).
+        let salinity = json["salinity"].as_f64().unwrap();
+        let first = text.lines().next().unwrap();
+        assert!(first.contains(&format!("salinity {salinity}, ")), "{first}");
         assert_no_exponent(&text, "full digits");
     }
     // A choice that is not one is refused, naming the flag.

@@ -89,10 +89,12 @@ fn round_half_up(scaled: f64) -> u64 {
     t + u64::from(scaled - t as f64 >= 0.5)
 }
 
-/// A number written into a fixed buffer.
+/// A number written: into a fixed buffer on the usual path, or a string
+/// where Rust's own formatting wrote it.
 pub(crate) struct Written {
     buf: [u8; 48],
     len: usize,
+    text: Option<String>,
 }
 
 impl Written {
@@ -100,9 +102,12 @@ impl Written {
         Written {
             buf: [0; 48],
             len: 0,
+            text: None,
         }
     }
 
+    /// Appends a byte; the callers write at most 41 (a sign, 16 digits, a
+    /// point, 22 decimals and a leading zero).
     fn push(&mut self, b: u8) {
         self.buf[self.len] = b;
         self.len += 1;
@@ -110,12 +115,16 @@ impl Written {
 
     /// The text written (ASCII).
     pub(crate) fn as_bytes(&self) -> &[u8] {
-        &self.buf[..self.len]
+        match &self.text {
+            Some(t) => t.as_bytes(),
+            None => &self.buf[..self.len],
+        }
     }
 
     /// `m` with a decimal point `decimals` digits from its end (a negative
     /// `decimals` appends that many zeros), a minus sign first when
-    /// `negative` and `m` is not zero.
+    /// `negative` and `m` is not zero. `m` is below 2^53 and `decimals` at
+    /// most 22.
     fn plain(negative: bool, m: u64, decimals: i32) -> Self {
         let mut w = Written::new();
         if negative && m != 0 {
@@ -165,16 +174,14 @@ impl Written {
     }
 
     /// The text of Rust's own formatting, for the rare cases the fast
-    /// path leaves (and cut to the buffer, which no finite number in
-    /// those cases overflows).
+    /// path leaves (very large or small values, many digits).
     fn from_std(args: std::fmt::Arguments<'_>) -> Self {
         let mut s = String::new();
         let _ = s.write_fmt(args);
-        let mut w = Written::new();
-        for &b in s.as_bytes().iter().take(48) {
-            w.push(b);
+        Written {
+            text: Some(s),
+            ..Written::new()
         }
-        w
     }
 }
 
@@ -210,16 +217,12 @@ impl Digits {
                         return Written::plain(negative, round_half_up(scaled), d);
                     }
                 }
-                let w = Written::from_std(format_args!("{a:.prec$}", prec = d as usize));
-                if negative {
-                    let mut s = Written::new();
-                    s.push(b'-');
-                    for &b in w.as_bytes().iter().take(47) {
-                        s.push(b);
-                    }
-                    return s;
-                }
-                w
+                // Rounded as Rust rounds; a value that rounds to zero has
+                // no sign.
+                let text = format!("{a:.prec$}", prec = d as usize);
+                let zero = text.bytes().all(|b| b == b'0' || b == b'.');
+                let sign = if negative && !zero { "-" } else { "" };
+                Written::from_std(format_args!("{sign}{text}"))
             }
             Digits::Significant(n) => {
                 let n = i32::from(n.max(1));
@@ -424,6 +427,8 @@ mod tests {
             (2, 1023.3431, "1023.34"),
             (3, 0.00061, "0.001"),
             (3, 123456789.0, "123456789.000"),
+            (2, -1.5e20, "-150000000000000000000.00"),
+            (30, 0.5, "0.500000000000000000000000000000"),
         ] {
             assert_eq!(Digits::Decimals(d).format(v), t, "{v} to {d} decimals");
         }
@@ -452,6 +457,7 @@ mod tests {
             (4, 1.23456e-7, "1.235e-7"),
             (4, 4.56e12, "4.560e12"),
             (4, -2.5e-9, "-2.500e-9"),
+            (40, 1.0, "1.000000000000000000000000000000000000000"),
         ] {
             assert_eq!(Digits::Significant(n).format(v), t, "{v} to {n} figures");
         }

@@ -85,12 +85,18 @@ fn cell(o: Output, s: &State, precision: Precision) -> String {
     }
 }
 
-fn header(s: &State) -> String {
+/// The header line: the medium and the conditions as given (a salinity
+/// computed from a conductivity to 4 decimals, or every digit).
+fn header(s: &State, precision: Precision) -> String {
+    let salinity = match precision {
+        Precision::Full => s.salinity,
+        _ => (s.salinity * 1e4).round() / 1e4,
+    };
     let mut h = format!(
         "{} water at {} °C, salinity {}, {} dbar",
         s.medium.name(),
         s.temperature_c,
-        (s.salinity * 1e4).round() / 1e4,
+        salinity,
         s.pressure_dbar
     );
     if let Some(r) = s.ionic_strength_from {
@@ -190,7 +196,7 @@ pub fn table_on_scale(
         }
         line.trim_end().to_string()
     };
-    let _ = writeln!(out, "{}", header(state));
+    let _ = writeln!(out, "{}", header(state, precision));
     let _ = writeln!(out, "\nKey figures");
     for &o in &key {
         let _ = writeln!(out, "{}", line(o, label_in(o, state.medium), state));
@@ -202,7 +208,7 @@ pub fn table_on_scale(
         }
     }
     if let Some((m, measured_key)) = &measured_key {
-        let _ = writeln!(out, "\nAs measured: {}", header(m));
+        let _ = writeln!(out, "\nAs measured: {}", header(m, precision));
         for &o in measured_key {
             let _ = writeln!(out, "{}", line(o, label_in(o, m.medium), m));
         }
