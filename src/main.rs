@@ -3,6 +3,7 @@
 use clap::{Arg, ArgMatches, Args, FromArgMatches, Parser, Subcommand};
 use std::process::ExitCode;
 use std::sync::atomic::{AtomicBool, Ordering};
+use travertine::output::Precision;
 use travertine::sample::inputs::{Input, InputSpec, INPUTS};
 use travertine::sample::Sample;
 use travertine::sheet::{Format, Progress, SheetError, SheetOptions, Sink, Source, UnitSystem};
@@ -77,6 +78,12 @@ struct SheetArgs {
     /// Which root where two waters fit: natural, lower-ph, higher-ph.
     #[arg(long, default_value = "natural")]
     root: String,
+    /// Digits of the computed CSV columns: `sensible` rounds each to what its
+    /// measurement supports (pH 3 decimals, µmol/kg and µatm 4 significant
+    /// figures, mg/L 3); `full` gives every digit, to read back exactly. Input
+    /// columns are written as typed; JSON lines always have every digit.
+    #[arg(long, default_value = "sensible", value_name = "sensible|full")]
+    digits: String,
 }
 
 #[derive(Args)]
@@ -99,6 +106,12 @@ struct SolveArgs {
     /// Print one flat JSON object instead of a table.
     #[arg(long)]
     json: bool,
+    /// Digits of the table: `sensible` rounds each figure to what its
+    /// measurement supports (pH 3 decimals, µmol/kg and µatm 4 significant
+    /// figures, mg/L 3); `full` gives every digit, to read back exactly. The
+    /// JSON always has every digit.
+    #[arg(long, default_value = "sensible", value_name = "sensible|full")]
+    digits: String,
 }
 
 /// An error tied to the flag that caused it.
@@ -271,6 +284,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let water = sample.water().map_err(flagged)?;
     sample.check_ph_scale(water.medium()).map_err(flagged)?;
     let root: RootChoice = a.root.parse().map_err(at_flag("--root"))?;
+    let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
     // One sample: the precipitation potential's cost does not matter.
     let options = SolveOptions::default()
         .with_root(root)
@@ -297,7 +311,13 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     } else {
         None
     };
-    Ok(render(&state, reported.as_ref(), a.json, sample.ph_scale))
+    Ok(render(
+        &state,
+        reported.as_ref(),
+        a.json,
+        sample.ph_scale,
+        precision,
+    ))
 }
 
 fn render(
@@ -305,13 +325,14 @@ fn render(
     reported: Option<&State>,
     json: bool,
     ph_scale: Option<travertine::PhScale>,
+    precision: Precision,
 ) -> String {
     use travertine::output::{json as to_json, table_on_scale};
     match (json, reported) {
         (true, None) => to_json(measured, None),
         (true, Some(r)) => to_json(r, Some(measured)),
-        (false, None) => table_on_scale(measured, None, ph_scale),
-        (false, Some(r)) => table_on_scale(r, Some(measured), ph_scale),
+        (false, None) => table_on_scale(measured, None, ph_scale, precision),
+        (false, Some(r)) => table_on_scale(r, Some(measured), ph_scale, precision),
     }
 }
 
@@ -322,6 +343,10 @@ fn sheet_options(a: &SheetArgs) -> Result<SheetOptions, SheetError> {
         .with_units(a.units.parse::<UnitSystem>()?)
         .with_delimiter(&a.delimiter)?
         .with_decimal_comma(a.decimal_comma)
+        .with_digits(a.digits.parse().map_err(|e: Error| SheetError::BadOption {
+            option: "--digits",
+            message: e.to_string(),
+        })?)
         .with_progress(Progress::Auto)
         .with_root(a.root.parse().map_err(|e: Error| SheetError::BadOption {
             option: "--root",

@@ -340,7 +340,15 @@ fn fresh_json_has_its_contract_keys() {
     }
     assert_eq!(v["water"], "fresh");
     assert_eq!(v["constants"]["carbonic"], "plummer-busenberg1982");
-    assert_eq!(v["ph_nbs"], 7.6);
+    // The pH given comes back: the fresh solve takes it through the H+
+    // activity and back, so to the last bit or so. (The exact comparison
+    // passed only while serde_json parsed 7.6000000000000005 as 7.6; the
+    // tests now parse numbers exactly, feature `float_roundtrip`.)
+    assert!(
+        (v["ph_nbs"].as_f64().unwrap() - 7.6).abs() < 1e-12,
+        "{}",
+        v["ph_nbs"]
+    );
 }
 
 #[test]
@@ -641,4 +649,251 @@ fn ignored_or_contradictory_inputs_are_refused() {
     );
     let o = pond(&["--calcium", "80 mg/L CaCO3", "--hardness", "100 mg/L CaCO3"]);
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+}
+
+/// The rows of a table: (label, value, unit) of each line `  label  value
+/// unit` (the fits of the Constants block have no unit; warnings are left
+/// out).
+fn table_rows(text: &str) -> Vec<(String, String, String)> {
+    text.lines()
+        .filter(|l| l.starts_with("  ") && !l.starts_with("  - "))
+        .map(|l| {
+            let parts: Vec<&str> = l
+                .split("  ")
+                .map(str::trim)
+                .filter(|p| !p.is_empty())
+                .collect();
+            (
+                parts[0].to_string(),
+                parts.get(1).unwrap_or(&"").to_string(),
+                parts.get(2).unwrap_or(&"").to_string(),
+            )
+        })
+        .collect()
+}
+
+/// The value of the row of this label and unit.
+fn cell<'a>(rows: &'a [(String, String, String)], label: &str, unit: &str) -> &'a str {
+    rows.iter()
+        .find(|(l, _, u)| l == label && u == unit)
+        .map(|(_, v, _)| v.as_str())
+        .unwrap_or_else(|| panic!("no row `{label}` in {unit:?}: {rows:?}"))
+}
+
+/// Whether a plain decimal text has `n` significant figures: with a
+/// point, `n` digits after the leading zeros; an integer, at least `n`
+/// digits of which at most `n` before its trailing zeros (`3940` has 3 or
+/// 4, `14120` 4 or 5).
+fn has_figures(text: &str, n: usize) -> bool {
+    let t = text.trim_start_matches('-');
+    let digits: String = t.chars().filter(char::is_ascii_digit).collect();
+    let digits = digits.trim_start_matches('0');
+    if t.contains(['.', ',']) {
+        digits.len() == n
+    } else {
+        digits.len() >= n && digits.trim_end_matches('0').len() <= n
+    }
+}
+
+/// No number of the table is written with an exponent.
+fn assert_no_exponent(text: &str, what: &str) {
+    for (label, value, _) in table_rows(text) {
+        let number = value.starts_with(|c: char| c.is_ascii_digit() || c == '-');
+        assert!(
+            !(number && value.contains(['e', 'E'])),
+            "{what}: {label} = {value}\n{text}"
+        );
+    }
+}
+
+/// The table writes each figure to the digits its measurement supports:
+/// pH to 3 decimals, pCO2 to 4 significant figures, mg/L to 3 (a small
+/// free CO2 as 0.00xyz, not with an exponent). Before, pH had 4 decimals,
+/// pCO2 2 and small values an exponent (`4.082e-3`).
+#[test]
+fn the_table_writes_each_figure_to_its_digits() {
+    let sea = ["--alkalinity", "2300umol/kg", "--dic", "2000umol/kg"];
+    let o = solve(&sea);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let text = stdout(&o);
+    let rows = table_rows(&text);
+    let json: serde_json::Value =
+        serde_json::from_slice(&solve(&[&sea[..], &["--json"]].concat()).stdout).unwrap();
+    let ph = cell(&rows, "pH, total scale", "");
+    let (int, dec) = ph.split_once('.').expect("a decimal point");
+    assert!(int.len() == 1 && dec.len() == 3, "pH {ph}");
+    assert!((ph.parse::<f64>().unwrap() - json["ph_total"].as_f64().unwrap()).abs() <= 5e-4);
+    let pco2 = cell(&rows, "pCO2", "µatm");
+    assert!(has_figures(pco2, 4), "pCO2 {pco2}");
+    assert!((pco2.parse::<f64>().unwrap() - json["pco2_uatm"].as_f64().unwrap()).abs() <= 0.05);
+    assert!(has_figures(cell(&rows, "free CO2", "mg/L"), 3));
+    assert_no_exponent(&text, "sea water");
+
+    // An invented lime-dosed pond at pH 10.1: little free CO2.
+    let pond = |extra: &[&str]| {
+        let args = [
+            "solve",
+            "--temperature",
+            "22",
+            "--water",
+            "fresh",
+            "--alkalinity",
+            "120 mg/L CaCO3",
+            "--ph",
+            "10.1",
+        ];
+        travertine(&[&args[..], extra].concat())
+    };
+    let json: serde_json::Value = serde_json::from_slice(&pond(&["--json"]).stdout).unwrap();
+    let free = json["free_co2_mg_l"].as_f64().unwrap();
+    assert!((0.001..0.01).contains(&free), "{free}");
+    let o = pond(&[]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let text = stdout(&o);
+    // Three significant figures of a value below 0.01 are five decimals.
+    assert_eq!(
+        cell(&table_rows(&text), "free CO2", "mg/L"),
+        format!("{free:.5}")
+    );
+    assert_no_exponent(&text, "the pond at pH 10.1");
+}
+
+/// No figure of the table of any demo pond (tables/demo/larkvane_ponds.csv)
+/// or of sea water has an exponent; before, the small alkalinity parts had
+/// one (`2.755e-4`).
+#[test]
+fn no_exponent_in_the_tables_of_the_demo_ponds_and_sea_water() {
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tables/demo/larkvane_ponds.csv"
+    );
+    let mut reader = csv::Reader::from_path(path).expect("the demo sheet");
+    let mut solved = 0;
+    for record in reader.records() {
+        let r = record.expect("CSV");
+        let (t, sc, ph, alk, ca, tan) = (&r[3], &r[4], &r[5], &r[6], &r[7], &r[8]);
+        let conductivity = format!("{sc} uS/cm@25C");
+        let alkalinity = format!("{alk} mg/L CaCO3");
+        let calcium = format!("{ca} mg/L CaCO3");
+        let ammonia = format!("{tan} mg/L N");
+        let o = travertine(&[
+            "solve",
+            "--temperature",
+            t,
+            "--conductivity",
+            &conductivity,
+            "--ph",
+            ph,
+            "--alkalinity",
+            &alkalinity,
+            "--calcium",
+            &calcium,
+            "--ammonia",
+            &ammonia,
+        ]);
+        // The planted defects (an empty alkalinity, `7..9`) are refused.
+        if o.status.code() != Some(0) {
+            continue;
+        }
+        solved += 1;
+        assert_no_exponent(&stdout(&o), &format!("{} {} {}", &r[0], &r[1], &r[2]));
+    }
+    assert_eq!(solved, 46, "48 rows, two of them refused");
+    for extra in [
+        &["--alkalinity", "2300umol/kg", "--dic", "2000umol/kg"][..],
+        &["--ph", "7.6", "--ph-scale", "total", "--pco2", "1200uatm"][..],
+        &[
+            "--ph",
+            "8.3",
+            "--ph-scale",
+            "total",
+            "--alkalinity",
+            "2300umol/kg",
+        ][..],
+    ] {
+        let o = solve(extra);
+        assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+        assert_no_exponent(&stdout(&o), &format!("{extra:?}"));
+    }
+}
+
+/// `--digits full` writes every figure of the table as the shortest text
+/// that reads back as exactly the f64 of the JSON, in both media.
+#[test]
+fn full_digits_in_the_table_read_back_as_the_json() {
+    use travertine::output::Output;
+    use travertine::Medium;
+    let sea: Vec<&str> = [
+        "solve",
+        "--alkalinity",
+        "2300umol/kg",
+        "--dic",
+        "2000umol/kg",
+    ]
+    .into_iter()
+    .chain(SEA)
+    .collect();
+    let pond: Vec<&str> = [
+        "solve",
+        "--temperature",
+        "24.3",
+        "--conductivity",
+        "415 uS/cm@25C",
+        "--ph",
+        "7.52",
+        "--alkalinity",
+        "117 mg/L CaCO3",
+        "--calcium",
+        "83 mg/L CaCO3",
+        "--ammonia",
+        "0.41 mg/L N",
+    ]
+    .into_iter()
+    .collect();
+    for (args, medium) in [(sea, Medium::Saline), (pond, Medium::Fresh)] {
+        let json: serde_json::Value =
+            serde_json::from_slice(&travertine(&[&args[..], &["--json"]].concat()).stdout)
+                .expect("JSON");
+        let o = travertine(&[&args[..], &["--digits", "full"]].concat());
+        assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+        let text = stdout(&o);
+        let rows = table_rows(&text);
+        let mut checked = 0;
+        for o in Output::ALL {
+            let Some(label) = o.label_in(medium) else {
+                continue;
+            };
+            let Some(expected) = json[o.key()].as_f64() else {
+                continue;
+            };
+            let shown = cell(&rows, label, o.unit());
+            let got: f64 = shown
+                .parse()
+                .unwrap_or_else(|_| panic!("{}: `{shown}`", o.key()));
+            assert_eq!(got.to_bits(), expected.to_bits(), "{}: `{shown}`", o.key());
+            checked += 1;
+        }
+        assert!(checked > 25, "{medium:?}: {checked} rows checked");
+        // The salinity of the header line too (computed from the
+        // conductivity in the pond).
+        let salinity = json["salinity"].as_f64().unwrap();
+        let first = text.lines().next().unwrap();
+        assert!(first.contains(&format!("salinity {salinity}, ")), "{first}");
+        assert_no_exponent(&text, "full digits");
+    }
+    // A choice that is not one is refused, naming the flag.
+    let o = solve(&[
+        "--alkalinity",
+        "2300umol/kg",
+        "--dic",
+        "2000umol/kg",
+        "--digits",
+        "all",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        stderr(&o).contains("--digits") && stderr(&o).contains("sensible, full"),
+        "{}",
+        stderr(&o)
+    );
 }

@@ -5,9 +5,11 @@
 //! calcium.
 //!
 //! The two commands are two routes through the same library, so the values
-//! are compared with each other, not with a reference: the sheet prints six
-//! significant digits, so a JSON number is rounded the same way and the two
-//! must then agree to 1e-9 relative.
+//! are compared with each other, not with a reference: with `--digits full`
+//! every sheet cell reads back as exactly the f64 of the JSON (a round trip
+//! of the text), and with the default digits every cell is the JSON value
+//! written to its output's precision rule (`Output::digits`). The sheet's
+//! JSON lines always give every digit.
 
 use std::collections::BTreeSet;
 use std::io::Write;
@@ -94,11 +96,21 @@ fn solved(case: &Case) -> serde_json::Map<String, serde_json::Value> {
     v.as_object().expect("an object").clone()
 }
 
-/// The computed columns of `sheet --columns all` for the case: header and
-/// cell, without the input columns passed through, `status` and `message`.
-fn sheeted(case: &Case) -> Vec<(String, String)> {
+/// The computed columns of `sheet --columns all --digits DIGITS` for the
+/// case: header and cell, without the input columns passed through,
+/// `status` and `message`.
+fn sheeted(case: &Case, digits: &str) -> Vec<(String, String)> {
     let o = run(
-        &["sheet", "-", "-o", "-", "--columns", "all"],
+        &[
+            "sheet",
+            "-",
+            "-o",
+            "-",
+            "--columns",
+            "all",
+            "--digits",
+            digits,
+        ],
         Some(case.sheet.as_bytes()),
     );
     let mut reader = csv::Reader::from_reader(&o.stdout[..]);
@@ -138,14 +150,9 @@ fn sheeted(case: &Case) -> Vec<(String, String)> {
         .collect()
 }
 
-/// `v` to six significant digits, as the sheet prints it.
-fn six_digits(v: f64) -> f64 {
-    format!("{v:.5e}").parse().expect("a number")
-}
-
 fn check(case: &Case) {
     let json = solved(case);
-    let columns = sheeted(case);
+    let columns = sheeted(case, "full");
 
     // The keys: numbers or null, plus the text outputs.
     let json_keys: BTreeSet<&str> = json
@@ -187,23 +194,50 @@ fn check(case: &Case) {
                 assert_eq!(cell, s, "{}: {key}", case.name)
             }
             serde_json::Value::Number(x) => {
-                let expected = six_digits(x.as_f64().expect("a finite number"));
+                let expected = x.as_f64().expect("a finite number");
                 let got: f64 = cell
                     .parse()
                     .unwrap_or_else(|_| panic!("{}: {key} = `{cell}` in the sheet", case.name));
-                let close = if expected == 0.0 {
-                    got == 0.0
-                } else {
-                    ((got - expected) / expected).abs() <= 1e-9
-                };
-                assert!(
-                    close,
-                    "{}: {key}: solve {x} (as printed {expected}), sheet {got}",
+                assert_eq!(
+                    got.to_bits(),
+                    expected.to_bits(),
+                    "{}: {key}: solve {x}, sheet `{cell}`",
                     case.name
                 );
             }
             other => panic!("{}: {key} is {other} in the JSON", case.name),
         }
+    }
+
+    // JSON lines always have every digit, whatever the digits asked for.
+    let o = run(
+        &["sheet", "-", "--columns", "all", "--format", "jsonl"],
+        Some(case.sheet.as_bytes()),
+    );
+    let line: serde_json::Value = serde_json::from_slice(&o.stdout).expect("one JSON line");
+    for (key, _) in &columns {
+        if let Some(x) = json[key].as_f64() {
+            let got = line[key]
+                .as_f64()
+                .unwrap_or_else(|| panic!("{key}: {}", line[key]));
+            assert_eq!(
+                got.to_bits(),
+                x.to_bits(),
+                "{}: {key} in JSON lines",
+                case.name
+            );
+        }
+    }
+
+    // With the default digits each number is the JSON value to its rule.
+    for (key, cell) in sheeted(case, "sensible") {
+        let Some(x) = json[&key].as_f64() else {
+            continue;
+        };
+        let digits = travertine::output::Output::from_key(&key)
+            .and_then(|o| o.digits())
+            .unwrap_or_else(|| panic!("{key}: a number without digits"));
+        assert_eq!(cell, digits.format(x), "{}: {key}", case.name);
     }
 }
 

@@ -349,7 +349,8 @@ fn a_decimal_comma_errored_without_the_flag() {
     let summary = process(&options, input.as_bytes(), &mut out).unwrap();
     assert_eq!(summary.ok, 1);
     let text = String::from_utf8(out).unwrap();
-    assert_eq!(text.lines().nth(1), Some("25;35;2300;7,9;7,9;ok;"));
+    // The input as typed, the computed pH to three decimals, with a comma.
+    assert_eq!(text.lines().nth(1), Some("25;35;2300;7,9;7,900;ok;"));
 }
 
 #[test]

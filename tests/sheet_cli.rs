@@ -319,7 +319,9 @@ fn flags_give_conditions_medium_and_fits() {
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
     assert_eq!(
         stdout(&o).lines().nth(1),
-        Some("2300,8,saline,millero2006,25,35,ok,")
+        // The conditions as computed columns, to their digits (temperature 2
+        // decimals, salinity 4 significant figures).
+        Some("2300,8,saline,millero2006,25.00,35.00,ok,")
     );
     // The same from columns, row by row.
     let input = b"alkalinity_umol_kg,ph_total,temperature_c,salinity,water,carbonic_fit\n\
@@ -888,4 +890,159 @@ fn a_utf16_sheet_is_refused_with_advice() {
         "Temp (°C),salinity,alkalinity_umol_kg,ph_total\n25,35,2300,8\n".as_bytes(),
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+}
+
+/// Whether a plain decimal text has `n` significant figures: with a
+/// point, `n` digits after the leading zeros; an integer, at least `n`
+/// digits of which at most `n` before its trailing zeros (`3940` has 3 or
+/// 4, `14120` 4 or 5).
+fn has_figures(text: &str, n: usize) -> bool {
+    let t = text.trim_start_matches('-');
+    let digits: String = t.chars().filter(char::is_ascii_digit).collect();
+    let digits = digits.trim_start_matches('0');
+    if t.contains(['.', ',']) {
+        digits.len() == n
+    } else {
+        digits.len() >= n && digits.trim_end_matches('0').len() <= n
+    }
+}
+
+/// Decimals of a plain decimal text.
+fn decimals(text: &str) -> usize {
+    text.split_once(['.', ',']).map_or(0, |(_, d)| d.len())
+}
+
+/// Each computed column of the pond demo is written to the digits its
+/// measurement supports: pH 3 decimals, pCO2 4 significant figures, mg/L 3,
+/// the Langelier index 2 decimals, and no exponent anywhere; the input
+/// columns are as typed. Before, every number had six significant digits
+/// with trailing zeros dropped (`7.4`, `29.7193`, `4199.18`).
+#[test]
+fn the_pond_demo_is_written_to_the_digits_of_each_column() {
+    let o = travertine(&["sheet", POND]);
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let out = stdout(&o);
+    let status = column(&out, "status");
+    let ok: Vec<usize> = (0..status.len())
+        .filter(|i| status[*i] != "error")
+        .collect();
+    assert_eq!(ok.len(), 46);
+    for i in &ok {
+        let ph = &column(&out, "ph_nbs")[*i];
+        assert_eq!(decimals(ph), 3, "row {i}: pH {ph}");
+        let pco2 = &column(&out, "pco2_uatm")[*i];
+        assert!(has_figures(pco2, 4), "row {i}: pCO2 {pco2}");
+        for name in ["dic_mg_l_c", "free_co2_mg_l", "hco3_mg_l", "co3_mg_l"] {
+            let v = &column(&out, name)[*i];
+            assert!(has_figures(v, 3), "row {i}: {name} {v}");
+        }
+        let lsi = &column(&out, "langelier_index")[*i];
+        assert_eq!(decimals(lsi), 2, "row {i}: Langelier {lsi}");
+    }
+    for row in records(&out) {
+        for cell in row.iter().skip(10) {
+            let number = cell.starts_with(|c: char| c.is_ascii_digit() || c == '-');
+            assert!(!(number && cell.contains(['e', 'E'])), "{cell}");
+        }
+    }
+    // The input as typed: `7.40` stays `7.40`, the computed pH is `7.400`.
+    let input = std::fs::read_to_string(POND).expect("demo sheet");
+    assert!(input.lines().nth(3).unwrap().contains(",7.40,"));
+    let third = out.lines().nth(3).unwrap();
+    assert!(
+        third.contains(",7.40,") && third.contains(",fresh,7.400,"),
+        "{third}"
+    );
+}
+
+/// A small mg/L value is written with three significant figures in plain
+/// notation (0.00xyz); `--digits full` writes every digit, which reads back
+/// as exactly the f64 of the JSON lines, and JSON lines always have every
+/// digit.
+#[test]
+fn small_values_and_full_digits_in_the_sheet() {
+    // An invented lime-dosed pond at pH 10.1: little free CO2.
+    let input = b"temperature_c,ph_nbs,alkalinity_mg_l_caco3\n22,10.1,120\n";
+    let run = |extra: &[&str]| {
+        let o = with_stdin(&[&["sheet", "-"][..], extra].concat(), input);
+        assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+        stdout(&o)
+    };
+    let json: serde_json::Value =
+        serde_json::from_str(run(&["--format", "jsonl"]).trim()).expect("one JSON line");
+    let free = json["free_co2_mg_l"].as_f64().unwrap();
+    assert!((0.001..0.01).contains(&free), "{free}");
+    // Three significant figures of a value below 0.01 are five decimals.
+    assert_eq!(column(&run(&[]), "free_co2_mg_l")[0], format!("{free:.5}"));
+    let full = run(&["--digits", "full"]);
+    let mut checked = 0;
+    let mut rdr = csv::Reader::from_reader(full.as_bytes());
+    let header: Vec<String> = rdr.headers().unwrap().iter().map(String::from).collect();
+    let row = rdr.records().next().unwrap().unwrap();
+    for (name, cell) in header.iter().zip(row.iter()).skip(3) {
+        if let Some(x) = json[name].as_f64() {
+            let got: f64 = cell.parse().unwrap_or_else(|_| panic!("{name}: `{cell}`"));
+            assert_eq!(got.to_bits(), x.to_bits(), "{name}: `{cell}` and {x}");
+            checked += 1;
+        }
+    }
+    assert_eq!(checked, 7, "{header:?}");
+    let o = with_stdin(&["sheet", "-", "--digits", "most"], input);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--digits"), "{}", stderr(&o));
+}
+
+/// The decimal comma works with rounded numbers: a semicolon sheet with
+/// decimal commas gets its computed numbers rounded and with a comma, its
+/// input cells as typed; with a comma delimiter such a number is quoted.
+#[test]
+fn a_decimal_comma_with_rounded_numbers() {
+    let input = "temperature_c;salinity;alkalinity_umol_kg;dic_umol_kg\n25,0;35;2300;2000,0\n";
+    let o = with_stdin(
+        &[
+            "sheet",
+            "-",
+            "--delimiter",
+            ";",
+            "--decimal-comma",
+            "--columns",
+            "ph_total,pco2_uatm,free_co2_mg_l,omega_aragonite",
+        ],
+        input.as_bytes(),
+    );
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let out = stdout(&o);
+    let row = out.lines().nth(1).unwrap();
+    // The inputs as typed, then pH to 3 decimals, pCO2 to 4 figures, mg/L
+    // and Ω to 3, each with a comma (the worked values of ../shared/reference
+    // equations.md §13, computed from the published equations: pH_T 8.0402,
+    // pCO2 402.75 µatm, Ω aragonite 3.346).
+    let cells: Vec<&str> = row.split(';').collect();
+    assert_eq!(&cells[..4], ["25,0", "35", "2300", "2000,0"]);
+    assert_eq!(cells[4], "8,040");
+    assert_eq!(cells[5], "402,8");
+    assert!(has_figures(&cells[6].replace(',', "."), 3), "{row}");
+    assert_eq!(cells[7], "3,35");
+    assert_eq!(&cells[8..], ["ok", ""]);
+}
+
+/// A residual is written to the place of the value it is the residual of:
+/// pH to 3 decimals, a pCO2 of about 400 µatm (4 figures) to 0.1 µatm.
+#[test]
+fn residuals_are_written_to_the_place_of_their_values() {
+    let input = "temperature_c,salinity,alkalinity_umol_kg,dic_umol_kg,ph_total,pco2_uatm\n\
+                 25,35,2300,2000,8.05,410\n";
+    let o = with_stdin(&["sheet", "-", "--units", "ocean"], input.as_bytes());
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let out = stdout(&o);
+    let ph = &column(&out, "ph_total_residual")[0];
+    let pco2 = &column(&out, "pco2_uatm_residual")[0];
+    assert_eq!(decimals(ph), 3, "{ph}");
+    assert_eq!(decimals(pco2), 1, "{pco2}");
+    let full = stdout(&with_stdin(
+        &["sheet", "-", "--units", "ocean", "--digits", "full"],
+        input.as_bytes(),
+    ));
+    let exact: f64 = column(&full, "pco2_uatm_residual")[0].parse().unwrap();
+    assert!((pco2.parse::<f64>().unwrap() - exact).abs() <= 0.05 + 1e-12);
 }

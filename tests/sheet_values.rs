@@ -1,7 +1,9 @@
-//! The sheet computes what the library computes: each row's values are the
-//! library's solve of the same sample, rounded to six significant digits.
+//! The sheet computes what the library computes: each row's values, with
+//! every digit (`with_digits(Precision::Full)`), are the library's solve of
+//! the same sample.
 
 use travertine::base::units::{Quantity, Unit};
+use travertine::output::Precision;
 use travertine::sample::{
     inputs::{Input, Total},
     values::InputValue,
@@ -10,9 +12,11 @@ use travertine::sample::{values::Conductivity, Sample};
 use travertine::sheet::{process, SheetOptions};
 use travertine::{Measured, Parameter, PhScale};
 
+/// The header and first row of the sheet, every digit written.
 fn sheet(input: &str, options: &SheetOptions) -> (Vec<String>, Vec<String>) {
+    let options = options.clone().with_digits(Precision::Full);
     let mut out = Vec::new();
-    process(options, input.as_bytes(), &mut out).expect("the sheet runs");
+    process(&options, input.as_bytes(), &mut out).expect("the sheet runs");
     let mut rdr = csv::Reader::from_reader(&out[..]);
     let header: Vec<String> = rdr.headers().unwrap().iter().map(str::to_string).collect();
     let row: Vec<String> = rdr
@@ -33,7 +37,7 @@ fn value(header: &[String], row: &[String], name: &str) -> f64 {
         .unwrap_or_else(|_| panic!("{name}: `{}`", row[k]))
 }
 
-/// Agreement to the six significant digits written.
+/// Agreement to six significant digits (the sheet once wrote no more).
 fn close(a: f64, b: f64) -> bool {
     (a - b).abs() <= 1e-5 * b.abs().max(1e-9)
 }

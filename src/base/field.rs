@@ -119,6 +119,8 @@ fields! {
     Activity => "activity",
     /// Which root of a pair that fits two waters.
     Root => "root",
+    /// How many digits a table or a sheet writes.
+    Digits => "digits",
     /// The density of the solution (computed).
     Density => "density",
     /// A unit named on its own.

@@ -1,14 +1,17 @@
 //! The outputs of a solve, described once.
 //!
 //! One list, in the `outputs!` invocation of this file, gives every output its
-//! key, human label, unit, decimals, table section, the tables that show
-//! it and how to read it from a [`State`]. Everything that writes a state
+//! key, human label, unit, kind (which decides its precision, [`Digits`]),
+//! table section, the tables that show it and how to read it from a
+//! [`State`]. Everything that writes a state
 //! is made from it:
 //!
 //! - the JSON of a state (`impl Serialize for State`, [`crate::output::json`]):
 //!   every key, in list order, then `constants` and `warnings`;
-//! - the human table ([`crate::output::table`]): the rows of each section;
-//! - the computed columns of the field sheet (`--columns all` is the list).
+//! - the human table ([`crate::output::table`]): the rows of each section,
+//!   each number to its output's [`Digits`];
+//! - the computed columns of the field sheet (`--columns all` is the list),
+//!   each to the same rule.
 //!
 //! Adding an output means adding one row to the list.
 //!
@@ -28,6 +31,7 @@
 //! # Ok::<(), travertine::Error>(())
 //! ```
 
+use super::digits::Digits;
 use crate::base::units::{CO3_G_MOL, HCO3_G_MOL};
 use crate::sample::water::Medium;
 use crate::state::State;
@@ -172,6 +176,82 @@ impl Place {
     }
 }
 
+/// What kind of quantity an output is. The kind decides the precision
+/// the table and the sheet write it with, here and nowhere else
+/// ([`Kind::digits`]); the unit tests check that the kinds agree with the
+/// units.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Kind {
+    /// A temperature, °C.
+    Temperature,
+    /// Practical salinity.
+    Salinity,
+    /// A gauge pressure, dbar.
+    Pressure,
+    /// A pH on any scale, the saturation pH included.
+    Ph,
+    /// An amount of substance or a gas: µmol/kg, µatm, ppm.
+    Amount,
+    /// A mass per litre: mg/L, mg/L as C, mg/L as CaCO3.
+    MassConcentration,
+    /// A saturation state Ω.
+    SaturationState,
+    /// A saturation index: log10 Ω, the Langelier index.
+    SaturationIndex,
+    /// A buffer factor (the Revelle factor).
+    Factor,
+    /// Ionic strength, mol/kg.
+    IonicStrength,
+    /// An activity coefficient.
+    ActivityCoefficient,
+    /// An activity (molal, dimensionless).
+    Activity,
+    /// A percentage.
+    Percent,
+    /// A density, kg/m3.
+    Density,
+    /// A name, not a number.
+    Name,
+}
+
+impl Kind {
+    /// The precision rule of each kind: the digits its measurement
+    /// supports. `None` for a name.
+    ///
+    /// - pH, the saturation pH: 3 decimals (a glass electrode reads to
+    ///   0.01, a spectrophotometric pH to 0.001);
+    /// - µmol/kg, µatm, ppm: 4 significant figures (alkalinity and DIC
+    ///   titrate to about 0.1 %);
+    /// - mg/L: 3 significant figures (a field titration or kit);
+    /// - Ω, the Revelle factor, ionic strength, an activity: 3 significant
+    ///   figures (2–3 decimals at their usual sizes, and a small Ω keeps
+    ///   its figures);
+    /// - saturation index, Langelier index: 2 decimals;
+    /// - temperature 2 decimals, pressure 1, salinity 4 significant
+    ///   figures, activity coefficient 3 decimals, a percentage 1 decimal,
+    ///   density 2 decimals.
+    fn digits(self) -> Option<Digits> {
+        use Digits::{Decimals, Significant};
+        Some(match self {
+            Kind::Temperature => Decimals(2),
+            Kind::Salinity => Significant(4),
+            Kind::Pressure => Decimals(1),
+            Kind::Ph => Decimals(3),
+            Kind::Amount => Significant(4),
+            Kind::MassConcentration => Significant(3),
+            Kind::SaturationState => Significant(3),
+            Kind::SaturationIndex => Decimals(2),
+            Kind::Factor => Significant(3),
+            Kind::IonicStrength => Significant(3),
+            Kind::ActivityCoefficient => Decimals(3),
+            Kind::Activity => Significant(3),
+            Kind::Percent => Decimals(1),
+            Kind::Density => Decimals(2),
+            Kind::Name => return None,
+        })
+    }
+}
+
 fn n(v: f64) -> Value {
     Value::Number(Some(v))
 }
@@ -188,14 +268,14 @@ fn mg_l(s: &State, umol_kg: f64, g_mol: f64) -> f64 {
 /// Generates [`Output`] and its descriptions from one list. A row reads
 ///
 /// ```text
-/// Variant => "key", "label", "unit", decimals, Section, [fresh place, saline place], |state| value;
+/// Variant => "key", "label", "unit", Kind, Section, [fresh place, saline place], |state| value;
 /// ```
 ///
-/// where a place is `Hidden`, `Row`, `First` or `Labelled("label")` (see
-/// [`Place`]).
+/// where the kind gives the precision rule ([`Kind`]) and a place is
+/// `Hidden`, `Row`, `First` or `Labelled("label")` (see [`Place`]).
 macro_rules! outputs {
     ($(
-        $variant:ident => $key:literal, $label:literal, $unit:literal, $decimals:literal,
+        $variant:ident => $key:literal, $label:literal, $unit:literal, $kind:ident,
         $section:ident, [$fresh:expr, $saline:expr], |$s:ident| $value:expr;
     )*) => {
         /// An output of a solve: a JSON key of `travertine solve --json`,
@@ -258,14 +338,9 @@ macro_rules! outputs {
                 match self { $( Output::$variant => $unit, )* }
             }
 
-            /// Decimals printed in the table.
-            ///
-            /// ```
-            /// use travertine::output::Output;
-            /// assert_eq!(Output::PhTotal.decimals(), 4);
-            /// ```
-            pub fn decimals(self) -> usize {
-                match self { $( Output::$variant => $decimals, )* }
+            /// What kind of quantity it is, which decides its precision.
+            fn kind(self) -> Kind {
+                match self { $( Output::$variant => Kind::$kind, )* }
             }
 
             /// The table section it belongs to.
@@ -322,122 +397,122 @@ macro_rules! outputs {
 
 outputs! {
     // Conditions: in the table's header line, not in its rows.
-    TemperatureC => "temperature_c", "temperature", "°C", 2,
+    TemperatureC => "temperature_c", "temperature", "°C", Temperature,
         Conditions, [Hidden, Hidden], |s| n(s.temperature_c);
-    Salinity => "salinity", "practical salinity", "", 4,
+    Salinity => "salinity", "practical salinity", "", Salinity,
         Conditions, [Hidden, Hidden], |s| n(s.salinity);
-    PressureDbar => "pressure_dbar", "gauge pressure", "dbar", 1,
+    PressureDbar => "pressure_dbar", "gauge pressure", "dbar", Pressure,
         Conditions, [Hidden, Hidden], |s| n(s.pressure_dbar);
-    Water => "water", "medium", "", 0,
+    Water => "water", "medium", "", Name,
         Conditions, [Hidden, Hidden], |s| Value::Text(Some(s.medium.name()));
 
     // Acidity: fresh water leads with its working scale, the NBS scale.
-    PhTotal => "ph_total", "pH, total scale", "", 4,
+    PhTotal => "ph_total", "pH, total scale", "", Ph,
         Acidity, [Hidden, Row], |s| n(s.ph_total);
-    PhSeawater => "ph_seawater", "pH, sea-water scale", "", 4,
+    PhSeawater => "ph_seawater", "pH, sea-water scale", "", Ph,
         Acidity, [Hidden, Row], |s| n(s.ph_seawater);
-    PhFree => "ph_free", "pH, free scale", "", 4,
+    PhFree => "ph_free", "pH, free scale", "", Ph,
         Acidity, [Row, Row], |s| n(s.ph_free);
-    PhNbs => "ph_nbs", "pH, NBS scale", "", 4,
+    PhNbs => "ph_nbs", "pH, NBS scale", "", Ph,
         Acidity, [First, Labelled("pH, NBS scale (approximate)")], |s| n(s.ph_nbs);
 
-    AlkalinityUmolKg => "alkalinity_umol_kg", "alkalinity", "µmol/kg", 2,
+    AlkalinityUmolKg => "alkalinity_umol_kg", "alkalinity", "µmol/kg", Amount,
         Carbon, [Row, Row], |s| n(s.alkalinity_umol_kg);
-    DicUmolKg => "dic_umol_kg", "dissolved inorganic carbon", "µmol/kg", 2,
+    DicUmolKg => "dic_umol_kg", "dissolved inorganic carbon", "µmol/kg", Amount,
         Carbon, [Row, Row], |s| n(s.dic_umol_kg);
-    Co2UmolKg => "co2_umol_kg", "CO2*", "µmol/kg", 3,
+    Co2UmolKg => "co2_umol_kg", "CO2*", "µmol/kg", Amount,
         Carbon, [Row, Row], |s| n(s.co2_umol_kg);
-    Hco3UmolKg => "hco3_umol_kg", "bicarbonate HCO3-", "µmol/kg", 2,
+    Hco3UmolKg => "hco3_umol_kg", "bicarbonate HCO3-", "µmol/kg", Amount,
         Carbon, [Row, Row], |s| n(s.hco3_umol_kg);
-    Co3UmolKg => "co3_umol_kg", "carbonate CO3--", "µmol/kg", 2,
+    Co3UmolKg => "co3_umol_kg", "carbonate CO3--", "µmol/kg", Amount,
         Carbon, [Row, Row], |s| n(s.co3_umol_kg);
 
-    Fco2 => "fco2_uatm", "fCO2", "µatm", 2,
+    Fco2 => "fco2_uatm", "fCO2", "µatm", Amount,
         Gas, [Row, Row], |s| n(s.fco2_uatm);
-    Pco2 => "pco2_uatm", "pCO2", "µatm", 2,
+    Pco2 => "pco2_uatm", "pCO2", "µatm", Amount,
         Gas, [Row, Row], |s| n(s.pco2_uatm);
-    Xco2 => "xco2_ppm", "xCO2 (dry air)", "ppm", 2,
+    Xco2 => "xco2_ppm", "xCO2 (dry air)", "ppm", Amount,
         Gas, [Row, Row], |s| n(s.xco2_ppm);
 
-    OmegaCalcite => "omega_calcite", "calcite Ω", "", 3,
+    OmegaCalcite => "omega_calcite", "calcite Ω", "", SaturationState,
         Saturation, [Row, Row], |s| o(s.omega_calcite);
-    OmegaAragonite => "omega_aragonite", "aragonite Ω", "", 3,
+    OmegaAragonite => "omega_aragonite", "aragonite Ω", "", SaturationState,
         Saturation, [Row, Row], |s| o(s.omega_aragonite);
-    SiCalcite => "si_calcite", "calcite SI (log10 Ω)", "", 3,
+    SiCalcite => "si_calcite", "calcite SI (log10 Ω)", "", SaturationIndex,
         Saturation, [Row, Row], |s| o(s.si_calcite);
-    SiAragonite => "si_aragonite", "aragonite SI (log10 Ω)", "", 3,
+    SiAragonite => "si_aragonite", "aragonite SI (log10 Ω)", "", SaturationIndex,
         Saturation, [Row, Row], |s| o(s.si_aragonite);
 
-    Revelle => "revelle_factor", "Revelle factor", "", 3,
+    Revelle => "revelle_factor", "Revelle factor", "", Factor,
         Carbon, [Row, Row], |s| n(s.revelle_factor);
 
-    CarbonateAlkalinity => "carbonate_alkalinity_umol_kg", "carbonate", "µmol/kg", 2,
+    CarbonateAlkalinity => "carbonate_alkalinity_umol_kg", "carbonate", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.carbonate_alkalinity_umol_kg);
-    BorateAlkalinity => "borate_alkalinity_umol_kg", "borate", "µmol/kg", 2,
+    BorateAlkalinity => "borate_alkalinity_umol_kg", "borate", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.borate_alkalinity_umol_kg);
-    Hydroxide => "hydroxide_umol_kg", "hydroxide", "µmol/kg", 3,
+    Hydroxide => "hydroxide_umol_kg", "hydroxide", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.hydroxide_umol_kg);
-    PhosphateAlkalinity => "phosphate_alkalinity_umol_kg", "phosphate", "µmol/kg", 3,
+    PhosphateAlkalinity => "phosphate_alkalinity_umol_kg", "phosphate", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.phosphate_alkalinity_umol_kg);
-    SilicateAlkalinity => "silicate_alkalinity_umol_kg", "silicate", "µmol/kg", 3,
+    SilicateAlkalinity => "silicate_alkalinity_umol_kg", "silicate", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.silicate_alkalinity_umol_kg);
-    AmmoniaAlkalinity => "ammonia_alkalinity_umol_kg", "ammonia", "µmol/kg", 3,
+    AmmoniaAlkalinity => "ammonia_alkalinity_umol_kg", "ammonia", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.ammonia_alkalinity_umol_kg);
-    SulfideAlkalinity => "sulfide_alkalinity_umol_kg", "sulfide", "µmol/kg", 3,
+    SulfideAlkalinity => "sulfide_alkalinity_umol_kg", "sulfide", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.sulfide_alkalinity_umol_kg);
-    FreeHydrogen => "free_hydrogen_umol_kg", "free hydrogen (minus)", "µmol/kg", 4,
+    FreeHydrogen => "free_hydrogen_umol_kg", "free hydrogen (minus)", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.free_hydrogen_umol_kg);
-    Bisulfate => "bisulfate_umol_kg", "bisulfate (minus)", "µmol/kg", 4,
+    Bisulfate => "bisulfate_umol_kg", "bisulfate (minus)", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.bisulfate_umol_kg);
-    HydrogenFluoride => "hydrogen_fluoride_umol_kg", "hydrogen fluoride (minus)", "µmol/kg", 4,
+    HydrogenFluoride => "hydrogen_fluoride_umol_kg", "hydrogen fluoride (minus)", "µmol/kg", Amount,
         AlkalinityParts, [Row, Row], |s| n(s.hydrogen_fluoride_umol_kg);
 
-    Calcium => "calcium_umol_kg", "calcium", "µmol/kg", 1,
+    Calcium => "calcium_umol_kg", "calcium", "µmol/kg", Amount,
         Saturation, [Row, Row], |s| o(s.calcium_umol_kg);
-    CalciumFree => "calcium_free_umol_kg", "free calcium", "µmol/kg", 1,
+    CalciumFree => "calcium_free_umol_kg", "free calcium", "µmol/kg", Amount,
         Saturation, [Row, Hidden], |s| o(s.calcium_free_umol_kg);
-    CalciumActivity => "calcium_activity", "free calcium activity", "", 6,
+    CalciumActivity => "calcium_activity", "free calcium activity", "", Activity,
         Saturation, [Hidden, Hidden], |s| o(s.calcium_activity);
-    Cahco3 => "cahco3_umol_kg", "CaHCO3+ pair", "µmol/kg", 2,
+    Cahco3 => "cahco3_umol_kg", "CaHCO3+ pair", "µmol/kg", Amount,
         Saturation, [Row, Hidden], |s| o(s.cahco3_umol_kg);
-    Caco3Pair => "caco3_pair_umol_kg", "CaCO3 pair", "µmol/kg", 2,
+    Caco3Pair => "caco3_pair_umol_kg", "CaCO3 pair", "µmol/kg", Amount,
         Saturation, [Row, Hidden], |s| o(s.caco3_pair_umol_kg);
 
     // The source of the ionic strength is in the table's header line.
-    IonicStrength => "ionic_strength", "ionic strength", "mol/kg", 5,
+    IonicStrength => "ionic_strength", "ionic strength", "mol/kg", IonicStrength,
         Medium, [Row, Row], |s| n(s.ionic_strength);
-    IonicStrengthFrom => "ionic_strength_from", "ionic strength from", "", 0,
+    IonicStrengthFrom => "ionic_strength_from", "ionic strength from", "", Name,
         Medium, [Hidden, Hidden], |s| Value::Text(s.ionic_strength_from.map(|r| r.name()));
-    GammaMonovalent => "gamma_monovalent", "activity coefficient, z = 1", "", 4,
+    GammaMonovalent => "gamma_monovalent", "activity coefficient, z = 1", "", ActivityCoefficient,
         Medium, [Row, Hidden], |s| o(s.gamma_monovalent);
-    GammaDivalent => "gamma_divalent", "activity coefficient, z = 2", "", 4,
+    GammaDivalent => "gamma_divalent", "activity coefficient, z = 2", "", ActivityCoefficient,
         Medium, [Row, Hidden], |s| o(s.gamma_divalent);
-    ChargeBalance => "charge_balance_percent", "charge balance of ions given", "%", 2,
+    ChargeBalance => "charge_balance_percent", "charge balance of ions given", "%", Percent,
         Medium, [Row, Hidden], |s| o(s.charge_balance_percent);
 
-    SaturationPh => "saturation_ph_nbs", "saturation pH, pHs (NBS)", "", 3,
+    SaturationPh => "saturation_ph_nbs", "saturation pH, pHs (NBS)", "", Ph,
         Saturation, [Row, Hidden], |s| o(s.saturation_ph_nbs);
-    Langelier => "langelier_index", "Langelier index", "", 3,
+    Langelier => "langelier_index", "Langelier index", "", SaturationIndex,
         Saturation, [Row, Hidden], |s| o(s.langelier_index);
     PrecipitationPotential => "precipitation_potential_mg_l_caco3",
-        "CaCO3 precipitation potential", "mg/L as CaCO3", 2,
+        "CaCO3 precipitation potential", "mg/L as CaCO3", MassConcentration,
         Saturation, [Row, Hidden], |s| o(s.precipitation_potential_mg_l_caco3);
 
-    AlkalinityMgL => "alkalinity_mg_l_caco3", "alkalinity", "mg/L as CaCO3", 2,
+    AlkalinityMgL => "alkalinity_mg_l_caco3", "alkalinity", "mg/L as CaCO3", MassConcentration,
         TradeUnits, [Row, Row], |s| n(s.alkalinity_mg_l_caco3);
-    DicMgL => "dic_mg_l_c", "dissolved inorganic carbon", "mg/L as C", 3,
+    DicMgL => "dic_mg_l_c", "dissolved inorganic carbon", "mg/L as C", MassConcentration,
         TradeUnits, [Row, Row], |s| n(s.dic_mg_l_c);
-    FreeCo2MgL => "free_co2_mg_l", "free CO2", "mg/L", 3,
+    FreeCo2MgL => "free_co2_mg_l", "free CO2", "mg/L", MassConcentration,
         TradeUnits, [Row, Row], |s| n(s.free_co2_mg_l);
-    Hco3MgL => "hco3_mg_l", "bicarbonate HCO3-", "mg/L", 2,
+    Hco3MgL => "hco3_mg_l", "bicarbonate HCO3-", "mg/L", MassConcentration,
         TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.hco3_umol_kg, HCO3_G_MOL));
-    Co3MgL => "co3_mg_l", "carbonate CO3--", "mg/L", 3,
+    Co3MgL => "co3_mg_l", "carbonate CO3--", "mg/L", MassConcentration,
         TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.co3_umol_kg, CO3_G_MOL));
-    Density => "density_kg_m3", "density used", "kg/m3", 3,
+    Density => "density_kg_m3", "density used", "kg/m3", Density,
         TradeUnits, [Row, Row], |s| n(s.density_kg_m3);
 
     // The fits are in the table's Constants block.
-    CarbonicFit => "carbonic_fit", "K1, K2", "", 0,
+    CarbonicFit => "carbonic_fit", "K1, K2", "", Name,
         Fits, [Hidden, Hidden], |s| Value::Text(Some(s.fits_used.carbonic.as_str()));
 }
 
@@ -451,6 +526,24 @@ impl Output {
     /// ```
     pub fn from_key(key: &str) -> Option<Output> {
         Output::ALL.iter().copied().find(|o| o.key() == key)
+    }
+
+    /// The precision rule the table and the CSV of a sheet write it with
+    /// (unless every digit is asked for, [`crate::output::Precision::Full`]);
+    /// `None` for a name. It follows from the kind of quantity the output
+    /// is, in one place: pH 3 decimals, µmol/kg, µatm and ppm 4 significant
+    /// figures, mg/L 3 significant figures, Ω 3 significant figures,
+    /// saturation and Langelier indices 2 decimals.
+    ///
+    /// ```
+    /// use travertine::output::{Digits, Output};
+    /// assert_eq!(Output::PhTotal.digits(), Some(Digits::Decimals(3)));
+    /// assert_eq!(Output::Pco2.digits(), Some(Digits::Significant(4)));
+    /// assert_eq!(Output::FreeCo2MgL.digits(), Some(Digits::Significant(3)));
+    /// assert_eq!(Output::Water.digits(), None);
+    /// ```
+    pub fn digits(self) -> Option<Digits> {
+        self.kind().digits()
     }
 
     /// The label of its row in the table of `medium`, `None` where that
@@ -527,6 +620,62 @@ mod tests {
                 );
             }
         }
+    }
+
+    /// The kind of quantity each unit is; the precision follows the unit.
+    const UNIT_KINDS: &[(&str, Kind)] = &[
+        ("µmol/kg", Kind::Amount),
+        ("µatm", Kind::Amount),
+        ("ppm", Kind::Amount),
+        ("mg/L", Kind::MassConcentration),
+        ("mg/L as C", Kind::MassConcentration),
+        ("mg/L as CaCO3", Kind::MassConcentration),
+        ("°C", Kind::Temperature),
+        ("dbar", Kind::Pressure),
+        ("kg/m3", Kind::Density),
+        ("%", Kind::Percent),
+        ("mol/kg", Kind::IonicStrength),
+    ];
+
+    #[test]
+    fn kinds_agree_with_units_and_values() {
+        for o in Output::ALL {
+            if let Some((_, kind)) = UNIT_KINDS.iter().find(|(u, _)| *u == o.unit()) {
+                assert_eq!(o.kind(), *kind, "{}", o.key());
+            } else {
+                assert!(
+                    o.unit().is_empty(),
+                    "{}: unit {} has no kind",
+                    o.key(),
+                    o.unit()
+                );
+            }
+            if o.key().starts_with("ph_") || o.key().starts_with("saturation_ph") {
+                assert_eq!(o.kind(), Kind::Ph, "{}", o.key());
+            }
+            if o.key().starts_with("omega_") {
+                assert_eq!(o.kind(), Kind::SaturationState, "{}", o.key());
+            }
+            if o.key().starts_with("si_") {
+                assert_eq!(o.kind(), Kind::SaturationIndex, "{}", o.key());
+            }
+            // A name has no digits, a number has.
+            let is_name = matches!(o.value(&sea_state()), Value::Text(_));
+            assert_eq!(o.digits().is_none(), is_name, "{}", o.key());
+        }
+    }
+
+    fn sea_state() -> State {
+        use crate::sample::conditions::Conditions;
+        use crate::sample::measured::Measured;
+        use crate::sample::water::Water;
+        Water::saline(Conditions::new(25.0, 35.0).unwrap())
+            .unwrap()
+            .solve(
+                Measured::alkalinity_umol_kg(2300.0).unwrap(),
+                Measured::dic_umol_kg(2000.0).unwrap(),
+            )
+            .unwrap()
     }
 
     #[test]

@@ -1,11 +1,14 @@
 //! Output: a state as an aligned table with units, or as JSON, both made
 //! from one list of outputs ([`Output`]), which the field sheet's computed
-//! columns use too.
+//! columns use too. Each output's precision rule ([`Digits`]) is given in
+//! that list; [`Precision`] chooses between it and every digit.
 
+mod digits;
 mod fields;
 mod json;
 mod table;
 
+pub use digits::{Digits, Precision};
 pub use fields::{Output, Place, Section, Value};
 pub use json::json;
 pub use table::{key_figures, table, table_on_scale};

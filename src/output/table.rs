@@ -1,5 +1,6 @@
 //! Human-readable output: an aligned table with units.
 
+use super::digits::Precision;
 use super::fields::{Output, Place, Section, Value};
 use crate::properties::scales::PhScale;
 use crate::sample::Medium;
@@ -73,22 +74,29 @@ fn rows(s: &State, key: &[Output]) -> Vec<(Section, Vec<(Output, &'static str)>)
         .collect()
 }
 
-/// The printed value of an output: a number to its decimals, a text as it
-/// is, a dash for nothing.
-fn cell(o: Output, s: &State) -> String {
-    match o.value(s) {
-        Value::Number(v) => fmt_num(v.unwrap_or(f64::NAN), o.decimals()),
-        Value::Text(Some(t)) => t.to_string(),
-        Value::Text(None) => "—".to_string(),
+/// The printed value of an output: a number to its digits (see
+/// [`Output::digits`]) or every digit, a text as it is, a dash for nothing.
+fn cell(o: Output, s: &State, precision: Precision) -> String {
+    match (o.value(s), o.digits()) {
+        (Value::Number(Some(v)), Some(digits)) if v.is_finite() => precision.format(v, digits),
+        (Value::Number(Some(v)), None) if v.is_finite() => v.to_string(),
+        (Value::Text(Some(t)), _) => t.to_string(),
+        _ => "—".to_string(),
     }
 }
 
-fn header(s: &State) -> String {
+/// The header line: the medium and the conditions as given (a salinity
+/// computed from a conductivity to 4 decimals, or every digit).
+fn header(s: &State, precision: Precision) -> String {
+    let salinity = match precision {
+        Precision::Full => s.salinity,
+        _ => (s.salinity * 1e4).round() / 1e4,
+    };
     let mut h = format!(
         "{} water at {} °C, salinity {}, {} dbar",
         s.medium.name(),
         s.temperature_c,
-        (s.salinity * 1e4).round() / 1e4,
+        salinity,
         s.pressure_dbar
     );
     if let Some(r) = s.ionic_strength_from {
@@ -98,7 +106,8 @@ fn header(s: &State) -> String {
 }
 
 /// An aligned table of a state, with units, as [`table_on_scale`] with the
-/// pH of saline water on the total scale.
+/// pH of saline water on the total scale and each number to the digits its
+/// measurement supports ([`Precision::Sensible`]).
 ///
 /// # Example
 /// ```
@@ -111,7 +120,7 @@ fn header(s: &State) -> String {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn table(state: &State, measured: Option<&State>) -> String {
-    table_on_scale(state, measured, None)
+    table_on_scale(state, measured, None, Precision::Sensible)
 }
 
 /// An aligned table of a state, with units: a header line with the
@@ -122,22 +131,34 @@ pub fn table(state: &State, measured: Option<&State>) -> String {
 /// requested conditions and a short block beneath gives the key figures as
 /// measured.
 ///
+/// Each number is written to its output's [`Output::digits`]
+/// ([`Precision::Sensible`]: pH to 3 decimals, pCO2 to 4 significant
+/// figures, ..., never an exponent between 1e-6 and 1e9) or with every
+/// digit ([`Precision::Full`]: the shortest text that reads back as the
+/// same f64, as in the JSON).
+///
 /// ```
-/// use travertine::{output::table_on_scale, Conditions, Measured, PhScale, Water};
+/// use travertine::output::{table_on_scale, Precision};
+/// use travertine::{Conditions, Measured, PhScale, Water};
 /// let lab = Water::saline(Conditions::new(25.0, 33.0)?)?
 ///     .solve(Measured::ph(7.95, Some(PhScale::Nbs))?, Measured::alkalinity_umol_kg(2250.0)?)?;
 /// let field = lab.at(Conditions::new(9.0, 33.0)?.with_pressure_dbar(120.0)?)?;
-/// let t = table_on_scale(&field, Some(&lab), Some(PhScale::Nbs));
+/// let t = table_on_scale(&field, Some(&lab), Some(PhScale::Nbs), Precision::Sensible);
 /// let key = t.find("Key figures").unwrap();
 /// let measured = t.find("As measured").unwrap();
 /// assert!(key < measured);
 /// assert!(t.lines().nth(3).unwrap().contains("pH, NBS scale"));
+/// // The pH as measured, to three decimals.
+/// assert!(t[measured..].contains(" 7.950\n"));
+/// let full = table_on_scale(&field, Some(&lab), Some(PhScale::Nbs), Precision::Full);
+/// assert!(full.contains(&format!(" {}\n", field.ph_nbs)));
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn table_on_scale(
     state: &State,
     measured: Option<&State>,
     ph_scale: Option<PhScale>,
+    precision: Precision,
 ) -> String {
     let mut out = String::new();
     let key = key_figures(state.medium, ph_scale.unwrap_or(PhScale::Total));
@@ -152,15 +173,30 @@ pub fn table_on_scale(
         .max()
         .unwrap_or(10)
         + 2;
+    let measured_key =
+        measured.map(|m| (m, key_figures(m.medium, ph_scale.unwrap_or(PhScale::Total))));
+    // Values are right-aligned in a column wide enough for the longest.
+    let value_w = key
+        .iter()
+        .chain(sections.iter().flat_map(|(_, r)| r.iter().map(|(o, _)| o)))
+        .map(|o| cell(*o, state, precision).chars().count())
+        .chain(
+            measured_key
+                .iter()
+                .flat_map(|(m, k)| k.iter().map(|o| cell(*o, m, precision).chars().count())),
+        )
+        .max()
+        .unwrap_or(0)
+        .max(14);
     let line = |o: Output, label: &str, s: &State| {
-        let mut line = format!("  {label:<label_w$}{:>14}", cell(o, s));
+        let mut line = format!("  {label:<label_w$}{:>value_w$}", cell(o, s, precision));
         if !o.unit().is_empty() {
             line.push_str("  ");
             line.push_str(o.unit());
         }
         line.trim_end().to_string()
     };
-    let _ = writeln!(out, "{}", header(state));
+    let _ = writeln!(out, "{}", header(state, precision));
     let _ = writeln!(out, "\nKey figures");
     for &o in &key {
         let _ = writeln!(out, "{}", line(o, label_in(o, state.medium), state));
@@ -171,9 +207,9 @@ pub fn table_on_scale(
             let _ = writeln!(out, "{}", line(o, label, state));
         }
     }
-    if let Some(m) = measured {
-        let _ = writeln!(out, "\nAs measured: {}", header(m));
-        for &o in &key_figures(m.medium, ph_scale.unwrap_or(PhScale::Total)) {
+    if let Some((m, measured_key)) = &measured_key {
+        let _ = writeln!(out, "\nAs measured: {}", header(m, precision));
+        for &o in measured_key {
             let _ = writeln!(out, "{}", line(o, label_in(o, m.medium), m));
         }
     }
@@ -210,14 +246,4 @@ pub fn table_on_scale(
         }
     }
     out
-}
-
-fn fmt_num(v: f64, decimals: usize) -> String {
-    if !v.is_finite() {
-        return "—".to_string();
-    }
-    if v != 0.0 && v.abs() < 10f64.powi(-(decimals as i32)) * 10.0 {
-        return format!("{v:.3e}");
-    }
-    format!("{v:.decimals$}")
 }

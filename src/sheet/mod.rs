@@ -58,10 +58,14 @@
 //! columns ([`SheetOptions::with_columns`]; defaults for field work in
 //! [`UnitSystem::Trade`] or [`UnitSystem::Ocean`] units), the residuals,
 //! `status` and `message`. A computed column whose name an input header
-//! already has is written as `NAME_calculated`. Numbers have six
-//! significant digits. CSV output keeps the input's delimiter, line
-//! endings, byte-order mark and decimal comma; JSON lines
-//! ([`Format::Jsonl`]) give each row as one object with the same keys.
+//! already has is written as `NAME_calculated`. In CSV output each
+//! computed number has the digits its measurement supports, in the unit of
+//! its column (pH 3 decimals, µmol/kg and µatm 4 significant figures, mg/L
+//! 3 significant figures: [`crate::output::Output::digits`]), or every
+//! digit with [`SheetOptions::with_digits`]. CSV output keeps the input's
+//! delimiter, line endings, byte-order mark and decimal comma; JSON lines
+//! ([`Format::Jsonl`]) give each row as one object with the same keys and
+//! every digit.
 //!
 //! # Example
 //! ```
@@ -76,7 +80,8 @@
 //! let text = String::from_utf8(out).unwrap();
 //! let lines: Vec<&str> = text.lines().collect();
 //! assert!(lines[0].ends_with("langelier_index,status,message"));
-//! assert!(lines[1].starts_with("north,24.5,410,7.9,118,80,fresh,7.9,"));
+//! // The inputs as typed, then the computed pH to three decimals.
+//! assert!(lines[1].starts_with("north,24.5,410,7.9,118,80,fresh,7.900,"));
 //! assert!(lines[2].ends_with(",error,column `pH (NBS)`: `7..9` is not a number"));
 //! # Ok::<(), travertine::sheet::SheetError>(())
 //! ```
@@ -100,6 +105,7 @@ pub use files::{remove_unfinished_outputs, Sink, Source};
 pub use header::column_guide;
 pub use summary::{MessageCount, Summary};
 
+use crate::output::Precision;
 use crate::sample::measured::Parameter;
 use crate::solve::RootChoice;
 use std::io::{IsTerminal, Read, Write};
@@ -180,6 +186,7 @@ pub struct SheetOptions {
     decimal_comma: bool,
     root: RootChoice,
     progress: Progress,
+    digits: Precision,
 }
 
 impl Default for SheetOptions {
@@ -195,6 +202,7 @@ impl Default for SheetOptions {
             decimal_comma: false,
             root: RootChoice::Natural,
             progress: Progress::Never,
+            digits: Precision::Sensible,
         }
     }
 }
@@ -364,6 +372,38 @@ impl SheetOptions {
     #[must_use]
     pub fn with_root(mut self, root: RootChoice) -> Self {
         self.root = root;
+        self
+    }
+
+    /// How many digits the computed columns and residuals of CSV output
+    /// have: [`Precision::Sensible`] (the default) writes each to its
+    /// output's [`crate::output::Output::digits`], in the unit of its
+    /// column (pH 3 decimals, µmol/kg and µatm 4 significant figures, mg/L
+    /// 3; a residual to the place of the value it is the residual of);
+    /// [`Precision::Full`] writes every digit, the shortest text that reads
+    /// back as the same f64. Input columns are written as they were typed,
+    /// and JSON lines always have every digit.
+    ///
+    /// ```
+    /// use travertine::output::Precision;
+    /// use travertine::sheet::{process, SheetOptions};
+    /// let sheet = "temperature_c,salinity,alkalinity_umol_kg,dic_umol_kg\n25,35,2300,2000\n";
+    /// let columns = SheetOptions::default().with_columns("ph_total,pco2_uatm")?;
+    /// let mut out = Vec::new();
+    /// process(&columns.clone(), sheet.as_bytes(), &mut out)?;
+    /// // worked values computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010),
+    /// // Millero (1995) and Weiss (1974): pH_T 8.0402, pCO2 402.75 µatm
+    /// assert!(String::from_utf8(out).unwrap().contains("25,35,2300,2000,8.040,402.8,ok"));
+    /// let mut out = Vec::new();
+    /// process(&columns.with_digits(Precision::Full), sheet.as_bytes(), &mut out)?;
+    /// let text = String::from_utf8(out).unwrap();
+    /// let ph: f64 = text.lines().nth(1).unwrap().split(',').nth(4).unwrap().parse().unwrap();
+    /// assert!((ph - 8.0402).abs() < 5e-5 && text.contains(&ph.to_string()));
+    /// # Ok::<(), travertine::sheet::SheetError>(())
+    /// ```
+    #[must_use]
+    pub fn with_digits(mut self, digits: Precision) -> Self {
+        self.digits = digits;
         self
     }
 

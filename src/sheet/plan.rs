@@ -8,7 +8,7 @@ use super::header::{self, Column, Reading, Recognition};
 use super::pair::{choose_pair, rank, RANKING};
 use super::{SheetError, SheetOptions};
 use crate::base::error::PH_SCALE_ADVICE;
-use crate::output::Output;
+use crate::output::{Output, Precision};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::Parameter;
@@ -67,6 +67,8 @@ pub(crate) struct Plan {
     pub units: UnitSystem,
     pub options: SolveOptions,
     pub decimal_comma: bool,
+    /// How many digits the CSV output writes.
+    pub digits: Precision,
     /// The °C temperature column, checked for readings that look like °F.
     pub warm_check: Option<usize>,
     /// Headers passed through without being read.
@@ -343,6 +345,7 @@ impl Plan {
                 .with_root(options.root)
                 .with_precipitation_potential(wants_potential),
             decimal_comma: options.decimal_comma,
+            digits: options.digits,
             warm_check,
             passed,
             unit_notes,

@@ -9,7 +9,7 @@ use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::base::warning::Severity;
 use crate::flow::PreparedWater;
-use crate::output::{Output, Value};
+use crate::output::{Digits, Output, Value};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::{Measured, Parameter};
@@ -53,7 +53,9 @@ pub(crate) struct Issue {
 #[derive(Debug, Default)]
 pub(crate) struct Scratch {
     pub values: Vec<Value>,
-    pub residuals: Vec<Option<f64>>,
+    /// Each residual, with the precision of its column at the value
+    /// measured (see [`Digits::at`]).
+    pub residuals: Vec<Option<(f64, Digits)>>,
     pub issues: Vec<Issue>,
     pub status: Status,
     /// The last row's water, prepared.
@@ -184,16 +186,21 @@ fn mass_of(p: Parameter) -> (Unit, f64) {
     }
 }
 
-/// A measured value in the units of its residual column.
+/// The residual of a measured value (measured minus calculated) in the
+/// units of its residual column, with the precision the column's rule
+/// gives the measured value there: a residual is written to the place its
+/// values are.
 fn measured_in_output(
     p: Parameter,
     v: CarbonValue,
     state: &State,
     units: UnitSystem,
     scale: PhScale,
-) -> Option<f64> {
+) -> Option<(f64, Digits)> {
+    let column = Output::of_parameter(p, units, Some(scale));
+    let digits = column.digits()?;
     match v {
-        CarbonValue::Ph(v, _) => Some(v - state.ph(scale)),
+        CarbonValue::Ph(v, _) => Some((v - state.ph(scale), digits.at(v))),
         CarbonValue::Quantity(q) => {
             let uatm = match q.unit {
                 Unit::Uatm | Unit::Ppm => q.value,
@@ -202,7 +209,7 @@ fn measured_in_output(
                 Unit::KPa => q.value * 1000.0 / 101_325.0 * 1e6,
                 _ => f64::NAN,
             };
-            let calculated = match Output::of_parameter(p, units, None).value(state) {
+            let calculated = match column.value(state) {
                 Value::Number(v) => v?,
                 Value::Text(_) => return None,
             };
@@ -218,7 +225,7 @@ fn measured_in_output(
                     }
                 }
             };
-            Some(measured - calculated)
+            Some((measured - calculated, digits.at(measured)))
         }
     }
 }
