@@ -254,6 +254,18 @@ pub enum ErrorKind {
     Computation,
 }
 
+/// The stable code, as in the JSON (`out_of_range`).
+///
+/// ```
+/// use travertine::error::ErrorKind;
+/// assert_eq!(ErrorKind::OutOfRange.to_string(), "out_of_range");
+/// ```
+impl std::fmt::Display for ErrorKind {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.code())
+    }
+}
+
 impl ErrorKind {
     /// The stable snake_case code.
     ///

@@ -223,6 +223,18 @@ pub enum Severity {
     Warning,
 }
 
+/// The plain name, as in the JSON: `note` or `warning`.
+///
+/// ```
+/// use travertine::base::warning::Severity;
+/// assert_eq!(Severity::Warning.to_string(), "warning");
+/// ```
+impl fmt::Display for Severity {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.name())
+    }
+}
+
 impl Severity {
     /// The plain name, as in the JSON.
     pub fn name(self) -> &'static str {

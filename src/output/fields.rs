@@ -105,6 +105,18 @@ pub enum Section {
     Fits,
 }
 
+/// The title printed above the section.
+///
+/// ```
+/// use travertine::output::Section;
+/// assert_eq!(Section::Gas.to_string(), "Gas");
+/// ```
+impl std::fmt::Display for Section {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.title())
+    }
+}
+
 impl Section {
     /// Every section, in table order.
     pub const ALL: &'static [Section] = &[

@@ -6,9 +6,11 @@
 mod digits;
 mod fields;
 mod json;
+mod record;
 mod table;
 
 pub use digits::{Digits, Precision};
 pub use fields::{Output, Place, Section, Value};
 pub use json::json;
+pub use record::{Caution, Item, Record};
 pub use table::{key_figures, table, table_on_scale};

@@ -360,6 +360,118 @@ impl Measured {
         Measured::new(Parameter::Alkalinity, Quantity::new(value, Unit::UmolPerKg))
     }
 
+    /// Total alkalinity in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::alkalinity(85.0, Unit::MgPerLCaCO3).is_ok());
+    /// ```
+    pub fn alkalinity(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Alkalinity, Quantity::new(value, unit))
+    }
+
+    /// DIC in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::dic(24.0, Unit::MgPerLC).is_ok());
+    /// ```
+    pub fn dic(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Dic, Quantity::new(value, unit))
+    }
+
+    /// CO2 partial pressure in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::pco2(0.041, Unit::KPa).is_ok());
+    /// ```
+    pub fn pco2(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Pco2, Quantity::new(value, unit))
+    }
+
+    /// CO2 fugacity in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::fco2(410.0, Unit::Uatm).is_ok());
+    /// ```
+    pub fn fco2(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Fco2, Quantity::new(value, unit))
+    }
+
+    /// CO2 mole fraction in dry air in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::xco2(415.0, Unit::Ppm).is_ok());
+    /// ```
+    pub fn xco2(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Xco2, Quantity::new(value, unit))
+    }
+
+    /// Dissolved CO2* in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::co2(2.5, Unit::MgPerLCO2).is_ok());
+    /// ```
+    pub fn co2(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Co2, Quantity::new(value, unit))
+    }
+
+    /// Bicarbonate in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::hco3(100.0, Unit::MgPerLHCO3).is_ok());
+    /// ```
+    pub fn hco3(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Hco3, Quantity::new(value, unit))
+    }
+
+    /// Carbonate in any unit it accepts ([`Parameter::accepted_units`]), so
+    /// that trade units need no conversion by hand.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: a unit it does not accept, or a value out of range.
+    ///
+    /// ```
+    /// use travertine::{units::Unit, Measured};
+    /// assert!(Measured::co3(0.5, Unit::MgPerLCO3).is_ok());
+    /// ```
+    pub fn co3(value: f64, unit: Unit) -> Result<Self> {
+        Measured::new(Parameter::Co3, Quantity::new(value, unit))
+    }
+
     /// DIC in µmol/kg.
     ///
     /// # Errors

@@ -244,6 +244,46 @@ impl Sample {
         }
     }
 
+    /// The value of `input` in this sample, if it has one: what
+    /// [`Sample::put`] stored. The medium is `None` while it is `auto`.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, values::InputValue, Sample};
+    /// let mut s = Sample::new(12.0);
+    /// assert_eq!(s.get(Input::Temperature), Some(InputValue::Number(12.0)));
+    /// s.set(Input::Conductivity, "420 uS/cm")?;
+    /// assert_eq!(s.get(Input::Conductivity).unwrap().to_string(), "420 uS/cm");
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn get(&self, input: Input) -> Option<InputValue> {
+        let number = |v: Option<f64>| v.map(InputValue::Number);
+        let choice = |c: Option<Choice>| c.map(InputValue::Choice);
+        match input {
+            Input::Carbon(p) => self.carbon_value(p).map(|v| match v {
+                CarbonValue::Ph(x, scale) => InputValue::Ph(x, scale),
+                CarbonValue::Quantity(q) => InputValue::Quantity(q),
+            }),
+            Input::Temperature => number(self.temperature_c),
+            Input::Salinity => number(self.salinity),
+            Input::Conductivity => self.conductivity.map(InputValue::Conductivity),
+            Input::Pressure => number(self.pressure_dbar),
+            Input::AirPressure => number(self.air_pressure_atm),
+            Input::Total(t) => self.total(t).map(InputValue::Quantity),
+            Input::CalciumFraction => number(self.calcium_fraction),
+            Input::Tds => number(self.tds_mg_l),
+            Input::IonicStrength => number(self.ionic_strength),
+            Input::Medium => {
+                choice((self.medium != MediumChoice::Auto).then_some(Choice::Medium(self.medium)))
+            }
+            Input::PhScale => choice(self.ph_scale.map(Choice::Scale)),
+            Input::CarbonicFit => choice(self.carbonic.map(Choice::Carbonic)),
+            Input::BoronFit => choice(self.boron.map(Choice::Boron)),
+            Input::FluorideFit => choice(self.fluoride_fit.map(Choice::Fluoride)),
+            Input::BisulfateFit => choice(self.bisulfate.map(Choice::Bisulfate)),
+            Input::Activity => choice(self.activity.map(Choice::Activity)),
+        }
+    }
+
     /// Reads `text` as a value of `input` ([`Input::read`]) and stores it.
     ///
     /// # Errors
@@ -356,6 +396,17 @@ impl Sample {
                        xco2, co2, hco3, co3)",
             });
         };
+        if let (Some(CarbonValue::Ph(_, Some(own))), Some(stated)) =
+            (self.carbon_value(Parameter::Ph), self.ph_scale)
+        {
+            if own != stated {
+                return Err(Error::Inconsistent {
+                    first: Field::Ph,
+                    second: Field::PhScale,
+                    reason: "the pH names one scale and the pH scale given is another; keep one",
+                });
+            }
+        }
         let (ma, mb) = (ma?, mb?);
         check_pair(&ma, &mb)?;
         Ok((ma, mb))
@@ -719,5 +770,91 @@ impl Sample {
             }
         }
         Ok(water)
+    }
+}
+
+/// A sample as data: an object keyed by the command-line names of the
+/// inputs given (`temperature`, `alkalinity`, `calcium`, `water`, ...),
+/// each value as it would be typed: a number in the input's base unit, or
+/// text with its unit or name (`"120 mg/L CaCO3"`, `"7.92 nbs"`, `"fresh"`).
+///
+/// ```
+/// use travertine::sample::{inputs::Input, Sample};
+/// use travertine::Parameter;
+/// let mut s = Sample::new(22.0);
+/// s.set(Input::Carbon(Parameter::Alkalinity), "120 mg/L CaCO3")?;
+/// s.set(Input::Carbon(Parameter::Ph), "7.6")?;
+/// let text = serde_json::to_string(&s).unwrap();
+/// assert_eq!(text, r#"{"alkalinity":"120 mg/L CaCO3","ph":7.6,"temperature":22.0}"#);
+/// assert_eq!(serde_json::from_str::<Sample>(&text).unwrap(), s);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl serde::Serialize for Sample {
+    fn serialize<S: serde::Serializer>(
+        &self,
+        serializer: S,
+    ) -> std::result::Result<S::Ok, S::Error> {
+        use serde::ser::SerializeMap;
+        let mut map = serializer.serialize_map(None)?;
+        for spec in crate::sample::inputs::INPUTS {
+            let Some(value) = self.get(spec.input) else {
+                continue;
+            };
+            // A bare number where the input reads one; text otherwise.
+            let text = spec.input.write(&value);
+            match text.parse::<f64>() {
+                Ok(v) => map.serialize_entry(spec.flag, &v)?,
+                Err(_) => map.serialize_entry(spec.flag, &text)?,
+            }
+        }
+        map.end()
+    }
+}
+
+/// Reads the object [`Sample`] serialises to; an unknown name or a value
+/// the input cannot read is an error naming it.
+///
+/// ```
+/// use travertine::sample::Sample;
+/// let s: Sample = serde_json::from_str(
+///     r#"{"temperature": 18, "alkalinity": "85 mg/L CaCO3", "ph": "7.9", "calcium": "30 mg/L Ca"}"#,
+/// ).unwrap();
+/// assert!(s.water().is_ok() && s.pair().is_ok());
+/// let e = serde_json::from_str::<Sample>(r#"{"temprature": 18}"#).unwrap_err();
+/// assert!(e.to_string().contains("temprature"));
+/// ```
+impl<'de> serde::Deserialize<'de> for Sample {
+    fn deserialize<D: serde::Deserializer<'de>>(
+        deserializer: D,
+    ) -> std::result::Result<Self, D::Error> {
+        use serde::de::Error as _;
+        let map = serde_json::Map::<String, serde_json::Value>::deserialize(deserializer)?;
+        let mut sample = Sample::default();
+        for (key, value) in map {
+            let Some(spec) = crate::sample::inputs::INPUTS.iter().find(|s| s.flag == key) else {
+                let names: Vec<&str> = crate::sample::inputs::INPUTS
+                    .iter()
+                    .map(|s| s.flag)
+                    .collect();
+                return Err(D::Error::custom(format!(
+                    "`{key}` is not an input; the inputs are {}",
+                    names.join(", ")
+                )));
+            };
+            let text = match value {
+                serde_json::Value::Null => continue,
+                serde_json::Value::String(t) => t,
+                serde_json::Value::Number(n) => n.to_string(),
+                other => {
+                    return Err(D::Error::custom(format!(
+                        "{key}: expected a number or text, found {other}"
+                    )))
+                }
+            };
+            sample
+                .set(spec.input, &text)
+                .map_err(|e| D::Error::custom(format!("{key}: {e}")))?;
+        }
+        Ok(sample)
     }
 }

@@ -43,6 +43,25 @@ impl std::str::FromStr for MediumChoice {
     }
 }
 
+/// The name `FromStr` reads: `auto`, `fresh`, `saline`.
+///
+/// ```
+/// use travertine::sample::values::MediumChoice;
+/// for m in [MediumChoice::Auto, MediumChoice::Fresh, MediumChoice::Saline] {
+///     assert_eq!(m.to_string().parse::<MediumChoice>()?, m);
+/// }
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl std::fmt::Display for MediumChoice {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self {
+            MediumChoice::Auto => "auto",
+            MediumChoice::Fresh => "fresh",
+            MediumChoice::Saline => "saline",
+        })
+    }
+}
+
 /// A conductivity reading.
 ///
 /// ```
@@ -149,6 +168,49 @@ pub enum Choice {
     Bisulfate(BisulfateFit),
     /// Activity model.
     Activity(ActivityModel),
+}
+
+/// The name, as `FromStr` of its kind reads it.
+///
+/// ```
+/// use travertine::sample::values::{Choice, MediumChoice};
+/// assert_eq!(Choice::Medium(MediumChoice::Fresh).to_string(), "fresh");
+/// ```
+impl std::fmt::Display for Choice {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Choice::Medium(m) => m.fmt(f),
+            Choice::Scale(s) => s.fmt(f),
+            Choice::Carbonic(c) => c.fmt(f),
+            Choice::Boron(b) => b.fmt(f),
+            Choice::Fluoride(x) => x.fmt(f),
+            Choice::Bisulfate(x) => x.fmt(f),
+            Choice::Activity(a) => a.fmt(f),
+        }
+    }
+}
+
+/// The value as it would be typed: `12.5`, `48 mg/L Ca`, `420 uS/cm`,
+/// `7.92 nbs`, `fresh`.
+///
+/// ```
+/// use travertine::sample::{inputs::Input, values::InputValue};
+/// use travertine::Parameter;
+/// for (input, text) in [(Input::Temperature, "12.5"), (Input::Carbon(Parameter::Ph), "7.92 nbs")] {
+///     assert_eq!(input.read(text)?.to_string(), text);
+/// }
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl std::fmt::Display for InputValue {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            InputValue::Number(v) | InputValue::Ph(v, None) => write!(f, "{v}"),
+            InputValue::Ph(v, Some(s)) => write!(f, "{v} {s}"),
+            InputValue::Quantity(q) => q.fmt(f),
+            InputValue::Conductivity(c) => c.fmt(f),
+            InputValue::Choice(c) => c.fmt(f),
+        }
+    }
 }
 
 /// A value of an input, read from a flag, a `--set` or a cell.

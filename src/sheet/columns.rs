@@ -35,6 +35,22 @@ impl std::str::FromStr for UnitSystem {
     }
 }
 
+/// The name `FromStr` reads: `trade` or `ocean`.
+///
+/// ```
+/// use travertine::sheet::UnitSystem;
+/// assert_eq!(UnitSystem::Ocean.to_string().parse::<UnitSystem>()?, UnitSystem::Ocean);
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+impl std::fmt::Display for UnitSystem {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self {
+            UnitSystem::Trade => "trade",
+            UnitSystem::Ocean => "ocean",
+        })
+    }
+}
+
 // The sheet's own view of the outputs (names, default sets, the column of
 // a parameter), kept here beside the sheet's unit systems.
 impl Output {

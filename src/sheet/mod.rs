@@ -141,6 +141,22 @@ impl std::str::FromStr for Format {
     }
 }
 
+/// The name `FromStr` reads: `csv` or `jsonl`.
+///
+/// ```
+/// use travertine::sheet::Format;
+/// assert_eq!(Format::Jsonl.to_string().parse::<Format>()?, Format::Jsonl);
+/// # Ok::<(), travertine::sheet::SheetError>(())
+/// ```
+impl std::fmt::Display for Format {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self {
+            Format::Csv => "csv",
+            Format::Jsonl => "jsonl",
+        })
+    }
+}
+
 /// When to draw a progress bar.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 #[non_exhaustive]

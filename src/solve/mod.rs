@@ -68,6 +68,25 @@ impl std::str::FromStr for RootChoice {
     }
 }
 
+/// The name [`RootChoice`]'s `FromStr` reads: `natural`, `lower-ph`, `higher-ph`.
+///
+/// ```
+/// use travertine::RootChoice;
+/// for r in [RootChoice::Natural, RootChoice::LowerPh, RootChoice::HigherPh] {
+///     assert_eq!(r.to_string().parse::<RootChoice>()?, r);
+/// }
+/// # Ok::<(), travertine::Error>(())
+/// ```
+impl std::fmt::Display for RootChoice {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(match self {
+            RootChoice::Natural => "natural",
+            RootChoice::LowerPh => "lower-ph",
+            RootChoice::HigherPh => "higher-ph",
+        })
+    }
+}
+
 /// Options of a solve.
 ///
 /// ```

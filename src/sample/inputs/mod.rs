@@ -10,9 +10,10 @@
 //! into a flag or a column, in this one place. Adding an input means adding
 //! one row here and one slot in `Sample`.
 
-use crate::base::error::Result;
+use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{list_units, Quantity, Unit, MOLAR_UNITS};
+use crate::properties::scales::PhScale;
 use crate::sample::measured::Parameter;
 use crate::sample::values::{Choice, Conductivity, InputValue};
 
@@ -53,6 +54,30 @@ pub enum Total {
     Sulfate,
     /// Measured total boron.
     Boron,
+}
+
+/// The total's name, as in messages (`phosphate`, `calcium`).
+///
+/// ```
+/// use travertine::sample::inputs::Total;
+/// assert_eq!(Total::Calcium.to_string(), "calcium");
+/// ```
+impl std::fmt::Display for Total {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        self.field().fmt(f)
+    }
+}
+
+/// The input's name, as in messages (`alkalinity`, `temperature`).
+///
+/// ```
+/// use travertine::sample::inputs::Input;
+/// assert_eq!(Input::Temperature.to_string(), "temperature");
+/// ```
+impl std::fmt::Display for Input {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.name())
+    }
 }
 
 impl Total {
@@ -206,6 +231,29 @@ pub enum Input {
     BisulfateFit,
     /// Activity model.
     Activity,
+}
+
+/// A pH, with the scale it names after the number, if any: `7.92`,
+/// `7.92 nbs`, `8.05 (total)`.
+fn read_ph(text: &str) -> Result<InputValue> {
+    let t = text.trim();
+    let (number, scale) = match t.split_once(char::is_whitespace) {
+        Some((n, rest)) => {
+            let name = rest.trim().trim_start_matches('(').trim_end_matches(')');
+            (n, Some(name.parse::<PhScale>()?))
+        }
+        None => (t, None),
+    };
+    let v = crate::base::error::plain_number(Field::Ph, number).map_err(|e| match e {
+        // The whole text in the message, as typed.
+        Error::NotANumber { field, slip, .. } => Error::NotANumber {
+            field,
+            text: text.to_string(),
+            slip,
+        },
+        other => other,
+    })?;
+    Ok(InputValue::Ph(v, scale))
 }
 
 /// How the spelling of a header reads.
@@ -381,9 +429,26 @@ impl Input {
         }
     }
 
+    /// The text [`Input::read`] reads back to `value`: the value as typed,
+    /// with the unit an input needs (`250 mg/L` for TDS).
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, values::InputValue};
+    /// assert_eq!(Input::Tds.write(&InputValue::Number(250.0)), "250 mg/L");
+    /// assert_eq!(Input::Tds.read("250 mg/L")?, InputValue::Number(250.0));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn write(self, value: &InputValue) -> String {
+        match (self, value) {
+            (Input::Tds, InputValue::Number(v)) => format!("{v} {}", Unit::MgPerL),
+            (_, v) => v.to_string(),
+        }
+    }
+
     /// Reads the text of a command-line value or a `--set` value: a plain
     /// number in the input's base unit (°C, practical salinity, dbar, atm,
-    /// fraction, mol/kg), a number with a unit, or a name.
+    /// fraction, mol/kg), a number with a unit, or a name. A pH may name
+    /// its scale after the number (`7.92 nbs`, `8.05 (total)`).
     ///
     /// # Errors
     /// The input's own parse error, naming its field.
@@ -393,13 +458,15 @@ impl Input {
     /// assert_eq!(Input::Temperature.read("12.5")?, InputValue::Number(12.5));
     /// assert!(matches!(Input::Total(Total::Calcium).read("40 mg/L Ca")?, InputValue::Quantity(_)));
     /// assert!(Input::Total(Total::Calcium).read("40").is_err()); // no unit
+    /// use travertine::{Parameter, PhScale};
+    /// assert_eq!(Input::Carbon(Parameter::Ph).read("7.92 nbs")?, InputValue::Ph(7.92, Some(PhScale::Nbs)));
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn read(self, text: &str) -> Result<InputValue> {
         let field = self.field();
         let number = || crate::base::error::plain_number(field, text);
         Ok(match self {
-            Input::Carbon(Parameter::Ph) => InputValue::Ph(number()?, None),
+            Input::Carbon(Parameter::Ph) => read_ph(text)?,
             Input::Carbon(p) => {
                 InputValue::Quantity(Quantity::parse(field, text, &p.accepted_units())?)
             }
