@@ -53,7 +53,7 @@ pub const INPUTS: &[InputSpec] = &[
         Input::Carbon(Parameter::Ph),
         "ph",
         "ph_nbs",
-        "pH, a plain number on the scale given by --ph-scale",
+        "pH, a plain number on the scale given by --ph-scale, or followed by its own scale (\"7.92 nbs\")",
         [("ph", Plain)]
     ),
     spec!(
