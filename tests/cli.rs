@@ -4,6 +4,9 @@
 
 use std::process::{Command, Output};
 
+mod common;
+use common::has_figures;
+
 fn travertine(args: &[&str]) -> Output {
     Command::new(env!("CARGO_BIN_EXE_travertine"))
         .args(args)
@@ -544,6 +547,11 @@ fn a_saline_ph_without_its_scale_is_refused_and_the_scale_matters() {
 /// A solve of an invented pond (22 °C, fresh, alkalinity 120 mg/L as
 /// CaCO3, pH 7.6), with more flags.
 fn pond_solve(extra: &[&str]) -> Output {
+    pond_solve_at("7.6", extra)
+}
+
+/// The invented pond of [`pond_solve`] at another pH.
+fn pond_solve_at(ph: &str, extra: &[&str]) -> Output {
     let mut args = vec![
         "solve",
         "--temperature",
@@ -553,7 +561,7 @@ fn pond_solve(extra: &[&str]) -> Output {
         "--alkalinity",
         "120 mg/L CaCO3",
         "--ph",
-        "7.6",
+        ph,
     ];
     args.extend_from_slice(extra);
     travertine(&args)
@@ -680,21 +688,6 @@ fn cell<'a>(rows: &'a [(String, String, String)], label: &str, unit: &str) -> &'
         .unwrap_or_else(|| panic!("no row `{label}` in {unit:?}: {rows:?}"))
 }
 
-/// Whether a plain decimal text has `n` significant figures: with a
-/// point, `n` digits after the leading zeros; an integer, at least `n`
-/// digits of which at most `n` before its trailing zeros (`3940` has 3 or
-/// 4, `14120` 4 or 5).
-fn has_figures(text: &str, n: usize) -> bool {
-    let t = text.trim_start_matches('-');
-    let digits: String = t.chars().filter(char::is_ascii_digit).collect();
-    let digits = digits.trim_start_matches('0');
-    if t.contains(['.', ',']) {
-        digits.len() == n
-    } else {
-        digits.len() >= n && digits.trim_end_matches('0').len() <= n
-    }
-}
-
 /// No number of the table is written with an exponent.
 fn assert_no_exponent(text: &str, what: &str) {
     for (label, value, _) in table_rows(text) {
@@ -730,20 +723,7 @@ fn the_table_writes_each_figure_to_its_digits() {
     assert_no_exponent(&text, "sea water");
 
     // An invented lime-dosed pond at pH 10.1: little free CO2.
-    let pond = |extra: &[&str]| {
-        let args = [
-            "solve",
-            "--temperature",
-            "22",
-            "--water",
-            "fresh",
-            "--alkalinity",
-            "120 mg/L CaCO3",
-            "--ph",
-            "10.1",
-        ];
-        travertine(&[&args[..], extra].concat())
-    };
+    let pond = |extra: &[&str]| pond_solve_at("10.1", extra);
     let json: serde_json::Value = serde_json::from_slice(&pond(&["--json"]).stdout).unwrap();
     let free = json["free_co2_mg_l"].as_f64().unwrap();
     assert!((0.001..0.01).contains(&free), "{free}");

@@ -6,6 +6,9 @@ use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output, Stdio};
 
+mod common;
+use common::has_figures;
+
 fn travertine(args: &[&str]) -> Output {
     Command::new(env!("CARGO_BIN_EXE_travertine"))
         .args(args)
@@ -890,21 +893,6 @@ fn a_utf16_sheet_is_refused_with_advice() {
         "Temp (°C),salinity,alkalinity_umol_kg,ph_total\n25,35,2300,8\n".as_bytes(),
     );
     assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
-}
-
-/// Whether a plain decimal text has `n` significant figures: with a
-/// point, `n` digits after the leading zeros; an integer, at least `n`
-/// digits of which at most `n` before its trailing zeros (`3940` has 3 or
-/// 4, `14120` 4 or 5).
-fn has_figures(text: &str, n: usize) -> bool {
-    let t = text.trim_start_matches('-');
-    let digits: String = t.chars().filter(char::is_ascii_digit).collect();
-    let digits = digits.trim_start_matches('0');
-    if t.contains(['.', ',']) {
-        digits.len() == n
-    } else {
-        digits.len() >= n && digits.trim_end_matches('0').len() <= n
-    }
 }
 
 /// Decimals of a plain decimal text.

@@ -366,3 +366,18 @@ pub fn any_value() -> impl Strategy<Value = f64> {
         0.0..10000.0f64,
     ]
 }
+
+/// Whether a plain decimal text has `n` significant figures: with a
+/// point, `n` digits after the leading zeros; an integer, at least `n`
+/// digits of which at most `n` before its trailing zeros (`3940` has 3 or
+/// 4, `14120` 4 or 5).
+pub fn has_figures(text: &str, n: usize) -> bool {
+    let t = text.trim_start_matches('-');
+    let digits: String = t.chars().filter(char::is_ascii_digit).collect();
+    let digits = digits.trim_start_matches('0');
+    if t.contains(['.', ',']) {
+        digits.len() == n
+    } else {
+        digits.len() >= n && digits.trim_end_matches('0').len() <= n
+    }
+}
