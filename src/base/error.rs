@@ -197,6 +197,15 @@ pub enum Error {
         /// What is counted.
         what: &'static str,
     },
+    /// A target that cannot be reached the way asked (a dose of a chemical
+    /// that moves the quantity the other way, or not far enough).
+    #[error("{field}: {reason}")]
+    Unreachable {
+        /// What was aimed at, for example `target`.
+        field: Field,
+        /// Why, with the limit where there is one.
+        reason: String,
+    },
     /// A computed quantity (for example density) could not be evaluated.
     #[error("{field} could not be computed: {reason}")]
     Computation {
@@ -252,6 +261,8 @@ pub enum ErrorKind {
     WrongCount,
     /// [`Error::Computation`].
     Computation,
+    /// [`Error::Unreachable`].
+    Unreachable,
 }
 
 /// The stable code, as in the JSON (`out_of_range`).
@@ -291,6 +302,7 @@ impl ErrorKind {
             ErrorKind::Missing => "missing",
             ErrorKind::WrongCount => "wrong_count",
             ErrorKind::Computation => "computation",
+            ErrorKind::Unreachable => "unreachable",
         }
     }
 }
@@ -344,6 +356,7 @@ impl Error {
             Error::Missing { .. } => ErrorKind::Missing,
             Error::WrongCount { .. } => ErrorKind::WrongCount,
             Error::Computation { .. } => ErrorKind::Computation,
+            Error::Unreachable { .. } => ErrorKind::Unreachable,
         }
     }
 
@@ -365,7 +378,8 @@ impl Error {
             | Error::WrongMedium { field, .. }
             | Error::Missing { field, .. }
             | Error::WrongCount { field, .. }
-            | Error::Computation { field, .. } => Some(*field),
+            | Error::Computation { field, .. }
+            | Error::Unreachable { field, .. } => Some(*field),
             Error::UnknownFit { constant, .. } => Some(*constant),
             Error::UnstatedPhScale { .. } => Some(Field::PhScale),
             Error::IncompatiblePair { first, .. }
@@ -665,6 +679,7 @@ mod tests {
             ErrorKind::Missing,
             ErrorKind::WrongCount,
             ErrorKind::Computation,
+            ErrorKind::Unreachable,
         ];
         for k in kinds {
             assert_eq!(serde_json::to_value(k).unwrap(), k.code());

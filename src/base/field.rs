@@ -121,6 +121,20 @@ fields! {
     Root => "root",
     /// How many digits a table or a sheet writes.
     Digits => "digits",
+    /// A chemical dosed into a water.
+    Chemical => "chemical",
+    /// What a dose aims at (`alkalinity=50 mg/L CaCO3`).
+    Target => "target",
+    /// The purity of a product, %.
+    Purity => "purity",
+    /// The fraction of a product that dissolves and reacts.
+    DissolvedFraction => "dissolved_fraction",
+    /// The volume of water treated.
+    Volume => "volume",
+    /// The area of a pond.
+    Area => "area",
+    /// The mean depth of a pond.
+    MeanDepth => "mean_depth",
     /// The density of the solution (computed).
     Density => "density",
     /// A unit named on its own.

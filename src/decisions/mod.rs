@@ -2,3 +2,6 @@
 //! fractions, doses, blends, quality flags and uncertainty. Empty for now;
 //! each lands here in its own module, reading [`crate::state::State`] and
 //! calling the flow ([`crate::flow`]) for any new solve.
+
+pub mod dose;
+pub mod volume;
