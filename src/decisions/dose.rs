@@ -715,7 +715,8 @@ mod tests {
                 Measured::ph(7.92, Some(PhScale::Nbs)).unwrap(),
             )
             .unwrap();
-        let cases: Vec<(&Water, &State, Chemical, &str, fn(&State) -> f64)> = vec![
+        type Case<'a> = (&'a Water, &'a State, Chemical, &'a str, fn(&State) -> f64);
+        let cases: Vec<Case> = vec![
             (
                 &w,
                 &s,

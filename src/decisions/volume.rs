@@ -124,7 +124,7 @@ mod tests {
         assert!((Volume::parse("1000 L").unwrap().m3() - 1.0).abs() < 1e-12);
         assert!((Volume::parse("1 gal").unwrap().m3() - 3.785411784e-3).abs() < 1e-15);
         assert!(
-            (Volume::of_pond("1 acre", "1 ft").unwrap().m3() - 1233.481_837_547_52).abs() < 1e-6
+            (Volume::of_pond("1 acre", "1 ft").unwrap().m3() - 1_233.481_837_547_52).abs() < 1e-6
         );
         assert!(Volume::parse("10 furlongs").is_err());
         assert!(Volume::parse("-5 m3").is_err());
