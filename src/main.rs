@@ -26,6 +26,58 @@ enum Command {
     Solve(Box<SolveArgs>),
     /// Solve every row of a CSV field sheet; results in input order with status and message.
     Sheet(Box<SheetArgs>),
+    /// How much of a chemical takes a water to a target (alkalinity, pH, free CO2, Ω, calcium
+    /// hardness), with the water after treatment and the cautions.
+    Dose(Box<DoseArgs>),
+}
+
+#[derive(Args)]
+struct DoseArgs {
+    /// The water, with the same flags as `solve`.
+    #[command(flatten)]
+    inputs: SampleArgs,
+    /// The chemical added (or aeration, which removes CO2).
+    #[arg(long, value_name = "NAME", value_parser = chemical_names())]
+    chemical: String,
+    /// What to reach, NAME=VALUE: alkalinity=50 mg/L CaCO3, ph=7.5 (on the scale of the
+    /// input pH), free_co2=10 (mg/L), omega_aragonite=1.5, omega_calcite=1,
+    /// calcium_hardness=40 mg/L CaCO3.
+    #[arg(long, value_name = "NAME=VALUE")]
+    target: String,
+    /// Purity of the product, % (default: a usual grade of each chemical; check the label).
+    #[arg(long, value_name = "PERCENT")]
+    purity: Option<f64>,
+    /// Fraction of the product that dissolves and reacts, 0 to 1 (default 1; agricultural
+    /// limestone often dissolves only in part).
+    #[arg(long, value_name = "FRACTION")]
+    dissolved_fraction: Option<f64>,
+    /// Volume of water treated, with a unit: m3, L, gal (US), acre-ft.
+    #[arg(long, conflicts_with_all = ["area", "mean_depth"])]
+    volume: Option<String>,
+    /// Area of the pond, with a unit: m2, ha, acre (with --mean-depth).
+    #[arg(long, requires = "mean_depth")]
+    area: Option<String>,
+    /// Mean depth of the pond, with a unit: m, ft (with --area).
+    #[arg(long, requires = "area")]
+    mean_depth: Option<String>,
+    /// Which root where two waters fit: natural, lower-ph, higher-ph.
+    #[arg(long, default_value = "natural")]
+    root: String,
+    /// Print one JSON object instead of a table.
+    #[arg(long)]
+    json: bool,
+    /// Digits of the table: sensible or full.
+    #[arg(long, default_value = "sensible", value_name = "sensible|full")]
+    digits: String,
+}
+
+/// The names `--chemical` takes, from the library's list.
+fn chemical_names() -> clap::builder::PossibleValuesParser {
+    clap::builder::PossibleValuesParser::new(
+        travertine::decisions::dose::Chemical::ALL
+            .iter()
+            .map(|c| clap::builder::PossibleValue::new(c.name()).help(c.what())),
+    )
 }
 
 #[derive(Args)]
@@ -260,13 +312,25 @@ impl InputFlags for EveryRow {
 
 input_flag_group!(EveryRow);
 
-fn run(a: &SolveArgs) -> Result<String, FlagError> {
+/// A sample solved from its flags: the sample, its water, the pair's flags
+/// (for messages) and the state.
+struct Solved {
+    sample: Sample,
+    water: travertine::Water,
+    pair_flags: String,
+    state: State,
+}
+
+fn solve_sample(
+    inputs: &SampleArgs,
+    root: &str,
+    options: SolveOptions,
+) -> Result<Solved, FlagError> {
     let mut sample = Sample::default();
-    for (input, text) in &a.inputs.given {
+    for (input, text) in &inputs.given {
         sample.set(*input, text).map_err(at_flag(&flag(*input)))?;
     }
-    let carbon: Vec<String> = a
-        .inputs
+    let carbon: Vec<String> = inputs
         .given
         .iter()
         .filter(|(i, _)| matches!(i, Input::Carbon(_)))
@@ -283,15 +347,29 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     })?;
     let water = sample.water().map_err(flagged)?;
     sample.check_ph_scale(water.medium()).map_err(flagged)?;
-    let root: RootChoice = a.root.parse().map_err(at_flag("--root"))?;
+    let root: RootChoice = root.parse().map_err(at_flag("--root"))?;
+    let state = water
+        .solve_with(first, second, &options.with_root(root))
+        .map_err(at_flag(&pair_flags))?;
+    Ok(Solved {
+        sample,
+        water,
+        pair_flags,
+        state,
+    })
+}
+
+fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
     // One sample: the precipitation potential's cost does not matter.
-    let options = SolveOptions::default()
-        .with_root(root)
-        .with_precipitation_potential(true);
-    let state = water
-        .solve_with(first, second, &options)
-        .map_err(at_flag(&pair_flags))?;
+    let options = SolveOptions::default().with_precipitation_potential(true);
+    let Solved {
+        sample,
+        water,
+        state,
+        ..
+    } = solve_sample(&a.inputs, &a.root, options)?;
+    let options = options.with_root(a.root.parse().map_err(at_flag("--root"))?);
 
     let reported = if a.at_temperature.is_some() || a.at_pressure.is_some() {
         let mut c = *water.conditions();
@@ -315,9 +393,54 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         &state,
         reported.as_ref(),
         a.json,
-        sample.ph_scale,
+        Some(sample.input_ph_scale(water.medium())),
         precision,
     ))
+}
+
+fn dose(a: &DoseArgs) -> Result<String, FlagError> {
+    use travertine::decisions::dose::{dose, DoseRequest};
+    use travertine::decisions::volume::Volume;
+    let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
+    let Solved {
+        sample,
+        water,
+        pair_flags,
+        state,
+    } = solve_sample(&a.inputs, &a.root, SolveOptions::default())?;
+    let mut request = DoseRequest::new(
+        a.chemical.parse().map_err(at_flag("--chemical"))?,
+        a.target.parse().map_err(at_flag("--target"))?,
+    );
+    if let Some(p) = a.purity {
+        request = request
+            .with_purity_percent(p)
+            .map_err(at_flag("--purity"))?;
+    }
+    if let Some(f) = a.dissolved_fraction {
+        request = request
+            .with_dissolved_fraction(f)
+            .map_err(at_flag("--dissolved-fraction"))?;
+    }
+    let scale = sample.input_ph_scale(water.medium());
+    request = request.with_ph_scale(scale);
+    let volume = match (&a.volume, &a.area, &a.mean_depth) {
+        (Some(v), ..) => Some(Volume::parse(v).map_err(at_flag("--volume"))?),
+        (None, Some(area), Some(depth)) => {
+            Some(Volume::of_pond(area, depth).map_err(at_flag("--area, --mean-depth"))?)
+        }
+        _ => None,
+    };
+    let d = dose(&water, &state, request).map_err(|e| match e {
+        Error::Unreachable { .. } | Error::UnknownChoice { .. } => at_flag("--target")(e),
+        Error::Missing { .. } => flagged(e),
+        other => at_flag(&pair_flags)(other),
+    })?;
+    Ok(if a.json {
+        travertine::output::dose_json(&d, volume, scale)
+    } else {
+        travertine::output::dose_table(&d, volume, scale, precision)
+    })
 }
 
 fn render(
@@ -528,6 +651,13 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
         Command::Sheet(args) => sheet(&args),
+        Command::Dose(args) => match dose(&args) {
+            Ok(text) => print_result(text.trim_end()),
+            Err(e) => {
+                say(&format!("travertine: {}: {}\n", e.flag, e.error));
+                ExitCode::from(2)
+            }
+        },
         Command::Solve(args) => match run(&args) {
             Ok(text) => print_result(text.trim_end()),
             Err(e) => {

@@ -409,11 +409,20 @@ pub fn cautions(chemical: Chemical) -> Vec<Caution> {
                       before dosing; a fast pH drop and the CO2 it releases can kill fish",
         }),
         Chemical::CarbonDioxide => out.push(Caution {
-            code: "co2_toxic",
+            code: "carbon_dioxide_gas",
             message: "free CO2 above about 20 mg/L stresses most fish, and CO2 gas displaces \
                       air in closed spaces: dose slowly and ventilate",
         }),
         Chemical::SodiumBicarbonate | Chemical::SodiumCarbonate | Chemical::Aeration => {}
+    }
+    if chemical != Chemical::Aeration {
+        out.push(Caution {
+            code: "closed_to_air",
+            message: "the water after treatment is the water just after the chemical has \
+                      reacted, before it exchanges CO2 with the air; over the following hours \
+                      to days its pH and free CO2 move toward equilibrium with the air, while \
+                      its alkalinity and hardness stay",
+        });
     }
     out.push(Caution {
         code: "split_the_dose",

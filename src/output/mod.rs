@@ -4,12 +4,14 @@
 //! that list; [`Precision`] chooses between it and every digit.
 
 mod digits;
+mod dose;
 mod fields;
 mod json;
 mod record;
 mod table;
 
 pub use digits::{Digits, Precision};
+pub use dose::{dose_changes, dose_json, dose_table};
 pub use fields::{Output, Place, Section, Value};
 pub use json::json;
 pub use record::{Caution, Item, Record};

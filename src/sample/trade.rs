@@ -331,6 +331,29 @@ impl Sample {
         self.carbon_value(p).map(|v| v.measured(p, self.ph_scale))
     }
 
+    /// The pH scale of this sample's answers: the scale its pH names, or
+    /// the one given for it, or the medium's usual scale (NBS in fresh
+    /// water, total in saline water).
+    ///
+    /// ```
+    /// use travertine::{sample::{inputs::Input, Sample}, Medium, Parameter, PhScale};
+    /// let mut s = Sample::new(20.0);
+    /// assert_eq!(s.input_ph_scale(Medium::Saline), PhScale::Total);
+    /// s.set(Input::Carbon(Parameter::Ph), "7.92 nbs")?;
+    /// assert_eq!(s.input_ph_scale(Medium::Saline), PhScale::Nbs);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn input_ph_scale(&self, medium: Medium) -> PhScale {
+        let own = match self.carbon_value(Parameter::Ph) {
+            Some(CarbonValue::Ph(_, scale)) => scale,
+            _ => None,
+        };
+        own.or(self.ph_scale).unwrap_or(match medium {
+            Medium::Fresh => PhScale::Nbs,
+            _ => PhScale::Total,
+        })
+    }
+
     /// Refuses a pH without its scale in saline water ([`Error::UnstatedPhScale`]):
     /// there the NBS and total scales differ by about 0.1 to 0.15 pH, so the
     /// scale is never assumed. In fresh water a pH without a scale is NBS

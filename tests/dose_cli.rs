@@ -1,0 +1,103 @@
+//! `travertine dose` from the outside: the dose of the invented pond of the
+//! README, its JSON, the cautions, and targets out of reach.
+
+use std::process::{Command, Output};
+
+fn travertine(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(args)
+        .output()
+        .expect("the binary runs")
+}
+
+/// An invented pond of the demo farm: 0.8 ha, 1.2 m deep, alkalinity
+/// 28 mg/L as CaCO3, dawn pH 6.9, calcium 8 mg/L.
+fn pond(extra: &[&str]) -> Output {
+    let mut args = vec![
+        "dose",
+        "--temperature",
+        "24",
+        "--alkalinity",
+        "28 mg/L CaCO3",
+        "--ph",
+        "6.9",
+        "--calcium",
+        "8 mg/L Ca",
+        "--area",
+        "0.8 ha",
+        "--mean-depth",
+        "1.2 m",
+    ];
+    args.extend_from_slice(extra);
+    travertine(&args)
+}
+
+fn json(o: &Output) -> serde_json::Value {
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    serde_json::from_slice(&o.stdout).expect("JSON")
+}
+
+/// 22 mg/L as CaCO3 of alkalinity over 9600 m³ is 0.44 meq/L: 0.44 mmol/L
+/// of NaHCO3 at 84.007 g/mol, 99 % pure, is 37.3 g/m³ and 358 kg
+/// (stoichiometry; common practice).
+#[test]
+fn sodium_bicarbonate_for_the_pond() {
+    let v = json(&pond(&[
+        "--chemical",
+        "sodium-bicarbonate",
+        "--target",
+        "alkalinity=50 mg/L CaCO3",
+        "--json",
+    ]));
+    let g_m3 = v["dose_g_m3"].as_f64().unwrap();
+    assert!((g_m3 - 0.44 * 84.007 / 0.99).abs() < 0.05, "{g_m3}");
+    let kg = v["dose_total_kg"].as_f64().unwrap();
+    assert!((kg - g_m3 * 9.6).abs() < 1e-9, "{kg}");
+    let lb = v["dose_total_lb"].as_f64().unwrap();
+    assert!((lb - kg / 0.453_592_37).abs() < 1e-9);
+    // The state after treatment has the keys of `solve --json`.
+    assert!((v["after"]["alkalinity_mg_l_caco3"].as_f64().unwrap() - 50.0).abs() < 1e-6);
+    assert!(v["after"]["warnings"].is_array());
+    assert!((v["change"]["alkalinity_mg_l_caco3"].as_f64().unwrap() - 22.0).abs() < 1e-6);
+    let codes: Vec<&str> = v["cautions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| c["code"].as_str().unwrap())
+        .collect();
+    assert!(codes.contains(&"follow_the_label") && codes.contains(&"split_the_dose"));
+}
+
+/// The table carries the cautions too, and the caustic ones for lime.
+#[test]
+fn the_table_shows_the_cautions() {
+    let o = pond(&["--chemical", "hydrated-lime", "--target", "ph=7.5"]);
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let text = String::from_utf8_lossy(&o.stdout);
+    assert!(text.contains("Cautions"), "{text}");
+    assert!(text.contains("burn skin and eyes"), "{text}");
+    assert!(text.contains("kg ("), "{text}");
+}
+
+/// A target out of reach exits 2 and says why.
+#[test]
+fn out_of_reach_exits_2_with_the_reason() {
+    let o = pond(&["--chemical", "sodium-bicarbonate", "--target", "ph=9"]);
+    assert_eq!(o.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert!(
+        err.contains("--target") && err.contains("farthest it goes is"),
+        "{err}"
+    );
+    let o = pond(&[
+        "--chemical",
+        "sulfuric-acid",
+        "--target",
+        "alkalinity=40 mg/L CaCO3",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("lowers alkalinity"));
+    let o = pond(&["--chemical", "bleach", "--target", "ph=7"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("sodium-bicarbonate"));
+}
