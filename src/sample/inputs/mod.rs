@@ -206,6 +206,10 @@ pub enum Input {
     BisulfateFit,
     /// Activity model.
     Activity,
+    // issue 11: depth profiles
+    /// Depth below the water surface, m: becomes the pressure (see
+    /// [`crate::properties::density::pressure_dbar_at_depth`]).
+    Depth,
 }
 
 /// How the spelling of a header reads.
@@ -293,6 +297,7 @@ impl Input {
             Input::FluorideFit => Field::FluorideFit,
             Input::BisulfateFit => Field::BisulfateFit,
             Input::Activity => Field::Activity,
+            Input::Depth => Field::Depth,
         }
     }
 
@@ -326,6 +331,7 @@ impl Input {
             Input::FluorideFit => "fluoride fit",
             Input::BisulfateFit => "bisulfate fit",
             Input::Activity => "activity model",
+            Input::Depth => "depth",
             other => other.field().name(),
         }
     }
@@ -377,13 +383,14 @@ impl Input {
             Input::CalciumFraction => "none (0 to 1), %".into(),
             Input::Tds => "mg/L, g/L, ppm (as mg/L)".into(),
             Input::IonicStrength => "none (mol/kg), mol/kg, mmol/kg".into(),
+            Input::Depth => "m; in a sheet header also ft (0.3048 m)".into(),
             _ => "none (a name in each cell)".into(),
         }
     }
 
     /// Reads the text of a command-line value or a `--set` value: a plain
     /// number in the input's base unit (°C, practical salinity, dbar, atm,
-    /// fraction, mol/kg), a number with a unit, or a name.
+    /// fraction, mol/kg, m), a number with a unit, or a name.
     ///
     /// # Errors
     /// The input's own parse error, naming its field.
@@ -418,7 +425,8 @@ impl Input {
             | Input::Pressure
             | Input::AirPressure
             | Input::CalciumFraction
-            | Input::IonicStrength => InputValue::Number(number()?),
+            | Input::IonicStrength
+            | Input::Depth => InputValue::Number(number()?),
         })
     }
 }
