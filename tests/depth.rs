@@ -153,6 +153,28 @@ fn depth_in_solve_gives_the_pressure_in_the_json() {
         .as_str()
         .unwrap()
         .contains("at 41.2 dbar"));
+    // The table's header gives the computed pressure to 0.1 dbar.
+    let o = travertine(
+        &[
+            "solve",
+            "--depth",
+            "42",
+            "--temperature",
+            "9",
+            "--salinity",
+            "0.2",
+            "--ph",
+            "7.4",
+            "--alkalinity",
+            "1.5meq/L",
+        ],
+        None,
+    );
+    assert!(
+        stdout(&o).starts_with("fresh water at 9 °C, salinity 0.2, 41.2 dbar;"),
+        "{}",
+        stdout(&o)
+    );
     // A depth out of range names the flag and the range.
     let o = travertine(
         &[
