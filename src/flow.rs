@@ -28,6 +28,49 @@ pub const MEDIA_OVERLAP_SALINITY: (f64, f64) = (0.5, 5.0);
 /// given (in the overlap).
 pub const MEDIA_PCO2_CAUTION: f64 = 0.05;
 
+/// How much the pressure correction of a fresh water may change pCO2 or
+/// calcite Ω (relative to the same measurements solved at the surface)
+/// before its caution is a warning rather than a note.
+///
+/// Fresh water under pressure is corrected with the Millero (1995)
+/// coefficients fitted for sea water, the only ones the crate has (none
+/// for dilute water could be verified). Their error in fresh water is some
+/// part of the whole correction. A correction below 2 % is below what a pH
+/// uncertainty of 0.01 (a good field meter; common practice) already makes
+/// in pCO2 and Ω, ln(10) × 0.01 = 2.3 %, so even if it were wholly wrong it
+/// would not change a conclusion: the size is reported in a note
+/// (`fresh_pressure_effect_small`). Above it, the warning
+/// `fresh_pressure_sea_water_coefficients` gives the size.
+///
+/// Where that falls, found with the crate by bisection on the depth (the
+/// first check is in `tests/depth.rs`,
+/// `the_pressure_caution_turns_into_a_warning_where_documented`): with pH
+/// and alkalinity measured in situ, calcite Ω reaches 2 % first, at 171 m
+/// (168 dbar) in the invented reservoir's bottom water (8.5 °C, pH 7.15,
+/// alkalinity 2.00 meq/L), and between 145 m (1 °C, pH 6.8) and 223 m
+/// (25 °C, pH 8.3) in three other invented waters. With alkalinity and DIC
+/// held instead (a state recomputed at depth, [`State::at`]) Ω moves about
+/// twice as fast, and 2 % comes at about 80 to 135 dbar.
+///
+/// ```
+/// use travertine::{Conditions, Measured, Water, base::warning::Severity};
+/// let solve = |dbar: f64| {
+///     Water::fresh(Conditions::new(8.5, 0.12).unwrap().with_pressure_dbar(dbar).unwrap())
+///         .unwrap()
+///         .solve(Measured::ph(7.15, None).unwrap(), Measured::alkalinity_umol_kg(2000.0).unwrap())
+///         .unwrap()
+/// };
+/// let caution = |dbar| {
+///     let s = solve(dbar);
+///     let w = s.warnings.iter().find(|w| w.code().starts_with("fresh_pressure")).unwrap();
+///     (w.code(), w.severity())
+/// };
+/// assert_eq!(caution(50.0), ("fresh_pressure_effect_small", Severity::Note));
+/// assert_eq!(caution(300.0), ("fresh_pressure_sea_water_coefficients", Severity::Warning));
+/// assert_eq!(travertine::flow::FRESH_PRESSURE_CAUTION, 0.02);
+/// ```
+pub const FRESH_PRESSURE_CAUTION: f64 = 0.02;
+
 /// A borrowed [`Prepared`], so that a one-off solve need not move its
 /// constants (a large value) into one.
 #[derive(Clone, Copy)]
@@ -375,13 +418,22 @@ fn solve_in(
 ) -> Result<State> {
     let (lo, hi) = MEDIA_OVERLAP_SALINITY;
     let in_overlap = (lo..=hi).contains(&water.conditions().salinity());
-    if !(options.compare_media && in_overlap) {
+    let compare_media = options.compare_media && in_overlap;
+    let fresh_under_pressure =
+        water.medium() == Medium::Fresh && water.conditions().pressure_dbar() > 0.0;
+    if !(compare_media || fresh_under_pressure) {
         // Returned as built: a state is a large value to copy.
         return solve_once(water, basis, a, b, options);
     }
     let mut result = solve_once(water, basis, a, b, options);
     if let Ok(state) = &mut result {
-        if let Some(w) = media_caution(water, state, a, b, options) {
+        if compare_media {
+            if let Some(w) = media_caution(water, state, a, b, options) {
+                state.warnings.push(w);
+            }
+        }
+        if fresh_under_pressure {
+            let w = pressure_caution(water, state, a, b, options);
             state.warnings.push(w);
         }
     }
@@ -468,6 +520,101 @@ fn media_caution(
         pco2_uatm: there.pco2_uatm,
         percent: 100.0 * difference,
     })
+}
+
+/// The caution on the pressure correction of a fresh water (the caller
+/// checks the medium and that the pressure is above zero): the same
+/// measurements solved at the surface, and the change the correction makes
+/// in pCO2 and in calcite Ω; a note up to [`FRESH_PRESSURE_CAUTION`], a
+/// warning above it. Without calcium, calcite Ω changes by the ratio of
+/// CO3-- over that of the calcite solubility product (the calcium and the
+/// activity coefficients are the same at both pressures, to within the
+/// ion pairs), which is what Ω would change by once calcium is known.
+fn pressure_caution(
+    water: &Water,
+    state: &State,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+) -> Warning {
+    let c = water.conditions();
+    let dbar = c.pressure_dbar();
+    let quiet = options
+        .with_media_comparison(false)
+        .with_precipitation_potential(false);
+    let surface = c
+        .with_pressure_dbar(0.0)
+        .and_then(|at_surface| water.at(at_surface))
+        .and_then(|w| w.solve_with(a, b, &quiet));
+    // The relative changes of pCO2 and calcite Ω.
+    let change = surface.ok().map(|surface| {
+        let pco2 = state.pco2_uatm / surface.pco2_uatm - 1.0;
+        let omega = match (state.omega_calcite, surface.omega_calcite) {
+            (Some(here), Some(there)) => here / there - 1.0,
+            _ => {
+                let ksp = crate::fits::pressure::pressure_factor(
+                    &crate::fits::pressure::CALCITE,
+                    c.temperature_c(),
+                    c.pressure_bar(),
+                );
+                state.co3_umol_kg / surface.co3_umol_kg / ksp - 1.0
+            }
+        };
+        (pco2, omega)
+    });
+    let size = |(pco2, omega): (f64, f64)| {
+        format!(
+            "at {dbar:.1} dbar it changes pCO2 by {} % and calcite Ω by {} % against the same \
+             measurements at the surface",
+            percent(pco2),
+            percent(omega)
+        )
+    };
+    match change {
+        // A change that is not a number (it cannot be small) is a warning.
+        Some((pco2, omega)) if pco2.abs().max(omega.abs()) <= FRESH_PRESSURE_CAUTION => {
+            Warning::Text {
+                code: "fresh_pressure_effect_small",
+                text: format!(
+                    "pressure correction small in fresh water: {}, less than a pH error of 0.01 \
+                     makes; its coefficients are those of Millero (1995) for sea water",
+                    size((pco2, omega))
+                ),
+            }
+        }
+        _ => {
+            let detail = match change {
+                Some(change) => format!(
+                    "{}, more than a pH error of 0.01 makes, and its coefficients are those of \
+                     Millero (1995) for sea water: results at this depth are uncertain by part \
+                     of that change",
+                    size(change)
+                ),
+                None => format!(
+                    "at {dbar:.1} dbar the coefficients of Millero (1995) for sea water are \
+                     used, and the size of the correction is not known: the pair does not \
+                     solve at the surface"
+                ),
+            };
+            Warning::Text {
+                code: "fresh_pressure_sea_water_coefficients",
+                text: format!(
+                    "pressure correction in fresh water with sea-water coefficients: {detail}"
+                ),
+            }
+        }
+    }
+}
+
+/// A relative change as a percentage to 2 decimals, with its sign (none
+/// when it rounds to zero).
+fn percent(change: f64) -> String {
+    let p = (100.0 * change * 100.0).round() / 100.0;
+    if p == 0.0 {
+        "0.00".to_string()
+    } else {
+        format!("{p:+.2}")
+    }
 }
 
 #[cfg(test)]

@@ -147,6 +147,9 @@ fields! {
     Factor => "factor",
     /// The change in a pK.
     DeltaPk => "delta_pk",
+    // issue 11: depth profiles
+    /// Depth below the water surface, m.
+    Depth => "depth_m",
 }
 
 impl fmt::Display for Field {

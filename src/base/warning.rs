@@ -216,7 +216,8 @@ impl Warning {
 #[non_exhaustive]
 pub enum Severity {
     /// Information about an input that was not given (no calcium, so no
-    /// saturation): the result is what was asked for.
+    /// saturation), or the size of a correction too small to matter: the
+    /// result is what was asked for.
     Note,
     /// The result may be wrong or is extrapolated: a fit out of its range,
     /// another root, an approximation, an input not used.
@@ -247,7 +248,9 @@ impl Severity {
 
 /// The codes of the cautions that are notes: each says what was not
 /// computed, or how a missing input was taken, because an optional input
-/// was not given.
+/// was not given; or the size of a correction too small to change a
+/// conclusion (the pressure correction of a fresh water at lake depths,
+/// see [`crate::flow::FRESH_PRESSURE_CAUTION`]).
 const NOTE_CODES: &[&str] = &[
     "calcium_not_given",
     "ionic_strength_from_carbonate",
@@ -255,6 +258,8 @@ const NOTE_CODES: &[&str] = &[
     "langelier_not_computed",
     "magnesium_from_hardness",
     "calcium_from_hardness",
+    // issue 11: depth profiles
+    "fresh_pressure_effect_small",
 ];
 
 impl Warning {

@@ -86,18 +86,22 @@ fn cell(o: Output, s: &State, precision: Precision) -> String {
 }
 
 /// The header line: the medium and the conditions as given (a salinity
-/// computed from a conductivity to 4 decimals, or every digit).
+/// computed from a conductivity to 4 decimals and a pressure computed from
+/// a depth to 1, or every digit).
 fn header(s: &State, precision: Precision) -> String {
-    let salinity = match precision {
-        Precision::Full => s.salinity,
-        _ => (s.salinity * 1e4).round() / 1e4,
+    let (salinity, pressure) = match precision {
+        Precision::Full => (s.salinity, s.pressure_dbar),
+        _ => (
+            (s.salinity * 1e4).round() / 1e4,
+            (s.pressure_dbar * 10.0).round() / 10.0,
+        ),
     };
     let mut h = format!(
         "{} water at {} °C, salinity {}, {} dbar",
         s.medium.name(),
         s.temperature_c,
         salinity,
-        s.pressure_dbar
+        pressure
     );
     if let Some(r) = s.ionic_strength_from {
         h.push_str(&format!("; ionic strength from {}", r.name()));

@@ -9,6 +9,7 @@ use crate::base::warning::{Warning, Warnings};
 use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit};
 use crate::properties::activity::ActivityModel;
 use crate::properties::conductivity::{salinity_from_conductivity, specific_conductance_us_cm};
+use crate::properties::density::pressure_dbar_at_depth;
 use crate::properties::scales::PhScale;
 use crate::sample::conditions::Conditions;
 use crate::sample::inputs::{Input, Total};
@@ -105,6 +106,10 @@ pub struct Sample {
     pub tds_mg_l: Option<f64>,
     /// Ionic strength given directly, mol/kg.
     pub ionic_strength: Option<f64>,
+    // issue 11: depth profiles
+    /// Depth below the water surface, m: the pressure follows from it
+    /// (not with [`Sample::pressure_dbar`]).
+    pub depth_m: Option<f64>,
 }
 
 /// The amount of a total: by its molar unit, or by one of its mass units.
@@ -231,6 +236,7 @@ impl Sample {
             (Input::CalciumFraction, InputValue::Number(v)) => self.calcium_fraction = Some(v),
             (Input::Tds, InputValue::Number(v)) => self.tds_mg_l = Some(v),
             (Input::IonicStrength, InputValue::Number(v)) => self.ionic_strength = Some(v),
+            (Input::Depth, InputValue::Number(v)) => self.depth_m = Some(v),
             (_, InputValue::Choice(c)) => match c {
                 Choice::Medium(m) => self.medium = m,
                 Choice::Scale(s) => self.ph_scale = Some(s),
@@ -281,6 +287,7 @@ impl Sample {
             Input::FluorideFit => choice(self.fluoride_fit.map(Choice::Fluoride)),
             Input::BisulfateFit => choice(self.bisulfate.map(Choice::Bisulfate)),
             Input::Activity => choice(self.activity.map(Choice::Activity)),
+            Input::Depth => number(self.depth_m),
         }
     }
 
@@ -446,11 +453,14 @@ impl Sample {
     /// both, a hardness more than 5 % from their sum is warned about; alone
     /// it is never taken as calcium and counts only in the ionic strength.
     /// A salinity given with a conductivity is used, and a warning raised
-    /// where the two disagree by more than 2 %.
+    /// where the two disagree by more than 2 %. A depth becomes the
+    /// pressure through the density of the water
+    /// ([`pressure_dbar_at_depth`]: P = ρ g z).
     ///
     /// # Errors
     /// Any validation error of the parts, naming the field; a saline-only
-    /// fit chosen for fresh water, or an activity model for saline water.
+    /// fit chosen for fresh water, or an activity model for saline water;
+    /// [`Error::IncompatiblePair`] for a depth given with a pressure.
     ///
     /// ```
     /// # use travertine::{sample::{MediumChoice, Sample}, fits::CarbonicFit};
@@ -458,6 +468,14 @@ impl Sample {
     /// s.medium = MediumChoice::Fresh;
     /// s.carbonic = Some(CarbonicFit::Lueker2000);
     /// assert!(s.water().is_err());
+    ///
+    /// // 50 m of fresh water at 8 °C: ρ g z = 999.85 × 9.80665 × 50 / 10⁴ dbar.
+    /// let mut deep = Sample::new(8.0);
+    /// deep.depth_m = Some(50.0);
+    /// let p = deep.water().unwrap().conditions().pressure_dbar();
+    /// assert!((p - 49.03).abs() < 0.005);
+    /// deep.pressure_dbar = Some(49.0);
+    /// assert!(deep.water().is_err()); // a depth and a pressure: give one
     /// ```
     pub fn water(&self) -> Result<Water> {
         let t = self.temperature_c.ok_or(Error::Missing {
@@ -531,8 +549,22 @@ impl Sample {
                 }
             }
         }
-        let mut conditions = Conditions::new(t, salinity.unwrap_or(0.0))?
-            .with_pressure_dbar(self.pressure_dbar.unwrap_or(0.0))?;
+        let salinity = salinity.unwrap_or(0.0);
+        // Temperature and salinity validated before the depth uses them.
+        let conditions = Conditions::new(t, salinity)?;
+        let pressure_dbar = match (self.depth_m, self.pressure_dbar) {
+            (Some(_), Some(_)) => {
+                return Err(Error::IncompatiblePair {
+                    first: Field::Depth,
+                    second: Field::Pressure,
+                    reason: "the pressure follows from the depth, so the two could disagree; give \
+                             one of them (depth in m, or pressure in dbar)",
+                })
+            }
+            (Some(z), None) => pressure_dbar_at_depth(z, salinity, t)?,
+            (None, p) => p.unwrap_or(0.0),
+        };
+        let mut conditions = conditions.with_pressure_dbar(pressure_dbar)?;
         if let Some(p) = self.air_pressure_atm {
             conditions = conditions.with_air_pressure_atm(p)?;
         }

@@ -4,7 +4,6 @@
 use super::ionic::{fixed_ionic_strength, ion_sum, route};
 use super::FreshBasis;
 use crate::base::error::Result;
-use crate::base::warning::Warning;
 use crate::fits::thermodynamic as pb;
 use crate::fits::{nutrients, sulfate, sulfide, FitName, FitsUsed};
 use crate::medium::constants::{scale_factors, ScaleLink};
@@ -116,11 +115,10 @@ impl FreshBasis {
             b.kh2s *= f(&KH2S);
             b.ksp_calcite *= f(&CALCITE);
             b.ksp_aragonite *= f(&ARAGONITE);
-            b.warnings.push(Warning::Note {
-                code: "fresh_pressure_sea_water_coefficients",
-                text: "fresh water under pressure: the Millero (1995) corrections use sea-water \
-                 coefficients",
-            });
+            // The caution on these sea-water coefficients, a note or a
+            // warning by the size of the correction, is given by the flow
+            // (`pressure_caution` in src/flow.rs), which compares the
+            // solve with one at the surface.
         }
         // Where the ions give the ionic strength, start from the ions given
         // (with all calcium free) and no carbon.

@@ -362,4 +362,18 @@ pub const INPUTS: &[InputSpec] = &[
         "Measured total boron, with a unit (umol/kg, ...)",
         [("boron total", Plain), ("total boron", Plain)]
     ),
+    // issue 11: depth profiles
+    spec!(
+        Input::Depth,
+        "depth",
+        "depth_m",
+        "Depth of the sample below the water surface, m: the pressure is taken as rho g z \
+         (the water's density, standard gravity); give it or --pressure, not both",
+        [
+            ("depth", Plain),
+            ("sample depth", Plain),
+            ("sampling depth", Plain),
+            ("depth below surface", Plain)
+        ]
+    ),
 ];

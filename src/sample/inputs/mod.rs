@@ -231,6 +231,10 @@ pub enum Input {
     BisulfateFit,
     /// Activity model.
     Activity,
+    // issue 11: depth profiles
+    /// Depth below the water surface, m: becomes the pressure (see
+    /// [`crate::properties::density::pressure_dbar_at_depth`]).
+    Depth,
 }
 
 /// A pH, with the scale it names after the number, if any: `7.92`,
@@ -341,6 +345,7 @@ impl Input {
             Input::FluorideFit => Field::FluorideFit,
             Input::BisulfateFit => Field::BisulfateFit,
             Input::Activity => Field::Activity,
+            Input::Depth => Field::Depth,
         }
     }
 
@@ -374,6 +379,7 @@ impl Input {
             Input::FluorideFit => "fluoride fit",
             Input::BisulfateFit => "bisulfate fit",
             Input::Activity => "activity model",
+            Input::Depth => "depth",
             other => other.field().name(),
         }
     }
@@ -425,6 +431,7 @@ impl Input {
             Input::CalciumFraction => "none (0 to 1), %".into(),
             Input::Tds => "mg/L, g/L, ppm (as mg/L)".into(),
             Input::IonicStrength => "none (mol/kg), mol/kg, mmol/kg".into(),
+            Input::Depth => "m; in a sheet header also ft (0.3048 m)".into(),
             _ => "none (a name in each cell)".into(),
         }
     }
@@ -447,8 +454,8 @@ impl Input {
 
     /// Reads the text of a command-line value or a `--set` value: a plain
     /// number in the input's base unit (°C, practical salinity, dbar, atm,
-    /// fraction, mol/kg), a number with a unit, or a name. A pH may name
-    /// its scale after the number (`7.92 nbs`, `8.05 (total)`).
+    /// fraction, mol/kg, m), a number with a unit, or a name. A pH may
+    /// name its scale after the number (`7.92 nbs`, `8.05 (total)`).
     ///
     /// # Errors
     /// The input's own parse error, naming its field.
@@ -485,7 +492,8 @@ impl Input {
             | Input::Pressure
             | Input::AirPressure
             | Input::CalciumFraction
-            | Input::IonicStrength => InputValue::Number(number()?),
+            | Input::IonicStrength
+            | Input::Depth => InputValue::Number(number()?),
         })
     }
 }

@@ -377,13 +377,38 @@ mod tests {
             "date",
             "Sample ID",
             "notes",
-            "Depth (m)",
+            "Station depth (m)",
             "TA",
             "Ca",
             "temperature_notes",
             "",
         ] {
             assert_eq!(recognise(h), Recognition::PassThrough, "{h}");
+        }
+    }
+
+    /// A depth column in metres or feet, under the spellings of the list
+    /// of inputs; a depth without its unit is not guessed.
+    #[test]
+    fn depth_columns() {
+        for (h, scale) in [
+            ("depth_m", 1.0),
+            ("Depth (m)", 1.0),
+            ("Depth, m", 1.0),
+            ("DEPTH [metres]", 1.0),
+            ("Sample depth (m)", 1.0),
+            ("depth_ft", 0.3048),
+            ("Depth (feet)", 0.3048),
+        ] {
+            let c = column(h);
+            assert_eq!(c.field, Input::Depth, "{h}");
+            match c.reading {
+                Reading::Number { scale: s, .. } => assert_eq!(s, scale, "{h}"),
+                other => panic!("{h}: {other:?}"),
+            }
+        }
+        for h in ["Depth", "Depth (fathoms)"] {
+            assert!(matches!(recognise(h), Recognition::Issue(_)), "{h}");
         }
     }
 

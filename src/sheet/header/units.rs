@@ -250,6 +250,22 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
             }),
             _ => Err(unknown()),
         },
+        // issue 11: depth profiles
+        Input::Depth => match unit {
+            "" => Err(missing()),
+            "m" | "metre" | "metres" | "meter" | "meters" => Ok(Reading::Number {
+                scale: 1.0,
+                offset: 0.0,
+                label: "m",
+            }),
+            // The international foot, 0.3048 m exactly (1959 agreement).
+            "ft" | "feet" | "foot" => Ok(Reading::Number {
+                scale: 0.3048,
+                offset: 0.0,
+                label: "ft",
+            }),
+            _ => Err(unknown()),
+        },
         // A name in each cell, no unit.
         choice if choice.is_choice() => {
             if unit.is_empty() {
