@@ -135,6 +135,8 @@ fields! {
     Area => "area",
     /// The mean depth of a pond.
     MeanDepth => "mean_depth",
+    /// The share of the first water in a blend.
+    Fraction => "fraction",
     /// The density of the solution (computed).
     Density => "density",
     /// A unit named on its own.

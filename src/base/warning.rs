@@ -258,6 +258,8 @@ const NOTE_CODES: &[&str] = &[
     "langelier_not_computed",
     "magnesium_from_hardness",
     "calcium_from_hardness",
+    "blend_medium",
+    "blend_calcium_unknown",
     // issue 11: depth profiles
     "fresh_pressure_effect_small",
 ];

@@ -3,5 +3,6 @@
 //! each lands here in its own module, reading [`crate::state::State`] and
 //! calling the flow ([`crate::flow`]) for any new solve.
 
+pub mod blend;
 pub mod dose;
 pub mod volume;
