@@ -96,7 +96,7 @@ fn out_of_reach_exits_2_with_the_reason() {
         "alkalinity=40 mg/L CaCO3",
     ]);
     assert_eq!(o.status.code(), Some(2));
-    assert!(String::from_utf8_lossy(&o.stderr).contains("lowers alkalinity"));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("only lowers it"));
     let o = pond(&["--chemical", "bleach", "--target", "ph=7"]);
     assert_eq!(o.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&o.stderr).contains("sodium-bicarbonate"));

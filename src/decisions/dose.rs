@@ -582,12 +582,13 @@ pub fn dose(water: &Water, before: &State, request: DoseRequest) -> Result<Dose>
         return Err(Error::Unreachable {
             field: Field::Target,
             reason: format!(
-                "{} {} {}; it cannot take it from {} to {}",
-                chemical.what(),
-                if up { "raises" } else { "lowers" },
+                "{} is already {}, {} the target {}: {} only {} it",
                 target.name(),
                 target.shown(start, rho),
-                target.shown(goal, rho)
+                if up { "above" } else { "below" },
+                target.shown(goal, rho),
+                chemical.what(),
+                if up { "raises" } else { "lowers" },
             ),
         });
     }
@@ -797,11 +798,14 @@ mod tests {
         let why = refused(Chemical::SodiumBicarbonate, "ph=9");
         assert!(why.contains("the farthest it goes is 8."), "{why}");
         let why = refused(Chemical::HydrochloricAcid, "alkalinity=50 mg/L CaCO3");
-        assert!(why.contains("lowers alkalinity"), "{why}");
+        assert!(
+            why.contains("below the target") && why.contains("only lowers"),
+            "{why}"
+        );
         let why = refused(Chemical::Aeration, "free_co2=0.1");
         assert!(why.contains("equilibrium with the air"), "{why}");
         let why = refused(Chemical::CarbonDioxide, "ph=8");
-        assert!(why.contains("lowers pH"), "{why}");
+        assert!(why.contains("only lowers it"), "{why}");
     }
 
     /// Every chemical carries the general cautions; the caustic ones say so.
