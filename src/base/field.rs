@@ -133,6 +133,9 @@ fields! {
     Factor => "factor",
     /// The change in a pK.
     DeltaPk => "delta_pk",
+    // issue 11: toxic fractions and flags
+    /// A profile of quality-flag limits (`--profile`).
+    Profile => "profile",
 }
 
 impl fmt::Display for Field {

@@ -10,5 +10,5 @@ mod table;
 
 pub use digits::{Digits, Precision};
 pub use fields::{Output, Place, Section, Value};
-pub use json::json;
-pub use table::{key_figures, table, table_on_scale};
+pub use json::{json, json_with_profile, Judged};
+pub use table::{key_figures, table, table_on_scale, table_with_profile};
