@@ -25,7 +25,6 @@ fn sample(inputs: &[(Input, &str)]) -> State {
 
 const PH: Input = Input::Carbon(Parameter::Ph);
 const ALK: Input = Input::Carbon(Parameter::Alkalinity);
-const DIC: Input = Input::Carbon(Parameter::Dic);
 
 /// An invented pond at dawn: 27 °C, pH 6.9, 110 mg/L alkalinity,
 /// 320 µS/cm, 2.5 mg/L TAN: about 25 mg/L free CO2.

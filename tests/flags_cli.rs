@@ -231,6 +231,25 @@ fn the_sheet_writes_a_flags_column_by_default() {
 }
 
 #[test]
+fn the_summary_counts_the_rows_of_each_flag() {
+    let o = run(&["sheet", "-"], Some(SHEET));
+    let e = stderr(&o);
+    assert!(
+        e.contains("flags (profile general): free_co2_high 1 row, nh3_high 1 row\n"),
+        "{e}"
+    );
+    let o = run(&["sheet", "-", "--columns", "ph_nbs"], Some(SHEET));
+    assert!(!stderr(&o).contains("flags ("), "{}", stderr(&o));
+    let o = run(&["sheet", "-", "--profile", "cold-water-fish"], Some(SHEET));
+    assert!(
+        stderr(&o)
+            .contains("flags (profile cold-water-fish): free_co2_high 1 row, nh3_high 2 rows"),
+        "{}",
+        stderr(&o)
+    );
+}
+
+#[test]
 fn the_sheet_flags_column_follows_the_columns_asked_for() {
     let out = sheet(&["--columns", "ph_nbs,nh3_mg_l_n"], SHEET);
     assert!(

@@ -1,4 +1,4 @@
-//! Profiles: the limits the quality flags ([`crate::decisions::flags`])
+//! Profiles: the limits the quality flags ([`crate::decisions::flags()`])
 //! are judged against, read from small TOML files.
 //!
 //! A profile is a TOML file with a description, an optional profile it is

@@ -286,7 +286,7 @@ pub fn table_with_profile(
     let raised = flags(state, profile);
     let _ = writeln!(
         out,
-        "\nFlags, profile {} (common practice; limits depend on species and life stage)",
+        "\nFlags, profile {} (limits depend on species and life stage)",
         profile.name()
     );
     if raised.is_empty() {

@@ -57,7 +57,9 @@
 //! The input's fields unchanged (invalid UTF-8 included), then the computed
 //! columns ([`SheetOptions::with_columns`]; defaults for field work in
 //! [`UnitSystem::Trade`] or [`UnitSystem::Ocean`] units), the residuals,
-//! `status` and `message`. A computed column whose name an input header
+//! `flags` (the codes of the quality flags raised, separated by `;`, judged
+//! against a profile: [`SheetOptions::with_profile`]), `status` and
+//! `message`. A computed column whose name an input header
 //! already has is written as `NAME_calculated`. In CSV output each
 //! computed number has the digits its measurement supports, in the unit of
 //! its column (pH 3 decimals, µmol/kg and µatm 4 significant figures, mg/L
@@ -79,7 +81,7 @@
 //! assert_eq!((summary.rows, summary.ok, summary.error), (2, 1, 1));
 //! let text = String::from_utf8(out).unwrap();
 //! let lines: Vec<&str> = text.lines().collect();
-//! assert!(lines[0].ends_with("langelier_index,status,message"));
+//! assert!(lines[0].ends_with("langelier_index,flags,status,message"));
 //! // The inputs as typed, then the computed pH to three decimals.
 //! assert!(lines[1].starts_with("north,24.5,410,7.9,118,80,fresh,7.900,"));
 //! assert!(lines[2].ends_with(",error,column `pH (NBS)`: `7..9` is not a number"));

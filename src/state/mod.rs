@@ -167,7 +167,7 @@ pub struct State {
     water_sample: Water,
     h: f64,
     // issue 11: toxic fractions
-    /// Un-ionised fraction of the total ammonia, [NH3]/([NH3] + [NH4+])
+    /// Un-ionised fraction of the total ammonia, \[NH3\]/(\[NH3\] + [NH4+])
     /// (`None` where no ammonia was given, or zero).
     ///
     /// ```text
@@ -197,7 +197,7 @@ pub struct State {
     pub nh3_mg_l_n: Option<f64>,
     /// Un-ionised ammonia NH3, mg/L as NH3.
     pub nh3_mg_l: Option<f64>,
-    /// Fraction of the total sulfide that is H2S, [H2S]/([H2S] + [HS-])
+    /// Fraction of the total sulfide that is H2S, \[H2S\]/(\[H2S\] + [HS-])
     /// (`None` where no sulfide was given, or zero); S-- is negligible
     /// below pH 12.
     ///
