@@ -222,3 +222,36 @@ fn the_fraction_follows_the_state_to_other_conditions() {
     assert!(lab.computed_from.contains(&Parameter::Ph));
     assert!(lab.computed_from.contains(&Parameter::Alkalinity));
 }
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig::with_cases(300))]
+
+    /// Over the fresh and saline domains, with ammonia and sulfide, the
+    /// fractions are finite and between 0 and 1, and the concentrations
+    /// are the totals times the fractions.
+    #[test]
+    fn fractions_are_fractions_everywhere(
+        t in 0.0f64..40.0, ph in 4.0f64..12.0, alk in 10.0f64..5000.0,
+        nh4 in 1e-7f64..1e-3, hs in 1e-7f64..1e-3, saline in proptest::bool::ANY,
+        i in 0.0f64..0.1,
+    ) {
+        let comp = Composition::default()
+            .with_ammonia(Amount::PerKg(nh4)).unwrap()
+            .with_sulfide(Amount::PerKg(hs)).unwrap();
+        let water = if saline {
+            Water::saline(Conditions::new(t, 35.0).unwrap()).unwrap()
+        } else {
+            Water::fresh(Conditions::new(t, 0.0).unwrap()).unwrap().with_ionic_strength(i).unwrap()
+        }.with_composition(comp);
+        let scale = if saline { Some(travertine::PhScale::Total) } else { None };
+        if let Ok(s) = water.solve(Measured::ph(ph, scale).unwrap(), Measured::alkalinity_umol_kg(alk).unwrap()) {
+            for f in [s.nh3_fraction.unwrap(), s.h2s_fraction.unwrap()] {
+                proptest::prop_assert!(f.is_finite() && (0.0..=1.0).contains(&f), "{f}");
+            }
+            let n = s.nh3_mg_l_n.unwrap();
+            let expected = nh4 * s.nh3_fraction.unwrap() * s.density_kg_m3 * 14.0067;
+            proptest::prop_assert!((n - expected).abs() <= 1e-9 * expected.max(1e-12), "{n} {expected}");
+            proptest::prop_assert!(s.h2s_mg_l.unwrap().is_finite());
+        }
+    }
+}
