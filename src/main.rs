@@ -56,7 +56,8 @@ struct SheetArgs {
     #[arg(long, value_name = "A,B")]
     pair: Option<String>,
     /// Computed columns, comma-separated: names such as ph_total, pco2_uatm; `default`
-    /// for the default set, `all` for every one.
+    /// for the default set, `all` for every one; `flags` for the column of quality
+    /// flags, which `default` and `all` include.
     #[arg(long, value_name = "LIST")]
     columns: Option<String>,
     /// Output format: csv or jsonl.

@@ -486,3 +486,25 @@ fn sea_water_with_ammonia_is_judged_too() {
     assert!(sea.nh3_mg_l_n.unwrap() > 0.05);
     assert_eq!(codes(&flags(&sea, &Profile::default())), vec!["nh3_high"]);
 }
+
+#[test]
+fn the_codes_alone_are_the_codes_of_the_flags() {
+    let states = [
+        dawn_pond(),
+        afternoon_pond(),
+        sample(&brown_lake()),
+        sample(&[
+            (Input::Temperature, "20"),
+            (PH, "5.0"),
+            (ALK, "500 umol/kg"),
+        ]),
+    ];
+    for name in Profile::BUILT_IN_NAMES {
+        let p = Profile::built_in(name).unwrap();
+        for s in &states {
+            let mut c = Vec::new();
+            travertine::decisions::codes_into(s, &p, &mut c);
+            assert_eq!(c, codes(&flags(s, &p)), "{name}");
+        }
+    }
+}

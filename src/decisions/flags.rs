@@ -136,26 +136,55 @@ fn below(value: f64, limit: Option<f64>) -> Option<f64> {
 /// ```
 pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
     let mut out = Vec::new();
-    let name = profile.name();
-    let l = &profile.limits;
-    let mut push = |code: &'static str, message: String, value: f64, threshold: f64| {
+    judge(state, profile, &mut |code, message, value, threshold| {
         out.push(Flag {
             code,
-            message,
+            message: message(),
             value,
             threshold,
         })
-    };
+    });
+    out
+}
+
+/// The codes of the flags `profile` raises on `state`, appended to `out`
+/// in the order of [`flags`], without making their messages: cheap enough
+/// for every row of a sheet.
+///
+/// ```
+/// use travertine::decisions::{codes_into, Profile};
+/// use travertine::{Conditions, Measured, Water};
+/// let s = Water::fresh(Conditions::new(20.0, 0.1)?)?
+///     .solve(Measured::ph(9.4, None)?, Measured::alkalinity_umol_kg(2000.0)?)?;
+/// let mut codes = Vec::new();
+/// codes_into(&s, &Profile::default(), &mut codes);
+/// assert_eq!(codes, ["ph_high"]);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn codes_into(state: &State, profile: &Profile, out: &mut Vec<&'static str>) {
+    judge(state, profile, &mut |code, _, _, _| out.push(code));
+}
+
+/// A flag found: its code, its message (made only when wanted), its value
+/// and its threshold.
+type Found<'a> = dyn FnMut(&'static str, &dyn Fn() -> String, f64, f64) + 'a;
+
+/// Judges `state` against `profile`, calling `push` for every flag raised.
+fn judge(state: &State, profile: &Profile, push: &mut Found) {
+    let name = profile.name();
+    let l = &profile.limits;
 
     let co2 = state.free_co2_mg_l;
     if let Some(t) = above(co2, l.free_co2_high_mg_l) {
         push(
             "free_co2_high",
-            format!(
+            &|| {
+                format!(
                 "free CO2 is {} mg/L, above {t} mg/L (profile {name}): fish shed their own CO2 \
                  less easily",
                 sig3(co2)
-            ),
+            )
+            },
             co2,
             t,
         );
@@ -164,12 +193,14 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
         if let Some(t) = above(nh3, l.nh3_high_mg_l_n) {
             push(
                 "nh3_high",
-                format!(
+                &|| {
+                    format!(
                     "un-ionised ammonia is {} mg/L as N, above {t} mg/L as N (profile {name}); \
                      its share of the total ammonia rises about tenfold per pH unit, so it \
                      peaks with the afternoon pH",
                     sig3(nh3)
-                ),
+                )
+                },
                 nh3,
                 t,
             );
@@ -179,11 +210,13 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
     if let Some(t) = below(alk, l.alkalinity_low_mg_l_caco3) {
         push(
             "alkalinity_low",
-            format!(
-                "alkalinity is {} mg/L as CaCO3, below {t} mg/L as CaCO3 (profile {name}): \
+            &|| {
+                format!(
+                    "alkalinity is {} mg/L as CaCO3, below {t} mg/L as CaCO3 (profile {name}): \
                  poorly buffered, so the pH swings widely between dawn and afternoon",
-                sig3(alk)
-            ),
+                    sig3(alk)
+                )
+            },
             alk,
             t,
         );
@@ -192,7 +225,7 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
     if let Some(t) = below(ph, l.ph_low_nbs) {
         push(
             "ph_low",
-            format!("pH (NBS) is {ph:.2}, below {t} (profile {name})"),
+            &|| format!("pH (NBS) is {ph:.2}, below {t} (profile {name})"),
             ph,
             t,
         );
@@ -200,7 +233,7 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
     if let Some(t) = above(ph, l.ph_high_nbs) {
         push(
             "ph_high",
-            format!("pH (NBS) is {ph:.2}, above {t} (profile {name})"),
+            &|| format!("pH (NBS) is {ph:.2}, above {t} (profile {name})"),
             ph,
             t,
         );
@@ -209,11 +242,13 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
         if let Some(t) = below(omega, l.omega_aragonite_low) {
             push(
                 "omega_aragonite_low",
-                format!(
+                &|| {
+                    format!(
                     "aragonite Ω is {}, below {t} (profile {name}): bivalve larvae build their \
                      first shell from aragonite (Waldbusser et al. 2015)",
                     sig3(omega)
-                ),
+                )
+                },
                 omega,
                 t,
             );
@@ -232,12 +267,14 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
     ) {
         push(
             "organic_acid_bias",
-            format!(
+            &|| {
+                format!(
                 "pCO2 from pH {ph:.2} (below {ph_t}) and alkalinity {} µmol/kg (below {alk_t}) \
                  may be far too high where organic acids carry part of the alkalinity (Abril et \
                  al. 2015); measure pCO2 or DIC directly in acidic, poorly buffered water",
                 sig3(alk_umol)
-            ),
+            )
+            },
             alk_umol,
             alk_t,
         );
@@ -252,14 +289,16 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
             if alk > most {
                 push(
                     "implausible_sample",
-                    format!(
+                    &|| {
+                        format!(
                         "alkalinity {} mg/L as CaCO3 is more than a specific conductance of {} \
                          µS/cm can carry (at most about {} mg/L as CaCO3, {per_meq} µS/cm for \
                          each meq/L): check the units of both readings",
                         sig3(alk),
                         sig3(spc),
                         sig3(most)
-                    ),
+                    )
+                    },
                     alk,
                     most,
                 );
@@ -270,17 +309,18 @@ pub fn flags(state: &State, profile: &Profile) -> Vec<Flag> {
     if let Some(t) = above(pco2, p.pco2_high_uatm) {
         push(
             "implausible_sample",
-            format!(
-                "pCO2 is {} µatm, above {t} µatm: more than nearly any surface water holds; \
+            &|| {
+                format!(
+                    "pCO2 is {} µatm, above {t} µatm: more than nearly any surface water holds; \
                  check the pH and alkalinity and their units (or it is a CO2-charged spring \
                  or groundwater)",
-                sig3(pco2)
-            ),
+                    sig3(pco2)
+                )
+            },
             pco2,
             t,
         );
     }
-    out
 }
 
 /// The flags of `profile` that cannot be judged on `state` for want of an

@@ -12,5 +12,5 @@
 pub mod flags;
 pub mod profile;
 
-pub use flags::{flags, not_judged, Flag};
+pub use flags::{codes_into, flags, not_judged, Flag};
 pub use profile::{Limits, Plausibility, Profile, DEFAULT_PROFILE};

@@ -501,11 +501,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
         s.values.push(c.value(&state));
     }
     if let Some(profile) = &plan.flags {
-        s.flags.extend(
-            crate::decisions::flags(&state, profile)
-                .iter()
-                .map(|f| f.code),
-        );
+        crate::decisions::codes_into(&state, profile, &mut s.flags);
     }
     let default_scale = scale.unwrap_or(medium_scale(water.medium()));
     for (i, rc) in plan.residuals.iter().enumerate() {
