@@ -447,12 +447,11 @@ fn the_json_flags_array_has_code_message_value_and_threshold() {
     let s = afternoon_pond();
     let v = serde_json::to_value(&s).unwrap();
     let keys: Vec<&String> = v.as_object().unwrap().keys().collect();
-    // `flags` follows `warnings`, the last key before it.
+    // `flags` follows `warnings`, and the profile's name closes the object.
     let n = keys.len();
-    assert_eq!(
-        (keys[n - 2].as_str(), keys[n - 1].as_str()),
-        ("warnings", "flags")
-    );
+    let last: Vec<&str> = keys[n - 3..].iter().map(|k| k.as_str()).collect();
+    assert_eq!(last, ["warnings", "flags", "flags_profile"]);
+    assert_eq!(v["flags_profile"], "general");
     let array = v["flags"].as_array().unwrap();
     assert_eq!(array.len(), 1);
     let f = array[0].as_object().unwrap();
@@ -466,6 +465,7 @@ fn the_json_flags_array_has_code_message_value_and_threshold() {
     let trout = Profile::built_in("cold-water-fish").unwrap();
     let v = serde_json::to_value(travertine::output::Judged::new(&dawn_pond(), &trout)).unwrap();
     assert_eq!(v["flags"][0]["threshold"], 10.0);
+    assert_eq!(v["flags_profile"], "cold-water-fish");
 }
 
 #[test]

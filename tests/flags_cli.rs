@@ -107,6 +107,7 @@ fn a_profile_file_changes_the_limits_of_solve() {
     args.extend(["--profile", file.arg()]);
     let v = json(&args);
     assert_eq!(v["flags"], serde_json::json!([]));
+    assert_eq!(v["flags_profile"], file.arg());
     // A built-in name.
     let mut args = DAWN.to_vec();
     args.extend(["--profile", "cold-water-fish"]);

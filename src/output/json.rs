@@ -8,9 +8,9 @@ use serde::ser::{Serialize, SerializeStruct, Serializer};
 /// One flat object: every key of [`Output::ALL`] in its order, always
 /// present (`null` where the state has no value, for example the
 /// fresh-water figures of a saline water, and for a number that is not
-/// finite), then `constants` (the fit used for each constant), `warnings`
-/// and `flags`, the quality flags of the default profile (see [`Judged`]
-/// for another).
+/// finite), then `constants` (the fit used for each constant), `warnings`,
+/// `flags`, the quality flags of the default profile (see [`Judged`] for
+/// another), and `flags_profile`, its name (`general`).
 ///
 /// ```
 /// use travertine::{Conditions, Measured, Water};
@@ -32,7 +32,8 @@ impl Serialize for State {
 /// A state with the quality flags of a profile: serialises as the state
 /// does (`impl Serialize for State`), with `flags` judged against
 /// `profile`, an array of `{code, message, value, threshold}` objects
-/// ([`crate::decisions::Flag`]), empty when none is raised.
+/// ([`crate::decisions::Flag`]), empty when none is raised, and then
+/// `flags_profile`, the name of the profile.
 ///
 /// ```
 /// use travertine::decisions::Profile;
@@ -73,14 +74,16 @@ impl<'a> Judged<'a> {
 impl Serialize for Judged<'_> {
     fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
         let s = self.state;
-        let mut object = serializer.serialize_struct("State", Output::ALL.len() + 3)?;
+        let mut object = serializer.serialize_struct("State", Output::ALL.len() + 4)?;
         for o in Output::ALL {
             object.serialize_field(o.key(), &o.value(s))?;
         }
         object.serialize_field("constants", &s.fits_used)?;
         object.serialize_field("warnings", &s.warnings)?;
-        // issue 11: quality flags
+        // issue 11: quality flags, and the profile that judged them (the
+        // default `general` where none was chosen).
         object.serialize_field("flags", &flags(s, self.profile))?;
+        object.serialize_field("flags_profile", self.profile.name())?;
         object.end()
     }
 }
@@ -163,6 +166,7 @@ mod tests {
             "constants".to_string(),
             "warnings".to_string(),
             "flags".to_string(),
+            "flags_profile".to_string(),
         ]);
         assert_eq!(keys(&vs), expected);
         assert_eq!(keys(&vf), expected);
@@ -172,6 +176,7 @@ mod tests {
         assert_eq!(vf["ionic_strength_from"], "alkalinity only");
         // Flags are an array, empty where nothing passes a limit.
         assert_eq!(vs["flags"], serde_json::json!([]));
+        assert_eq!(vs["flags_profile"], "general");
         assert!(vf["flags"].is_array());
     }
 }
