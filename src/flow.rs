@@ -385,11 +385,14 @@ impl State {
                 water = water.with_fits(fits);
             }
         }
-        water.solve_with(
+        let mut moved = water.solve_with(
             Measured::alkalinity_umol_kg(self.alkalinity_umol_kg)?,
             Measured::dic_umol_kg(self.dic_umol_kg)?,
             options,
-        )
+        )?;
+        // issue 11: the parameters of the measurement, not of this re-solve.
+        moved.computed_from = self.computed_from;
+        Ok(moved)
     }
 }
 

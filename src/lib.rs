@@ -41,7 +41,7 @@
 //! solve        the pair algebra, the root policy and the fresh fixed point: one solver
 //! state        the complete result and the figures derived from it
 //! flow         the pipeline on one page: water -> constants -> solve -> state
-//! decisions    exchange, toxic fractions, doses, blends, flags (to come)
+//! decisions    quality flags and their profiles; exchange, doses, blends (to come)
 //! output       the table and the JSON of a state
 //! sheet        the CSV batch (feature `sheet`)
 //! ```

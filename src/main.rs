@@ -3,6 +3,7 @@
 use clap::{Arg, ArgMatches, Args, FromArgMatches, Parser, Subcommand};
 use std::process::ExitCode;
 use std::sync::atomic::{AtomicBool, Ordering};
+use travertine::decisions::Profile;
 use travertine::output::Precision;
 use travertine::sample::inputs::{Input, InputSpec, INPUTS};
 use travertine::sample::Sample;
@@ -107,7 +108,8 @@ struct SheetArgs {
     #[arg(long, value_name = "A,B")]
     pair: Option<String>,
     /// Computed columns, comma-separated: names such as ph_total, pco2_uatm; `default`
-    /// for the default set, `all` for every one.
+    /// for the default set, `all` for every one; `flags` for the column of quality
+    /// flags, which `default` and `all` include.
     #[arg(long, value_name = "LIST")]
     columns: Option<String>,
     /// Output format: csv or jsonl.
@@ -136,6 +138,10 @@ struct SheetArgs {
     /// columns are written as typed; JSON lines always have every digit.
     #[arg(long, default_value = "sensible", value_name = "sensible|full")]
     digits: String,
+    /// The limits of the `flags` column: a built-in profile (general, the
+    /// default; cold-water-fish; shellfish-hatchery) or a TOML file.
+    #[arg(long, value_name = "NAME|FILE")]
+    profile: Option<String>,
 }
 
 #[derive(Args)]
@@ -164,6 +170,10 @@ struct SolveArgs {
     /// JSON always has every digit.
     #[arg(long, default_value = "sensible", value_name = "sensible|full")]
     digits: String,
+    /// The limits of the quality flags: a built-in profile (general, the
+    /// default; cold-water-fish; shellfish-hatchery) or a TOML file.
+    #[arg(long, value_name = "NAME|FILE")]
+    profile: Option<String>,
 }
 
 /// An error tied to the flag that caused it.
@@ -361,6 +371,7 @@ fn solve_sample(
 
 fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
+    let profile = chosen_profile(a.profile.as_deref()).map_err(at_flag("--profile"))?;
     // One sample: the precipitation potential's cost does not matter.
     let options = SolveOptions::default().with_precipitation_potential(true);
     let Solved {
@@ -395,6 +406,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         a.json,
         Some(sample.input_ph_scale(water.medium())),
         precision,
+        &profile,
     ))
 }
 
@@ -443,19 +455,25 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
     })
 }
 
+/// The profile of `--profile`, or the default.
+fn chosen_profile(arg: Option<&str>) -> Result<Profile, Error> {
+    arg.map_or_else(|| Ok(Profile::default()), Profile::from_arg)
+}
+
 fn render(
     measured: &State,
     reported: Option<&State>,
     json: bool,
     ph_scale: Option<travertine::PhScale>,
     precision: Precision,
+    profile: &Profile,
 ) -> String {
-    use travertine::output::{json as to_json, table_on_scale};
+    use travertine::output::{json_with_profile, table_with_profile};
     match (json, reported) {
-        (true, None) => to_json(measured, None),
-        (true, Some(r)) => to_json(r, Some(measured)),
-        (false, None) => table_on_scale(measured, None, ph_scale, precision),
-        (false, Some(r)) => table_on_scale(r, Some(measured), ph_scale, precision),
+        (true, None) => json_with_profile(measured, None, profile),
+        (true, Some(r)) => json_with_profile(r, Some(measured), profile),
+        (false, None) => table_with_profile(measured, None, ph_scale, precision, profile),
+        (false, Some(r)) => table_with_profile(r, Some(measured), ph_scale, precision, profile),
     }
 }
 
@@ -471,6 +489,12 @@ fn sheet_options(a: &SheetArgs) -> Result<SheetOptions, SheetError> {
             message: e.to_string(),
         })?)
         .with_progress(Progress::Auto)
+        .with_profile(
+            chosen_profile(a.profile.as_deref()).map_err(|e| SheetError::BadOption {
+                option: "--profile",
+                message: e.to_string(),
+            })?,
+        )
         .with_root(a.root.parse().map_err(|e: Error| SheetError::BadOption {
             option: "--root",
             message: e.to_string(),

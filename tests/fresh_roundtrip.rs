@@ -302,7 +302,7 @@ fn in_domain(lo: f64, hi: f64) -> impl Strategy<Value = f64> {
 /// Keys that are null, legitimately, when no calcium was given (every key
 /// is written, null where the state has no value; the charge balance is
 /// null unless major ions were given).
-const NULL_WITHOUT_CALCIUM: [&str; 13] = [
+const NULL_WITHOUT_CALCIUM: [&str; 18] = [
     "omega_calcite",
     "omega_aragonite",
     "si_calcite",
@@ -316,6 +316,12 @@ const NULL_WITHOUT_CALCIUM: [&str; 13] = [
     "langelier_index",
     "precipitation_potential_mg_l_caco3",
     "charge_balance_percent",
+    // The toxic fractions: no ammonia or sulfide is given here.
+    "nh3_fraction",
+    "nh3_mg_l_n",
+    "nh3_mg_l",
+    "h2s_fraction",
+    "h2s_mg_l",
 ];
 
 /// Keys that may be null even with calcium: no pH 4–13 saturates the water
@@ -323,11 +329,17 @@ const NULL_WITHOUT_CALCIUM: [&str; 13] = [
 /// precipitation potential not asked for. Every key is written, null where
 /// the state has no value; their values, when present, are checked on the
 /// state itself, since serde writes NaN as null too.
-const NULL_WITH_CALCIUM: [&str; 4] = [
+const NULL_WITH_CALCIUM: [&str; 9] = [
     "saturation_ph_nbs",
     "langelier_index",
     "charge_balance_percent",
     "precipitation_potential_mg_l_caco3",
+    // The toxic fractions: no ammonia or sulfide is given here.
+    "nh3_fraction",
+    "nh3_mg_l_n",
+    "nh3_mg_l",
+    "h2s_fraction",
+    "h2s_mg_l",
 ];
 
 /// Every optional number of the state, where present, is finite.
@@ -348,6 +360,11 @@ fn options_finite(s: &State) -> bool {
         s.saturation_ph_nbs,
         s.langelier_index,
         s.precipitation_potential_mg_l_caco3,
+        s.nh3_fraction,
+        s.nh3_mg_l_n,
+        s.nh3_mg_l,
+        s.h2s_fraction,
+        s.h2s_mg_l,
     ]
     .iter()
     .all(|v| v.map_or(true, f64::is_finite))

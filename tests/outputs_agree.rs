@@ -150,9 +150,32 @@ fn sheeted(case: &Case, digits: &str) -> Vec<(String, String)> {
         .collect()
 }
 
+/// The codes of the `flags` array of a `solve --json` object.
+fn flag_codes(json: &serde_json::Map<String, serde_json::Value>) -> Vec<String> {
+    json["flags"]
+        .as_array()
+        .expect("flags is an array")
+        .iter()
+        .map(|f| f["code"].as_str().expect("a code").to_string())
+        .collect()
+}
+
 fn check(case: &Case) {
     let json = solved(case);
-    let columns = sheeted(case, "full");
+    let mut columns = sheeted(case, "full");
+    // The flags column (issue 11) holds the codes of the JSON's `flags`
+    // array, separated by `;`; the other columns are outputs.
+    let at = columns
+        .iter()
+        .position(|(k, _)| k == "flags")
+        .unwrap_or_else(|| panic!("{}: no flags column with --columns all", case.name));
+    let (_, flags_cell) = columns.remove(at);
+    assert_eq!(
+        flags_cell,
+        flag_codes(&json).join(";"),
+        "{}: flags",
+        case.name
+    );
 
     // The keys: numbers or null, plus the text outputs.
     let json_keys: BTreeSet<&str> = json
@@ -215,6 +238,18 @@ fn check(case: &Case) {
         Some(case.sheet.as_bytes()),
     );
     let line: serde_json::Value = serde_json::from_slice(&o.stdout).expect("one JSON line");
+    let codes: Vec<String> = line["flags"]
+        .as_array()
+        .expect("flags is an array in JSON lines")
+        .iter()
+        .map(|c| c.as_str().expect("a code").to_string())
+        .collect();
+    assert_eq!(
+        codes,
+        flag_codes(&json),
+        "{}: flags in JSON lines",
+        case.name
+    );
     for (key, _) in &columns {
         if let Some(x) = json[key].as_f64() {
             let got = line[key]
@@ -231,6 +266,9 @@ fn check(case: &Case) {
 
     // With the default digits each number is the JSON value to its rule.
     for (key, cell) in sheeted(case, "sensible") {
+        if key == "flags" {
+            continue;
+        }
         let Some(x) = json[&key].as_f64() else {
             continue;
         };

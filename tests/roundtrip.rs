@@ -125,7 +125,7 @@ proptest! {
 
 /// Keys that are null by design in saline water: the fresh-water figures
 /// (every key of the list is always written, null where the medium has none).
-const NULL_IN_SALINE: [&str; 10] = [
+const NULL_IN_SALINE: [&str; 15] = [
     "calcium_activity",
     "cahco3_umol_kg",
     "caco3_pair_umol_kg",
@@ -136,6 +136,13 @@ const NULL_IN_SALINE: [&str; 10] = [
     "saturation_ph_nbs",
     "langelier_index",
     "precipitation_potential_mg_l_caco3",
+    // The toxic fractions, null without a total of ammonia or sulfide
+    // (none is given here).
+    "nh3_fraction",
+    "nh3_mg_l_n",
+    "nh3_mg_l",
+    "h2s_fraction",
+    "h2s_mg_l",
 ];
 
 fn all_numbers_finite(v: &serde_json::Value) -> bool {

@@ -214,6 +214,22 @@ pub enum Error {
         /// Why not.
         reason: String,
     },
+    // issue 11: toxic fractions and flags
+    /// A profile of quality-flag limits that cannot be read: a file that
+    /// is not there, TOML that does not parse, a key that is not a limit,
+    /// a limit outside its accepted range. The message names the profile,
+    /// the line and the key where they are known.
+    #[error("profile {origin}{}{}: {problem}", line.map_or(String::new(), |l| format!(", line {l}")), key.as_ref().map_or(String::new(), |k| format!(", key `{k}`")))]
+    BadProfile {
+        /// The profile: a built-in name or the path of a file.
+        origin: String,
+        /// The line of the file (from 1), where known.
+        line: Option<usize>,
+        /// The key, with its table (`limits.ph_low_nbs`), where known.
+        key: Option<String>,
+        /// What is wrong and what is accepted.
+        problem: String,
+    },
 }
 
 /// What kind of error, as a stable snake_case code (serialised as that
@@ -263,6 +279,9 @@ pub enum ErrorKind {
     Computation,
     /// [`Error::Unreachable`].
     Unreachable,
+    // issue 11: toxic fractions and flags
+    /// [`Error::BadProfile`].
+    BadProfile,
 }
 
 /// The stable code, as in the JSON (`out_of_range`).
@@ -303,6 +322,7 @@ impl ErrorKind {
             ErrorKind::WrongCount => "wrong_count",
             ErrorKind::Computation => "computation",
             ErrorKind::Unreachable => "unreachable",
+            ErrorKind::BadProfile => "bad_profile",
         }
     }
 }
@@ -357,6 +377,7 @@ impl Error {
             Error::WrongCount { .. } => ErrorKind::WrongCount,
             Error::Computation { .. } => ErrorKind::Computation,
             Error::Unreachable { .. } => ErrorKind::Unreachable,
+            Error::BadProfile { .. } => ErrorKind::BadProfile,
         }
     }
 
@@ -386,6 +407,7 @@ impl Error {
             | Error::Inconsistent { first, .. }
             | Error::NoWaterFits { first, .. }
             | Error::NoConvergence { first, .. } => Some(*first),
+            Error::BadProfile { .. } => Some(Field::Profile),
         }
     }
 }
@@ -680,6 +702,7 @@ mod tests {
             ErrorKind::WrongCount,
             ErrorKind::Computation,
             ErrorKind::Unreachable,
+            ErrorKind::BadProfile,
         ];
         for k in kinds {
             assert_eq!(serde_json::to_value(k).unwrap(), k.code());

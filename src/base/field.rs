@@ -152,6 +152,9 @@ fields! {
     // issue 11: depth profiles
     /// Depth below the water surface, m.
     Depth => "depth_m",
+    // issue 11: toxic fractions and flags
+    /// A profile of quality-flag limits (`--profile`).
+    Profile => "profile",
 }
 
 impl fmt::Display for Field {

@@ -40,6 +40,13 @@ pub const K_G_MOL: f64 = 39.0983;
 pub const CL_G_MOL: f64 = 35.453;
 /// Molar mass of sulfate, g/mol.
 pub const SO4_G_MOL: f64 = 96.062;
+// issue 11: toxic fractions
+/// Molar mass of hydrogen, g/mol.
+pub const H_G_MOL: f64 = 1.00794;
+/// Molar mass of NH3, g/mol (N + 3 H).
+pub const NH3_G_MOL: f64 = N_G_MOL + 3.0 * H_G_MOL;
+/// Molar mass of H2S, g/mol (S + 2 H).
+pub const H2S_G_MOL: f64 = S_G_MOL + 2.0 * H_G_MOL;
 
 /// A unit that a value may carry.
 ///

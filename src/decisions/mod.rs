@@ -1,7 +1,19 @@
 //! Decisions made from a state: the CO2 exchange with the air, the toxic
-//! fractions, doses, blends, quality flags and uncertainty. Empty for now;
-//! each lands here in its own module, reading [`crate::state::State`] and
-//! calling the flow ([`crate::flow`]) for any new solve.
+//! fractions, doses, blends, quality flags and uncertainty. Each lands here
+//! in its own module, reading [`crate::state::State`] and calling the flow
+//! ([`crate::flow`]) for any new solve.
+//!
+//! - [`flags`](mod@flags): quality flags, a state judged against the limits of a
+//!   [`Profile`] ([`profile`]: TOML files and the built-in profiles). The
+//!   toxic fractions themselves (un-ionised ammonia, hydrogen sulfide) are
+//!   figures of the state ([`crate::state::State::nh3_fraction`]).
+
+// issue 11: quality flags
+pub mod flags;
+pub mod profile;
+
+pub use flags::{codes_into, flags, not_judged, Flag};
+pub use profile::{Limits, Plausibility, Profile, DEFAULT_PROFILE};
 
 pub mod blend;
 pub mod dose;

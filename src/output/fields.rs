@@ -103,6 +103,9 @@ pub enum Section {
     Medium,
     /// The fits used.
     Fits,
+    // issue 11: toxic fractions
+    /// The un-ionised (toxic) forms of ammonia and sulfide.
+    ToxicFractions,
 }
 
 /// The title printed above the section.
@@ -128,6 +131,8 @@ impl Section {
         Section::AlkalinityParts,
         Section::TradeUnits,
         Section::Medium,
+        // issue 11: toxic fractions
+        Section::ToxicFractions,
         Section::Fits,
     ];
 
@@ -148,6 +153,7 @@ impl Section {
             Section::TradeUnits => "Trade units",
             Section::Medium => "Medium",
             Section::Fits => "Constants",
+            Section::ToxicFractions => "Toxic fractions",
         }
     }
 }
@@ -224,6 +230,9 @@ enum Kind {
     Density,
     /// A name, not a number.
     Name,
+    // issue 11: toxic fractions
+    /// A fraction of a total, 0 to 1.
+    Fraction,
 }
 
 impl Kind {
@@ -241,7 +250,9 @@ impl Kind {
     /// - saturation index, Langelier index: 2 decimals;
     /// - temperature 2 decimals, pressure 1, salinity 4 significant
     ///   figures, activity coefficient 3 decimals, a percentage 1 decimal,
-    ///   density 2 decimals.
+    ///   density 2 decimals;
+    /// - a fraction of a total (the un-ionised ammonia): 3 significant
+    ///   figures, as the mg/L it multiplies.
     fn digits(self) -> Option<Digits> {
         use Digits::{Decimals, Significant};
         Some(match self {
@@ -260,6 +271,7 @@ impl Kind {
             Kind::Percent => Decimals(1),
             Kind::Density => Decimals(2),
             Kind::Name => return None,
+            Kind::Fraction => Significant(3),
         })
     }
 }
@@ -526,6 +538,18 @@ outputs! {
     // The fits are in the table's Constants block.
     CarbonicFit => "carbonic_fit", "K1, K2", "", Name,
         Fits, [Hidden, Hidden], |s| Value::Text(Some(s.fits_used.carbonic.as_str()));
+
+    // issue 11: toxic fractions (null where the total was not given)
+    Nh3Fraction => "nh3_fraction", "un-ionised ammonia, fraction of total", "", Fraction,
+        ToxicFractions, [Row, Row], |s| o(s.nh3_fraction);
+    Nh3MgLN => "nh3_mg_l_n", "un-ionised ammonia NH3", "mg/L as N", MassConcentration,
+        ToxicFractions, [Row, Row], |s| o(s.nh3_mg_l_n);
+    Nh3MgL => "nh3_mg_l", "un-ionised ammonia NH3", "mg/L", MassConcentration,
+        ToxicFractions, [Row, Row], |s| o(s.nh3_mg_l);
+    H2sFraction => "h2s_fraction", "hydrogen sulfide H2S, fraction of total", "", Fraction,
+        ToxicFractions, [Row, Row], |s| o(s.h2s_fraction);
+    H2sMgL => "h2s_mg_l", "hydrogen sulfide H2S", "mg/L", MassConcentration,
+        ToxicFractions, [Row, Row], |s| o(s.h2s_mg_l);
 }
 
 impl Output {
@@ -584,6 +608,7 @@ mod tests {
     const SUFFIX_UNITS: &[(&str, &str)] = &[
         ("_mg_l_caco3", "mg/L as CaCO3"),
         ("_mg_l_c", "mg/L as C"),
+        ("_mg_l_n", "mg/L as N"),
         ("_mg_l", "mg/L"),
         ("_umol_kg", "µmol/kg"),
         ("_uatm", "µatm"),
@@ -642,6 +667,7 @@ mod tests {
         ("mg/L", Kind::MassConcentration),
         ("mg/L as C", Kind::MassConcentration),
         ("mg/L as CaCO3", Kind::MassConcentration),
+        ("mg/L as N", Kind::MassConcentration),
         ("°C", Kind::Temperature),
         ("dbar", Kind::Pressure),
         ("kg/m3", Kind::Density),
@@ -670,6 +696,9 @@ mod tests {
             }
             if o.key().starts_with("si_") {
                 assert_eq!(o.kind(), Kind::SaturationIndex, "{}", o.key());
+            }
+            if o.key().ends_with("_fraction") {
+                assert_eq!(o.kind(), Kind::Fraction, "{}", o.key());
             }
             // A name has no digits, a number has.
             let is_name = matches!(o.value(&sea_state()), Value::Text(_));

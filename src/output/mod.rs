@@ -13,6 +13,6 @@ mod table;
 pub use digits::{Digits, Precision};
 pub use dose::{dose_changes, dose_json, dose_table};
 pub use fields::{Output, Place, Section, Value};
-pub use json::json;
+pub use json::{json, json_with_profile, Judged};
 pub use record::{Caution, Item, Record};
-pub use table::{key_figures, table, table_on_scale};
+pub use table::{key_figures, table, table_on_scale, table_with_profile};

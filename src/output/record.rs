@@ -1,7 +1,7 @@
 //! A result as data: the JSON of a state read back, for programs that keep
 //! results and load them again.
 
-use super::fields::{Output, Value};
+use super::fields::Output;
 use crate::state::State;
 use serde::de::{Deserialize, Deserializer, Error as _};
 use serde::ser::{Serialize, SerializeMap, Serializer};
@@ -80,36 +80,14 @@ impl Record {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn of(state: &State) -> Record {
-        let values = Output::ALL
-            .iter()
-            .map(|o| {
-                let item = match o.value(state) {
-                    Value::Number(Some(v)) if v.is_finite() => Some(Item::Number(v)),
-                    Value::Text(Some(t)) => Some(Item::Text(t.to_string())),
-                    _ => None,
-                };
-                (*o, item)
-            })
-            .collect();
-        let object = |v: Json| match v {
-            Json::Object(m) => m,
-            _ => Map::new(),
-        };
-        Record {
-            values,
-            constants: object(serde_json::to_value(state.fits_used).unwrap_or(Json::Null)),
-            warnings: state
-                .warnings
-                .iter()
-                .map(|w| Caution {
-                    code: w.code().to_string(),
-                    severity: w.severity().name().to_string(),
-                    message: w.to_string(),
-                })
-                .collect(),
-            other: Map::new(),
-            as_measured: None,
-        }
+        // Through the JSON itself, so that a record of a state and the
+        // record of its JSON are one and the same (flags included).
+        serde_json::to_value(super::json::Judged::new(
+            state,
+            crate::decisions::Profile::shared_default(),
+        ))
+        .and_then(serde_json::from_value)
+        .unwrap_or_default()
     }
 
     /// The value of `output`, if the record has one.

@@ -2,6 +2,7 @@
 
 use super::digits::Precision;
 use super::fields::{Output, Place, Section, Value};
+use crate::decisions::{flags, not_judged, Profile};
 use crate::properties::scales::PhScale;
 use crate::sample::Medium;
 use crate::state::State;
@@ -164,6 +165,42 @@ pub fn table_on_scale(
     ph_scale: Option<PhScale>,
     precision: Precision,
 ) -> String {
+    table_with_profile(
+        state,
+        measured,
+        ph_scale,
+        precision,
+        Profile::shared_default(),
+    )
+}
+
+/// As [`table_on_scale`], with the quality flags of `profile`: a `Flags`
+/// block closes the table, naming the profile, each flag raised on the
+/// state (of the requested conditions) with its code and message, or
+/// `none raised`, and the flags that could not be judged for want of an
+/// input (no ammonia given, no calcium).
+///
+/// ```
+/// use travertine::decisions::Profile;
+/// use travertine::output::{table_with_profile, Precision};
+/// use travertine::{Conditions, Measured, Water};
+/// let s = Water::fresh(Conditions::new(18.0, 0.1)?)?
+///     .solve(Measured::ph(7.4, None)?, Measured::alkalinity_umol_kg(3000.0)?)?;
+/// let trout = Profile::built_in("cold-water-fish")?;
+/// let t = table_with_profile(&s, None, None, Precision::Sensible, &trout);
+/// let block = &t[t.find("\nFlags").unwrap()..];
+/// assert!(block.contains("cold-water-fish"));
+/// assert!(block.contains("free_co2_high: free CO2 is 12.4 mg/L, above 10 mg/L"));
+/// assert!(block.contains("not judged: nh3_high (no ammonia given)"));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn table_with_profile(
+    state: &State,
+    measured: Option<&State>,
+    ph_scale: Option<PhScale>,
+    precision: Precision,
+    profile: &Profile,
+) -> String {
     let mut out = String::new();
     let key = key_figures(state.medium, ph_scale.unwrap_or(PhScale::Total));
     let sections = rows(state, &key);
@@ -248,6 +285,26 @@ pub fn table_on_scale(
         for w in warnings {
             let _ = writeln!(out, "  - {w}");
         }
+    }
+    // issue 11: quality flags
+    let raised = flags(state, profile);
+    let _ = writeln!(
+        out,
+        "\nFlags, profile {} (limits depend on species and life stage)",
+        profile.name()
+    );
+    if raised.is_empty() {
+        let _ = writeln!(out, "  none raised");
+    }
+    for f in &raised {
+        let _ = writeln!(out, "  - {}: {}", f.code, f.message);
+    }
+    let missing: Vec<String> = not_judged(state, profile)
+        .iter()
+        .map(|(code, why)| format!("{code} ({why})"))
+        .collect();
+    if !missing.is_empty() {
+        let _ = writeln!(out, "  not judged: {}", missing.join(", "));
     }
     out
 }

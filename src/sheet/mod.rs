@@ -57,7 +57,9 @@
 //! The input's fields unchanged (invalid UTF-8 included), then the computed
 //! columns ([`SheetOptions::with_columns`]; defaults for field work in
 //! [`UnitSystem::Trade`] or [`UnitSystem::Ocean`] units), the residuals,
-//! `status` and `message`. A computed column whose name an input header
+//! `flags` (the codes of the quality flags raised, separated by `;`, judged
+//! against a profile: [`SheetOptions::with_profile`]), `status` and
+//! `message`. A computed column whose name an input header
 //! already has is written as `NAME_calculated`. In CSV output each
 //! computed number has the digits its measurement supports, in the unit of
 //! its column (pH 3 decimals, µmol/kg and µatm 4 significant figures, mg/L
@@ -79,7 +81,7 @@
 //! assert_eq!((summary.rows, summary.ok, summary.error), (2, 1, 1));
 //! let text = String::from_utf8(out).unwrap();
 //! let lines: Vec<&str> = text.lines().collect();
-//! assert!(lines[0].ends_with("langelier_index,status,message"));
+//! assert!(lines[0].ends_with("langelier_index,flags,status,message"));
 //! // The inputs as typed, then the computed pH to three decimals.
 //! assert!(lines[1].starts_with("north,24.5,410,7.9,118,80,fresh,7.900,"));
 //! assert!(lines[2].ends_with(",error,column `pH (NBS)`: `7..9` is not a number"));
@@ -105,6 +107,7 @@ pub use files::{remove_unfinished_outputs, Sink, Source};
 pub use header::column_guide;
 pub use summary::{MessageCount, Summary};
 
+use crate::decisions::Profile;
 use crate::output::Precision;
 use crate::sample::measured::Parameter;
 use crate::solve::RootChoice;
@@ -203,6 +206,8 @@ pub struct SheetOptions {
     root: RootChoice,
     progress: Progress,
     digits: Precision,
+    // issue 11: quality flags
+    profile: Profile,
 }
 
 impl Default for SheetOptions {
@@ -219,6 +224,7 @@ impl Default for SheetOptions {
             root: RootChoice::Natural,
             progress: Progress::Never,
             digits: Precision::Sensible,
+            profile: Profile::default(),
         }
     }
 }
@@ -297,7 +303,10 @@ impl SheetOptions {
     /// `pco2_uatm`, `omega_aragonite`; `default` for the default set of the
     /// unit system; `all` for every one. The names are the keys of
     /// [`crate::output::Output`], the keys of the JSON of a state, and
-    /// `all` writes them in that list's order.
+    /// `all` writes them in that list's order. `flags` asks for the
+    /// column of quality flags (see [`SheetOptions::with_profile`]), which
+    /// `default` and `all` include, and which a list without either leaves
+    /// out unless it names it.
     ///
     /// # Errors
     /// [`SheetError::BadOption`] for a name that is not a computed column.
@@ -420,6 +429,34 @@ impl SheetOptions {
     #[must_use]
     pub fn with_digits(mut self, digits: Precision) -> Self {
         self.digits = digits;
+        self
+    }
+
+    /// The profile the `flags` column is judged against (default:
+    /// `general`, [`Profile::default`]). The column holds the codes of the
+    /// flags raised on the row, separated by `;` (`free_co2_high;nh3_high`),
+    /// empty when none is raised or the row is an error; in JSON lines it
+    /// is an array of the codes (`null` for an error row). It is written
+    /// after the residuals, before `status`, whenever the computed columns
+    /// are the default ones or `all`, or name `flags`
+    /// ([`SheetOptions::with_columns`]). A flag leaves the row's `status`
+    /// as it is: the status is about the computation, a flag about the
+    /// water.
+    ///
+    /// ```
+    /// use travertine::{decisions::Profile, sheet::{process, SheetOptions}};
+    /// let sheet = "temperature_c,ph_nbs,alkalinity_mg_l_caco3\n18,7.4,150\n";
+    /// let trout = SheetOptions::default().with_profile(Profile::built_in("cold-water-fish")?);
+    /// let mut out = Vec::new();
+    /// process(&trout, sheet.as_bytes(), &mut out).unwrap();
+    /// let text = String::from_utf8(out).unwrap();
+    /// assert!(text.lines().next().unwrap().ends_with(",flags,status,message"));
+    /// assert!(text.lines().nth(1).unwrap().contains(",free_co2_high,ok,"));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[must_use]
+    pub fn with_profile(mut self, profile: Profile) -> Self {
+        self.profile = profile;
         self
     }
 

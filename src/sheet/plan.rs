@@ -62,7 +62,11 @@ pub(crate) struct Plan {
     pub forced_pair: Option<(Parameter, Parameter)>,
     pub residuals: Vec<Residual>,
     pub computed: Vec<Output>,
-    /// Names of the added columns: computed, residuals, `status`, `message`.
+    /// The profile of the `flags` column, where it is written (after the
+    /// residuals, before `status`).
+    pub flags: Option<crate::decisions::Profile>,
+    /// Names of the added columns: computed, residuals, `flags`, `status`,
+    /// `message`.
     pub added: Vec<String>,
     pub units: UnitSystem,
     pub options: SolveOptions,
@@ -286,9 +290,9 @@ impl Plan {
             .map(|p| Residual { parameter: *p })
             .collect();
 
-        let computed = match &options.columns {
+        let (computed, flags) = match &options.columns {
             Some(spec) => parse_columns(spec, options.units)?,
-            None => Output::defaults(options.units).to_vec(),
+            None => (Output::defaults(options.units).to_vec(), true),
         };
 
         // Added names, never equal to an input header.
@@ -316,6 +320,9 @@ impl Plan {
             let base = residual_name(r.parameter, &labels, &read, options.units);
             push(base, &mut added);
         }
+        if flags {
+            push("flags".into(), &mut added);
+        }
         push("status".into(), &mut added);
         push("message".into(), &mut added);
 
@@ -337,6 +344,7 @@ impl Plan {
             forced_pair,
             residuals,
             computed,
+            flags: flags.then(|| options.profile.clone()),
             added,
             units: options.units,
             // The precipitation potential costs about twenty solves: only
@@ -537,9 +545,14 @@ pub(crate) fn parse_pair(spec: &str) -> Result<(Parameter, Parameter), SheetErro
 }
 
 /// Parses `--columns`: names of computed columns, `default` for the
-/// default set of the unit system, `all` for every one.
-pub(crate) fn parse_columns(spec: &str, units: UnitSystem) -> Result<Vec<Output>, SheetError> {
+/// default set of the unit system, `all` for every one; with whether the
+/// `flags` column is asked for (by `flags`, `default` or `all`).
+pub(crate) fn parse_columns(
+    spec: &str,
+    units: UnitSystem,
+) -> Result<(Vec<Output>, bool), SheetError> {
     let mut out: Vec<Output> = Vec::new();
+    let mut flags = false;
     let add = |c: Output, out: &mut Vec<Output>| {
         if !out.contains(&c) {
             out.push(c);
@@ -547,15 +560,22 @@ pub(crate) fn parse_columns(spec: &str, units: UnitSystem) -> Result<Vec<Output>
     };
     for name in spec.split(',').map(str::trim).filter(|n| !n.is_empty()) {
         match name.to_ascii_lowercase().as_str() {
-            "default" => Output::defaults(units)
-                .iter()
-                .for_each(|c| add(*c, &mut out)),
-            "all" => Output::ALL.iter().for_each(|c| add(*c, &mut out)),
+            "default" => {
+                flags = true;
+                Output::defaults(units)
+                    .iter()
+                    .for_each(|c| add(*c, &mut out))
+            }
+            "all" => {
+                flags = true;
+                Output::ALL.iter().for_each(|c| add(*c, &mut out))
+            }
+            "flags" => flags = true,
             lower => add(
                 Output::from_name(lower).ok_or_else(|| SheetError::BadOption {
                     option: "--columns",
                     message: format!(
-                        "`{name}` is not a computed column; accepted: default, all, {}",
+                        "`{name}` is not a computed column; accepted: default, all, flags, {}",
                         Output::all_names()
                     ),
                 })?,
@@ -563,5 +583,5 @@ pub(crate) fn parse_columns(spec: &str, units: UnitSystem) -> Result<Vec<Output>
             ),
         }
     }
-    Ok(out)
+    Ok((out, flags))
 }

@@ -58,6 +58,9 @@ pub(crate) struct Scratch {
     pub residuals: Vec<Option<(f64, Digits)>>,
     pub issues: Vec<Issue>,
     pub status: Status,
+    /// The codes of the quality flags raised (issue 11), where the plan
+    /// writes them.
+    pub flags: Vec<&'static str>,
     /// The last row's water, prepared.
     prepared: Option<PreparedWater>,
 }
@@ -279,6 +282,7 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut
     s.values.clear();
     s.residuals.clear();
     s.residuals.resize(plan.residuals.len(), None);
+    s.flags.clear();
     let status = if unclosed_quote(plan, record, line, s) {
         None
     } else {
@@ -287,6 +291,7 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut
     if status.is_none() {
         s.values.clear();
         s.residuals.iter_mut().for_each(|r| *r = None);
+        s.flags.clear();
     }
     s.status = if s.issues.iter().any(|i| i.error) {
         Status::Error
@@ -494,6 +499,9 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     }
     for c in &plan.computed {
         s.values.push(c.value(&state));
+    }
+    if let Some(profile) = &plan.flags {
+        crate::decisions::codes_into(&state, profile, &mut s.flags);
     }
     let default_scale = scale.unwrap_or(medium_scale(water.medium()));
     for (i, rc) in plan.residuals.iter().enumerate() {

@@ -64,6 +64,12 @@ pub struct Summary {
     /// Notes on header units read only approximately as written, such as
     /// `ppm` read as mg/L or `ppt` read as practical salinity.
     pub unit_notes: Vec<String>,
+    // issue 11: quality flags
+    /// The profile of the `flags` column, where the sheet writes one.
+    pub profile: Option<String>,
+    /// Each quality flag raised, with the number of rows that raised it, in
+    /// the order the flags are listed (see [`mod@crate::decisions::flags`]).
+    pub flags: Vec<(&'static str, u64)>,
 }
 
 #[derive(Debug, Default)]
@@ -85,6 +91,8 @@ pub(crate) struct Tally {
     error: u64,
     kinds: HashMap<String, Entry>,
     other: Entry,
+    /// Rows raising each flag code (issue 11).
+    flags: Vec<(&'static str, u64)>,
 }
 
 impl Tally {
@@ -96,6 +104,14 @@ impl Tally {
             Status::Warning => self.warning += 1,
             Status::Error => self.error += 1,
         }
+        let mut seen: Vec<&'static str> = Vec::new();
+        for code in &s.flags {
+            // A code raised twice on one row (two plausibility checks) counts once.
+            if !seen.contains(code) {
+                seen.push(code);
+                self.count_flag(code, 1);
+            }
+        }
         for issue in &s.issues {
             let warned = !issue.error && !issue.note;
             self.count(
@@ -105,6 +121,13 @@ impl Tally {
                 issue.error,
                 warned,
             );
+        }
+    }
+
+    fn count_flag(&mut self, code: &'static str, n: u64) {
+        match self.flags.iter_mut().find(|(c, _)| *c == code) {
+            Some((_, count)) => *count += n,
+            None => self.flags.push((code, n)),
         }
     }
 
@@ -138,6 +161,9 @@ impl Tally {
         kinds.sort_by_key(|(_, e)| e.order);
         for (k, e) in kinds {
             self.count(&k, e.count, &e.lines, e.error, e.warned);
+        }
+        for (code, n) in other.flags {
+            self.count_flag(code, n);
         }
         if other.other.count > 0 {
             let o = other.other;
@@ -178,6 +204,14 @@ impl Tally {
             messages,
             passed_through: plan.passed.clone(),
             unit_notes: plan.unit_notes.clone(),
+            profile: plan.flags.as_ref().map(|p| p.name().to_string()),
+            flags: {
+                // In the order of the flags' codes.
+                let order = crate::decisions::Profile::flag_codes();
+                let mut flags = self.flags;
+                flags.sort_by_key(|(c, _)| order.iter().position(|o| o == c));
+                flags
+            },
         }
     }
 }
@@ -203,6 +237,22 @@ impl fmt::Display for Summary {
         }
         for n in &self.unit_notes {
             writeln!(f, "note: {n}")?;
+        }
+        if let Some(profile) = &self.profile {
+            let raised: Vec<String> = self
+                .flags
+                .iter()
+                .map(|(code, n)| format!("{code} {n} {}", if *n == 1 { "row" } else { "rows" }))
+                .collect();
+            writeln!(
+                f,
+                "flags (profile {profile}): {}",
+                if raised.is_empty() {
+                    "none raised".to_string()
+                } else {
+                    raised.join(", ")
+                }
+            )?;
         }
         if !self.messages.is_empty() {
             writeln!(f, "most common messages:")?;

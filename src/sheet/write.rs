@@ -232,6 +232,10 @@ impl<'p> RowWriter<'p> {
                 csv_number(out, v, digits, plan.digits, style);
             }
         }
+        if plan.flags.is_some() {
+            // The codes, separated by `;` (quoted where `;` is the delimiter).
+            csv_field(out, s.flags.join(";").as_bytes(), style, false);
+        }
         csv_field(out, s.status.name().as_bytes(), style, false);
         csv_field(out, self.message.as_bytes(), style, false);
         end_row(out, style);
@@ -265,6 +269,21 @@ impl<'p> RowWriter<'p> {
             match r {
                 Some((v, _)) if v.is_finite() => json_number(out, *v),
                 _ => out.extend_from_slice(b"null"),
+            }
+        }
+        if plan.flags.is_some() {
+            key(out, &mut k);
+            if s.status == super::row::Status::Error {
+                out.extend_from_slice(b"null");
+            } else {
+                out.push(b'[');
+                for (i, code) in s.flags.iter().enumerate() {
+                    if i > 0 {
+                        out.push(b',');
+                    }
+                    json_string(out, code.as_bytes());
+                }
+                out.push(b']');
             }
         }
         key(out, &mut k);

@@ -1,7 +1,7 @@
 //! The complete carbonate state of a sample.
 
 use crate::base::error::Result;
-use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL};
+use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL, H2S_G_MOL, NH3_G_MOL, N_G_MOL};
 use crate::base::warning::Warnings;
 use crate::fits::FitsUsed;
 use crate::medium::Constants;
@@ -166,6 +166,53 @@ pub struct State {
     pub warnings: Warnings,
     water_sample: Water,
     h: f64,
+    // issue 11: toxic fractions
+    /// Un-ionised fraction of the total ammonia, \[NH3\]/(\[NH3\] + [NH4+])
+    /// (`None` where no ammonia was given, or zero).
+    ///
+    /// ```text
+    /// fresh:   f = 1 / (1 + {H+} / (Ka γNH4)),  {H+} = 10^−pH(NBS), γNH3 = 1
+    ///          pKa = 0.09018 + 2729.92/T        (Emerson et al. 1975)
+    /// saline:  f = 1 / (1 + [H+]T / KNH4,T)     (Johansson & Wedborg 1980, on the total scale)
+    /// ```
+    /// In fresh water γNH4 is the activity coefficient of monovalent ions
+    /// at the sample's ionic strength ([`State::gamma_monovalent`], Davies
+    /// by default), so that at zero ionic strength f is the textbook
+    /// fraction of field tables, which ignore activity; at I = 0.01 (about
+    /// 600 µS/cm) the fraction is about 10 % lower. Ka and KNH4 carry the
+    /// pressure correction of the other constants.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Measured, Water, units::Amount, sample::Composition};
+    /// // Zero ionic strength, 25 °C, pH 8.0 (NBS): 0.0537 (Emerson et al. 1975).
+    /// let pond = Water::fresh(Conditions::new(25.0, 0.0)?)?
+    ///     .with_ionic_strength(0.0)?
+    ///     .with_composition(Composition::default().with_ammonia(Amount::PerKg(50e-6))?);
+    /// let s = pond.solve(Measured::ph(8.0, None)?, Measured::alkalinity_umol_kg(1000.0)?)?;
+    /// assert!((s.nh3_fraction.unwrap() - 0.0537).abs() < 5e-5);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub nh3_fraction: Option<f64>,
+    /// Un-ionised ammonia NH3, mg/L as N.
+    pub nh3_mg_l_n: Option<f64>,
+    /// Un-ionised ammonia NH3, mg/L as NH3.
+    pub nh3_mg_l: Option<f64>,
+    /// Fraction of the total sulfide that is H2S, \[H2S\]/(\[H2S\] + [HS-])
+    /// (`None` where no sulfide was given, or zero); S-- is negligible
+    /// below pH 12.
+    ///
+    /// ```text
+    /// fresh:   f = 1 / (1 + K1 / (γHS {H+}))      K1: Millero et al. (1988) at S = 0
+    /// saline:  f = 1 / (1 + K1,T / [H+]T)         Millero et al. (1988), total scale
+    /// ```
+    pub h2s_fraction: Option<f64>,
+    /// Hydrogen sulfide H2S, mg/L as H2S.
+    pub h2s_mg_l: Option<f64>,
+    /// The two measured parameters this state comes from. A state moved to
+    /// other conditions ([`State::at`]) keeps those of its measurement, so
+    /// that a judgement on how it was measured (the organic-acid bias of
+    /// pCO2 from pH and alkalinity) follows it.
+    pub computed_from: [Parameter; 2],
 }
 
 impl State {
@@ -320,6 +367,7 @@ impl State {
         let revelle = 1.0 + dic * (k.k1e() * h + 2.0 * k12) / (h * d) * dh_ddic;
 
         let rho = k.density_kg_m3();
+        let (ammonia, sulfide) = toxic_fractions(k, h);
         // The constants' warnings first.
         let all = warnings.after(k.warnings());
         let u = 1e6;
@@ -379,8 +427,32 @@ impl State {
             warnings: all,
             water_sample: water.clone(),
             h,
+            nh3_fraction: ammonia.map(|(f, _)| f),
+            nh3_mg_l_n: ammonia.map(|(_, c)| c * rho * N_G_MOL),
+            nh3_mg_l: ammonia.map(|(_, c)| c * rho * NH3_G_MOL),
+            h2s_fraction: sulfide.map(|(f, _)| f),
+            h2s_mg_l: sulfide.map(|(_, c)| c * rho * H2S_G_MOL),
+            computed_from: [a.parameter(), b.parameter()],
         })
     }
+}
+
+/// The un-ionised fractions of ammonia and sulfide at `h`, each with the
+/// concentration of the un-ionised form (mol/kg); `None` for a total not
+/// given. In both media the constants are on the working scale of `h`
+/// (see [`State::nh3_fraction`] and [`State::h2s_fraction`]).
+#[allow(clippy::type_complexity)]
+fn toxic_fractions(k: &Constants, h: f64) -> (Option<(f64, f64)>, Option<(f64, f64)>) {
+    let totals = k.totals();
+    let ammonia = (totals.ammonia_mol_kg > 0.0 && k.knh4() > 0.0).then(|| {
+        let f = k.knh4() / (k.knh4() + h);
+        (f, f * totals.ammonia_mol_kg)
+    });
+    let sulfide = (totals.sulfide_mol_kg > 0.0 && k.kh2s() > 0.0).then(|| {
+        let f = h / (h + k.kh2s());
+        (f, f * totals.sulfide_mol_kg)
+    });
+    (ammonia, sulfide)
 }
 
 /// A state whose alkalinity (µmol/kg) is beyond what any measurement may be
