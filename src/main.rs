@@ -283,14 +283,19 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     })?;
     let water = sample.water().map_err(flagged)?;
     sample.check_ph_scale(water.medium()).map_err(flagged)?;
+    let air = sample.air().map_err(flagged)?;
     let root: RootChoice = a.root.parse().map_err(at_flag("--root"))?;
     let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
     // One sample: the precipitation potential's cost does not matter.
     let options = SolveOptions::default()
         .with_root(root)
         .with_precipitation_potential(true);
+    // One sample: the exchange with the air (a second solve, for the
+    // water at equilibrium with the air) is always given.
+    let exchange = |s: State| s.with_exchange(&air, sample.ph_scale_given());
     let state = water
         .solve_with(first, second, &options)
+        .and_then(exchange)
         .map_err(at_flag(&pair_flags))?;
 
     let reported = if a.at_temperature.is_some() || a.at_pressure.is_some() {
@@ -306,6 +311,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         Some(
             state
                 .at_with(c, &options)
+                .and_then(exchange)
                 .map_err(at_flag("--at-temperature"))?,
         )
     } else {

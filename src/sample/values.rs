@@ -4,7 +4,7 @@
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{Quantity, Unit};
-use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
+use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit, GasTransfer};
 use crate::properties::activity::ActivityModel;
 use crate::properties::scales::PhScale;
 
@@ -149,6 +149,9 @@ pub enum Choice {
     Bisulfate(BisulfateFit),
     /// Activity model.
     Activity(ActivityModel),
+    // issue 11: air–water CO2 exchange
+    /// The model of the gas transfer velocity.
+    GasTransfer(GasTransfer),
 }
 
 /// A value of an input, read from a flag, a `--set` or a cell.
@@ -156,7 +159,8 @@ pub enum Choice {
 #[non_exhaustive]
 pub enum InputValue {
     /// In the input's base unit (°C, practical salinity, dbar, atm, mg/L,
-    /// mol/kg, fraction).
+    /// mol/kg, fraction; for the exchange with the air m/s, ppm, m, km²,
+    /// cm/h).
     Number(f64),
     /// A number with its unit.
     Quantity(Quantity),
