@@ -17,7 +17,14 @@
 //!   after `saline_beside/fresh_with_calcium/<a>+<b>`, the same pair in the
 //!   sea water above;
 //! - `fresh_without_calcium/*`: the same pond without calcium, alkalinity
-//!   with pH and with DIC, each beside its saline pair.
+//!   with pH and with DIC, each beside its saline pair;
+//! - `exchange/<water>/plain` and `exchange/<water>/with_exchange`: the
+//!   alkalinity + pH solve of the sea water and of the pond with calcium,
+//!   then the same solve followed by [`State::with_exchange`] (a 5 m/s
+//!   wind, air CO2 420 ppm: the flux and the water at equilibrium with the
+//!   air, a second solve), measured back to back; and the same two with
+//!   the water prepared once (`prepared_plain`, `prepared_with_exchange`,
+//!   as a sheet of one water solves its rows).
 //!
 //! The values of the other seven parameters come from solving the
 //! alkalinity + DIC pair once, so every pair describes the same water.
@@ -27,6 +34,7 @@ use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
 use std::time::Duration;
 use travertine::base::units::Amount;
+use travertine::sample::air::Air;
 use travertine::sample::composition::Composition;
 use travertine::{Conditions, Measured, Parameter, State, Water};
 
@@ -251,6 +259,67 @@ fn bench_fresh(c: &mut Criterion) {
     }
 }
 
+/// The plain solve beside the solve with the exchange with the air, for
+/// sea water and the pond with calcium.
+fn bench_exchange(c: &mut Criterion) {
+    let air = Air::new()
+        .with_wind_m_s(5.0)
+        .and_then(|a| a.with_co2_ppm(420.0))
+        .expect("air");
+    let sea = sea_water();
+    let sea_state = sea
+        .solve(alkalinity_dic().0, alkalinity_dic().1)
+        .expect("sea");
+    let sea_pair = (
+        measured(Parameter::Alkalinity, &sea_state),
+        measured(Parameter::Ph, &sea_state),
+    );
+    let ta = Measured::alkalinity_umol_kg(2400.0).expect("alkalinity");
+    let ph = Measured::ph(7.6, None).expect("ph");
+    for (name, water, (a, b)) in [("sea", sea, sea_pair), ("pond", pond(true), (ta, ph))] {
+        let with = water
+            .solve(a, b)
+            .and_then(|s| s.with_exchange(&air, None))
+            .expect("exchange");
+        assert!(with
+            .exchange
+            .is_some_and(|e| e.co2_flux_mmol_m2_d.is_some() && e.equilibrium_ph.is_some()));
+        let mut group = c.benchmark_group("exchange");
+        group.bench_function(format!("{name}/plain"), |bench| {
+            bench.iter(|| {
+                black_box(&water)
+                    .solve(black_box(a), black_box(b))
+                    .expect("solve")
+            })
+        });
+        group.bench_function(format!("{name}/with_exchange"), |bench| {
+            bench.iter(|| {
+                black_box(&water)
+                    .solve(black_box(a), black_box(b))
+                    .and_then(|s| s.with_exchange(black_box(&air), None))
+                    .expect("solve with exchange")
+            })
+        });
+        let prepared = water.prepare().expect("prepared");
+        group.bench_function(format!("{name}/prepared_plain"), |bench| {
+            bench.iter(|| {
+                black_box(&prepared)
+                    .solve(black_box(a), black_box(b))
+                    .expect("solve")
+            })
+        });
+        group.bench_function(format!("{name}/prepared_with_exchange"), |bench| {
+            bench.iter(|| {
+                let p = black_box(&prepared);
+                p.solve(black_box(a), black_box(b))
+                    .and_then(|s| p.with_exchange(s, black_box(&air), None))
+                    .expect("solve with exchange")
+            })
+        });
+        group.finish();
+    }
+}
+
 /// As [`check_pair`], on the NBS scale of the fresh medium.
 fn check_fresh_pair(water: &Water, reference: &State, a: Measured, b: Measured) {
     let name = format!("{}+{}", a.parameter().name(), b.parameter().name());
@@ -278,6 +347,7 @@ fn settings() -> Criterion {
 criterion_group! {
     name = benches;
     config = settings();
-    targets = bench_constants, bench_full_solve, bench_deep_nutrients, bench_low_salinity, bench_fresh
+    targets = bench_constants, bench_full_solve, bench_deep_nutrients, bench_low_salinity, bench_fresh,
+        bench_exchange
 }
 criterion_main!(benches);

@@ -15,10 +15,12 @@ use crate::medium::fresh::ionic::add_route_warnings;
 use crate::medium::fresh::FreshBasis;
 use crate::medium::{ConstantName, Constants};
 use crate::properties::scales::PhScale;
+use crate::sample::air::Air;
 use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::{Medium, Water};
 use crate::sample::Conditions;
 use crate::solve::{solve, Solution, SolveOptions};
+use crate::state::exchange::{medium_scale, Exchange};
 use crate::state::State;
 
 /// Salinities where both media apply and a solve is checked against the
@@ -393,6 +395,121 @@ impl State {
         // issue 11: the parameters of the measurement, not of this re-solve.
         moved.computed_from = self.computed_from;
         Ok(moved)
+    }
+
+    /// This state with its exchange of CO2 with `air` ([`State::exchange`]):
+    /// the air's pCO2 and the saturation ratio, the Schmidt number, the
+    /// transfer velocity and the flux where a wind speed or a k600 is
+    /// given, and the water at equilibrium with the air at the same
+    /// alkalinity and totals (a second solve, of this state's water with
+    /// its alkalinity and the air's fCO2). `ph_scale` is the scale to give
+    /// the equilibrium pH on: that of the pH measured, or `None` for the
+    /// medium's own (NBS in fresh water, total in saline water).
+    ///
+    /// The cautions of the exchange are added to the state's: notes for
+    /// the CO2 of the air and the barometric pressure taken by default and
+    /// for a flux not computed for want of a wind speed; warnings for a
+    /// model used outside its published range and for an input not used.
+    /// The formulas are in [`crate::state::exchange`].
+    ///
+    /// # Errors
+    /// As [`Air::check`] for inputs of the air that do not go together.
+    ///
+    /// ```
+    /// use travertine::{sample::air::Air, Conditions, Measured, PhScale, Water};
+    /// // An invented estuary at 15 °C: pH on the total scale, 8 m/s of wind.
+    /// let estuary = Water::saline(Conditions::new(15.0, 20.0)?)?
+    ///     .solve(Measured::ph(7.9, Some(PhScale::Total))?, Measured::alkalinity_umol_kg(1900.0)?)?;
+    /// let air = Air::new().with_wind_m_s(8.0)?.with_co2_ppm(425.0)?;
+    /// let s = estuary.clone().with_exchange(&air, Some(PhScale::Total))?;
+    /// let e = s.exchange.unwrap();
+    /// assert_eq!(e.gas_transfer.name(), "wanninkhof2014");
+    /// assert!(e.co2_flux_mmol_m2_d.unwrap() > 0.0);
+    /// assert!((e.co2_saturation_ratio - s.pco2_uatm / e.air_pco2_uatm).abs() < 1e-12);
+    /// // Without a wind speed: no flux, and a note says why.
+    /// let calm = estuary.with_exchange(&Air::new(), None)?;
+    /// assert!(calm.exchange.unwrap().co2_flux_mmol_m2_d.is_none());
+    /// assert!(calm.warnings.iter().any(|w| w.code() == "transfer_velocity_not_given"));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_exchange(self, air: &Air, ph_scale: Option<PhScale>) -> Result<State> {
+        add_exchange(self, air, ph_scale, None)
+    }
+}
+
+impl PreparedWater {
+    /// As [`State::with_exchange`], for a state of this water: the water at
+    /// equilibrium with the air is solved with these prepared constants
+    /// rather than with constants evaluated again, which halves the cost
+    /// of the exchange in a batch. A state of another water is given its
+    /// exchange as [`State::with_exchange`] does.
+    ///
+    /// # Errors
+    /// As [`State::with_exchange`].
+    ///
+    /// ```
+    /// use travertine::{sample::air::Air, Conditions, Measured, Water};
+    /// let pond = Water::fresh(Conditions::new(16.0, 0.1)?)?.prepare()?;
+    /// let air = Air::new().with_wind_m_s(2.5)?.with_co2_ppm(430.0)?;
+    /// let ta = Measured::alkalinity_umol_kg(900.0)?;
+    /// let state = pond.solve(ta, Measured::ph(6.9, None)?)?;
+    /// let here = pond.with_exchange(state.clone(), &air, None)?;
+    /// assert_eq!(here.exchange, state.with_exchange(&air, None)?.exchange);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_exchange(
+        &self,
+        state: State,
+        air: &Air,
+        ph_scale: Option<PhScale>,
+    ) -> Result<State> {
+        add_exchange(state, air, ph_scale, Some(self))
+    }
+}
+
+/// The exchange of `state` with `air` ([`State::with_exchange`]), the water
+/// at equilibrium with the air solved with `prepared` where that is the
+/// state's water.
+fn add_exchange(
+    mut state: State,
+    air: &Air,
+    ph_scale: Option<PhScale>,
+    prepared: Option<&PreparedWater>,
+) -> Result<State> {
+    air.check()?;
+    let scale = ph_scale.unwrap_or(medium_scale(state.medium));
+    let (mut exchange, notes) = Exchange::of(&state, air, scale);
+    match at_equilibrium_with(&state, exchange.air_fco2_uatm, prepared) {
+        Ok(e) => {
+            exchange.equilibrium_ph = Some(e.ph(scale));
+            exchange.equilibrium_free_co2_mg_l = Some(e.free_co2_mg_l);
+        }
+        Err(e) => state.warnings.push(Warning::Text {
+            code: "equilibrium_not_computed",
+            text: format!("the water at equilibrium with the air is not computed: {e}"),
+        }),
+    }
+    for w in notes {
+        state.warnings.push(w);
+    }
+    state.exchange = Some(exchange);
+    Ok(state)
+}
+
+/// The water of `state` at equilibrium with air of CO2 fugacity
+/// `fco2_uatm`: its alkalinity and totals kept, in the same medium, with
+/// the same fits and conditions.
+fn at_equilibrium_with(
+    state: &State,
+    fco2_uatm: f64,
+    prepared: Option<&PreparedWater>,
+) -> Result<State> {
+    let options = SolveOptions::default().with_media_comparison(false);
+    let a = Measured::alkalinity_umol_kg(state.alkalinity_umol_kg)?;
+    let b = Measured::fco2_uatm(fco2_uatm)?;
+    match prepared {
+        Some(p) if p.water() == state.water_sample() => p.solve_with(a, b, &options),
+        _ => state.water_sample().solve_with(a, b, &options),
     }
 }
 

@@ -39,7 +39,7 @@
 //! medium       fits -> one Constants value (saline; fresh with activities)
 //! speciation   species and alkalinity at a given [H+]; the calcium ion pairs
 //! solve        the pair algebra, the root policy and the fresh fixed point: one solver
-//! state        the complete result and the figures derived from it
+//! state        the complete result, the figures derived from it, the exchange with the air
 //! flow         the pipeline on one page: water -> constants -> solve -> state
 //! decisions    quality flags and their profiles; exchange, doses, blends (to come)
 //! output       the table and the JSON of a state

@@ -329,6 +329,7 @@ struct Solved {
     water: travertine::Water,
     pair_flags: String,
     state: State,
+    air: travertine::sample::Air,
 }
 
 fn solve_sample(
@@ -357,15 +358,20 @@ fn solve_sample(
     })?;
     let water = sample.water().map_err(flagged)?;
     sample.check_ph_scale(water.medium()).map_err(flagged)?;
+    let air = sample.air().map_err(flagged)?;
     let root: RootChoice = root.parse().map_err(at_flag("--root"))?;
+    // One sample: the exchange with the air (a second solve, for the
+    // water at equilibrium with the air) is always given.
     let state = water
         .solve_with(first, second, &options.with_root(root))
+        .and_then(|s| s.with_exchange(&air, sample.ph_scale_given()))
         .map_err(at_flag(&pair_flags))?;
     Ok(Solved {
         sample,
         water,
         pair_flags,
         state,
+        air,
     })
 }
 
@@ -378,9 +384,11 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         sample,
         water,
         state,
+        air,
         ..
     } = solve_sample(&a.inputs, &a.root, options)?;
     let options = options.with_root(a.root.parse().map_err(at_flag("--root"))?);
+    let exchange = |s: State| s.with_exchange(&air, sample.ph_scale_given());
 
     let reported = if a.at_temperature.is_some() || a.at_pressure.is_some() {
         let mut c = *water.conditions();
@@ -395,6 +403,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         Some(
             state
                 .at_with(c, &options)
+                .and_then(exchange)
                 .map_err(at_flag("--at-temperature"))?,
         )
     } else {
@@ -419,6 +428,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         water,
         pair_flags,
         state,
+        ..
     } = solve_sample(&a.inputs, &a.root, SolveOptions::default())?;
     let mut request = DoseRequest::new(
         a.chemical.parse().map_err(at_flag("--chemical"))?,

@@ -18,7 +18,7 @@ use std::f64::consts::LN_10;
 use travertine::base::units::Amount;
 use travertine::fits::{
     ammonia, boron, carbonic, fluoride, gas, kw, minerals, nutrients, pressure, sulfate, sulfide,
-    BoronTotalFit, CarbonicFit, Fits, FluorideFit,
+    transfer, BoronTotalFit, CarbonicFit, Fits, FluorideFit,
 };
 use travertine::medium::Constants;
 use travertine::sample::composition::Composition;
@@ -381,6 +381,10 @@ fn evaluate(row: &CheckRow) -> Result<f64, String> {
         ("calcium", "riley-tongudai1967") => (
             None,
             Native::Value("mol_kg", minerals::riley_tongudai1967_calcium_mol_kg(s)),
+        ),
+        ("schmidt_co2", "wanninkhof2014") => (
+            None,
+            Native::Value("number", transfer::schmidt_number(row.temperature_c, s)),
         ),
         ("density", "teos10") => (
             None,

@@ -21,6 +21,7 @@ use proptest::prelude::*;
 use travertine::base::units::Amount;
 use travertine::medium::IonicStrengthRoute;
 use travertine::properties::activity::ActivityModel;
+use travertine::sample::air::Air;
 use travertine::sample::composition::Composition;
 use travertine::{
     Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
@@ -365,6 +366,9 @@ fn options_finite(s: &State) -> bool {
         s.nh3_mg_l,
         s.h2s_fraction,
         s.h2s_mg_l,
+        s.exchange.and_then(|e| e.co2_flux_mmol_m2_d),
+        s.exchange.and_then(|e| e.equilibrium_ph),
+        s.exchange.and_then(|e| e.equilibrium_free_co2_mg_l),
     ]
     .iter()
     .all(|v| v.map_or(true, f64::is_finite))
@@ -427,10 +431,21 @@ proptest! {
                 }
                 None => Ok(w),
             })
-            .and_then(|w| w.solve(make(ia, va)?, make(ib, vb)?));
+            .and_then(|w| w.solve(make(ia, va)?, make(ib, vb)?))
+            // The exchange with the air too, in a 4 m/s wind.
+            .and_then(|s| s.with_exchange(&Air::new().with_wind_m_s(4.0)?, None));
         if let Ok(state) = result {
             let json = serde_json::to_value(&state).unwrap();
-            let allowed: &[&str] = if state.calcium_umol_kg.is_some() { &NULL_WITH_CALCIUM } else { &NULL_WITHOUT_CALCIUM };
+            let e = state.exchange.unwrap();
+            // The water at equilibrium with the air is null only where it
+            // cannot be solved, and a note then says so.
+            let noted = state.warnings.iter().any(|w| w.code() == "equilibrium_not_computed");
+            prop_assert_eq!(e.equilibrium_ph.is_none(), noted, "{}", json);
+            let mut allowed: Vec<&str> = if state.calcium_umol_kg.is_some() { NULL_WITH_CALCIUM.to_vec() } else { NULL_WITHOUT_CALCIUM.to_vec() };
+            if noted {
+                allowed.extend(["equilibrium_ph", "equilibrium_free_co2_mg_l"]);
+            }
+            let allowed = allowed.as_slice();
             prop_assert!(all_numbers_finite("", &json, allowed), "non-finite output: {json}");
             prop_assert!(options_finite(&state), "non-finite optional output: {json}");
         }

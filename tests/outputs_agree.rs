@@ -79,13 +79,26 @@ const FRESH_WITH_CALCIUM: Case = Case {
         "83 mg/L CaCO3",
         "--ammonia",
         "0.41 mg/L N",
+        "--wind",
+        "3.2",
+        "--air-co2",
+        "428",
+        "--barometric",
+        "988 hPa",
     ],
     sheet: "Temp (°C),Specific conductance (µS/cm),pH (NBS),Alkalinity (mg/L as CaCO3),\
-            Calcium hardness (mg/L as CaCO3),TAN (mg/L)\n24.3,415,7.52,117,83,0.41\n",
+            Calcium hardness (mg/L as CaCO3),TAN (mg/L),Wind (m/s),Air CO2 (ppm),\
+            Barometric (hPa)\n24.3,415,7.52,117,83,0.41,3.2,428,988\n",
 };
 
 /// The outputs that are texts rather than numbers.
-const TEXT_KEYS: [&str; 3] = ["water", "ionic_strength_from", "carbonic_fit"];
+const TEXT_KEYS: [&str; 5] = [
+    "water",
+    "ionic_strength_from",
+    "carbonic_fit",
+    "equilibrium_ph_scale",
+    "gas_transfer",
+];
 
 /// The JSON object of `solve --json` for the case.
 fn solved(case: &Case) -> serde_json::Map<String, serde_json::Value> {
@@ -298,4 +311,8 @@ fn fresh_json_keys_are_the_sheet_columns() {
     assert!(json["langelier_index"].is_number());
     assert!(json["cahco3_umol_kg"].is_number());
     assert!(json["ionic_strength_from"].is_string());
+    // With a wind and the air's CO2, the exchange is complete.
+    assert!(json["co2_flux_mmol_m2_d"].is_number());
+    assert_eq!(json["gas_transfer"], "cole-caraco1998");
+    assert_eq!(json["equilibrium_ph_scale"], "nbs");
 }

@@ -10,6 +10,7 @@ mod common;
 use common::{any_value, check_every_pair};
 use proptest::prelude::*;
 use travertine::base::units::Amount;
+use travertine::sample::air::Air;
 use travertine::sample::composition::Composition;
 use travertine::{
     Conditions, Measured, Parameter, PhScale, RootChoice, SolveOptions, State, Water,
@@ -145,6 +146,10 @@ const NULL_IN_SALINE: [&str; 15] = [
     "h2s_mg_l",
 ];
 
+/// The figures of the water at equilibrium with the air: null where that
+/// water cannot be solved, which a note then says (checked on the state).
+const NULL_WITHOUT_EQUILIBRIUM: [&str; 2] = ["equilibrium_ph", "equilibrium_free_co2_mg_l"];
+
 fn all_numbers_finite(v: &serde_json::Value) -> bool {
     match v {
         serde_json::Value::Null => false,
@@ -152,7 +157,10 @@ fn all_numbers_finite(v: &serde_json::Value) -> bool {
         // serde_json writes NaN as null, so null means NaN, except for the
         // fresh-water figures, which are null by design in saline water.
         serde_json::Value::Object(m) => m.iter().all(|(k, v)| {
-            (NULL_IN_SALINE.contains(&k.as_str()) && v.is_null()) || all_numbers_finite(v)
+            ((NULL_IN_SALINE.contains(&k.as_str())
+                || NULL_WITHOUT_EQUILIBRIUM.contains(&k.as_str()))
+                && v.is_null())
+                || all_numbers_finite(v)
         }),
         serde_json::Value::Array(a) => a.iter().all(all_numbers_finite),
         _ => true,
@@ -186,10 +194,16 @@ proptest! {
             .and_then(|c| c.with_pressure_dbar(p))
             .and_then(Water::saline)
             .and_then(|w| Ok(w.with_composition(Composition::default().with_phosphate(Amount::PerKg(po4 * 1e-6))?)))
-            .and_then(|w| w.solve(make(ia, va)?, make(ib, vb)?));
+            .and_then(|w| w.solve(make(ia, va)?, make(ib, vb)?))
+            // The exchange with the air too, in a 6 m/s wind.
+            .and_then(|s| s.with_exchange(&Air::new().with_wind_m_s(6.0)?, None));
         if let Ok(state) = result {
             let json = serde_json::to_value(&state).unwrap();
             prop_assert!(all_numbers_finite(&json), "non-finite output: {json}");
+            let e = state.exchange.unwrap();
+            let noted = state.warnings.iter().any(|w| w.code() == "equilibrium_not_computed");
+            prop_assert_eq!(e.equilibrium_ph.is_none(), noted, "{}", json);
+            prop_assert!(e.equilibrium_ph.map_or(true, f64::is_finite) && e.equilibrium_free_co2_mg_l.map_or(true, f64::is_finite));
         }
     }
 }

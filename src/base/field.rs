@@ -69,8 +69,8 @@ fields! {
     SpecificConductance => "specific_conductance",
     /// Gauge pressure, dbar.
     Pressure => "pressure_dbar",
-    /// Air pressure over the water, atm.
-    AirPressure => "air_pressure_atm",
+    /// Barometric pressure: the total pressure of the air over the water.
+    Barometric => "barometric_pressure",
     /// Total phosphate.
     Phosphate => "phosphate",
     /// Total silicate.
@@ -155,6 +155,19 @@ fields! {
     // issue 11: toxic fractions and flags
     /// A profile of quality-flag limits (`--profile`).
     Profile => "profile",
+    // issue 11: air–water CO2 exchange
+    /// Wind speed at 10 m, m/s.
+    Wind => "wind_speed",
+    /// CO2 in the air, dry mole fraction, ppm.
+    AirCo2 => "air_co2",
+    /// Elevation of the water surface above sea level, m.
+    Elevation => "elevation",
+    /// Area of the lake, km².
+    LakeArea => "lake_area",
+    /// Gas transfer velocity normalised to a Schmidt number of 600.
+    K600 => "k600",
+    /// The model of the gas transfer velocity.
+    GasTransfer => "gas_transfer",
 }
 
 impl fmt::Display for Field {

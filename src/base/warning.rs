@@ -262,6 +262,13 @@ const NOTE_CODES: &[&str] = &[
     "blend_calcium_unknown",
     // issue 11: depth profiles
     "fresh_pressure_effect_small",
+    // issue 11: air–water CO2 exchange
+    "barometric_from_elevation",
+    "barometric_default",
+    "air_co2_default",
+    "transfer_velocity_not_given",
+    "exchange_below_surface",
+    "equilibrium_not_computed",
 ];
 
 impl Warning {
@@ -390,10 +397,11 @@ mod tests {
     /// source (`code: "..."`) are each used for one caution only.
     #[test]
     fn codes_are_snake_case_and_each_names_one_caution() {
+        // Digits as in the output keys (`air_co2_default`), never first.
         let snake = |c: &str| {
-            !c.is_empty()
-                && c.chars().all(|ch| ch.is_ascii_lowercase() || ch == '_')
-                && !c.starts_with('_')
+            c.starts_with(|ch: char| ch.is_ascii_lowercase())
+                && c.chars()
+                    .all(|ch| ch.is_ascii_lowercase() || ch.is_ascii_digit() || ch == '_')
                 && !c.ends_with('_')
         };
         let fixed = [

@@ -41,6 +41,7 @@ pub mod pressure;
 pub mod sulfate;
 pub mod sulfide;
 pub mod thermodynamic;
+pub mod transfer;
 
 pub use crate::base::range::FitRange;
 pub use boron::BoronTotalFit;
@@ -49,3 +50,4 @@ pub use choice::{Fits, FitsUsed};
 pub use fluoride::FluorideFit;
 pub use names::FitName;
 pub use sulfate::BisulfateFit;
+pub use transfer::GasTransfer;

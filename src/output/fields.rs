@@ -34,7 +34,7 @@
 use super::digits::Digits;
 use crate::base::units::{CO3_G_MOL, HCO3_G_MOL};
 use crate::sample::water::Medium;
-use crate::state::State;
+use crate::state::{Exchange, State};
 use serde::{Serialize, Serializer};
 
 /// The value of one output in a state: a number, a missing number, or a
@@ -106,6 +106,9 @@ pub enum Section {
     // issue 11: toxic fractions
     /// The un-ionised (toxic) forms of ammonia and sulfide.
     ToxicFractions,
+    // issue 11: air–water CO2 exchange
+    /// The exchange of CO2 with the air (shown where it was computed).
+    Exchange,
 }
 
 /// The title printed above the section.
@@ -133,6 +136,7 @@ impl Section {
         Section::Medium,
         // issue 11: toxic fractions
         Section::ToxicFractions,
+        Section::Exchange,
         Section::Fits,
     ];
 
@@ -154,6 +158,7 @@ impl Section {
             Section::Medium => "Medium",
             Section::Fits => "Constants",
             Section::ToxicFractions => "Toxic fractions",
+            Section::Exchange => "Exchange with the air",
         }
     }
 }
@@ -233,6 +238,11 @@ enum Kind {
     // issue 11: toxic fractions
     /// A fraction of a total, 0 to 1.
     Fraction,
+    // issue 11: air–water CO2 exchange
+    /// A gas transfer velocity, cm/h.
+    TransferVelocity,
+    /// A flux across the water surface, mmol m⁻² d⁻¹.
+    Flux,
 }
 
 impl Kind {
@@ -253,6 +263,9 @@ impl Kind {
     ///   density 2 decimals;
     /// - a fraction of a total (the un-ionised ammonia): 3 significant
     ///   figures, as the mg/L it multiplies.
+    /// - a transfer velocity (cm/h) and a CO2 flux (mmol m⁻² d⁻¹): 3
+    ///   significant figures (the models scatter by tens of percent; the
+    ///   Schmidt number and the saturation ratio are factors, 3 too).
     fn digits(self) -> Option<Digits> {
         use Digits::{Decimals, Significant};
         Some(match self {
@@ -272,6 +285,8 @@ impl Kind {
             Kind::Density => Decimals(2),
             Kind::Name => return None,
             Kind::Fraction => Significant(3),
+            Kind::TransferVelocity => Significant(3),
+            Kind::Flux => Significant(3),
         })
     }
 }
@@ -282,6 +297,11 @@ fn n(v: f64) -> Value {
 
 fn o(v: Option<f64>) -> Value {
     Value::Number(v)
+}
+
+/// A figure of the exchange with the air, where it was computed.
+fn ex(s: &State, figure: impl Fn(&Exchange) -> Option<f64>) -> Value {
+    Value::Number(s.exchange.as_ref().and_then(figure))
 }
 
 /// µmol/kg to mg/L of a species of molar mass `g_mol`, with the density of the state.
@@ -550,6 +570,29 @@ outputs! {
         ToxicFractions, [Row, Row], |s| o(s.h2s_fraction);
     H2sMgL => "h2s_mg_l", "hydrogen sulfide H2S", "mg/L", MassConcentration,
         ToxicFractions, [Row, Row], |s| o(s.h2s_mg_l);
+    // issue 11: air–water CO2 exchange (null unless computed: see State::with_exchange)
+    AirPco2 => "air_pco2_uatm", "pCO2 of the air", "µatm", Amount,
+        Exchange, [Row, Row], |s| ex(s, |e| Some(e.air_pco2_uatm));
+    Co2SaturationRatio => "co2_saturation_ratio", "CO2 saturation (water/air pCO2)", "", Factor,
+        Exchange, [Row, Row], |s| ex(s, |e| Some(e.co2_saturation_ratio));
+    EquilibriumPh => "equilibrium_ph", "pH at equilibrium with the air", "", Ph,
+        Exchange, [Row, Row], |s| ex(s, |e| e.equilibrium_ph);
+    EquilibriumPhScale => "equilibrium_ph_scale", "its pH scale", "", Name,
+        Exchange, [Row, Row],
+        |s| Value::Text(s.exchange.as_ref().map(|e| e.equilibrium_ph_scale.name()));
+    EquilibriumFreeCo2 => "equilibrium_free_co2_mg_l", "free CO2 at equilibrium with the air",
+        "mg/L", MassConcentration,
+        Exchange, [Row, Row], |s| ex(s, |e| e.equilibrium_free_co2_mg_l);
+    SchmidtNumber => "schmidt_number", "Schmidt number of CO2", "", Factor,
+        Exchange, [Row, Row], |s| ex(s, |e| Some(e.schmidt_number));
+    GasTransfer => "gas_transfer", "transfer velocity model", "", Name,
+        Exchange, [Row, Row], |s| Value::Text(s.exchange.as_ref().map(|e| e.gas_transfer.name()));
+    K600 => "k600_cm_h", "k600", "cm/h", TransferVelocity,
+        Exchange, [Row, Row], |s| ex(s, |e| e.k600_cm_h);
+    KCo2 => "k_cm_h", "transfer velocity of CO2, k", "cm/h", TransferVelocity,
+        Exchange, [Row, Row], |s| ex(s, |e| e.k_cm_h);
+    Co2Flux => "co2_flux_mmol_m2_d", "CO2 flux (+ out of the water)", "mmol/m2/d", Flux,
+        Exchange, [Row, Row], |s| ex(s, |e| e.co2_flux_mmol_m2_d);
 }
 
 impl Output {
@@ -617,6 +660,8 @@ mod tests {
         ("_percent", "%"),
         ("_dbar", "dbar"),
         ("_c", "°C"),
+        ("_cm_h", "cm/h"),
+        ("_mmol_m2_d", "mmol/m2/d"),
     ];
 
     #[test]
@@ -673,6 +718,8 @@ mod tests {
         ("kg/m3", Kind::Density),
         ("%", Kind::Percent),
         ("mol/kg", Kind::IonicStrength),
+        ("cm/h", Kind::TransferVelocity),
+        ("mmol/m2/d", Kind::Flux),
     ];
 
     #[test]

@@ -55,6 +55,8 @@ fn label_in(o: Output, medium: Medium) -> &'static str {
 fn rows(s: &State, key: &[Output]) -> Vec<(Section, Vec<(Output, &'static str)>)> {
     Section::ALL
         .iter()
+        // The exchange with the air is shown where it was computed.
+        .filter(|&&section| section != Section::Exchange || s.exchange.is_some())
         .filter_map(|&section| {
             let mut first = Vec::new();
             let mut rest = Vec::new();

@@ -3,6 +3,7 @@
 //! ionic strength.
 
 pub mod activity;
+pub mod atmosphere;
 pub mod conductivity;
 pub mod density;
 pub mod scales;

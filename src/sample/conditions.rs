@@ -12,6 +12,10 @@ pub const TEMPERATURE_MAX_C: f64 = 100.0;
 pub const SALINITY_MAX: f64 = 50.0;
 /// Highest accepted gauge pressure, dbar (a little beyond the deepest ocean).
 pub const PRESSURE_MAX_DBAR: f64 = 12_000.0;
+/// Accepted barometric pressure, atm: 0.4 atm (about 7000 m in the
+/// standard atmosphere, above the highest lakes) to 1.1 atm (above the
+/// highest sea-level pressure recorded, about 1.08 atm).
+pub const AIR_PRESSURE_RANGE_ATM: (f64, f64) = (0.4, 1.1);
 
 /// Temperature, salinity and pressure of a sample, validated once.
 ///
@@ -19,8 +23,9 @@ pub const PRESSURE_MAX_DBAR: f64 = 12_000.0;
 /// - `temperature_c`: °C (ITS-90);
 /// - `salinity`: practical salinity (PSS-78, dimensionless);
 /// - `pressure_dbar`: gauge (sea) pressure in dbar, 0 at the surface;
-/// - `air_pressure_atm`: total pressure of the air over the water, atm,
-///   used to turn a dry-air mole fraction into a partial pressure.
+/// - `air_pressure_atm`: total (barometric) pressure of the air over the
+///   water, atm, used to turn a dry-air mole fraction into a partial
+///   pressure; 1 atm unless stated.
 ///
 /// # Example
 /// ```
@@ -36,7 +41,8 @@ pub struct Conditions {
     temperature_c: f64,
     salinity: f64,
     pressure_dbar: f64,
-    air_pressure_atm: f64,
+    /// `None`: not stated, 1 atm.
+    air_pressure_atm: Option<f64>,
 }
 
 impl Conditions {
@@ -58,7 +64,7 @@ impl Conditions {
             temperature_c,
             salinity,
             pressure_dbar: 0.0,
-            air_pressure_atm: 1.0,
+            air_pressure_atm: None,
         }
         .with_temperature_c(temperature_c)
     }
@@ -111,11 +117,13 @@ impl Conditions {
         Ok(self)
     }
 
-    /// The same conditions under another total air pressure (atm), for
-    /// example at altitude. Only the conversion between xCO2 and pCO2 uses it.
+    /// The same conditions under another total (barometric) air pressure
+    /// (atm), for example at altitude. It converts between xCO2 and pCO2,
+    /// and gives the air's pCO2 for the exchange with the air.
     ///
     /// # Errors
-    /// [`crate::Error::OutOfRange`] outside 0.5 to 1.1 atm.
+    /// [`crate::Error::OutOfRange`] outside 0.4 to 1.1 atm
+    /// ([`AIR_PRESSURE_RANGE_ATM`]).
     ///
     /// # Example
     /// ```
@@ -125,8 +133,9 @@ impl Conditions {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_air_pressure_atm(mut self, air_pressure_atm: f64) -> Result<Self> {
-        check_range(Field::AirPressure, air_pressure_atm, 0.5, 1.1, " atm")?;
-        self.air_pressure_atm = air_pressure_atm;
+        let (min, max) = AIR_PRESSURE_RANGE_ATM;
+        check_range(Field::Barometric, air_pressure_atm, min, max, " atm")?;
+        self.air_pressure_atm = Some(air_pressure_atm);
         Ok(self)
     }
 
@@ -185,7 +194,7 @@ impl Conditions {
         self.pressure_dbar / 10.0
     }
 
-    /// Total air pressure over the water, atm.
+    /// Total air pressure over the water, atm (1 unless stated).
     ///
     /// ```
     /// # use travertine::Conditions;
@@ -193,6 +202,20 @@ impl Conditions {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn air_pressure_atm(&self) -> f64 {
-        self.air_pressure_atm
+        self.air_pressure_atm.unwrap_or(1.0)
+    }
+
+    /// Whether the air pressure was stated ([`Conditions::with_air_pressure_atm`])
+    /// rather than taken as 1 atm.
+    ///
+    /// ```
+    /// # use travertine::Conditions;
+    /// let c = Conditions::new(12.0, 0.1)?;
+    /// assert!(!c.air_pressure_stated());
+    /// assert!(c.with_air_pressure_atm(1.0)?.air_pressure_stated());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn air_pressure_stated(&self) -> bool {
+        self.air_pressure_atm.is_some()
     }
 }

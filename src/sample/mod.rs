@@ -2,6 +2,7 @@
 //! parameters with the rules for a valid pair, and the [`Water`] they make.
 //! [`Sample`] takes the same in trade units.
 
+pub mod air;
 pub mod composition;
 pub mod conditions;
 pub mod inputs;
@@ -10,6 +11,7 @@ pub mod trade;
 pub mod values;
 pub mod water;
 
+pub use air::Air;
 pub use composition::{Composition, Totals};
 pub use conditions::Conditions;
 pub use measured::{Measured, Parameter};

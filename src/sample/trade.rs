@@ -6,7 +6,7 @@ use crate::base::error::{check_range, Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{list_units, Amount, Quantity, Unit, CACO3_G_MOL, MOLAR_UNITS};
 use crate::base::warning::{Warning, Warnings};
-use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit};
+use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit, GasTransfer};
 use crate::properties::activity::ActivityModel;
 use crate::properties::conductivity::{salinity_from_conductivity, specific_conductance_us_cm};
 use crate::properties::density::pressure_dbar_at_depth;
@@ -16,7 +16,7 @@ use crate::sample::inputs::{Input, Total};
 use crate::sample::measured::{check_pair, Measured, Parameter};
 use crate::sample::values::{Choice, Conductivity, InputValue, MediumChoice};
 use crate::sample::water::AUTO_FRESH_BELOW_SALINITY;
-use crate::sample::{Composition, Medium, Water};
+use crate::sample::{Air, Composition, Medium, Water};
 
 /// A measured carbonate value as given: a pH with the scale it names, or
 /// a number with its unit.
@@ -80,8 +80,8 @@ pub struct Sample {
     pub conductivity: Option<Conductivity>,
     /// Gauge pressure, dbar (default 0).
     pub pressure_dbar: Option<f64>,
-    /// Air pressure, atm (default 1).
-    pub air_pressure_atm: Option<f64>,
+    /// Barometric pressure, atm (default 1; or from the elevation).
+    pub barometric_atm: Option<f64>,
     /// The medium.
     pub medium: MediumChoice,
     /// The scale of a pH that names none.
@@ -110,6 +110,19 @@ pub struct Sample {
     /// Depth below the water surface, m: the pressure follows from it
     /// (not with [`Sample::pressure_dbar`]).
     pub depth_m: Option<f64>,
+    // issue 11: air–water CO2 exchange
+    /// Wind speed at 10 m, m/s.
+    pub wind_m_s: Option<f64>,
+    /// CO2 of the air, ppm (dry mole fraction).
+    pub air_co2_ppm: Option<f64>,
+    /// Elevation of the water surface, m above sea level.
+    pub elevation_m: Option<f64>,
+    /// Area of the lake, km².
+    pub lake_area_km2: Option<f64>,
+    /// Transfer velocity k600 given directly, cm/h.
+    pub k600_cm_h: Option<f64>,
+    /// The model of the transfer velocity.
+    pub gas_transfer: Option<GasTransfer>,
 }
 
 /// The amount of a total: by its molar unit, or by one of its mass units.
@@ -231,7 +244,12 @@ impl Sample {
             (Input::Salinity, InputValue::Number(v)) => self.salinity = Some(v),
             (Input::Conductivity, InputValue::Conductivity(c)) => self.conductivity = Some(c),
             (Input::Pressure, InputValue::Number(v)) => self.pressure_dbar = Some(v),
-            (Input::AirPressure, InputValue::Number(v)) => self.air_pressure_atm = Some(v),
+            (Input::Barometric, InputValue::Number(v)) => self.barometric_atm = Some(v),
+            (Input::Wind, InputValue::Number(v)) => self.wind_m_s = Some(v),
+            (Input::AirCo2, InputValue::Number(v)) => self.air_co2_ppm = Some(v),
+            (Input::Elevation, InputValue::Number(v)) => self.elevation_m = Some(v),
+            (Input::LakeArea, InputValue::Number(v)) => self.lake_area_km2 = Some(v),
+            (Input::K600, InputValue::Number(v)) => self.k600_cm_h = Some(v),
             (Input::Total(t), InputValue::Quantity(q)) => self.totals[t.index()] = Some(q),
             (Input::CalciumFraction, InputValue::Number(v)) => self.calcium_fraction = Some(v),
             (Input::Tds, InputValue::Number(v)) => self.tds_mg_l = Some(v),
@@ -245,6 +263,7 @@ impl Sample {
                 Choice::Fluoride(f) => self.fluoride_fit = Some(f),
                 Choice::Bisulfate(f) => self.bisulfate = Some(f),
                 Choice::Activity(m) => self.activity = Some(m),
+                Choice::GasTransfer(m) => self.gas_transfer = Some(m),
             },
             _ => {}
         }
@@ -273,7 +292,13 @@ impl Sample {
             Input::Salinity => number(self.salinity),
             Input::Conductivity => self.conductivity.map(InputValue::Conductivity),
             Input::Pressure => number(self.pressure_dbar),
-            Input::AirPressure => number(self.air_pressure_atm),
+            Input::Barometric => number(self.barometric_atm),
+            Input::Wind => number(self.wind_m_s),
+            Input::AirCo2 => number(self.air_co2_ppm),
+            Input::Elevation => number(self.elevation_m),
+            Input::LakeArea => number(self.lake_area_km2),
+            Input::K600 => number(self.k600_cm_h),
+            Input::GasTransfer => choice(self.gas_transfer.map(Choice::GasTransfer)),
             Input::Total(t) => self.total(t).map(InputValue::Quantity),
             Input::CalciumFraction => number(self.calcium_fraction),
             Input::Tds => number(self.tds_mg_l),
@@ -442,6 +467,102 @@ impl Sample {
         Ok((ma, mb))
     }
 
+    /// The barometric pressure, atm: as given, or from the elevation by
+    /// the ICAO standard atmosphere (with a note giving it); `None` when
+    /// neither is given (1 atm).
+    ///
+    /// # Errors
+    /// [`Error::IncompatiblePair`] when both are given;
+    /// [`Error::OutOfRange`] for an elevation outside −500 to 7000 m.
+    fn air_pressure_atm(&self, cautions: &mut Warnings) -> Result<Option<f64>> {
+        use crate::properties::atmosphere::{
+            standard_pressure_kpa, ELEVATION_MAX_M, ELEVATION_MIN_M, KPA_PER_ATM,
+        };
+        match (self.barometric_atm, self.elevation_m) {
+            (Some(_), Some(_)) => Err(Error::IncompatiblePair {
+                first: Field::Barometric,
+                second: Field::Elevation,
+                reason: "each gives the barometric pressure; give one (a barometer reading is \
+                         better than the standard atmosphere of an elevation)",
+            }),
+            (Some(p), None) => Ok(Some(p)),
+            (None, Some(h)) => {
+                check_range(Field::Elevation, h, ELEVATION_MIN_M, ELEVATION_MAX_M, " m")?;
+                let kpa = standard_pressure_kpa(h);
+                cautions.push(Warning::Text {
+                    code: "barometric_from_elevation",
+                    text: format!(
+                        "barometric pressure {kpa:.2} kPa from the elevation {h} m by the ICAO \
+                         standard atmosphere; the weather moves it by a few percent, so a \
+                         barometer reading is better"
+                    ),
+                });
+                Ok(Some(kpa / KPA_PER_ATM))
+            }
+            (None, None) => Ok(None),
+        }
+    }
+
+    /// The air side of the exchange of CO2: wind, CO2 of the air, lake
+    /// area, k600 and model, each checked against its range, and checked
+    /// together ([`Air::check`]). The barometric pressure is in the water
+    /// ([`Sample::water`]).
+    ///
+    /// # Errors
+    /// As the builders of [`Air`] and [`Air::check`].
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, Sample};
+    /// let mut s = Sample::new(18.0);
+    /// s.set(Input::Wind, "3.5")?;
+    /// s.set(Input::LakeArea, "240 ha")?;
+    /// let air = s.air()?;
+    /// assert_eq!(air.wind_m_s(), Some(3.5));
+    /// assert!((air.lake_area_km2().unwrap() - 2.4).abs() < 1e-12);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn air(&self) -> Result<Air> {
+        let mut air = Air::new();
+        if let Some(v) = self.wind_m_s {
+            air = air.with_wind_m_s(v)?;
+        }
+        if let Some(v) = self.air_co2_ppm {
+            air = air.with_co2_ppm(v)?;
+        }
+        if let Some(v) = self.lake_area_km2 {
+            air = air.with_lake_area_km2(v)?;
+        }
+        if let Some(v) = self.k600_cm_h {
+            air = air.with_k600_cm_h(v)?;
+        }
+        if let Some(m) = self.gas_transfer {
+            air = air.with_model(m);
+        }
+        air.check()?;
+        Ok(air)
+    }
+
+    /// The scale of the pH given, where a pH is given: the scale its value
+    /// names, else [`Sample::ph_scale`]; `None` without a pH or without a
+    /// scale (the medium's own then).
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, Sample};
+    /// use travertine::{Parameter, PhScale};
+    /// let mut s = Sample::new(18.0);
+    /// assert_eq!(s.ph_scale_given(), None);
+    /// s.set(Input::Carbon(Parameter::Ph), "7.9")?;
+    /// s.set(Input::PhScale, "total")?;
+    /// assert_eq!(s.ph_scale_given(), Some(PhScale::Total));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn ph_scale_given(&self) -> Option<PhScale> {
+        match self.carbon_value(Parameter::Ph) {
+            Some(CarbonValue::Ph(_, scale)) => scale.or(self.ph_scale),
+            _ => None,
+        }
+    }
+
     /// The validated water.
     ///
     /// Salinity: as given; otherwise from the conductivity by PSS-78 (Hill
@@ -455,12 +576,15 @@ impl Sample {
     /// A salinity given with a conductivity is used, and a warning raised
     /// where the two disagree by more than 2 %. A depth becomes the
     /// pressure through the density of the water
-    /// ([`pressure_dbar_at_depth`]: P = ρ g z).
+    /// ([`pressure_dbar_at_depth`]: P = ρ g z). The barometric pressure is
+    /// as given, or from the elevation by the ICAO standard atmosphere
+    /// (a note gives it), or 1 atm.
     ///
     /// # Errors
     /// Any validation error of the parts, naming the field; a saline-only
     /// fit chosen for fresh water, or an activity model for saline water;
-    /// [`Error::IncompatiblePair`] for a depth given with a pressure.
+    /// [`Error::IncompatiblePair`] for a depth given with a pressure, or a
+    /// barometric pressure and an elevation both given.
     ///
     /// ```
     /// # use travertine::{sample::{MediumChoice, Sample}, fits::CarbonicFit};
@@ -565,7 +689,7 @@ impl Sample {
             (None, p) => p.unwrap_or(0.0),
         };
         let mut conditions = conditions.with_pressure_dbar(pressure_dbar)?;
-        if let Some(p) = self.air_pressure_atm {
+        if let Some(p) = self.air_pressure_atm(&mut cautions)? {
             conditions = conditions.with_air_pressure_atm(p)?;
         }
         let water = match self.medium {

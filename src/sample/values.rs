@@ -4,7 +4,7 @@
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{Quantity, Unit};
-use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit};
+use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, FluorideFit, GasTransfer};
 use crate::properties::activity::ActivityModel;
 use crate::properties::scales::PhScale;
 
@@ -168,6 +168,9 @@ pub enum Choice {
     Bisulfate(BisulfateFit),
     /// Activity model.
     Activity(ActivityModel),
+    // issue 11: air–water CO2 exchange
+    /// The model of the gas transfer velocity.
+    GasTransfer(GasTransfer),
 }
 
 /// The name, as `FromStr` of its kind reads it.
@@ -186,6 +189,7 @@ impl std::fmt::Display for Choice {
             Choice::Fluoride(x) => x.fmt(f),
             Choice::Bisulfate(x) => x.fmt(f),
             Choice::Activity(a) => a.fmt(f),
+            Choice::GasTransfer(g) => g.fmt(f),
         }
     }
 }
@@ -218,7 +222,8 @@ impl std::fmt::Display for InputValue {
 #[non_exhaustive]
 pub enum InputValue {
     /// In the input's base unit (°C, practical salinity, dbar, atm, mg/L,
-    /// mol/kg, fraction).
+    /// mol/kg, fraction; for the exchange with the air m/s, ppm, m, km²,
+    /// cm/h).
     Number(f64),
     /// A number with its unit.
     Quantity(Quantity),

@@ -8,7 +8,7 @@ use super::header::{self, Column, Reading, Recognition};
 use super::pair::{choose_pair, rank, RANKING};
 use super::{SheetError, SheetOptions};
 use crate::base::error::PH_SCALE_ADVICE;
-use crate::output::{Output, Precision};
+use crate::output::{Output, Precision, Section};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::Parameter;
@@ -20,6 +20,20 @@ use crate::solve::SolveOptions;
 pub(crate) const STATE_THE_SCALE: &str = "in a sheet, name the scale in the pH header (for \
      example `pH (NBS)` or `ph_total`), or give it for every row with --ph-scale NAME or --set \
      ph_scale=NAME";
+
+/// The inputs of the exchange with the air alone (the barometric pressure
+/// and the elevation belong to the water: they convert xCO2 too).
+const EXCHANGE_INPUTS: [Input; 5] = [
+    Input::Wind,
+    Input::AirCo2,
+    Input::LakeArea,
+    Input::K600,
+    Input::GasTransfer,
+];
+
+/// The exchange columns added to the default set when an input of the
+/// exchange is given.
+const EXCHANGE_DEFAULTS: [Output; 3] = [Output::Co2SaturationRatio, Output::K600, Output::Co2Flux];
 
 /// A recognised column of the sheet.
 #[derive(Debug, Clone)]
@@ -79,6 +93,10 @@ pub(crate) struct Plan {
     pub passed: Vec<String>,
     /// Notes on header units read only approximately as written.
     pub unit_notes: Vec<String>,
+    // issue 11: air–water CO2 exchange
+    /// Whether each row's exchange with the air is computed (a second
+    /// solve): when a column of it is asked for.
+    pub exchange: bool,
 }
 
 impl Plan {
@@ -290,10 +308,37 @@ impl Plan {
             .map(|p| Residual { parameter: *p })
             .collect();
 
-        let (computed, flags) = match &options.columns {
+        let (mut computed, flags) = match &options.columns {
             Some(spec) => parse_columns(spec, options.units)?,
             None => (Output::defaults(options.units).to_vec(), true),
         };
+        // The exchange with the air: computed when a column of it is asked
+        // for. Its inputs given (a wind column, --set air_co2_ppm=...) add
+        // its key columns to the default set; with columns chosen by hand
+        // that have none of them, the inputs are not used, and a note says
+        // so.
+        let exchange_inputs: Vec<String> = labels
+            .iter()
+            .filter(|(f, _)| EXCHANGE_INPUTS.contains(f))
+            .map(|(_, l)| match l {
+                Label::Column(j) => format!("column `{}`", read[*j].header),
+                Label::Set(spec) => format!("--set {spec}"),
+            })
+            .collect();
+        let wants_exchange = |c: &[Output]| c.iter().any(|o| o.section() == Section::Exchange);
+        if !exchange_inputs.is_empty() && !wants_exchange(&computed) {
+            if options.columns.is_none() {
+                computed.extend(EXCHANGE_DEFAULTS);
+            } else {
+                unit_notes.push(format!(
+                    "{} not used: no column of the exchange with the air is asked for (add, for \
+                     example, {} to --columns)",
+                    exchange_inputs.join(", "),
+                    EXCHANGE_DEFAULTS.map(Output::key).join(",")
+                ));
+            }
+        }
+        let exchange = wants_exchange(&computed);
 
         // Added names, never equal to an input header.
         let taken = |name: &str, added: &[String]| {
@@ -357,6 +402,7 @@ impl Plan {
             warm_check,
             passed,
             unit_notes,
+            exchange,
         })
     }
 }

@@ -482,7 +482,14 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
             }
         }
     }
-    let result = s.prepared.as_ref()?.solve_with(ma, mb, &plan.options);
+    let prepared = s.prepared.as_ref()?;
+    let mut result = prepared.solve_with(ma, mb, &plan.options);
+    if plan.exchange {
+        result = result.and_then(|state| {
+            let air = inputs.air()?;
+            prepared.with_exchange(state, &air, inputs.ph_scale_given())
+        });
+    }
     let state = match result {
         Ok(state) => state,
         Err(e) => {

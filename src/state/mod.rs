@@ -11,7 +11,10 @@ use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::{Medium, Water};
 use crate::speciation::alkalinity::parts_with_slopes;
 
+pub mod exchange;
 mod fresh_figures;
+
+pub use exchange::Exchange;
 
 /// The fresh-water results computed beside the carbonate state.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -213,6 +216,14 @@ pub struct State {
     /// that a judgement on how it was measured (the organic-acid bias of
     /// pCO2 from pH and alkalinity) follows it.
     pub computed_from: [Parameter; 2],
+    // issue 11: air–water CO2 exchange
+    /// The exchange of CO2 with the air: the air's pCO2, the saturation
+    /// ratio, the transfer velocity, the flux and the water at equilibrium
+    /// with the air. `None` unless asked for with [`State::with_exchange`]
+    /// (the command line always asks; a sheet asks when it has an
+    /// exchange column or input).
+    pub exchange: Option<Exchange>,
+    gas: exchange::GasTerms,
 }
 
 impl State {
@@ -280,6 +291,11 @@ impl State {
             Parameter::Hco3 => Measured::hco3_umol_kg(self.hco3_umol_kg),
             Parameter::Co3 => Measured::co3_umol_kg(self.co3_umol_kg),
         }
+    }
+
+    /// The gas constants this state was solved with.
+    pub(crate) fn gas_terms(&self) -> exchange::GasTerms {
+        self.gas
     }
 
     /// The water this state was solved for.
@@ -433,6 +449,12 @@ impl State {
             h2s_fraction: sulfide.map(|(f, _)| f),
             h2s_mg_l: sulfide.map(|(_, c)| c * rho * H2S_G_MOL),
             computed_from: [a.parameter(), b.parameter()],
+            exchange: None,
+            gas: exchange::GasTerms {
+                k0: k.k0(),
+                fugacity_factor: k.fugacity_factor(),
+                vapour_pressure_atm: k.vapour_pressure_atm(),
+            },
         })
     }
 }

@@ -246,13 +246,15 @@ pub const INPUTS: &[InputSpec] = &[
         ]
     ),
     spec!(
-        Input::AirPressure,
-        "air-pressure",
-        "air_pressure_atm",
-        "Total air pressure over the water, atm (for xCO2; default 1)",
+        Input::Barometric,
+        "barometric",
+        "barometric_kpa",
+        "Barometric pressure over the water, with a unit: kPa, hPa, atm or mmHg (default 1 atm; \
+         or give --elevation). Converts xCO2 to pCO2, and gives the air's pCO2 for the exchange",
         [
-            ("air pressure", Plain),
+            ("barometric", Short),
             ("barometric pressure", Plain),
+            ("air pressure", Plain),
             ("atmospheric pressure", Plain)
         ]
     ),
@@ -375,5 +377,72 @@ pub const INPUTS: &[InputSpec] = &[
             ("sampling depth", Plain),
             ("depth below surface", Plain)
         ]
+    ),
+    // issue 11: air–water CO2 exchange
+    spec!(
+        Input::Wind,
+        "wind",
+        "wind_m_s",
+        "Wind speed at 10 m above the water, m/s (or km/h): the transfer velocity and the CO2 \
+         flux",
+        [
+            ("wind", Short),
+            ("wind speed", Short),
+            ("wind speed at 10 m", Short),
+            ("u10", Short)
+        ]
+    ),
+    spec!(
+        Input::AirCo2,
+        "air-co2",
+        "air_co2_ppm",
+        "CO2 in the air, dry mole fraction, ppm (default 419.3 ppm, the global mean of 2023, \
+         with a note)",
+        [
+            ("air co2", Short),
+            ("atmospheric co2", Short),
+            ("co2 in air", Short),
+            ("air xco2", Short)
+        ]
+    ),
+    spec!(
+        Input::Elevation,
+        "elevation",
+        "elevation_m",
+        "Elevation of the water surface, m above sea level: the barometric pressure from the \
+         ICAO standard atmosphere (instead of --barometric)",
+        [
+            ("elevation", Short),
+            ("altitude", Short),
+            ("lake elevation", Short)
+        ]
+    ),
+    spec!(
+        Input::LakeArea,
+        "lake-area",
+        "lake_area_km2",
+        "Surface area of the lake, with a unit: km2 or ha (for the vachon-prairie2013 model)",
+        [
+            ("lake area", Plain),
+            ("surface area", Plain),
+            ("lake surface area", Plain)
+        ]
+    ),
+    spec!(
+        Input::K600,
+        "k600",
+        "k600_cm_h",
+        "Gas transfer velocity at Schmidt number 600 given directly, with a unit: cm/h or m/d \
+         (rivers, tracer or chamber studies)",
+        [("k600", Plain)]
+    ),
+    spec!(
+        Input::GasTransfer,
+        "gas-transfer",
+        "gas_transfer",
+        "Model of the transfer velocity: cole-caraco1998 (default in fresh water), \
+         vachon-prairie2013 (default in fresh water with a lake area), wanninkhof2014 (default in \
+         saline water), given (with --k600)",
+        [("gas transfer", Plain), ("gas transfer model", Plain)]
     ),
 ];

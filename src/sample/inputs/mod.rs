@@ -10,9 +10,10 @@
 //! into a flag or a column, in this one place. Adding an input means adding
 //! one row here and one slot in `Sample`.
 
-use crate::base::error::{Error, Result};
+use crate::base::error::{check_range, Error, NumberSlip, Result};
 use crate::base::field::Field;
-use crate::base::units::{list_units, Quantity, Unit, MOLAR_UNITS};
+use crate::base::units::{list_units, number_len, Quantity, Unit, MOLAR_UNITS};
+use crate::properties::atmosphere::{ELEVATION_MAX_M, ELEVATION_MIN_M, KPA_PER_ATM};
 use crate::properties::scales::PhScale;
 use crate::sample::measured::Parameter;
 use crate::sample::values::{Choice, Conductivity, InputValue};
@@ -207,8 +208,9 @@ pub enum Input {
     Conductivity,
     /// Gauge pressure, dbar.
     Pressure,
-    /// Air pressure over the water, atm.
-    AirPressure,
+    /// Barometric pressure: the total pressure of the air over the water
+    /// (base unit atm).
+    Barometric,
     /// A measured total.
     Total(Total),
     /// Fraction of the total hardness that is calcium.
@@ -235,6 +237,19 @@ pub enum Input {
     /// Depth below the water surface, m: becomes the pressure (see
     /// [`crate::properties::density::pressure_dbar_at_depth`]).
     Depth,
+    // issue 11: air–water CO2 exchange
+    /// Wind speed at 10 m, m/s.
+    Wind,
+    /// CO2 in the air, dry mole fraction, ppm.
+    AirCo2,
+    /// Elevation of the water surface above sea level, m.
+    Elevation,
+    /// Surface area of the lake, km².
+    LakeArea,
+    /// A gas transfer velocity k600 given directly, cm/h.
+    K600,
+    /// The model of the gas transfer velocity.
+    GasTransfer,
 }
 
 /// A pH, with the scale it names after the number, if any: `7.92`,
@@ -258,6 +273,81 @@ fn read_ph(text: &str) -> Result<InputValue> {
         other => other,
     })?;
     Ok(InputValue::Ph(v, scale))
+}
+
+/// A unit a number of an input may be written in, beside the input's base
+/// unit: how it is written in messages, the spellings it is read from and
+/// how many base units one of it makes.
+///
+/// ```
+/// use travertine::sample::inputs::Input;
+/// let kpa = Input::Barometric.number_units().iter().find(|u| u.label == "kPa").unwrap();
+/// assert!((kpa.to_base - 1.0 / 101.325).abs() < 1e-15); // to atm
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub struct NumberUnit {
+    /// The unit as written in messages.
+    pub label: &'static str,
+    /// Its spellings, normalised (lower case, one space between words,
+    /// `µ` as `u`), the label's own included.
+    pub spellings: &'static [&'static str],
+    /// Base units per one of this unit.
+    pub to_base: f64,
+}
+
+const fn unit(label: &'static str, spellings: &'static [&'static str], to_base: f64) -> NumberUnit {
+    NumberUnit {
+        label,
+        spellings,
+        to_base,
+    }
+}
+
+/// The units of the barometric pressure (base unit atm).
+const BAROMETRIC_UNITS: &[NumberUnit] = &[
+    unit("kPa", &["kpa"], 1.0 / KPA_PER_ATM),
+    unit("hPa", &["hpa", "mbar", "mb"], 0.1 / KPA_PER_ATM),
+    unit("atm", &["atm"], 1.0),
+    unit("mmHg", &["mmhg", "mm hg", "torr"], 1.0 / 760.0),
+];
+/// The units of the wind speed (base unit m/s).
+const WIND_UNITS: &[NumberUnit] = &[
+    unit("m/s", &["m/s", "m s", "m s-1", "ms-1", "mps"], 1.0),
+    unit("km/h", &["km/h", "km h", "kmh", "kph", "km/hr"], 1.0 / 3.6),
+];
+/// The units of CO2 in air (base unit ppm, µmol/mol of dry air).
+const AIR_CO2_UNITS: &[NumberUnit] = &[unit("ppm", &["ppm", "ppmv", "umol/mol"], 1.0)];
+/// The units of an elevation (base unit m).
+const ELEVATION_UNITS: &[NumberUnit] = &[
+    unit(
+        "m",
+        &["m", "metres", "meters", "m asl", "masl", "m a.s.l."],
+        1.0,
+    ),
+    unit("ft", &["ft", "feet", "ft asl"], 0.3048),
+];
+/// The units of a lake area (base unit km²).
+const AREA_UNITS: &[NumberUnit] = &[
+    unit("km2", &["km2", "km²", "km^2", "sq km"], 1.0),
+    unit("ha", &["ha", "hectare", "hectares"], 0.01),
+];
+/// The units of a transfer velocity (base unit cm/h).
+const VELOCITY_UNITS: &[NumberUnit] = &[
+    unit("cm/h", &["cm/h", "cm h", "cm/hr", "cm hr", "cm h-1"], 1.0),
+    unit(
+        "m/d",
+        &["m/d", "m d", "m/day", "m day", "m d-1"],
+        100.0 / 24.0,
+    ),
+];
+
+/// A unit text as the spellings of [`NumberUnit`] are written: trimmed,
+/// lower case, `µ` as `u`, no space around `/`, single spaces.
+fn unit_text(text: &str) -> String {
+    let lower = text.trim().to_lowercase().replace(['µ', 'μ'], "u");
+    let words: Vec<&str> = lower.split_whitespace().collect();
+    words.join(" ").replace(" /", "/").replace("/ ", "/")
 }
 
 /// How the spelling of a header reads.
@@ -324,7 +414,7 @@ impl Input {
     ///
     /// ```
     /// # use travertine::{base::field::Field, sample::inputs::Input};
-    /// assert_eq!(Input::AirPressure.field(), Field::AirPressure);
+    /// assert_eq!(Input::Barometric.field(), Field::Barometric);
     /// ```
     pub fn field(self) -> Field {
         match self {
@@ -333,7 +423,7 @@ impl Input {
             Input::Salinity => Field::Salinity,
             Input::Conductivity => Field::Conductivity,
             Input::Pressure => Field::Pressure,
-            Input::AirPressure => Field::AirPressure,
+            Input::Barometric => Field::Barometric,
             Input::Total(t) => t.field(),
             Input::CalciumFraction => Field::CalciumFraction,
             Input::Tds => Field::Tds,
@@ -346,6 +436,12 @@ impl Input {
             Input::BisulfateFit => Field::BisulfateFit,
             Input::Activity => Field::Activity,
             Input::Depth => Field::Depth,
+            Input::Wind => Field::Wind,
+            Input::AirCo2 => Field::AirCo2,
+            Input::Elevation => Field::Elevation,
+            Input::LakeArea => Field::LakeArea,
+            Input::K600 => Field::K600,
+            Input::GasTransfer => Field::GasTransfer,
         }
     }
 
@@ -370,7 +466,7 @@ impl Input {
             Input::Carbon(p) => p.name(),
             Input::Temperature => "temperature",
             Input::Pressure => "pressure",
-            Input::AirPressure => "air pressure",
+            Input::Barometric => "barometric pressure",
             Input::CalciumFraction => "calcium fraction",
             Input::IonicStrength => "ionic strength",
             Input::PhScale => "ph scale",
@@ -380,6 +476,10 @@ impl Input {
             Input::BisulfateFit => "bisulfate fit",
             Input::Activity => "activity model",
             Input::Depth => "depth",
+            Input::Wind => "wind speed",
+            Input::AirCo2 => "air CO2",
+            Input::LakeArea => "lake area",
+            Input::GasTransfer => "gas transfer model",
             other => other.field().name(),
         }
     }
@@ -395,7 +495,143 @@ impl Input {
                 | Input::FluorideFit
                 | Input::BisulfateFit
                 | Input::Activity
+                | Input::GasTransfer
         )
+    }
+
+    /// The units a number of this input may be written in (empty for an
+    /// input read otherwise: a quantity, a conductivity, a name, or a
+    /// number in one unit only).
+    ///
+    /// ```
+    /// # use travertine::sample::inputs::Input;
+    /// let labels: Vec<&str> = Input::K600.number_units().iter().map(|u| u.label).collect();
+    /// assert_eq!(labels, ["cm/h", "m/d"]);
+    /// ```
+    pub fn number_units(self) -> &'static [NumberUnit] {
+        match self {
+            Input::Barometric => BAROMETRIC_UNITS,
+            Input::Wind => WIND_UNITS,
+            Input::AirCo2 => AIR_CO2_UNITS,
+            Input::Elevation => ELEVATION_UNITS,
+            Input::LakeArea => AREA_UNITS,
+            Input::K600 => VELOCITY_UNITS,
+            _ => &[],
+        }
+    }
+
+    /// Whether a number of this input must carry one of its
+    /// [`Input::number_units`]: where the units differ in kind (hPa and
+    /// kPa, km² and ha, cm/h and m/d) a bare number would be a guess.
+    /// Wind speed (m/s), CO2 in air (ppm) and elevation (m) read a bare
+    /// number in their base unit.
+    ///
+    /// ```
+    /// # use travertine::sample::inputs::Input;
+    /// assert!(Input::Barometric.unit_required());
+    /// assert!(!Input::Wind.unit_required());
+    /// ```
+    pub fn unit_required(self) -> bool {
+        matches!(self, Input::Barometric | Input::LakeArea | Input::K600)
+    }
+
+    /// The unit `text` names among [`Input::number_units`].
+    ///
+    /// ```
+    /// # use travertine::sample::inputs::Input;
+    /// assert_eq!(Input::LakeArea.number_unit("ha").map(|u| u.label), Some("ha"));
+    /// assert_eq!(Input::LakeArea.number_unit("acres"), None);
+    /// ```
+    pub fn number_unit(self, text: &str) -> Option<&'static NumberUnit> {
+        let t = unit_text(text);
+        self.number_units()
+            .iter()
+            .find(|u| u.spellings.contains(&t.as_str()))
+    }
+
+    /// The accepted range of a number of this input, in its base unit, with
+    /// that unit as errors write it; `None` where the number is checked
+    /// elsewhere (by [`crate::sample::Conditions`] and its peers).
+    fn number_range(self) -> Option<(f64, f64, &'static str)> {
+        use crate::sample::air;
+        let (lo, hi, u) = match self {
+            Input::Barometric => {
+                let (lo, hi) = crate::sample::conditions::AIR_PRESSURE_RANGE_ATM;
+                (lo, hi, " atm")
+            }
+            Input::Wind => (air::WIND_RANGE_M_S.0, air::WIND_RANGE_M_S.1, " m/s"),
+            Input::AirCo2 => (air::AIR_CO2_RANGE_PPM.0, air::AIR_CO2_RANGE_PPM.1, " ppm"),
+            Input::Elevation => (ELEVATION_MIN_M, ELEVATION_MAX_M, " m"),
+            Input::LakeArea => (
+                air::LAKE_AREA_RANGE_KM2.0,
+                air::LAKE_AREA_RANGE_KM2.1,
+                " km2",
+            ),
+            Input::K600 => (air::K600_RANGE_CM_H.0, air::K600_RANGE_CM_H.1, " cm/h"),
+            _ => return None,
+        };
+        Some((lo, hi, u))
+    }
+
+    /// Reads a number of an input with [`Input::number_units`]: a bare
+    /// number in the base unit where [`Input::unit_required`] allows it,
+    /// or a number with one of the units, turned into the base unit and
+    /// checked against the input's range (an error gives the value and
+    /// the range in the unit typed).
+    fn read_number(self, text: &str) -> Result<f64> {
+        let field = self.field();
+        let t = text.trim();
+        let n = number_len(t.as_bytes());
+        let rest = t[n..].trim();
+        let accepted = || {
+            self.number_units()
+                .iter()
+                .map(|u| u.label)
+                .collect::<Vec<_>>()
+                .join(", ")
+        };
+        if n == 0 || rest.is_empty() {
+            let value = crate::base::error::plain_number(field, text)?;
+            if self.unit_required() {
+                return Err(Error::MissingUnit {
+                    field,
+                    text: text.to_string(),
+                    accepted: accepted(),
+                });
+            }
+            return self.checked(value, value, "", 1.0);
+        }
+        if NumberSlip::find(t).is_some() {
+            return Err(Error::NotANumber {
+                field,
+                text: text.to_string(),
+                slip: NumberSlip::find(t),
+            });
+        }
+        let value = crate::base::error::plain_number(field, &t[..n])?;
+        let Some(u) = self.number_unit(rest) else {
+            return Err(Error::WrongUnit {
+                field,
+                unit: rest.to_string(),
+                accepted: accepted(),
+            });
+        };
+        self.checked(value * u.to_base, value, u.label, u.to_base)
+    }
+
+    /// `base` checked against [`Input::number_range`]; out of range, the
+    /// error gives `typed` in `label` (the base unit for an empty label).
+    fn checked(self, base: f64, typed: f64, label: &'static str, to_base: f64) -> Result<f64> {
+        let Some((lo, hi, unit)) = self.number_range() else {
+            return Ok(base);
+        };
+        check_range(self.field(), base, lo, hi, unit).map_err(|e| {
+            if label.is_empty() {
+                e
+            } else {
+                e.in_typed_unit(typed, label, to_base)
+            }
+        })
     }
 
     /// The units (or values) this input accepts, for messages.
@@ -424,7 +660,12 @@ impl Input {
                                     mS/cm@25C (specific conductance)"
                 .into(),
             Input::Pressure => "dbar, bar".into(),
-            Input::AirPressure => "atm, hPa, mbar, kPa, mmHg".into(),
+            Input::Barometric => "kPa, hPa (mbar), atm, mmHg; or give the elevation instead".into(),
+            Input::Wind => "m/s (a bare number), km/h".into(),
+            Input::AirCo2 => "ppm of dry air (a bare number)".into(),
+            Input::Elevation => "m above sea level (a bare number), ft".into(),
+            Input::LakeArea => "km2, ha".into(),
+            Input::K600 => "cm/h, m/d".into(),
             Input::Total(t) => {
                 format!("{}; ppm for mg/L in a sheet header", list_units(&t.units()))
             }
@@ -448,13 +689,19 @@ impl Input {
     pub fn write(self, value: &InputValue) -> String {
         match (self, value) {
             (Input::Tds, InputValue::Number(v)) => format!("{v} {}", Unit::MgPerL),
+            // Inputs whose numbers need a unit: in their base unit.
+            (Input::Barometric, InputValue::Number(v)) => format!("{v} atm"),
+            (Input::LakeArea, InputValue::Number(v)) => format!("{v} km2"),
+            (Input::K600, InputValue::Number(v)) => format!("{v} cm/h"),
             (_, v) => v.to_string(),
         }
     }
 
     /// Reads the text of a command-line value or a `--set` value: a plain
-    /// number in the input's base unit (°C, practical salinity, dbar, atm,
-    /// fraction, mol/kg, m), a number with a unit, or a name. A pH may
+    /// number in the input's base unit (°C, practical salinity, dbar,
+    /// fraction, mol/kg; m/s, ppm, m), a number with a unit (a barometric
+    /// pressure, a lake area and a k600 need theirs, and are turned into
+    /// atm, km² and cm/h; see [`Input::number_units`]), or a name. A pH may
     /// name its scale after the number (`7.92 nbs`, `8.05 (total)`).
     ///
     /// # Errors
@@ -487,10 +734,16 @@ impl Input {
             Input::FluorideFit => InputValue::Choice(Choice::Fluoride(text.parse()?)),
             Input::BisulfateFit => InputValue::Choice(Choice::Bisulfate(text.parse()?)),
             Input::Activity => InputValue::Choice(Choice::Activity(text.parse()?)),
+            Input::GasTransfer => InputValue::Choice(Choice::GasTransfer(text.parse()?)),
+            Input::Barometric
+            | Input::Wind
+            | Input::AirCo2
+            | Input::Elevation
+            | Input::LakeArea
+            | Input::K600 => InputValue::Number(self.read_number(text)?),
             Input::Temperature
             | Input::Salinity
             | Input::Pressure
-            | Input::AirPressure
             | Input::CalciumFraction
             | Input::IonicStrength
             | Input::Depth => InputValue::Number(number()?),

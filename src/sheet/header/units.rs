@@ -27,6 +27,21 @@ pub(super) fn is_unit_text(unit: &str) -> bool {
                 | "hpa"
                 | "mbar"
                 | "mmhg"
+                | "kpa"
+                | "atm"
+                | "m s"
+                | "m/s"
+                | "km h"
+                | "km/h"
+                | "ppmv"
+                | "ft"
+                | "km"
+                | "km2"
+                | "ha"
+                | "cm h"
+                | "cm/h"
+                | "m d"
+                | "m/d"
                 | "g/l"
                 | "%"
                 | "m"
@@ -168,19 +183,36 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
             }),
             _ => Err(unknown()),
         },
-        Input::AirPressure => {
-            let (scale, label) = match unit {
-                "" => return Err(missing()),
-                "atm" => (1.0, "atm"),
-                "hpa" | "mbar" => (1.0 / 1013.25, "hPa"),
-                "kpa" => (1.0 / 101.325, "kPa"),
-                "mmhg" => (1.0 / 760.0, "mmHg"),
-                _ => return Err(unknown()),
+        // The barometric pressure and the inputs of the exchange with the
+        // air: the units of the list of inputs. Where the header has none,
+        // the base unit where a bare number has one.
+        Input::Barometric
+        | Input::Wind
+        | Input::AirCo2
+        | Input::Elevation
+        | Input::LakeArea
+        | Input::K600 => {
+            // `km²` loses its `²` in a normalised header.
+            let unit = if field == Input::LakeArea && unit == "km" {
+                "km2"
+            } else {
+                unit
             };
+            if unit.is_empty() {
+                return match field.number_units().first() {
+                    Some(base) if !field.unit_required() => Ok(Reading::Number {
+                        scale: 1.0,
+                        offset: 0.0,
+                        label: base.label,
+                    }),
+                    _ => Err(missing()),
+                };
+            }
+            let u = field.number_unit(unit).ok_or_else(unknown)?;
             Ok(Reading::Number {
-                scale,
+                scale: u.to_base,
                 offset: 0.0,
-                label,
+                label: u.label,
             })
         }
         Input::Total(t) => {
