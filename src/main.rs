@@ -428,7 +428,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         water,
         pair_flags,
         state,
-        ..
+        air,
     } = solve_sample(&a.inputs, &a.root, SolveOptions::default())?;
     let mut request = DoseRequest::new(
         a.chemical.parse().map_err(at_flag("--chemical"))?,
@@ -446,6 +446,11 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
     }
     let scale = sample.input_ph_scale(water.medium());
     request = request.with_ph_scale(scale);
+    if let Some(ppm) = sample.air_co2_ppm {
+        request = request
+            .with_air_co2_ppm(ppm)
+            .map_err(at_flag("--air-co2"))?;
+    }
     let volume = match (&a.volume, &a.area, &a.mean_depth) {
         (Some(v), ..) => Some(Volume::parse(v).map_err(at_flag("--volume"))?),
         (None, Some(area), Some(depth)) => {
@@ -453,11 +458,18 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         }
         _ => None,
     };
-    let d = dose(&water, &state, request).map_err(|e| match e {
+    let mut d = dose(&water, &state, request).map_err(|e| match e {
         Error::Unreachable { .. } | Error::UnknownChoice { .. } => at_flag("--target")(e),
         Error::Missing { .. } => flagged(e),
         other => at_flag(&pair_flags)(other),
     })?;
+    // The water after treatment with its exchange with the air, as the
+    // water before it.
+    d.after = d
+        .after
+        .clone()
+        .with_exchange(&air, sample.ph_scale_given())
+        .map_err(at_flag(&pair_flags))?;
     Ok(if a.json {
         travertine::output::dose_json(&d, volume, scale)
     } else {

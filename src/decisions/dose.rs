@@ -302,15 +302,14 @@ pub struct DoseRequest {
     pub dissolved_fraction: f64,
     /// The pH scale of a pH target (default: the medium's usual scale).
     pub ph_scale: Option<PhScale>,
-    /// CO2 in the air, ppm, for the limit of aeration.
+    /// CO2 in the air, ppm, for the limit of aeration (default
+    /// [`DEFAULT_AIR_CO2_PPM`]).
     pub air_co2_ppm: f64,
 }
 
-/// Atmospheric CO2 assumed for the limit of aeration when none is given,
-/// ppm: the global mean dry mole fraction of about 2024 (NOAA Global
-/// Monitoring Laboratory annual mean, about 422 ppm; from memory,
-/// unverified).
-pub const DEFAULT_AIR_CO2_PPM: f64 = 422.0;
+/// Atmospheric CO2 assumed for the limit of aeration when none is given:
+/// the crate's one default ([`crate::sample::air::DEFAULT_AIR_CO2_PPM`]).
+pub use crate::sample::air::DEFAULT_AIR_CO2_PPM;
 
 impl DoseRequest {
     /// A request with the chemical's default purity, all of it reacting,

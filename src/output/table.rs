@@ -1,6 +1,7 @@
 //! Human-readable output: an aligned table with units.
 
 use super::digits::Precision;
+use crate::base::warning::Severity;
 use super::fields::{Output, Place, Section, Value};
 use crate::decisions::{flags, not_judged, Profile};
 use crate::properties::scales::PhScale;
@@ -273,19 +274,26 @@ pub fn table_with_profile(
     for (what, name) in fits {
         let _ = writeln!(out, "  {what:<label_w$}{name}");
     }
-    let mut warnings: Vec<String> = state.warnings.iter().map(|w| w.to_string()).collect();
-    if let Some(m) = measured {
-        for w in &m.warnings {
-            let w = w.to_string();
-            if !warnings.contains(&w) {
-                warnings.push(w);
-            }
+    // Notes (an optional input not given, a default used) apart from the
+    // warnings (a result that may be wrong or is extrapolated).
+    let mut cautions: Vec<(Severity, String)> = Vec::new();
+    for w in state
+        .warnings
+        .iter()
+        .chain(measured.iter().flat_map(|m| m.warnings.iter()))
+    {
+        let entry = (w.severity(), w.to_string());
+        if !cautions.contains(&entry) {
+            cautions.push(entry);
         }
     }
-    if !warnings.is_empty() {
-        let _ = writeln!(out, "\nWarnings");
-        for w in warnings {
-            let _ = writeln!(out, "  - {w}");
+    for (severity, title) in [(Severity::Warning, "Warnings"), (Severity::Note, "Notes")] {
+        let mut shown = cautions.iter().filter(|(s, _)| *s == severity).peekable();
+        if shown.peek().is_some() {
+            let _ = writeln!(out, "\n{title}");
+            for (_, w) in shown {
+                let _ = writeln!(out, "  - {w}");
+            }
         }
     }
     // issue 11: quality flags
