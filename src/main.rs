@@ -34,9 +34,9 @@ enum Command {
 
 #[derive(Args)]
 struct DoseArgs {
-    /// The water, with the same flags as `solve`.
+    /// The water, with the same flags as `solve`, and the volume treated.
     #[command(flatten)]
-    inputs: SampleArgs,
+    inputs: DoseSampleArgs,
     /// The chemical added (or aeration, which removes CO2).
     #[arg(long, value_name = "NAME", value_parser = chemical_names())]
     chemical: String,
@@ -52,15 +52,6 @@ struct DoseArgs {
     /// limestone often dissolves only in part).
     #[arg(long, value_name = "FRACTION")]
     dissolved_fraction: Option<f64>,
-    /// Volume of water treated, with a unit: m3, L, gal (US), acre-ft.
-    #[arg(long, conflicts_with_all = ["area", "mean_depth"])]
-    volume: Option<String>,
-    /// Area of the pond, with a unit: m2, ha, acre (with --mean-depth).
-    #[arg(long, requires = "mean_depth")]
-    area: Option<String>,
-    /// Mean depth of the pond, with a unit: m, ft (with --area).
-    #[arg(long, requires = "area")]
-    mean_depth: Option<String>,
     /// Which root where two waters fit: natural, lower-ph, higher-ph.
     #[arg(long, default_value = "natural")]
     root: String,
@@ -142,6 +133,20 @@ struct SheetArgs {
     /// default; cold-water-fish; shellfish-hatchery) or a TOML file.
     #[arg(long, value_name = "NAME|FILE")]
     profile: Option<String>,
+    /// A dose for every row: the chemical (with --target), as `travertine dose` takes it.
+    /// Adds dose_g_m3, and dose_total_kg and dose_total_lb where the row has its volume
+    /// (volume_m3, or area_m2 with mean_depth_m).
+    #[arg(long, value_name = "NAME", value_parser = chemical_names(), requires = "target")]
+    dose_chemical: Option<String>,
+    /// What the dose of every row aims at, NAME=VALUE, as `travertine dose --target`.
+    #[arg(long, value_name = "NAME=VALUE", requires = "dose_chemical")]
+    target: Option<String>,
+    /// Purity of the dosed product, % (with --dose-chemical).
+    #[arg(long, value_name = "PERCENT", requires = "dose_chemical")]
+    purity: Option<f64>,
+    /// Fraction of the dosed product that dissolves, 0 to 1 (with --dose-chemical).
+    #[arg(long, value_name = "FRACTION", requires = "dose_chemical")]
+    dissolved_fraction: Option<f64>,
 }
 
 #[derive(Args)]
@@ -270,8 +275,8 @@ struct SampleArgs {
 }
 
 impl InputFlags for SampleArgs {
-    fn offers(_: Input) -> bool {
-        true
+    fn offers(input: Input) -> bool {
+        !input.is_for_dose()
     }
 
     fn arg(spec: &'static InputSpec) -> Arg {
@@ -293,6 +298,28 @@ impl InputFlags for SampleArgs {
 }
 
 input_flag_group!(SampleArgs);
+
+/// The flags of `dose`: those of a sample, and the volume treated.
+struct DoseSampleArgs {
+    /// Each input given, with its text, in the order of the list.
+    given: Vec<(Input, String)>,
+}
+
+impl InputFlags for DoseSampleArgs {
+    fn offers(_: Input) -> bool {
+        true
+    }
+
+    fn arg(spec: &'static InputSpec) -> Arg {
+        SampleArgs::arg(spec)
+    }
+
+    fn from_given(given: Vec<(Input, String)>) -> Self {
+        Self { given }
+    }
+}
+
+input_flag_group!(DoseSampleArgs);
 
 /// The choices a sheet can take for every row: one flag per choice in the
 /// library's list of inputs, each the same as `--set COLUMN=VALUE`.
@@ -333,16 +360,15 @@ struct Solved {
 }
 
 fn solve_sample(
-    inputs: &SampleArgs,
+    given: &[(Input, String)],
     root: &str,
     options: SolveOptions,
 ) -> Result<Solved, FlagError> {
     let mut sample = Sample::default();
-    for (input, text) in &inputs.given {
+    for (input, text) in given {
         sample.set(*input, text).map_err(at_flag(&flag(*input)))?;
     }
-    let carbon: Vec<String> = inputs
-        .given
+    let carbon: Vec<String> = given
         .iter()
         .filter(|(i, _)| matches!(i, Input::Carbon(_)))
         .map(|(i, _)| flag(*i))
@@ -386,7 +412,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         state,
         air,
         ..
-    } = solve_sample(&a.inputs, &a.root, options)?;
+    } = solve_sample(&a.inputs.given, &a.root, options)?;
     let options = options.with_root(a.root.parse().map_err(at_flag("--root"))?);
     let exchange = |s: State| s.with_exchange(&air, sample.ph_scale_given());
 
@@ -429,7 +455,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         pair_flags,
         state,
         air,
-    } = solve_sample(&a.inputs, &a.root, SolveOptions::default())?;
+    } = solve_sample(&a.inputs.given, &a.root, SolveOptions::default())?;
     let mut request = DoseRequest::new(
         a.chemical.parse().map_err(at_flag("--chemical"))?,
         a.target.parse().map_err(at_flag("--target"))?,
@@ -451,15 +477,14 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
             .with_air_co2_ppm(ppm)
             .map_err(at_flag("--air-co2"))?;
     }
-    let volume = match (&a.volume, &a.area, &a.mean_depth) {
-        (Some(v), ..) => Some(Volume::parse(v).map_err(at_flag("--volume"))?),
-        (None, Some(area), Some(depth)) => {
-            Some(Volume::of_pond(area, depth).map_err(at_flag("--area, --mean-depth"))?)
-        }
-        _ => None,
-    };
+    let volume = sample
+        .volume_treated_m3()
+        .and_then(|v| v.map(Volume::from_m3).transpose())
+        .map_err(flagged)?;
     let mut d = dose(&water, &state, request).map_err(|e| match e {
-        Error::Unreachable { .. } | Error::UnknownChoice { .. } => at_flag("--target")(e),
+        Error::Unreachable { .. } | Error::PastTarget { .. } | Error::UnknownChoice { .. } => {
+            at_flag("--target")(e)
+        }
         Error::Missing { .. } => flagged(e),
         other => at_flag(&pair_flags)(other),
     })?;
@@ -535,6 +560,27 @@ fn sheet_options(a: &SheetArgs) -> Result<SheetOptions, SheetError> {
     }
     if let Some(c) = &a.columns {
         o = o.with_columns(c)?;
+    }
+    if let (Some(chemical), Some(target)) = (&a.dose_chemical, &a.target) {
+        let bad = |option: &'static str| {
+            move |e: Error| SheetError::BadOption {
+                option,
+                message: e.to_string(),
+            }
+        };
+        let mut request = travertine::decisions::dose::DoseRequest::new(
+            chemical.parse().map_err(bad("--dose-chemical"))?,
+            target.parse().map_err(bad("--target"))?,
+        );
+        if let Some(p) = a.purity {
+            request = request.with_purity_percent(p).map_err(bad("--purity"))?;
+        }
+        if let Some(f) = a.dissolved_fraction {
+            request = request
+                .with_dissolved_fraction(f)
+                .map_err(bad("--dissolved-fraction"))?;
+        }
+        o = o.with_dose(request);
     }
     Ok(o)
 }

@@ -6,6 +6,7 @@ use std::process::{Command, Output};
 fn travertine(args: &[&str]) -> Output {
     Command::new(env!("CARGO_BIN_EXE_travertine"))
         .args(args)
+        .current_dir(env!("CARGO_MANIFEST_DIR"))
         .output()
         .expect("the binary runs")
 }
@@ -100,4 +101,103 @@ fn out_of_reach_exits_2_with_the_reason() {
     let o = pond(&["--chemical", "bleach", "--target", "ph=7"]);
     assert_eq!(o.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&o.stderr).contains("sodium-bicarbonate"));
+}
+
+fn csv_rows(out: &[u8]) -> Vec<Vec<String>> {
+    csv::ReaderBuilder::new()
+        .has_headers(false)
+        .from_reader(out)
+        .records()
+        .map(|r| r.unwrap().iter().map(String::from).collect())
+        .collect()
+}
+
+/// A sheet of ponds with areas and depths gives one dose per row, rows in
+/// equal rows out, each pond's dose the same as `travertine dose` gives it.
+#[test]
+fn a_sheet_of_ponds_gives_a_dose_per_row() {
+    let o = travertine(&[
+        "sheet",
+        "tables/demo/larkvane_pond_sizes.csv",
+        "--dose-chemical",
+        "sodium-bicarbonate",
+        "--target",
+        "alkalinity=50 mg/L CaCO3",
+        "--digits",
+        "full",
+    ]);
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let rows = csv_rows(&o.stdout);
+    let input = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tables/demo/larkvane_pond_sizes.csv"
+    ))
+    .unwrap();
+    assert_eq!(rows.len(), input.lines().count());
+    let header = &rows[0];
+    let at =
+        |row: &Vec<String>, name: &str| row[header.iter().position(|h| h == name).unwrap()].clone();
+    let fennel = rows.iter().find(|r| r[0] == "Fennel").unwrap();
+    let g_m3: f64 = at(fennel, "dose_g_m3").parse().unwrap();
+    let kg: f64 = at(fennel, "dose_total_kg").parse().unwrap();
+    // 0.8 ha × 1.2 m = 9600 m³.
+    assert!((kg - g_m3 * 9.6).abs() < 1e-9 * kg);
+    let single = json(&travertine(&[
+        "dose",
+        "--temperature",
+        "24.0",
+        "--conductivity",
+        "95 uS/cm@25C",
+        "--ph",
+        "6.85",
+        "--alkalinity",
+        "28 mg/L CaCO3",
+        "--calcium",
+        "20 mg/L CaCO3",
+        "--chemical",
+        "sodium-bicarbonate",
+        "--target",
+        "alkalinity=50 mg/L CaCO3",
+        "--json",
+    ]));
+    assert!((single["dose_g_m3"].as_f64().unwrap() - g_m3).abs() < 1e-9 * g_m3);
+    // The ponds already above 50 mg/L need none: a note, the row `ok`.
+    let alder = rows.iter().find(|r| r[0] == "Alder").unwrap();
+    assert_eq!(at(alder, "status"), "ok");
+    assert!(at(alder, "message").contains("no dose"), "{alder:?}");
+    assert_eq!(at(alder, "dose_g_m3"), "");
+}
+
+/// A row whose target is out of reach gets the reason, as a warning, and
+/// the batch goes on.
+#[test]
+fn an_unreachable_row_says_why_and_the_sheet_goes_on() {
+    let o = travertine(&[
+        "sheet",
+        "tables/demo/larkvane_pond_sizes.csv",
+        "--dose-chemical",
+        "sodium-bicarbonate",
+        "--target",
+        "ph=9",
+    ]);
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let rows = csv_rows(&o.stdout);
+    assert_eq!(rows.len(), 6);
+    let status = rows[0].iter().position(|h| h == "status").unwrap();
+    assert!(rows[1..].iter().all(|r| r[status] == "warning"), "{rows:?}");
+    assert!(rows[1..]
+        .iter()
+        .all(|r| r[status + 1].contains("farthest it goes")));
+}
+
+/// Volume columns without a dose are reported unused.
+#[test]
+fn volume_columns_without_a_dose_are_reported() {
+    let o = travertine(&["sheet", "tables/demo/larkvane_pond_sizes.csv"]);
+    assert!(o.status.success());
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert!(
+        err.contains("`Area (ha)`") && err.contains("not used"),
+        "{err}"
+    );
 }

@@ -206,6 +206,17 @@ pub enum Error {
         /// Why, with the limit where there is one.
         reason: String,
     },
+    /// A water already beyond a target in the direction a chemical moves
+    /// it (alkalinity above the target for a base, below it for an acid):
+    /// no dose of that chemical reaches the target, and none is needed if
+    /// the target was a limit.
+    #[error("{field}: {reason}")]
+    PastTarget {
+        /// What was aimed at, for example `target`.
+        field: Field,
+        /// Where the water is, and which way the chemical moves it.
+        reason: String,
+    },
     /// A computed quantity (for example density) could not be evaluated.
     #[error("{field} could not be computed: {reason}")]
     Computation {
@@ -279,6 +290,8 @@ pub enum ErrorKind {
     Computation,
     /// [`Error::Unreachable`].
     Unreachable,
+    /// [`Error::PastTarget`].
+    PastTarget,
     // issue 11: toxic fractions and flags
     /// [`Error::BadProfile`].
     BadProfile,
@@ -322,6 +335,7 @@ impl ErrorKind {
             ErrorKind::WrongCount => "wrong_count",
             ErrorKind::Computation => "computation",
             ErrorKind::Unreachable => "unreachable",
+            ErrorKind::PastTarget => "past_target",
             ErrorKind::BadProfile => "bad_profile",
         }
     }
@@ -377,6 +391,7 @@ impl Error {
             Error::WrongCount { .. } => ErrorKind::WrongCount,
             Error::Computation { .. } => ErrorKind::Computation,
             Error::Unreachable { .. } => ErrorKind::Unreachable,
+            Error::PastTarget { .. } => ErrorKind::PastTarget,
             Error::BadProfile { .. } => ErrorKind::BadProfile,
         }
     }
@@ -400,7 +415,8 @@ impl Error {
             | Error::Missing { field, .. }
             | Error::WrongCount { field, .. }
             | Error::Computation { field, .. }
-            | Error::Unreachable { field, .. } => Some(*field),
+            | Error::Unreachable { field, .. }
+            | Error::PastTarget { field, .. } => Some(*field),
             Error::UnknownFit { constant, .. } => Some(*constant),
             Error::UnstatedPhScale { .. } => Some(Field::PhScale),
             Error::IncompatiblePair { first, .. }
@@ -702,6 +718,7 @@ mod tests {
             ErrorKind::WrongCount,
             ErrorKind::Computation,
             ErrorKind::Unreachable,
+            ErrorKind::PastTarget,
             ErrorKind::BadProfile,
         ];
         for k in kinds {

@@ -107,7 +107,7 @@ fn totals_of(water: &Water, state: &State) -> Totals {
 /// only where both waters' is.
 ///
 /// # Errors
-/// [`Error::OutOfRange`] for a share outside 0 to 1; errors of the solve.
+/// [`crate::Error::OutOfRange`] for a share outside 0 to 1; errors of the solve.
 ///
 /// ```
 /// use travertine::decisions::blend::{blend, Share};

@@ -507,8 +507,10 @@ fn treated(water: &Water, before: &State, chemical: Chemical, n: f64) -> Result<
 /// The product per m³ is n·ρ·M / (purity · dissolved fraction).
 ///
 /// # Errors
-/// [`Error::Unreachable`] when the chemical moves the quantity the other
-/// way, or cannot take it as far as the target (with the farthest it can);
+/// [`Error::PastTarget`] when the water is already beyond the target in
+/// the direction the chemical moves it; [`Error::Unreachable`] when the
+/// chemical cannot take it as far as the target (with the farthest it
+/// can);
 /// [`Error::Missing`] for a saturation or hardness target in a fresh
 /// water without calcium; errors of the solves.
 ///
@@ -578,7 +580,7 @@ pub fn dose(water: &Water, before: &State, request: DoseRequest) -> Result<Dose>
     let first = 1e-7_f64.min(0.5 * most);
     let up = quantity(first)? > start;
     if up != (goal > start) {
-        return Err(Error::Unreachable {
+        return Err(Error::PastTarget {
             field: Field::Target,
             reason: format!(
                 "{} is already {}, {} the target {}: {} only {} it",
@@ -788,7 +790,7 @@ mod tests {
         let refused = |chemical: Chemical, target: &str| {
             let r = DoseRequest::new(chemical, target.parse().unwrap());
             match dose(&w, &s, r) {
-                Err(Error::Unreachable { reason, .. }) => reason,
+                Err(Error::Unreachable { reason, .. } | Error::PastTarget { reason, .. }) => reason,
                 other => panic!("{chemical} {target}: {other:?}"),
             }
         };

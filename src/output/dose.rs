@@ -58,7 +58,7 @@ fn number(o: Output, s: &State) -> Option<f64> {
 /// let d = dose(&pond, &before,
 ///     DoseRequest::new(Chemical::SodiumBicarbonate, "alkalinity=50 mg/L CaCO3".parse()?))?;
 /// let v: serde_json::Value =
-///     serde_json::from_str(&dose_json(&d, Some(Volume::of_pond("0.8 ha", "1.2 m")?), PhScale::Nbs)).unwrap();
+///     serde_json::from_str(&dose_json(&d, Some(Volume::from_m3(9600.0)?), PhScale::Nbs)).unwrap();
 /// assert!(v["dose_total_kg"].as_f64().unwrap() > 300.0);
 /// assert!((v["change"]["alkalinity_mg_l_caco3"].as_f64().unwrap() - 22.0).abs() < 0.1);
 /// assert!(!v["cautions"].as_array().unwrap().is_empty());

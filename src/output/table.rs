@@ -1,8 +1,8 @@
 //! Human-readable output: an aligned table with units.
 
 use super::digits::Precision;
-use crate::base::warning::Severity;
 use super::fields::{Output, Place, Section, Value};
+use crate::base::warning::Severity;
 use crate::decisions::{flags, not_judged, Profile};
 use crate::properties::scales::PhScale;
 use crate::sample::Medium;

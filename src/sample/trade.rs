@@ -123,6 +123,13 @@ pub struct Sample {
     pub k600_cm_h: Option<f64>,
     /// The model of the transfer velocity.
     pub gas_transfer: Option<GasTransfer>,
+    // issue 12: the volume a dose treats
+    /// The volume of water a dose treats, m³.
+    pub volume_m3: Option<f64>,
+    /// The area of the pond a dose treats, m².
+    pub area_m2: Option<f64>,
+    /// The mean depth of the pond a dose treats, m.
+    pub mean_depth_m: Option<f64>,
 }
 
 /// The amount of a total: by its molar unit, or by one of its mass units.
@@ -250,6 +257,9 @@ impl Sample {
             (Input::Elevation, InputValue::Number(v)) => self.elevation_m = Some(v),
             (Input::LakeArea, InputValue::Number(v)) => self.lake_area_km2 = Some(v),
             (Input::K600, InputValue::Number(v)) => self.k600_cm_h = Some(v),
+            (Input::PondVolume, InputValue::Number(v)) => self.volume_m3 = Some(v),
+            (Input::PondArea, InputValue::Number(v)) => self.area_m2 = Some(v),
+            (Input::MeanDepth, InputValue::Number(v)) => self.mean_depth_m = Some(v),
             (Input::Total(t), InputValue::Quantity(q)) => self.totals[t.index()] = Some(q),
             (Input::CalciumFraction, InputValue::Number(v)) => self.calcium_fraction = Some(v),
             (Input::Tds, InputValue::Number(v)) => self.tds_mg_l = Some(v),
@@ -298,6 +308,9 @@ impl Sample {
             Input::Elevation => number(self.elevation_m),
             Input::LakeArea => number(self.lake_area_km2),
             Input::K600 => number(self.k600_cm_h),
+            Input::PondVolume => number(self.volume_m3),
+            Input::PondArea => number(self.area_m2),
+            Input::MeanDepth => number(self.mean_depth_m),
             Input::GasTransfer => choice(self.gas_transfer.map(Choice::GasTransfer)),
             Input::Total(t) => self.total(t).map(InputValue::Quantity),
             Input::CalciumFraction => number(self.calcium_fraction),
@@ -361,6 +374,43 @@ impl Sample {
     /// ```
     pub fn measured(&self, p: Parameter) -> Option<Result<Measured>> {
         self.carbon_value(p).map(|v| v.measured(p, self.ph_scale))
+    }
+
+    /// The volume of water a dose treats, m³: as given, or the pond's area
+    /// times its mean depth; `None` when neither is given.
+    ///
+    /// # Errors
+    /// [`Error::IncompatiblePair`] for a volume given with an area or a
+    /// depth; [`Error::Missing`] for an area without its depth or the other
+    /// way round.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::Input, Sample};
+    /// let mut s = Sample::new(24.0);
+    /// s.set(Input::PondArea, "0.8 ha")?;
+    /// s.set(Input::MeanDepth, "1.2 m")?;
+    /// assert!((s.volume_treated_m3()?.unwrap() - 9600.0).abs() < 1e-9);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn volume_treated_m3(&self) -> Result<Option<f64>> {
+        match (self.volume_m3, self.area_m2, self.mean_depth_m) {
+            (Some(_), Some(_), _) | (Some(_), _, Some(_)) => Err(Error::IncompatiblePair {
+                first: Field::Volume,
+                second: Field::Area,
+                reason: "give the volume, or the area with the mean depth, not both",
+            }),
+            (Some(v), None, None) => Ok(Some(v)),
+            (None, Some(a), Some(d)) => Ok(Some(a * d)),
+            (None, Some(_), None) => Err(Error::Missing {
+                field: Field::MeanDepth,
+                why: "; the volume is the area times the mean depth",
+            }),
+            (None, None, Some(_)) => Err(Error::Missing {
+                field: Field::Area,
+                why: "; the volume is the area times the mean depth",
+            }),
+            (None, None, None) => Ok(None),
+        }
     }
 
     /// The pH scale of this sample's answers: the scale its pH names, or

@@ -107,6 +107,7 @@ pub use files::{remove_unfinished_outputs, Sink, Source};
 pub use header::column_guide;
 pub use summary::{MessageCount, Summary};
 
+use crate::decisions::dose::DoseRequest;
 use crate::decisions::Profile;
 use crate::output::Precision;
 use crate::sample::measured::Parameter;
@@ -208,6 +209,8 @@ pub struct SheetOptions {
     digits: Precision,
     // issue 11: quality flags
     profile: Profile,
+    // issue 12: a dose for every row
+    dose: Option<DoseRequest>,
 }
 
 impl Default for SheetOptions {
@@ -225,6 +228,7 @@ impl Default for SheetOptions {
             progress: Progress::Never,
             digits: Precision::Sensible,
             profile: Profile::default(),
+            dose: None,
         }
     }
 }
@@ -429,6 +433,34 @@ impl SheetOptions {
     #[must_use]
     pub fn with_digits(mut self, digits: Precision) -> Self {
         self.digits = digits;
+        self
+    }
+
+    /// A dose for every row: how much of `request.chemical` takes the
+    /// row's water to `request.target` (its purity and dissolved fraction
+    /// as the request gives them; each row's pH scale and air CO2 its own).
+    /// The sheet adds the columns `dose_g_m3`, `dose_total_kg` and
+    /// `dose_total_lb`; the totals need the row's volume (a `volume_m3`
+    /// column, or `area_m2` with `mean_depth_m`, or `--set`). A row whose
+    /// target cannot be reached gets the reason in its message and a
+    /// `warning`, and the sheet goes on.
+    ///
+    /// ```
+    /// use travertine::decisions::dose::{Chemical, DoseRequest};
+    /// use travertine::sheet::{process, SheetOptions};
+    /// let sheet = "Temp (C),pH (NBS),Alkalinity (mg/L as CaCO3),Area (ha),Mean depth (m)\n\
+    ///              24,6.85,28,0.8,1.2\n";
+    /// let request = DoseRequest::new(Chemical::SodiumBicarbonate, "alkalinity=50 mg/L CaCO3".parse()?);
+    /// let options = SheetOptions::default().with_dose(request).with_columns("ph_nbs")?;
+    /// let mut out = Vec::new();
+    /// process(&options, sheet.as_bytes(), &mut out)?;
+    /// let text = String::from_utf8(out).unwrap();
+    /// assert!(text.lines().next().unwrap().contains("dose_g_m3,dose_total_kg,dose_total_lb"));
+    /// # Ok::<(), Box<dyn std::error::Error>>(())
+    /// ```
+    #[must_use]
+    pub fn with_dose(mut self, request: DoseRequest) -> Self {
+        self.dose = Some(request);
         self
     }
 

@@ -60,6 +60,10 @@ pub(crate) struct Residual {
     pub parameter: Parameter,
 }
 
+/// The columns of a dose, after the residuals: the product per m³ (mg/L)
+/// and, where the row has its volume, in total.
+pub(crate) const DOSE_COLUMNS: [&str; 3] = ["dose_g_m3", "dose_total_kg", "dose_total_lb"];
+
 /// The plan of a sheet.
 #[derive(Debug)]
 pub(crate) struct Plan {
@@ -79,8 +83,8 @@ pub(crate) struct Plan {
     /// The profile of the `flags` column, where it is written (after the
     /// residuals, before `status`).
     pub flags: Option<crate::decisions::Profile>,
-    /// Names of the added columns: computed, residuals, `flags`, `status`,
-    /// `message`.
+    /// Names of the added columns: computed, residuals, the dose, `flags`,
+    /// `status`, `message`.
     pub added: Vec<String>,
     pub units: UnitSystem,
     pub options: SolveOptions,
@@ -97,6 +101,10 @@ pub(crate) struct Plan {
     /// Whether each row's exchange with the air is computed (a second
     /// solve): when a column of it is asked for.
     pub exchange: bool,
+    // issue 12: a dose for every row
+    /// The dose of every row, where one is asked for: its columns follow
+    /// the residuals.
+    pub dose: Option<crate::decisions::dose::DoseRequest>,
 }
 
 impl Plan {
@@ -365,6 +373,27 @@ impl Plan {
             let base = residual_name(r.parameter, &labels, &read, options.units);
             push(base, &mut added);
         }
+        if options.dose.is_some() {
+            for name in DOSE_COLUMNS {
+                push(name.to_string(), &mut added);
+            }
+        } else {
+            // The volume serves a dose only.
+            let unused: Vec<String> = labels
+                .iter()
+                .filter(|(f, _)| f.is_for_dose())
+                .map(|(_, l)| match l {
+                    Label::Column(j) => format!("column `{}`", read[*j].header),
+                    Label::Set(spec) => format!("--set {spec}"),
+                })
+                .collect();
+            if !unused.is_empty() {
+                unit_notes.push(format!(
+                    "{} not used: the volume serves a dose only (--dose-chemical and --target)",
+                    unused.join(", ")
+                ));
+            }
+        }
         if flags {
             push("flags".into(), &mut added);
         }
@@ -390,6 +419,7 @@ impl Plan {
             residuals,
             computed,
             flags: flags.then(|| options.profile.clone()),
+            dose: options.dose,
             added,
             units: options.units,
             // The precipitation potential costs about twenty solves: only

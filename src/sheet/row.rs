@@ -8,13 +8,15 @@ use super::plan::{Label, Plan, STATE_THE_SCALE};
 use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::base::warning::Severity;
+use crate::decisions::dose::DoseRequest;
 use crate::flow::PreparedWater;
 use crate::output::{Digits, Output, Value};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
 use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::Medium;
-use crate::sample::CarbonValue;
+use crate::sample::water::Water;
+use crate::sample::{CarbonValue, Sample};
 use crate::state::State;
 
 /// The outcome of a row.
@@ -56,6 +58,9 @@ pub(crate) struct Scratch {
     /// Each residual, with the precision of its column at the value
     /// measured (see [`Digits::at`]).
     pub residuals: Vec<Option<(f64, Digits)>>,
+    /// The dose columns (product g/m³, total kg and lb), where a dose is
+    /// asked for, with their precision.
+    pub dose: Vec<Option<(f64, Digits)>>,
     pub issues: Vec<Issue>,
     pub status: Status,
     /// The codes of the quality flags raised (issue 11), where the plan
@@ -115,6 +120,7 @@ pub(crate) fn error_key(e: &Error) -> String {
         Error::UnknownFit { constant, .. } => format!("{constant}: unknown fit"),
         Error::UnknownChoice { field, .. } => format!("{field}: unknown choice"),
         Error::Computation { field, .. } => format!("{field} could not be computed"),
+        Error::Unreachable { field, .. } => format!("{field} out of reach"),
         other => other.to_string(),
     }
 }
@@ -282,6 +288,10 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut
     s.values.clear();
     s.residuals.clear();
     s.residuals.resize(plan.residuals.len(), None);
+    s.dose.clear();
+    if plan.dose.is_some() {
+        s.dose.resize(super::plan::DOSE_COLUMNS.len(), None);
+    }
     s.flags.clear();
     let status = if unclosed_quote(plan, record, line, s) {
         None
@@ -537,6 +547,9 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
         };
         s.residuals[i] = measured_in_output(p, v, &state, plan.units, ph_scale);
     }
+    if let Some(request) = plan.dose {
+        dose_row(&inputs, &water, &state, request, s);
+    }
     for w in &state.warnings {
         let text = w.to_string();
         let key = text.split(": ").next().unwrap_or(&text).to_string();
@@ -546,6 +559,53 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
         }
     }
     Some(())
+}
+
+/// The dose of a row: its columns, or the reason it has none in the
+/// row's message (a warning: the water itself was computed).
+fn dose_row(inputs: &Sample, water: &Water, state: &State, request: DoseRequest, s: &mut Scratch) {
+    let mut request = request.with_ph_scale(inputs.input_ph_scale(water.medium()));
+    if let Some(ppm) = inputs.air_co2_ppm {
+        match request.with_air_co2_ppm(ppm) {
+            Ok(r) => request = r,
+            Err(e) => return s.warning(error_key(&e), format!("no dose: {e}")),
+        }
+    }
+    let volume = match inputs.volume_treated_m3() {
+        Ok(v) => v,
+        Err(e) => {
+            return s.warning(
+                format!("no dose: {}", error_key(&e)),
+                format!("no dose: {e}"),
+            )
+        }
+    };
+    match crate::decisions::dose::dose(water, state, request) {
+        Ok(d) => {
+            let three = Digits::Significant(3);
+            s.dose[0] = Some((d.dose_g_m3, three));
+            if let Some(m3) = volume {
+                let kg = d.total_kg(m3);
+                s.dose[1] = Some((kg, three));
+                s.dose[2] = Some((kg / crate::decisions::volume::KG_PER_POUND, three));
+            } else {
+                s.note(
+                    "no volume: dose per m³ only".into(),
+                    "no volume (volume_m3, or area_m2 with mean_depth_m): the dose is per m³ only"
+                        .into(),
+                );
+            }
+        }
+        // Beyond the target already: no dose, and the row is as it was.
+        Err(e @ Error::PastTarget { .. }) => s.note(
+            "no dose: the water is already beyond the target".into(),
+            format!("no dose: {e}"),
+        ),
+        Err(e) => s.warning(
+            format!("no dose: {}", error_key(&e)),
+            format!("no dose: {e}"),
+        ),
+    }
 }
 
 fn ragged(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {

@@ -445,4 +445,26 @@ pub const INPUTS: &[InputSpec] = &[
          saline water), given (with --k600)",
         [("gas transfer", Plain), ("gas transfer model", Plain)]
     ),
+    // issue 12: the volume a dose treats (dose, and a sheet with a dose)
+    spec!(
+        Input::PondVolume,
+        "volume",
+        "volume_m3",
+        "Volume of water a dose treats, with a unit: m3, L, gal (US), acre-ft (dose only)",
+        [("volume", Plain), ("pond volume", Plain), ("water volume", Plain)]
+    ),
+    spec!(
+        Input::PondArea,
+        "area",
+        "area_m2",
+        "Area of the pond a dose treats, with a unit: m2, ha, acre; with --mean-depth (dose only)",
+        [("area", Plain), ("pond area", Plain), ("surface area of pond", Plain)]
+    ),
+    spec!(
+        Input::MeanDepth,
+        "mean-depth",
+        "mean_depth_m",
+        "Mean depth of the pond a dose treats, m (or ft); with --area (dose only)",
+        [("mean depth", Plain), ("average depth", Plain), ("pond depth", Plain)]
+    ),
 ];

@@ -250,6 +250,13 @@ pub enum Input {
     K600,
     /// The model of the gas transfer velocity.
     GasTransfer,
+    // issue 12: the volume a dose treats
+    /// The volume of water a dose treats, m³.
+    PondVolume,
+    /// The area of a pond, m² (with its mean depth, the volume a dose treats).
+    PondArea,
+    /// The mean depth of a pond, m.
+    MeanDepth,
 }
 
 /// A pH, with the scale it names after the number, if any: `7.92`,
@@ -340,6 +347,40 @@ const VELOCITY_UNITS: &[NumberUnit] = &[
         &["m/d", "m d", "m/day", "m day", "m d-1"],
         100.0 / 24.0,
     ),
+];
+
+/// The units of a volume of water (base unit m³). US gallon: 231 cubic
+/// inches exactly; acre-foot: an international acre one foot deep (NIST
+/// Handbook 44; common practice).
+const VOLUME_UNITS: &[NumberUnit] = &[
+    unit(
+        "m3",
+        &["m3", "m³", "m^3", "cubic metres", "cubic meters"],
+        1.0,
+    ),
+    unit("L", &["l", "litre", "litres", "liter", "liters"], 1e-3),
+    unit(
+        "gal",
+        &["gal", "gallon", "gallons", "us gal", "usgal"],
+        3.785_411_784e-3,
+    ),
+    unit(
+        "acre-ft",
+        &["acre-ft", "acre-feet", "acre-foot", "af", "acre ft"],
+        1_233.481_837_547_52,
+    ),
+];
+/// The units of a pond's area (base unit m²); an international acre is
+/// 4046.856 422 4 m² exactly.
+const POND_AREA_UNITS: &[NumberUnit] = &[
+    unit("m2", &["m2", "m²", "m^2", "sq m"], 1.0),
+    unit("ha", &["ha", "hectare", "hectares"], 1e4),
+    unit("acre", &["acre", "acres", "ac"], 4_046.856_422_4),
+];
+/// The units of a mean depth (base unit m); a foot is 0.3048 m exactly.
+const DEPTH_UNITS: &[NumberUnit] = &[
+    unit("m", &["m", "metre", "metres", "meter", "meters"], 1.0),
+    unit("ft", &["ft", "foot", "feet"], 0.3048),
 ];
 
 /// A unit text as the spellings of [`NumberUnit`] are written: trimmed,
@@ -442,6 +483,9 @@ impl Input {
             Input::LakeArea => Field::LakeArea,
             Input::K600 => Field::K600,
             Input::GasTransfer => Field::GasTransfer,
+            Input::PondVolume => Field::Volume,
+            Input::PondArea => Field::Area,
+            Input::MeanDepth => Field::MeanDepth,
         }
     }
 
@@ -480,8 +524,22 @@ impl Input {
             Input::AirCo2 => "air CO2",
             Input::LakeArea => "lake area",
             Input::GasTransfer => "gas transfer model",
+            Input::PondVolume => "volume",
+            Input::PondArea => "pond area",
+            Input::MeanDepth => "mean depth",
             other => other.field().name(),
         }
+    }
+
+    /// Whether the input serves a dose only (the volume treated): `solve`
+    /// has no flag for it, and a sheet without a dose reports it unused.
+    ///
+    /// ```
+    /// # use travertine::sample::inputs::Input;
+    /// assert!(Input::PondArea.is_for_dose() && !Input::Temperature.is_for_dose());
+    /// ```
+    pub fn is_for_dose(self) -> bool {
+        matches!(self, Input::PondVolume | Input::PondArea | Input::MeanDepth)
     }
 
     /// Whether the input is a name (medium, scale, fit) rather than a number.
@@ -516,6 +574,9 @@ impl Input {
             Input::Elevation => ELEVATION_UNITS,
             Input::LakeArea => AREA_UNITS,
             Input::K600 => VELOCITY_UNITS,
+            Input::PondVolume => VOLUME_UNITS,
+            Input::PondArea => POND_AREA_UNITS,
+            Input::MeanDepth => DEPTH_UNITS,
             _ => &[],
         }
     }
@@ -532,7 +593,10 @@ impl Input {
     /// assert!(!Input::Wind.unit_required());
     /// ```
     pub fn unit_required(self) -> bool {
-        matches!(self, Input::Barometric | Input::LakeArea | Input::K600)
+        matches!(
+            self,
+            Input::Barometric | Input::LakeArea | Input::K600 | Input::PondVolume | Input::PondArea
+        )
     }
 
     /// The unit `text` names among [`Input::number_units`].
@@ -568,6 +632,9 @@ impl Input {
                 " km2",
             ),
             Input::K600 => (air::K600_RANGE_CM_H.0, air::K600_RANGE_CM_H.1, " cm/h"),
+            Input::PondVolume => (1e-6, 1e12, " m3"),
+            Input::PondArea => (1e-4, 1e10, " m2"),
+            Input::MeanDepth => (1e-3, 1e3, " m"),
             _ => return None,
         };
         Some((lo, hi, u))
@@ -666,6 +733,9 @@ impl Input {
             Input::Elevation => "m above sea level (a bare number), ft".into(),
             Input::LakeArea => "km2, ha".into(),
             Input::K600 => "cm/h, m/d".into(),
+            Input::PondVolume => "m3, L, gal (US), acre-ft".into(),
+            Input::PondArea => "m2, ha, acre".into(),
+            Input::MeanDepth => "m, ft".into(),
             Input::Total(t) => {
                 format!("{}; ppm for mg/L in a sheet header", list_units(&t.units()))
             }
@@ -693,6 +763,8 @@ impl Input {
             (Input::Barometric, InputValue::Number(v)) => format!("{v} atm"),
             (Input::LakeArea, InputValue::Number(v)) => format!("{v} km2"),
             (Input::K600, InputValue::Number(v)) => format!("{v} cm/h"),
+            (Input::PondVolume, InputValue::Number(v)) => format!("{v} m3"),
+            (Input::PondArea, InputValue::Number(v)) => format!("{v} m2"),
             (_, v) => v.to_string(),
         }
     }
@@ -740,7 +812,10 @@ impl Input {
             | Input::AirCo2
             | Input::Elevation
             | Input::LakeArea
-            | Input::K600 => InputValue::Number(self.read_number(text)?),
+            | Input::K600
+            | Input::PondVolume
+            | Input::PondArea
+            | Input::MeanDepth => InputValue::Number(self.read_number(text)?),
             Input::Temperature
             | Input::Salinity
             | Input::Pressure

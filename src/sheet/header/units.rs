@@ -191,7 +191,10 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
         | Input::AirCo2
         | Input::Elevation
         | Input::LakeArea
-        | Input::K600 => {
+        | Input::K600
+        | Input::PondVolume
+        | Input::PondArea
+        | Input::MeanDepth => {
             // `km²` loses its `²` in a normalised header.
             let unit = if field == Input::LakeArea && unit == "km" {
                 "km2"
