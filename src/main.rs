@@ -30,6 +30,32 @@ enum Command {
     /// How much of a chemical takes a water to a target (alkalinity, pH, free CO2, Ω, calcium
     /// hardness), with the water after treatment and the cautions.
     Dose(Box<DoseArgs>),
+    /// What a mix of two waters becomes: two saved `solve --json` results mixed by mass or
+    /// volume, solved again at the mix's own conditions.
+    Blend(Box<BlendArgs>),
+}
+
+#[derive(Args)]
+struct BlendArgs {
+    /// The first water: a saved `solve --json` result (`-` for standard input).
+    first: String,
+    /// The second water: a saved `solve --json` result.
+    second: String,
+    /// The share of the first water in the mix, 0 to 1.
+    #[arg(long, value_name = "FRACTION")]
+    fraction_first: f64,
+    /// Whether the share is by `mass` or by `volume` (each water at its own density).
+    #[arg(long, default_value = "mass", value_parser = ["mass", "volume"])]
+    by: String,
+    /// Quality-flag profile: a built-in name or a TOML file.
+    #[arg(long, value_name = "NAME|FILE")]
+    profile: Option<String>,
+    /// Print one JSON object instead of a table.
+    #[arg(long)]
+    json: bool,
+    /// Digits of the table: sensible or full.
+    #[arg(long, default_value = "sensible", value_name = "sensible|full")]
+    digits: String,
 }
 
 #[derive(Args)]
@@ -507,6 +533,51 @@ fn chosen_profile(arg: Option<&str>) -> Result<Profile, Error> {
     arg.map_or_else(|| Ok(Profile::default()), Profile::from_arg)
 }
 
+/// A saved result, read and solved again.
+fn saved(path: &str) -> Result<State, FlagError> {
+    let what = if path == "-" { "standard input" } else { path };
+    let text = if path == "-" {
+        let mut t = String::new();
+        std::io::Read::read_to_string(&mut std::io::stdin(), &mut t).map(|_| t)
+    } else {
+        std::fs::read_to_string(path)
+    }
+    .map_err(|e| FlagError {
+        flag: what.to_string(),
+        error: format!("cannot read it: {e}"),
+    })?;
+    let record: travertine::output::Record =
+        serde_json::from_str(&text).map_err(|e| FlagError {
+            flag: what.to_string(),
+            error: format!("not a saved result (the JSON of `solve --json`): {e}"),
+        })?;
+    record.solved().map_err(|e| FlagError {
+        flag: what.to_string(),
+        error: e.to_string(),
+    })
+}
+
+fn blend(a: &BlendArgs) -> Result<String, FlagError> {
+    use travertine::decisions::blend::{blend_states, Share};
+    let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
+    let profile = chosen_profile(a.profile.as_deref()).map_err(at_flag("--profile"))?;
+    let (first, second) = (saved(&a.first)?, saved(&a.second)?);
+    let share = if a.by == "volume" {
+        Share::ByVolume(a.fraction_first)
+    } else {
+        Share::ByMass(a.fraction_first)
+    };
+    let mixed = blend_states(&first, &second, share).map_err(at_flag("--fraction-first"))?;
+    Ok(render(
+        &mixed.state,
+        None,
+        a.json,
+        None,
+        precision,
+        &profile,
+    ))
+}
+
 fn render(
     measured: &State,
     reported: Option<&State>,
@@ -743,6 +814,13 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
         Command::Sheet(args) => sheet(&args),
+        Command::Blend(args) => match blend(&args) {
+            Ok(text) => print_result(text.trim_end()),
+            Err(e) => {
+                say(&format!("travertine: {}: {}\n", e.flag, e.error));
+                ExitCode::from(2)
+            }
+        },
         Command::Dose(args) => match dose(&args) {
             Ok(text) => print_result(text.trim_end()),
             Err(e) => {

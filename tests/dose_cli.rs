@@ -201,3 +201,89 @@ fn volume_columns_without_a_dose_are_reported() {
         "{err}"
     );
 }
+
+/// Saves the JSON of a solve to a file of the test's own folder.
+fn saved(name: &str, args: &[&str]) -> std::path::PathBuf {
+    let dir = std::env::temp_dir().join(format!("travertine-blend-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let mut all = vec!["solve"];
+    all.extend_from_slice(args);
+    all.push("--json");
+    let o = travertine(&all);
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let path = dir.join(name);
+    std::fs::write(&path, &o.stdout).unwrap();
+    path
+}
+
+/// Two saved results blend 50:50 into a water whose alkalinity and DIC
+/// are the means of theirs (1e-12 relative); a share of 1 gives the first
+/// water back.
+#[test]
+fn blending_two_saved_results() {
+    // An invented pond and its invented make-up water.
+    let pond = saved(
+        "pond.json",
+        &[
+            "--temperature",
+            "26",
+            "--alkalinity",
+            "120 mg/L CaCO3",
+            "--ph",
+            "7.8",
+            "--calcium",
+            "40 mg/L Ca",
+            "--conductivity",
+            "400 uS/cm@25C",
+        ],
+    );
+    let makeup = saved(
+        "makeup.json",
+        &[
+            "--temperature",
+            "14",
+            "--alkalinity",
+            "45 mg/L CaCO3",
+            "--ph",
+            "7.2",
+            "--calcium",
+            "12 mg/L Ca",
+        ],
+    );
+    let read = |p: &std::path::Path| -> serde_json::Value {
+        serde_json::from_str(&std::fs::read_to_string(p).unwrap()).unwrap()
+    };
+    let (a, b) = (read(&pond), read(&makeup));
+    let blend = |fraction: &str| {
+        json(&travertine(&[
+            "blend",
+            pond.to_str().unwrap(),
+            makeup.to_str().unwrap(),
+            "--fraction-first",
+            fraction,
+            "--json",
+        ]))
+    };
+    let half = blend("0.5");
+    for key in ["alkalinity_umol_kg", "dic_umol_kg", "calcium_umol_kg"] {
+        let mean = 0.5 * (a[key].as_f64().unwrap() + b[key].as_f64().unwrap());
+        let got = half[key].as_f64().unwrap();
+        assert!(
+            ((got - mean) / mean).abs() < 1e-12,
+            "{key}: {got} against {mean}"
+        );
+    }
+    let all = blend("1");
+    for key in ["ph_nbs", "pco2_uatm", "alkalinity_umol_kg", "omega_calcite"] {
+        let (x, y) = (all[key].as_f64().unwrap(), a[key].as_f64().unwrap());
+        assert!(((x - y) / y).abs() < 1e-6, "{key}: {x} against {y}");
+    }
+    let o = travertine(&[
+        "blend",
+        pond.to_str().unwrap(),
+        "no-such.json",
+        "--fraction-first",
+        "0.5",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+}

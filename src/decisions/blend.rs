@@ -11,7 +11,6 @@ use crate::base::error::{check_range, Result};
 use crate::base::field::Field;
 use crate::base::units::Amount;
 use crate::base::warning::{Warning, Warnings};
-use crate::sample::composition::Totals;
 use crate::sample::conditions::Conditions;
 use crate::sample::measured::Measured;
 use crate::sample::water::{Medium, Water, AUTO_FRESH_BELOW_SALINITY};
@@ -79,19 +78,6 @@ pub struct Blend {
     pub water: Water,
     /// Its state, solved at its own conditions.
     pub state: State,
-}
-
-/// The totals of a solved water, mol/kg.
-fn totals_of(water: &Water, state: &State) -> Totals {
-    let c = water.composition();
-    match water.medium() {
-        Medium::Saline => c.saline_totals(
-            state.salinity,
-            state.density_kg_m3,
-            water.fits().boron_total,
-        ),
-        _ => c.fresh_totals(state.density_kg_m3),
-    }
 }
 
 /// Mixes `first` and `second`, each a water and its solved state, with
@@ -164,7 +150,7 @@ pub fn blend(first: (&Water, &State), second: (&Water, &State), share: Share) ->
         Medium::Saline => Water::saline(conditions).or_else(|_| Water::fresh(conditions)),
         _ => Water::fresh(conditions).or_else(|_| Water::saline(conditions)),
     }?;
-    let (t1, t2) = (totals_of(w1, s1), totals_of(w2, s2));
+    let (t1, t2) = (s1.totals, s2.totals);
     let per_kg = |a: f64, b: f64| Amount::PerKg(mix(a, b));
     let mut c = Composition::default()
         .with_phosphate(per_kg(t1.phosphate_mol_kg, t2.phosphate_mol_kg))?
@@ -214,6 +200,31 @@ pub fn blend(first: (&Water, &State), second: (&Water, &State), share: Share) ->
         water,
         state,
     })
+}
+
+/// As [`blend`], for two solved states, each with the water it was solved
+/// from ([`State::water_sample`]).
+///
+/// # Errors
+/// As [`blend`].
+///
+/// ```
+/// use travertine::decisions::blend::{blend_states, Share};
+/// use travertine::{Conditions, Measured, Water};
+/// let a = Water::fresh(Conditions::new(12.0, 0.2)?)?
+///     .solve(Measured::alkalinity_umol_kg(1500.0)?, Measured::dic_umol_kg(1600.0)?)?;
+/// let b = Water::fresh(Conditions::new(20.0, 0.2)?)?
+///     .solve(Measured::alkalinity_umol_kg(2500.0)?, Measured::dic_umol_kg(2400.0)?)?;
+/// let m = blend_states(&a, &b, Share::ByMass(0.25))?;
+/// assert!((m.state.alkalinity_umol_kg - 2250.0).abs() < 1e-9);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn blend_states(first: &State, second: &State, share: Share) -> Result<Blend> {
+    blend(
+        (first.water_sample(), first),
+        (second.water_sample(), second),
+        share,
+    )
 }
 
 #[cfg(test)]

@@ -554,6 +554,22 @@ outputs! {
         TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.co3_umol_kg, CO3_G_MOL));
     Density => "density_kg_m3", "density used", "kg/m3", Density,
         TradeUnits, [Row, Row], |s| n(s.density_kg_m3);
+    // issue 12: the totals a saved result carries, for blending (not rows
+    // of the table: the inputs show them)
+    PhosphateTotal => "phosphate_total_umol_kg", "total phosphate", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.phosphate_mol_kg * 1e6);
+    SilicateTotal => "silicate_total_umol_kg", "total silicate", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.silicate_mol_kg * 1e6);
+    AmmoniaTotal => "ammonia_total_umol_kg", "total ammonia", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.ammonia_mol_kg * 1e6);
+    SulfideTotal => "sulfide_total_umol_kg", "total sulfide", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.sulfide_mol_kg * 1e6);
+    BoronTotal => "boron_total_umol_kg", "total boron", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.boron_mol_kg * 1e6);
+    SulfateTotal => "sulfate_total_umol_kg", "total sulfate", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.sulfate_mol_kg * 1e6);
+    FluorideTotal => "fluoride_total_umol_kg", "total fluoride", "µmol/kg", Amount,
+        Carbon, [Hidden, Hidden], |s| n(s.totals.fluoride_mol_kg * 1e6);
 
     // The fits are in the table's Constants block.
     CarbonicFit => "carbonic_fit", "K1, K2", "", Name,

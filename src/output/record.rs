@@ -90,6 +90,97 @@ impl Record {
         .unwrap_or_default()
     }
 
+    /// The water of a saved result and its state, solved again from the
+    /// record's conditions, medium, fits, totals (`*_total_umol_kg`,
+    /// calcium; in fresh water its ionic strength) and its alkalinity and
+    /// DIC: what a saved result needs to be mixed
+    /// ([`crate::decisions::blend`]).
+    ///
+    /// # Errors
+    /// [`Error::Missing`] naming a key the record lacks; errors of the
+    /// inputs and of the solve.
+    ///
+    /// ```
+    /// use travertine::output::{Output, Record};
+    /// use travertine::{Conditions, Measured, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// let again = Record::of(&s).solved()?;
+    /// assert!((again.pco2_uatm - s.pco2_uatm).abs() < 1e-9 * s.pco2_uatm);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solved(&self) -> crate::Result<State> {
+        use crate::base::field::Field;
+        use crate::sample::inputs::{Input, Total};
+        use crate::sample::values::{Choice, InputValue, MediumChoice};
+        use crate::sample::{Medium, Sample};
+        use crate::units::{Amount, Quantity, Unit};
+        let need = |o: Output| {
+            self.number(o).ok_or(crate::Error::Missing {
+                field: Field::Parameter,
+                why: "; a saved result needs its conditions, alkalinity and DIC (the JSON of \
+                      `solve --json`)",
+            })
+        };
+        let saline = self.text(Output::Water) == Some("saline");
+        let mut sample = Sample::new(need(Output::TemperatureC)?);
+        sample.put(Input::Salinity, InputValue::Number(need(Output::Salinity)?));
+        sample.put(
+            Input::Pressure,
+            InputValue::Number(need(Output::PressureDbar)?),
+        );
+        let medium = if saline {
+            MediumChoice::Saline
+        } else {
+            MediumChoice::Fresh
+        };
+        sample.put(Input::Medium, InputValue::Choice(Choice::Medium(medium)));
+        let umol = |v: f64| InputValue::Quantity(Quantity::new(v, Unit::UmolPerKg));
+        for (o, total) in [
+            (Output::PhosphateTotal, Total::Phosphate),
+            (Output::SilicateTotal, Total::Silicate),
+            (Output::AmmoniaTotal, Total::Ammonia),
+            (Output::SulfideTotal, Total::Sulfide),
+            (Output::Calcium, Total::Calcium),
+        ] {
+            if let Some(v) = self.number(o).filter(|v| *v > 0.0) {
+                sample.put(Input::Total(total), umol(v));
+            }
+        }
+        if saline {
+            for (o, total) in [
+                (Output::BoronTotal, Total::Boron),
+                (Output::SulfateTotal, Total::Sulfate),
+            ] {
+                if let Some(v) = self.number(o) {
+                    sample.put(Input::Total(total), umol(v));
+                }
+            }
+            for (key, input) in [
+                ("carbonic", Input::CarbonicFit),
+                ("boron_total", Input::BoronFit),
+                ("fluoride", Input::FluorideFit),
+            ] {
+                if let Some(name) = self.constants.get(key).and_then(|v| v.as_str()) {
+                    sample.set(input, name)?;
+                }
+            }
+        } else if let Some(i) = self.number(Output::IonicStrength) {
+            sample.put(Input::IonicStrength, InputValue::Number(i));
+        }
+        let mut water = sample.water()?;
+        if water.medium() == Medium::Saline {
+            if let Some(v) = self.number(Output::FluorideTotal) {
+                let c = water.composition().with_fluoride(Amount::PerKg(v * 1e-6))?;
+                water = water.with_composition(c);
+            }
+        }
+        water.solve(
+            crate::Measured::alkalinity_umol_kg(need(Output::AlkalinityUmolKg)?)?,
+            crate::Measured::dic_umol_kg(need(Output::DicUmolKg)?)?,
+        )
+    }
+
     /// The value of `output`, if the record has one.
     pub fn get(&self, output: Output) -> Option<&Item> {
         self.values

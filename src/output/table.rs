@@ -93,17 +93,20 @@ fn cell(o: Output, s: &State, precision: Precision) -> String {
 /// computed from a conductivity to 4 decimals and a pressure computed from
 /// a depth to 1, or every digit).
 fn header(s: &State, precision: Precision) -> String {
-    let (salinity, pressure) = match precision {
-        Precision::Full => (s.salinity, s.pressure_dbar),
+    // A temperature as given stays as typed; one computed (a blend) is
+    // rounded to hundredths.
+    let (salinity, pressure, temperature) = match precision {
+        Precision::Full => (s.salinity, s.pressure_dbar, s.temperature_c),
         _ => (
             (s.salinity * 1e4).round() / 1e4,
             (s.pressure_dbar * 10.0).round() / 10.0,
+            (s.temperature_c * 100.0).round() / 100.0,
         ),
     };
     let mut h = format!(
         "{} water at {} °C, salinity {}, {} dbar",
         s.medium.name(),
-        s.temperature_c,
+        temperature,
         salinity,
         pressure
     );

@@ -216,6 +216,12 @@ pub struct State {
     /// that a judgement on how it was measured (the organic-acid bias of
     /// pCO2 from pH and alkalinity) follows it.
     pub computed_from: [Parameter; 2],
+    // issue 12: blending
+    /// The totals of the acid systems and calcium this state was solved
+    /// with, mol/kg: as measured, or from salinity in saline water. A
+    /// saved result carries them (`*_total_umol_kg`), so that two saved
+    /// results can be mixed.
+    pub totals: crate::sample::composition::Totals,
     // issue 11: air–water CO2 exchange
     /// The exchange of CO2 with the air: the air's pCO2, the saturation
     /// ratio, the transfer velocity, the flux and the water at equilibrium
@@ -449,6 +455,7 @@ impl State {
             h2s_fraction: sulfide.map(|(f, _)| f),
             h2s_mg_l: sulfide.map(|(_, c)| c * rho * H2S_G_MOL),
             computed_from: [a.parameter(), b.parameter()],
+            totals: *k.totals(),
             exchange: None,
             gas: exchange::GasTerms {
                 k0: k.k0(),
