@@ -303,12 +303,13 @@ fn in_domain(lo: f64, hi: f64) -> impl Strategy<Value = f64> {
 /// Keys that are null, legitimately, when no calcium was given (every key
 /// is written, null where the state has no value; the charge balance is
 /// null unless major ions were given).
-const NULL_WITHOUT_CALCIUM: [&str; 18] = [
+const NULL_WITHOUT_CALCIUM: [&str; 19] = [
     "omega_calcite",
     "omega_aragonite",
     "si_calcite",
     "si_aragonite",
     "calcium_umol_kg",
+    "calcium_hardness_mg_l_caco3",
     "calcium_free_umol_kg",
     "calcium_activity",
     "cahco3_umol_kg",

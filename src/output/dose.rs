@@ -10,7 +10,8 @@ use serde_json::{json, Map, Value as Json};
 use std::fmt::Write;
 
 /// The outputs whose change a dose reports, in order: pH on `scale`,
-/// alkalinity, DIC, pCO2, free CO2, Ω calcite and aragonite, and calcium.
+/// alkalinity, DIC, pCO2, free CO2, Ω calcite and aragonite, and calcium
+/// hardness.
 ///
 /// ```
 /// use travertine::{output::{dose_changes, Output}, PhScale};
@@ -31,7 +32,7 @@ pub fn dose_changes(scale: PhScale) -> [Output; 8] {
         FreeCo2MgL,
         OmegaCalcite,
         OmegaAragonite,
-        Calcium,
+        CalciumHardness,
     ]
 }
 
@@ -86,7 +87,12 @@ pub fn dose_json(d: &Dose, volume: Option<Volume>, scale: PhScale) -> String {
         "dose_total_kg": total_kg,
         "dose_total_lb": total_kg.map(|kg| kg / KG_PER_POUND),
         "change": change,
-        "after": serde_json::to_value(&d.after).unwrap_or(Json::Null),
+        // Keyed as `solve --json`, flags (default profile) included.
+        "after": serde_json::to_value(super::json::Judged::new(
+            &d.after,
+            crate::decisions::Profile::shared_default(),
+        ))
+        .unwrap_or(Json::Null),
         "cautions": d.cautions,
     });
     serde_json::to_string_pretty(&v).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))

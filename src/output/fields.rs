@@ -32,7 +32,7 @@
 //! ```
 
 use super::digits::Digits;
-use crate::base::units::{CO3_G_MOL, HCO3_G_MOL};
+use crate::base::units::{CACO3_G_MOL, CO3_G_MOL, HCO3_G_MOL};
 use crate::sample::water::Medium;
 use crate::state::{Exchange, State};
 use serde::{Serialize, Serializer};
@@ -552,6 +552,9 @@ outputs! {
         TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.hco3_umol_kg, HCO3_G_MOL));
     Co3MgL => "co3_mg_l", "carbonate CO3--", "mg/L", MassConcentration,
         TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.co3_umol_kg, CO3_G_MOL));
+    CalciumHardness => "calcium_hardness_mg_l_caco3", "calcium hardness", "mg/L as CaCO3",
+        MassConcentration, TradeUnits, [Row, Hidden],
+        |s| o(s.calcium_umol_kg.map(|c| c * 1e-6 * s.density_kg_m3 * CACO3_G_MOL));
     Density => "density_kg_m3", "density used", "kg/m3", Density,
         TradeUnits, [Row, Row], |s| n(s.density_kg_m3);
     // issue 12: the totals a saved result carries, for blending (not rows
