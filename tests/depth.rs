@@ -3,8 +3,7 @@
 //! pressure correction is a note where it is small and a warning where it
 //! is not (`travertine::flow::FRESH_PRESSURE_CAUTION`).
 
-use std::io::Write;
-use std::process::{Command, Output, Stdio};
+use std::process::Output;
 use travertine::base::warning::Severity;
 use travertine::properties::density::density_kg_m3;
 use travertine::sample::inputs::{Input, Total};
@@ -17,21 +16,9 @@ const STANDARD_GRAVITY: f64 = 9.80665;
 
 const LAKE: &str = "tables/demo/larkvane_reservoir_profile.csv";
 
+mod common;
 fn travertine(args: &[&str], input: Option<&str>) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("the binary runs");
-    let mut stdin = child.stdin.take().expect("stdin");
-    stdin
-        .write_all(input.unwrap_or_default().as_bytes())
-        .expect("input written");
-    drop(stdin);
-    child.wait_with_output().expect("the binary ends")
+    common::run_travertine(args, Some(input.unwrap_or_default().as_bytes()))
 }
 
 fn stdout(o: &Output) -> String {

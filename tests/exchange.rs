@@ -4,8 +4,7 @@
 //! `sheet`. Each reference value names its source beside it; the lakes and
 //! ponds are invented.
 
-use std::io::Write;
-use std::process::{Command, Output, Stdio};
+use std::process::Output;
 use travertine::base::warning::Severity;
 use travertine::fits::transfer::{schmidt_number, GasTransfer};
 use travertine::properties::atmosphere::standard_pressure_kpa;
@@ -14,22 +13,9 @@ use travertine::sample::inputs::Input;
 use travertine::sample::Sample;
 use travertine::{Conditions, Measured, Parameter, PhScale, State, Water};
 
+mod common;
 fn travertine(args: &[&str], stdin: Option<&str>) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("the binary runs");
-    let mut input = child.stdin.take().expect("stdin");
-    if let Some(text) = stdin {
-        // A program that stops at its arguments reads nothing: a closed
-        // pipe is then no failure of the test.
-        let _ = input.write_all(text.as_bytes());
-    }
-    drop(input);
-    child.wait_with_output().expect("the binary ends")
+    common::run_travertine(args, stdin.map(str::as_bytes))
 }
 
 fn stdout(o: &Output) -> String {

@@ -2,24 +2,12 @@
 //! (the `flags` array), the table's Flags block, `--profile NAME|FILE` in
 //! `solve` and `sheet`, and the sheet's `flags` column. All data invented.
 
-use std::io::Write;
 use std::path::PathBuf;
-use std::process::{Command, Output, Stdio};
+use std::process::Output;
 
+mod common;
 fn run(args: &[&str], input: Option<&str>) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("the binary runs");
-    let mut stdin = child.stdin.take().expect("stdin");
-    if let Some(text) = input {
-        stdin.write_all(text.as_bytes()).expect("input written");
-    }
-    drop(stdin);
-    child.wait_with_output().expect("the binary ends")
+    common::run_travertine(args, input.map(str::as_bytes))
 }
 
 fn stdout(o: &Output) -> String {

@@ -12,23 +12,11 @@
 //! JSON lines always give every digit.
 
 use std::collections::BTreeSet;
-use std::io::Write;
-use std::process::{Command, Output, Stdio};
+use std::process::Output;
 
+mod common;
 fn run(args: &[&str], input: Option<&[u8]>) -> Output {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("the binary runs");
-    let mut stdin = child.stdin.take().expect("stdin");
-    if let Some(bytes) = input {
-        stdin.write_all(bytes).expect("input written");
-    }
-    drop(stdin);
-    let o = child.wait_with_output().expect("the binary ends");
+    let o = common::run_travertine(args, input);
     assert_eq!(
         o.status.code(),
         Some(0),

@@ -381,3 +381,32 @@ pub fn has_figures(text: &str, n: usize) -> bool {
         digits.len() >= n && digits.trim_end_matches('0').len() <= n
     }
 }
+
+/// Runs the program with `args`, from the crate's folder, with `input` on
+/// its standard input. A program that stops before reading its input (a
+/// usage error) closes the pipe: that is its answer, not a failure.
+#[cfg(feature = "cli")]
+pub fn run_travertine(args: &[&str], input: Option<&[u8]>) -> std::process::Output {
+    use std::io::Write;
+    use std::process::{Command, Stdio};
+    let mut child = Command::new(env!("CARGO_BIN_EXE_travertine"))
+        .args(args)
+        .current_dir(env!("CARGO_MANIFEST_DIR"))
+        .stdin(Stdio::piped())
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .expect("the binary runs");
+    let mut stdin = child.stdin.take().expect("stdin");
+    if let Some(bytes) = input {
+        if let Err(e) = stdin.write_all(bytes) {
+            assert_eq!(
+                e.kind(),
+                std::io::ErrorKind::BrokenPipe,
+                "input written: {e}"
+            );
+        }
+    }
+    drop(stdin);
+    child.wait_with_output().expect("the binary ends")
+}

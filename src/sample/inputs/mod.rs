@@ -807,21 +807,11 @@ impl Input {
             Input::BisulfateFit => InputValue::Choice(Choice::Bisulfate(text.parse()?)),
             Input::Activity => InputValue::Choice(Choice::Activity(text.parse()?)),
             Input::GasTransfer => InputValue::Choice(Choice::GasTransfer(text.parse()?)),
-            Input::Barometric
-            | Input::Wind
-            | Input::AirCo2
-            | Input::Elevation
-            | Input::LakeArea
-            | Input::K600
-            | Input::PondVolume
-            | Input::PondArea
-            | Input::MeanDepth => InputValue::Number(self.read_number(text)?),
-            Input::Temperature
-            | Input::Salinity
-            | Input::Pressure
-            | Input::CalciumFraction
-            | Input::IonicStrength
-            | Input::Depth => InputValue::Number(number()?),
+            // A number in one of the input's units (its list, once).
+            i if !i.number_units().is_empty() => InputValue::Number(self.read_number(text)?),
+            // A plain number in the base unit: temperature, salinity,
+            // pressure, calcium fraction, ionic strength, depth.
+            _ => InputValue::Number(number()?),
         })
     }
 }

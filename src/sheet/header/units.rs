@@ -186,15 +186,7 @@ pub(super) fn interpret(field: Input, hint: NameHint, unit: &str) -> Result<Read
         // The barometric pressure and the inputs of the exchange with the
         // air: the units of the list of inputs. Where the header has none,
         // the base unit where a bare number has one.
-        Input::Barometric
-        | Input::Wind
-        | Input::AirCo2
-        | Input::Elevation
-        | Input::LakeArea
-        | Input::K600
-        | Input::PondVolume
-        | Input::PondArea
-        | Input::MeanDepth => {
+        numbered if !numbered.number_units().is_empty() => {
             // `km²` loses its `²` in a normalised header.
             let unit = if field == Input::LakeArea && unit == "km" {
                 "km2"
