@@ -50,12 +50,9 @@ struct BlendArgs {
     /// Quality-flag profile: a built-in name or a TOML file.
     #[arg(long, value_name = "NAME|FILE")]
     profile: Option<String>,
-    /// Print one JSON object instead of a table.
-    #[arg(long)]
-    json: bool,
-    /// Digits of the table: sensible or full.
-    #[arg(long, default_value = "sensible", value_name = "sensible|full")]
-    digits: String,
+    /// JSON or a table, and its digits.
+    #[command(flatten)]
+    shown: Shown,
 }
 
 #[derive(Args)]
@@ -81,12 +78,29 @@ struct DoseArgs {
     /// Which root where two waters fit: natural, lower-ph, higher-ph.
     #[arg(long, default_value = "natural")]
     root: String,
+    /// JSON or a table, and its digits.
+    #[command(flatten)]
+    shown: Shown,
+}
+
+/// How a result is shown: the flags of every command that prints one.
+#[derive(Args)]
+struct Shown {
     /// Print one JSON object instead of a table.
     #[arg(long)]
     json: bool,
-    /// Digits of the table: sensible or full.
+    /// Digits of the table: `sensible` rounds each figure to what its
+    /// measurement supports (pH 3 decimals, µmol/kg and µatm 4 significant
+    /// figures, mg/L 3); `full` gives every digit, to read back exactly. The
+    /// JSON always has every digit.
     #[arg(long, default_value = "sensible", value_name = "sensible|full")]
     digits: String,
+}
+
+impl Shown {
+    fn precision(&self) -> Result<Precision, FlagError> {
+        self.digits.parse().map_err(at_flag("--digits"))
+    }
 }
 
 /// The names `--chemical` takes, from the library's list.
@@ -192,15 +206,9 @@ struct SolveArgs {
     /// Which root where two waters fit (alkalinity with CO3, DIC with HCO3): natural, lower-ph, higher-ph.
     #[arg(long, default_value = "natural")]
     root: String,
-    /// Print one flat JSON object instead of a table.
-    #[arg(long)]
-    json: bool,
-    /// Digits of the table: `sensible` rounds each figure to what its
-    /// measurement supports (pH 3 decimals, µmol/kg and µatm 4 significant
-    /// figures, mg/L 3); `full` gives every digit, to read back exactly. The
-    /// JSON always has every digit.
-    #[arg(long, default_value = "sensible", value_name = "sensible|full")]
-    digits: String,
+    /// JSON or a table, and its digits.
+    #[command(flatten)]
+    shown: Shown,
     /// The limits of the quality flags: a built-in profile (general, the
     /// default; cold-water-fish; shellfish-hatchery) or a TOML file.
     #[arg(long, value_name = "NAME|FILE")]
@@ -428,7 +436,7 @@ fn solve_sample(
 }
 
 fn run(a: &SolveArgs) -> Result<String, FlagError> {
-    let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
+    let precision = a.shown.precision()?;
     let profile = chosen_profile(a.profile.as_deref()).map_err(at_flag("--profile"))?;
     // One sample: the precipitation potential's cost does not matter.
     let options = SolveOptions::default().with_precipitation_potential(true);
@@ -464,7 +472,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     Ok(render(
         &state,
         reported.as_ref(),
-        a.json,
+        a.shown.json,
         Some(sample.input_ph_scale(water.medium())),
         precision,
         &profile,
@@ -474,7 +482,7 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
 fn dose(a: &DoseArgs) -> Result<String, FlagError> {
     use travertine::decisions::dose::{dose, DoseRequest};
     use travertine::decisions::volume::Volume;
-    let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
+    let precision = a.shown.precision()?;
     let Solved {
         sample,
         water,
@@ -521,7 +529,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         .clone()
         .with_exchange(&air, sample.ph_scale_given())
         .map_err(at_flag(&pair_flags))?;
-    Ok(if a.json {
+    Ok(if a.shown.json {
         travertine::output::dose_json(&d, volume, scale)
     } else {
         travertine::output::dose_table(&d, volume, scale, precision)
@@ -559,7 +567,7 @@ fn saved(path: &str) -> Result<State, FlagError> {
 
 fn blend(a: &BlendArgs) -> Result<String, FlagError> {
     use travertine::decisions::blend::{blend_states, Share};
-    let precision: Precision = a.digits.parse().map_err(at_flag("--digits"))?;
+    let precision = a.shown.precision()?;
     let profile = chosen_profile(a.profile.as_deref()).map_err(at_flag("--profile"))?;
     let (first, second) = (saved(&a.first)?, saved(&a.second)?);
     let share = if a.by == "volume" {
@@ -571,7 +579,7 @@ fn blend(a: &BlendArgs) -> Result<String, FlagError> {
     Ok(render(
         &mixed.state,
         None,
-        a.json,
+        a.shown.json,
         None,
         precision,
         &profile,
