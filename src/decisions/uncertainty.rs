@@ -171,7 +171,7 @@ pub const CONSTANT_SOURCES: [ConstantName; 8] = [
 /// The default standard uncertainties of the constants in sea water, from
 /// Orr et al. (2018, Marine Chemistry 207:84–107), as
 /// ../shared/reference/equations.md §12 gives them: the paper is verified
-/// there [V], the values are from memory (unverified) [M]. pK in pK units,
+/// there \[V\], the values are from memory (unverified) \[M\]. pK in pK units,
 /// the total boron in per cent.
 ///
 /// ```

@@ -97,7 +97,7 @@ impl Record {
     /// ([`crate::decisions::blend`]).
     ///
     /// # Errors
-    /// [`Error::Missing`] naming a key the record lacks; errors of the
+    /// [`crate::Error::Missing`] naming a key the record lacks; errors of the
     /// inputs and of the solve.
     ///
     /// ```
