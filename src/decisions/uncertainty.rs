@@ -91,7 +91,7 @@ impl Size {
     ///
     /// ```
     /// # use travertine::decisions::uncertainty::Size;
-    /// assert_eq!(Size::Percent(10.0).of(-3.0), 0.3);
+    /// assert!((Size::Percent(10.0).of(-3.0) - 0.3).abs() < 1e-15);
     /// ```
     pub fn of(self, x: f64) -> f64 {
         match self {
@@ -569,7 +569,7 @@ fn total_umol_kg(prepared: &PreparedWater, which: Total) -> Result<f64> {
 /// use travertine::decisions::uncertainty::{Propagated, Source};
 /// use travertine::sample::inputs::Input;
 /// let p = Propagated { value: Some(10.0), u: Some(5.0), contributions: vec![3.0, 4.0] };
-/// let sources = [Source::Input(Input::Temperature), Source::Input(Input::Salinity)];
+/// let sources = [(Source::Input(Input::Temperature), 0.1), (Source::Input(Input::Salinity), 0.01)];
 /// let b = p.budget(&sources);
 /// assert!((b[0].1 - 0.36).abs() < 1e-15 && (b[1].1 - 0.64).abs() < 1e-15);
 /// ```
