@@ -8,7 +8,7 @@
 //!           solver inside the ionic-strength and free-calcium fixed point
 //! ```
 
-use crate::base::error::{Error, Result};
+use crate::base::error::Result;
 use crate::base::warning::Warning;
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
@@ -248,22 +248,27 @@ impl PreparedWater {
     }
 
     /// This prepared water with one constant perturbed: pK = −log10 K
-    /// raised by `delta_pk` through [`Constants::with_pk`], which keeps
-    /// everything derived from that constant in step. Solves of the result
-    /// run the one solver with the perturbed constants; the water, and the
-    /// fits a state names, are unchanged. This is the hook for the
-    /// propagation of the uncertainty of a constant: the change of a result
-    /// over a small `delta_pk` is its sensitivity to that pK.
+    /// raised by `delta_pk`, and everything derived from that constant kept
+    /// in step. Solves of the result run the one solver with the perturbed
+    /// constant; the water, and the fits a state names, are unchanged. This
+    /// is the hook for the propagation of the uncertainty of a constant
+    /// ([`crate::decisions::uncertainty`]): the change of a result over a
+    /// small `delta_pk` is its sensitivity to that pK.
     ///
-    /// Saline water only, for now: a fresh-water solve makes its constants
-    /// again at each ionic strength and free calcium of its fixed point, so
-    /// perturbed constants would not survive it. In the overlap of the media
-    /// (salinity 0.5 to 5) the comparison with the fresh medium, where it
-    /// is made, is with the unperturbed fresh water.
+    /// - Saline water: the constants through [`Constants::with_pk`].
+    /// - Fresh water: the thermodynamic constant of the basis (Plummer &
+    ///   Busenberg 1982 and the others of `src/medium/fresh/basis.rs`, on the
+    ///   activity scale, pressure-corrected), from which the apparent
+    ///   constants of every ionic strength and free calcium of the fixed
+    ///   point are made. `K0` is Henry's constant there. The calcium ion-pair
+    ///   constants are not yet among the names that can be perturbed.
+    ///
+    /// In the overlap of the media (salinity 0.5 to 5) the comparison with
+    /// the other medium, where it is made, is with the unperturbed water.
     ///
     /// # Errors
-    /// [`crate::Error::WrongMedium`] for a fresh water; as
-    /// [`Constants::with_pk`] for a perturbation that is not finite.
+    /// As [`Constants::with_pk`] for a perturbation that is not finite or
+    /// takes a constant out of range.
     ///
     /// ```
     /// use travertine::{Conditions, Measured, Water, medium::ConstantName};
@@ -273,24 +278,23 @@ impl PreparedWater {
     /// // A weaker carbonic acid (pK1 up 0.01) leaves more CO2*: pCO2 rises.
     /// let shifted = sea.with_constants_perturbed(ConstantName::K1, 0.01)?.solve(ta, dic)?;
     /// assert!(shifted.pco2_uatm > base.pco2_uatm);
+    /// // The same in fresh water.
     /// let pond = Water::fresh(Conditions::new(20.0, 0.2)?)?.prepare()?;
-    /// assert!(pond.with_constants_perturbed(ConstantName::K1, 0.01).is_err());
+    /// let (ta, dic) = (Measured::alkalinity_umol_kg(1200.0)?, Measured::dic_umol_kg(1300.0)?);
+    /// let there = pond.with_constants_perturbed(ConstantName::K1, 0.01)?.solve(ta, dic)?;
+    /// assert!(there.pco2_uatm > pond.solve(ta, dic)?.pco2_uatm);
+    /// assert!(pond.with_constants_perturbed(ConstantName::K1, f64::NAN).is_err());
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_constants_perturbed(&self, which: ConstantName, delta_pk: f64) -> Result<Self> {
-        match &self.prepared {
-            Prepared::Saline(k) => Ok(PreparedWater {
-                water: self.water.clone(),
-                prepared: Prepared::Saline(k.clone().with_pk(which, delta_pk)?),
-            }),
-            Prepared::Fresh(_) => Err(Error::WrongMedium {
-                field: crate::base::field::Field::Constant,
-                name: which.name().to_string(),
-                medium: Medium::Saline.name(),
-                hint: "a fresh-water solve makes its constants again at each ionic strength and \
-                       free calcium, so a perturbed constant is not kept; perturb a saline water",
-            }),
-        }
+        let prepared = match &self.prepared {
+            Prepared::Saline(k) => Prepared::Saline(k.clone().with_pk(which, delta_pk)?),
+            Prepared::Fresh(b) => Prepared::Fresh(b.clone().with_pk(which, delta_pk)?),
+        };
+        Ok(PreparedWater {
+            water: self.water.clone(),
+            prepared,
+        })
     }
 
     /// The complete state from two measured parameters, with default options.

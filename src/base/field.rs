@@ -149,6 +149,12 @@ fields! {
     Factor => "factor",
     /// The change in a pK.
     DeltaPk => "delta_pk",
+    // issue 13: uncertainty
+    /// A standard uncertainty given for an input or a constant (the
+    /// message names which).
+    Uncertainty => "uncertainty",
+    /// The number of Monte Carlo draws.
+    Draws => "draws",
     // issue 11: depth profiles
     /// Depth below the water surface, m.
     Depth => "depth_m",

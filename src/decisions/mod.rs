@@ -7,6 +7,9 @@
 //!   [`Profile`] ([`profile`]: TOML files and the built-in profiles). The
 //!   toxic fractions themselves (un-ionised ammonia, hydrogen sulfide) are
 //!   figures of the state ([`crate::state::State::nh3_fraction`]).
+//! - [`uncertainty`]: the standard uncertainty of every computed quantity
+//!   from those of the inputs and the constants, with its budget and a
+//!   Monte Carlo check.
 
 // issue 11: quality flags
 pub mod flags;
@@ -18,3 +21,5 @@ pub use profile::{Limits, Plausibility, Profile, DEFAULT_PROFILE};
 pub mod blend;
 pub mod dose;
 pub mod volume;
+// issue 13: uncertainty
+pub mod uncertainty;

@@ -10,6 +10,9 @@ mod json;
 mod record;
 mod table;
 
+// issue 13: uncertainty
+pub mod uncertainty;
+
 pub use digits::{Digits, Precision};
 pub use dose::{dose_changes, dose_json, dose_table};
 pub use fields::{Output, Place, Section, Value};

@@ -596,6 +596,49 @@ impl Measured {
         self.value
     }
 
+    /// The value as a number in the parameter's own unit: pH units, µmol/kg
+    /// (µmol/L for an amount given per litre), µatm for pCO2 and fCO2, ppm
+    /// for xCO2. The unit of an absolute uncertainty of this parameter.
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// assert_eq!(Measured::ph(7.9, None)?.number(), 7.9);
+    /// assert!((Measured::dic_umol_kg(2000.0)?.number() - 2000.0).abs() < 1e-9);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn number(&self) -> f64 {
+        match self.value {
+            MeasuredValue::Amount(a) => a.raw() * 1e6,
+            MeasuredValue::Ph(v, _) => v,
+            MeasuredValue::Atm(v) | MeasuredValue::MoleFraction(v) => v * 1e6,
+        }
+    }
+
+    /// The same parameter (and pH scale, or per-kg or per-litre basis) with
+    /// another value, a number in the unit of [`Measured::number`], checked
+    /// as a new measurement is.
+    ///
+    /// # Errors
+    /// As [`Measured::new`]: [`Error::OutOfRange`] or [`Error::NotFinite`].
+    ///
+    /// ```
+    /// # use travertine::Measured;
+    /// let ph = Measured::ph(7.9, None)?;
+    /// assert_eq!(ph.with_number(7.91)?.number(), 7.91);
+    /// assert!(ph.with_number(-0.5).is_err());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_number(&self, number: f64) -> Result<Self> {
+        let unit = match self.value {
+            MeasuredValue::Ph(_, scale) => return Measured::ph(number, scale),
+            MeasuredValue::Amount(Amount::PerKg(_)) => Unit::UmolPerKg,
+            MeasuredValue::Amount(Amount::PerLitre(_)) => Unit::UmolPerL,
+            MeasuredValue::Atm(_) => Unit::Uatm,
+            MeasuredValue::MoleFraction(_) => Unit::Ppm,
+        };
+        Measured::new(self.parameter, Quantity::new(number, unit))
+    }
+
     /// The value as a user would read it, with its unit.
     ///
     /// ```

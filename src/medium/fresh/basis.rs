@@ -7,7 +7,7 @@ use crate::base::error::Result;
 use crate::fits::thermodynamic as pb;
 use crate::fits::{nutrients, sulfate, sulfide, FitName, FitsUsed};
 use crate::medium::constants::{scale_factors, ScaleLink};
-use crate::medium::Constants;
+use crate::medium::{ConstantName, Constants};
 use crate::properties::activity::Gammas;
 use crate::properties::density::density_kg_m3;
 use crate::properties::scales::PhScale;
@@ -127,6 +127,65 @@ impl FreshBasis {
             b.i_start = ion_sum(&b.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
         }
         Ok(b)
+    }
+
+    /// This basis with one thermodynamic constant perturbed: pK = −log10 K
+    /// raised by `delta_pk` (for [`ConstantName::BoronTotal`] the total boron
+    /// is multiplied by the same factor, 10^(−`delta_pk`)). The apparent
+    /// constants of every ionic strength and free calcium a solve then tries
+    /// are made from the perturbed value, so nothing derived from it can fall
+    /// out of step; the starting ionic strength is made again with it.
+    ///
+    /// # Errors
+    /// [`crate::Error::NotFinite`] for a `delta_pk` that is not finite;
+    /// [`crate::Error::Computation`] for a result that is not finite and
+    /// positive (a constant that was evaluated).
+    pub(crate) fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Self> {
+        use crate::base::error::Error;
+        use crate::base::field::Field;
+        use ConstantName as C;
+        if !delta_pk.is_finite() {
+            return Err(Error::NotFinite {
+                field: Field::DeltaPk,
+                value: delta_pk,
+            });
+        }
+        let factor = crate::base::numeric::pow10(-delta_pk);
+        let slot = match which {
+            C::K0 => &mut self.kh,
+            C::K1 => &mut self.k1,
+            C::K2 => &mut self.k2,
+            C::Kb => &mut self.kb,
+            C::Kw => &mut self.kw,
+            C::KspCalcite => &mut self.ksp_calcite,
+            C::KspAragonite => &mut self.ksp_aragonite,
+            C::Ks => &mut self.ks,
+            C::Kf => &mut self.kf,
+            C::Kp1 => &mut self.kp.0,
+            C::Kp2 => &mut self.kp.1,
+            C::Kp3 => &mut self.kp.2,
+            C::Ksi => &mut self.ksi,
+            C::Knh4 => &mut self.knh4,
+            C::Kh2s => &mut self.kh2s,
+            C::BoronTotal => &mut self.totals.boron_mol_kg,
+        };
+        let before = *slot;
+        let after = before * factor;
+        if !after.is_finite() || (before > 0.0 && after <= 0.0) {
+            return Err(Error::Computation {
+                field: Field::Constant,
+                reason: format!(
+                    "{} with its pK raised by {delta_pk} would be {after}",
+                    which.name()
+                ),
+            });
+        }
+        *slot = after;
+        if self.fixed_i.is_none() {
+            let ca = self.totals.calcium_mol_kg;
+            self.i_start = ion_sum(&self.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
+        }
+        Ok(self)
     }
 
     /// Apparent constants at ionic strength `i`, free calcium `ca_free` and
@@ -259,7 +318,6 @@ pub(crate) fn fresh_fits_used(
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::medium::ConstantName;
     use crate::sample::{Composition, Conditions};
 
     /// In fresh water with calcium, a perturbed K1 or K2 keeps

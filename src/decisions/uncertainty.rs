@@ -1,0 +1,805 @@
+//! The standard uncertainty of every computed quantity, from the
+//! uncertainties of the inputs and of the equilibrium constants (issue 13):
+//! linear (first-order) propagation with its error budget, and a Monte
+//! Carlo check.
+//!
+//! - A [`Problem`] is one measured pair in one water (and, optionally, the
+//!   air over it), solved by the one shared solver of [`crate::flow`].
+//! - [`Uncertainties`] gives the standard uncertainty of each [`Source`]:
+//!   an input of the list ([`Input`]: the two carbonate parameters,
+//!   temperature, salinity, calcium, the nutrient totals, the wind) or a
+//!   constant ([`ConstantName`]), each absolute or relative ([`Size`]).
+//!   The constants take published defaults unless switched off
+//!   ([`Uncertainties::without_constants`]).
+//! - [`propagate`] gives, for each quantity asked for, its standard
+//!   uncertainty and each source's share of its variance; [`monte_carlo`]
+//!   the empirical standard deviations of seeded normal draws.
+//!
+//! The quantities are given as a function of the [`State`], so that this
+//! layer does not depend on the list of outputs below it;
+//! [`crate::output::uncertainty`] applies both to every numeric output.
+//!
+//! **Derivatives.** Central differences of full solves, each source moved
+//! alone by a step of 10⁻⁴ of its scale (or its own uncertainty where that
+//! is smaller); the constants are moved through
+//! [`PreparedWater::with_constants_perturbed`], so that every value derived
+//! from a constant follows it. DEVELOPERS.md ("Uncertainty") gives the
+//! reasons and the error of the method.
+//!
+//! ```
+//! use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
+//! use travertine::sample::inputs::Input;
+//! use travertine::{Conditions, Measured, Parameter, PhScale, Water};
+//! let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
+//! let problem = Problem::new(
+//!     &sea,
+//!     Measured::ph(8.05, Some(PhScale::Total))?,
+//!     Measured::alkalinity_umol_kg(2300.0)?,
+//! )?;
+//! let u = Uncertainties::new()
+//!     .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))?
+//!     .with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0))?;
+//! let p = propagate(&problem, &u, |s| vec![Some(s.pco2_uatm)])?;
+//! let pco2 = &p.outputs[0];
+//! assert!(pco2.u.unwrap() > 0.02 * pco2.value.unwrap()); // more than 2 %
+//! let shares: f64 = pco2.budget(&p.sources).iter().map(|(_, f)| f).sum();
+//! assert!((shares - 1.0).abs() < 1e-12);
+//! # Ok::<(), travertine::Error>(())
+//! ```
+
+use crate::base::error::{Error, Result};
+use crate::base::field::Field;
+use crate::base::units::Amount;
+use crate::flow::PreparedWater;
+use crate::medium::ConstantName;
+use crate::properties::scales::PhScale;
+use crate::sample::air::Air;
+use crate::sample::inputs::{Input, Total};
+use crate::sample::measured::Measured;
+use crate::sample::water::{Medium, Water};
+use crate::sample::Conditions;
+use crate::solve::SolveOptions;
+use crate::state::State;
+use rand::SeedableRng;
+use rand_distr::{Distribution, StandardNormal};
+
+/// ln 10, to turn a relative uncertainty of a constant into one of its pK.
+const LN_10: f64 = std::f64::consts::LN_10;
+
+/// The size of a standard uncertainty.
+///
+/// ```
+/// use travertine::decisions::uncertainty::Size;
+/// assert_eq!(Size::Percent(2.0).of(2000.0), 40.0);
+/// assert_eq!(Size::Absolute(0.01).of(8.1), 0.01);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum Size {
+    /// In the unit of the source: pH units; µmol/kg (µmol/L for an amount
+    /// given per litre) for the carbonate amounts, calcium and the
+    /// nutrients; µatm for pCO2 and fCO2; ppm for xCO2; °C; practical
+    /// salinity; m/s for the wind. For a constant, in pK units, except the
+    /// total boron, in µmol/kg.
+    Absolute(f64),
+    /// Per cent of the value (of K itself for a constant).
+    Percent(f64),
+}
+
+impl Size {
+    /// The absolute size for a value `x` (in the unit of the source).
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Size;
+    /// assert!((Size::Percent(10.0).of(-3.0) - 0.3).abs() < 1e-15);
+    /// ```
+    pub fn of(self, x: f64) -> f64 {
+        match self {
+            Size::Absolute(u) => u,
+            Size::Percent(p) => p / 100.0 * x.abs(),
+        }
+    }
+
+    fn number(self) -> f64 {
+        match self {
+            Size::Absolute(u) | Size::Percent(u) => u,
+        }
+    }
+}
+
+/// One source of uncertainty.
+///
+/// ```
+/// use travertine::decisions::uncertainty::Source;
+/// use travertine::medium::ConstantName;
+/// use travertine::sample::inputs::Input;
+/// assert_eq!(Source::Constant(ConstantName::K1).name(), "pK1");
+/// assert_eq!(Source::Input(Input::Temperature).name(), "temperature");
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
+pub enum Source {
+    /// A measured input, named as in the list of inputs.
+    Input(Input),
+    /// An equilibrium constant (its pK), or the total boron.
+    Constant(ConstantName),
+}
+
+impl Source {
+    /// The name: the input's flag, or the constant as "pK1", "pKsp calcite",
+    /// "total boron".
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Source;
+    /// # use travertine::medium::ConstantName;
+    /// assert_eq!(Source::Constant(ConstantName::BoronTotal).name(), "total boron");
+    /// ```
+    pub fn name(self) -> String {
+        match self {
+            Source::Input(i) => i.flag().to_string(),
+            Source::Constant(ConstantName::BoronTotal) => "total boron".to_string(),
+            Source::Constant(c) => format!("p{}", c.name()),
+        }
+    }
+}
+
+/// The inputs whose uncertainty can be propagated (besides the two
+/// carbonate parameters of the pair, [`Input::Carbon`]).
+pub const INPUT_SOURCES: &[Input] = &[
+    Input::Temperature,
+    Input::Salinity,
+    Input::Total(Total::Calcium),
+    Input::Total(Total::Phosphate),
+    Input::Total(Total::Silicate),
+    Input::Total(Total::Ammonia),
+    Input::Total(Total::Sulfide),
+    Input::Wind,
+];
+
+/// The constants whose uncertainty has a default.
+pub const CONSTANT_SOURCES: [ConstantName; 8] = [
+    ConstantName::K0,
+    ConstantName::K1,
+    ConstantName::K2,
+    ConstantName::Kb,
+    ConstantName::Kw,
+    ConstantName::KspCalcite,
+    ConstantName::KspAragonite,
+    ConstantName::BoronTotal,
+];
+
+/// The default standard uncertainties of the constants in sea water, from
+/// Orr et al. (2018, Marine Chemistry 207:84–107), as
+/// ../shared/reference/equations.md §12 gives them: the paper is verified
+/// there \[V\], the values are from memory (unverified) \[M\]. pK in pK units,
+/// the total boron in per cent.
+///
+/// ```
+/// use travertine::decisions::uncertainty::{SALINE_DEFAULTS, Size};
+/// use travertine::medium::ConstantName;
+/// assert!(SALINE_DEFAULTS.contains(&(ConstantName::K1, Size::Absolute(0.0075))));
+/// ```
+pub const SALINE_DEFAULTS: [(ConstantName, Size); 8] = [
+    (ConstantName::K0, Size::Absolute(0.002)),
+    (ConstantName::K1, Size::Absolute(0.0075)),
+    (ConstantName::K2, Size::Absolute(0.015)),
+    (ConstantName::Kb, Size::Absolute(0.01)),
+    (ConstantName::Kw, Size::Absolute(0.01)),
+    (ConstantName::KspCalcite, Size::Absolute(0.02)),
+    (ConstantName::KspAragonite, Size::Absolute(0.02)),
+    (ConstantName::BoronTotal, Size::Percent(2.0)),
+];
+
+/// The default standard uncertainties of the thermodynamic constants of
+/// fresh water (Plummer & Busenberg 1982 and the pure-water limits of the
+/// sea-water fits), in pK units. These are the crate's stated defaults,
+/// from memory (unverified): of the order of the scatter of those fits
+/// about the measurements they were fitted to, and no smaller than the
+/// sea-water values above. A fresh water's total boron is measured or
+/// zero, so it has no default. The calcium ion-pair constants cannot be
+/// perturbed yet and carry none.
+///
+/// ```
+/// use travertine::decisions::uncertainty::{FRESH_DEFAULTS, Size};
+/// use travertine::medium::ConstantName;
+/// assert!(FRESH_DEFAULTS.contains(&(ConstantName::K2, Size::Absolute(0.02))));
+/// ```
+pub const FRESH_DEFAULTS: [(ConstantName, Size); 7] = [
+    (ConstantName::K0, Size::Absolute(0.005)),
+    (ConstantName::K1, Size::Absolute(0.01)),
+    (ConstantName::K2, Size::Absolute(0.02)),
+    (ConstantName::Kb, Size::Absolute(0.01)),
+    (ConstantName::Kw, Size::Absolute(0.01)),
+    (ConstantName::KspCalcite, Size::Absolute(0.02)),
+    (ConstantName::KspAragonite, Size::Absolute(0.02)),
+];
+
+/// The standard uncertainties of the sources: the inputs given, and the
+/// constants (their defaults for the medium, each of which can be set; or
+/// none at all).
+///
+/// ```
+/// use travertine::decisions::uncertainty::{Size, Uncertainties};
+/// use travertine::medium::ConstantName;
+/// use travertine::sample::inputs::Input;
+/// let u = Uncertainties::new()
+///     .with_input(Input::Temperature, Size::Absolute(0.1))?
+///     .with_constant(ConstantName::K1, Size::Absolute(0.01))?;
+/// assert!(u.with_input(Input::Temperature, Size::Absolute(-1.0)).is_err());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Uncertainties {
+    inputs: Vec<(Input, Size)>,
+    constants: Vec<(ConstantName, Size)>,
+    constants_off: bool,
+}
+
+impl Uncertainties {
+    /// No input uncertainty, and the default uncertainties of the
+    /// constants ([`SALINE_DEFAULTS`], [`FRESH_DEFAULTS`]).
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Uncertainties;
+    /// assert_eq!(Uncertainties::new(), Uncertainties::default());
+    /// ```
+    pub fn new() -> Self {
+        Self::default()
+    }
+
+    /// With the standard uncertainty of an input (replacing one given
+    /// before): a carbonate parameter ([`Input::Carbon`]) or one of
+    /// [`INPUT_SOURCES`].
+    ///
+    /// # Errors
+    /// [`Error::UnknownChoice`] for an input whose uncertainty is not
+    /// propagated; [`Error::OutOfRange`] or [`Error::NotFinite`] for a
+    /// size that is negative or not finite.
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::{Size, Uncertainties};
+    /// # use travertine::sample::inputs::Input;
+    /// assert!(Uncertainties::new().with_input(Input::Pressure, Size::Absolute(1.0)).is_err());
+    /// ```
+    pub fn with_input(mut self, input: Input, size: Size) -> Result<Self> {
+        if !(matches!(input, Input::Carbon(_)) || INPUT_SOURCES.contains(&input)) {
+            let mut accepted = vec!["the two carbonate parameters".to_string()];
+            accepted.extend(INPUT_SOURCES.iter().map(|i| i.flag().to_string()));
+            return Err(Error::UnknownChoice {
+                field: Field::Uncertainty,
+                name: input.flag().to_string(),
+                accepted: accepted.join(", "),
+            });
+        }
+        check_size(size)?;
+        self.inputs.retain(|(i, _)| *i != input);
+        self.inputs.push((input, size));
+        Ok(self)
+    }
+
+    /// With the standard uncertainty of a constant, replacing its default.
+    ///
+    /// # Errors
+    /// As [`Uncertainties::with_input`] for the size.
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::{Size, Uncertainties};
+    /// # use travertine::medium::ConstantName;
+    /// assert!(Uncertainties::new().with_constant(ConstantName::K2, Size::Percent(f64::NAN)).is_err());
+    /// ```
+    pub fn with_constant(mut self, constant: ConstantName, size: Size) -> Result<Self> {
+        check_size(size)?;
+        self.constants.retain(|(c, _)| *c != constant);
+        self.constants.push((constant, size));
+        Ok(self)
+    }
+
+    /// With no uncertainty in any constant (defaults and those set alike).
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Uncertainties;
+    /// assert_ne!(Uncertainties::new().without_constants(), Uncertainties::new());
+    /// ```
+    pub fn without_constants(mut self) -> Self {
+        self.constants_off = true;
+        self
+    }
+
+    /// The size of each constant's uncertainty in `medium`: the defaults,
+    /// overridden by those set; empty when switched off.
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Uncertainties;
+    /// # use travertine::Medium;
+    /// assert_eq!(Uncertainties::new().constants_in(Medium::Saline).len(), 8);
+    /// assert!(Uncertainties::new().without_constants().constants_in(Medium::Fresh).is_empty());
+    /// ```
+    pub fn constants_in(&self, medium: Medium) -> Vec<(ConstantName, Size)> {
+        if self.constants_off {
+            return Vec::new();
+        }
+        let defaults: &[(ConstantName, Size)] = match medium {
+            Medium::Saline => &SALINE_DEFAULTS,
+            Medium::Fresh => &FRESH_DEFAULTS,
+        };
+        let mut all: Vec<(ConstantName, Size)> = defaults
+            .iter()
+            .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
+            .copied()
+            .collect();
+        all.extend(self.constants.iter().copied());
+        all
+    }
+}
+
+fn check_size(size: Size) -> Result<()> {
+    let v = size.number();
+    if !v.is_finite() {
+        return Err(Error::NotFinite {
+            field: Field::Uncertainty,
+            value: v,
+        });
+    }
+    crate::base::error::check_range(Field::Uncertainty, v, 0.0, f64::MAX, "").map(|_| ())
+}
+
+/// One measured pair in one water, to propagate uncertainties through: the
+/// water prepared once, the pair, the solve options, and optionally the air
+/// over the water (for the exchange figures and the wind's uncertainty).
+///
+/// ```
+/// use travertine::decisions::uncertainty::Problem;
+/// use travertine::{Conditions, Measured, Water};
+/// let pond = Water::fresh(Conditions::new(18.0, 0.2)?)?;
+/// let p = Problem::new(&pond, Measured::ph(7.6, None)?, Measured::alkalinity_umol_kg(1500.0)?)?;
+/// assert!((p.solve()?.ph_nbs - 7.6).abs() < 1e-12);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone)]
+pub struct Problem {
+    prepared: PreparedWater,
+    a: Measured,
+    b: Measured,
+    options: SolveOptions,
+    air: Option<(Air, Option<PhScale>)>,
+}
+
+impl Problem {
+    /// The pair `a`, `b` in `water`, with default options (the comparison
+    /// with the other medium off: it changes no number).
+    ///
+    /// # Errors
+    /// As [`Water::prepare`].
+    pub fn new(water: &Water, a: Measured, b: Measured) -> Result<Self> {
+        Ok(Problem {
+            prepared: water.prepare()?,
+            a,
+            b,
+            options: SolveOptions::default().with_media_comparison(false),
+            air: None,
+        })
+    }
+
+    /// With these solve options (the comparison of media stays off).
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Problem;
+    /// # use travertine::{Conditions, Measured, SolveOptions, Water};
+    /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let p = Problem::new(&sea, Measured::dic_umol_kg(2000.0)?, Measured::alkalinity_umol_kg(2300.0)?)?
+    ///     .with_options(SolveOptions::default());
+    /// assert!(p.solve().is_ok());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_options(mut self, options: SolveOptions) -> Self {
+        self.options = options.with_media_comparison(false);
+        self
+    }
+
+    /// With the air over the water: every solve adds the exchange
+    /// ([`PreparedWater::with_exchange`]), its equilibrium pH on
+    /// `ph_scale` (`None`: the medium's own).
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Problem;
+    /// # use travertine::{sample::air::Air, Conditions, Measured, Water};
+    /// let pond = Water::fresh(Conditions::new(18.0, 0.2)?)?;
+    /// let p = Problem::new(&pond, Measured::ph(7.6, None)?, Measured::alkalinity_umol_kg(1500.0)?)?
+    ///     .with_air(Air::new().with_wind_m_s(4.0)?, None);
+    /// assert!(p.solve()?.exchange.unwrap().co2_flux_mmol_m2_d.is_some());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn with_air(mut self, air: Air, ph_scale: Option<PhScale>) -> Self {
+        self.air = Some((air, ph_scale));
+        self
+    }
+
+    /// The state, unperturbed.
+    ///
+    /// # Errors
+    /// As [`PreparedWater::solve`] and [`PreparedWater::with_exchange`].
+    pub fn solve(&self) -> Result<State> {
+        self.realise(&[])
+    }
+
+    /// The value of an input source in its unit (see [`Size::Absolute`]),
+    /// or of a constant's pK (the total boron in µmol/kg).
+    fn value_of(&self, source: Source) -> Result<f64> {
+        let water = self.prepared.water();
+        let c = water.conditions();
+        Ok(match source {
+            Source::Input(Input::Carbon(p)) if p == self.a.parameter() => self.a.number(),
+            Source::Input(Input::Carbon(p)) if p == self.b.parameter() => self.b.number(),
+            Source::Input(Input::Carbon(p)) => {
+                return Err(Error::UnknownChoice {
+                    field: Field::Uncertainty,
+                    name: p.name().to_string(),
+                    accepted: format!(
+                        "the parameters measured, {} and {}",
+                        self.a.parameter().name(),
+                        self.b.parameter().name()
+                    ),
+                })
+            }
+            Source::Input(Input::Temperature) => c.temperature_c(),
+            Source::Input(Input::Salinity) => c.salinity(),
+            Source::Input(Input::Wind) => self
+                .air
+                .as_ref()
+                .and_then(|(a, _)| a.wind_m_s())
+                .unwrap_or(0.0),
+            Source::Input(Input::Total(t)) => total_umol_kg(&self.prepared, t)?,
+            Source::Input(other) => {
+                return Err(Error::UnknownChoice {
+                    field: Field::Uncertainty,
+                    name: other.flag().to_string(),
+                    accepted: INPUT_SOURCES
+                        .iter()
+                        .map(|i| i.flag())
+                        .collect::<Vec<_>>()
+                        .join(", "),
+                })
+            }
+            Source::Constant(ConstantName::BoronTotal) => {
+                self.prepared.constants()?.totals().boron_mol_kg * 1e6
+            }
+            Source::Constant(_) => 0.0,
+        })
+    }
+
+    /// The state with each source moved by its shift (in the unit of
+    /// [`Size::Absolute`]; constants in pK units, the total boron too,
+    /// as log10 of its factor).
+    fn realise(&self, shifts: &[(Source, f64)]) -> Result<State> {
+        let base = self.prepared.water();
+        let mut water_changed = false;
+        let mut c = *base.conditions();
+        let mut composition = *base.composition();
+        let (mut a, mut b) = (self.a, self.b);
+        let mut air = self.air;
+        let mut totals = None;
+        for &(source, d) in shifts {
+            if d == 0.0 {
+                continue;
+            }
+            match source {
+                Source::Input(Input::Carbon(p)) if p == a.parameter() => {
+                    a = a.with_number(self.a.number() + d)?
+                }
+                Source::Input(Input::Carbon(p)) if p == b.parameter() => {
+                    b = b.with_number(self.b.number() + d)?
+                }
+                Source::Input(Input::Temperature) => {
+                    c = c.with_temperature_c(c.temperature_c() + d)?;
+                    water_changed = true;
+                }
+                Source::Input(Input::Salinity) => {
+                    c = with_salinity(&c, c.salinity() + d)?;
+                    water_changed = true;
+                }
+                Source::Input(Input::Wind) => {
+                    if let Some((air, _)) = &mut air {
+                        let wind = air.wind_m_s().unwrap_or(0.0) + d;
+                        *air = air.with_wind_m_s(wind)?;
+                    }
+                }
+                Source::Input(Input::Total(t)) => {
+                    let now = match totals {
+                        Some(now) => now,
+                        None => *totals.insert(*self.prepared.constants()?.totals()),
+                    };
+                    let x = Amount::PerKg(total_of(&now, t) + d * 1e-6);
+                    composition = match t {
+                        Total::Calcium => composition.with_calcium(x)?,
+                        Total::Phosphate => composition.with_phosphate(x)?,
+                        Total::Silicate => composition.with_silicate(x)?,
+                        Total::Ammonia => composition.with_ammonia(x)?,
+                        _ => composition.with_sulfide(x)?,
+                    };
+                    water_changed = true;
+                }
+                _ => {}
+            }
+        }
+        let mut prepared = if water_changed {
+            base.at(c)?.with_composition(composition).prepare()?
+        } else {
+            self.prepared.clone()
+        };
+        for &(source, d) in shifts {
+            if let (Source::Constant(k), true) = (source, d != 0.0) {
+                prepared = prepared.with_constants_perturbed(k, d)?;
+            }
+        }
+        let state = prepared.solve_with(a, b, &self.options)?;
+        match &air {
+            Some((air, scale)) => prepared.with_exchange(state, air, *scale),
+            None => Ok(state),
+        }
+    }
+}
+
+/// The conditions `c` at salinity `s`, everything else kept.
+fn with_salinity(c: &Conditions, s: f64) -> Result<Conditions> {
+    let moved = Conditions::new(c.temperature_c(), s)?.with_pressure_dbar(c.pressure_dbar())?;
+    if c.air_pressure_stated() {
+        moved.with_air_pressure_atm(c.air_pressure_atm())
+    } else {
+        Ok(moved)
+    }
+}
+
+fn total_of(t: &crate::sample::Totals, which: Total) -> f64 {
+    match which {
+        Total::Calcium => t.calcium_mol_kg,
+        Total::Phosphate => t.phosphate_mol_kg,
+        Total::Silicate => t.silicate_mol_kg,
+        Total::Ammonia => t.ammonia_mol_kg,
+        _ => t.sulfide_mol_kg,
+    }
+}
+
+fn total_umol_kg(prepared: &PreparedWater, which: Total) -> Result<f64> {
+    Ok(total_of(prepared.constants()?.totals(), which) * 1e6)
+}
+
+/// The standard uncertainty of one quantity and what makes it up.
+///
+/// ```
+/// use travertine::decisions::uncertainty::{Propagated, Source};
+/// use travertine::sample::inputs::Input;
+/// let p = Propagated { value: Some(10.0), u: Some(5.0), contributions: vec![3.0, 4.0] };
+/// let sources = [(Source::Input(Input::Temperature), 0.1), (Source::Input(Input::Salinity), 0.01)];
+/// let b = p.budget(&sources);
+/// assert!((b[0].1 - 0.36).abs() < 1e-15 && (b[1].1 - 0.64).abs() < 1e-15);
+/// ```
+#[derive(Debug, Clone, PartialEq)]
+pub struct Propagated {
+    /// The value, unperturbed (`None` where the state has none).
+    pub value: Option<f64>,
+    /// The standard uncertainty (`None` where there is no value, or where
+    /// the quantity disappears on both sides of a source's step).
+    pub u: Option<f64>,
+    /// For each source (in the order of [`Propagation::sources`]), its
+    /// sensitivity times its standard uncertainty, with its sign.
+    pub contributions: Vec<f64>,
+}
+
+impl Propagated {
+    /// Each source's share of the variance, u_i² / u²; the shares sum to 1
+    /// where the variance is above zero, and are all zero where it is zero.
+    pub fn budget(&self, sources: &[(Source, f64)]) -> Vec<(Source, f64)> {
+        let var: f64 = self.contributions.iter().map(|c| c * c).sum();
+        sources
+            .iter()
+            .zip(&self.contributions)
+            .map(|((s, _), c)| (*s, if var > 0.0 { c * c / var } else { 0.0 }))
+            .collect()
+    }
+}
+
+/// The result of [`propagate`].
+#[derive(Debug, Clone, PartialEq)]
+#[non_exhaustive]
+pub struct Propagation {
+    /// Every source with an uncertainty above zero, with its standard
+    /// uncertainty (in the unit of [`Size::Absolute`]; a constant in pK
+    /// units, the total boron as log10 of its factor).
+    pub sources: Vec<(Source, f64)>,
+    /// One entry per quantity, in the order the quantities were given.
+    pub outputs: Vec<Propagated>,
+}
+
+/// Every source with its standard uncertainty in the coordinate that
+/// [`Problem::realise`] shifts, and the scale of its difference step.
+fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, f64)>> {
+    let mut out = Vec::new();
+    for &(input, size) in &u.inputs {
+        let source = Source::Input(input);
+        if input == Input::Wind && problem.air.is_none() {
+            continue;
+        }
+        let x = problem.value_of(source)?;
+        let scale = match input {
+            Input::Carbon(crate::sample::measured::Parameter::Ph) => 1.0,
+            Input::Temperature => 10.0,
+            _ => x.abs().max(1.0),
+        };
+        out.push((source, size.of(x), scale));
+    }
+    let medium = problem.prepared.water().medium();
+    for (k, size) in u.constants_in(medium) {
+        let source = Source::Constant(k);
+        let in_pk = match (k, size) {
+            (ConstantName::BoronTotal, Size::Absolute(umol)) => {
+                let tb = problem.value_of(source)?;
+                if tb > 0.0 {
+                    umol / tb / LN_10
+                } else {
+                    0.0
+                }
+            }
+            (_, Size::Percent(p)) => p / 100.0 / LN_10,
+            (_, Size::Absolute(pk)) => pk,
+        };
+        out.push((source, in_pk, 1.0));
+    }
+    out.retain(|(_, u, _)| *u > 0.0);
+    Ok(out)
+}
+
+/// Linear (first-order) propagation: for each quantity `quantities` reads
+/// from a state, its standard uncertainty u = √Σ (∂y/∂x_i · u_i)² over the
+/// sources (taken as independent), each derivative a central difference of
+/// two full solves with the source moved by h = min(u_i, 10⁻⁴ × scale):
+/// the scale is 1 pH or pK unit, 10 °C, or the value itself (at least 1
+/// in its unit). Where one side of a step cannot be solved (a value taken
+/// out of its range), the one-sided difference of the other is used.
+///
+/// # Errors
+/// As [`Problem::solve`] for the unperturbed state; an error of a source
+/// whose steps fail on both sides, or an input that is not part of the
+/// problem (a carbonate parameter not measured).
+pub fn propagate<F>(problem: &Problem, u: &Uncertainties, quantities: F) -> Result<Propagation>
+where
+    F: Fn(&State) -> Vec<Option<f64>>,
+{
+    let base_state = problem.solve()?;
+    let base = quantities(&base_state);
+    let sources = sources_of(problem, u)?;
+    let mut outputs: Vec<Propagated> = base
+        .iter()
+        .map(|v| Propagated {
+            value: *v,
+            u: v.map(|_| 0.0),
+            contributions: Vec::with_capacity(sources.len()),
+        })
+        .collect();
+    for &(source, ui, scale) in &sources {
+        let h = ui.min(1e-4 * scale);
+        let up = problem.realise(&[(source, h)]).map(|s| quantities(&s));
+        let down = problem.realise(&[(source, -h)]).map(|s| quantities(&s));
+        if let (Err(e), Err(_)) = (&up, &down) {
+            return Err(e.clone());
+        }
+        for (k, out) in outputs.iter_mut().enumerate() {
+            let at = |r: &Result<Vec<Option<f64>>>| r.as_ref().ok().and_then(|v| v[k]);
+            let slope = match (at(&up), out.value, at(&down)) {
+                (Some(p), _, Some(m)) => Some((p - m) / (2.0 * h)),
+                (Some(p), Some(y), None) => Some((p - y) / h),
+                (None, Some(y), Some(m)) => Some((y - m) / h),
+                _ => None,
+            };
+            match slope {
+                Some(s) => out.contributions.push(s * ui),
+                None => {
+                    out.contributions.push(0.0);
+                    out.u = None;
+                }
+            }
+        }
+    }
+    for out in &mut outputs {
+        if out.u.is_some() {
+            out.u = Some(out.contributions.iter().map(|c| c * c).sum::<f64>().sqrt());
+        }
+    }
+    let sources = sources.into_iter().map(|(s, u, _)| (s, u)).collect();
+    Ok(Propagation { sources, outputs })
+}
+
+/// The result of [`monte_carlo`].
+#[derive(Debug, Clone, PartialEq)]
+#[non_exhaustive]
+pub struct MonteCarlo {
+    /// The empirical standard deviation of each quantity over the draws
+    /// that gave it (`None` with fewer than two).
+    pub std_devs: Vec<Option<f64>>,
+    /// The mean of each quantity over the same draws.
+    pub means: Vec<Option<f64>>,
+    /// The draws that solved.
+    pub solved: usize,
+    /// The draws that did not (a value drawn out of its range, or a pair
+    /// that fits no water).
+    pub failed: usize,
+}
+
+/// The Monte Carlo check of [`propagate`]: `draws` solves, each with every
+/// source drawn at once from a normal distribution of its standard
+/// uncertainty (independent), by a ChaCha8 generator seeded with `seed`
+/// (the same numbers on every platform).
+///
+/// # Errors
+/// [`Error::OutOfRange`] for fewer than 2 draws; as [`propagate`] for the
+/// sources.
+///
+/// ```
+/// use travertine::decisions::uncertainty::{monte_carlo, Problem, Uncertainties};
+/// use travertine::{Conditions, Measured, PhScale, Water};
+/// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
+/// let p = Problem::new(&sea, Measured::ph(8.05, Some(PhScale::Total))?, Measured::alkalinity_umol_kg(2300.0)?)?;
+/// let mc = monte_carlo(&p, &Uncertainties::new(), |s| vec![Some(s.pco2_uatm)], 200, 7)?;
+/// assert_eq!(mc.solved + mc.failed, 200);
+/// assert!(mc.std_devs[0].unwrap() > 0.0);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn monte_carlo<F>(
+    problem: &Problem,
+    u: &Uncertainties,
+    quantities: F,
+    draws: usize,
+    seed: u64,
+) -> Result<MonteCarlo>
+where
+    F: Fn(&State) -> Vec<Option<f64>>,
+{
+    if draws < 2 {
+        return Err(Error::OutOfRange {
+            field: Field::Draws,
+            value: draws as f64,
+            min: 2.0,
+            max: f64::MAX,
+            unit: "",
+        });
+    }
+    let n = quantities(&problem.solve()?).len();
+    let sources = sources_of(problem, u)?;
+    let mut rng = rand_chacha::ChaCha8Rng::seed_from_u64(seed);
+    // Welford's running mean and sum of squares, per quantity.
+    let mut count = vec![0usize; n];
+    let mut mean = vec![0.0; n];
+    let mut m2 = vec![0.0; n];
+    let (mut solved, mut failed) = (0, 0);
+    let mut shifts: Vec<(Source, f64)> = Vec::with_capacity(sources.len());
+    for _ in 0..draws {
+        shifts.clear();
+        for &(s, ui, _) in &sources {
+            let z: f64 = StandardNormal.sample(&mut rng);
+            shifts.push((s, z * ui));
+        }
+        match problem.realise(&shifts) {
+            Ok(state) => {
+                solved += 1;
+                for (k, v) in quantities(&state).into_iter().enumerate() {
+                    if let Some(v) = v.filter(|v| v.is_finite()) {
+                        count[k] += 1;
+                        let d = v - mean[k];
+                        mean[k] += d / count[k] as f64;
+                        m2[k] += d * (v - mean[k]);
+                    }
+                }
+            }
+            Err(_) => failed += 1,
+        }
+    }
+    let std_devs = (0..n)
+        .map(|k| (count[k] >= 2).then(|| (m2[k] / (count[k] - 1) as f64).sqrt()))
+        .collect();
+    let means = (0..n).map(|k| (count[k] >= 1).then(|| mean[k])).collect();
+    Ok(MonteCarlo {
+        std_devs,
+        means,
+        solved,
+        failed,
+    })
+}

@@ -1,0 +1,107 @@
+//! The uncertainty of every numeric output of the list
+//! ([`crate::output::Output`]): [`crate::decisions::uncertainty`] applied to
+//! the outputs, so that the list stays the one description of them.
+
+use super::fields::{Output, Value};
+use crate::base::error::Result;
+use crate::decisions::uncertainty::{
+    monte_carlo, propagate, MonteCarlo, Problem, Propagation, Uncertainties,
+};
+use crate::state::State;
+
+/// The outputs of the list whose value is a number (not a name), in list
+/// order.
+///
+/// ```
+/// use travertine::output::{uncertainty::numeric_outputs, Output};
+/// let numeric = numeric_outputs();
+/// assert!(numeric.contains(&Output::Pco2));
+/// assert!(!numeric.contains(&Output::Water));
+/// ```
+pub fn numeric_outputs() -> Vec<Output> {
+    // A state of any water tells which outputs are numbers: an output's
+    // kind does not depend on the state.
+    let probe = crate::sample::Conditions::new(25.0, 35.0)
+        .and_then(crate::sample::Water::saline)
+        .and_then(|w| {
+            w.solve(
+                crate::sample::Measured::alkalinity_umol_kg(2300.0)?,
+                crate::sample::Measured::dic_umol_kg(2000.0)?,
+            )
+        });
+    match probe {
+        Ok(s) => Output::ALL
+            .iter()
+            .copied()
+            .filter(|o| matches!(o.value(&s), Value::Number(_)))
+            .collect(),
+        Err(_) => Vec::new(),
+    }
+}
+
+/// The values of `outputs` in `state`, `None` where it has none.
+fn values(outputs: &[Output], state: &State) -> Vec<Option<f64>> {
+    outputs
+        .iter()
+        .map(|o| match o.value(state) {
+            Value::Number(v) => v,
+            Value::Text(_) => None,
+        })
+        .collect()
+}
+
+/// The standard uncertainty and budget of every numeric output: the
+/// outputs of [`numeric_outputs`], and [`propagate`]'s result for them in
+/// the same order.
+///
+/// # Errors
+/// As [`propagate`].
+///
+/// ```
+/// use travertine::decisions::uncertainty::{Problem, Size, Uncertainties};
+/// use travertine::output::{uncertainty::outputs_propagated, Output};
+/// use travertine::sample::inputs::Input;
+/// use travertine::{Conditions, Measured, Parameter, Water};
+/// let pond = Water::fresh(Conditions::new(15.0, 0.2)?)?;
+/// let p = Problem::new(&pond, Measured::ph(7.5, None)?, Measured::alkalinity_umol_kg(1200.0)?)?;
+/// let u = Uncertainties::new().with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.02))?;
+/// let (outputs, result) = outputs_propagated(&p, &u)?;
+/// let k = outputs.iter().position(|o| *o == Output::Pco2).unwrap();
+/// assert!(result.outputs[k].u.unwrap() > 0.0);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn outputs_propagated(
+    problem: &Problem,
+    u: &Uncertainties,
+) -> Result<(Vec<Output>, Propagation)> {
+    let outputs = numeric_outputs();
+    let result = propagate(problem, u, |s| values(&outputs, s))?;
+    Ok((outputs, result))
+}
+
+/// The Monte Carlo check of every numeric output: [`monte_carlo`] for the
+/// outputs of [`numeric_outputs`], in the same order.
+///
+/// # Errors
+/// As [`monte_carlo`].
+///
+/// ```
+/// use travertine::decisions::uncertainty::{Problem, Uncertainties};
+/// use travertine::output::uncertainty::outputs_monte_carlo;
+/// use travertine::{Conditions, Measured, Water};
+/// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
+/// let p = Problem::new(&sea, Measured::dic_umol_kg(2000.0)?, Measured::alkalinity_umol_kg(2300.0)?)?;
+/// let (outputs, mc) = outputs_monte_carlo(&p, &Uncertainties::new(), 50, 1)?;
+/// assert_eq!(outputs.len(), mc.std_devs.len());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn outputs_monte_carlo(
+    problem: &Problem,
+    u: &Uncertainties,
+    draws: usize,
+    seed: u64,
+) -> Result<(Vec<Output>, MonteCarlo)> {
+    let outputs = numeric_outputs();
+    let result = monte_carlo(problem, u, |s| values(&outputs, s), draws, seed)?;
+    Ok((outputs, result))
+}

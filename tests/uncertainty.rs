@@ -1,0 +1,289 @@
+//! Linear propagation of uncertainties (issue 13): checks against the
+//! definition of K1, against central differences written here, against
+//! Monte Carlo draws, and the budget's and zero's rules.
+
+use travertine::decisions::uncertainty::{
+    monte_carlo, propagate, Problem, Size, Source, Uncertainties,
+};
+use travertine::output::uncertainty::{outputs_monte_carlo, outputs_propagated};
+use travertine::output::Output;
+use travertine::sample::inputs::{Input, Total};
+use travertine::units::Amount;
+use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
+
+fn sea() -> Water {
+    Water::saline(Conditions::new(25.0, 35.0).unwrap()).unwrap()
+}
+
+fn pond() -> Water {
+    let c = Composition::default()
+        .with_calcium(Amount::PerKg(1.0e-3))
+        .unwrap();
+    Water::fresh(Conditions::new(15.0, 0.2).unwrap())
+        .unwrap()
+        .with_composition(c)
+}
+
+fn ph_only(u: f64) -> Uncertainties {
+    Uncertainties::new()
+        .without_constants()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(u))
+        .unwrap()
+}
+
+/// pH and HCO3-: pCO2 ∝ [H+][HCO3-]/K1, so u(pH) = 0.01 alone gives a
+/// relative u(pCO2) of ln(10) × 0.01 = 2.3026 % (follows from the
+/// definition of K1), in both media.
+#[test]
+fn ph_and_bicarbonate_give_ln10_times_u_ph() {
+    let expected = std::f64::consts::LN_10 * 0.01; // definition of K1
+    for (water, ph) in [
+        (sea(), Measured::ph(8.0, Some(PhScale::Total)).unwrap()),
+        (pond(), Measured::ph(7.6, None).unwrap()),
+    ] {
+        let p = Problem::new(&water, ph, Measured::hco3_umol_kg(1800.0).unwrap()).unwrap();
+        let r = propagate(&p, &ph_only(0.01), |s| vec![Some(s.pco2_uatm)]).unwrap();
+        let o = &r.outputs[0];
+        let relative = o.u.unwrap() / o.value.unwrap();
+        assert!(
+            (relative / expected - 1.0).abs() < 1e-3,
+            "{:?}: {relative}",
+            water.medium()
+        );
+    }
+}
+
+/// pH and alkalinity: the propagated u(pCO2) is the slope of two full
+/// solves (a central difference written here, step 0.001 pH) times u(pH).
+#[test]
+fn ph_and_alkalinity_agree_with_a_central_difference() {
+    for (water, scale, ph) in [(sea(), Some(PhScale::Total), 8.05), (pond(), None, 7.4)] {
+        let ta = Measured::alkalinity_umol_kg(2000.0).unwrap();
+        let solve = |ph: f64| {
+            water
+                .solve(Measured::ph(ph, scale).unwrap(), ta)
+                .unwrap()
+                .pco2_uatm
+        };
+        let h = 1e-3;
+        let slope = (solve(ph + h) - solve(ph - h)) / (2.0 * h);
+        let p = Problem::new(&water, Measured::ph(ph, scale).unwrap(), ta).unwrap();
+        let r = propagate(&p, &ph_only(0.01), |s| vec![Some(s.pco2_uatm)]).unwrap();
+        let u = r.outputs[0].u.unwrap();
+        assert!((u / (slope.abs() * 0.01) - 1.0).abs() < 1e-4, "{u} {slope}");
+        // Larger than at fixed HCO3- (the slope d ln CO2*/d ln[H+] at fixed
+        // alkalinity is above 1).
+        assert!(u / r.outputs[0].value.unwrap() > std::f64::consts::LN_10 * 0.01);
+    }
+}
+
+/// The sources of the Monte Carlo comparison: every input of the pair,
+/// temperature and salinity, calcium in fresh water, and the constants'
+/// defaults (Orr et al. 2018 in sea water; the crate's fresh defaults).
+fn typical(a: Parameter, b: Parameter, fresh: bool) -> Uncertainties {
+    let size = |p: Parameter| match p {
+        Parameter::Ph => Size::Absolute(0.01), // a good field meter (common practice)
+        Parameter::Alkalinity | Parameter::Dic => Size::Absolute(3.0),
+        _ => Size::Percent(1.0),
+    };
+    let mut u = Uncertainties::new()
+        .with_input(Input::Carbon(a), size(a))
+        .and_then(|u| u.with_input(Input::Carbon(b), size(b)))
+        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+        .unwrap();
+    if fresh {
+        u = u
+            .with_input(Input::Total(Total::Calcium), Size::Percent(2.0))
+            .unwrap();
+    } else {
+        u = u.with_input(Input::Salinity, Size::Absolute(0.01)).unwrap();
+    }
+    u
+}
+
+/// Linear propagation and 20 000 Monte Carlo draws (fixed seed) agree
+/// within 5 % for every key output, for six pairs in each medium.
+#[test]
+fn linear_agrees_with_monte_carlo() {
+    use Parameter as P;
+    let pairs: [(Measured, Measured); 6] = [
+        (
+            Measured::alkalinity_umol_kg(2100.0).unwrap(),
+            Measured::dic_umol_kg(1950.0).unwrap(),
+        ),
+        (
+            Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+            Measured::alkalinity_umol_kg(2100.0).unwrap(),
+        ),
+        (
+            Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+            Measured::dic_umol_kg(1900.0).unwrap(),
+        ),
+        (
+            Measured::pco2_uatm(500.0).unwrap(),
+            Measured::alkalinity_umol_kg(2100.0).unwrap(),
+        ),
+        (
+            Measured::pco2_uatm(500.0).unwrap(),
+            Measured::dic_umol_kg(1950.0).unwrap(),
+        ),
+        (
+            Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+            Measured::pco2_uatm(500.0).unwrap(),
+        ),
+    ];
+    let keys = [
+        Output::PhTotal,
+        Output::PhNbs,
+        Output::Pco2,
+        Output::DicUmolKg,
+        Output::AlkalinityUmolKg,
+        Output::Co3UmolKg,
+        Output::Hco3UmolKg,
+        Output::OmegaCalcite,
+        Output::OmegaAragonite,
+    ];
+    for (water, fresh) in [(sea(), false), (pond(), true)] {
+        for (a, b) in pairs {
+            let p = Problem::new(&water, a, b).unwrap();
+            let u = typical(a.parameter(), b.parameter(), fresh);
+            let (outputs, linear) = outputs_propagated(&p, &u).unwrap();
+            let (_, mc) = outputs_monte_carlo(&p, &u, 20_000, 13).unwrap();
+            assert_eq!(mc.failed, 0);
+            let mut compared = 0;
+            for (k, o) in outputs.iter().enumerate() {
+                if !keys.contains(o) {
+                    continue;
+                }
+                let (Some(l), Some(m)) = (linear.outputs[k].u, mc.std_devs[k]) else {
+                    continue;
+                };
+                if l == 0.0 && m < 1e-9 {
+                    continue; // a measured value with no uncertainty of its own
+                }
+                compared += 1;
+                assert!(
+                    (l / m - 1.0).abs() < 0.05,
+                    "{:?} {:?}+{:?} {}: linear {l}, Monte Carlo {m}",
+                    water.medium(),
+                    a.parameter(),
+                    b.parameter(),
+                    o.key()
+                );
+            }
+            assert!(compared >= 5, "{compared}");
+            let _ = (P::Ph, fresh);
+        }
+    }
+}
+
+/// No input uncertainty and the constants switched off: every output's
+/// uncertainty is exactly zero, and so is the Monte Carlo spread.
+#[test]
+fn zero_uncertainty_gives_exactly_zero() {
+    for water in [sea(), pond()] {
+        let p = Problem::new(
+            &water,
+            Measured::alkalinity_umol_kg(2000.0).unwrap(),
+            Measured::dic_umol_kg(1900.0).unwrap(),
+        )
+        .unwrap();
+        let none = Uncertainties::new()
+            .without_constants()
+            .with_input(Input::Carbon(Parameter::Dic), Size::Absolute(0.0))
+            .unwrap();
+        let (_, r) = outputs_propagated(&p, &none).unwrap();
+        assert!(r.sources.is_empty());
+        for o in &r.outputs {
+            if o.value.is_some() {
+                assert_eq!(o.u, Some(0.0));
+            }
+        }
+        let mc = monte_carlo(&p, &none, |s| vec![Some(s.pco2_uatm)], 10, 1).unwrap();
+        assert_eq!(mc.std_devs[0], Some(0.0));
+    }
+}
+
+/// The budget: the shares of every output with a variance above zero sum
+/// to 1, with all the default constants and several inputs.
+#[test]
+fn budget_shares_sum_to_one() {
+    for (water, fresh) in [(sea(), false), (pond(), true)] {
+        let p = Problem::new(
+            &water,
+            Measured::ph(7.9, Some(PhScale::Total)).unwrap(),
+            Measured::alkalinity_umol_kg(2000.0).unwrap(),
+        )
+        .unwrap();
+        let u = typical(Parameter::Ph, Parameter::Alkalinity, fresh);
+        let (_, r) = outputs_propagated(&p, &u).unwrap();
+        assert!(r.sources.len() >= 9, "{:?}", r.sources);
+        let mut checked = 0;
+        for o in &r.outputs {
+            if o.u.is_some_and(|u| u > 0.0) {
+                let sum: f64 = o.budget(&r.sources).iter().map(|(_, f)| f).sum();
+                assert!((sum - 1.0).abs() < 1e-12, "{sum}");
+                checked += 1;
+            }
+        }
+        assert!(checked > 10);
+    }
+}
+
+/// Symmetry: with DIC measured, the DIC output is the DIC input, so its
+/// uncertainty is u(DIC) and no other source (alkalinity, temperature,
+/// the constants) contributes to it.
+#[test]
+fn a_measured_dic_carries_only_its_own_uncertainty() {
+    for (water, fresh) in [(sea(), false), (pond(), true)] {
+        let p = Problem::new(
+            &water,
+            Measured::alkalinity_umol_kg(2000.0).unwrap(),
+            Measured::dic_umol_kg(1900.0).unwrap(),
+        )
+        .unwrap();
+        let only_dic = Uncertainties::new()
+            .without_constants()
+            .with_input(Input::Carbon(Parameter::Dic), Size::Absolute(4.0))
+            .unwrap();
+        let r = propagate(&p, &only_dic, |s| vec![Some(s.dic_umol_kg)]).unwrap();
+        assert!((r.outputs[0].u.unwrap() - 4.0).abs() < 1e-6);
+        // With every other source too, DIC's budget is all its own.
+        let all = typical(Parameter::Alkalinity, Parameter::Dic, fresh)
+            .with_input(Input::Carbon(Parameter::Dic), Size::Absolute(4.0))
+            .unwrap();
+        let r = propagate(&p, &all, |s| vec![Some(s.dic_umol_kg)]).unwrap();
+        assert!((r.outputs[0].u.unwrap() - 4.0).abs() < 1e-6);
+        for ((source, _), c) in r.sources.iter().zip(&r.outputs[0].contributions) {
+            if *source != Source::Input(Input::Carbon(Parameter::Dic)) {
+                assert!(c.abs() < 1e-6, "{source:?}: {c}");
+            }
+        }
+    }
+}
+
+/// The wind's uncertainty reaches the flux and nothing of the water.
+#[test]
+fn wind_uncertainty_reaches_the_flux_only() {
+    use travertine::sample::air::Air;
+    let p = Problem::new(
+        &pond(),
+        Measured::ph(7.6, None).unwrap(),
+        Measured::alkalinity_umol_kg(1500.0).unwrap(),
+    )
+    .unwrap()
+    .with_air(Air::new().with_wind_m_s(5.0).unwrap(), None);
+    let u = Uncertainties::new()
+        .without_constants()
+        .with_input(Input::Wind, Size::Absolute(0.5))
+        .unwrap();
+    let r = propagate(&p, &u, |s| {
+        vec![
+            Some(s.pco2_uatm),
+            s.exchange.and_then(|e| e.co2_flux_mmol_m2_d),
+        ]
+    })
+    .unwrap();
+    assert_eq!(r.outputs[0].u, Some(0.0));
+    assert!(r.outputs[1].u.unwrap() > 0.0);
+}
