@@ -110,8 +110,12 @@ fn header(s: &State, precision: Precision) -> String {
         salinity,
         pressure
     );
-    if let Some(r) = s.ionic_strength_from {
-        h.push_str(&format!("; ionic strength from {}", r.name()));
+    match s.ionic_strength_from {
+        Some(crate::medium::fresh::IonicStrengthRoute::Given) => {
+            h.push_str("; ionic strength given")
+        }
+        Some(r) => h.push_str(&format!("; ionic strength from {}", r.name())),
+        None => {}
     }
     h
 }
