@@ -305,8 +305,8 @@ pub struct NamedInput {
 ///
 /// ```
 /// use travertine::sample::inputs::{NamedInput, UnreadName};
-/// assert_eq!(NamedInput::find("depth_fathoms").unwrap_err().to_string(),
-///            "`depth_fathoms`: `fathoms` is not a unit travertine knows for depth; accepted: \
+/// assert_eq!(NamedInput::find("depth_dbar").unwrap_err().to_string(),
+///            "`depth_dbar`: `dbar` is not a unit travertine knows for depth; accepted: \
 ///             m; in a sheet header also ft (0.3048 m); for example depth_m");
 /// assert!(matches!(NamedInput::find("colour"), Err(UnreadName::Unknown { .. })));
 /// ```

@@ -1,0 +1,150 @@
+//! The C example (`examples/larkvane.c`) compiles with the system's C
+//! compiler against the committed header and the static library, runs,
+//! and prints the numbers `travertine solve --json` gives for the same
+//! inputs, to 1e-12 relative; its warnings are the program's, and its
+//! error message is the program's.
+
+mod common;
+
+use common::{agree, cli_json, static_lib, Given};
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+/// Compiles a C file of this crate against travertine.h and the static
+/// library, with warnings as errors.
+fn compile(source: &str) -> PathBuf {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let out = Path::new(env!("CARGO_TARGET_TMPDIR")).join(
+        Path::new(source)
+            .file_stem()
+            .expect("a file name")
+            .to_string_lossy()
+            .into_owned(),
+    );
+    let cc = std::env::var("CC").unwrap_or_else(|_| "cc".to_string());
+    let status = Command::new(&cc)
+        .args(["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"])
+        .arg(format!("-I{}", dir.display()))
+        .arg(dir.join(source))
+        .arg(static_lib())
+        // What a Rust static library needs from the system on Linux.
+        .args(["-lpthread", "-ldl", "-lm"])
+        .arg("-o")
+        .arg(&out)
+        .status()
+        .unwrap_or_else(|e| panic!("{cc} runs: {e}"));
+    assert!(status.success(), "{cc} failed on {source}");
+    out
+}
+
+/// One sample as the example printed it.
+#[derive(Debug, Default)]
+struct Printed {
+    title: String,
+    given: Given,
+    outputs: Vec<(String, f64)>,
+    warnings: Vec<String>,
+    error: Option<(i32, String)>,
+}
+
+fn number(text: &str) -> f64 {
+    if text == "none" {
+        f64::NAN
+    } else {
+        text.parse()
+            .unwrap_or_else(|_| panic!("not a number: {text}"))
+    }
+}
+
+/// Reads the example's `--all-digits` output.
+fn read(stdout: &str) -> Vec<Printed> {
+    let mut samples: Vec<Printed> = Vec::new();
+    for line in stdout.lines() {
+        if let Some(title) = line.strip_prefix("sample ") {
+            samples.push(Printed {
+                title: title.to_string(),
+                ..Printed::default()
+            });
+            continue;
+        }
+        let s = samples.last_mut().expect("a sample line first");
+        let words: Vec<&str> = line.split_whitespace().collect();
+        match words.as_slice() {
+            ["input", name, value] => s.given.inputs.push((name.to_string(), number(value))),
+            ["option", name, value] => s.given.options.push((name.to_string(), value.to_string())),
+            ["output", key, value] => s.outputs.push((key.to_string(), number(value))),
+            ["warning", code] => s.warnings.push(code.to_string()),
+            ["error", code, ..] => {
+                let message = line.trim_start()["error".len()..]
+                    .trim_start()
+                    .split_once(' ')
+                    .map(|(_, m)| m.to_string())
+                    .unwrap_or_default();
+                s.error = Some((code.parse().expect("a code"), message));
+            }
+            other => panic!("an unexpected line: {other:?}"),
+        }
+    }
+    samples
+}
+
+#[test]
+fn the_c_example_gives_the_numbers_of_the_command_line() {
+    let exe = compile("examples/larkvane.c");
+    let out = Command::new(&exe)
+        .arg("--all-digits")
+        .output()
+        .expect("the example runs");
+    let stdout = String::from_utf8(out.stdout).expect("UTF-8");
+    assert!(out.status.success(), "the example failed:\n{stdout}");
+    let samples = read(&stdout);
+    assert_eq!(samples.len(), 3, "{stdout}");
+
+    let mut compared = 0;
+    for s in &samples {
+        match (&s.error, cli_json(&s.given)) {
+            (None, Ok(json)) => {
+                assert!(!s.outputs.is_empty(), "{}: no outputs", s.title);
+                for (key, c) in &s.outputs {
+                    match json[key.as_str()].as_f64() {
+                        Some(v) => assert!(agree(*c, v), "{}: {key}: C {c}, CLI {v}", s.title),
+                        None => assert!(c.is_nan(), "{}: {key}: C {c}, CLI none", s.title),
+                    }
+                    compared += 1;
+                }
+                let codes: Vec<&str> = json["warnings"]
+                    .as_array()
+                    .expect("warnings")
+                    .iter()
+                    .map(|w| w["code"].as_str().expect("a code"))
+                    .collect();
+                assert_eq!(codes, s.warnings, "{}", s.title);
+            }
+            (Some((code, message)), Err(stderr)) => {
+                assert_eq!(
+                    *code,
+                    travertine_c::TRV_ERR_UNSTATED_PH_SCALE,
+                    "{}",
+                    s.title
+                );
+                assert!(
+                    stderr.contains(message.as_str()),
+                    "{}: C `{message}`, CLI `{stderr}`",
+                    s.title
+                );
+            }
+            (c, cli) => panic!("{}: C {c:?}, CLI {cli:?}", s.title),
+        }
+    }
+    assert!(compared >= 20, "only {compared} numbers compared");
+    // Both media, and a number on each side of the example: a fresh
+    // Langelier index, no Langelier index in saline water.
+    assert!(samples[0]
+        .outputs
+        .iter()
+        .any(|(k, v)| k == "langelier_index" && v.is_finite()));
+    assert!(samples[1]
+        .outputs
+        .iter()
+        .any(|(k, v)| k == "langelier_index" && v.is_nan()));
+}
