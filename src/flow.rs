@@ -742,17 +742,6 @@ fn percent(change: f64) -> String {
     }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn a_prepared_water_can_be_shared_between_threads() {
-        fn shareable<T: Send + Sync>() {}
-        shareable::<PreparedWater>();
-    }
-}
-
 impl Sample {
     /// Solves a sample given input by input, as `travertine solve` does:
     /// the measured pair ([`Sample::pair`]), the water ([`Sample::water`]),
@@ -786,5 +775,16 @@ impl Sample {
         water
             .solve_with(first, second, options)?
             .with_exchange(&air, self.ph_scale_given())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_prepared_water_can_be_shared_between_threads() {
+        fn shareable<T: Send + Sync>() {}
+        shareable::<PreparedWater>();
     }
 }

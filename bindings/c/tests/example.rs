@@ -10,8 +10,8 @@ use common::{agree, cli_json, static_lib, Given};
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
-/// Compiles a C file of this crate against travertine.h and the static
-/// library, with warnings as errors.
+/// Compiles a C file (a path in this crate, or absolute) against
+/// travertine.h and the static library, with warnings as errors.
 fn compile(source: &str) -> PathBuf {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR"));
     let out = Path::new(env!("CARGO_TARGET_TMPDIR")).join(
@@ -147,4 +147,60 @@ fn the_c_example_gives_the_numbers_of_the_command_line() {
         .outputs
         .iter()
         .any(|(k, v)| k == "langelier_index" && v.is_nan()));
+}
+
+/// The C code of the README's "From C" section compiles and runs, inside
+/// a `main`, and prints the pond's pCO2 and its notes.
+#[test]
+fn the_readme_c_code_compiles_and_runs() {
+    let readme =
+        std::fs::read_to_string(common::workspace_root().join("README.md")).expect("README.md");
+    let section = readme
+        .split_once("### From C")
+        .map(|(_, rest)| rest)
+        .expect("a From C section");
+    let code = section
+        .split_once("```c\n")
+        .and_then(|(_, rest)| rest.split_once("```"))
+        .map(|(code, _)| code)
+        .expect("a C block");
+    let source = Path::new(env!("CARGO_TARGET_TMPDIR")).join("readme_from_c.c");
+    std::fs::write(
+        &source,
+        format!("#include <stdio.h>\n#include \"travertine.h\"\n\nint main(void)\n{{\n{code}return 0;\n}}\n"),
+    )
+    .expect("write the C file");
+    let exe = compile(source.to_str().expect("UTF-8 path"));
+    let out = Command::new(&exe).output().expect("it runs");
+    let stdout = String::from_utf8_lossy(&out.stdout);
+    assert!(out.status.success(), "{stdout}");
+    // The program, given the inputs and options the code sets.
+    let mut given = Given::default();
+    for line in code.lines().map(str::trim) {
+        let args = |prefix: &str| {
+            line.strip_prefix(prefix)
+                .and_then(|rest| rest.strip_suffix(");"))
+                .map(|rest| {
+                    rest.split(", ")
+                        .map(|a| a.trim_matches('"').to_string())
+                        .collect::<Vec<_>>()
+                })
+        };
+        if let Some(a) = args("trv_sample_set(s, ") {
+            given
+                .inputs
+                .push((a[0].clone(), a[1].parse().expect("a number")));
+        } else if let Some(a) = args("trv_sample_option(s, ") {
+            given.options.push((a[0].clone(), a[1].clone()));
+        }
+    }
+    assert_eq!(given.inputs.len(), 5, "{given:?}");
+    let json = cli_json(&given).expect("the program solves it");
+    let expected = format!(
+        "pCO2 {:.0} uatm, Langelier index {:.2}\n",
+        json["pco2_uatm"].as_f64().expect("pCO2"),
+        json["langelier_index"].as_f64().expect("a Langelier index")
+    );
+    assert!(stdout.starts_with(&expected), "C {stdout}, CLI {expected}");
+    assert!(stdout.contains("note: air_co2_default"), "{stdout}");
 }
