@@ -510,4 +510,13 @@ mod tests {
             assert!(seen.insert(code), "{k}: {code} twice");
         }
     }
+
+    /// A panic inside a guarded body becomes the fallback, and does not
+    /// unwind past it.
+    #[test]
+    fn a_panic_becomes_the_fallback() {
+        let code = guarded(TRV_ERR_INTERNAL, || -> c_int { panic!("a planted bug") });
+        assert_eq!(code, TRV_ERR_INTERNAL);
+        assert_eq!(guarded(TRV_ERR_INTERNAL, || TRV_OK), TRV_OK);
+    }
 }

@@ -11,16 +11,11 @@ use std::path::{Path, PathBuf};
 use std::process::Command;
 
 /// Compiles a C file (a path in this crate, or absolute) against
-/// travertine.h and the static library, with warnings as errors.
-fn compile(source: &str) -> PathBuf {
+/// travertine.h and the static library, with warnings as errors, into the
+/// program `name` (each test its own, as tests run at once).
+fn compile(source: &str, name: &str) -> PathBuf {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR"));
-    let out = Path::new(env!("CARGO_TARGET_TMPDIR")).join(
-        Path::new(source)
-            .file_stem()
-            .expect("a file name")
-            .to_string_lossy()
-            .into_owned(),
-    );
+    let out = Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
     let cc = std::env::var("CC").unwrap_or_else(|_| "cc".to_string());
     let status = Command::new(&cc)
         .args(["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"])
@@ -90,7 +85,7 @@ fn read(stdout: &str) -> Vec<Printed> {
 
 #[test]
 fn the_c_example_gives_the_numbers_of_the_command_line() {
-    let exe = compile("examples/larkvane.c");
+    let exe = compile("examples/larkvane.c", "larkvane");
     let out = Command::new(&exe)
         .arg("--all-digits")
         .output()
@@ -170,7 +165,7 @@ fn the_readme_c_code_compiles_and_runs() {
         format!("#include <stdio.h>\n#include \"travertine.h\"\n\nint main(void)\n{{\n{code}return 0;\n}}\n"),
     )
     .expect("write the C file");
-    let exe = compile(source.to_str().expect("UTF-8 path"));
+    let exe = compile(source.to_str().expect("UTF-8 path"), "readme_from_c");
     let out = Command::new(&exe).output().expect("it runs");
     let stdout = String::from_utf8_lossy(&out.stdout);
     assert!(out.status.success(), "{stdout}");
@@ -203,4 +198,43 @@ fn the_readme_c_code_compiles_and_runs() {
     );
     assert!(stdout.starts_with(&expected), "C {stdout}, CLI {expected}");
     assert!(stdout.contains("note: air_co2_default"), "{stdout}");
+}
+
+/// The shared library, linked as the README says (`-L... -ltravertine_c`),
+/// gives the example the same output as the static one.
+#[cfg(target_os = "linux")]
+#[test]
+fn the_shared_library_gives_the_same_output() {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let lib_dir = static_lib().parent().expect("a directory").to_path_buf();
+    assert!(
+        lib_dir.join("libtravertine_c.so").exists(),
+        "no shared library"
+    );
+    let exe = Path::new(env!("CARGO_TARGET_TMPDIR")).join("larkvane_shared");
+    let status = Command::new("cc")
+        .args(["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"])
+        .arg(format!("-I{}", dir.display()))
+        .arg(dir.join("examples/larkvane.c"))
+        .arg(format!("-L{}", lib_dir.display()))
+        .args(["-ltravertine_c", "-lm", "-o"])
+        .arg(&exe)
+        .status()
+        .expect("cc runs");
+    assert!(status.success(), "cc failed linking the shared library");
+    let run = |exe: &Path| {
+        let out = Command::new(exe)
+            .arg("--all-digits")
+            .env("LD_LIBRARY_PATH", &lib_dir)
+            .output()
+            .expect("it runs");
+        assert!(out.status.success());
+        String::from_utf8(out.stdout).expect("UTF-8")
+    };
+    let shared = run(&exe);
+    assert!(shared.contains("output pco2_uatm"), "{shared}");
+    assert_eq!(
+        shared,
+        run(&compile("examples/larkvane.c", "larkvane_static"))
+    );
 }

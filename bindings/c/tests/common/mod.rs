@@ -50,16 +50,17 @@ pub fn cli() -> PathBuf {
     profile_dir().join(format!("travertine{}", std::env::consts::EXE_SUFFIX))
 }
 
-/// The static library of the binding.
+/// The static library of the binding: cargo makes it, with the shared
+/// library, whenever it builds this crate's library for its tests.
 pub fn static_lib() -> PathBuf {
-    static BUILT: OnceLock<()> = OnceLock::new();
-    build(&["-p", "travertine-c", "--lib"], &BUILT);
     let name = if cfg!(windows) {
         "travertine_c.lib"
     } else {
         "libtravertine_c.a"
     };
-    profile_dir().join(name)
+    let path = profile_dir().join(name);
+    assert!(path.exists(), "no {}", path.display());
+    path
 }
 
 /// A sample as the C interface is given it: inputs by name with a number,
