@@ -16,7 +16,7 @@ use std::process::Command;
 fn compile(source: &str, name: &str) -> PathBuf {
     let dir = Path::new(env!("CARGO_MANIFEST_DIR"));
     let out = Path::new(env!("CARGO_TARGET_TMPDIR")).join(name);
-    let cc = std::env::var("CC").unwrap_or_else(|_| "cc".to_string());
+    let cc = c_compiler();
     let status = Command::new(&cc)
         .args(["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"])
         .arg(format!("-I{}", dir.display()))
@@ -30,6 +30,11 @@ fn compile(source: &str, name: &str) -> PathBuf {
         .unwrap_or_else(|e| panic!("{cc} runs: {e}"));
     assert!(status.success(), "{cc} failed on {source}");
     out
+}
+
+/// The C compiler: `$CC`, or `cc`.
+fn c_compiler() -> String {
+    std::env::var("CC").unwrap_or_else(|_| "cc".to_string())
 }
 
 /// One sample as the example printed it.
@@ -212,7 +217,7 @@ fn the_shared_library_gives_the_same_output() {
         "no shared library"
     );
     let exe = Path::new(env!("CARGO_TARGET_TMPDIR")).join("larkvane_shared");
-    let status = Command::new("cc")
+    let status = Command::new(c_compiler())
         .args(["-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic"])
         .arg(format!("-I{}", dir.display()))
         .arg(dir.join("examples/larkvane.c"))
