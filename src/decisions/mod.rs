@@ -23,3 +23,4 @@ pub mod dose;
 pub mod volume;
 // issue 13: uncertainty
 pub mod uncertainty;
+pub mod uncertainty_settings;
