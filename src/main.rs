@@ -213,6 +213,106 @@ struct SolveArgs {
     /// default; cold-water-fish; shellfish-hatchery) or a TOML file.
     #[arg(long, value_name = "NAME|FILE")]
     profile: Option<String>,
+    /// The standard uncertainties asked for (issue 13).
+    #[command(flatten)]
+    uncertainty: UncertaintyArgs,
+}
+
+/// The flags of the standard uncertainties (`solve` and `dose`).
+#[derive(Args)]
+struct UncertaintyArgs {
+    /// Standard uncertainty of an input or a constant, NAME=VALUE; repeatable. NAME: an
+    /// input's flag or sheet column (ph, alkalinity, dic, pco2, temperature, salinity,
+    /// calcium, phosphate, silicate, ammonia, sulfide, wind, ...) or a constant (pk0, pk1,
+    /// pk2, pkb, pkw, pksp_calcite, pksp_aragonite, boron_total, ...). VALUE: in one of the
+    /// input's units (ph=0.01, alkalinity=2umol/kg, temperature=0.1 for °C; pK units for a
+    /// constant) or relative (dic=0.5%). The constants take published defaults unless set.
+    #[arg(
+        long = "uncertainty",
+        value_name = "NAME=VALUE",
+        allow_hyphen_values = true
+    )]
+    settings: Vec<String>,
+    /// No uncertainty in any constant (their defaults off); only the inputs' count.
+    #[arg(long)]
+    no_constant_uncertainty: bool,
+    /// Check the linear propagation with N Monte Carlo draws (2 to 1000000; each a full
+    /// solve): `<key>_u_mc` beside `<key>_u`.
+    #[arg(long, value_name = "N")]
+    monte_carlo: Option<usize>,
+    /// Seed of the Monte Carlo draws (default 1; the same seed gives the same numbers).
+    #[arg(long, value_name = "S", requires = "monte_carlo")]
+    seed: Option<u64>,
+    /// Each source's share of the variance of every output (a `budget` object in the JSON).
+    #[arg(long)]
+    budget: bool,
+}
+
+impl UncertaintyArgs {
+    /// Whether any uncertainty was asked for.
+    fn asked(&self) -> bool {
+        !self.settings.is_empty()
+            || self.no_constant_uncertainty
+            || self.monte_carlo.is_some()
+            || self.budget
+    }
+
+    /// The report of the uncertainties asked for, of the pair solved in
+    /// `solved` with `options`.
+    fn report(
+        &self,
+        solved: &Solved,
+        options: SolveOptions,
+    ) -> Result<travertine::output::uncertainty_report::Report, FlagError> {
+        use travertine::decisions::uncertainty::{Problem, Uncertainties};
+        use travertine::decisions::uncertainty_settings::{
+            per_litre_inputs, with_settings, Setting,
+        };
+        let settings = self
+            .settings
+            .iter()
+            .map(|t| t.parse::<Setting>())
+            .collect::<Result<Vec<_>, _>>()
+            .map_err(|e| FlagError {
+                flag: "--uncertainty".into(),
+                error: e.to_string(),
+            })?;
+        let (a, b) = solved.pair;
+        let mut base = Uncertainties::new();
+        if self.no_constant_uncertainty {
+            base = base.without_constants();
+        }
+        let u =
+            with_settings(base, &settings, &a, &b, solved.state.density_kg_m3).map_err(|e| {
+                FlagError {
+                    flag: "--uncertainty".into(),
+                    error: e.to_string(),
+                }
+            })?;
+        let problem = Problem::new(&solved.water, a, b)
+            .map(|p| {
+                p.with_options(options)
+                    .with_air(solved.air, solved.sample.ph_scale_given())
+            })
+            .map_err(at_flag(&solved.pair_flags))?;
+        let mc = self.monte_carlo.map(|n| {
+            (
+                n,
+                self.seed
+                    .unwrap_or(travertine::output::uncertainty_report::DEFAULT_SEED),
+            )
+        });
+        travertine::output::uncertainty_report::Report::stated(
+            &problem,
+            &u,
+            mc,
+            &per_litre_inputs(&a, &b),
+        )
+        .map_err(|e| match e {
+            Error::OutOfRange { .. } if mc.is_some() => at_flag("--monte-carlo")(e),
+            other => at_flag("--uncertainty")(other),
+        })
+    }
 }
 
 /// An error tied to the flag that caused it.
@@ -391,6 +491,8 @@ struct Solved {
     pair_flags: String,
     state: State,
     air: travertine::sample::Air,
+    /// The pair measured.
+    pair: (travertine::Measured, travertine::Measured),
 }
 
 fn solve_sample(
@@ -432,6 +534,7 @@ fn solve_sample(
         pair_flags,
         state,
         air,
+        pair: (first, second),
     })
 }
 
@@ -440,14 +543,50 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let profile = chosen_profile(a.profile.as_deref()).map_err(at_flag("--profile"))?;
     // One sample: the precipitation potential's cost does not matter.
     let options = SolveOptions::default().with_precipitation_potential(true);
+    let solved = solve_sample(&a.inputs.given, &a.root, options)?;
+    let options = options.with_root(a.root.parse().map_err(at_flag("--root"))?);
+    // issue 13: the uncertainties, of the state as measured.
+    let report = if a.uncertainty.asked() {
+        if a.at_temperature.is_some() || a.at_pressure.is_some() {
+            return Err(FlagError {
+                flag: "--uncertainty".into(),
+                error: "uncertainties are given for the state as measured; leave out \
+                        --at-temperature and --at-pressure, or solve the water at those \
+                        conditions"
+                    .into(),
+            });
+        }
+        Some(a.uncertainty.report(&solved, options)?)
+    } else {
+        None
+    };
     let Solved {
         sample,
         water,
         state,
         air,
         ..
-    } = solve_sample(&a.inputs.given, &a.root, options)?;
-    let options = options.with_root(a.root.parse().map_err(at_flag("--root"))?);
+    } = solved;
+    if let Some(r) = &report {
+        let scale = Some(sample.input_ph_scale(water.medium()));
+        return Ok(if a.shown.json {
+            travertine::output::uncertainty_report::json_with_uncertainty(
+                &state,
+                &profile,
+                r,
+                a.uncertainty.budget,
+            )
+        } else {
+            travertine::output::table_with_uncertainty(
+                &state,
+                None,
+                scale,
+                precision,
+                &profile,
+                Some(r),
+            )
+        });
+    }
     let exchange = |s: State| s.with_exchange(&air, sample.ph_scale_given());
 
     let reported = if a.at_temperature.is_some() || a.at_pressure.is_some() {
@@ -489,6 +628,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         pair_flags,
         state,
         air,
+        ..
     } = solve_sample(&a.inputs.given, &a.root, SolveOptions::default())?;
     let mut request = DoseRequest::new(
         a.chemical.parse().map_err(at_flag("--chemical"))?,

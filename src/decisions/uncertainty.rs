@@ -294,6 +294,19 @@ impl Uncertainties {
         Ok(self)
     }
 
+    /// The inputs given, each with its size, in the order given.
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::{Size, Uncertainties};
+    /// # use travertine::sample::inputs::Input;
+    /// let u = Uncertainties::new().with_input(Input::Temperature, Size::Absolute(0.1))?;
+    /// assert_eq!(u.inputs(), &[(Input::Temperature, Size::Absolute(0.1))]);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn inputs(&self) -> &[(Input, Size)] {
+        &self.inputs
+    }
+
     /// With no uncertainty in any constant (defaults and those set alike).
     ///
     /// ```

@@ -519,6 +519,26 @@ fn absolute(target: Target, number: f64, unit: &str, whole: &str) -> Option<Amou
     })
 }
 
+/// The carbonate parameters of the pair `a`, `b` measured per litre, whose
+/// absolute uncertainties are in µmol/L.
+///
+/// ```
+/// use travertine::decisions::uncertainty_settings::per_litre_inputs;
+/// use travertine::sample::inputs::Input;
+/// use travertine::{units::Unit, Measured, Parameter};
+/// let alk = Measured::alkalinity(120.0, Unit::MgPerLCaCO3)?;
+/// let ph = Measured::ph(7.8, None)?;
+/// assert_eq!(per_litre_inputs(&alk, &ph), vec![Input::Carbon(Parameter::Alkalinity)]);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn per_litre_inputs(a: &Measured, b: &Measured) -> Vec<Input> {
+    [a, b]
+        .iter()
+        .filter(|m| matches!(m.value(), MeasuredValue::Amount(Amount::PerLitre(_))))
+        .map(|m| Input::Carbon(m.parameter()))
+        .collect()
+}
+
 /// A quantity in a molar unit as an amount (`None` for any other unit:
 /// ppm is never a concentration unit, so no mass unit matches).
 fn molar(q: Quantity) -> Option<Amount> {
