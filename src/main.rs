@@ -81,6 +81,9 @@ struct DoseArgs {
     /// JSON or a table, and its digits.
     #[command(flatten)]
     shown: Shown,
+    /// The uncertainty of the dose (issue 13).
+    #[command(flatten)]
+    uncertainty: DoseUncertaintyArgs,
 }
 
 /// How a result is shown: the flags of every command that prints one.
@@ -264,31 +267,10 @@ impl UncertaintyArgs {
         solved: &Solved,
         options: SolveOptions,
     ) -> Result<travertine::output::uncertainty_report::Report, FlagError> {
-        use travertine::decisions::uncertainty::{Problem, Uncertainties};
-        use travertine::decisions::uncertainty_settings::{
-            per_litre_inputs, with_settings, Setting,
-        };
-        let settings = self
-            .settings
-            .iter()
-            .map(|t| t.parse::<Setting>())
-            .collect::<Result<Vec<_>, _>>()
-            .map_err(|e| FlagError {
-                flag: "--uncertainty".into(),
-                error: e.to_string(),
-            })?;
+        use travertine::decisions::uncertainty::Problem;
+        use travertine::decisions::uncertainty_settings::per_litre_inputs;
         let (a, b) = solved.pair;
-        let mut base = Uncertainties::new();
-        if self.no_constant_uncertainty {
-            base = base.without_constants();
-        }
-        let u =
-            with_settings(base, &settings, &a, &b, solved.state.density_kg_m3).map_err(|e| {
-                FlagError {
-                    flag: "--uncertainty".into(),
-                    error: e.to_string(),
-                }
-            })?;
+        let u = uncertainties(&self.settings, self.no_constant_uncertainty, solved)?;
         let problem = Problem::new(&solved.water, a, b)
             .map(|p| {
                 p.with_options(options)
@@ -313,6 +295,49 @@ impl UncertaintyArgs {
             other => at_flag("--uncertainty")(other),
         })
     }
+}
+
+/// The uncertainties of `--uncertainty` settings (and
+/// `--no-constant-uncertainty`) for the pair of `solved`.
+fn uncertainties(
+    settings: &[String],
+    no_constants: bool,
+    solved: &Solved,
+) -> Result<travertine::decisions::uncertainty::Uncertainties, FlagError> {
+    use travertine::decisions::uncertainty::Uncertainties;
+    use travertine::decisions::uncertainty_settings::{with_settings, Setting};
+    let bad = |e: travertine::decisions::uncertainty_settings::SettingError| FlagError {
+        flag: "--uncertainty".into(),
+        error: e.to_string(),
+    };
+    let settings = settings
+        .iter()
+        .map(|t| t.parse::<Setting>())
+        .collect::<Result<Vec<_>, _>>()
+        .map_err(bad)?;
+    let (a, b) = solved.pair;
+    let mut base = Uncertainties::new();
+    if no_constants {
+        base = base.without_constants();
+    }
+    with_settings(base, &settings, &a, &b, solved.state.density_kg_m3).map_err(bad)
+}
+
+/// The uncertainty flags of `dose`.
+#[derive(Args)]
+struct DoseUncertaintyArgs {
+    /// Standard uncertainty of an input or a constant, NAME=VALUE, as `solve --uncertainty`;
+    /// repeatable. Gives the uncertainty of the dose (dose_g_m3_u, ...), each perturbed dose a
+    /// full dose solve.
+    #[arg(
+        long = "uncertainty",
+        value_name = "NAME=VALUE",
+        allow_hyphen_values = true
+    )]
+    settings: Vec<String>,
+    /// No uncertainty in any constant (their defaults off).
+    #[arg(long)]
+    no_constant_uncertainty: bool,
 }
 
 /// An error tied to the flag that caused it.
@@ -622,6 +647,18 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
     use travertine::decisions::dose::{dose, DoseRequest};
     use travertine::decisions::volume::Volume;
     let precision = a.shown.precision()?;
+    let solved = solve_sample(&a.inputs.given, &a.root, SolveOptions::default())?;
+    let asked = !a.uncertainty.settings.is_empty() || a.uncertainty.no_constant_uncertainty;
+    let u = if asked {
+        Some(uncertainties(
+            &a.uncertainty.settings,
+            a.uncertainty.no_constant_uncertainty,
+            &solved,
+        )?)
+    } else {
+        None
+    };
+    let (first, second) = solved.pair;
     let Solved {
         sample,
         water,
@@ -629,7 +666,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         state,
         air,
         ..
-    } = solve_sample(&a.inputs.given, &a.root, SolveOptions::default())?;
+    } = solved;
     let mut request = DoseRequest::new(
         a.chemical.parse().map_err(at_flag("--chemical"))?,
         a.target.parse().map_err(at_flag("--target"))?,
@@ -669,10 +706,47 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
         .clone()
         .with_exchange(&air, sample.ph_scale_given())
         .map_err(at_flag(&pair_flags))?;
+    // issue 13: the uncertainty of the dose, each perturbed dose a full
+    // dose solve.
+    let uncertainty = match &u {
+        Some(u) => {
+            use travertine::decisions::dose_uncertainty::dose_uncertainty;
+            use travertine::decisions::uncertainty::Problem;
+            let root = a.root.parse().map_err(at_flag("--root"))?;
+            let problem = Problem::new(&water, first, second)
+                .map(|p| p.with_options(SolveOptions::default().with_root(root)))
+                .map_err(at_flag(&pair_flags))?;
+            let dose_u =
+                dose_uncertainty(&problem, u, d.request).map_err(at_flag("--uncertainty"))?;
+            let per_litre =
+                travertine::decisions::uncertainty_settings::per_litre_inputs(&first, &second);
+            let statement = travertine::output::uncertainty_report::dose_statement(
+                &dose_u,
+                u,
+                water.medium(),
+                &per_litre,
+            );
+            Some((dose_u, statement))
+        }
+        None => None,
+    };
     Ok(if a.shown.json {
-        travertine::output::dose_json(&d, volume, scale)
+        travertine::output::dose_json_with_uncertainty(
+            &d,
+            volume,
+            scale,
+            uncertainty.as_ref().map(|(u, (json, _))| (u, json.clone())),
+        )
     } else {
-        travertine::output::dose_table(&d, volume, scale, precision)
+        travertine::output::dose_table_with_uncertainty(
+            &d,
+            volume,
+            scale,
+            precision,
+            uncertainty
+                .as_ref()
+                .map(|(u, (_, block))| (u, block.as_str())),
+        )
     })
 }
 

@@ -292,3 +292,74 @@ fn bad_settings_are_errors_naming_the_setting() {
     let e = error_of(&["--monte-carlo", "1"]);
     assert!(e.contains("--monte-carlo"), "{e}");
 }
+
+/// An invented pond of the Larkvane farm, dosed with hydrated lime to pH
+/// 8.0: 9600 m³, alkalinity 28 mg/L as CaCO3, pH 6.9, calcium 8 mg/L.
+fn lime_dose(ph: &str, extra: &[&str]) -> serde_json::Value {
+    let mut args = vec![
+        "dose",
+        "--temperature",
+        "24",
+        "--alkalinity",
+        "28 mg/L CaCO3",
+        "--ph",
+        ph,
+        "--calcium",
+        "8 mg/L Ca",
+        "--volume",
+        "9600 m3",
+        "--chemical",
+        "hydrated-lime",
+        "--target",
+        "ph=8.0",
+        "--json",
+    ];
+    args.extend_from_slice(extra);
+    json(&args)
+}
+
+#[test]
+fn dose_uncertainty_matches_a_central_difference_of_two_doses() {
+    let v = lime_dose(
+        "6.9",
+        &["--no-constant-uncertainty", "--uncertainty", "ph=0.05"],
+    );
+    let u = v["dose_g_m3_u"].as_f64().unwrap();
+    assert!(u > 0.0);
+    // A central difference of two whole dose runs, h = 0.001 pH.
+    let up = lime_dose("6.901", &[])["dose_g_m3"].as_f64().unwrap();
+    let down = lime_dose("6.899", &[])["dose_g_m3"].as_f64().unwrap();
+    let expected = ((up - down) / 0.002 * 0.05).abs();
+    assert!(close(u, expected, 1e-3), "{u} against {expected}");
+    // The totals follow the volume: 9600 m³ is 9.6 kg per g/m³.
+    let kg_u = v["dose_total_kg_u"].as_f64().unwrap();
+    assert!(close(kg_u, 9.6 * u, 1e-12));
+    // 1 lb = 0.45359237 kg (exact by definition).
+    let lb_u = v["dose_total_lb_u"].as_f64().unwrap();
+    assert!(close(lb_u, kg_u / 0.453_592_37, 1e-12));
+    // The keys stand beside their own.
+    let keys: Vec<&String> = v.as_object().unwrap().keys().collect();
+    let at = keys.iter().position(|k| *k == "dose_g_m3").unwrap();
+    assert_eq!(keys[at + 1], "dose_g_m3_u");
+    assert_eq!(v["uncertainty"]["sources"][0]["name"], "ph");
+}
+
+#[test]
+fn dose_without_uncertainty_has_no_u_keys_and_constants_count_when_asked() {
+    let plain = lime_dose("6.9", &[]);
+    assert!(plain.get("dose_g_m3_u").is_none());
+    let with = lime_dose("6.9", &["--uncertainty", "ph=0.05"]);
+    let only_ph = lime_dose(
+        "6.9",
+        &["--no-constant-uncertainty", "--uncertainty", "ph=0.05"],
+    );
+    // The default constants add to the variance.
+    assert!(with["dose_g_m3_u"].as_f64().unwrap() > only_ph["dose_g_m3_u"].as_f64().unwrap());
+    let shares: f64 = with["uncertainty"]["sources"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|s| s["share_of_variance"].as_f64().unwrap())
+        .sum();
+    assert!((shares - 1.0).abs() < 1e-9, "{shares}");
+}

@@ -95,6 +95,117 @@ fn size_text(size: Size, unit: &str) -> String {
     }
 }
 
+/// A source as the result states it: its size as given (or its default)
+/// in its unit, and where it comes from.
+fn describe(source: Source, u: &Uncertainties, medium: Medium, per_litre: &[Input]) -> Described {
+    let defaults: &[(ConstantName, Size)] = match medium {
+        Medium::Saline => &SALINE_DEFAULTS,
+        Medium::Fresh => &FRESH_DEFAULTS,
+    };
+    match source {
+        Source::Input(i) => Described {
+            source,
+            size: u
+                .inputs()
+                .iter()
+                .find(|(j, _)| *j == i)
+                .map(|(_, s)| size_text(*s, input_unit(i, per_litre.contains(&i))))
+                .unwrap_or_default(),
+            origin: "given",
+        },
+        Source::Constant(c) => {
+            let size = u
+                .constants_in(medium)
+                .into_iter()
+                .find(|(d, _)| *d == c)
+                .map(|(_, s)| s);
+            let unit = if c == ConstantName::BoronTotal {
+                "µmol/kg"
+            } else {
+                "pK units"
+            };
+            Described {
+                source,
+                size: size.map(|s| size_text(s, unit)).unwrap_or_default(),
+                origin: if size.is_some_and(|s| defaults.contains(&(c, s))) {
+                    default_origin(medium)
+                } else {
+                    "given"
+                },
+            }
+        }
+    }
+}
+
+/// Every source of a propagation stated as the JSON's `uncertainty`
+/// object states it (`name`, `standard_uncertainty`, `origin`), each with
+/// `extra`'s fields added (for a dose, its share of the variance).
+fn stated_json(d: &Described, extra: Map<String, Value>) -> Value {
+    let mut o = Map::new();
+    o.insert("name".into(), json!(Report::source_name(d.source)));
+    o.insert("standard_uncertainty".into(), json!(d.size));
+    o.insert("origin".into(), json!(d.origin));
+    o.extend(extra);
+    Value::Object(o)
+}
+
+/// The `uncertainty` object of a dose's JSON (`method`, and `sources`,
+/// each with its share of the dose's variance), and the lines of its
+/// table block; `dose_u` from
+/// [`crate::decisions::dose_uncertainty::dose_uncertainty`] with the same
+/// `u`, in a water of `medium`.
+///
+/// ```
+/// use travertine::decisions::dose::{Chemical, DoseRequest};
+/// use travertine::decisions::dose_uncertainty::dose_uncertainty;
+/// use travertine::decisions::uncertainty::{Problem, Uncertainties};
+/// use travertine::output::uncertainty_report::dose_statement;
+/// use travertine::{units::Unit, Conditions, Measured, Medium, Water};
+/// let pond = Water::fresh(Conditions::new(24.0, 0.1)?)?;
+/// let (a, b) = (Measured::alkalinity(28.0, Unit::MgPerLCaCO3)?, Measured::ph(7.1, None)?);
+/// let request = DoseRequest::new(Chemical::SodiumBicarbonate, "alkalinity=50 mg/L CaCO3".parse()?);
+/// let u = Uncertainties::new();
+/// let d = dose_uncertainty(&Problem::new(&pond, a, b)?, &u, request)?;
+/// let (json, block) = dose_statement(&d, &u, Medium::Fresh, &[]);
+/// assert_eq!(json["sources"][1]["name"], "pk1");
+/// assert!(block.contains("pk1"));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn dose_statement(
+    dose_u: &crate::decisions::dose_uncertainty::DoseUncertainty,
+    u: &Uncertainties,
+    medium: Medium,
+    per_litre: &[Input],
+) -> (Value, String) {
+    let var = dose_u.dose_g_m3_u * dose_u.dose_g_m3_u;
+    let mut sources = Vec::new();
+    let mut block =
+        String::from("\nUncertainty of the dose (linear; sources independent; the volume exact)\n");
+    for &(source, _, c) in &dose_u.contributions {
+        let d = describe(source, u, medium, per_litre);
+        let share = if var > 0.0 { c * c / var } else { 0.0 };
+        let mut extra = Map::new();
+        extra.insert("share_of_variance".into(), json!(share));
+        sources.push(stated_json(&d, extra));
+        let _ = writeln!(
+            block,
+            "  {:<16}{}  ({}); share {:.2}",
+            Report::source_name(source),
+            d.size,
+            d.origin,
+            share
+        );
+    }
+    if dose_u.contributions.is_empty() {
+        block.push_str("  no source has an uncertainty: the ± is 0\n");
+    }
+    let json = json!({
+        "method": "linear (first-order) propagation, each derivative a central difference of two full doses; sources independent; the volume taken as exact",
+        "sources": sources,
+    });
+    (json, block)
+}
+
 impl Report {
     /// The linear propagation of `u` through `problem` for every numeric
     /// output, with the Monte Carlo check of `draws` draws from `seed`
@@ -143,47 +254,11 @@ impl Report {
             None => None,
         };
         let medium = problem.solve()?.medium;
-        let defaults: &[(ConstantName, Size)] = match medium {
-            Medium::Saline => &SALINE_DEFAULTS,
-            Medium::Fresh => &FRESH_DEFAULTS,
-        };
-        let mut sources = Vec::new();
-        for (source, _) in &linear.sources {
-            let described = match *source {
-                Source::Input(i) => Described {
-                    source: *source,
-                    size: u
-                        .inputs()
-                        .iter()
-                        .find(|(j, _)| *j == i)
-                        .map(|(_, s)| size_text(*s, input_unit(i, per_litre.contains(&i))))
-                        .unwrap_or_default(),
-                    origin: "given",
-                },
-                Source::Constant(c) => {
-                    let size = u
-                        .constants_in(medium)
-                        .into_iter()
-                        .find(|(d, _)| *d == c)
-                        .map(|(_, s)| s);
-                    let unit = if c == ConstantName::BoronTotal {
-                        "µmol/kg"
-                    } else {
-                        "pK units"
-                    };
-                    Described {
-                        source: *source,
-                        size: size.map(|s| size_text(s, unit)).unwrap_or_default(),
-                        origin: if size.is_some_and(|s| defaults.contains(&(c, s))) {
-                            default_origin(medium)
-                        } else {
-                            "given"
-                        },
-                    }
-                }
-            };
-            sources.push(described);
-        }
+        let sources = linear
+            .sources
+            .iter()
+            .map(|(source, _)| describe(*source, u, medium, per_litre))
+            .collect();
         Ok(Report {
             outputs,
             linear,
@@ -242,13 +317,7 @@ impl Report {
         let sources: Vec<Value> = self
             .sources
             .iter()
-            .map(|d| {
-                json!({
-                    "name": Self::source_name(d.source),
-                    "standard_uncertainty": d.size,
-                    "origin": d.origin,
-                })
-            })
+            .map(|d| stated_json(d, Map::new()))
             .collect();
         let mut about = json!({
             "method": "linear (first-order) propagation, derivatives by central differences of full solves; sources independent",
