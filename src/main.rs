@@ -190,6 +190,19 @@ struct SheetArgs {
     /// Fraction of the dosed product that dissolves, 0 to 1 (with --dose-chemical).
     #[arg(long, value_name = "FRACTION", requires = "dose_chemical")]
     dissolved_fraction: Option<f64>,
+    /// Standard uncertainty of an input or a constant for every row, NAME=VALUE, as `solve
+    /// --uncertainty`; repeatable. A row's `<column>_u` cell replaces it. With any uncertainty
+    /// asked for (this, a `_u` input column, --no-constant-uncertainty), every numeric computed
+    /// column gets a `<column>_u` column.
+    #[arg(
+        long = "uncertainty",
+        value_name = "NAME=VALUE",
+        allow_hyphen_values = true
+    )]
+    uncertainty: Vec<String>,
+    /// No uncertainty in any constant, for every row.
+    #[arg(long)]
+    no_constant_uncertainty: bool,
 }
 
 #[derive(Args)]
@@ -850,6 +863,12 @@ fn sheet_options(a: &SheetArgs) -> Result<SheetOptions, SheetError> {
     }
     if let Some(p) = &a.pair {
         o = o.with_pair(p)?;
+    }
+    for u in &a.uncertainty {
+        o = o.with_uncertainty(u)?;
+    }
+    if a.no_constant_uncertainty {
+        o = o.without_constant_uncertainty();
     }
     if let Some(c) = &a.columns {
         o = o.with_columns(c)?;

@@ -19,6 +19,22 @@ use crate::sample::water::Medium;
 use serde_json::{json, Map, Value};
 use std::fmt::Write;
 
+/// The digits of the standard uncertainty of an output: the decimals of
+/// its value where the output is written to fixed decimals (pH, mg/L),
+/// else two significant figures.
+///
+/// ```
+/// use travertine::output::{uncertainty_report::u_digits, Digits, Output};
+/// assert_eq!(u_digits(Output::PhNbs), Digits::Decimals(3));
+/// assert_eq!(u_digits(Output::Pco2), Digits::Significant(2));
+/// ```
+pub fn u_digits(o: Output) -> Digits {
+    match o.digits() {
+        Some(Digits::Decimals(d)) => Digits::Decimals(d),
+        _ => Digits::Significant(2),
+    }
+}
+
 /// The most draws `--monte-carlo` takes: a check, not a method; 10⁶ full
 /// solves take minutes.
 pub const MOST_DRAWS: usize = 1_000_000;
@@ -362,11 +378,7 @@ impl Report {
     }
 
     fn format(o: Output, u: f64, precision: Precision) -> String {
-        let digits = match o.digits() {
-            Some(Digits::Decimals(d)) => Digits::Decimals(d),
-            _ => Digits::Significant(2),
-        };
-        format!("± {}", precision.format(u, digits))
+        format!("± {}", precision.format(u, u_digits(o)))
     }
 
     /// The block closing the table: the method and each source, with its
