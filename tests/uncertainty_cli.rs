@@ -363,3 +363,112 @@ fn dose_without_uncertainty_has_no_u_keys_and_constants_count_when_asked() {
         .sum();
     assert!((shares - 1.0).abs() < 1e-9, "{shares}");
 }
+
+/// The JSON lines of `sheet` on `csv`, and its summary.
+fn sheet_rows(csv: &str, extra: &[&str]) -> (Vec<serde_json::Value>, String) {
+    let mut args = vec!["sheet", "-", "--format", "jsonl"];
+    args.extend_from_slice(extra);
+    let o = run_travertine(&args, Some(csv.as_bytes()));
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let rows = String::from_utf8_lossy(&o.stdout)
+        .lines()
+        .map(|l| serde_json::from_str(l).expect("a JSON line"))
+        .collect();
+    (rows, String::from_utf8_lossy(&o.stderr).into_owned())
+}
+
+/// The computed columns the sheet tests compare.
+const COMPARED: &str = "pco2_uatm,free_co2_mg_l,dic_mg_l_c,hco3_umol_kg,co3_umol_kg,revelle_factor";
+
+/// Fennel pond (invented): 18 °C, pH 7.4, alkalinity 150 mg/L as CaCO3.
+fn fennel_solve(extra: &[&str]) -> serde_json::Value {
+    let mut args = vec![
+        "solve",
+        "--temperature",
+        "18",
+        "--ph",
+        "7.4",
+        "--alkalinity",
+        "150 mg/L CaCO3",
+        "--json",
+    ];
+    args.extend_from_slice(extra);
+    json(&args)
+}
+
+fn assert_same_u(row: &serde_json::Value, solved: &serde_json::Value) {
+    for key in COMPARED.split(',') {
+        let k = format!("{key}_u");
+        let (a, b) = (row[&k].as_f64().unwrap(), solved[&k].as_f64().unwrap());
+        assert!(close(a, b, 1e-9), "{k}: sheet {a}, solve {b}");
+    }
+}
+
+#[test]
+fn sheet_u_columns_equal_the_solve_command() {
+    let csv = "site,temperature_c,ph_nbs,Alkalinity (mg/L as CaCO3),ph_nbs_u,\
+               Alkalinity (mg/L as CaCO3)_u\n\
+               Fennel pond,18,7.4,150,0.02,2\n";
+    let (rows, _) = sheet_rows(csv, &["--columns", COMPARED]);
+    let solved = fennel_solve(&[
+        "--uncertainty",
+        "ph=0.02",
+        "--uncertainty",
+        "alkalinity=2 mg/L CaCO3",
+    ]);
+    assert_same_u(&rows[0], &solved);
+    assert!(rows[0]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+}
+
+#[test]
+fn sheet_uncertainty_for_every_row_and_a_fahrenheit_column() {
+    // --uncertainty for every row, and a temperature uncertainty in °F
+    // (0.18 °F is 0.1 °C: a difference, 5/9 of a degree F per degree C).
+    let csv = "Temp (°F),ph_nbs,alkalinity_mg_l_caco3,Temp (°F)_u\n64.4,7.4,150,0.18\n";
+    let (rows, _) = sheet_rows(
+        csv,
+        &[
+            "--columns",
+            COMPARED,
+            "--uncertainty",
+            "ph=0.02",
+            "--no-constant-uncertainty",
+        ],
+    );
+    let solved = fennel_solve(&[
+        "--uncertainty",
+        "ph=0.02",
+        "--uncertainty",
+        "temperature=0.1",
+        "--no-constant-uncertainty",
+    ]);
+    assert_same_u(&rows[0], &solved);
+}
+
+#[test]
+fn sheet_reports_unused_and_bad_u_cells_in_their_rows() {
+    let csv = "temperature_c,ph_nbs,alkalinity_mg_l_caco3,ph_nbs_u,salinity_u\n\
+               18,7.4,150,x,0.1\n\
+               18,7.4,150,0.02,0.1\n";
+    let (rows, summary) = sheet_rows(csv, &["--columns", "pco2_uatm"]);
+    assert!(
+        summary.contains("column `salinity_u` not used"),
+        "{summary}"
+    );
+    assert_eq!(rows[0]["status"], "warning");
+    assert!(rows[0]["pco2_uatm_u"].is_null());
+    assert!(rows[0]["message"].as_str().unwrap().contains("ph_nbs_u"));
+    // The bad row stays in its row: the next is computed.
+    assert!(rows[1]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+    // The defaults of the constants are stated.
+    assert!(summary.contains("Orr et al. 2018"), "{summary}");
+    // Without any uncertainty asked for, no _u columns.
+    let (plain, _) = sheet_rows(
+        "temperature_c,ph_nbs,alkalinity_mg_l_caco3\n18,7.4,150\n",
+        &["--columns", "pco2_uatm"],
+    );
+    assert!(plain[0].get("pco2_uatm_u").is_none());
+    // The guide of the columns tells of `_u`.
+    let guide = run_travertine(&["sheet", "--list-columns"], None);
+    assert!(String::from_utf8_lossy(&guide.stdout).contains("`ph_nbs_u`"));
+}
