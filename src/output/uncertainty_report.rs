@@ -103,11 +103,18 @@ fn input_unit(input: Input, per_litre: bool) -> &'static str {
     }
 }
 
+/// A size as stated: to 4 significant figures (a value converted from
+/// another unit has more digits than were typed), with its unit.
 fn size_text(size: Size, unit: &str) -> String {
+    let four = |x: f64| {
+        format!("{x:.3e}")
+            .parse::<f64>()
+            .map_or_else(|_| x.to_string(), |r| r.to_string())
+    };
     match size {
-        Size::Percent(p) => format!("{p} %"),
-        Size::Absolute(x) if unit.is_empty() => format!("{x}"),
-        Size::Absolute(x) => format!("{x} {unit}"),
+        Size::Percent(p) => format!("{} %", four(p)),
+        Size::Absolute(x) if unit.is_empty() => four(x),
+        Size::Absolute(x) => format!("{} {unit}", four(x)),
     }
 }
 
