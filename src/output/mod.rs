@@ -15,9 +15,8 @@ pub mod uncertainty;
 pub mod uncertainty_report;
 
 pub use digits::{Digits, Precision};
-pub use dose::{
-    dose_changes, dose_json, dose_json_with_uncertainty, dose_table, dose_table_with_uncertainty,
-};
+pub use dose::{dose_changes, dose_json, dose_json_with_uncertainty};
+pub use dose::{dose_table, dose_table_with_uncertainty};
 pub use fields::{Output, Place, Section, Value};
 pub use json::{json, json_with_profile, Judged};
 pub use record::{Caution, Item, Record};
