@@ -472,3 +472,27 @@ fn sheet_reports_unused_and_bad_u_cells_in_their_rows() {
     let guide = run_travertine(&["sheet", "--list-columns"], None);
     assert!(String::from_utf8_lossy(&guide.stdout).contains("`ph_nbs_u`"));
 }
+
+#[test]
+fn sheet_setting_of_a_parameter_outside_a_rows_pair_is_noted_in_that_row() {
+    // Tarnholm inlet samples (invented): one with alkalinity and DIC, one
+    // with pH and alkalinity.
+    let csv = "temperature_c,salinity,ph_total,alkalinity_umol_kg,dic_umol_kg\n\
+               12,34,,2300,2050\n\
+               12,34,8.05,2300,\n";
+    let (rows, _) = sheet_rows(
+        csv,
+        &["--columns", "pco2_uatm", "--uncertainty", "dic=2umol/kg"],
+    );
+    assert_eq!(rows[0]["status"], "ok");
+    assert!(rows[0]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+    // The second row is computed, with the constants' uncertainty only, and
+    // says why the DIC setting did not count.
+    assert_eq!(rows[1]["status"], "ok");
+    assert!(rows[1]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+    let message = rows[1]["message"].as_str().unwrap();
+    assert!(
+        message.contains("not used in this row") && message.contains("dic"),
+        "{message}"
+    );
+}
