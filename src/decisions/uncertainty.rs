@@ -19,12 +19,16 @@
 //! layer does not depend on the list of outputs below it;
 //! [`crate::output::uncertainty`] applies both to every numeric output.
 //!
-//! **Derivatives.** Central differences of full solves, each source moved
-//! alone by a step of 10⁻⁴ of its scale (or its own uncertainty where that
-//! is smaller); the constants are moved through
-//! [`PreparedWater::with_constants_perturbed`], so that every value derived
-//! from a constant follows it. DEVELOPERS.md ("Uncertainty") gives the
-//! reasons and the error of the method.
+//! **Derivatives.** Forward differences of solves, each source moved alone
+//! by a step of 10⁻⁶ of its scale (or its own uncertainty where that is
+//! smaller), each perturbed solve started from the unperturbed state's
+//! unknowns (its h, ionic strength, free calcium and saturation pH) and
+//! still run to the full tolerance of its searches; the constants are
+//! moved through their own methods ([`crate::medium::Constants::with_pk`]
+//! and the fresh basis's, as
+//! [`PreparedWater::with_constants_perturbed`]), so that every value
+//! derived from a constant follows it. DEVELOPERS.md ("Uncertainty") gives
+//! the reasons, the error of the method and its cost.
 //!
 //! ```
 //! use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
@@ -50,7 +54,7 @@
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::Amount;
-use crate::flow::PreparedWater;
+use crate::flow::{PreparedWater, Scratch};
 use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
@@ -58,7 +62,7 @@ use crate::sample::inputs::{Input, Total};
 use crate::sample::measured::Measured;
 use crate::sample::water::{Medium, Water};
 use crate::sample::Conditions;
-use crate::solve::SolveOptions;
+use crate::solve::{Near, SolveOptions};
 use crate::state::State;
 use rand::SeedableRng;
 use rand_distr::{Distribution, StandardNormal};
@@ -419,7 +423,7 @@ impl Problem {
     /// # Errors
     /// As [`PreparedWater::solve`] and [`PreparedWater::with_exchange`].
     pub fn solve(&self) -> Result<State> {
-        self.realise(&[])
+        self.realise(&[], &Near::default())
     }
 
     /// The value of an input source in its unit (see [`Size::Absolute`]),
@@ -448,7 +452,7 @@ impl Problem {
                 .as_ref()
                 .and_then(|(a, _)| a.wind_m_s())
                 .unwrap_or(0.0),
-            Source::Input(Input::Total(t)) => total_umol_kg(&self.prepared, t)?,
+            Source::Input(Input::Total(t)) => total_umol_kg(&self.prepared, t),
             Source::Input(other) => {
                 return Err(Error::UnknownChoice {
                     field: Field::Uncertainty,
@@ -460,24 +464,23 @@ impl Problem {
                         .join(", "),
                 })
             }
-            Source::Constant(ConstantName::BoronTotal) => {
-                self.prepared.constants()?.totals().boron_mol_kg * 1e6
-            }
+            Source::Constant(ConstantName::BoronTotal) => self.prepared.totals().boron_mol_kg * 1e6,
             Source::Constant(_) => 0.0,
         })
     }
 
-    /// The state with each source moved by its shift (in the unit of
+    /// The problem with each source moved by its shift (in the unit of
     /// [`Size::Absolute`]; constants in pK units, the total boron too,
-    /// as log10 of its factor).
-    fn realise(&self, shifts: &[(Source, f64)]) -> Result<State> {
+    /// as log10 of its factor): the water prepared again where its
+    /// conditions, composition or constants moved (`None` where none did),
+    /// the pair and the air.
+    fn shifted(&self, shifts: &[(Source, f64)]) -> Result<Shifted> {
         let base = self.prepared.water();
         let mut water_changed = false;
         let mut c = *base.conditions();
         let mut composition = *base.composition();
         let (mut a, mut b) = (self.a, self.b);
         let mut air = self.air;
-        let mut totals = None;
         for &(source, d) in shifts {
             if d == 0.0 {
                 continue;
@@ -504,11 +507,7 @@ impl Problem {
                     }
                 }
                 Source::Input(Input::Total(t)) => {
-                    let now = match totals {
-                        Some(now) => now,
-                        None => *totals.insert(*self.prepared.constants()?.totals()),
-                    };
-                    let x = Amount::PerKg(total_of(&now, t) + d * 1e-6);
+                    let x = Amount::PerKg(total_of(self.prepared.totals(), t) + d * 1e-6);
                     composition = match t {
                         Total::Calcium => composition.with_calcium(x)?,
                         Total::Phosphate => composition.with_phosphate(x)?,
@@ -521,22 +520,76 @@ impl Problem {
                 _ => {}
             }
         }
+        // The prepared water is copied only where something in it moves.
         let mut prepared = if water_changed {
-            base.at(c)?.with_composition(composition).prepare()?
+            Some(base.at(c)?.with_composition(composition).prepare()?)
         } else {
-            self.prepared.clone()
+            None
         };
         for &(source, d) in shifts {
             if let (Source::Constant(k), true) = (source, d != 0.0) {
-                prepared = prepared.with_constants_perturbed(k, d)?;
+                let from = prepared.as_ref().unwrap_or(&self.prepared);
+                prepared = Some(from.with_constants_perturbed(k, d)?);
             }
         }
-        let state = prepared.solve_with(a, b, &self.options)?;
+        Ok(Shifted {
+            prepared,
+            a,
+            b,
+            air,
+        })
+    }
+
+    /// The state with each source moved by its shift (as
+    /// [`Problem::shifted`]), its searches started from `near` (the
+    /// unperturbed state's unknowns, or none).
+    fn realise(&self, shifts: &[(Source, f64)], near: &Near) -> Result<State> {
+        let Shifted {
+            prepared,
+            a,
+            b,
+            air,
+        } = self.shifted(shifts)?;
+        let prepared = prepared.as_ref().unwrap_or(&self.prepared);
+        let state = prepared.solve_near(a, b, &self.options, near)?;
         match &air {
             Some((air, scale)) => prepared.with_exchange(state, air, *scale),
             None => Ok(state),
         }
     }
+
+    /// The state with one source moved by `d`, for a derivative: as
+    /// [`Problem::realise`], but lean where no air is over the water (every
+    /// number the same, no warnings: [`PreparedWater::solve_lean`]), and a
+    /// constant perturbed in `scratch` rather than in a new prepared water.
+    fn realise_one(
+        &self,
+        source: Source,
+        d: f64,
+        near: &Near,
+        scratch: &mut Scratch,
+    ) -> Result<State> {
+        if self.air.is_some() {
+            return self.realise(&[(source, d)], near);
+        }
+        if let Source::Constant(k) = source {
+            let (a, b, options) = (self.a, self.b, &self.options);
+            return self
+                .prepared
+                .solve_lean_perturbed(scratch, k, d, a, b, options, near);
+        }
+        let moved = self.shifted(&[(source, d)])?;
+        let prepared = moved.prepared.as_ref().unwrap_or(&self.prepared);
+        prepared.solve_lean(moved.a, moved.b, &self.options, near)
+    }
+}
+
+/// A problem with its sources moved ([`Problem::shifted`]).
+struct Shifted {
+    prepared: Option<PreparedWater>,
+    a: Measured,
+    b: Measured,
+    air: Option<(Air, Option<PhScale>)>,
 }
 
 /// The conditions `c` at salinity `s`, everything else kept.
@@ -559,8 +612,8 @@ fn total_of(t: &crate::sample::Totals, which: Total) -> f64 {
     }
 }
 
-fn total_umol_kg(prepared: &PreparedWater, which: Total) -> Result<f64> {
-    Ok(total_of(prepared.constants()?.totals(), which) * 1e6)
+fn total_umol_kg(prepared: &PreparedWater, which: Total) -> f64 {
+    total_of(prepared.totals(), which) * 1e6
 }
 
 /// The standard uncertainty of one quantity and what makes it up.
@@ -613,7 +666,7 @@ pub struct Propagation {
 /// Every source with its standard uncertainty in the coordinate that
 /// [`Problem::realise`] shifts, and the scale of its difference step.
 fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, f64)>> {
-    let mut out = Vec::new();
+    let mut out = Vec::with_capacity(u.inputs.len() + SALINE_DEFAULTS.len() + u.constants.len());
     for &(input, size) in &u.inputs {
         let source = Source::Input(input);
         if input == Input::Wind && problem.air.is_none() {
@@ -648,13 +701,26 @@ fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, 
     Ok(out)
 }
 
+/// The step of a difference, as a fraction of its source's scale (see
+/// [`propagate`]). The error of a forward difference is about half the
+/// step times the relative curvature, 10⁻⁶ here; that of the solves it
+/// differences, about 10⁻¹² relative (the tolerances of the root searches
+/// and fixed points), is divided by the step, 10⁻⁶ again. DEVELOPERS.md
+/// ("Uncertainty") compares it with central differences.
+const STEP: f64 = 1e-6;
+
 /// Linear (first-order) propagation: for each quantity `quantities` reads
 /// from a state, its standard uncertainty u = √Σ (∂y/∂x_i · u_i)² over the
-/// sources (taken as independent), each derivative a central difference of
-/// two full solves with the source moved by h = min(u_i, 10⁻⁴ × scale):
-/// the scale is 1 pH or pK unit, 10 °C, or the value itself (at least 1
-/// in its unit). Where one side of a step cannot be solved (a value taken
-/// out of its range), the one-sided difference of the other is used.
+/// sources (taken as independent), each derivative a forward difference
+/// (y(x_i + h) − y(x_i))/h of the unperturbed state and one solve with the
+/// source moved by h = min(u_i, 10⁻⁶ × scale): the scale is 1 pH or pK
+/// unit, 10 °C, or the value itself (at least 1 in its unit). Each
+/// perturbed solve starts its searches from the unperturbed state's
+/// unknowns and builds its state without warnings (its numbers are those
+/// of a full solve); a constant is perturbed through its own method in a
+/// scratch copy of the constants. Where the step up cannot be solved (a
+/// value taken out of its range) or loses a quantity, the backward
+/// difference is used.
 ///
 /// # Errors
 /// As [`Problem::solve`] for the unperturbed state; an error of a source
@@ -675,16 +741,35 @@ where
             contributions: Vec::with_capacity(sources.len()),
         })
         .collect();
+    let near = base_state.near();
+    let mut scratch = problem.prepared.scratch();
     for &(source, ui, scale) in &sources {
-        let h = ui.min(1e-4 * scale);
-        let up = problem.realise(&[(source, h)]).map(|s| quantities(&s));
-        let down = problem.realise(&[(source, -h)]).map(|s| quantities(&s));
+        let h = ui.min(STEP * scale);
+        let mut at_step = |d: f64| {
+            problem
+                .realise_one(source, d, &near, &mut scratch)
+                .map(|s| quantities(&s))
+        };
+        let up = at_step(h);
+        let at = |r: &Result<Vec<Option<f64>>>, k: usize| {
+            r.as_ref().ok().and_then(|v| v.get(k).copied().flatten())
+        };
+        // The step down is taken only where the step up fails or loses a
+        // value.
+        let lost = |r: &Result<Vec<Option<f64>>>| match r {
+            Ok(v) => v.iter().zip(&base).any(|(p, y)| p.is_none() && y.is_some()),
+            Err(_) => true,
+        };
+        let down = if lost(&up) {
+            at_step(-h)
+        } else {
+            Ok(Vec::new())
+        };
         if let (Err(e), Err(_)) = (&up, &down) {
             return Err(e.clone());
         }
         for (k, out) in outputs.iter_mut().enumerate() {
-            let at = |r: &Result<Vec<Option<f64>>>| r.as_ref().ok().and_then(|v| v[k]);
-            let slope = match (at(&up), out.value, at(&down)) {
+            let slope = match (at(&up, k), out.value, at(&down, k)) {
                 (Some(p), _, Some(m)) => Some((p - m) / (2.0 * h)),
                 (Some(p), Some(y), None) => Some((p - y) / h),
                 (None, Some(y), Some(m)) => Some((y - m) / h),
@@ -777,7 +862,7 @@ where
             let z: f64 = StandardNormal.sample(&mut rng);
             shifts.push((s, z * ui));
         }
-        match problem.realise(&shifts) {
+        match problem.realise(&shifts, &Near::default()) {
             Ok(state) => {
                 solved += 1;
                 for (k, v) in quantities(&state).into_iter().enumerate() {

@@ -173,6 +173,15 @@ impl Constants {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_scaled(mut self, which: ConstantName, factor: f64) -> Result<Constants> {
+        self.scale_in_place(which, factor)?;
+        Ok(self)
+    }
+
+    /// [`Constants::with_scaled`] in place (for the propagation of
+    /// uncertainties, which perturbs a scratch copy of the constants one
+    /// constant at a time: see [`Constants::copy_numbers_from`]). On an
+    /// error the constants may be left part-way and must be copied again.
+    pub(crate) fn scale_in_place(&mut self, which: ConstantName, factor: f64) -> Result<()> {
         use ConstantName as C;
         if !factor.is_finite() {
             return Err(Error::NotFinite {
@@ -238,8 +247,7 @@ impl Constants {
             C::Ks | C::Kf => self.refresh_scale_factors(),
             _ => {}
         }
-        self.check_derived(which)?;
-        Ok(self)
+        self.check_derived(which)
     }
 
     /// These constants with pK = −log10 K of one of them raised by
@@ -260,14 +268,29 @@ impl Constants {
     /// assert_eq!(p.k1e(), p.k1()); // no calcium pairs in saline water
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn with_pk(self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+    pub fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+        self.pk_in_place(which, delta_pk)?;
+        Ok(self)
+    }
+
+    /// [`Constants::with_pk`] in place, as [`Constants::scale_in_place`].
+    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: f64) -> Result<()> {
         if !delta_pk.is_finite() {
             return Err(Error::NotFinite {
                 field: Field::DeltaPk,
                 value: delta_pk,
             });
         }
-        self.with_scaled(which, crate::base::numeric::pow10(-delta_pk))
+        self.scale_in_place(which, crate::base::numeric::pow10(-delta_pk))
+    }
+
+    /// Every value of `other` but its warnings, which are left empty: the
+    /// copy a perturbation in place starts from again, without allocating.
+    pub(crate) fn copy_numbers_from(&mut self, other: &Constants) {
+        *self = Constants {
+            warnings: Vec::new(),
+            ..*other
+        };
     }
 
     /// Refuses constants whose derived values a perturbation of `which`

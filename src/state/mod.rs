@@ -299,6 +299,17 @@ impl State {
         }
     }
 
+    /// The unknowns of this state, from which the solve of a water very
+    /// near it may start ([`crate::solve::Near`]).
+    pub(crate) fn near(&self) -> crate::solve::Near {
+        crate::solve::Near {
+            h: self.h,
+            ionic_strength: self.ionic_strength_from.map(|_| self.ionic_strength),
+            calcium_free: self.calcium_free_umol_kg.map(|c| c * 1e-6),
+            saturation_ph: self.saturation_ph_nbs,
+        }
+    }
+
     /// The gas constants this state was solved with.
     pub(crate) fn gas_terms(&self) -> exchange::GasTerms {
         self.gas

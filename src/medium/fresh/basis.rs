@@ -141,6 +141,14 @@ impl FreshBasis {
     /// [`crate::Error::Computation`] for a result that is not finite and
     /// positive (a constant that was evaluated).
     pub(crate) fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Self> {
+        self.pk_in_place(which, delta_pk)?;
+        Ok(self)
+    }
+
+    /// [`FreshBasis::with_pk`] in place (for a scratch copy, see
+    /// [`FreshBasis::copy_numbers_from`]); on an error the basis may be
+    /// left part-way and must be copied again.
+    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: f64) -> Result<()> {
         use crate::base::error::Error;
         use crate::base::field::Field;
         use ConstantName as C;
@@ -185,7 +193,17 @@ impl FreshBasis {
             let ca = self.totals.calcium_mol_kg;
             self.i_start = ion_sum(&self.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
         }
-        Ok(self)
+        Ok(())
+    }
+
+    /// Every value of `other` but its range warnings, which are left
+    /// empty: the copy a perturbation in place starts from again, without
+    /// allocating.
+    pub(crate) fn copy_numbers_from(&mut self, other: &FreshBasis) {
+        *self = FreshBasis {
+            warnings: Vec::new(),
+            ..*other
+        };
     }
 
     /// Apparent constants at ionic strength `i`, free calcium `ca_free` and
