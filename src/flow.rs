@@ -261,7 +261,10 @@ impl PreparedWater {
     ///   activity scale, pressure-corrected), from which the apparent
     ///   constants of every ionic strength and free calcium of the fixed
     ///   point are made. `K0` is Henry's constant there. The calcium ion-pair
-    ///   constants are not yet among the names that can be perturbed.
+    ///   constants ([`ConstantName::CaHco3Pair`], [`ConstantName::CaCo3Pair`],
+    ///   Plummer & Busenberg 1982) are perturbed there too, so the pair
+    ///   ratios, K1e and K2e of every free calcium follow them. In saline
+    ///   water they are zero (no ion pairs) and stay zero.
     ///
     /// In the overlap of the media (salinity 0.5 to 5) the comparison with
     /// the other medium, where it is made, is with the unperturbed water.

@@ -287,3 +287,80 @@ fn wind_uncertainty_reaches_the_flux_only() {
     assert_eq!(r.outputs[0].u, Some(0.0));
     assert!(r.outputs[1].u.unwrap() > 0.0);
 }
+
+/// The calcium ion pairs of fresh water (CaHCO3+ and CaCO3⁰) are
+/// perturbable constants with default uncertainties. A weaker pair (its
+/// log K lowered, pK raised) binds less calcium and carbonate, so at the
+/// same measured pH and alkalinity the free Ca++ and CO3-- and with them
+/// calcite Ω rise (Ω = γCa[Ca++] γ2[CO3--]/Ksp). Each pair has its share of
+/// Ω's variance, and its contribution is the slope of a central difference
+/// of two solves written here (step 0.001 in pK) times its uncertainty.
+#[test]
+fn ion_pair_constants_move_calcite_saturation_in_fresh_water() {
+    use travertine::decisions::uncertainty::FRESH_DEFAULTS;
+    use travertine::medium::ConstantName;
+    let water = pond();
+    let (ph, ta) = (
+        Measured::ph(7.9, None).unwrap(),
+        Measured::alkalinity_umol_kg(2400.0).unwrap(),
+    );
+    let prepared = water.prepare().unwrap();
+    let omega = |which: ConstantName, d: f64| {
+        prepared
+            .with_constants_perturbed(which, d)
+            .unwrap()
+            .solve(ph, ta)
+            .unwrap()
+            .omega_calcite
+            .unwrap()
+    };
+    let base = prepared.solve(ph, ta).unwrap();
+    let problem = Problem::new(&water, ph, ta).unwrap();
+    let r = propagate(&problem, &Uncertainties::new(), |s| vec![s.omega_calcite]).unwrap();
+    let o = &r.outputs[0];
+    let budget = o.budget(&r.sources);
+    for which in [ConstantName::CaHco3Pair, ConstantName::CaCo3Pair] {
+        // The direction: a weaker pair leaves more free ions.
+        let weaker = prepared
+            .with_constants_perturbed(which, 0.05)
+            .unwrap()
+            .solve(ph, ta)
+            .unwrap();
+        assert!(weaker.omega_calcite.unwrap() > base.omega_calcite.unwrap());
+        assert!(weaker.calcium_free_umol_kg.unwrap() > base.calcium_free_umol_kg.unwrap());
+        // Its default uncertainty (from memory, unverified; see FRESH_DEFAULTS).
+        let u_pk = match FRESH_DEFAULTS.iter().find(|(c, _)| *c == which) {
+            Some((_, Size::Absolute(u))) => *u,
+            other => panic!("{which:?}: {other:?}"),
+        };
+        // Its contribution: the central difference of two solves.
+        let h = 1e-3;
+        let slope = (omega(which, h) - omega(which, -h)) / (2.0 * h);
+        let k = r
+            .sources
+            .iter()
+            .position(|(s, _)| *s == Source::Constant(which))
+            .unwrap_or_else(|| panic!("{which:?} is not a source"));
+        let contribution = o.contributions[k];
+        assert!(
+            (contribution / (slope * u_pk) - 1.0).abs() < 1e-4,
+            "{which:?}: {contribution} against {}",
+            slope * u_pk
+        );
+        assert!(contribution > 0.0, "{which:?}");
+        // Its share of Ω's variance.
+        let share = budget
+            .iter()
+            .find(|(s, _)| *s == Source::Constant(which))
+            .unwrap()
+            .1;
+        assert!(share > 1e-4 && share < 1.0, "{which:?}: {share}");
+    }
+    // In sea water there are no ion pairs, and no such sources.
+    let p = Problem::new(&sea(), Measured::ph(8.0, Some(PhScale::Total)).unwrap(), ta).unwrap();
+    let r = propagate(&p, &Uncertainties::new(), |s| vec![Some(s.pco2_uatm)]).unwrap();
+    assert!(r.sources.iter().all(|(s, _)| !matches!(
+        s,
+        Source::Constant(ConstantName::CaHco3Pair | ConstantName::CaCo3Pair)
+    )));
+}

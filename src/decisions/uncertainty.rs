@@ -160,8 +160,10 @@ pub const INPUT_SOURCES: &[Input] = &[
     Input::Wind,
 ];
 
-/// The constants whose uncertainty has a default.
-pub const CONSTANT_SOURCES: [ConstantName; 8] = [
+/// The constants whose uncertainty has a default (in sea water the first
+/// eight, [`SALINE_DEFAULTS`]; in fresh water all but the total boron,
+/// [`FRESH_DEFAULTS`]).
+pub const CONSTANT_SOURCES: [ConstantName; 10] = [
     ConstantName::K0,
     ConstantName::K1,
     ConstantName::K2,
@@ -170,6 +172,8 @@ pub const CONSTANT_SOURCES: [ConstantName; 8] = [
     ConstantName::KspCalcite,
     ConstantName::KspAragonite,
     ConstantName::BoronTotal,
+    ConstantName::CaHco3Pair,
+    ConstantName::CaCo3Pair,
 ];
 
 /// The default standard uncertainties of the constants in sea water, from
@@ -200,15 +204,24 @@ pub const SALINE_DEFAULTS: [(ConstantName, Size); 8] = [
 /// from memory (unverified): of the order of the scatter of those fits
 /// about the measurements they were fitted to, and no smaller than the
 /// sea-water values above. A fresh water's total boron is measured or
-/// zero, so it has no default. The calcium ion-pair constants cannot be
-/// perturbed yet and carry none.
+/// zero, so it has no default.
+///
+/// The calcium ion pairs, CaHCO3+ and CaCO3⁰ (association constants of
+/// Plummer & Busenberg 1982, log K = 1.11 and 3.22 at 25 °C): 0.05 in
+/// log K each, from memory (unverified): of the order of the differences
+/// between published determinations of these two constants, which are
+/// larger than the fit's scatter about its own measurements. They move
+/// calcite and aragonite Ω, the free calcium and the Langelier index (and
+/// a little the carbon balance, through K1e and K2e); in a water without
+/// calcium they are not evaluated and change nothing.
 ///
 /// ```
 /// use travertine::decisions::uncertainty::{FRESH_DEFAULTS, Size};
 /// use travertine::medium::ConstantName;
 /// assert!(FRESH_DEFAULTS.contains(&(ConstantName::K2, Size::Absolute(0.02))));
+/// assert!(FRESH_DEFAULTS.contains(&(ConstantName::CaCo3Pair, Size::Absolute(0.05))));
 /// ```
-pub const FRESH_DEFAULTS: [(ConstantName, Size); 7] = [
+pub const FRESH_DEFAULTS: [(ConstantName, Size); 9] = [
     (ConstantName::K0, Size::Absolute(0.005)),
     (ConstantName::K1, Size::Absolute(0.01)),
     (ConstantName::K2, Size::Absolute(0.02)),
@@ -216,6 +229,8 @@ pub const FRESH_DEFAULTS: [(ConstantName, Size); 7] = [
     (ConstantName::Kw, Size::Absolute(0.01)),
     (ConstantName::KspCalcite, Size::Absolute(0.02)),
     (ConstantName::KspAragonite, Size::Absolute(0.02)),
+    (ConstantName::CaHco3Pair, Size::Absolute(0.05)),
+    (ConstantName::CaCo3Pair, Size::Absolute(0.05)),
 ];
 
 /// The standard uncertainties of the sources: the inputs given, and the
@@ -681,7 +696,13 @@ fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, 
         out.push((source, size.of(x), scale));
     }
     let medium = problem.prepared.water().medium();
+    // The ion pairs exist only in fresh water with calcium; elsewhere their
+    // constants are not evaluated and would move nothing.
+    let pairs = medium == Medium::Fresh && problem.prepared.totals().calcium_mol_kg > 0.0;
     for (k, size) in u.constants_in(medium) {
+        if matches!(k, ConstantName::CaHco3Pair | ConstantName::CaCo3Pair) && !pairs {
+            continue;
+        }
         let source = Source::Constant(k);
         let in_pk = match (k, size) {
             (ConstantName::BoronTotal, Size::Absolute(umol)) => {
