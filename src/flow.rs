@@ -652,7 +652,7 @@ fn solve_lean(
     match basis {
         Basis::Saline(k) => {
             let sol = solve_near(k, &a, &b, options, near.h)?;
-            State::build(water, k, sol.h, sol.dic, Warnings::new(), (&a, &b))
+            State::build_quiet(water, k, sol.h, sol.dic, None, (&a, &b))
         }
         Basis::Fresh(basis) => {
             let settled = basis.converge_pair(&a, &b, options.root, near)?;
@@ -660,7 +660,7 @@ fn solve_lean(
             let (h, dic) = (settled.sol.h, settled.sol.dic);
             let mut ignored = Warnings::new();
             let figures = basis.fresh_figures(&k, h, dic, options, near, &mut ignored);
-            State::build_fresh(water, &k, h, dic, Warnings::new(), figures, (&a, &b))
+            State::build_quiet(water, &k, h, dic, Some(figures), (&a, &b))
         }
     }
 }
