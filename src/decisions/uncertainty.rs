@@ -441,6 +441,18 @@ impl Problem {
         self.realise(&[], &Near::default())
     }
 
+    /// The state, unperturbed, as [`Problem::solve`] gives it but lean
+    /// where no air is over the water ([`PreparedWater::solve_lean`]: every
+    /// number the same, no warnings): the propagation reads only numbers.
+    fn solve_numbers(&self) -> Result<State> {
+        match self.air {
+            Some(_) => self.solve(),
+            None => self
+                .prepared
+                .solve_lean(self.a, self.b, &self.options, &Near::default()),
+        }
+    }
+
     /// The value of an input source in its unit (see [`Size::Absolute`]),
     /// or of a constant's pK (the total boron in µmol/kg).
     fn value_of(&self, source: Source) -> Result<f64> {
@@ -751,7 +763,7 @@ pub fn propagate<F>(problem: &Problem, u: &Uncertainties, quantities: F) -> Resu
 where
     F: Fn(&State) -> Vec<Option<f64>>,
 {
-    let base_state = problem.solve()?;
+    let base_state = problem.solve_numbers()?;
     let base = quantities(&base_state);
     let sources = sources_of(problem, u)?;
     let mut outputs: Vec<Propagated> = base
