@@ -56,6 +56,17 @@ impl Problem {
         }
     }
 
+    /// The stable code of the problem, as the library's errors have
+    /// ([`crate::error::ErrorKind::code`]).
+    pub(crate) fn code(&self) -> &'static str {
+        match self {
+            Problem::NotANumber(_) => "not_a_number",
+            Problem::NotFinite => "not_finite",
+            Problem::OtherUnit { .. } => "wrong_unit",
+            Problem::Choice(e) => e.kind().code(),
+        }
+    }
+
     /// The message without the cell text, for counting alike problems.
     pub(crate) fn key(&self, header: &str) -> String {
         match self {
@@ -195,6 +206,29 @@ fn label(r: Reading) -> &'static str {
         Reading::Ph(Some(s)) => s.name(),
         _ => "",
     }
+}
+
+/// Reads a number given as a number (not as text) in a column: in the
+/// column's unit, as a cell holding it would be read. A name column takes
+/// no number.
+pub(crate) fn number_value(column: &Column, v: f64) -> Result<Option<InputValue>, Problem> {
+    if !v.is_finite() {
+        return Err(Problem::NotFinite);
+    }
+    Ok(Some(match column.reading {
+        Reading::Text => return Err(Problem::NotANumber(None)),
+        Reading::Number { scale, offset, .. } => InputValue::Number(v * scale + offset),
+        Reading::Quantity(unit) => InputValue::Quantity(Quantity::new(v, unit)),
+        Reading::Conductivity { scale, specific } => {
+            let us_cm = v * scale;
+            InputValue::Conductivity(if specific {
+                Conductivity::Specific { us_cm }
+            } else {
+                Conductivity::AtTemperature { us_cm }
+            })
+        }
+        Reading::Ph(scale) => InputValue::Ph(v, scale),
+    }))
 }
 
 /// Reads a cell; `Ok(None)` when it is empty or marked as not measured.

@@ -88,6 +88,7 @@
 //! # Ok::<(), travertine::sheet::SheetError>(())
 //! ```
 
+mod batch;
 mod cell;
 mod columns;
 mod error;
@@ -101,6 +102,7 @@ mod row;
 mod summary;
 mod write;
 
+pub use batch::{input_named, Batch, Cell, Outcome};
 pub use columns::UnitSystem;
 pub use error::SheetError;
 pub use files::{remove_unfinished_outputs, Sink, Source};

@@ -105,6 +105,10 @@ pub(crate) struct Plan {
     /// The dose of every row, where one is asked for: its columns follow
     /// the residuals.
     pub dose: Option<crate::decisions::dose::DoseRequest>,
+    // issue 15: the uncertainty of every computed column of a batch
+    /// The uncertainties propagated to every numeric computed column, where
+    /// asked for ([`super::Batch::with_uncertainties`]).
+    pub uncertainty: Option<crate::decisions::uncertainty::Uncertainties>,
 }
 
 impl Plan {
@@ -433,6 +437,7 @@ impl Plan {
             passed,
             unit_notes,
             exchange,
+            uncertainty: None,
         })
     }
 }
