@@ -150,7 +150,7 @@ struct Task<'a> {
     texts: Vec<&'a mut [Option<&'static str>]>,
     flags: Option<&'a mut [String]>,
     status: &'a mut [&'static str],
-    message: &'a mut [String],
+    message: &'a mut [std::sync::Arc<str>],
 }
 
 /// Where each computed column goes.
@@ -163,16 +163,51 @@ enum Slot {
 /// The first error of a batch: row, code, field, message.
 type FirstError = (usize, &'static str, Option<String>, String);
 
+/// A column of texts as codes into its distinct texts (code 0: none),
+/// which the Python layer turns into an object array by indexing: far
+/// cheaper than one Python object per row, and made without the GIL.
+struct Coded {
+    codes: Vec<u32>,
+    texts: Vec<Option<String>>,
+}
+
+/// Codes a column of texts.
+fn coded<'a>(values: impl Iterator<Item = Option<&'a str>>) -> Coded {
+    let mut codes = Vec::with_capacity(values.size_hint().0);
+    let mut texts: Vec<Option<String>> = vec![None];
+    let mut index: std::collections::HashMap<&'a str, u32> = std::collections::HashMap::new();
+    let mut last: Option<(&'a str, u32)> = None;
+    for v in values {
+        let code = match v {
+            None => 0,
+            Some(t) => match last {
+                // Rows of one water often share a text: the same pointer.
+                Some((l, c)) if std::ptr::eq(l, t) || l == t => c,
+                _ => {
+                    let c = *index.entry(t).or_insert_with(|| {
+                        texts.push(Some(t.to_string()));
+                        (texts.len() - 1) as u32
+                    });
+                    last = Some((t, c));
+                    c
+                }
+            },
+        };
+        codes.push(code);
+    }
+    Coded { codes, texts }
+}
+
 /// The solved rows, column by column.
 struct Solved {
     names: Vec<String>,
     slots: Vec<Slot>,
     numbers: Vec<Vec<f64>>,
     number_names: Vec<String>,
-    texts: Vec<Vec<Option<&'static str>>>,
-    flags: Option<Vec<String>>,
-    status: Vec<&'static str>,
-    message: Vec<String>,
+    texts: Vec<Coded>,
+    flags: Option<Coded>,
+    status: Coded,
+    message: Coded,
     first_error: Option<FirstError>,
 }
 
@@ -218,7 +253,8 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
         (0..text_count).map(|_| vec![None; n]).collect();
     let mut flags: Option<Vec<String>> = batch.has_flags().then(|| vec![String::new(); n]);
     let mut status: Vec<&'static str> = vec![""; n];
-    let mut message: Vec<String> = vec![String::new(); n];
+    let empty: std::sync::Arc<str> = std::sync::Arc::from("");
+    let mut message: Vec<std::sync::Arc<str>> = vec![empty.clone(); n];
 
     let mut tasks = Vec::with_capacity(n.div_ceil(TASK));
     {
@@ -252,6 +288,8 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
         .map(|mut t| {
             let mut out = Outcome::default();
             let mut first = None;
+            // Rows of one water often share their message: one copy.
+            let mut last: std::sync::Arc<str> = empty.clone();
             let mut cells: Vec<Cell<'_>> = Vec::with_capacity(columns.len());
             for k in 0..t.status.len() {
                 let row = t.start + k;
@@ -260,7 +298,10 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
                 batch.solve(&cells, &mut out);
                 t.status[k] = out.status();
                 if !out.message().is_empty() {
-                    t.message[k] = out.message().to_string();
+                    if &*last != out.message() {
+                        last = std::sync::Arc::from(out.message());
+                    }
+                    t.message[k] = last.clone();
                 }
                 if let Some((code, field)) = out.error() {
                     if first.is_none() {
@@ -294,12 +335,28 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
                     }
                 }
                 if let Some(f) = t.flags.as_mut() {
-                    f[k] = out.flags().join(";");
+                    if !out.flags().is_empty() {
+                        f[k] = out.flags().join(";");
+                    }
                 }
             }
             first
         })
         .collect();
+    let (texts, (flags, (status, message))) = rayon::join(
+        || texts.par_iter().map(|c| coded(c.iter().copied())).collect(),
+        || {
+            rayon::join(
+                || flags.as_ref().map(|f| coded(f.iter().map(|s| Some(s.as_str())))),
+                || {
+                    rayon::join(
+                        || coded(status.iter().map(|s| Some(*s))),
+                        || coded(message.iter().map(|s| Some(&**s))),
+                    )
+                },
+            )
+        },
+    );
     Solved {
         names: computed.iter().map(|o| o.key().to_string()).collect(),
         slots,
@@ -319,11 +376,18 @@ fn text_list<'py>(
     values: impl Iterator<Item = Option<&'py str>>,
 ) -> PyResult<Bound<'py, PyList>> {
     let mut cache: Vec<(&str, Bound<'py, PyString>)> = Vec::new();
+    let mut last: Option<(&str, Bound<'py, PyString>)> = None;
     let list = PyList::empty(py);
     for v in values {
         match v {
             None => list.append(py.None())?,
             Some(s) => {
+                if let Some((t, o)) = &last {
+                    if *t == s {
+                        list.append(o)?;
+                        continue;
+                    }
+                }
                 let obj = match cache.iter().find(|(t, _)| *t == s) {
                     Some((_, o)) => o.clone(),
                     None => {
@@ -334,7 +398,8 @@ fn text_list<'py>(
                         o
                     }
                 };
-                list.append(obj)?;
+                list.append(&obj)?;
+                last = Some((s, obj));
             }
         }
     }
@@ -359,7 +424,12 @@ fn result_dict<'py>(
     } = solved;
     let dict = PyDict::new(py);
     let mut numbers: Vec<Option<Vec<f64>>> = numbers.into_iter().map(Some).collect();
-    let mut texts: Vec<Option<Vec<Option<&'static str>>>> = texts.into_iter().map(Some).collect();
+    let mut texts: Vec<Option<Coded>> = texts.into_iter().map(Some).collect();
+    let coded_pair = |c: Coded| -> PyResult<Bound<'py, PyAny>> {
+        Ok((PyArray1::from_vec(py, c.codes), c.texts)
+            .into_pyobject(py)?
+            .into_any())
+    };
     for (name, slot) in names.iter().zip(&slots) {
         match slot {
             Slot::Number(j) => {
@@ -367,8 +437,9 @@ fn result_dict<'py>(
                 dict.set_item(name, PyArray1::from_vec(py, v))?;
             }
             Slot::Text(j) => {
-                let v = texts[*j].take().unwrap_or_default();
-                dict.set_item(name, text_list(py, v.into_iter())?)?;
+                if let Some(c) = texts[*j].take() {
+                    dict.set_item(name, coded_pair(c)?)?;
+                }
             }
         }
     }
@@ -378,13 +449,10 @@ fn result_dict<'py>(
         }
     }
     if let Some(f) = flags {
-        dict.set_item("flags", text_list(py, f.iter().map(|s| Some(s.as_str())))?)?;
+        dict.set_item("flags", coded_pair(f)?)?;
     }
-    dict.set_item("status", text_list(py, status.into_iter().map(Some))?)?;
-    dict.set_item(
-        "message",
-        text_list(py, message.iter().map(|s| Some(s.as_str())))?,
-    )?;
+    dict.set_item("status", coded_pair(status)?)?;
+    dict.set_item("message", coded_pair(message)?)?;
     Ok((dict, first_error))
 }
 
@@ -598,45 +666,148 @@ fn blend_columns<'py>(
 
 /// The library's own loop, for the benchmark beside `solve`: every row's
 /// saline water built and solved from alkalinity (µmol/kg) and pH (total
-/// scale) through the library's API, in parallel on the same rayon pool,
-/// with the GIL released; `exchange` adds the exchange with the air, as
-/// `solve` does. Returns the pH on the NBS scale of each row (NaN where
-/// it fails), so that the work cannot be skipped.
+/// scale) through the library's API (`Water::saline`, `Water::solve`, and
+/// `State::with_exchange` when `exchange`, as `solve --json` does), with
+/// the numeric outputs of `keys` read from each state
+/// (`Output::value`) into one array each: the same answer as
+/// `travertine.solve` gives for those keys, made in Rust from end to end,
+/// in parallel on the same rayon pool with the GIL released.
 #[pyfunction]
-#[pyo3(signature = (temperature_c, salinity, alkalinity_umol_kg, ph_total, exchange=false))]
+#[pyo3(signature = (temperature_c, salinity, alkalinity_umol_kg, ph_total, keys, exchange=false))]
 fn library_loop<'py>(
     py: Python<'py>,
     temperature_c: PyReadonlyArray1<'py, f64>,
     salinity: PyReadonlyArray1<'py, f64>,
     alkalinity_umol_kg: PyReadonlyArray1<'py, f64>,
     ph_total: PyReadonlyArray1<'py, f64>,
+    keys: Vec<String>,
     exchange: bool,
-) -> PyResult<Bound<'py, PyArray1<f64>>> {
+) -> PyResult<Bound<'py, PyDict>> {
     use travertine::{Conditions, Measured, PhScale, Water};
     let t = temperature_c.as_slice().map_err(value_error)?;
     let s = salinity.as_slice().map_err(value_error)?;
     let a = alkalinity_umol_kg.as_slice().map_err(value_error)?;
     let p = ph_total.as_slice().map_err(value_error)?;
-    let out: Vec<f64> = py.detach(|| {
-        (0..t.len())
-            .into_par_iter()
-            .with_min_len(TASK)
-            .map(|i| {
-                let state = Water::saline(Conditions::new(t[i], s[i])?)?.solve(
-                    Measured::alkalinity_umol_kg(a[i])?,
-                    Measured::ph(p[i], Some(PhScale::Total))?,
-                )?;
-                let state = if exchange {
-                    state.with_exchange(&travertine::sample::Air::new(), None)?
-                } else {
-                    state
-                };
-                Ok::<f64, travertine::Error>(state.ph_nbs)
-            })
-            .map(|r| r.unwrap_or(f64::NAN))
-            .collect()
+    let n = t.len();
+    let outputs: Vec<Output> = keys
+        .iter()
+        .map(|k| Output::from_key(k).ok_or_else(|| value_error(format!("no output `{k}`"))))
+        .collect::<PyResult<_>>()?;
+    let mut columns: Vec<Vec<f64>> = outputs.iter().map(|_| vec![f64::NAN; n]).collect();
+    py.detach(|| {
+        let mut chunks: Vec<_> = columns.iter_mut().map(|c| c.chunks_mut(TASK)).collect();
+        let tasks: Vec<(usize, Vec<&mut [f64]>)> = (0..n.div_ceil(TASK))
+            .map(|k| (k * TASK, chunks.iter_mut().filter_map(Iterator::next).collect()))
+            .collect();
+        tasks.into_par_iter().for_each(|(start, mut out)| {
+            let len = out.first().map_or(0, |c| c.len());
+            for k in 0..len {
+                let i = start + k;
+                let solved = Conditions::new(t[i], s[i])
+                    .and_then(Water::saline)
+                    .and_then(|w| {
+                        w.solve(
+                            Measured::alkalinity_umol_kg(a[i])?,
+                            Measured::ph(p[i], Some(PhScale::Total))?,
+                        )
+                    })
+                    .and_then(|state| {
+                        if exchange {
+                            state.with_exchange(&travertine::sample::Air::new(), None)
+                        } else {
+                            Ok(state)
+                        }
+                    });
+                if let Ok(state) = solved {
+                    for (column, o) in out.iter_mut().zip(&outputs) {
+                        if let Value::Number(Some(v)) = o.value(&state) {
+                            column[k] = v;
+                        }
+                    }
+                }
+            }
+        });
     });
-    Ok(PyArray1::from_vec(py, out))
+    let dict = PyDict::new(py);
+    for (k, c) in keys.iter().zip(columns) {
+        dict.set_item(k, PyArray1::from_vec(py, c))?;
+    }
+    Ok(dict)
+}
+
+/// The library's own loop over fresh rows with calcium, for the benchmark
+/// beside `solve` (the time only: the salinity here is 0, where a sheet
+/// derives it from the conductance): `Water::fresh` with the specific
+/// conductance and calcium (mg/L), solved from alkalinity (mg/L as CaCO3)
+/// and pH (NBS), with the exchange with the air, the numeric outputs of
+/// `keys` read into arrays.
+#[pyfunction]
+#[allow(clippy::too_many_arguments)]
+fn library_loop_fresh<'py>(
+    py: Python<'py>,
+    temperature_c: PyReadonlyArray1<'py, f64>,
+    specific_conductance_us_cm: PyReadonlyArray1<'py, f64>,
+    alkalinity_mg_l_caco3: PyReadonlyArray1<'py, f64>,
+    ph_nbs: PyReadonlyArray1<'py, f64>,
+    calcium_mg_l: PyReadonlyArray1<'py, f64>,
+    keys: Vec<String>,
+) -> PyResult<Bound<'py, PyDict>> {
+    use travertine::units::{Amount, Quantity, Unit, CA_G_MOL};
+    use travertine::{Composition, Conditions, Measured, Parameter, Water};
+    let t = temperature_c.as_slice().map_err(value_error)?;
+    let c = specific_conductance_us_cm.as_slice().map_err(value_error)?;
+    let a = alkalinity_mg_l_caco3.as_slice().map_err(value_error)?;
+    let p = ph_nbs.as_slice().map_err(value_error)?;
+    let ca = calcium_mg_l.as_slice().map_err(value_error)?;
+    let n = t.len();
+    let outputs: Vec<Output> = keys
+        .iter()
+        .map(|k| Output::from_key(k).ok_or_else(|| value_error(format!("no output `{k}`"))))
+        .collect::<PyResult<_>>()?;
+    let mut columns: Vec<Vec<f64>> = outputs.iter().map(|_| vec![f64::NAN; n]).collect();
+    py.detach(|| {
+        let mut chunks: Vec<_> = columns.iter_mut().map(|c| c.chunks_mut(TASK)).collect();
+        let tasks: Vec<(usize, Vec<&mut [f64]>)> = (0..n.div_ceil(TASK))
+            .map(|k| (k * TASK, chunks.iter_mut().filter_map(Iterator::next).collect()))
+            .collect();
+        tasks.into_par_iter().for_each(|(start, mut out)| {
+            let len = out.first().map_or(0, |c| c.len());
+            for k in 0..len {
+                let i = start + k;
+                let solved = (|| {
+                    let calcium = Amount::from_quantity(
+                        Quantity::new(ca[i], Unit::MgPerLCa),
+                        Unit::MgPerLCa,
+                        CA_G_MOL,
+                    )
+                    .ok_or(travertine::Error::Missing {
+                        field: travertine::base::field::Field::Calcium,
+                        why: "",
+                    })?;
+                    let water = Water::fresh(Conditions::new(t[i], 0.0)?)?
+                        .with_specific_conductance_us_cm(c[i])?
+                        .with_composition(Composition::default().with_calcium(calcium)?);
+                    let state = water.solve(
+                        Measured::new(Parameter::Alkalinity, Quantity::new(a[i], Unit::MgPerLCaCO3))?,
+                        Measured::ph(p[i], None)?,
+                    )?;
+                    state.with_exchange(&travertine::sample::Air::new(), None)
+                })();
+                if let Ok(state) = solved {
+                    for (column, o) in out.iter_mut().zip(&outputs) {
+                        if let Value::Number(Some(v)) = o.value(&state) {
+                            column[k] = v;
+                        }
+                    }
+                }
+            }
+        });
+    });
+    let dict = PyDict::new(py);
+    for (k, c) in keys.iter().zip(columns) {
+        dict.set_item(k, PyArray1::from_vec(py, c))?;
+    }
+    Ok(dict)
 }
 
 /// The native module.
@@ -648,6 +819,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(solve_columns, m)?)?;
     m.add_function(wrap_pyfunction!(blend_columns, m)?)?;
     m.add_function(wrap_pyfunction!(library_loop, m)?)?;
+    m.add_function(wrap_pyfunction!(library_loop_fresh, m)?)?;
     m.add("__version__", env!("CARGO_PKG_VERSION"))?;
     Ok(())
 }

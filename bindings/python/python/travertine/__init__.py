@@ -165,7 +165,12 @@ def _uncertainty(u: Optional[Mapping[str, Union[float, str]]]):
 def _shape_result(result: Dict[str, Any], shape) -> Dict[str, np.ndarray]:
     out = {}
     for key, value in result.items():
-        if isinstance(value, list):
+        if isinstance(value, tuple):
+            codes, texts = value
+            table = np.empty(len(texts), dtype=object)
+            table[:] = texts
+            a = table[codes]
+        elif isinstance(value, list):
             a = np.empty(len(value), dtype=object)
             a[:] = value
         else:
