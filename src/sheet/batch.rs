@@ -79,6 +79,8 @@ impl Batch {
                 ),
             });
         }
+        let mut plan = plan;
+        plan.keys = false;
         Ok(Batch { plan })
     }
 

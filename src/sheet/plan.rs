@@ -109,6 +109,9 @@ pub(crate) struct Plan {
     /// The uncertainties propagated to every numeric computed column, where
     /// asked for ([`super::Batch::with_uncertainties`]).
     pub uncertainty: Option<crate::decisions::uncertainty::Uncertainties>,
+    /// Whether each issue keeps its key, for the sheet's summary (a batch
+    /// has none, and saves the copy).
+    pub keys: bool,
 }
 
 impl Plan {
@@ -438,6 +441,7 @@ impl Plan {
             unit_notes,
             exchange,
             uncertainty: None,
+            keys: true,
         })
     }
 }

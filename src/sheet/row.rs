@@ -666,7 +666,11 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch)
     }
     for w in &state.warnings {
         let text = w.to_string();
-        let key = text.split(": ").next().unwrap_or(&text).to_string();
+        let key = if plan.keys {
+            text.split(": ").next().unwrap_or(&text).to_string()
+        } else {
+            String::new()
+        };
         match w.severity() {
             Severity::Note => s.note(key, text),
             _ => s.warning(key, text),

@@ -171,8 +171,11 @@ struct Coded {
     texts: Vec<Option<String>>,
 }
 
-/// Codes a column of texts.
-fn coded<'a>(values: impl Iterator<Item = Option<&'a str>>) -> Coded {
+/// Codes a column of texts. With `hashed` every distinct text is kept
+/// once; without, only runs of equal texts are (for messages, which carry
+/// the row's figures when they have any: hashing a million distinct ones
+/// costs more than it saves).
+fn coded<'a>(values: impl Iterator<Item = Option<&'a str>>, hashed: bool) -> Coded {
     let mut codes = Vec::with_capacity(values.size_hint().0);
     let mut texts: Vec<Option<String>> = vec![None];
     let mut index: std::collections::HashMap<&'a str, u32> = std::collections::HashMap::new();
@@ -183,6 +186,12 @@ fn coded<'a>(values: impl Iterator<Item = Option<&'a str>>) -> Coded {
             Some(t) => match last {
                 // Rows of one water often share a text: the same pointer.
                 Some((l, c)) if std::ptr::eq(l, t) || l == t => c,
+                _ if !hashed => {
+                    texts.push(Some(t.to_string()));
+                    let c = (texts.len() - 1) as u32;
+                    last = Some((t, c));
+                    c
+                }
                 _ => {
                     let c = *index.entry(t).or_insert_with(|| {
                         texts.push(Some(t.to_string()));
@@ -344,14 +353,23 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
         })
         .collect();
     let (texts, (flags, (status, message))) = rayon::join(
-        || texts.par_iter().map(|c| coded(c.iter().copied())).collect(),
+        || {
+            texts
+                .par_iter()
+                .map(|c| coded(c.iter().copied(), true))
+                .collect()
+        },
         || {
             rayon::join(
-                || flags.as_ref().map(|f| coded(f.iter().map(|s| Some(s.as_str())))),
+                || {
+                    flags
+                        .as_ref()
+                        .map(|f| coded(f.iter().map(|s| Some(s.as_str())), true))
+                },
                 || {
                     rayon::join(
-                        || coded(status.iter().map(|s| Some(*s))),
-                        || coded(message.iter().map(|s| Some(&**s))),
+                        || coded(status.iter().map(|s| Some(*s)), true),
+                        || coded(message.iter().map(|s| Some(&**s)), false),
                     )
                 },
             )
@@ -697,7 +715,12 @@ fn library_loop<'py>(
     py.detach(|| {
         let mut chunks: Vec<_> = columns.iter_mut().map(|c| c.chunks_mut(TASK)).collect();
         let tasks: Vec<(usize, Vec<&mut [f64]>)> = (0..n.div_ceil(TASK))
-            .map(|k| (k * TASK, chunks.iter_mut().filter_map(Iterator::next).collect()))
+            .map(|k| {
+                (
+                    k * TASK,
+                    chunks.iter_mut().filter_map(Iterator::next).collect(),
+                )
+            })
             .collect();
         tasks.into_par_iter().for_each(|(start, mut out)| {
             let len = out.first().map_or(0, |c| c.len());
@@ -768,7 +791,12 @@ fn library_loop_fresh<'py>(
     py.detach(|| {
         let mut chunks: Vec<_> = columns.iter_mut().map(|c| c.chunks_mut(TASK)).collect();
         let tasks: Vec<(usize, Vec<&mut [f64]>)> = (0..n.div_ceil(TASK))
-            .map(|k| (k * TASK, chunks.iter_mut().filter_map(Iterator::next).collect()))
+            .map(|k| {
+                (
+                    k * TASK,
+                    chunks.iter_mut().filter_map(Iterator::next).collect(),
+                )
+            })
             .collect();
         tasks.into_par_iter().for_each(|(start, mut out)| {
             let len = out.first().map_or(0, |c| c.len());
@@ -788,7 +816,10 @@ fn library_loop_fresh<'py>(
                         .with_specific_conductance_us_cm(c[i])?
                         .with_composition(Composition::default().with_calcium(calcium)?);
                     let state = water.solve(
-                        Measured::new(Parameter::Alkalinity, Quantity::new(a[i], Unit::MgPerLCaCO3))?,
+                        Measured::new(
+                            Parameter::Alkalinity,
+                            Quantity::new(a[i], Unit::MgPerLCaCO3),
+                        )?,
                         Measured::ph(p[i], None)?,
                     )?;
                     state.with_exchange(&travertine::sample::Air::new(), None)
