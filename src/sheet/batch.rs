@@ -22,24 +22,12 @@
 //! # Ok::<(), travertine::sheet::SheetError>(())
 //! ```
 
+use super::cell::Cell;
 use super::plan::Plan;
 use super::row::{evaluate_values, Scratch, Status};
 use super::{SheetError, SheetOptions};
 use crate::decisions::uncertainty::Uncertainties;
 use crate::output::{Output, Value};
-
-/// One value of a row.
-#[derive(Debug, Clone, Copy, PartialEq)]
-#[non_exhaustive]
-pub enum Cell<'a> {
-    /// A number in the unit of its column (NaN: not measured).
-    Number(f64),
-    /// A text, read as a cell of a sheet is (a name such as `fresh`, or a
-    /// number with the column's unit).
-    Text(&'a str),
-    /// Not measured.
-    Empty,
-}
 
 /// The plan of a batch: its columns read and checked once, as the header of
 /// a sheet is, with the options of a sheet ([`SheetOptions::with_columns`],

@@ -12,6 +12,19 @@ use crate::base::units::Quantity;
 use crate::sample::values::Conductivity;
 use crate::sample::values::InputValue;
 
+/// One value of a row.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum Cell<'a> {
+    /// A number in the unit of its column (NaN: not measured).
+    Number(f64),
+    /// A text, read as a cell of a sheet is (a name such as `fresh`, or a
+    /// number with the column's unit).
+    Text(&'a str),
+    /// Not measured.
+    Empty,
+}
+
 /// Why a cell cannot be read.
 #[derive(Debug, Clone, PartialEq)]
 pub(crate) enum Problem {

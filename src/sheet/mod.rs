@@ -102,7 +102,8 @@ mod row;
 mod summary;
 mod write;
 
-pub use batch::{input_named, Batch, Cell, Outcome};
+pub use batch::{input_named, Batch, Outcome};
+pub use cell::Cell;
 pub use columns::UnitSystem;
 pub use error::SheetError;
 pub use files::{remove_unfinished_outputs, Sink, Source};

@@ -1,7 +1,6 @@
 //! One row: its cells read, the sample built, the pair chosen and solved.
 
-use super::batch::Cell;
-use super::cell;
+use super::cell::{self, Cell};
 use super::columns::UnitSystem;
 use super::lines::count_line_ends;
 use super::pair::{choose_pair, rank, RANKING};

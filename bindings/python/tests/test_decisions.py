@@ -59,8 +59,10 @@ def test_solve_frame_pandas():
         "ph_nbs": [7.9, np.nan, 15.0],
         "alkalinity_mg_l_caco3": [118.0, 102.0, 100.0],
     }, index=[10, 11, 12])
+    # A text column with pandas' own missing value: not given in that row.
+    df["water"] = pd.array(["fresh", None, "fresh"], dtype="string")
     out = travertine.solve_frame(df, columns=["ph_nbs", "pco2_uatm"])
-    assert list(out.columns[:5]) == list(df.columns)
+    assert list(out.columns[:6]) == list(df.columns)
     assert list(out.index) == [10, 11, 12]
     assert "ph_nbs_calculated" in out.columns and "pco2_uatm" in out.columns
     assert list(out["status"]) == ["ok", "error", "error"]

@@ -88,6 +88,15 @@ def _is_text(a: np.ndarray) -> bool:
     return a.dtype.kind in "OUS"
 
 
+def _missing(v) -> bool:
+    """Whether a value of a text column means "not measured": None, NaN, pandas' NA or NaT."""
+    return v is None or (isinstance(v, float) and v != v) or type(v).__name__ in ("NAType", "NaTType")
+
+
+def _texts(values) -> list:
+    return [None if _missing(v) else str(v) for v in values]
+
+
 def _split(kwargs: Dict[str, Any]) -> Dict[str, Any]:
     """The inputs among keyword arguments, each under its input name."""
     inputs: Dict[str, Any] = {}
@@ -130,7 +139,7 @@ def _prepare(inputs: Mapping[str, Any]):
             values.append(a)
         elif _is_text(a):
             flat = np.broadcast_to(a, shape).ravel()
-            values.append([None if (v is None or (isinstance(v, float) and v != v)) else str(v) for v in flat])
+            values.append(_texts(flat))
         elif a.size == 1 and n != 1 or a.ndim == 0:
             values.append(float(a.reshape(-1)[0]) if a.size else float("nan"))
         else:
@@ -267,7 +276,7 @@ def _as_columns(result) -> Tuple[list, int]:
         a = np.asarray(value).reshape(-1)
         n = a.size if n is None else n
         if _is_text(a):
-            pairs.append((key, [None if v is None or (isinstance(v, float) and v != v) else str(v) for v in a]))
+            pairs.append((key, _texts(a)))
         elif a.dtype.kind in "biuf":
             pairs.append((key, np.ascontiguousarray(a, dtype=np.float64)))
     return pairs, n or 0
