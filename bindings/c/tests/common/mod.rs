@@ -50,9 +50,12 @@ pub fn cli() -> PathBuf {
     profile_dir().join(format!("travertine{}", std::env::consts::EXE_SUFFIX))
 }
 
-/// The static library of the binding: cargo makes it, with the shared
-/// library, whenever it builds this crate's library for its tests.
+/// The static library of the binding, built in this test's profile if
+/// needed: `cargo test` leaves it in `deps/` only, and `cargo build` puts
+/// it (with the shared library) where the README's link line looks.
 pub fn static_lib() -> PathBuf {
+    static BUILT: OnceLock<()> = OnceLock::new();
+    build(&["-p", "travertine-c", "--lib"], &BUILT);
     let name = if cfg!(windows) {
         "travertine_c.lib"
     } else {
