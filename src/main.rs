@@ -33,6 +33,93 @@ enum Command {
     /// What a mix of two waters becomes: two saved `solve --json` results mixed by mass or
     /// volume, solved again at the mix's own conditions.
     Blend(Box<BlendArgs>),
+    /// Draw a chart as SVG (and PNG with --png): the species of one sample against pH, a
+    /// depth profile, or the overview of a field sheet over time.
+    Chart(Box<ChartArgs>),
+}
+
+// issue 14: charts
+#[derive(Args)]
+struct ChartArgs {
+    #[command(subcommand)]
+    kind: ChartKind,
+}
+
+#[derive(Subcommand)]
+enum ChartKind {
+    /// Fractions of CO2*, HCO3- and CO3-- against pH at one sample's conditions, with its pH
+    /// marked and pK1, pK2 labelled; the sample takes the flags of `solve`.
+    Speciation(Box<SpeciationChartArgs>),
+    /// pCO2, pH and calcite saturation against depth (downward), from a sheet with a depth
+    /// column; one line per station.
+    Depth(Box<SheetChartArgs>),
+    /// pCO2, pH, free CO2 and calcite SI (aragonite Ω in saline water) against date and
+    /// time, one line per site, with the limits of the quality-flag profile as bands.
+    Overview(Box<SheetChartArgs>),
+}
+
+/// Where a chart goes.
+#[derive(Args)]
+struct ChartOutput {
+    /// The SVG file to write.
+    #[arg(short, long, value_name = "FILE.svg")]
+    output: String,
+    /// Also write a PNG beside the SVG (same name, .png).
+    #[arg(long)]
+    png: bool,
+    /// Size of the PNG against the SVG, 1 to 4.
+    #[arg(long, default_value = "2", value_name = "FACTOR")]
+    png_scale: f32,
+}
+
+#[derive(Args)]
+struct SpeciationChartArgs {
+    /// The sample, with the same flags as `solve`.
+    #[command(flatten)]
+    inputs: SampleArgs,
+    /// Other acid systems to draw, comma-separated: borate, ammonia, phosphate.
+    #[arg(long, value_name = "LIST", default_value = "")]
+    include: String,
+    /// The pH axis, LOW,HIGH (default 3,12; widened to take in the sample's pH).
+    #[arg(long, value_name = "LOW,HIGH")]
+    ph_range: Option<String>,
+    /// Which root where two waters fit: natural, lower-ph, higher-ph.
+    #[arg(long, default_value = "natural")]
+    root: String,
+    #[command(flatten)]
+    out: ChartOutput,
+}
+
+#[derive(Args)]
+struct SheetChartArgs {
+    /// The sheet to read (CSV with a header row); `-` for standard input.
+    input: String,
+    /// Read a column by hand: NAME=HEADER, as `travertine sheet --map`. Repeatable.
+    #[arg(long, value_name = "NAME=HEADER")]
+    map: Vec<String>,
+    /// One value for every row where the sheet has no column: NAME=VALUE, as
+    /// `travertine sheet --set`. Repeatable.
+    #[arg(long, value_name = "NAME=VALUE", allow_hyphen_values = true)]
+    set: Vec<String>,
+    /// The quality-flag profile whose limits are drawn: a built-in name (general, the
+    /// default; cold-water-fish; shellfish-hatchery) or a TOML file.
+    #[arg(long, value_name = "NAME|FILE")]
+    profile: Option<String>,
+    /// The column naming the site or station (default: a header such as Site, Pond, Station).
+    #[arg(long, value_name = "HEADER")]
+    site_column: Option<String>,
+    /// The column of dates (default: a header such as Date).
+    #[arg(long, value_name = "HEADER")]
+    date_column: Option<String>,
+    /// The column of times of day (default: a header such as Time).
+    #[arg(long, value_name = "HEADER")]
+    time_column: Option<String>,
+    /// The column of depths, read in metres unless its header names a unit (default: a
+    /// header such as `Depth (m)`).
+    #[arg(long, value_name = "HEADER")]
+    depth_column: Option<String>,
+    #[command(flatten)]
+    out: ChartOutput,
 }
 
 #[derive(Args)]
@@ -818,9 +905,125 @@ fn print_result(text: &str) -> ExitCode {
     }
 }
 
+// issue 14: charts
+/// Draws the chart asked for and writes its files; the lines to print.
+fn chart(a: &ChartArgs) -> Result<String, FlagError> {
+    use travertine::chart::{self, ChartError, SheetChartOptions, SheetColumns};
+    let failed = |flag: &str| {
+        let flag = flag.to_string();
+        move |e: ChartError| FlagError {
+            flag: flag.clone(),
+            error: e.to_string(),
+        }
+    };
+    let (drawn, out) = match &a.kind {
+        ChartKind::Speciation(s) => {
+            let Solved {
+                sample,
+                water,
+                state,
+                ..
+            } = solve_sample(&s.inputs.given, &s.root, SolveOptions::default())?;
+            let mut options = chart::SpeciationOptions::default()
+                .with_include(s.include.parse().map_err(failed("--include"))?)
+                .with_ph_scale(sample.input_ph_scale(water.medium()));
+            if let Some(r) = &s.ph_range {
+                let (lo, hi) = r.split_once(',').unwrap_or((r, ""));
+                let (lo, hi) = (lo.trim().parse(), hi.trim().parse());
+                let (Ok(lo), Ok(hi)) = (lo, hi) else {
+                    return Err(FlagError {
+                        flag: "--ph-range".into(),
+                        error: format!("`{r}` is not LOW,HIGH, for example 4,11"),
+                    });
+                };
+                options = options
+                    .with_ph_range(lo, hi)
+                    .map_err(failed("--ph-range"))?;
+            }
+            (
+                chart::speciation(&state, &options).map_err(failed("chart"))?,
+                &s.out,
+            )
+        }
+        ChartKind::Depth(s) | ChartKind::Overview(s) => {
+            let bad = |flag: &str| {
+                let flag = flag.to_string();
+                move |e: SheetError| FlagError {
+                    flag: flag.clone(),
+                    error: e.to_string(),
+                }
+            };
+            let mut sheet = SheetOptions::default();
+            for m in &s.map {
+                sheet = sheet.with_map(m).map_err(bad("--map"))?;
+            }
+            for v in &s.set {
+                sheet = sheet.with_set(v).map_err(bad("--set"))?;
+            }
+            let mut columns = SheetColumns::default();
+            for (value, with) in [
+                (
+                    &s.site_column,
+                    SheetColumns::with_site as fn(SheetColumns, &str) -> SheetColumns,
+                ),
+                (&s.date_column, SheetColumns::with_date),
+                (&s.time_column, SheetColumns::with_time),
+                (&s.depth_column, SheetColumns::with_depth),
+            ] {
+                if let Some(v) = value {
+                    columns = with(columns, v);
+                }
+            }
+            let profile = chosen_profile(s.profile.as_deref()).map_err(at_flag("--profile"))?;
+            let options = SheetChartOptions::new(sheet)
+                .with_profile(profile)
+                .with_columns(columns);
+            let input: Box<dyn std::io::Read + Send> = if s.input == "-" {
+                Box::new(std::io::stdin())
+            } else {
+                Box::new(std::fs::File::open(&s.input).map_err(|e| FlagError {
+                    flag: s.input.clone(),
+                    error: format!("cannot read it: {e}"),
+                })?)
+            };
+            let drawn = if matches!(a.kind, ChartKind::Depth(_)) {
+                chart::depth_profile(&options, input)
+            } else {
+                chart::overview(&options, input)
+            };
+            (drawn.map_err(failed(&s.input))?, &s.out)
+        }
+    };
+    let write = |path: &str, bytes: &[u8]| {
+        std::fs::write(path, bytes).map_err(|e| FlagError {
+            flag: "--output".into(),
+            error: format!("cannot write {path}: {e}"),
+        })
+    };
+    write(&out.output, drawn.svg().as_bytes())?;
+    let mut said = vec![format!("wrote {}", out.output)];
+    if out.png {
+        let path = std::path::Path::new(&out.output).with_extension("png");
+        let png = drawn.png(out.png_scale).map_err(failed("--png-scale"))?;
+        write(&path.to_string_lossy(), &png)?;
+        said.push(format!("wrote {}", path.display()));
+    }
+    for n in drawn.notes() {
+        said.push(format!("note: {n}"));
+    }
+    Ok(said.join("\n"))
+}
+
 fn main() -> ExitCode {
     let cli = Cli::parse();
     match cli.command {
+        Command::Chart(args) => match chart(&args) {
+            Ok(text) => print_result(&text),
+            Err(e) => {
+                say(&format!("travertine: {}: {}\n", e.flag, e.error));
+                ExitCode::from(2)
+            }
+        },
         Command::Sheet(args) => sheet(&args),
         Command::Blend(args) => match blend(&args) {
             Ok(text) => print_result(text.trim_end()),
