@@ -656,8 +656,8 @@ pub(super) fn linear_over(
     Scale::Linear(mid - half, mid + half)
 }
 
-/// A log scale over the positive `values`, out to whole decades where the
-/// data span at least one, or `fallback`.
+/// A log scale over the positive `values`, a little beyond them (at least
+/// 1.2 decades wide), or `fallback`.
 pub(super) fn log_over(values: impl Iterator<Item = f64>, fallback: (f64, f64)) -> Scale {
     let (lo, hi) = values
         .filter(|v| v.is_finite() && *v > 0.0)
@@ -667,12 +667,12 @@ pub(super) fn log_over(values: impl Iterator<Item = f64>, fallback: (f64, f64)) 
     if !lo.is_finite() {
         return Scale::Log(fallback.0, fallback.1);
     }
-    let (l, h) = (lo.log10(), hi.log10());
-    let (l, h) = if h - l < 1.0 {
+    let (l, h) = (lo.log10() - 0.08, hi.log10() + 0.08);
+    let (l, h) = if h - l < 1.2 {
         let mid = (l + h) / 2.0;
         (mid - 0.6, mid + 0.6)
     } else {
-        (l.floor(), h.ceil())
+        (l, h)
     };
     Scale::Log(10f64.powf(l), 10f64.powf(h))
 }

@@ -154,7 +154,7 @@ fn limits(profile: &Profile, key: &str) -> Vec<Limit> {
             out.push(Limit {
                 value: v,
                 high,
-                text: format!("{code}: {side} {}{unit}", draw::number(v, v.abs().max(1.0))),
+                text: format!("{code}: {side} {v}{unit}"),
             });
         }
     };
@@ -469,8 +469,8 @@ pub fn overview<R: Read + Send>(
             .iter()
             .flat_map(|l| {
                 let beyond = match (q.log, l.high) {
-                    (true, true) => l.value * 3.0,
-                    (true, false) => l.value / 3.0,
+                    (true, true) => l.value * 1.6,
+                    (true, false) => l.value / 1.6,
                     (false, _) => l.value,
                 };
                 [l.value, beyond]
