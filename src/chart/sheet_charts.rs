@@ -569,7 +569,7 @@ pub fn overview<R: Read + Send>(
             sheet.bad_dates
         ));
     }
-    if saline && !options.profile.limits.ph_low_nbs.is_none() {
+    if saline && options.profile.limits.ph_low_nbs.is_some() {
         notes
             .push("pH limits are on the NBS scale and are not drawn on the total-scale pH.".into());
     }

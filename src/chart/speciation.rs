@@ -449,16 +449,19 @@ pub fn speciation(state: &State, options: &SpeciationOptions) -> Result<Chart, C
         labels,
         empty_note: None,
     };
+    let strength = match state.medium {
+        Medium::Fresh => format!("ionic strength {:.4} mol/kg", state.ionic_strength),
+        Medium::Saline => format!("salinity {:.2}", state.salinity),
+    };
     let subtitle = format!(
-        "{} water at {:.1} °C, salinity {:.2}, {:.0} dbar; K1 and K2: {}",
+        "{} water at {:.1} °C, {strength}, {:.0} dbar; K1 and K2: {}",
         state.medium.name(),
         state.temperature_c,
-        state.salinity,
         state.pressure_dbar,
         fits_text(state),
     );
     let size = (960, 640);
-    let notes = vec![format!(
+    let caption = vec![format!(
         "Fractions of free species at the sample's conditions; pK1 and pK2 on the {}.",
         scale_label(scale)
     )];
@@ -467,20 +470,20 @@ pub fn speciation(state: &State, options: &SpeciationOptions) -> Result<Chart, C
         "Carbonate species against pH",
         &subtitle,
         &legend,
-        &notes,
+        &caption,
         |area| draw::panel(area, &panel),
     )?;
     Ok(Chart {
         svg,
         width_px: size.0,
         height_px: size.1,
-        notes,
+        notes: Vec::new(),
     })
 }
 
 /// The fits of the carbonate constants, as the subtitle names them.
 fn fits_text(state: &State) -> String {
-    serde_json::to_value(&state.fits_used)
+    serde_json::to_value(state.fits_used)
         .ok()
         .and_then(|v| {
             v.as_object().map(|o| {
