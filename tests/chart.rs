@@ -486,3 +486,37 @@ fn a_sheet_that_cannot_start_is_the_sheet_error() {
     let sheet = "Pond,Date,pH (NBS),Alkalinity (mg/L as CaCO3)\nAlder,2031-06-02,7.5,117\n";
     assert!(overview(&o, sheet.as_bytes()).is_ok());
 }
+
+#[test]
+fn the_band_can_come_from_the_propagated_uncertainty() {
+    // A sea-water sample from pH (total scale) and alkalinity, with the
+    // propagation of decisions::uncertainty: the pH on the chart's scale
+    // gets its standard uncertainty, which the chart draws as the band.
+    use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
+    use travertine::sample::inputs::Input;
+    use travertine::Parameter;
+    let water = Water::saline(Conditions::new(15.0, 34.0).unwrap()).unwrap();
+    let a = Measured::ph(8.05, Some(PhScale::Total)).unwrap();
+    let b = Measured::alkalinity_umol_kg(2250.0).unwrap();
+    let problem = Problem::new(&water, a, b).unwrap();
+    let u = Uncertainties::new()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.015))
+        .unwrap();
+    let p = propagate(&problem, &u, |s| vec![Some(s.ph(PhScale::Total))]).unwrap();
+    let u_ph = p.outputs[0].u.unwrap();
+    // pH measured on the chart's scale: its uncertainty is the input's.
+    assert!((u_ph - 0.015).abs() < 1e-6, "{u_ph}");
+    let state = problem.solve().unwrap();
+    let options = SpeciationOptions::default()
+        .with_ph_scale(PhScale::Total)
+        .with_ph_uncertainty(u_ph)
+        .unwrap();
+    let t = texts(speciation(&state, &options).unwrap().svg());
+    assert_has(
+        &t,
+        &[
+            &format!("±1 standard uncertainty of pH (±{u_ph:.3})"),
+            "sample pH 8.05",
+        ],
+    );
+}

@@ -61,6 +61,15 @@ fn fonts() -> Arc<usvg::fontdb::Database> {
 /// # Ok::<(), travertine::chart::ChartError>(())
 /// ```
 pub fn svg_to_png(svg: &str, scale: f32) -> Result<Vec<u8>, ChartError> {
+    render(svg, scale, fonts())
+}
+
+/// [`svg_to_png`] with the fonts given.
+fn render(
+    svg: &str,
+    scale: f32,
+    fonts: Arc<usvg::fontdb::Database>,
+) -> Result<Vec<u8>, ChartError> {
     if !(scale.is_finite() && (1.0..=4.0).contains(&scale)) {
         return Err(ChartError::BadOption {
             option: "scale",
@@ -69,7 +78,7 @@ pub fn svg_to_png(svg: &str, scale: f32) -> Result<Vec<u8>, ChartError> {
         });
     }
     let options = usvg::Options {
-        fontdb: fonts(),
+        fontdb: fonts,
         ..usvg::Options::default()
     };
     let tree = usvg::Tree::from_str(svg, &options).map_err(|e| ChartError::Png(e.to_string()))?;
@@ -88,4 +97,27 @@ pub fn svg_to_png(svg: &str, scale: f32) -> Result<Vec<u8>, ChartError> {
     pixmap
         .encode_png()
         .map_err(|e| ChartError::Png(e.to_string()))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// On a machine without a single font the PNG is still drawn (without
+    /// its text): the lines of a chart are there.
+    #[test]
+    fn a_png_without_fonts_still_has_its_lines() {
+        let svg = r##"<svg xmlns="http://www.w3.org/2000/svg" width="200" height="100">
+            <rect width="200" height="100" fill="#FFFFFF"/>
+            <polyline points="10,90 190,10" stroke="#0072B2" stroke-width="2" fill="none"/>
+            <text x="20" y="20" font-family="sans-serif">pH</text></svg>"##;
+        let png = render(svg, 1.0, Arc::new(usvg::fontdb::Database::new())).unwrap();
+        let p = tiny_skia::Pixmap::decode_png(&png).unwrap();
+        let blue = p
+            .pixels()
+            .iter()
+            .filter(|c| c.blue() > 150 && c.red() < 60)
+            .count();
+        assert!(blue > 150, "{blue} line pixels");
+    }
 }
