@@ -916,8 +916,33 @@ fn chart(a: &ChartArgs) -> Result<String, FlagError> {
             error: e.to_string(),
         }
     };
+    let mut said = Vec::new();
     let (drawn, out) = match &a.kind {
         ChartKind::Speciation(s) => {
+            // The exchange with the air is not drawn: its inputs are named.
+            let unused: Vec<String> = s
+                .inputs
+                .given
+                .iter()
+                .filter(|(i, _)| {
+                    matches!(
+                        i,
+                        Input::Wind
+                            | Input::AirCo2
+                            | Input::Elevation
+                            | Input::LakeArea
+                            | Input::K600
+                            | Input::GasTransfer
+                    )
+                })
+                .map(|(i, _)| flag(*i))
+                .collect();
+            if !unused.is_empty() {
+                said.push(format!(
+                    "note: not drawn on this chart (the exchange with the air): {}",
+                    unused.join(", ")
+                ));
+            }
             let Solved {
                 sample,
                 water,
@@ -1001,12 +1026,12 @@ fn chart(a: &ChartArgs) -> Result<String, FlagError> {
         })
     };
     write(&out.output, drawn.svg().as_bytes())?;
-    let mut said = vec![format!("wrote {}", out.output)];
+    said.insert(0, format!("wrote {}", out.output));
     if out.png {
         let path = std::path::Path::new(&out.output).with_extension("png");
         let png = drawn.png(out.png_scale).map_err(failed("--png-scale"))?;
         write(&path.to_string_lossy(), &png)?;
-        said.push(format!("wrote {}", path.display()));
+        said.insert(1, format!("wrote {}", path.display()));
     }
     for n in drawn.notes() {
         said.push(format!("note: {n}"));

@@ -37,6 +37,8 @@ fn speciation_writes_svg_and_png() {
             "117 mg/L CaCO3",
             "--include",
             "borate,ammonia",
+            "--wind",
+            "3",
             "-o",
             svg.to_str().unwrap(),
             "--png",
