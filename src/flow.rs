@@ -17,6 +17,7 @@ use crate::medium::{ConstantName, Constants};
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
 use crate::sample::measured::{Measured, Parameter};
+use crate::sample::trade::Sample;
 use crate::sample::water::{Medium, Water};
 use crate::sample::Conditions;
 use crate::solve::{solve, Solution, SolveOptions};
@@ -738,6 +739,42 @@ fn percent(change: f64) -> String {
         "0.00".to_string()
     } else {
         format!("{p:+.2}")
+    }
+}
+
+impl Sample {
+    /// Solves a sample given input by input, as `travertine solve` does:
+    /// the measured pair ([`Sample::pair`]), the water ([`Sample::water`]),
+    /// the pH scale rule ([`Sample::check_ph_scale`]), the solve with
+    /// `options`, and the exchange with the air ([`State::with_exchange`],
+    /// with [`Sample::air`]). The bindings solve through it, so that their
+    /// numbers are the command line's.
+    ///
+    /// # Errors
+    /// The first error of those steps, in that order.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::NamedInput, Sample};
+    /// use travertine::{PhScale, SolveOptions};
+    /// let mut s = Sample::default();
+    /// for (name, value) in [("temperature_c", 18.0), ("specific_conductance_us_cm", 420.0),
+    ///                       ("alkalinity_mg_l_caco3", 120.0), ("ph_nbs", 7.6)] {
+    ///     let named = NamedInput::find(name).unwrap();
+    ///     s.put(named.input(), named.number(value).unwrap());
+    /// }
+    /// let state = s.solve(&SolveOptions::default())?;
+    /// assert!((state.ph(PhScale::Nbs) - 7.6).abs() < 1e-9);
+    /// assert!(state.exchange.is_some());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn solve(&self, options: &SolveOptions) -> Result<State> {
+        let (first, second) = self.pair()?;
+        let water = self.water()?;
+        self.check_ph_scale(water.medium())?;
+        let air = self.air()?;
+        water
+            .solve_with(first, second, options)?
+            .with_exchange(&air, self.ph_scale_given())
     }
 }
 

@@ -163,7 +163,7 @@ fn the_table_has_a_toxic_fractions_section_and_a_flags_block() {
     let block = &t[t.find("\nFlags").unwrap()..];
     assert!(block.contains("none raised"), "{block}");
     assert!(
-        block.contains("not judged: nh3_high (no ammonia given)"),
+        block.contains("not judged: nh3_high (no ammonia total above zero)"),
         "{block}"
     );
 }

@@ -309,7 +309,61 @@ impl std::fmt::Display for ErrorKind {
     }
 }
 
+// A new kind stops this match compiling: list it here and at the end of
+// `ErrorKind::ALL` (the C binding gives each kind of that list a stable
+// number, and a kind missing from it only a generic one).
+const _: fn(ErrorKind) = |k| match k {
+    ErrorKind::OutOfRange
+    | ErrorKind::NotFinite
+    | ErrorKind::NotANumber
+    | ErrorKind::MissingUnit
+    | ErrorKind::WrongUnit
+    | ErrorKind::IncompatiblePair
+    | ErrorKind::NoWaterFits
+    | ErrorKind::NoConvergence
+    | ErrorKind::UnknownFit
+    | ErrorKind::WrongMedium
+    | ErrorKind::UnknownChoice
+    | ErrorKind::UnstatedPhScale
+    | ErrorKind::Inconsistent
+    | ErrorKind::Missing
+    | ErrorKind::WrongCount
+    | ErrorKind::Computation
+    | ErrorKind::Unreachable
+    | ErrorKind::PastTarget
+    | ErrorKind::BadProfile => {}
+};
+
 impl ErrorKind {
+    /// Every kind, in the order they were added (the C binding numbers
+    /// them in this order, so a new kind goes at the end).
+    ///
+    /// ```
+    /// use travertine::error::ErrorKind;
+    /// assert_eq!(ErrorKind::ALL[0], ErrorKind::OutOfRange);
+    /// ```
+    pub const ALL: [ErrorKind; 19] = [
+        ErrorKind::OutOfRange,
+        ErrorKind::NotFinite,
+        ErrorKind::NotANumber,
+        ErrorKind::MissingUnit,
+        ErrorKind::WrongUnit,
+        ErrorKind::IncompatiblePair,
+        ErrorKind::NoWaterFits,
+        ErrorKind::NoConvergence,
+        ErrorKind::UnknownFit,
+        ErrorKind::WrongMedium,
+        ErrorKind::UnknownChoice,
+        ErrorKind::UnstatedPhScale,
+        ErrorKind::Inconsistent,
+        ErrorKind::Missing,
+        ErrorKind::WrongCount,
+        ErrorKind::Computation,
+        ErrorKind::Unreachable,
+        ErrorKind::PastTarget,
+        ErrorKind::BadProfile,
+    ];
+
     /// The stable snake_case code.
     ///
     /// ```
@@ -700,27 +754,7 @@ mod tests {
     /// The code of each kind is the name it is serialised with.
     #[test]
     fn kind_codes_match_their_serialised_names() {
-        let kinds = [
-            ErrorKind::OutOfRange,
-            ErrorKind::NotFinite,
-            ErrorKind::NotANumber,
-            ErrorKind::MissingUnit,
-            ErrorKind::WrongUnit,
-            ErrorKind::IncompatiblePair,
-            ErrorKind::NoWaterFits,
-            ErrorKind::NoConvergence,
-            ErrorKind::UnknownFit,
-            ErrorKind::WrongMedium,
-            ErrorKind::UnknownChoice,
-            ErrorKind::UnstatedPhScale,
-            ErrorKind::Inconsistent,
-            ErrorKind::Missing,
-            ErrorKind::WrongCount,
-            ErrorKind::Computation,
-            ErrorKind::Unreachable,
-            ErrorKind::PastTarget,
-            ErrorKind::BadProfile,
-        ];
+        let kinds = ErrorKind::ALL;
         for k in kinds {
             assert_eq!(serde_json::to_value(k).unwrap(), k.code());
         }

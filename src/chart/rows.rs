@@ -5,8 +5,8 @@
 use super::draw::days_from_civil;
 use super::ChartError;
 use crate::output::Precision;
-use crate::sample::inputs::Input;
-use crate::sheet::{number_column, process, Format, SheetOptions, Summary};
+use crate::sample::inputs::{number_column, Input};
+use crate::sheet::{process, Format, SheetOptions, Summary};
 use serde_json::{Map, Value};
 use std::io::Read;
 

@@ -333,14 +333,14 @@ fn judge(state: &State, profile: &Profile, push: &mut Found) {
 /// use travertine::{Conditions, Measured, Water};
 /// let s = Water::fresh(Conditions::new(20.0, 0.1)?)?
 ///     .solve(Measured::ph(7.5, None)?, Measured::alkalinity_umol_kg(2000.0)?)?;
-/// assert_eq!(not_judged(&s, &Profile::default()), vec![("nh3_high", "no ammonia given")]);
+/// assert_eq!(not_judged(&s, &Profile::default()), vec![("nh3_high", "no ammonia total above zero")]);
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn not_judged(state: &State, profile: &Profile) -> Vec<(&'static str, &'static str)> {
     let l = &profile.limits;
     let mut out = Vec::new();
     if l.nh3_high_mg_l_n.is_some() && state.nh3_mg_l_n.is_none() {
-        out.push(("nh3_high", "no ammonia given"));
+        out.push(("nh3_high", "no ammonia total above zero"));
     }
     if l.omega_aragonite_low.is_some() && state.omega_aragonite.is_none() {
         out.push(("omega_aragonite_low", "no calcium given"));

@@ -188,7 +188,7 @@ pub fn table_on_scale(
 /// block closes the table, naming the profile, each flag raised on the
 /// state (of the requested conditions) with its code and message, or
 /// `none raised`, and the flags that could not be judged for want of an
-/// input (no ammonia given, no calcium).
+/// input (no ammonia total above zero, no calcium).
 ///
 /// ```
 /// use travertine::decisions::Profile;
@@ -201,7 +201,7 @@ pub fn table_on_scale(
 /// let block = &t[t.find("\nFlags").unwrap()..];
 /// assert!(block.contains("cold-water-fish"));
 /// assert!(block.contains("free_co2_high: free CO2 is 12.4 mg/L, above 10 mg/L"));
-/// assert!(block.contains("not judged: nh3_high (no ammonia given)"));
+/// assert!(block.contains("not judged: nh3_high (no ammonia total above zero)"));
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn table_with_profile(

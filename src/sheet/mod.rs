@@ -92,7 +92,9 @@ mod cell;
 mod columns;
 mod error;
 mod files;
-mod header;
+// The header recognition lives with the list of inputs (the bindings name
+// inputs the same way); the sheet's modules reach it as `super::header`.
+pub(crate) use crate::sample::inputs::header;
 mod lines;
 mod pair;
 mod pipeline;
@@ -763,30 +765,5 @@ fn to_sink<R: Read + Send>(
                 }
             }
         }
-    }
-}
-
-/// How the sheet reads a header that holds plain numbers: the input it is
-/// read as, and the factor and offset that take a cell to the input's base
-/// unit (`cell × factor + offset`; depth in m, temperature in °C, pressure
-/// in dbar). `None` for a header passed through, one read otherwise (a
-/// quantity with a unit, a pH, a name) or one without a unit that can be
-/// read.
-///
-/// ```
-/// use travertine::sample::inputs::Input;
-/// use travertine::sheet::number_column;
-/// assert_eq!(number_column("Depth (m)"), Some((Input::Depth, 1.0, 0.0)));
-/// assert_eq!(number_column("depth [ft]"), Some((Input::Depth, 0.3048, 0.0)));
-/// assert_eq!(number_column("Station"), None);
-/// ```
-pub fn number_column(header: &str) -> Option<(crate::sample::inputs::Input, f64, f64)> {
-    match header::recognise(header) {
-        header::Recognition::Column(header::Column {
-            field,
-            reading: header::Reading::Number { scale, offset, .. },
-            ..
-        }) => Some((field, scale, offset)),
-        _ => None,
     }
 }

@@ -18,8 +18,10 @@ use crate::properties::scales::PhScale;
 use crate::sample::measured::Parameter;
 use crate::sample::values::{Choice, Conductivity, InputValue};
 
+pub(crate) mod header;
 mod list;
 
+pub use header::{column_guide, number_column, NamedInput, UnreadName};
 pub use list::INPUTS;
 
 /// A measured total of the sample.

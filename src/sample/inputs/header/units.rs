@@ -338,6 +338,7 @@ pub(super) fn unit_note(field: Input, unit: &str) -> Option<&'static str> {
 /// The reading of a unit written after the number in a cell (`25 °C`,
 /// `120 mg/L as CaCO3`), for a column of `field`; `None` when the text is
 /// no unit of that field.
+#[cfg_attr(not(feature = "sheet"), allow(dead_code))]
 pub(crate) fn cell_unit(column: &Column, text: &str) -> Option<Reading> {
     let unit = normalise(text);
     let hint = match column.reading {

@@ -1,7 +1,11 @@
-//! Recognising a column by its header: the canonical snake_case names with
+//! Recognising an input by its name: the canonical snake_case names with
 //! the unit in the name (`alkalinity_mg_l_caco3`, `temperature_c`), and the
 //! common spellings with the unit in brackets (`Alkalinity (mg/L as
 //! CaCO3)`, `Temp [°C]`, `pH (NBS)`), case and spacing insensitive.
+//!
+//! The field sheet reads its headers here, and the bindings (C, Python)
+//! find their inputs here by name with [`NamedInput::find`], so that one
+//! vocabulary, made from the list of inputs, serves all of them.
 //!
 //! A header whose name is known but whose unit cannot be determined is a
 //! [`HeaderIssue`]: the sheet stops before any row is read. A unit is never
@@ -9,12 +13,15 @@
 //! is of (calcium as Ca, bicarbonate as HCO3, total ammonia *nitrogen* as
 //! N), never for alkalinity, DIC or hardness.
 
-use crate::base::units::Unit;
+use crate::base::units::{Quantity, Unit};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::{Input, NameHint, INPUTS};
+use crate::sample::values::{Conductivity, InputValue};
 
 mod units;
 
+// The sheet reads the unit of a cell with it.
+#[cfg_attr(not(feature = "sheet"), allow(unused_imports))]
 pub(crate) use units::cell_unit;
 use units::{interpret, is_unit_text, unit_note};
 
@@ -112,7 +119,7 @@ pub(crate) fn normalise(text: &str) -> String {
 /// and the units read. `travertine sheet --list-columns` prints it.
 ///
 /// ```
-/// let guide = travertine::sheet::column_guide();
+/// let guide = travertine::sample::inputs::column_guide();
 /// assert!(guide.contains("alkalinity_mg_l_caco3"));
 /// assert!(guide.contains("total alkalinity"));
 /// ```
@@ -248,6 +255,7 @@ pub(crate) fn recognise(header: &str) -> Recognition {
 
 /// The reading of a `--map` or `--set` name: any header travertine would
 /// recognise, such as `alkalinity_mg_l_caco3` or `Temp [°C]`.
+#[cfg_attr(not(feature = "sheet"), allow(dead_code))]
 pub(crate) fn recognise_name(name: &str) -> Result<Column, Option<HeaderIssue>> {
     match recognise(name) {
         Recognition::Column(c) => Ok(c),
@@ -257,6 +265,173 @@ pub(crate) fn recognise_name(name: &str) -> Result<Column, Option<HeaderIssue>> 
             // carries no unit of its own: `ph`, `water`, `salinity`.
             Err(None)
         }
+    }
+}
+
+/// An input found by name, with the unit its name gives: what a bare
+/// number given under that name means.
+///
+/// The names are those a sheet header may have
+/// ([`crate::sample::inputs::INPUTS`]: the canonical columns such as
+/// `alkalinity_mg_l_caco3`, `ph_total`, `temperature_c`,
+/// `specific_conductance_us_cm`, any other unit in the same form such as
+/// `alkalinity_umol_kg`, and the common spellings such as `Alkalinity (mg/L
+/// as CaCO3)`); the names of the medium, the pH scale and the fits
+/// (`water`, `ph_scale`, `carbonic`, `boron_fit`, ...) take a name rather
+/// than a number. A program that is handed inputs by name (the bindings)
+/// finds each name once and then reads any number of values with it.
+///
+/// ```
+/// use travertine::sample::inputs::{Input, NamedInput};
+/// use travertine::sample::values::InputValue;
+/// use travertine::{units::{Quantity, Unit}, Parameter, PhScale};
+/// let alk = NamedInput::find("alkalinity_mg_l_caco3")?;
+/// assert_eq!(alk.input(), Input::Carbon(Parameter::Alkalinity));
+/// assert_eq!(alk.number(120.0), Some(InputValue::Quantity(Quantity::new(120.0, Unit::MgPerLCaCO3))));
+/// assert_eq!(NamedInput::find("ph_total")?.number(8.05), Some(InputValue::Ph(8.05, Some(PhScale::Total))));
+/// // A name-valued input reads text, not a number.
+/// let water = NamedInput::find("water")?;
+/// assert!(water.takes_name() && water.number(1.0).is_none());
+/// assert!(NamedInput::find("site").is_err());
+/// assert!(NamedInput::find("alkalinity").is_err()); // no unit
+/// # Ok::<(), travertine::sample::inputs::UnreadName>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct NamedInput {
+    column: Column,
+}
+
+/// Why a name finds no [`NamedInput`].
+///
+/// ```
+/// use travertine::sample::inputs::{NamedInput, UnreadName};
+/// assert_eq!(NamedInput::find("depth_dbar").unwrap_err().to_string(),
+///            "`depth_dbar`: `dbar` is not a unit travertine knows for depth; accepted: \
+///             m; in a sheet header also ft (0.3048 m); for example depth_m");
+/// assert!(matches!(NamedInput::find("colour"), Err(UnreadName::Unknown { .. })));
+/// ```
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+#[non_exhaustive]
+pub enum UnreadName {
+    /// The name is no input's.
+    #[error(
+        "`{name}` names no input; use a name with its unit such as alkalinity_mg_l_caco3, \
+         ph_nbs, temperature_c, specific_conductance_us_cm, or an option such as water, \
+         ph_scale, carbonic"
+    )]
+    Unknown {
+        /// The name as given.
+        name: String,
+    },
+    /// The name is an input's, but the unit it gives (or its lack of one)
+    /// cannot be read.
+    #[error(
+        "`{name}`: {problem}; accepted: {}; for example {}",
+        input.accepted(),
+        input.column()
+    )]
+    Unit {
+        /// The name as given.
+        name: String,
+        /// The input it names.
+        input: Input,
+        /// What is wrong with its unit.
+        problem: String,
+    },
+}
+
+impl NamedInput {
+    /// The input `name` names, with its unit.
+    ///
+    /// # Errors
+    /// [`UnreadName::Unknown`] for a name of no input;
+    /// [`UnreadName::Unit`] for an input's name whose unit is missing or
+    /// not one of the input's (a unit is never guessed).
+    ///
+    /// ```
+    /// use travertine::sample::inputs::{Input, NamedInput};
+    /// assert_eq!(NamedInput::find("Temp [°F]")?.input(), Input::Temperature);
+    /// # Ok::<(), travertine::sample::inputs::UnreadName>(())
+    /// ```
+    pub fn find(name: &str) -> Result<NamedInput, UnreadName> {
+        match recognise(name) {
+            Recognition::Column(column) => Ok(NamedInput { column }),
+            Recognition::Issue(issue) => Err(UnreadName::Unit {
+                name: name.to_string(),
+                input: issue.field,
+                problem: issue.problem,
+            }),
+            Recognition::PassThrough => Err(UnreadName::Unknown {
+                name: name.to_string(),
+            }),
+        }
+    }
+
+    /// The input.
+    pub fn input(self) -> Input {
+        self.column.field
+    }
+
+    /// Whether the input takes a name (the medium, a scale, a fit, a
+    /// model) rather than a number: read it with [`Input::read`].
+    pub fn takes_name(self) -> bool {
+        self.column.reading == Reading::Text
+    }
+
+    /// The value a bare `number` given under this name stands for, in the
+    /// unit of the name (°F turned into °C, a pH with the scale the name
+    /// gives, a conductivity specific or not as the name says); `None` for
+    /// an input that takes a name ([`NamedInput::takes_name`]). The number
+    /// is checked where the sample is (a temperature by
+    /// [`crate::sample::Sample::water`], a measured value when it is
+    /// paired), not here.
+    ///
+    /// ```
+    /// use travertine::sample::{inputs::NamedInput, values::InputValue};
+    /// let t = NamedInput::find("temperature_f")?.number(50.0);
+    /// assert!(matches!(t, Some(InputValue::Number(c)) if (c - 10.0).abs() < 1e-12));
+    /// # Ok::<(), travertine::sample::inputs::UnreadName>(())
+    /// ```
+    pub fn number(self, number: f64) -> Option<InputValue> {
+        Some(match self.column.reading {
+            Reading::Text => return None,
+            Reading::Number { scale, offset, .. } => InputValue::Number(number * scale + offset),
+            Reading::Quantity(unit) => InputValue::Quantity(Quantity::new(number, unit)),
+            Reading::Conductivity { scale, specific } => {
+                let us_cm = number * scale;
+                InputValue::Conductivity(if specific {
+                    Conductivity::Specific { us_cm }
+                } else {
+                    Conductivity::AtTemperature { us_cm }
+                })
+            }
+            Reading::Ph(scale) => InputValue::Ph(number, scale),
+        })
+    }
+}
+
+/// How the sheet reads a header that holds plain numbers: the input it is
+/// read as, and the factor and offset that take a cell to the input's base
+/// unit (`cell × factor + offset`; depth in m, temperature in °C, pressure
+/// in dbar). `None` for a header passed through, one read otherwise (a
+/// quantity with a unit, a pH, a name) or one without a unit that can be
+/// read.
+///
+/// ```
+/// use travertine::sample::inputs::Input;
+/// use travertine::sample::inputs::number_column;
+/// assert_eq!(number_column("Depth (m)"), Some((Input::Depth, 1.0, 0.0)));
+/// assert_eq!(number_column("depth [ft]"), Some((Input::Depth, 0.3048, 0.0)));
+/// assert_eq!(number_column("Station"), None);
+/// ```
+pub fn number_column(header: &str) -> Option<(Input, f64, f64)> {
+    match recognise(header) {
+        Recognition::Column(Column {
+            field,
+            reading: Reading::Number { scale, offset, .. },
+            ..
+        }) => Some((field, scale, offset)),
+        _ => None,
     }
 }
 

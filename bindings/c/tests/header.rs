@@ -1,0 +1,74 @@
+//! The committed header is what cbindgen makes of `src/lib.rs` with
+//! `cbindgen.toml`: this test fails when they differ (CI runs it), and
+//! rewrites the header when `TRV_WRITE_HEADER=1` is set.
+
+use std::path::Path;
+
+fn generated() -> String {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR"));
+    let config = cbindgen::Config::from_file(dir.join("cbindgen.toml")).expect("cbindgen.toml");
+    let bindings = cbindgen::Builder::new()
+        .with_config(config)
+        .with_src(dir.join("src/lib.rs"))
+        .generate()
+        .expect("cbindgen reads src/lib.rs");
+    let mut out = Vec::new();
+    bindings.write(&mut out);
+    String::from_utf8(out).expect("the header is UTF-8")
+}
+
+#[test]
+fn the_committed_header_is_current() {
+    let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("travertine.h");
+    let fresh = generated();
+    if std::env::var_os("TRV_WRITE_HEADER").is_some_and(|v| v == "1") {
+        std::fs::write(&path, &fresh).expect("write travertine.h");
+        return;
+    }
+    let committed = std::fs::read_to_string(&path).unwrap_or_default();
+    assert!(
+        committed == fresh,
+        "bindings/c/travertine.h is not what cbindgen makes of src/lib.rs; run \
+         `TRV_WRITE_HEADER=1 cargo test -p travertine-c --test header` and commit it"
+    );
+}
+
+/// Every function of the surface, and every error code, is in the header
+/// with its doc comment.
+#[test]
+fn the_header_declares_the_whole_surface_with_docs() {
+    let h = generated();
+    for f in [
+        "trv_sample *trv_sample_new(void);",
+        "int trv_sample_set(trv_sample *sample, const char *input_name, double value);",
+        "int trv_sample_option(trv_sample *sample, const char *option, const char *value);",
+        "trv_state *trv_solve(const trv_sample *sample, trv_error **error);",
+        "double trv_state_get(const trv_state *state, const char *output_key);",
+        "size_t trv_state_warning_count(const trv_state *state);",
+        "const char *trv_state_warning_code(const trv_state *state, size_t index);",
+        "const char *trv_error_message(const trv_error *error);",
+        "int trv_error_code(const trv_error *error);",
+        "void trv_sample_free(trv_sample *sample);",
+        "void trv_state_free(trv_state *state);",
+        "void trv_error_free(trv_error *error);",
+    ] {
+        let at = h.find(f).unwrap_or_else(|| panic!("no `{f}` in\n{h}"));
+        let before = h[..at].trim_end();
+        assert!(
+            before.ends_with("*/")
+                || before
+                    .lines()
+                    .last()
+                    .is_some_and(|l| l.trim_start().starts_with("//")),
+            "`{f}` has no doc comment"
+        );
+    }
+    for code in [
+        "TRV_OK 0",
+        "TRV_ERR_NULL 1",
+        "TRV_ERR_OUT_OF_RANGE 100",
+        "TRV_ERR_BAD_PROFILE 118",
+    ] {
+        assert!(h.contains(&format!("#define {code}")), "no #define {code}");
+    }
+}
