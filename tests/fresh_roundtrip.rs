@@ -372,7 +372,7 @@ fn options_finite(s: &State) -> bool {
         s.exchange.and_then(|e| e.equilibrium_free_co2_mg_l),
     ]
     .iter()
-    .all(|v| v.map_or(true, f64::is_finite))
+    .all(|v| v.is_none_or(f64::is_finite))
 }
 
 /// Every number finite; a null (which is also how serde writes NaN) only

@@ -203,7 +203,7 @@ proptest! {
             let e = state.exchange.unwrap();
             let noted = state.warnings.iter().any(|w| w.code() == "equilibrium_not_computed");
             prop_assert_eq!(e.equilibrium_ph.is_none(), noted, "{}", json);
-            prop_assert!(e.equilibrium_ph.map_or(true, f64::is_finite) && e.equilibrium_free_co2_mg_l.map_or(true, f64::is_finite));
+            prop_assert!(e.equilibrium_ph.is_none_or(f64::is_finite) && e.equilibrium_free_co2_mg_l.is_none_or(f64::is_finite));
         }
     }
 }

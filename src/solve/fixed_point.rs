@@ -131,8 +131,7 @@ pub(crate) fn fixed_point<T>(
         } else {
             hi = Some(x);
         }
-        let inside =
-            |v: f64| v.is_finite() && lo.map_or(true, |l| v > l) && hi.map_or(true, |h| v < h);
+        let inside = |v: f64| v.is_finite() && lo.is_none_or(|l| v > l) && hi.is_none_or(|h| v < h);
         let secant = match previous {
             Some((x0, g0)) if g0 != g => x - g * (x - x0) / (g - g0),
             _ => f,
