@@ -18,6 +18,8 @@
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{Amount, Quantity, Unit, CACO3_G_MOL};
+use crate::flow::PreparedWater;
+use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::measured::Measured;
 use crate::sample::water::Water;
@@ -478,22 +480,68 @@ impl Dose {
 /// and inside the accepted range of alkalinity and DIC.
 const MOST_MOL_KG: f64 = 0.05;
 
+/// How a dose solves its waters: as they are, or with constants moved by
+/// their uncertainty ([`crate::decisions::dose_uncertainty`]), the same
+/// moves made again in every treated water.
+#[derive(Clone, Copy)]
+pub(crate) struct Solver<'a> {
+    water: &'a Water,
+    /// The water prepared with its constants moved, and the moves.
+    moved: Option<(&'a PreparedWater, &'a [(ConstantName, f64)])>,
+}
+
+impl<'a> Solver<'a> {
+    /// The water as it is.
+    fn plain(water: &'a Water) -> Self {
+        Solver { water, moved: None }
+    }
+
+    /// `prepared` (its constants moved by `constants`, in pK units).
+    pub(crate) fn moved(prepared: &'a PreparedWater, constants: &'a [(ConstantName, f64)]) -> Self {
+        Solver {
+            water: prepared.water(),
+            moved: Some((prepared, constants)),
+        }
+    }
+
+    /// The pair solved in the water, with its calcium set to `calcium`
+    /// where given.
+    fn solve(&self, calcium: Option<f64>, a: Measured, b: Measured) -> Result<State> {
+        let with_calcium = |c: f64| -> Result<Water> {
+            let composition = self.water.composition().with_calcium(Amount::PerKg(c))?;
+            Ok(self.water.clone().with_composition(composition))
+        };
+        match (self.moved, calcium) {
+            (None, None) => self.water.solve(a, b),
+            (None, Some(c)) => with_calcium(c)?.solve(a, b),
+            (Some((p, _)), None) => p.solve(a, b),
+            (Some((_, constants)), Some(c)) => {
+                let mut p = with_calcium(c)?.prepare()?;
+                for &(k, d) in constants {
+                    p = p.with_constants_perturbed(k, d)?;
+                }
+                p.solve(a, b)
+            }
+        }
+    }
+
+    fn medium(&self) -> crate::sample::water::Medium {
+        self.water.medium()
+    }
+}
+
 /// The water after `n` mol/kg of `chemical` has reacted.
-fn treated(water: &Water, before: &State, chemical: Chemical, n: f64) -> Result<(Water, State)> {
+fn treated(water: Solver<'_>, before: &State, chemical: Chemical, n: f64) -> Result<State> {
     let d = chemical.per_mole();
     let alkalinity = before.alkalinity_umol_kg + d.alkalinity_eq * n * 1e6;
     let dic = before.dic_umol_kg + d.dic_mol * n * 1e6;
-    let mut w = water.clone();
-    if d.calcium_mol != 0.0 {
-        let calcium = before.calcium_umol_kg.unwrap_or(0.0) * 1e-6 + d.calcium_mol * n;
-        let composition = water.composition().with_calcium(Amount::PerKg(calcium))?;
-        w = w.with_composition(composition);
-    }
-    let state = w.solve(
+    let calcium = (d.calcium_mol != 0.0)
+        .then(|| before.calcium_umol_kg.unwrap_or(0.0) * 1e-6 + d.calcium_mol * n);
+    water.solve(
+        calcium,
         Measured::alkalinity_umol_kg(alkalinity)?,
         Measured::dic_umol_kg(dic)?,
-    )?;
-    Ok((w, state))
+    )
 }
 
 /// The dose of `request.chemical` that takes `water`, whose state is
@@ -528,6 +576,11 @@ fn treated(water: &Water, before: &State, chemical: Chemical, n: f64) -> Result<
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn dose(water: &Water, before: &State, request: DoseRequest) -> Result<Dose> {
+    dose_with(Solver::plain(water), before, request)
+}
+
+/// As [`dose`], every water solved by `water`.
+pub(crate) fn dose_with(water: Solver<'_>, before: &State, request: DoseRequest) -> Result<Dose> {
     let chemical = request.chemical;
     let target = request.target;
     let scale = request.ph_scale.unwrap_or(match water.medium() {
@@ -542,7 +595,7 @@ pub fn dose(water: &Water, before: &State, request: DoseRequest) -> Result<Dose>
     let goal = target.value(rho).ok_or_else(missing_calcium)?;
     let start = target.of(before, scale).ok_or_else(missing_calcium)?;
     let quantity = |n: f64| -> Result<f64> {
-        let (_, s) = treated(water, before, chemical, n)?;
+        let s = treated(water, before, chemical, n)?;
         target.of(&s, scale).ok_or_else(missing_calcium)
     };
     let relative = 1e-12 * goal.abs().max(1e-9);
@@ -645,16 +698,17 @@ pub fn dose(water: &Water, before: &State, request: DoseRequest) -> Result<Dose>
 
 /// The DIC of `water` at equilibrium with air of `air_co2_ppm` at the
 /// alkalinity of `before`, µmol/kg.
-fn equilibrium_dic_umol_kg(water: &Water, before: &State, air_co2_ppm: f64) -> Result<f64> {
+fn equilibrium_dic_umol_kg(water: Solver<'_>, before: &State, air_co2_ppm: f64) -> Result<f64> {
     let s = water.solve(
+        None,
         Measured::alkalinity_umol_kg(before.alkalinity_umol_kg)?,
         Measured::xco2_ppm(air_co2_ppm)?,
     )?;
     Ok(s.dic_umol_kg)
 }
 
-fn finish(water: &Water, before: &State, request: DoseRequest, n: f64) -> Result<Dose> {
-    let (_, after) = treated(water, before, request.chemical, n)?;
+fn finish(water: Solver<'_>, before: &State, request: DoseRequest, n: f64) -> Result<Dose> {
+    let after = treated(water, before, request.chemical, n)?;
     let product = n * before.density_kg_m3 * request.chemical.molar_mass_g_mol()
         / (request.purity_percent / 100.0 * request.dissolved_fraction);
     Ok(Dose {

@@ -22,4 +22,6 @@ pub mod blend;
 pub mod dose;
 pub mod volume;
 // issue 13: uncertainty
+pub mod dose_uncertainty;
 pub mod uncertainty;
+pub mod uncertainty_settings;

@@ -294,6 +294,19 @@ impl Uncertainties {
         Ok(self)
     }
 
+    /// The inputs given, each with its size, in the order given.
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::{Size, Uncertainties};
+    /// # use travertine::sample::inputs::Input;
+    /// let u = Uncertainties::new().with_input(Input::Temperature, Size::Absolute(0.1))?;
+    /// assert_eq!(u.inputs(), &[(Input::Temperature, Size::Absolute(0.1))]);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn inputs(&self) -> &[(Input, Size)] {
+        &self.inputs
+    }
+
     /// With no uncertainty in any constant (defaults and those set alike).
     ///
     /// ```
@@ -471,6 +484,24 @@ impl Problem {
     /// [`Size::Absolute`]; constants in pK units, the total boron too,
     /// as log10 of its factor).
     fn realise(&self, shifts: &[(Source, f64)]) -> Result<State> {
+        let moved = self.moved(shifts)?;
+        let state = moved.prepared.solve_with(moved.a, moved.b, &self.options)?;
+        match &moved.air {
+            Some((air, scale)) => moved.prepared.with_exchange(state, air, *scale),
+            None => Ok(state),
+        }
+    }
+
+    /// The solve options.
+    pub(crate) fn options(&self) -> &SolveOptions {
+        &self.options
+    }
+
+    /// The water, the pair and the air with each source moved by its
+    /// shift (as [`Problem::realise`]), not yet solved; for a quantity
+    /// that needs more than the state (the dose,
+    /// [`crate::decisions::dose_uncertainty`]).
+    pub(crate) fn moved(&self, shifts: &[(Source, f64)]) -> Result<Moved> {
         let base = self.prepared.water();
         let mut water_changed = false;
         let mut c = *base.conditions();
@@ -526,17 +557,36 @@ impl Problem {
         } else {
             self.prepared.clone()
         };
+        let mut constants = Vec::new();
         for &(source, d) in shifts {
             if let (Source::Constant(k), true) = (source, d != 0.0) {
                 prepared = prepared.with_constants_perturbed(k, d)?;
+                constants.push((k, d));
             }
         }
-        let state = prepared.solve_with(a, b, &self.options)?;
-        match &air {
-            Some((air, scale)) => prepared.with_exchange(state, air, *scale),
-            None => Ok(state),
-        }
+        Ok(Moved {
+            prepared,
+            constants,
+            a,
+            b,
+            air,
+        })
     }
+}
+
+/// A [`Problem`] with its sources moved ([`Problem::moved`]).
+#[derive(Debug, Clone)]
+pub(crate) struct Moved {
+    /// The water, prepared, its constants moved.
+    pub(crate) prepared: PreparedWater,
+    /// The constants moved, each by its shift in pK units.
+    pub(crate) constants: Vec<(ConstantName, f64)>,
+    /// The pair.
+    pub(crate) a: Measured,
+    /// The pair.
+    pub(crate) b: Measured,
+    /// The air.
+    pub(crate) air: Option<(Air, Option<PhScale>)>,
 }
 
 /// The conditions `c` at salinity `s`, everything else kept.
@@ -612,7 +662,7 @@ pub struct Propagation {
 
 /// Every source with its standard uncertainty in the coordinate that
 /// [`Problem::realise`] shifts, and the scale of its difference step.
-fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, f64)>> {
+pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, f64)>> {
     let mut out = Vec::new();
     for &(input, size) in &u.inputs {
         let source = Source::Input(input);

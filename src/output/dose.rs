@@ -66,6 +66,38 @@ fn number(o: Output, s: &State) -> Option<f64> {
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn dose_json(d: &Dose, volume: Option<Volume>, scale: PhScale) -> String {
+    dose_json_with_uncertainty(d, volume, scale, None)
+}
+
+/// As [`dose_json`], with the standard uncertainty of the dose (issue 13)
+/// where given: `dose_g_m3_u`, and with a volume `dose_total_kg_u` and
+/// `dose_total_lb_u`, each beside its key, and `uncertainty`, the
+/// statement of the sources ([`super::uncertainty_report::dose_statement`]).
+///
+/// ```
+/// use travertine::decisions::dose::{dose, Chemical, DoseRequest};
+/// use travertine::decisions::dose_uncertainty::dose_uncertainty;
+/// use travertine::decisions::uncertainty::{Problem, Uncertainties};
+/// use travertine::decisions::volume::Volume;
+/// use travertine::output::dose_json_with_uncertainty;
+/// use travertine::{units::Unit, Conditions, Measured, PhScale, Water};
+/// let pond = Water::fresh(Conditions::new(24.0, 0.1)?)?;
+/// let (a, b) = (Measured::alkalinity(28.0, Unit::MgPerLCaCO3)?, Measured::ph(7.1, None)?);
+/// let request = DoseRequest::new(Chemical::SodiumBicarbonate, "alkalinity=50 mg/L CaCO3".parse()?);
+/// let d = dose(&pond, &pond.solve(a, b)?, request)?;
+/// let u = dose_uncertainty(&Problem::new(&pond, a, b)?, &Uncertainties::new(), request)?;
+/// let text = dose_json_with_uncertainty(&d, Some(Volume::from_m3(100.0)?), PhScale::Nbs,
+///                                       Some((&u, serde_json::Value::Null)));
+/// let v: serde_json::Value = serde_json::from_str(&text).unwrap();
+/// assert!((v["dose_total_kg_u"].as_f64().unwrap() - 0.1 * u.dose_g_m3_u).abs() < 1e-12);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn dose_json_with_uncertainty(
+    d: &Dose,
+    volume: Option<Volume>,
+    scale: PhScale,
+    uncertainty: Option<(&crate::decisions::dose_uncertainty::DoseUncertainty, Json)>,
+) -> String {
     let mut change = Map::new();
     for o in dose_changes(scale) {
         let delta = match (number(o, &d.before), number(o, &d.after)) {
@@ -76,7 +108,7 @@ pub fn dose_json(d: &Dose, volume: Option<Volume>, scale: PhScale) -> String {
     }
     let r = &d.request;
     let total_kg = volume.map(|v| d.total_kg(v.m3()));
-    let v = json!({
+    let mut v = json!({
         "chemical": r.chemical.name(),
         "target": target_text(d),
         "purity_percent": r.purity_percent,
@@ -95,6 +127,24 @@ pub fn dose_json(d: &Dose, volume: Option<Volume>, scale: PhScale) -> String {
         .unwrap_or(Json::Null),
         "cautions": d.cautions,
     });
+    if let (Some((u, statement)), Some(object)) = (uncertainty, v.as_object_mut()) {
+        let kg_u = volume.map(|v| u.total_kg_u(v.m3()));
+        let old = std::mem::take(object);
+        for (key, value) in old {
+            let u_value = match key.as_str() {
+                "dose_g_m3" => Some(json!(u.dose_g_m3_u)),
+                "dose_total_kg" => Some(json!(kg_u)),
+                "dose_total_lb" => Some(json!(kg_u.map(|kg| kg / KG_PER_POUND))),
+                _ => None,
+            };
+            let u_key = format!("{key}_u");
+            object.insert(key, value);
+            if let Some(x) = u_value {
+                object.insert(u_key, x);
+            }
+        }
+        object.insert("uncertainty".into(), statement);
+    }
     serde_json::to_string_pretty(&v).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }
 
@@ -132,14 +182,51 @@ pub fn dose_table(
     scale: PhScale,
     precision: Precision,
 ) -> String {
+    dose_table_with_uncertainty(d, volume, scale, precision, None)
+}
+
+/// As [`dose_table`], with the standard uncertainty of the dose (issue
+/// 13) where given: ± beside the dose per m³ and in total (to two
+/// significant figures), and `block`, the statement of its sources
+/// ([`super::uncertainty_report::dose_statement`]), after the cautions.
+///
+/// ```
+/// use travertine::decisions::dose::{dose, Chemical, DoseRequest};
+/// use travertine::decisions::dose_uncertainty::dose_uncertainty;
+/// use travertine::decisions::uncertainty::{Problem, Uncertainties};
+/// use travertine::output::{dose_table_with_uncertainty, Precision};
+/// use travertine::{units::Unit, Conditions, Measured, PhScale, Water};
+/// let pond = Water::fresh(Conditions::new(24.0, 0.1)?)?;
+/// let (a, b) = (Measured::alkalinity(28.0, Unit::MgPerLCaCO3)?, Measured::ph(7.1, None)?);
+/// let request = DoseRequest::new(Chemical::SodiumBicarbonate, "alkalinity=50 mg/L CaCO3".parse()?);
+/// let d = dose(&pond, &pond.solve(a, b)?, request)?;
+/// let u = dose_uncertainty(&Problem::new(&pond, a, b)?, &Uncertainties::new(), request)?;
+/// let t = dose_table_with_uncertainty(&d, None, PhScale::Nbs, Precision::Sensible, Some((&u, "")));
+/// assert!(t.lines().nth(1).unwrap().contains(" ± "));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn dose_table_with_uncertainty(
+    d: &Dose,
+    volume: Option<Volume>,
+    scale: PhScale,
+    precision: Precision,
+    uncertainty: Option<(&crate::decisions::dose_uncertainty::DoseUncertainty, &str)>,
+) -> String {
     let mut out = String::new();
     let r = &d.request;
     let three = Digits::Significant(3);
+    let pm = |x: f64| {
+        uncertainty.map_or_else(String::new, |_| {
+            format!(" ± {}", precision.format(x, Digits::Significant(2)))
+        })
+    };
+    let u = uncertainty.map_or(0.0, |(u, _)| u.dose_g_m3_u);
     let _ = writeln!(out, "Dose of {} to {}", r.chemical.what(), target_text(d));
     let _ = writeln!(
         out,
-        "  add {} g/m³ (mg/L) of product at {} % purity{}",
+        "  add {}{} g/m³ (mg/L) of product at {} % purity{}",
         precision.format(d.dose_g_m3, three),
+        pm(u),
         r.purity_percent,
         if r.dissolved_fraction < 1.0 {
             format!(", {} of it dissolving", r.dissolved_fraction)
@@ -151,10 +238,12 @@ pub fn dose_table(
         let kg = d.total_kg(v.m3());
         let _ = writeln!(
             out,
-            "  for {} m³: {} kg ({} lb)",
+            "  for {} m³: {}{} kg ({}{} lb)",
             precision.format(v.m3(), three),
             precision.format(kg, three),
-            precision.format(kg / KG_PER_POUND, three)
+            pm(u * v.m3() / 1000.0),
+            precision.format(kg / KG_PER_POUND, three),
+            pm(u * v.m3() / 1000.0 / KG_PER_POUND)
         );
     }
     let rows: Vec<(Output, [String; 3])> = dose_changes(scale)
@@ -203,6 +292,9 @@ pub fn dose_table(
     let _ = writeln!(out, "\nCautions");
     for c in &d.cautions {
         let _ = writeln!(out, "  - {}", c.message);
+    }
+    if let Some((_, block)) = uncertainty {
+        out.push_str(block);
     }
     if !d.after.warnings.is_empty() {
         let _ = writeln!(out, "\nAbout the water after treatment");

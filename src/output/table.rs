@@ -2,6 +2,7 @@
 
 use super::digits::Precision;
 use super::fields::{Output, Place, Section, Value};
+use super::uncertainty_report::Report;
 use crate::base::warning::Severity;
 use crate::decisions::{flags, not_judged, Profile};
 use crate::properties::scales::PhScale;
@@ -211,6 +212,37 @@ pub fn table_with_profile(
     precision: Precision,
     profile: &Profile,
 ) -> String {
+    table_with_uncertainty(state, measured, ph_scale, precision, profile, None)
+}
+
+/// As [`table_with_profile`], with the standard uncertainties of
+/// `report` (issue 13) where given: a ± column beside the values of the
+/// state (a second one, `MC ±`, with the Monte Carlo check), and a block
+/// stating every source of uncertainty, its size and its origin.
+///
+/// ```
+/// use travertine::decisions::{uncertainty::{Problem, Size, Uncertainties}, Profile};
+/// use travertine::output::{table_with_uncertainty, uncertainty_report::Report, Precision};
+/// use travertine::sample::inputs::Input;
+/// use travertine::{Conditions, Measured, Parameter, Water};
+/// let pond = Water::fresh(Conditions::new(15.0, 0.2)?)?;
+/// let (a, b) = (Measured::ph(7.5, None)?, Measured::alkalinity_umol_kg(1200.0)?);
+/// let s = pond.solve(a, b)?;
+/// let u = Uncertainties::new().with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.02))?;
+/// let r = Report::new(&Problem::new(&pond, a, b)?, &u, None)?;
+/// let t = table_with_uncertainty(&s, None, None, Precision::Sensible, &Profile::default(), Some(&r));
+/// assert!(t.lines().any(|l| l.contains("pH, NBS scale") && l.contains("± 0.020")));
+/// assert!(t.contains("\nUncertainty"));
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn table_with_uncertainty(
+    state: &State,
+    measured: Option<&State>,
+    ph_scale: Option<PhScale>,
+    precision: Precision,
+    profile: &Profile,
+    report: Option<&Report>,
+) -> String {
     let mut out = String::new();
     let key = key_figures(state.medium, ph_scale.unwrap_or(PhScale::Total));
     let sections = rows(state, &key);
@@ -239,8 +271,46 @@ pub fn table_with_profile(
         .max()
         .unwrap_or(0)
         .max(14);
+    // issue 13: the ± columns, for the state itself (not the block as
+    // measured, whose uncertainty was not asked for).
+    let pm = |o: Output, mc: bool| {
+        report
+            .and_then(|r| {
+                if mc {
+                    r.cell_mc(o, precision)
+                } else {
+                    r.cell(o, precision)
+                }
+            })
+            .unwrap_or_default()
+    };
+    let all_rows = || {
+        key.iter()
+            .chain(sections.iter().flat_map(|(_, r)| r.iter().map(|(o, _)| o)))
+    };
+    let pm_w = all_rows()
+        .map(|o| pm(*o, false).chars().count())
+        .max()
+        .unwrap_or(0);
+    let mc_w = all_rows()
+        .map(|o| pm(*o, true).chars().count())
+        .max()
+        .unwrap_or(0);
     let line = |o: Output, label: &str, s: &State| {
         let mut line = format!("  {label:<label_w$}{:>value_w$}", cell(o, s, precision));
+        if report.is_some() {
+            let own = std::ptr::eq(s, state);
+            let (u, m) = if own {
+                (pm(o, false), pm(o, true))
+            } else {
+                (String::new(), String::new())
+            };
+            line.push_str(&format!("  {u:<pm_w$}"));
+            if mc_w > 0 {
+                let m = if m.is_empty() { m } else { format!("MC {m}") };
+                line.push_str(&format!("  {m:<w$}", w = mc_w + 3));
+            }
+        }
         if !o.unit().is_empty() {
             line.push_str("  ");
             line.push_str(o.unit());
@@ -302,6 +372,9 @@ pub fn table_with_profile(
                 let _ = writeln!(out, "  - {w}");
             }
         }
+    }
+    if let Some(r) = report {
+        out.push_str(&r.block());
     }
     // issue 11: quality flags
     let raised = flags(state, profile);

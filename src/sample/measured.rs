@@ -159,7 +159,7 @@ impl Parameter {
         }
     }
 
-    fn mass_unit(self) -> (Unit, f64) {
+    pub(crate) fn mass_unit(self) -> (Unit, f64) {
         match self {
             Parameter::Alkalinity => (Unit::MgPerLCaCO3, CACO3_G_EQ),
             Parameter::Dic => (Unit::MgPerLC, C_G_MOL),

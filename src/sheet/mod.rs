@@ -213,6 +213,9 @@ pub struct SheetOptions {
     profile: Profile,
     // issue 12: a dose for every row
     dose: Option<DoseRequest>,
+    // issue 13: uncertainties for every row
+    uncertainty: Vec<crate::decisions::uncertainty_settings::Setting>,
+    no_constant_uncertainty: bool,
 }
 
 impl Default for SheetOptions {
@@ -231,6 +234,8 @@ impl Default for SheetOptions {
             digits: Precision::Sensible,
             profile: Profile::default(),
             dose: None,
+            uncertainty: Vec::new(),
+            no_constant_uncertainty: false,
         }
     }
 }
@@ -463,6 +468,61 @@ impl SheetOptions {
     #[must_use]
     pub fn with_dose(mut self, request: DoseRequest) -> Self {
         self.dose = Some(request);
+        self
+    }
+
+    /// The standard uncertainty of an input or a constant for every row,
+    /// `NAME=VALUE` as `solve --uncertainty` reads it
+    /// ([`crate::decisions::uncertainty_settings`]); a later one of the same
+    /// name, and a row's own `<column>_u` cell, replace it.
+    ///
+    /// Whenever an uncertainty is asked for (this, a `<column>_u` input
+    /// column, or [`SheetOptions::without_constant_uncertainty`]), every
+    /// numeric computed column gets its standard uncertainty in a column
+    /// `<column>_u`, after the residuals and the dose columns, each row
+    /// propagated as `solve --uncertainty` propagates it (the constants
+    /// with their defaults unless switched off). A row whose uncertainty
+    /// cannot be computed keeps its values, with the reason in its message.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] with the setting's error.
+    ///
+    /// ```
+    /// use travertine::sheet::{process, SheetOptions};
+    /// let sheet = "temperature_c,ph_nbs,alkalinity_mg_l_caco3,ph_nbs_u\n18,7.4,150,0.02\n";
+    /// let options = SheetOptions::default()
+    ///     .with_columns("pco2_uatm")?
+    ///     .with_uncertainty("alkalinity=2%")?;
+    /// let mut out = Vec::new();
+    /// process(&options, sheet.as_bytes(), &mut out)?;
+    /// let text = String::from_utf8(out).unwrap();
+    /// assert!(text.lines().next().unwrap().contains(",pco2_uatm,pco2_uatm_u,status"));
+    /// assert!(SheetOptions::default().with_uncertainty("ph=-1").is_err());
+    /// # Ok::<(), travertine::sheet::SheetError>(())
+    /// ```
+    pub fn with_uncertainty(mut self, spec: &str) -> Result<Self, SheetError> {
+        let setting =
+            spec.parse()
+                .map_err(|e: crate::decisions::uncertainty_settings::SettingError| {
+                    SheetError::BadOption {
+                        option: "--uncertainty",
+                        message: e.to_string(),
+                    }
+                })?;
+        self.uncertainty.push(setting);
+        Ok(self)
+    }
+
+    /// No uncertainty in any constant, for every row (and the `_u`
+    /// columns written even with no other uncertainty asked for: all 0).
+    ///
+    /// ```
+    /// # use travertine::sheet::SheetOptions;
+    /// let _ = SheetOptions::default().without_constant_uncertainty();
+    /// ```
+    #[must_use]
+    pub fn without_constant_uncertainty(mut self) -> Self {
+        self.no_constant_uncertainty = true;
         self
     }
 

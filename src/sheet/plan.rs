@@ -8,6 +8,7 @@ use super::header::{self, Column, Reading, Recognition};
 use super::pair::{choose_pair, rank, RANKING};
 use super::{SheetError, SheetOptions};
 use crate::base::error::PH_SCALE_ADVICE;
+use crate::decisions::uncertainty_settings::Target;
 use crate::output::{Output, Precision, Section};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Input;
@@ -105,6 +106,37 @@ pub(crate) struct Plan {
     /// The dose of every row, where one is asked for: its columns follow
     /// the residuals.
     pub dose: Option<crate::decisions::dose::DoseRequest>,
+    // issue 13: uncertainties
+    /// The uncertainties of every row, where asked for: their columns
+    /// follow the dose's.
+    pub uncertainty: Option<UncertaintyPlan>,
+}
+
+/// An input column of standard uncertainties, `<column>_u`.
+#[derive(Debug, Clone)]
+pub(crate) struct UncertaintyColumn {
+    /// Its position in the row.
+    pub index: usize,
+    /// Its header as written.
+    pub header: String,
+    /// What it gives the uncertainty of.
+    pub target: Target,
+    /// How its value column is read (its unit).
+    pub reading: Reading,
+}
+
+/// The uncertainties of a sheet (issue 13).
+#[derive(Debug, Clone)]
+pub(crate) struct UncertaintyPlan {
+    /// `--uncertainty` for every row.
+    pub settings: Vec<crate::decisions::uncertainty_settings::Setting>,
+    /// The `<column>_u` input columns.
+    pub columns: Vec<UncertaintyColumn>,
+    /// Whether the constants keep their uncertainties.
+    pub constants: bool,
+    /// The computed columns (indexes into [`Plan::computed`]) that get a
+    /// `_u` column, in order.
+    pub outputs: Vec<usize>,
 }
 
 impl Plan {
@@ -152,7 +184,16 @@ impl Plan {
         let mut labels: Vec<(Input, Label)> = Vec::new();
         let mut passed = Vec::new();
         let mut unit_notes = Vec::new();
+        let mut u_columns: Vec<UncertaintyColumn> = Vec::new();
         for (i, text) in texts.iter().enumerate() {
+            // issue 13: `<column>_u`, the standard uncertainty of an input
+            // column, in that column's unit.
+            if mapped[i].is_none() {
+                if let Some(u) = uncertainty_column(i, text) {
+                    u_columns.push(u);
+                    continue;
+                }
+            }
             let column = match mapped[i] {
                 Some(Some(c)) => c,
                 Some(None) => {
@@ -394,6 +435,59 @@ impl Plan {
                 ));
             }
         }
+        // issue 13: the `_u` input columns whose value is given somewhere,
+        // the others reported unused; the `_u` output columns.
+        let mut kept = Vec::new();
+        for u in u_columns {
+            let given = match u.target {
+                Target::Input(field) => labels.iter().any(|(f, _)| *f == field),
+                Target::Constant(_) => true,
+            };
+            if given {
+                kept.push(u);
+            } else {
+                unit_notes.push(format!(
+                    "column `{}` not used: the sheet has no column (and no --set value) of \
+                     {} for it to be the uncertainty of",
+                    u.header,
+                    u.target.name()
+                ));
+            }
+        }
+        let asked =
+            !kept.is_empty() || !options.uncertainty.is_empty() || options.no_constant_uncertainty;
+        let uncertainty = asked.then(|| {
+            let outputs: Vec<usize> = computed
+                .iter()
+                .enumerate()
+                .filter(|(_, o)| o.digits().is_some())
+                .map(|(i, _)| i)
+                .collect();
+            UncertaintyPlan {
+                settings: options.uncertainty.clone(),
+                columns: kept,
+                constants: !options.no_constant_uncertainty,
+                outputs,
+            }
+        });
+        if let Some(up) = &uncertainty {
+            // Each named after its value column as written (`added` opens
+            // with the computed columns, in order).
+            for &i in &up.outputs {
+                let base = format!("{}_u", added[i]);
+                push(base, &mut added);
+            }
+            unit_notes.push(if up.constants {
+                "uncertainties: the constants take their default uncertainties (sea water: Orr \
+                 et al. 2018, values from memory; fresh water: the crate's stated values, from \
+                 memory); `travertine solve --uncertainty ...` lists each; \
+                 --no-constant-uncertainty leaves them out"
+                    .to_string()
+            } else {
+                "uncertainties: the constants without uncertainty (--no-constant-uncertainty)"
+                    .to_string()
+            });
+        }
         if flags {
             push("flags".into(), &mut added);
         }
@@ -433,8 +527,27 @@ impl Plan {
             passed,
             unit_notes,
             exchange,
+            uncertainty,
         })
     }
+}
+
+/// The column `text` at `index` as a column of standard uncertainties:
+/// any header recognised as an input whose uncertainty can be propagated,
+/// followed by `_u` (`ph_nbs_u`, `Alkalinity (mg/L as CaCO3)_u`).
+fn uncertainty_column(index: usize, text: &str) -> Option<UncertaintyColumn> {
+    let t = text.trim();
+    let base = t.strip_suffix("_u").or_else(|| t.strip_suffix("_U"))?;
+    let Recognition::Column(c) = header::recognise(base) else {
+        return None;
+    };
+    let target = Target::from_name(c.field.flag())?;
+    Some(UncertaintyColumn {
+        index,
+        header: t.to_string(),
+        target,
+        reading: c.reading,
+    })
 }
 
 fn quoted_list(items: &[String]) -> String {

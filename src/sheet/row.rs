@@ -9,6 +9,7 @@ use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
 use crate::base::warning::Severity;
 use crate::decisions::dose::DoseRequest;
+use crate::decisions::uncertainty_settings::{Setting, SettingError};
 use crate::flow::PreparedWater;
 use crate::output::{Digits, Output, Value};
 use crate::properties::scales::PhScale;
@@ -61,6 +62,9 @@ pub(crate) struct Scratch {
     /// The dose columns (product g/m³, total kg and lb), where a dose is
     /// asked for, with their precision.
     pub dose: Vec<Option<(f64, Digits)>>,
+    /// The standard uncertainties of the computed columns that have one
+    /// (issue 13), where asked for, with their precision.
+    pub uncertain: Vec<Option<(f64, Digits)>>,
     pub issues: Vec<Issue>,
     pub status: Status,
     /// The codes of the quality flags raised (issue 11), where the plan
@@ -292,6 +296,10 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut
     if plan.dose.is_some() {
         s.dose.resize(super::plan::DOSE_COLUMNS.len(), None);
     }
+    s.uncertain.clear();
+    if let Some(up) = &plan.uncertainty {
+        s.uncertain.resize(up.outputs.len(), None);
+    }
     s.flags.clear();
     let status = if unclosed_quote(plan, record, line, s) {
         None
@@ -301,6 +309,7 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut
     if status.is_none() {
         s.values.clear();
         s.residuals.iter_mut().for_each(|r| *r = None);
+        s.uncertain.iter_mut().for_each(|r| *r = None);
         s.flags.clear();
     }
     s.status = if s.issues.iter().any(|i| i.error) {
@@ -550,6 +559,9 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     if let Some(request) = plan.dose {
         dose_row(&inputs, &water, &state, request, s);
     }
+    if let Some(up) = &plan.uncertainty {
+        uncertainty_row(plan, up, record, &inputs, &water, (ma, mb), &state, s);
+    }
     for w in &state.warnings {
         let text = w.to_string();
         let key = text.split(": ").next().unwrap_or(&text).to_string();
@@ -604,6 +616,146 @@ fn dose_row(inputs: &Sample, water: &Water, state: &State, request: DoseRequest,
         Err(e) => s.warning(
             format!("no dose: {}", error_key(&e)),
             format!("no dose: {e}"),
+        ),
+    }
+}
+
+/// The setting of a row's `<column>_u` cell: its number in the unit of
+/// its value column (a temperature in °F as a difference), or a
+/// percentage; `None` for an empty cell.
+fn cell_setting(
+    u: &super::plan::UncertaintyColumn,
+    record: &csv::ByteRecord,
+    decimal_comma: bool,
+) -> Option<Result<Setting, SettingError>> {
+    use super::header::Reading;
+    let mut text = cell_text(record, u.index).trim().to_string();
+    if text.is_empty() {
+        return None;
+    }
+    if decimal_comma {
+        text = text.replace(',', ".");
+    }
+    let value = if text.ends_with('%') {
+        text
+    } else {
+        match u.reading {
+            Reading::Quantity(unit) => format!("{text} {}", unit.spelling()),
+            // A difference: the scale of the unit, not its offset.
+            Reading::Number { scale, .. } if scale != 1.0 => match text.parse::<f64>() {
+                Ok(x) => format!("{}", x * scale),
+                Err(_) => text,
+            },
+            _ => text,
+        }
+    };
+    Some(Setting::of(u.target, &value, &u.header))
+}
+
+/// The standard uncertainty of every numeric computed column of a row
+/// (issue 13): the sheet's settings, then the row's `_u` cells, propagated
+/// through the row's water and pair as `solve --uncertainty` does. A
+/// setting of a carbonate parameter outside the row's pair is noted and
+/// left out; any other problem leaves the row's `_u` cells empty, with the
+/// reason as a warning.
+#[allow(clippy::too_many_arguments)]
+fn uncertainty_row(
+    plan: &Plan,
+    up: &super::plan::UncertaintyPlan,
+    record: &csv::ByteRecord,
+    inputs: &Sample,
+    water: &Water,
+    (a, b): (Measured, Measured),
+    state: &State,
+    s: &mut Scratch,
+) {
+    use crate::decisions::uncertainty::{propagate, Problem, Uncertainties};
+    use crate::decisions::uncertainty_settings::with_settings;
+    let mut settings: Vec<Setting> = up.settings.clone();
+    for u in &up.columns {
+        match cell_setting(u, record, plan.decimal_comma) {
+            None => {}
+            Some(Ok(setting)) => settings.push(setting),
+            Some(Err(e)) => {
+                return s.warning(
+                    format!("no uncertainties: {}", e.code()),
+                    format!("no uncertainties: {e}"),
+                )
+            }
+        }
+    }
+    let mut base = Uncertainties::new();
+    if !up.constants {
+        base = base.without_constants();
+    }
+    let mut used = Vec::with_capacity(settings.len());
+    for setting in settings {
+        match with_settings(
+            Uncertainties::new(),
+            std::slice::from_ref(&setting),
+            &a,
+            &b,
+            state.density_kg_m3,
+        ) {
+            Ok(_) => used.push(setting),
+            Err(e @ SettingError::NotMeasured { .. }) => s.note(
+                format!("uncertainty not used: {}", setting.name()),
+                format!("not used in this row: {e}"),
+            ),
+            Err(e) => {
+                return s.warning(
+                    format!("no uncertainties: {}", e.code()),
+                    format!("no uncertainties: {e}"),
+                )
+            }
+        }
+    }
+    let u = match with_settings(base, &used, &a, &b, state.density_kg_m3) {
+        Ok(u) => u,
+        Err(e) => {
+            return s.warning(
+                format!("no uncertainties: {}", e.code()),
+                format!("no uncertainties: {e}"),
+            )
+        }
+    };
+    let problem = match Problem::new(water, a, b) {
+        Ok(p) => p.with_options(plan.options),
+        Err(e) => {
+            return s.warning(
+                format!("no uncertainties: {}", error_key(&e)),
+                format!("no uncertainties: {e}"),
+            )
+        }
+    };
+    let problem = if plan.exchange {
+        match inputs.air() {
+            Ok(air) => problem.with_air(air, inputs.ph_scale_given()),
+            Err(_) => problem,
+        }
+    } else {
+        problem
+    };
+    let outputs: Vec<Output> = up.outputs.iter().map(|&i| plan.computed[i]).collect();
+    let result = propagate(&problem, &u, |st| {
+        outputs
+            .iter()
+            .map(|o| match o.value(st) {
+                Value::Number(v) => v,
+                Value::Text(_) => None,
+            })
+            .collect()
+    });
+    match result {
+        Ok(p) => {
+            for (slot, (o, r)) in s.uncertain.iter_mut().zip(outputs.iter().zip(&p.outputs)) {
+                *slot =
+                    r.u.map(|u| (u, crate::output::uncertainty_report::u_digits(*o)));
+            }
+        }
+        Err(e) => s.warning(
+            format!("no uncertainties: {}", error_key(&e)),
+            format!("no uncertainties: {e}"),
         ),
     }
 }

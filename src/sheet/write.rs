@@ -226,7 +226,7 @@ impl<'p> RowWriter<'p> {
                 _ => csv_field(out, b"", style, first && i == 0),
             }
         }
-        for r in s.residuals.iter().chain(&s.dose) {
+        for r in s.residuals.iter().chain(&s.dose).chain(&s.uncertain) {
             out.push(style.delimiter);
             if let Some((v, digits)) = r.filter(|(v, _)| v.is_finite()) {
                 csv_number(out, v, digits, plan.digits, style);
@@ -264,7 +264,7 @@ impl<'p> RowWriter<'p> {
                 _ => out.extend_from_slice(b"null"),
             }
         }
-        for r in s.residuals.iter().chain(&s.dose) {
+        for r in s.residuals.iter().chain(&s.dose).chain(&s.uncertain) {
             key(out, &mut k);
             match r {
                 Some((v, _)) if v.is_finite() => json_number(out, *v),

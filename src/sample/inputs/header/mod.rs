@@ -155,6 +155,16 @@ pub fn column_guide() -> String {
     out.push_str(
         "\nThe computed columns are chosen with --columns; `--columns all` writes every one.\n",
     );
+    // issue 13: uncertainties
+    out.push_str(
+        "\nStandard uncertainties: a column named as any column above followed by `_u` \
+         (`ph_nbs_u`, `alkalinity_mg_l_caco3_u`, `Alkalinity (mg/L as CaCO3)_u`) gives each \
+         row's uncertainty of that input, in that column's unit or as a percentage (`2%`), for \
+         the carbonate parameters, temperature, salinity, calcium, phosphate, silicate, \
+         ammonia, sulfide, wind and total boron. With one, or --uncertainty NAME=VALUE, or \
+         --no-constant-uncertainty, every numeric computed column gets a `<column>_u` column. \
+         A `_u` column without its value column is reported unused.\n",
+    );
     out
 }
 
