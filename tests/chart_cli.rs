@@ -223,3 +223,56 @@ fn awkward_sheets_give_messages_not_panics() {
     assert!(text(&out.stderr).contains("no-such-sheet.csv"));
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+#[test]
+fn the_ph_band_is_the_uncertainty_solve_gives() {
+    let dir = folder("uncertainty");
+    let svg = dir.join("u.svg");
+    let sample = [
+        "--temperature",
+        "24.3",
+        "--alkalinity",
+        "117 mg/L CaCO3",
+        "--dic",
+        "30 mg/L C",
+        "--uncertainty",
+        "dic=1%",
+        "--uncertainty",
+        "alkalinity=1%",
+    ];
+    let mut args = vec!["chart", "speciation", "-o", svg.to_str().unwrap()];
+    args.extend(sample);
+    let out = run_travertine(&args, None);
+    assert!(out.status.success(), "{}", text(&out.stderr));
+    let mut solve = vec!["solve", "--json"];
+    solve.extend(sample);
+    let json: serde_json::Value =
+        serde_json::from_slice(&run_travertine(&solve, None).stdout).unwrap();
+    let u = json["ph_nbs_u"].as_f64().unwrap();
+    assert!(u > 0.01, "{u}");
+    let said = text(&out.stdout);
+    assert!(said.contains(&format!("±{u:.4}")), "{said} against {u}");
+    let body = std::fs::read_to_string(&svg).unwrap();
+    assert!(body.contains(&format!("±1 standard uncertainty of pH (±{u:.3})")));
+    // A name that is not an input or constant is named.
+    let out = run_travertine(
+        &[
+            "chart",
+            "speciation",
+            "--temperature",
+            "20",
+            "--ph",
+            "7.5",
+            "--alkalinity",
+            "100 mg/L CaCO3",
+            "--uncertainty",
+            "colour=3",
+            "-o",
+            svg.to_str().unwrap(),
+        ],
+        None,
+    );
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("--uncertainty"));
+    std::fs::remove_dir_all(&dir).unwrap();
+}

@@ -6,10 +6,12 @@ cd "$(dirname "$0")/../.."
 run() { cargo run --quiet --release -- "$@"; }
 
 # Alder pond at dawn on 2 June (the first row of larkvane_ponds.csv), with
-# its ammonia, on the carbonate curves.
+# its ammonia, on the carbonate curves; the pH band is a standard
+# uncertainty of 0.02 for a field glass electrode (common practice).
 run chart speciation --temperature 24.3 --conductivity "415 uS/cm@25C" \
     --ph 7.52 --alkalinity "117 mg/L CaCO3" --calcium "83 mg/L CaCO3" \
-    --ammonia "0.41 mg/L N" --include ammonia -o docs/charts/alder_speciation.svg
+    --ammonia "0.41 mg/L N" --include ammonia --uncertainty ph=0.02 \
+    -o docs/charts/alder_speciation.svg
 
 # The reservoir profile, 0.5 to 20 m.
 run chart depth tables/demo/larkvane_reservoir_profile.csv \
