@@ -403,7 +403,7 @@ fn date_label(days: f64, span: f64) -> String {
     }
     let whole = days.floor();
     let (y, m, d) = civil_from_days(whole as i64);
-    let minutes = ((days - whole) * 1440.0).round() as i64;
+    let minutes = (((days - whole) * 1440.0).round() as i64).min(1439);
     let month = MONTHS[((m as usize).max(1) - 1).min(11)];
     if span < 3.0 {
         format!("{d} {month} {:02}:{:02}", minutes / 60, minutes % 60)
