@@ -9,7 +9,7 @@
 //! ```
 
 use crate::base::error::Result;
-use crate::base::warning::Warning;
+use crate::base::warning::{Warning, Warnings};
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
 use crate::medium::fresh::FreshBasis;
@@ -20,7 +20,7 @@ use crate::sample::measured::{Measured, Parameter};
 use crate::sample::trade::Sample;
 use crate::sample::water::{Medium, Water};
 use crate::sample::Conditions;
-use crate::solve::{solve, Solution, SolveOptions};
+use crate::solve::{solve_near, Near, Solution, SolveOptions};
 use crate::state::exchange::{medium_scale, Exchange};
 use crate::state::State;
 
@@ -191,11 +191,11 @@ impl Water {
         match self.medium() {
             Medium::Saline => {
                 let k = Constants::saline(self.conditions(), self.composition(), self.fits())?;
-                solve_in(self, Basis::Saline(&k), a, b, options)
+                solve_in(self, Basis::Saline(&k), a, b, options, &Near::default())
             }
             Medium::Fresh => {
                 let basis = FreshBasis::new(self, false)?;
-                solve_in(self, Basis::Fresh(&basis), a, b, options)
+                solve_in(self, Basis::Fresh(&basis), a, b, options, &Near::default())
             }
         }
     }
@@ -262,7 +262,10 @@ impl PreparedWater {
     ///   activity scale, pressure-corrected), from which the apparent
     ///   constants of every ionic strength and free calcium of the fixed
     ///   point are made. `K0` is Henry's constant there. The calcium ion-pair
-    ///   constants are not yet among the names that can be perturbed.
+    ///   constants ([`ConstantName::CaHco3Pair`], [`ConstantName::CaCo3Pair`],
+    ///   Plummer & Busenberg 1982) are perturbed there too, so the pair
+    ///   ratios, K1e and K2e of every free calcium follow them. In saline
+    ///   water they are zero (no ion pairs) and stay zero.
     ///
     /// In the overlap of the media (salinity 0.5 to 5) the comparison with
     /// the other medium, where it is made, is with the unperturbed water.
@@ -296,6 +299,93 @@ impl PreparedWater {
             water: self.water.clone(),
             prepared,
         })
+    }
+
+    /// The totals of the acid systems and calcium (mol/kg), as a solve of
+    /// this water uses them.
+    pub(crate) fn totals(&self) -> &crate::sample::Totals {
+        match &self.prepared {
+            Prepared::Saline(k) => k.totals(),
+            Prepared::Fresh(b) => &b.totals,
+        }
+    }
+
+    /// A scratch copy of these constants, for
+    /// [`PreparedWater::solve_lean_perturbed`].
+    pub(crate) fn scratch(&self) -> Scratch {
+        Scratch(match &self.prepared {
+            Prepared::Saline(k) => {
+                let mut copy = k.clone();
+                copy.copy_numbers_from(k);
+                Prepared::Saline(copy)
+            }
+            Prepared::Fresh(b) => {
+                let mut copy = b.clone();
+                copy.copy_numbers_from(b);
+                Prepared::Fresh(copy)
+            }
+        })
+    }
+
+    /// The state of the pair `a`, `b` as [`PreparedWater::solve_near`]
+    /// gives it, but lean: without any warning or caution (nor the
+    /// comparisons of the media and of a fresh water at the surface, which
+    /// only give cautions), and without the exchange with the air. Every
+    /// number of the state is the same. The propagation of uncertainties
+    /// solves its perturbed waters so, and reads only their numbers.
+    pub(crate) fn solve_lean(
+        &self,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+        near: &Near,
+    ) -> Result<State> {
+        let basis = match &self.prepared {
+            Prepared::Saline(k) => Basis::Saline(k),
+            Prepared::Fresh(b) => Basis::Fresh(b),
+        };
+        solve_lean(&self.water, basis, a, b, options, near)
+    }
+
+    /// As [`PreparedWater::solve_lean`], in this water with constant
+    /// `which` perturbed by `delta_pk`, as
+    /// [`PreparedWater::with_constants_perturbed`] perturbs it (through the
+    /// same methods, [`Constants::with_pk`] and the fresh basis's), but in
+    /// `scratch`, a copy of these constants made again before each
+    /// perturbation, rather than in a new prepared water.
+    ///
+    /// # Errors
+    /// As [`PreparedWater::with_constants_perturbed`] and
+    /// [`PreparedWater::solve_near`].
+    #[allow(clippy::too_many_arguments)]
+    pub(crate) fn solve_lean_perturbed(
+        &self,
+        scratch: &mut Scratch,
+        which: ConstantName,
+        delta_pk: f64,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+        near: &Near,
+    ) -> Result<State> {
+        let basis = match (&mut scratch.0, &self.prepared) {
+            (Prepared::Saline(copy), Prepared::Saline(k)) => {
+                copy.copy_numbers_from(k);
+                copy.pk_in_place(which, delta_pk)?;
+                Basis::Saline(copy)
+            }
+            (Prepared::Fresh(copy), Prepared::Fresh(b)) => {
+                copy.copy_numbers_from(b);
+                copy.pk_in_place(which, delta_pk)?;
+                Basis::Fresh(copy)
+            }
+            // A scratch of another medium: made again for this one.
+            (other, _) => {
+                *other = self.scratch().0;
+                return self.solve_lean_perturbed(scratch, which, delta_pk, a, b, options, near);
+            }
+        };
+        solve_lean(&self.water, basis, a, b, options, near)
     }
 
     /// The complete state from two measured parameters, with default options.
@@ -333,11 +423,26 @@ impl PreparedWater {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        self.solve_near(a, b, options, &Near::default())
+    }
+
+    /// As [`PreparedWater::solve_with`], for a water very near the one
+    /// `near` describes: the searches start from its unknowns
+    /// ([`Near`]), each still on its full bracket with its usual test of
+    /// convergence. The propagation of uncertainties solves its perturbed
+    /// waters so.
+    pub(crate) fn solve_near(
+        &self,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+        near: &Near,
+    ) -> Result<State> {
         let basis = match &self.prepared {
             Prepared::Saline(k) => Basis::Saline(k),
             Prepared::Fresh(b) => Basis::Fresh(b),
         };
-        solve_in(&self.water, basis, a, b, options)
+        solve_in(&self.water, basis, a, b, options, near)
     }
 }
 
@@ -530,6 +635,37 @@ fn prepared(water: &Water) -> Result<Prepared> {
     })
 }
 
+/// A scratch copy of a prepared water's constants, which
+/// [`PreparedWater::solve_lean_perturbed`] perturbs in place.
+#[derive(Debug, Clone)]
+pub(crate) struct Scratch(Prepared);
+
+/// The lean state of [`PreparedWater::solve_lean`]: the one solver, and
+/// the state built from its solution without warnings.
+fn solve_lean(
+    water: &Water,
+    basis: Basis,
+    a: Measured,
+    b: Measured,
+    options: &SolveOptions,
+    near: &Near,
+) -> Result<State> {
+    match basis {
+        Basis::Saline(k) => {
+            let sol = solve_near(k, &a, &b, options, near.h)?;
+            State::build_quiet(water, k, sol.h, sol.dic, None, (&a, &b))
+        }
+        Basis::Fresh(basis) => {
+            let settled = basis.converge_pair(&a, &b, options.root, near)?;
+            let k = basis.constants_of(&settled);
+            let (h, dic) = (settled.sol.h, settled.sol.dic);
+            let mut ignored = Warnings::new();
+            let figures = basis.fresh_figures(&k, h, dic, options, near, &mut ignored);
+            State::build_quiet(water, &k, h, dic, Some(figures), (&a, &b))
+        }
+    }
+}
+
 /// The state of `water`, prepared as `prepared`, from a measured pair: the
 /// one solver in both media, then the comparison of the media in their
 /// overlap.
@@ -540,6 +676,7 @@ fn solve_in(
     a: Measured,
     b: Measured,
     options: &SolveOptions,
+    near: &Near,
 ) -> Result<State> {
     let (lo, hi) = MEDIA_OVERLAP_SALINITY;
     let in_overlap = (lo..=hi).contains(&water.conditions().salinity());
@@ -548,9 +685,9 @@ fn solve_in(
         water.medium() == Medium::Fresh && water.conditions().pressure_dbar() > 0.0;
     if !(compare_media || fresh_under_pressure) {
         // Returned as built: a state is a large value to copy.
-        return solve_once(water, basis, a, b, options);
+        return solve_once(water, basis, a, b, options, near);
     }
-    let mut result = solve_once(water, basis, a, b, options);
+    let mut result = solve_once(water, basis, a, b, options, near);
     if let Ok(state) = &mut result {
         if compare_media {
             if let Some(w) = media_caution(water, state, a, b, options) {
@@ -573,13 +710,14 @@ fn solve_once(
     a: Measured,
     b: Measured,
     options: &SolveOptions,
+    near: &Near,
 ) -> Result<State> {
     let result = match basis {
-        Basis::Saline(k) => match solve(k, &a, &b, options) {
+        Basis::Saline(k) => match solve_near(k, &a, &b, options, near.h) {
             Ok(sol) => State::build(water, k, sol.h, sol.dic, sol.warnings, (&a, &b)),
             Err(e) => Err(e),
         },
-        Basis::Fresh(basis) => solve_fresh(water, basis, a, b, options),
+        Basis::Fresh(basis) => solve_fresh(water, basis, a, b, options, near),
     };
     match result {
         Ok(mut state) if !water.input_cautions().is_empty() => {
@@ -601,8 +739,9 @@ fn solve_fresh(
     a: Measured,
     b: Measured,
     options: &SolveOptions,
+    near: &Near,
 ) -> Result<State> {
-    let settled = basis.converge_pair(&a, &b, options.root)?;
+    let settled = basis.converge_pair(&a, &b, options.root, near)?;
     let mut k = basis.constants_of(&settled);
     let Solution {
         h,
@@ -611,7 +750,7 @@ fn solve_fresh(
     } = settled.sol;
     basis.attach_warnings(&mut k);
     add_route_warnings(water, basis.route, k.ionic_strength(), &mut warnings);
-    let figures = basis.fresh_figures(&k, h, dic, options, &mut warnings);
+    let figures = basis.fresh_figures(&k, h, dic, options, near, &mut warnings);
     State::build_fresh(water, &k, h, dic, warnings, figures, (&a, &b))
 }
 

@@ -287,3 +287,182 @@ fn wind_uncertainty_reaches_the_flux_only() {
     assert_eq!(r.outputs[0].u, Some(0.0));
     assert!(r.outputs[1].u.unwrap() > 0.0);
 }
+
+/// The calcium ion pairs of fresh water (CaHCO3+ and CaCO3⁰) are
+/// perturbable constants with default uncertainties. A weaker pair (its
+/// log K lowered, pK raised) binds less calcium and carbonate, so at the
+/// same measured pH and alkalinity the free Ca++ and CO3-- and with them
+/// calcite Ω rise (Ω = γCa[Ca++] γ2[CO3--]/Ksp). Each pair has its share of
+/// Ω's variance, and its contribution is the slope of a central difference
+/// of two solves written here (step 0.001 in pK) times its uncertainty.
+#[test]
+fn ion_pair_constants_move_calcite_saturation_in_fresh_water() {
+    use travertine::decisions::uncertainty::FRESH_DEFAULTS;
+    use travertine::medium::ConstantName;
+    let water = pond();
+    let (ph, ta) = (
+        Measured::ph(7.9, None).unwrap(),
+        Measured::alkalinity_umol_kg(2400.0).unwrap(),
+    );
+    let prepared = water.prepare().unwrap();
+    let omega = |which: ConstantName, d: f64| {
+        prepared
+            .with_constants_perturbed(which, d)
+            .unwrap()
+            .solve(ph, ta)
+            .unwrap()
+            .omega_calcite
+            .unwrap()
+    };
+    let base = prepared.solve(ph, ta).unwrap();
+    let problem = Problem::new(&water, ph, ta).unwrap();
+    let r = propagate(&problem, &Uncertainties::new(), |s| vec![s.omega_calcite]).unwrap();
+    let o = &r.outputs[0];
+    let budget = o.budget(&r.sources);
+    for which in [ConstantName::CaHco3Pair, ConstantName::CaCo3Pair] {
+        // The direction: a weaker pair leaves more free ions.
+        let weaker = prepared
+            .with_constants_perturbed(which, 0.05)
+            .unwrap()
+            .solve(ph, ta)
+            .unwrap();
+        assert!(weaker.omega_calcite.unwrap() > base.omega_calcite.unwrap());
+        assert!(weaker.calcium_free_umol_kg.unwrap() > base.calcium_free_umol_kg.unwrap());
+        // Its default uncertainty (from memory, unverified; see FRESH_DEFAULTS).
+        let u_pk = match FRESH_DEFAULTS.iter().find(|(c, _)| *c == which) {
+            Some((_, Size::Absolute(u))) => *u,
+            other => panic!("{which:?}: {other:?}"),
+        };
+        // Its contribution: the central difference of two solves.
+        let h = 1e-3;
+        let slope = (omega(which, h) - omega(which, -h)) / (2.0 * h);
+        let k = r
+            .sources
+            .iter()
+            .position(|(s, _)| *s == Source::Constant(which))
+            .unwrap_or_else(|| panic!("{which:?} is not a source"));
+        let contribution = o.contributions[k];
+        assert!(
+            (contribution / (slope * u_pk) - 1.0).abs() < 1e-4,
+            "{which:?}: {contribution} against {}",
+            slope * u_pk
+        );
+        assert!(contribution > 0.0, "{which:?}");
+        // Its share of Ω's variance.
+        let share = budget
+            .iter()
+            .find(|(s, _)| *s == Source::Constant(which))
+            .unwrap()
+            .1;
+        assert!(share > 1e-4 && share < 1.0, "{which:?}: {share}");
+    }
+    // In sea water there are no ion pairs, and no such sources.
+    let p = Problem::new(&sea(), Measured::ph(8.0, Some(PhScale::Total)).unwrap(), ta).unwrap();
+    let r = propagate(&p, &Uncertainties::new(), |s| vec![Some(s.pco2_uatm)]).unwrap();
+    assert!(r.sources.iter().all(|(s, _)| !matches!(
+        s,
+        Source::Constant(ConstantName::CaHco3Pair | ConstantName::CaCo3Pair)
+    )));
+}
+
+/// The derivatives of the propagation (forward differences of perturbed
+/// solves started from the unperturbed state's unknowns, built lean) agree
+/// with central differences of full, cold solves written here (step 10⁻³
+/// of the scale), for sources that move the water (temperature, calcium),
+/// every default constant and the pair, in sea water and in two fresh waters (the
+/// ionic strength from salinity, and from the ions with calcium, where it
+/// is a fixed point), for pCO2, calcite Ω and the Langelier index: to
+/// 10⁻⁴ of the contribution, or 10⁻⁵ of the output's whole uncertainty for
+/// a contribution near zero (where the 10⁻¹² tolerance of the fixed
+/// points, divided by the 10⁻⁶ step, is what is left: DEVELOPERS.md,
+/// "Uncertainty").
+#[test]
+fn warm_forward_differences_agree_with_cold_central_differences() {
+    let lake = Water::fresh(Conditions::new(9.0, 0.0).unwrap())
+        .unwrap()
+        .with_composition(
+            Composition::default()
+                .with_calcium(Amount::PerKg(0.8e-3))
+                .unwrap(),
+        );
+    let read = |s: &travertine::State| vec![Some(s.pco2_uatm), s.omega_calcite, s.langelier_index];
+    let mut checked = 0;
+    for (water, ph) in [
+        (sea(), Measured::ph(8.05, Some(PhScale::Total)).unwrap()),
+        (pond(), Measured::ph(7.9, None).unwrap()),
+        (lake, Measured::ph(7.4, None).unwrap()),
+    ] {
+        let ta = Measured::alkalinity_umol_kg(2100.0).unwrap();
+        let fresh = water.medium() == travertine::Medium::Fresh;
+        // Every default constant, and the inputs.
+        let mut u = Uncertainties::new()
+            .with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0))
+            .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+            .unwrap();
+        if fresh {
+            u = u
+                .with_input(Input::Total(Total::Calcium), Size::Absolute(20.0))
+                .unwrap();
+        }
+        let p = Problem::new(&water, ph, ta).unwrap();
+        let r = propagate(&p, &u, read).unwrap();
+        let prepared = water.prepare().unwrap();
+        let calcium = |w: &Water| w.constants().unwrap().totals().calcium_mol_kg;
+        for (k, (source, size)) in r.sources.iter().enumerate() {
+            // A full, cold solve with the source moved by d.
+            let at = |d: f64| -> Vec<Option<f64>> {
+                let state = match source {
+                    Source::Input(Input::Carbon(_)) => {
+                        prepared.solve(ph, Measured::alkalinity_umol_kg(2100.0 + d).unwrap())
+                    }
+                    Source::Input(Input::Temperature) => {
+                        let c = Conditions::new(
+                            water.conditions().temperature_c() + d,
+                            water.conditions().salinity(),
+                        )
+                        .unwrap();
+                        water.at(c).unwrap().solve(ph, ta)
+                    }
+                    Source::Input(Input::Total(Total::Calcium)) => water
+                        .clone()
+                        .with_composition(
+                            Composition::default()
+                                .with_calcium(Amount::PerKg(calcium(&water) + d * 1e-6))
+                                .unwrap(),
+                        )
+                        .solve(ph, ta),
+                    Source::Constant(c) => prepared
+                        .with_constants_perturbed(*c, d)
+                        .unwrap()
+                        .solve(ph, ta),
+                    other => panic!("{other:?}"),
+                };
+                read(&state.unwrap())
+            };
+            let scale = match source {
+                Source::Input(Input::Temperature) => 10.0,
+                Source::Input(Input::Carbon(_)) => 2100.0,
+                Source::Input(Input::Total(_)) => calcium(&water) * 1e6,
+                _ => 1.0,
+            };
+            let h = 1e-3 * scale;
+            let (up, down) = (at(h), at(-h));
+            for (q, out) in r.outputs.iter().enumerate() {
+                let (Some(a), Some(b), Some(u_out)) = (up[q], down[q], out.u) else {
+                    continue;
+                };
+                let expected = (a - b) / (2.0 * h) * size;
+                let got = out.contributions[k];
+                assert!(
+                    (got - expected).abs() <= 1e-4 * expected.abs() + 1e-5 * u_out,
+                    "{:?} {source:?} output {q}: {got} against {expected}",
+                    water.medium()
+                );
+                checked += 1;
+            }
+        }
+    }
+    // Sea water: 2 inputs and 8 constants × 2 outputs (no Langelier
+    // index); each fresh water: 3 inputs and 9 constants × 3 outputs.
+    assert_eq!(checked, 20 + 2 * 36);
+}

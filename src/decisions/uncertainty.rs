@@ -19,12 +19,16 @@
 //! layer does not depend on the list of outputs below it;
 //! [`crate::output::uncertainty`] applies both to every numeric output.
 //!
-//! **Derivatives.** Central differences of full solves, each source moved
-//! alone by a step of 10⁻⁴ of its scale (or its own uncertainty where that
-//! is smaller); the constants are moved through
-//! [`PreparedWater::with_constants_perturbed`], so that every value derived
-//! from a constant follows it. DEVELOPERS.md ("Uncertainty") gives the
-//! reasons and the error of the method.
+//! **Derivatives.** Forward differences of solves, each source moved alone
+//! by a step of 10⁻⁶ of its scale (or its own uncertainty where that is
+//! smaller), each perturbed solve started from the unperturbed state's
+//! unknowns (its h, ionic strength, free calcium and saturation pH) and
+//! still run to the full tolerance of its searches; the constants are
+//! moved through their own methods ([`crate::medium::Constants::with_pk`]
+//! and the fresh basis's, as
+//! [`PreparedWater::with_constants_perturbed`]), so that every value
+//! derived from a constant follows it. DEVELOPERS.md ("Uncertainty") gives
+//! the reasons, the error of the method and its cost.
 //!
 //! ```
 //! use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
@@ -50,7 +54,7 @@
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::Amount;
-use crate::flow::PreparedWater;
+use crate::flow::{PreparedWater, Scratch};
 use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
@@ -58,7 +62,7 @@ use crate::sample::inputs::{Input, Total};
 use crate::sample::measured::Measured;
 use crate::sample::water::{Medium, Water};
 use crate::sample::Conditions;
-use crate::solve::SolveOptions;
+use crate::solve::{Near, SolveOptions};
 use crate::state::State;
 use rand::SeedableRng;
 use rand_distr::{Distribution, StandardNormal};
@@ -156,8 +160,10 @@ pub const INPUT_SOURCES: &[Input] = &[
     Input::Wind,
 ];
 
-/// The constants whose uncertainty has a default.
-pub const CONSTANT_SOURCES: [ConstantName; 8] = [
+/// The constants whose uncertainty has a default (in sea water the first
+/// eight, [`SALINE_DEFAULTS`]; in fresh water all but the total boron,
+/// [`FRESH_DEFAULTS`]).
+pub const CONSTANT_SOURCES: [ConstantName; 10] = [
     ConstantName::K0,
     ConstantName::K1,
     ConstantName::K2,
@@ -166,6 +172,8 @@ pub const CONSTANT_SOURCES: [ConstantName; 8] = [
     ConstantName::KspCalcite,
     ConstantName::KspAragonite,
     ConstantName::BoronTotal,
+    ConstantName::CaHco3Pair,
+    ConstantName::CaCo3Pair,
 ];
 
 /// The default standard uncertainties of the constants in sea water, from
@@ -196,15 +204,24 @@ pub const SALINE_DEFAULTS: [(ConstantName, Size); 8] = [
 /// from memory (unverified): of the order of the scatter of those fits
 /// about the measurements they were fitted to, and no smaller than the
 /// sea-water values above. A fresh water's total boron is measured or
-/// zero, so it has no default. The calcium ion-pair constants cannot be
-/// perturbed yet and carry none.
+/// zero, so it has no default.
+///
+/// The calcium ion pairs, CaHCO3+ and CaCO3⁰ (association constants of
+/// Plummer & Busenberg 1982, log K = 1.11 and 3.22 at 25 °C): 0.05 in
+/// log K each, from memory (unverified): of the order of the differences
+/// between published determinations of these two constants, which are
+/// larger than the fit's scatter about its own measurements. They move
+/// calcite and aragonite Ω, the free calcium and the Langelier index (and
+/// a little the carbon balance, through K1e and K2e); in a water without
+/// calcium they are not evaluated and change nothing.
 ///
 /// ```
 /// use travertine::decisions::uncertainty::{FRESH_DEFAULTS, Size};
 /// use travertine::medium::ConstantName;
 /// assert!(FRESH_DEFAULTS.contains(&(ConstantName::K2, Size::Absolute(0.02))));
+/// assert!(FRESH_DEFAULTS.contains(&(ConstantName::CaCo3Pair, Size::Absolute(0.05))));
 /// ```
-pub const FRESH_DEFAULTS: [(ConstantName, Size); 7] = [
+pub const FRESH_DEFAULTS: [(ConstantName, Size); 9] = [
     (ConstantName::K0, Size::Absolute(0.005)),
     (ConstantName::K1, Size::Absolute(0.01)),
     (ConstantName::K2, Size::Absolute(0.02)),
@@ -212,6 +229,8 @@ pub const FRESH_DEFAULTS: [(ConstantName, Size); 7] = [
     (ConstantName::Kw, Size::Absolute(0.01)),
     (ConstantName::KspCalcite, Size::Absolute(0.02)),
     (ConstantName::KspAragonite, Size::Absolute(0.02)),
+    (ConstantName::CaHco3Pair, Size::Absolute(0.05)),
+    (ConstantName::CaCo3Pair, Size::Absolute(0.05)),
 ];
 
 /// The standard uncertainties of the sources: the inputs given, and the
@@ -432,7 +451,19 @@ impl Problem {
     /// # Errors
     /// As [`PreparedWater::solve`] and [`PreparedWater::with_exchange`].
     pub fn solve(&self) -> Result<State> {
-        self.realise(&[])
+        self.realise(&[], &Near::default())
+    }
+
+    /// The state, unperturbed, as [`Problem::solve`] gives it but lean
+    /// where no air is over the water ([`PreparedWater::solve_lean`]: every
+    /// number the same, no warnings): the propagation reads only numbers.
+    fn solve_numbers(&self) -> Result<State> {
+        match self.air {
+            Some(_) => self.solve(),
+            None => self
+                .prepared
+                .solve_lean(self.a, self.b, &self.options, &Near::default()),
+        }
     }
 
     /// The value of an input source in its unit (see [`Size::Absolute`]),
@@ -461,7 +492,7 @@ impl Problem {
                 .as_ref()
                 .and_then(|(a, _)| a.wind_m_s())
                 .unwrap_or(0.0),
-            Source::Input(Input::Total(t)) => total_umol_kg(&self.prepared, t)?,
+            Source::Input(Input::Total(t)) => total_umol_kg(&self.prepared, t),
             Source::Input(other) => {
                 return Err(Error::UnknownChoice {
                     field: Field::Uncertainty,
@@ -473,42 +504,23 @@ impl Problem {
                         .join(", "),
                 })
             }
-            Source::Constant(ConstantName::BoronTotal) => {
-                self.prepared.constants()?.totals().boron_mol_kg * 1e6
-            }
+            Source::Constant(ConstantName::BoronTotal) => self.prepared.totals().boron_mol_kg * 1e6,
             Source::Constant(_) => 0.0,
         })
     }
 
-    /// The state with each source moved by its shift (in the unit of
+    /// The problem with each source moved by its shift (in the unit of
     /// [`Size::Absolute`]; constants in pK units, the total boron too,
-    /// as log10 of its factor).
-    fn realise(&self, shifts: &[(Source, f64)]) -> Result<State> {
-        let moved = self.moved(shifts)?;
-        let state = moved.prepared.solve_with(moved.a, moved.b, &self.options)?;
-        match &moved.air {
-            Some((air, scale)) => moved.prepared.with_exchange(state, air, *scale),
-            None => Ok(state),
-        }
-    }
-
-    /// The solve options.
-    pub(crate) fn options(&self) -> &SolveOptions {
-        &self.options
-    }
-
-    /// The water, the pair and the air with each source moved by its
-    /// shift (as [`Problem::realise`]), not yet solved; for a quantity
-    /// that needs more than the state (the dose,
-    /// [`crate::decisions::dose_uncertainty`]).
-    pub(crate) fn moved(&self, shifts: &[(Source, f64)]) -> Result<Moved> {
+    /// as log10 of its factor): the water prepared again where its
+    /// conditions, composition or constants moved (`None` where none did),
+    /// the pair and the air.
+    fn shifted(&self, shifts: &[(Source, f64)]) -> Result<Shifted> {
         let base = self.prepared.water();
         let mut water_changed = false;
         let mut c = *base.conditions();
         let mut composition = *base.composition();
         let (mut a, mut b) = (self.a, self.b);
         let mut air = self.air;
-        let mut totals = None;
         for &(source, d) in shifts {
             if d == 0.0 {
                 continue;
@@ -535,11 +547,7 @@ impl Problem {
                     }
                 }
                 Source::Input(Input::Total(t)) => {
-                    let now = match totals {
-                        Some(now) => now,
-                        None => *totals.insert(*self.prepared.constants()?.totals()),
-                    };
-                    let x = Amount::PerKg(total_of(&now, t) + d * 1e-6);
+                    let x = Amount::PerKg(total_of(self.prepared.totals(), t) + d * 1e-6);
                     composition = match t {
                         Total::Calcium => composition.with_calcium(x)?,
                         Total::Phosphate => composition.with_phosphate(x)?,
@@ -552,26 +560,107 @@ impl Problem {
                 _ => {}
             }
         }
+        // The prepared water is copied only where something in it moves.
         let mut prepared = if water_changed {
-            base.at(c)?.with_composition(composition).prepare()?
+            Some(base.at(c)?.with_composition(composition).prepare()?)
         } else {
-            self.prepared.clone()
+            None
         };
-        let mut constants = Vec::new();
         for &(source, d) in shifts {
             if let (Source::Constant(k), true) = (source, d != 0.0) {
-                prepared = prepared.with_constants_perturbed(k, d)?;
-                constants.push((k, d));
+                let from = prepared.as_ref().unwrap_or(&self.prepared);
+                prepared = Some(from.with_constants_perturbed(k, d)?);
             }
         }
-        Ok(Moved {
+        Ok(Shifted {
             prepared,
-            constants,
             a,
             b,
             air,
         })
     }
+
+    /// The state with each source moved by its shift (as
+    /// [`Problem::shifted`]), its searches started from `near` (the
+    /// unperturbed state's unknowns, or none).
+    fn realise(&self, shifts: &[(Source, f64)], near: &Near) -> Result<State> {
+        let Shifted {
+            prepared,
+            a,
+            b,
+            air,
+        } = self.shifted(shifts)?;
+        let prepared = prepared.as_ref().unwrap_or(&self.prepared);
+        let state = prepared.solve_near(a, b, &self.options, near)?;
+        match &air {
+            Some((air, scale)) => prepared.with_exchange(state, air, *scale),
+            None => Ok(state),
+        }
+    }
+
+    /// The solve options.
+    pub(crate) fn options(&self) -> &SolveOptions {
+        &self.options
+    }
+
+    /// The water and the pair with each source moved by its
+    /// shift (as [`Problem::shifted`]), not yet solved, the water prepared
+    /// even where nothing in it moved; for a quantity that needs more than
+    /// the state (the dose, [`crate::decisions::dose_uncertainty`]).
+    pub(crate) fn moved(&self, shifts: &[(Source, f64)]) -> Result<Moved> {
+        let Shifted {
+            prepared,
+            a,
+            b,
+            air: _,
+        } = self.shifted(shifts)?;
+        let constants = shifts
+            .iter()
+            .filter_map(|&(source, d)| match source {
+                Source::Constant(k) if d != 0.0 => Some((k, d)),
+                _ => None,
+            })
+            .collect();
+        Ok(Moved {
+            prepared: prepared.unwrap_or_else(|| self.prepared.clone()),
+            constants,
+            a,
+            b,
+        })
+    }
+
+    /// The state with one source moved by `d`, for a derivative: as
+    /// [`Problem::realise`], but lean where no air is over the water (every
+    /// number the same, no warnings: [`PreparedWater::solve_lean`]), and a
+    /// constant perturbed in `scratch` rather than in a new prepared water.
+    fn realise_one(
+        &self,
+        source: Source,
+        d: f64,
+        near: &Near,
+        scratch: &mut Scratch,
+    ) -> Result<State> {
+        if self.air.is_some() {
+            return self.realise(&[(source, d)], near);
+        }
+        if let Source::Constant(k) = source {
+            let (a, b, options) = (self.a, self.b, &self.options);
+            return self
+                .prepared
+                .solve_lean_perturbed(scratch, k, d, a, b, options, near);
+        }
+        let moved = self.shifted(&[(source, d)])?;
+        let prepared = moved.prepared.as_ref().unwrap_or(&self.prepared);
+        prepared.solve_lean(moved.a, moved.b, &self.options, near)
+    }
+}
+
+/// A problem with its sources moved ([`Problem::shifted`]).
+struct Shifted {
+    prepared: Option<PreparedWater>,
+    a: Measured,
+    b: Measured,
+    air: Option<(Air, Option<PhScale>)>,
 }
 
 /// A [`Problem`] with its sources moved ([`Problem::moved`]).
@@ -585,8 +674,6 @@ pub(crate) struct Moved {
     pub(crate) a: Measured,
     /// The pair.
     pub(crate) b: Measured,
-    /// The air.
-    pub(crate) air: Option<(Air, Option<PhScale>)>,
 }
 
 /// The conditions `c` at salinity `s`, everything else kept.
@@ -609,8 +696,8 @@ fn total_of(t: &crate::sample::Totals, which: Total) -> f64 {
     }
 }
 
-fn total_umol_kg(prepared: &PreparedWater, which: Total) -> Result<f64> {
-    Ok(total_of(prepared.constants()?.totals(), which) * 1e6)
+fn total_umol_kg(prepared: &PreparedWater, which: Total) -> f64 {
+    total_of(prepared.totals(), which) * 1e6
 }
 
 /// The standard uncertainty of one quantity and what makes it up.
@@ -663,7 +750,7 @@ pub struct Propagation {
 /// Every source with its standard uncertainty in the coordinate that
 /// [`Problem::realise`] shifts, and the scale of its difference step.
 pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, f64)>> {
-    let mut out = Vec::new();
+    let mut out = Vec::with_capacity(u.inputs.len() + SALINE_DEFAULTS.len() + u.constants.len());
     for &(input, size) in &u.inputs {
         let source = Source::Input(input);
         if input == Input::Wind && problem.air.is_none() {
@@ -678,7 +765,13 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
         out.push((source, size.of(x), scale));
     }
     let medium = problem.prepared.water().medium();
+    // The ion pairs exist only in fresh water with calcium; elsewhere their
+    // constants are not evaluated and would move nothing.
+    let pairs = medium == Medium::Fresh && problem.prepared.totals().calcium_mol_kg > 0.0;
     for (k, size) in u.constants_in(medium) {
+        if matches!(k, ConstantName::CaHco3Pair | ConstantName::CaCo3Pair) && !pairs {
+            continue;
+        }
         let source = Source::Constant(k);
         let in_pk = match (k, size) {
             (ConstantName::BoronTotal, Size::Absolute(umol)) => {
@@ -698,13 +791,26 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
     Ok(out)
 }
 
+/// The step of a difference, as a fraction of its source's scale (see
+/// [`propagate`]). The error of a forward difference is about half the
+/// step times the relative curvature, 10⁻⁶ here; that of the solves it
+/// differences, about 10⁻¹² relative (the tolerances of the root searches
+/// and fixed points), is divided by the step, 10⁻⁶ again. DEVELOPERS.md
+/// ("Uncertainty") compares it with central differences.
+const STEP: f64 = 1e-6;
+
 /// Linear (first-order) propagation: for each quantity `quantities` reads
 /// from a state, its standard uncertainty u = √Σ (∂y/∂x_i · u_i)² over the
-/// sources (taken as independent), each derivative a central difference of
-/// two full solves with the source moved by h = min(u_i, 10⁻⁴ × scale):
-/// the scale is 1 pH or pK unit, 10 °C, or the value itself (at least 1
-/// in its unit). Where one side of a step cannot be solved (a value taken
-/// out of its range), the one-sided difference of the other is used.
+/// sources (taken as independent), each derivative a forward difference
+/// (y(x_i + h) − y(x_i))/h of the unperturbed state and one solve with the
+/// source moved by h = min(u_i, 10⁻⁶ × scale): the scale is 1 pH or pK
+/// unit, 10 °C, or the value itself (at least 1 in its unit). Each
+/// perturbed solve starts its searches from the unperturbed state's
+/// unknowns and builds its state without warnings (its numbers are those
+/// of a full solve); a constant is perturbed through its own method in a
+/// scratch copy of the constants. Where the step up cannot be solved (a
+/// value taken out of its range) or loses a quantity, the backward
+/// difference is used.
 ///
 /// # Errors
 /// As [`Problem::solve`] for the unperturbed state; an error of a source
@@ -714,7 +820,7 @@ pub fn propagate<F>(problem: &Problem, u: &Uncertainties, quantities: F) -> Resu
 where
     F: Fn(&State) -> Vec<Option<f64>>,
 {
-    let base_state = problem.solve()?;
+    let base_state = problem.solve_numbers()?;
     let base = quantities(&base_state);
     let sources = sources_of(problem, u)?;
     let mut outputs: Vec<Propagated> = base
@@ -725,16 +831,35 @@ where
             contributions: Vec::with_capacity(sources.len()),
         })
         .collect();
+    let near = base_state.near();
+    let mut scratch = problem.prepared.scratch();
     for &(source, ui, scale) in &sources {
-        let h = ui.min(1e-4 * scale);
-        let up = problem.realise(&[(source, h)]).map(|s| quantities(&s));
-        let down = problem.realise(&[(source, -h)]).map(|s| quantities(&s));
+        let h = ui.min(STEP * scale);
+        let mut at_step = |d: f64| {
+            problem
+                .realise_one(source, d, &near, &mut scratch)
+                .map(|s| quantities(&s))
+        };
+        let up = at_step(h);
+        let at = |r: &Result<Vec<Option<f64>>>, k: usize| {
+            r.as_ref().ok().and_then(|v| v.get(k).copied().flatten())
+        };
+        // The step down is taken only where the step up fails or loses a
+        // value.
+        let lost = |r: &Result<Vec<Option<f64>>>| match r {
+            Ok(v) => v.iter().zip(&base).any(|(p, y)| p.is_none() && y.is_some()),
+            Err(_) => true,
+        };
+        let down = if lost(&up) {
+            at_step(-h)
+        } else {
+            Ok(Vec::new())
+        };
         if let (Err(e), Err(_)) = (&up, &down) {
             return Err(e.clone());
         }
         for (k, out) in outputs.iter_mut().enumerate() {
-            let at = |r: &Result<Vec<Option<f64>>>| r.as_ref().ok().and_then(|v| v[k]);
-            let slope = match (at(&up), out.value, at(&down)) {
+            let slope = match (at(&up, k), out.value, at(&down, k)) {
                 (Some(p), _, Some(m)) => Some((p - m) / (2.0 * h)),
                 (Some(p), Some(y), None) => Some((p - y) / h),
                 (None, Some(y), Some(m)) => Some((y - m) / h),
@@ -827,7 +952,7 @@ where
             let z: f64 = StandardNormal.sample(&mut rng);
             shifts.push((s, z * ui));
         }
-        match problem.realise(&shifts) {
+        match problem.realise(&shifts, &Near::default()) {
             Ok(state) => {
                 solved += 1;
                 for (k, v) in quantities(&state).into_iter().enumerate() {

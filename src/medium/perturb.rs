@@ -12,7 +12,7 @@ use crate::properties::scales::PhScale;
 /// ```
 /// use travertine::medium::ConstantName;
 /// assert_eq!(ConstantName::K1.name(), "K1");
-/// assert_eq!(ConstantName::ALL.len(), 16);
+/// assert_eq!(ConstantName::ALL.len(), 18);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 #[non_exhaustive]
@@ -49,11 +49,18 @@ pub enum ConstantName {
     Kh2s,
     /// The total boron, mol/kg (scaled like a constant).
     BoronTotal,
+    /// K of the CaHCO3+ ion pair (association, Ca++ + HCO3- ⇌ CaHCO3+;
+    /// fresh water: the pair ratios, K1e and K2e follow). Its "pK" is
+    /// −log10 K. Zero in saline water, which has no ion pairs.
+    CaHco3Pair,
+    /// K of the CaCO3⁰ ion pair (association, Ca++ + CO3-- ⇌ CaCO3⁰), as
+    /// [`ConstantName::CaHco3Pair`].
+    CaCo3Pair,
 }
 
 impl ConstantName {
     /// Every constant that can be perturbed.
-    pub const ALL: [ConstantName; 16] = [
+    pub const ALL: [ConstantName; 18] = [
         ConstantName::K0,
         ConstantName::K1,
         ConstantName::K2,
@@ -70,6 +77,8 @@ impl ConstantName {
         ConstantName::Knh4,
         ConstantName::Kh2s,
         ConstantName::BoronTotal,
+        ConstantName::CaHco3Pair,
+        ConstantName::CaCo3Pair,
     ];
 
     /// The name, as in warnings and errors.
@@ -96,6 +105,8 @@ impl ConstantName {
             ConstantName::Knh4 => "KNH4",
             ConstantName::Kh2s => "KH2S",
             ConstantName::BoronTotal => "total boron",
+            ConstantName::CaHco3Pair => "K CaHCO3+",
+            ConstantName::CaCo3Pair => "K CaCO3 pair",
         }
     }
 }
@@ -143,8 +154,9 @@ impl Constants {
 
     /// These constants with one of them multiplied by `factor`, and every
     /// value that follows from it derived again:
-    /// - K1 or K2: K1e, K2e and the pair ratios, by the code that sets the
-    ///   free calcium, at the current free calcium (K1e = K1 (1 + p1),
+    /// - K1, K2 or an ion-pair constant: K1e, K2e and the pair ratios, by
+    ///   the code that sets the free calcium, at the current free calcium
+    ///   (p1 = K_CaHCO3 Ca, p2 = K_CaCO3 Ca, K1e = K1 (1 + p1),
     ///   K2e = K2 (1 + p2)/(1 + p1); in saline water K1e = K1, K2e = K2);
     /// - a Ksp: its stored logarithm, raised by log10 `factor`;
     /// - KS or KF: the pH-scale factors, by the function that derives them
@@ -173,6 +185,15 @@ impl Constants {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn with_scaled(mut self, which: ConstantName, factor: f64) -> Result<Constants> {
+        self.scale_in_place(which, factor)?;
+        Ok(self)
+    }
+
+    /// [`Constants::with_scaled`] in place (for the propagation of
+    /// uncertainties, which perturbs a scratch copy of the constants one
+    /// constant at a time: see [`Constants::copy_numbers_from`]). On an
+    /// error the constants may be left part-way and must be copied again.
+    pub(crate) fn scale_in_place(&mut self, which: ConstantName, factor: f64) -> Result<()> {
         use ConstantName as C;
         if !factor.is_finite() {
             return Err(Error::NotFinite {
@@ -206,6 +227,8 @@ impl Constants {
             C::Knh4 => &mut self.knh4,
             C::Kh2s => &mut self.kh2s,
             C::BoronTotal => &mut self.totals.boron_mol_kg,
+            C::CaHco3Pair => &mut self.k_cahco3,
+            C::CaCo3Pair => &mut self.k_caco3,
         };
         let before = *slot;
         let after = before * factor;
@@ -224,7 +247,9 @@ impl Constants {
         *slot = after;
         let log10 = crate::base::numeric::log10;
         match which {
-            C::K1 | C::K2 => self.set_free_calcium(self.calcium_free_mol_kg),
+            C::K1 | C::K2 | C::CaHco3Pair | C::CaCo3Pair => {
+                self.set_free_calcium(self.calcium_free_mol_kg)
+            }
             C::KspCalcite => {
                 if let Some(logs) = &mut self.logs {
                     logs.ksp_calcite += log10(factor);
@@ -238,8 +263,7 @@ impl Constants {
             C::Ks | C::Kf => self.refresh_scale_factors(),
             _ => {}
         }
-        self.check_derived(which)?;
-        Ok(self)
+        self.check_derived(which)
     }
 
     /// These constants with pK = −log10 K of one of them raised by
@@ -260,14 +284,29 @@ impl Constants {
     /// assert_eq!(p.k1e(), p.k1()); // no calcium pairs in saline water
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn with_pk(self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+    pub fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+        self.pk_in_place(which, delta_pk)?;
+        Ok(self)
+    }
+
+    /// [`Constants::with_pk`] in place, as [`Constants::scale_in_place`].
+    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: f64) -> Result<()> {
         if !delta_pk.is_finite() {
             return Err(Error::NotFinite {
                 field: Field::DeltaPk,
                 value: delta_pk,
             });
         }
-        self.with_scaled(which, crate::base::numeric::pow10(-delta_pk))
+        self.scale_in_place(which, crate::base::numeric::pow10(-delta_pk))
+    }
+
+    /// Every value of `other` but its warnings, which are left empty: the
+    /// copy a perturbation in place starts from again, without allocating.
+    pub(crate) fn copy_numbers_from(&mut self, other: &Constants) {
+        *self = Constants {
+            warnings: Vec::new(),
+            ..*other
+        };
     }
 
     /// Refuses constants whose derived values a perturbation of `which`
@@ -403,8 +442,18 @@ mod tests {
             ConstantName::Knh4 => k.knh4,
             ConstantName::Kh2s => k.kh2s,
             ConstantName::BoronTotal => k.totals.boron_mol_kg,
+            ConstantName::CaHco3Pair => k.k_cahco3,
+            ConstantName::CaCo3Pair => k.k_caco3,
         };
+        let pairs = [ConstantName::CaHco3Pair, ConstantName::CaCo3Pair];
         for which in ConstantName::ALL {
+            if pairs.contains(&which) {
+                // No ion pairs in sea water: they stay 0, and so does every
+                // other constant.
+                let p = k.clone().with_scaled(which, 1.25).unwrap();
+                assert_eq!((value(&p, which), p.k1e, p.k2e), (0.0, k.k1e, k.k2e));
+                continue;
+            }
             assert!(value(&k, which) > 0.0, "{which:?} not evaluated");
             let p = k.clone().with_scaled(which, 1.25).unwrap();
             for other in ConstantName::ALL {

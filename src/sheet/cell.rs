@@ -12,6 +12,19 @@ use crate::base::units::Quantity;
 use crate::sample::values::Conductivity;
 use crate::sample::values::InputValue;
 
+/// One value of a row.
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub enum Cell<'a> {
+    /// A number in the unit of its column (NaN: not measured).
+    Number(f64),
+    /// A text, read as a cell of a sheet is (a name such as `fresh`, or a
+    /// number with the column's unit).
+    Text(&'a str),
+    /// Not measured.
+    Empty,
+}
+
 /// Why a cell cannot be read.
 #[derive(Debug, Clone, PartialEq)]
 pub(crate) enum Problem {
@@ -53,6 +66,17 @@ impl Problem {
                  number alone"
             ),
             Problem::Choice(e) => format!("column `{header}`: {e}"),
+        }
+    }
+
+    /// The stable code of the problem, as the library's errors have
+    /// ([`crate::error::ErrorKind::code`]).
+    pub(crate) fn code(&self) -> &'static str {
+        match self {
+            Problem::NotANumber(_) => "not_a_number",
+            Problem::NotFinite => "not_finite",
+            Problem::OtherUnit { .. } => "wrong_unit",
+            Problem::Choice(e) => e.kind().code(),
         }
     }
 
@@ -195,6 +219,29 @@ fn label(r: Reading) -> &'static str {
         Reading::Ph(Some(s)) => s.name(),
         _ => "",
     }
+}
+
+/// Reads a number given as a number (not as text) in a column: in the
+/// column's unit, as a cell holding it would be read. A name column takes
+/// no number.
+pub(crate) fn number_value(column: &Column, v: f64) -> Result<Option<InputValue>, Problem> {
+    if !v.is_finite() {
+        return Err(Problem::NotFinite);
+    }
+    Ok(Some(match column.reading {
+        Reading::Text => return Err(Problem::NotANumber(None)),
+        Reading::Number { scale, offset, .. } => InputValue::Number(v * scale + offset),
+        Reading::Quantity(unit) => InputValue::Quantity(Quantity::new(v, unit)),
+        Reading::Conductivity { scale, specific } => {
+            let us_cm = v * scale;
+            InputValue::Conductivity(if specific {
+                Conductivity::Specific { us_cm }
+            } else {
+                Conductivity::AtTemperature { us_cm }
+            })
+        }
+        Reading::Ph(scale) => InputValue::Ph(v, scale),
+    }))
 }
 
 /// Reads a cell; `Ok(None)` when it is empty or marked as not measured.

@@ -88,6 +88,7 @@
 //! # Ok::<(), travertine::sheet::SheetError>(())
 //! ```
 
+mod batch;
 mod cell;
 mod columns;
 mod error;
@@ -103,6 +104,8 @@ mod row;
 mod summary;
 mod write;
 
+pub use batch::{input_named, Batch, Outcome};
+pub use cell::Cell;
 pub use columns::UnitSystem;
 pub use error::SheetError;
 pub use files::{remove_unfinished_outputs, Sink, Source};

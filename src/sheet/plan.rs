@@ -110,6 +110,10 @@ pub(crate) struct Plan {
     /// The uncertainties of every row, where asked for: their columns
     /// follow the dose's.
     pub uncertainty: Option<UncertaintyPlan>,
+    // issue 15: rows given as values
+    /// Whether each issue keeps its key, for the sheet's summary (a batch
+    /// has none, and saves the copy).
+    pub keys: bool,
 }
 
 /// An input column of standard uncertainties, `<column>_u`.
@@ -132,8 +136,11 @@ pub(crate) struct UncertaintyPlan {
     pub settings: Vec<crate::decisions::uncertainty_settings::Setting>,
     /// The `<column>_u` input columns.
     pub columns: Vec<UncertaintyColumn>,
-    /// Whether the constants keep their uncertainties.
-    pub constants: bool,
+    /// The uncertainties every row starts from, before the settings and
+    /// the row's cells: none but the constants' defaults (or not even
+    /// those, with `--no-constant-uncertainty`) in a sheet; what the
+    /// caller gave in a [`super::Batch`].
+    pub base: crate::decisions::uncertainty::Uncertainties,
     /// The computed columns (indexes into [`Plan::computed`]) that get a
     /// `_u` column, in order.
     pub outputs: Vec<usize>,
@@ -466,7 +473,11 @@ impl Plan {
             UncertaintyPlan {
                 settings: options.uncertainty.clone(),
                 columns: kept,
-                constants: !options.no_constant_uncertainty,
+                base: if options.no_constant_uncertainty {
+                    crate::decisions::uncertainty::Uncertainties::new().without_constants()
+                } else {
+                    crate::decisions::uncertainty::Uncertainties::new()
+                },
                 outputs,
             }
         });
@@ -477,7 +488,7 @@ impl Plan {
                 let base = format!("{}_u", added[i]);
                 push(base, &mut added);
             }
-            unit_notes.push(if up.constants {
+            unit_notes.push(if !options.no_constant_uncertainty {
                 "uncertainties: the constants take their default uncertainties (sea water: Orr \
                  et al. 2018, values from memory; fresh water: the crate's stated values, from \
                  memory); `travertine solve --uncertainty ...` lists each; \
@@ -528,6 +539,7 @@ impl Plan {
             unit_notes,
             exchange,
             uncertainty,
+            keys: true,
         })
     }
 }

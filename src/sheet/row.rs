@@ -1,6 +1,6 @@
 //! One row: its cells read, the sample built, the pair chosen and solved.
 
-use super::cell;
+use super::cell::{self, Cell};
 use super::columns::UnitSystem;
 use super::lines::count_line_ends;
 use super::pair::{choose_pair, rank, RANKING};
@@ -72,9 +72,18 @@ pub(crate) struct Scratch {
     pub flags: Vec<&'static str>,
     /// The last row's water, prepared.
     prepared: Option<PreparedWater>,
+    /// The code and field of the row's first error, where it has one.
+    pub first_error: Option<(&'static str, Option<String>)>,
 }
 
 impl Scratch {
+    /// Records the code and field of the row's first error.
+    fn fail(&mut self, code: &'static str, field: Option<String>) {
+        if self.first_error.is_none() {
+            self.first_error = Some((code, field));
+        }
+    }
+
     fn error(&mut self, key: String, text: String) {
         self.issues.push(Issue {
             key,
@@ -129,15 +138,32 @@ pub(crate) fn error_key(e: &Error) -> String {
     }
 }
 
-/// The cell text of a column in a record, for messages.
-fn cell_text(record: &csv::ByteRecord, index: usize) -> String {
-    String::from_utf8_lossy(record.get(index).unwrap_or_default())
-        .trim()
-        .to_string()
+/// The cells of a row, for messages: the fields of a CSV record, or the
+/// values of a [`super::Batch`] row.
+#[derive(Clone, Copy)]
+pub(crate) enum Cells<'a> {
+    /// A CSV record.
+    Csv(&'a csv::ByteRecord),
+    /// Values given as numbers or texts.
+    Values(&'a [Cell<'a>]),
+}
+
+/// The cell text of a column in a row, for messages.
+fn cell_text(record: Cells<'_>, index: usize) -> String {
+    match record {
+        Cells::Csv(r) => String::from_utf8_lossy(r.get(index).unwrap_or_default())
+            .trim()
+            .to_string(),
+        Cells::Values(v) => match v.get(index) {
+            Some(Cell::Number(x)) => x.to_string(),
+            Some(Cell::Text(t)) => t.trim().to_string(),
+            _ => String::new(),
+        },
+    }
 }
 
 /// Where a value came from, for messages: `column `X` (`cell`)` or `--set x=v`.
-fn source_of(plan: &Plan, record: &csv::ByteRecord, field: Input) -> Option<(String, String)> {
+fn source_of(plan: &Plan, record: Cells<'_>, field: Input) -> Option<(String, String)> {
     let label = plan.label(field).or_else(|| match field {
         // Salinity computed from the conductivity.
         Input::Salinity => plan.label(Input::Conductivity),
@@ -159,7 +185,8 @@ fn source_of(plan: &Plan, record: &csv::ByteRecord, field: Input) -> Option<(Str
     })
 }
 
-fn library_issue(plan: &Plan, record: &csv::ByteRecord, e: &Error, s: &mut Scratch) {
+fn library_issue(plan: &Plan, record: Cells<'_>, e: &Error, s: &mut Scratch) {
+    s.fail(e.kind().code(), e.field().map(|f| f.name().to_string()));
     let pair_error = matches!(
         e,
         Error::IncompatiblePair { .. } | Error::NoWaterFits { .. } | Error::NoConvergence { .. }
@@ -288,6 +315,25 @@ pub(crate) const WARM_C: f64 = 40.0;
 
 /// Evaluates one row into `s`.
 pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut Scratch) {
+    start(plan, s);
+    let status = if unclosed_quote(plan, record, line, s) {
+        None
+    } else {
+        solve_row(plan, record, s)
+    };
+    finish(status, s);
+}
+
+/// Evaluates one row given as values, one per column of the plan, into `s`.
+pub(crate) fn evaluate_values(plan: &Plan, cells: &[Cell<'_>], s: &mut Scratch) {
+    start(plan, s);
+    let status = solve_values(plan, cells, s);
+    finish(status, s);
+}
+
+/// Clears the scratch for a new row.
+fn start(plan: &Plan, s: &mut Scratch) {
+    s.first_error = None;
     s.issues.clear();
     s.values.clear();
     s.residuals.clear();
@@ -301,11 +347,10 @@ pub(crate) fn evaluate(plan: &Plan, record: &csv::ByteRecord, line: u64, s: &mut
         s.uncertain.resize(up.outputs.len(), None);
     }
     s.flags.clear();
-    let status = if unclosed_quote(plan, record, line, s) {
-        None
-    } else {
-        solve_row(plan, record, s)
-    };
+}
+
+/// The status of a row from its issues; no values where it failed.
+fn finish(status: Option<()>, s: &mut Scratch) {
     if status.is_none() {
         s.values.clear();
         s.residuals.iter_mut().for_each(|r| *r = None);
@@ -391,6 +436,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
             Ok(None) => {}
             Err(problem) => {
                 let text = String::from_utf8_lossy(bytes);
+                s.fail(problem.code(), Some(rc.header.clone()));
                 s.error(
                     problem.key(&rc.header),
                     problem.message(&rc.header, text.trim()),
@@ -401,11 +447,45 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     if !s.issues.is_empty() {
         return None;
     }
+    solve_inputs(plan, Cells::Csv(record), inputs, s)
+}
+
+/// The work of [`evaluate_values`]: each value read as a cell of its
+/// column would be (a number in the column's unit; a text as typed in a
+/// cell; NaN or [`Cell::Empty`] for "not measured"), then solved as a row.
+fn solve_values(plan: &Plan, cells: &[Cell<'_>], s: &mut Scratch) -> Option<()> {
+    let mut inputs = plan.template;
+    for rc in &plan.read {
+        let parsed = match cells.get(rc.index).copied().unwrap_or(Cell::Empty) {
+            Cell::Empty => Ok(None),
+            Cell::Number(v) if v.is_nan() => Ok(None),
+            Cell::Number(v) => cell::number_value(&rc.column, v),
+            Cell::Text(t) => cell::parse(&rc.column, t.as_bytes(), plan.decimal_comma),
+        };
+        match parsed {
+            Ok(Some(v)) => inputs.put(rc.column.field, v),
+            Ok(None) => {}
+            Err(problem) => {
+                let text = cell_text(Cells::Values(cells), rc.index);
+                s.fail(problem.code(), Some(rc.header.clone()));
+                s.error(problem.key(&rc.header), problem.message(&rc.header, &text));
+            }
+        }
+    }
+    if !s.issues.is_empty() {
+        return None;
+    }
+    solve_inputs(plan, Cells::Values(cells), inputs, s)
+}
+
+/// Solves a row whose inputs are read.
+fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch) -> Option<()> {
     let Some(t) = inputs.temperature_c else {
         let label = match plan.label(Input::Temperature) {
             Some(Label::Column(i)) => format!("column `{}` is empty", plan.read[*i].header),
             _ => "no temperature".to_string(),
         };
+        s.fail("missing", Some("temperature".into()));
         s.error(
             "no temperature".into(),
             format!("{label}: the row has no temperature"),
@@ -437,6 +517,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
             Some(Label::Column(i)) => format!("column `{}`: ", plan.read[*i].header),
             _ => String::new(),
         };
+        s.fail(e.kind().code(), Some("ph_scale".into()));
         s.error(
             format!("{column}pH scale not stated in saline water"),
             format!("{column}{e}; {STATE_THE_SCALE}"),
@@ -455,6 +536,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
                         Some(Label::Column(i)) => format!("column `{}`", plan.read[*i].header),
                         _ => p.name().to_string(),
                     };
+                    s.fail("missing", Some(p.field().name().to_string()));
                     s.error(
                         format!("pair {},{}: {where_} is empty", a.name(), b.name()),
                         format!(
@@ -517,6 +599,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
         }
     };
     if let Some(text) = implausible(&state, &ma, &mb) {
+        s.fail("no_water_fits", Some(a.field().name().to_string()));
         s.error(
             format!("no water fits {} with {}", a.name(), b.name()),
             text,
@@ -564,7 +647,11 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     }
     for w in &state.warnings {
         let text = w.to_string();
-        let key = text.split(": ").next().unwrap_or(&text).to_string();
+        let key = if plan.keys {
+            text.split(": ").next().unwrap_or(&text).to_string()
+        } else {
+            String::new()
+        };
         match w.severity() {
             Severity::Note => s.note(key, text),
             _ => s.warning(key, text),
@@ -625,7 +712,7 @@ fn dose_row(inputs: &Sample, water: &Water, state: &State, request: DoseRequest,
 /// percentage; `None` for an empty cell.
 fn cell_setting(
     u: &super::plan::UncertaintyColumn,
-    record: &csv::ByteRecord,
+    record: Cells<'_>,
     decimal_comma: bool,
 ) -> Option<Result<Setting, SettingError>> {
     use super::header::Reading;
@@ -662,7 +749,7 @@ fn cell_setting(
 fn uncertainty_row(
     plan: &Plan,
     up: &super::plan::UncertaintyPlan,
-    record: &csv::ByteRecord,
+    record: Cells<'_>,
     inputs: &Sample,
     water: &Water,
     (a, b): (Measured, Measured),
@@ -684,10 +771,7 @@ fn uncertainty_row(
             }
         }
     }
-    let mut base = Uncertainties::new();
-    if !up.constants {
-        base = base.without_constants();
-    }
+    let base = up.base.clone();
     let mut used = Vec::with_capacity(settings.len());
     for setting in settings {
         match with_settings(
@@ -785,6 +869,7 @@ fn ragged(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) {
 }
 
 fn no_pair(plan: &Plan, present: &[bool; 9], s: &mut Scratch) {
+    s.fail("wrong_count", None);
     let given: Vec<&str> = RANKING
         .iter()
         .zip(present)

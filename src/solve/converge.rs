@@ -2,7 +2,7 @@
 //! ionic strength, and both roots of a two-root pair settled apart.
 
 use super::fixed_point::{fixed_point, Bracket, Failure};
-use super::{solve, RootChoice, Solution, SolveOptions};
+use super::{solve, solve_near, Near, RootChoice, Solution, SolveOptions};
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::warning::Warning;
@@ -30,13 +30,16 @@ impl FreshBasis {
     /// water at that ionic strength) steps back towards the last ionic
     /// strength that solved; before any has, ionic strengths ever further
     /// from the first (that of the ions given, without carbon) are tried on
-    /// either side.
+    /// either side. The ionic strength, the free calcium and h start from
+    /// those of `near` where it has them (a water very near this one),
+    /// else from the ions given, all calcium free and the usual guess.
     pub(crate) fn converge<F>(
         &self,
         ca_total: f64,
         held_i: Option<f64>,
         start_calcium: Option<f64>,
         root: RootChoice,
+        near: &Near,
         pair: F,
     ) -> Result<Converged>
     where
@@ -47,10 +50,12 @@ impl FreshBasis {
             report_other_root: root == RootChoice::Natural,
             ..SolveOptions::default().with_root(root)
         };
-        let calcium = std::cell::Cell::new(start_calcium);
+        let calcium = std::cell::Cell::new(start_calcium.or(near.calcium_free));
         let from_ions = held_i.is_none() && self.fixed_i.is_none();
-        let at =
-            |i: f64| self.converge_calcium(ca_total, i, calcium.get(), &options, &pair, from_ions);
+        let at = |i: f64| {
+            let start = calcium.get();
+            self.converge_calcium(ca_total, i, start, &options, &pair, from_ions, near.h)
+        };
         let settled = match held_i.or(self.fixed_i) {
             Some(i) => at(i),
             None => {
@@ -61,7 +66,8 @@ impl FreshBasis {
                     floor: 1e-12,
                 };
                 let mut last = None;
-                fixed_point(self.i_start, bracket, |i| {
+                let start = near.ionic_strength.filter(|i| *i > 0.0);
+                fixed_point(start.unwrap_or(self.i_start), bracket, |i| {
                     let settled = last.insert(at(i)?);
                     calcium.set(Some(settled.ca));
                     Ok((settled.ions, ()))
@@ -92,7 +98,9 @@ impl FreshBasis {
     /// The inner fixed point at ionic strength `i`: the free calcium,
     /// starting from `start` (else from the free ions given, else all
     /// calcium free). With `ions`, also the ionic strength of the ions at
-    /// the result.
+    /// the result. A root search starts from `near_h` where it is positive
+    /// ([`solve_near`]).
+    #[allow(clippy::too_many_arguments)]
     pub(crate) fn converge_calcium<F>(
         &self,
         ca_total: f64,
@@ -101,6 +109,7 @@ impl FreshBasis {
         options: &SolveOptions,
         pair: &F,
         ions: bool,
+        near_h: f64,
     ) -> Result<Converged>
     where
         F: Fn(&Constants) -> Result<(Measured, Measured)>,
@@ -121,7 +130,7 @@ impl FreshBasis {
             k.set_free_calcium(ca);
             let k = &k;
             let (a, b) = pair(k)?;
-            let sol = solve(k, &a, &b, options)?;
+            let sol = solve_near(k, &a, &b, options, near_h)?;
             let f = if ca_total > 0.0 {
                 free_calcium(k, sol.h, sol.dic, ca_total)
             } else {
@@ -169,11 +178,14 @@ impl FreshBasis {
 
     /// Settles a measured pair: one fixed point, or for a pair that can
     /// fit two waters each side settled and the root policy applied.
+    /// The searches of a pair with one root start from `near`'s unknowns
+    /// where it has them.
     pub(crate) fn converge_pair(
         &self,
         a: &Measured,
         b: &Measured,
         root: RootChoice,
+        near: &Near,
     ) -> Result<Converged> {
         if is_two_root_pair(a, b) {
             self.two_roots(a, b, root)
@@ -184,6 +196,7 @@ impl FreshBasis {
                 None,
                 None,
                 root,
+                near,
                 |_: &Constants| Ok((a, b)),
             )
         }
@@ -213,7 +226,8 @@ impl FreshBasis {
     ) -> Result<Converged> {
         let ca_total = self.totals.calcium_mol_kg;
         let given = |_: &Constants| Ok((*a, *b));
-        let side = |r| self.converge(ca_total, None, None, r, given);
+        let cold = Near::default();
+        let side = |r| self.converge(ca_total, None, None, r, &cold, given);
         let ph = |s: &Converged| -crate::base::numeric::log10(s.sol.h);
         let (lower, higher) = (side(RootChoice::LowerPh), side(RootChoice::HigherPh));
         let higher_first = match root {

@@ -162,8 +162,17 @@ pub(crate) fn fixed_point<T>(
 /// halved, so the bracket closes from both sides and convergence is
 /// superlinear. Stops at a step below 1e-12 (absolute: the unknown is a pH)
 /// or an exact zero; `None` without a sign change or on a NaN.
-pub(crate) fn falsi(f: impl Fn(f64) -> f64, mut a: f64, mut b: f64) -> Option<f64> {
-    let (mut fa, mut fb) = (f(a), f(b));
+pub(crate) fn falsi(f: impl Fn(f64) -> f64, a: f64, b: f64) -> Option<f64> {
+    let (fa, fb) = (f(a), f(b));
+    falsi_known(f, (a, fa), (b, fb))
+}
+
+/// [`falsi`] with f already known at both ends: `(a, f(a))`, `(b, f(b))`.
+pub(crate) fn falsi_known(
+    f: impl Fn(f64) -> f64,
+    (mut a, mut fa): (f64, f64),
+    (mut b, mut fb): (f64, f64),
+) -> Option<f64> {
     if fa == 0.0 {
         return Some(a);
     }

@@ -335,6 +335,26 @@ pub(crate) fn alkalinity_in_range(ta: f64) -> bool {
     umol.is_finite() && umol.abs() <= max * (1.0 + 1e-9)
 }
 
+/// Where a solve of a water very near another one may start: the
+/// unknowns of the solved neighbour (its working-scale h, and in fresh
+/// water its ionic strength, free calcium and saturation pH). Used by the
+/// propagation of uncertainties, whose perturbed solves lie within a small
+/// step of the unperturbed one: each search still runs on its full bracket
+/// with its usual convergence test, so a start that is not near changes
+/// the cost of a solve, never its result beyond the tolerance of the
+/// search.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub(crate) struct Near {
+    /// The neighbour's h on the working scale (NaN: none).
+    pub(crate) h: f64,
+    /// Its ionic strength, mol/kg (fresh water).
+    pub(crate) ionic_strength: Option<f64>,
+    /// Its free calcium, mol/kg (fresh water with calcium).
+    pub(crate) calcium_free: Option<f64>,
+    /// Its pHs, the NBS pH of calcite saturation (fresh water).
+    pub(crate) saturation_ph: Option<f64>,
+}
+
 /// Solves for h and DIC.
 pub(crate) fn solve(
     k: &Constants,
@@ -342,7 +362,21 @@ pub(crate) fn solve(
     b: &Measured,
     options: &SolveOptions,
 ) -> Result<Solution> {
+    solve_near(k, a, b, options, f64::NAN)
+}
+
+/// As [`solve`], the root of a pair with alkalinity searched from `near_h`
+/// (where finite and positive) rather than from the usual first guess.
+pub(crate) fn solve_near(
+    k: &Constants,
+    a: &Measured,
+    b: &Measured,
+    options: &SolveOptions,
+    near_h: f64,
+) -> Result<Solution> {
     check_pair(a, b)?;
+    let warm = near_h > 0.0 && near_h.is_finite();
+    let start = |cold: f64| if warm { near_h } else { cold };
     let mut warnings = Warnings::new();
     let mut ka = to_working(k, a, &mut warnings);
     let mut kb = to_working(k, b, &mut warnings);
@@ -364,7 +398,7 @@ pub(crate) fn solve(
                     let (c, dc) = carbonate_per_dic(k, h);
                     (dic * c, dic * dc)
                 },
-                carbonate_guess(k, ta, dic),
+                start(carbonate_guess(k, ta, dic)),
             )?;
             (h, dic)
         }
@@ -389,7 +423,7 @@ pub(crate) fn solve(
                     let v = co2 * (k.k1e() / h + 2.0 * k12 / (h * h));
                     (v, -co2 * (k.k1e() / (h * h) + 4.0 * k12 / (h * h * h)))
                 },
-                f64::NAN,
+                start(f64::NAN),
             )?;
             (h, co2 * dic_per_co2(k, h))
         }
@@ -404,7 +438,7 @@ pub(crate) fn solve(
                         -2.0 * hco3 * k.k2e() / (h * h),
                     )
                 },
-                f64::NAN,
+                start(f64::NAN),
             )?;
             (h, hco3 * dic_per_hco3(k, h))
         }

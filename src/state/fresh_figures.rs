@@ -8,8 +8,8 @@ use crate::medium::fresh::ionic::ion_sum;
 use crate::medium::fresh::{FreshBasis, IonicStrengthRoute};
 use crate::medium::Constants;
 use crate::sample::measured::{Measured, Parameter};
-use crate::solve::fixed_point::falsi;
-use crate::solve::{RootChoice, SolveOptions};
+use crate::solve::fixed_point::{falsi, falsi_known};
+use crate::solve::{Near, RootChoice, SolveOptions};
 use crate::speciation::calcium::{free_carbonate, ln_omega_at_alkalinity};
 
 /// The charge imbalance of the ions given, as % of the sum of their
@@ -26,6 +26,7 @@ impl FreshBasis {
         h: f64,
         dic: f64,
         options: &SolveOptions,
+        near: &Near,
         warnings: &mut Warnings,
     ) -> FreshFigures {
         // The charge balance of an ion analysis; other routes have none.
@@ -54,10 +55,15 @@ impl FreshBasis {
             return e;
         }
         let ta = crate::speciation::alkalinity::parts(k, h, dic).total();
-        match self.saturation_ph(k, ta, -crate::base::numeric::log10(h)) {
+        let ph = -crate::base::numeric::log10(h);
+        let phs = near
+            .saturation_ph
+            .and_then(|p| self.saturation_ph_near(k, ta, p))
+            .or_else(|| self.saturation_ph(k, ta, ph));
+        match phs {
             Some(phs) => {
                 e.saturation_ph_nbs = Some(phs);
-                e.langelier_index = Some(-crate::base::numeric::log10(h) - phs);
+                e.langelier_index = Some(ph - phs);
             }
             None => warnings.push(Warning::Note {
  code: "langelier_not_computed",
@@ -155,6 +161,43 @@ impl FreshBasis {
         None
     }
 
+    /// pHs as [`FreshBasis::saturation_ph`] gives it, for a water very near
+    /// one whose pHs is `near` (a perturbed solve of the propagation of
+    /// uncertainties): one Newton step from `near` with the slope ln 10 of
+    /// [`FreshBasis::saturation_ph`]'s first step, taken twice as far so
+    /// that the step brackets the root, then [`falsi`] to 1e-12 pH on that
+    /// bracket. The root found is the one on the rising side of ln Ω next
+    /// to `near`, the same as the full search finds for a water that near.
+    /// `None` where `near` is not within 0.01 pH of a bracketed root on
+    /// that side (the caller then searches in full).
+    pub(crate) fn saturation_ph_near(&self, k: &Constants, ta: f64, near: f64) -> Option<f64> {
+        const LOWEST: f64 = 4.0;
+        const HIGHEST: f64 = 13.0;
+        const REACH: f64 = 0.01;
+        let ca_total = self.totals.calcium_mol_kg;
+        let f = |p: f64| ln_omega_at_alkalinity(k, ta, ca_total, crate::base::numeric::pow10(-p));
+        if !(LOWEST..=HIGHEST).contains(&near) {
+            return None;
+        }
+        let f0 = f(near)?;
+        if f0 == 0.0 {
+            return Some(near);
+        }
+        let step = -2.0 * f0 / std::f64::consts::LN_10;
+        if step.abs() > REACH {
+            return None;
+        }
+        let far = (near + step).clamp(LOWEST, HIGHEST);
+        let f1 = f(far)?;
+        // On the rising side ln Ω is below zero under the root, above it over.
+        let rising = (f0 < 0.0 && f1 > 0.0 && far > near) || (f0 > 0.0 && f1 < 0.0 && far < near);
+        if !rising {
+            return None;
+        }
+        falsi_known(|p| f(p).unwrap_or(f64::NAN), (near, f0), (far, f1))
+            .filter(|p| (LOWEST..=HIGHEST).contains(p))
+    }
+
     /// Calcium carbonate precipitation potential (mol/kg): the calcite that
     /// would precipitate (positive) or dissolve (negative) in a closed
     /// system to reach saturation, removing x of calcium and DIC and 2x of
@@ -173,7 +216,9 @@ impl FreshBasis {
             let (Ok(a), Ok(b)) = pair else {
                 return f64::NAN;
             };
-            match self.converge(ca_t - x, held, None, RootChoice::Natural, |_| Ok((a, b))) {
+            let cold = Near::default();
+            let given = |_: &Constants| Ok((a, b));
+            match self.converge(ca_t - x, held, None, RootChoice::Natural, &cold, given) {
                 Ok(settled) => {
                     let (kx, s) = (self.constants_of(&settled), settled.sol);
                     let co3 = free_carbonate(&kx, s.h, s.dic);

@@ -299,6 +299,17 @@ impl State {
         }
     }
 
+    /// The unknowns of this state, from which the solve of a water very
+    /// near it may start ([`crate::solve::Near`]).
+    pub(crate) fn near(&self) -> crate::solve::Near {
+        crate::solve::Near {
+            h: self.h,
+            ionic_strength: self.ionic_strength_from.map(|_| self.ionic_strength),
+            calcium_free: self.calcium_free_umol_kg.map(|c| c * 1e-6),
+            saturation_ph: self.saturation_ph_nbs,
+        }
+    }
+
     /// The gas constants this state was solved with.
     pub(crate) fn gas_terms(&self) -> exchange::GasTerms {
         self.gas
@@ -328,7 +339,8 @@ impl State {
         warnings: Warnings,
         (a, b): (&Measured, &Measured),
     ) -> Result<State> {
-        Self::build_fresh_or_saline(water, k, h, dic, warnings, None, a, b)
+        let all = warnings.after(k.warnings());
+        Self::build_fresh_or_saline(water, k, h, dic, all, None, a, b)
     }
 
     /// Builds a fresh-water state with its figures.
@@ -341,12 +353,29 @@ impl State {
         figures: FreshFigures,
         (a, b): (&Measured, &Measured),
     ) -> Result<State> {
-        Self::build_fresh_or_saline(water, k, h, dic, warnings, Some(figures), a, b)
+        let all = warnings.after(k.warnings());
+        Self::build_fresh_or_saline(water, k, h, dic, all, Some(figures), a, b)
+    }
+
+    /// Builds a state, fresh (with its figures) or saline, without any
+    /// warning, not even the constants': the lean state of a perturbed
+    /// solve ([`crate::flow::PreparedWater::solve_lean`]), whose numbers
+    /// alone are read.
+    pub(crate) fn build_quiet(
+        water: &Water,
+        k: &Constants,
+        h: f64,
+        dic: f64,
+        figures: Option<FreshFigures>,
+        (a, b): (&Measured, &Measured),
+    ) -> Result<State> {
+        Self::build_fresh_or_saline(water, k, h, dic, Warnings::new(), figures, a, b)
     }
 
     // The two measurements are passed apart from the rest so that the
     // implausibility error can name them; the state is checked before it is
     // built, so a large value is never built only to be thrown away.
+    // `warnings` are all the state's: the callers put the constants' first.
     #[allow(clippy::too_many_arguments)]
     fn build_fresh_or_saline(
         water: &Water,
@@ -390,8 +419,6 @@ impl State {
 
         let rho = k.density_kg_m3();
         let (ammonia, sulfide) = toxic_fractions(k, h);
-        // The constants' warnings first.
-        let all = warnings.after(k.warnings());
         let u = 1e6;
         let fresh = figures.is_some();
         let fresh_only = |v: f64| fresh.then_some(v);
@@ -446,7 +473,7 @@ impl State {
             free_co2_mg_l: co2 * rho * CO2_G_MOL,
             density_kg_m3: rho,
             fits_used: *k.fits_used(),
-            warnings: all,
+            warnings,
             water_sample: water.clone(),
             h,
             nh3_fraction: ammonia.map(|(f, _)| f),

@@ -141,6 +141,14 @@ impl FreshBasis {
     /// [`crate::Error::Computation`] for a result that is not finite and
     /// positive (a constant that was evaluated).
     pub(crate) fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Self> {
+        self.pk_in_place(which, delta_pk)?;
+        Ok(self)
+    }
+
+    /// [`FreshBasis::with_pk`] in place (for a scratch copy, see
+    /// [`FreshBasis::copy_numbers_from`]); on an error the basis may be
+    /// left part-way and must be copied again.
+    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: f64) -> Result<()> {
         use crate::base::error::Error;
         use crate::base::field::Field;
         use ConstantName as C;
@@ -168,6 +176,8 @@ impl FreshBasis {
             C::Knh4 => &mut self.knh4,
             C::Kh2s => &mut self.kh2s,
             C::BoronTotal => &mut self.totals.boron_mol_kg,
+            C::CaHco3Pair => &mut self.k_cahco3,
+            C::CaCo3Pair => &mut self.k_caco3,
         };
         let before = *slot;
         let after = before * factor;
@@ -185,7 +195,17 @@ impl FreshBasis {
             let ca = self.totals.calcium_mol_kg;
             self.i_start = ion_sum(&self.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
         }
-        Ok(self)
+        Ok(())
+    }
+
+    /// Every value of `other` but its range warnings, which are left
+    /// empty: the copy a perturbation in place starts from again, without
+    /// allocating.
+    pub(crate) fn copy_numbers_from(&mut self, other: &FreshBasis) {
+        *self = FreshBasis {
+            warnings: Vec::new(),
+            ..*other
+        };
     }
 
     /// Apparent constants at ionic strength `i`, free calcium `ca_free` and
@@ -349,6 +369,24 @@ mod tests {
             assert!(consistent(&p), "{which:?} after set_free_calcium");
             assert_eq!((p.k1, p.k2), (k1, k2), "the perturbation is kept");
             assert!((p.pair_hco3 / k.pair_hco3 - 0.5).abs() < 1e-15);
+        }
+        // An ion-pair constant moves its pair ratio by the factor, and K1e
+        // and K2e with it.
+        let factor = crate::base::numeric::pow10(-0.05);
+        let hco3 = |k: &Constants| k.pair_hco3;
+        let co3 = |k: &Constants| k.pair_co3;
+        for (which, ratio) in [
+            (
+                ConstantName::CaHco3Pair,
+                &hco3 as &dyn Fn(&Constants) -> f64,
+            ),
+            (ConstantName::CaCo3Pair, &co3),
+        ] {
+            let p = k.clone().with_pk(which, 0.05).unwrap();
+            assert!(consistent(&p), "{which:?}");
+            assert!((ratio(&p) / ratio(&k) / factor - 1.0).abs() < 1e-14);
+            assert!(p.k1e != k.k1e || which == ConstantName::CaCo3Pair);
+            assert!(p.k2e != k.k2e, "{which:?}");
         }
         // The perturbation moved K1 by the factor, K1e with it.
         let p = k.clone().with_pk(ConstantName::K1, 0.01).unwrap();

@@ -1,0 +1,236 @@
+//! A batch of rows given as values rather than CSV text: the path of the
+//! bindings (issue 15). Each column is named as a sheet header would be
+//! (`alkalinity_umol_kg`, `ph_total`, `temperature_c`, `water`), each row
+//! is read and solved exactly as a row of a sheet, with the same checks,
+//! statuses and messages, and its outcome is handed back as numbers.
+//!
+//! ```
+//! use travertine::output::Value;
+//! use travertine::sheet::{Batch, Cell, Outcome, SheetOptions};
+//! let options = SheetOptions::default().with_columns("ph_total,pco2_uatm")?;
+//! let batch = Batch::new(&["temperature_c", "salinity", "alkalinity_umol_kg", "ph_total"], &options)?;
+//! let mut out = Outcome::default();
+//! batch.solve(&[Cell::Number(25.0), Cell::Number(35.0), Cell::Number(2300.0), Cell::Number(8.05)], &mut out);
+//! assert_eq!(out.status(), "ok");
+//! let Value::Number(Some(ph)) = out.values()[0] else { panic!() };
+//! assert!((ph - 8.05).abs() < 1e-12);
+//! // A bad row: its status, message, code and field; the batch goes on.
+//! batch.solve(&[Cell::Number(25.0), Cell::Number(35.0), Cell::Number(2300.0), Cell::Number(15.0)], &mut out);
+//! assert_eq!(out.status(), "error");
+//! assert_eq!(out.error(), Some(("out_of_range", Some("ph"))));
+//! assert!(out.values().is_empty());
+//! # Ok::<(), travertine::sheet::SheetError>(())
+//! ```
+
+use super::cell::Cell;
+use super::plan::Plan;
+use super::row::{evaluate_values, Scratch, Status};
+use super::{SheetError, SheetOptions};
+use crate::decisions::uncertainty::Uncertainties;
+use crate::output::{Output, Value};
+
+/// The plan of a batch: its columns read and checked once, as the header of
+/// a sheet is, with the options of a sheet ([`SheetOptions::with_columns`],
+/// [`SheetOptions::with_set`], [`SheetOptions::with_pair`], ...).
+#[derive(Debug)]
+pub struct Batch {
+    plan: Plan,
+}
+
+impl Batch {
+    /// The batch of these columns.
+    ///
+    /// # Errors
+    /// What a sheet with this header would stop on
+    /// ([`SheetError::HeaderUnit`], [`SheetError::NoPair`],
+    /// [`SheetError::Missing`], ...), and [`SheetError::BadOption`] for a
+    /// name that is not an input (a sheet would pass such a column
+    /// through unread; a batch has no use for it).
+    ///
+    /// ```
+    /// use travertine::sheet::{Batch, SheetOptions};
+    /// let o = SheetOptions::default();
+    /// assert!(Batch::new(&["temperature_c", "ph_nbs", "alkalinity_mg_l_caco3"], &o).is_ok());
+    /// assert!(Batch::new(&["temperature_c", "ph_nbs", "colour"], &o).is_err());
+    /// ```
+    pub fn new(names: &[&str], options: &SheetOptions) -> Result<Batch, SheetError> {
+        let header = csv::ByteRecord::from(names.to_vec());
+        let plan = Plan::new(&header, options)?;
+        if let Some(name) = plan.passed.first() {
+            return Err(SheetError::BadOption {
+                option: "name",
+                message: format!(
+                    "`{name}` is not an input; give inputs by their names with the unit in the \
+                     name, such as alkalinity_umol_kg, alkalinity_mg_l_caco3, ph_total, ph_nbs, \
+                     dic_umol_kg, temperature_c, salinity, specific_conductance_us_cm, \
+                     calcium_mg_l (`travertine sheet --list-columns` lists them)"
+                ),
+            });
+        }
+        let mut plan = plan;
+        plan.keys = false;
+        Ok(Batch { plan })
+    }
+
+    /// With the standard uncertainty of every numeric computed column,
+    /// propagated from `u` for each row
+    /// ([`crate::decisions::uncertainty::propagate`]; about two solves per
+    /// source and row).
+    #[must_use]
+    pub fn with_uncertainties(mut self, u: Uncertainties) -> Self {
+        // Every computed column, so that the uncertainties line up with
+        // [`Batch::computed`] (a name gets none).
+        self.plan.uncertainty = Some(super::plan::UncertaintyPlan {
+            settings: Vec::new(),
+            columns: Vec::new(),
+            base: u,
+            outputs: (0..self.plan.computed.len()).collect(),
+        });
+        self
+    }
+
+    /// The computed columns, in order: [`Outcome::values`] (and
+    /// [`Outcome::uncertainties`]) follow it.
+    pub fn computed(&self) -> &[Output] {
+        &self.plan.computed
+    }
+
+    /// The names of every added column, as a sheet writes them: the
+    /// computed columns, the residuals, the dose columns, `flags` where
+    /// asked for, `status` and `message`.
+    pub fn columns(&self) -> &[String] {
+        &self.plan.added
+    }
+
+    /// The names of the residual columns ([`Outcome::residuals`]).
+    pub fn residual_columns(&self) -> &[String] {
+        let start = self.plan.computed.len();
+        &self.plan.added[start..start + self.plan.residuals.len()]
+    }
+
+    /// The names of the dose columns ([`Outcome::dose`]), where a dose is
+    /// asked for.
+    pub fn dose_columns(&self) -> &[String] {
+        let start = self.plan.computed.len() + self.plan.residuals.len();
+        let n = if self.plan.dose.is_some() {
+            super::plan::DOSE_COLUMNS.len()
+        } else {
+            0
+        };
+        &self.plan.added[start..start + n]
+    }
+
+    /// Whether the outcome has a `flags` column.
+    pub fn has_flags(&self) -> bool {
+        self.plan.flags.is_some()
+    }
+
+    /// Notes on the columns that apply to every row (inputs not used, units
+    /// read approximately as written).
+    pub fn notes(&self) -> &[String] {
+        &self.plan.unit_notes
+    }
+
+    /// Solves one row, `cells` in the order of the names, into `out`.
+    pub fn solve(&self, cells: &[Cell<'_>], out: &mut Outcome) {
+        evaluate_values(&self.plan, cells, &mut out.scratch);
+        out.message.clear();
+        for (i, issue) in out.scratch.issues.iter().enumerate() {
+            if i > 0 {
+                out.message.push_str("; ");
+            }
+            out.message.push_str(&issue.text);
+        }
+    }
+}
+
+/// The outcome of a row, reused from row to row.
+#[derive(Debug, Default)]
+pub struct Outcome {
+    scratch: Scratch,
+    message: String,
+}
+
+impl Outcome {
+    /// The value of each computed column ([`Batch::computed`]); empty where
+    /// the row could not be solved.
+    pub fn values(&self) -> &[Value] {
+        &self.scratch.values
+    }
+
+    /// The standard uncertainty of each computed column where the batch
+    /// propagates them; empty otherwise, or where the row failed.
+    pub fn uncertainties(&self) -> impl Iterator<Item = Option<f64>> + '_ {
+        self.scratch.uncertain.iter().map(|u| u.map(|(u, _)| u))
+    }
+
+    /// Each residual (measured minus calculated), in the order of
+    /// [`Batch::residual_columns`].
+    pub fn residuals(&self) -> impl Iterator<Item = Option<f64>> + '_ {
+        self.scratch.residuals.iter().map(|r| r.map(|(v, _)| v))
+    }
+
+    /// The dose columns, in the order of [`Batch::dose_columns`].
+    pub fn dose(&self) -> impl Iterator<Item = Option<f64>> + '_ {
+        self.scratch.dose.iter().map(|r| r.map(|(v, _)| v))
+    }
+
+    /// The codes of the quality flags raised.
+    pub fn flags(&self) -> &[&'static str] {
+        &self.scratch.flags
+    }
+
+    /// `ok`, `warning` or `error`.
+    pub fn status(&self) -> &'static str {
+        self.scratch.status.name()
+    }
+
+    /// Whether the row could not be solved.
+    pub fn is_error(&self) -> bool {
+        self.scratch.status == Status::Error
+    }
+
+    /// The row's message: its errors, warnings and notes, `; `-separated.
+    pub fn message(&self) -> &str {
+        &self.message
+    }
+
+    /// The code and field of the row's first error (the codes of
+    /// [`crate::error::ErrorKind::code`]; the field as errors name it, or
+    /// the column for a value that cannot be read).
+    pub fn error(&self) -> Option<(&'static str, Option<&str>)> {
+        if !self.is_error() {
+            return None;
+        }
+        let (code, field) = self.scratch.first_error.as_ref()?;
+        Some((code, field.as_deref()))
+    }
+}
+
+/// The input a name stands for, as a sheet header or a [`Batch`] column
+/// (`ph_total`, `alkalinity_mg_l_caco3`, `temperature_c`), with whether a
+/// number under that name is in the library's own unit of the input (pH
+/// units, µmol/kg, µatm, ppm, °C, practical salinity, m/s, ...), the unit
+/// of an absolute uncertainty
+/// ([`crate::decisions::uncertainty::Size::Absolute`]).
+///
+/// ```
+/// use travertine::sample::inputs::Input;
+/// use travertine::sheet::input_named;
+/// use travertine::Parameter;
+/// assert_eq!(input_named("ph_total"), Some((Input::Carbon(Parameter::Ph), true)));
+/// assert_eq!(input_named("alkalinity_mg_l_caco3"), Some((Input::Carbon(Parameter::Alkalinity), false)));
+/// assert_eq!(input_named("colour"), None);
+/// ```
+pub fn input_named(name: &str) -> Option<(crate::sample::inputs::Input, bool)> {
+    use super::header::Reading;
+    use crate::base::units::Unit;
+    let column = super::header::recognise_name(name).ok()?;
+    let own = match column.reading {
+        Reading::Ph(_) => true,
+        Reading::Number { scale, offset, .. } => scale == 1.0 && offset == 0.0,
+        Reading::Quantity(u) => matches!(u, Unit::UmolPerKg | Unit::Uatm | Unit::Ppm),
+        _ => false,
+    };
+    Some((column.field, own))
+}
