@@ -400,7 +400,13 @@ fn assert_same_u(row: &serde_json::Value, solved: &serde_json::Value) {
     for key in COMPARED.split(',') {
         let k = format!("{key}_u");
         let (a, b) = (row[&k].as_f64().unwrap(), solved[&k].as_f64().unwrap());
-        assert!(close(a, b, 1e-9), "{k}: sheet {a}, solve {b}");
+        // The derivatives are forward differences of warm-started solves
+        // (DEVELOPERS.md, "Uncertainty"), good to about 1e-6 relative
+        // against central differences of cold solves (tests/uncertainty.rs);
+        // the sheet's row and the command's sample reach the same inputs by
+        // different unit conversions, so their uncertainties agree to that
+        // accuracy, not to every digit.
+        assert!(close(a, b, 1e-7), "{k}: sheet {a}, solve {b}");
     }
 }
 
