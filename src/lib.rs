@@ -55,6 +55,8 @@
 #![deny(missing_docs)]
 
 pub mod base;
+#[cfg(feature = "chart")]
+pub mod chart;
 pub mod decisions;
 pub mod fits;
 pub mod flow;

@@ -28,6 +28,7 @@ const LAYERS: &[&str] = &[
     "decisions",
     "output",
     "sheet",
+    "chart",
     "main",
 ];
 

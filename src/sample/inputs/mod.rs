@@ -21,7 +21,7 @@ use crate::sample::values::{Choice, Conductivity, InputValue};
 pub(crate) mod header;
 mod list;
 
-pub use header::{column_guide, NamedInput, UnreadName};
+pub use header::{column_guide, number_column, NamedInput, UnreadName};
 pub use list::INPUTS;
 
 /// A measured total of the sample.

@@ -420,6 +420,31 @@ impl NamedInput {
     }
 }
 
+/// How the sheet reads a header that holds plain numbers: the input it is
+/// read as, and the factor and offset that take a cell to the input's base
+/// unit (`cell × factor + offset`; depth in m, temperature in °C, pressure
+/// in dbar). `None` for a header passed through, one read otherwise (a
+/// quantity with a unit, a pH, a name) or one without a unit that can be
+/// read.
+///
+/// ```
+/// use travertine::sample::inputs::Input;
+/// use travertine::sample::inputs::number_column;
+/// assert_eq!(number_column("Depth (m)"), Some((Input::Depth, 1.0, 0.0)));
+/// assert_eq!(number_column("depth [ft]"), Some((Input::Depth, 0.3048, 0.0)));
+/// assert_eq!(number_column("Station"), None);
+/// ```
+pub fn number_column(header: &str) -> Option<(Input, f64, f64)> {
+    match recognise(header) {
+        Recognition::Column(Column {
+            field,
+            reading: Reading::Number { scale, offset, .. },
+            ..
+        }) => Some((field, scale, offset)),
+        _ => None,
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
