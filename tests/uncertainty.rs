@@ -8,6 +8,7 @@ use travertine::decisions::uncertainty::{
 use travertine::output::uncertainty::{outputs_monte_carlo, outputs_propagated};
 use travertine::output::Output;
 use travertine::sample::inputs::{Input, Total};
+use travertine::sample::Sample;
 use travertine::units::Amount;
 use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
 
@@ -465,4 +466,177 @@ fn warm_forward_differences_agree_with_cold_central_differences() {
     // Sea water: 2 inputs and 8 constants × 2 outputs (no Langelier
     // index); each fresh water: 3 inputs and 9 constants × 3 outputs.
     assert_eq!(checked, 20 + 2 * 36);
+}
+
+/// A water made from a sample described by a conductivity reading (the
+/// program's path, `Sample::water`), at temperature `t` °C.
+fn from_conductivity(t: f64, conductivity: &str, medium: &str, calcium: bool) -> Water {
+    let mut s = Sample::new(t);
+    s.set(Input::Conductivity, conductivity).unwrap();
+    s.set(Input::Medium, medium).unwrap();
+    if calcium {
+        s.set(Input::Total(Total::Calcium), "1000 umol/kg").unwrap();
+    }
+    s.water().unwrap()
+}
+
+fn only(input: Input, size: Size) -> Uncertainties {
+    Uncertainties::new()
+        .without_constants()
+        .with_input(input, size)
+        .unwrap()
+}
+
+/// A conductivity's uncertainty moves the salinity and (fresh water) the
+/// ionic strength it gives, so pCO2 from pH and alkalinity and Ω calcite
+/// carry it: the propagated u is the slope of two full solves of waters
+/// rebuilt from the reading ± 0.1 % (central differences written here)
+/// times u, in both media and for both kinds of reading; its budget share
+/// is all of the variance.
+#[test]
+fn conductivity_uncertainty_agrees_with_a_central_difference() {
+    let cases = [
+        // Fresh: a pond reading at the sample temperature, and a specific
+        // conductance; saline: an estuary reading (invented Larkvane values).
+        (14.0, 420.0, "uS/cm", "fresh", None, 7.6, true),
+        (14.0, 420.0, "uS/cm@25C", "fresh", None, 7.6, true),
+        (
+            18.0,
+            30_000.0,
+            "uS/cm",
+            "saline",
+            Some(PhScale::Total),
+            7.95,
+            false,
+        ),
+    ];
+    for (t, x, unit, medium, scale, ph, calcium) in cases {
+        let reading = |v: f64| format!("{v} {unit}");
+        let ph = Measured::ph(ph, scale).unwrap();
+        let ta = Measured::alkalinity_umol_kg(1800.0).unwrap();
+        let outputs = |s: &travertine::State| vec![Some(s.pco2_uatm), s.omega_calcite];
+        let solve = |v: f64| {
+            let s = from_conductivity(t, &reading(v), medium, calcium)
+                .solve(ph, ta)
+                .unwrap();
+            outputs(&s)
+        };
+        let h = 1e-3 * x;
+        let (up, down) = (solve(x + h), solve(x - h));
+        let water = from_conductivity(t, &reading(x), medium, calcium);
+        let p = Problem::new(&water, ph, ta).unwrap();
+        let u = only(Input::Conductivity, Size::Percent(5.0));
+        let r = propagate(&p, &u, outputs).unwrap();
+        assert_eq!(
+            r.sources,
+            vec![(Source::Input(Input::Conductivity), 0.05 * x)]
+        );
+        for (k, o) in r.outputs.iter().enumerate() {
+            let slope = (up[k].unwrap() - down[k].unwrap()) / (2.0 * h);
+            let expected = (slope * 0.05 * x).abs();
+            let got = o.u.unwrap();
+            assert!(got > 0.0, "{medium} {unit} output {k}");
+            assert!(
+                (got / expected - 1.0).abs() < 1e-3,
+                "{medium} {unit} output {k}: {got} against {expected}"
+            );
+            let budget = o.budget(&r.sources);
+            assert_eq!(budget[0].0, Source::Input(Input::Conductivity));
+            assert!((budget[0].1 - 1.0).abs() < 1e-12);
+        }
+        // Absolute in µS/cm gives the same as the percentage it equals.
+        let abs = only(Input::Conductivity, Size::Absolute(0.05 * x));
+        let r2 = propagate(&p, &abs, outputs).unwrap();
+        assert_eq!(r.outputs[0].u, r2.outputs[0].u);
+    }
+}
+
+/// In a water made from a reading at the sample temperature, a moved
+/// temperature also moves the salinity and specific conductance the
+/// reading gives, as rebuilding the sample at t ± 0.01 °C does (central
+/// difference written here).
+#[test]
+fn temperature_moves_a_reading_at_the_sample_temperature() {
+    let ph = Measured::ph(7.6, None).unwrap();
+    let ta = Measured::alkalinity_umol_kg(1800.0).unwrap();
+    let solve = |t: f64| {
+        from_conductivity(t, "420 uS/cm", "fresh", true)
+            .solve(ph, ta)
+            .unwrap()
+            .omega_calcite
+            .unwrap()
+    };
+    let h = 1e-2;
+    let slope = (solve(14.0 + h) - solve(14.0 - h)) / (2.0 * h);
+    let water = from_conductivity(14.0, "420 uS/cm", "fresh", true);
+    let p = Problem::new(&water, ph, ta).unwrap();
+    let u = only(Input::Temperature, Size::Absolute(0.2));
+    let r = propagate(&p, &u, |s| vec![s.omega_calcite]).unwrap();
+    let got = r.outputs[0].u.unwrap();
+    assert!(
+        (got / (slope * 0.2).abs() - 1.0).abs() < 1e-3,
+        "{got} {slope}"
+    );
+}
+
+/// A given fresh-water ionic strength is a source too: its u matches a
+/// central difference of two full solves at I ± 0.1 %.
+#[test]
+fn ionic_strength_uncertainty_agrees_with_a_central_difference() {
+    let ph = Measured::ph(7.8, None).unwrap();
+    let ta = Measured::alkalinity_umol_kg(1800.0).unwrap();
+    let water = |i: f64| pond().with_ionic_strength(i).unwrap();
+    let solve = |i: f64| water(i).solve(ph, ta).unwrap().omega_calcite.unwrap();
+    let (i, h) = (0.006, 6e-6);
+    let slope = (solve(i + h) - solve(i - h)) / (2.0 * h);
+    let p = Problem::new(&water(i), ph, ta).unwrap();
+    let u = only(Input::IonicStrength, Size::Absolute(0.0005));
+    let r = propagate(&p, &u, |s| vec![s.omega_calcite]).unwrap();
+    let got = r.outputs[0].u.unwrap();
+    assert!(got > 0.0);
+    assert!(
+        (got / (slope * 0.0005).abs() - 1.0).abs() < 1e-3,
+        "{got} {slope}"
+    );
+}
+
+/// Salinity, conductivity and ionic strength count only where the water
+/// was described by them; elsewhere a typed error, not a silent zero.
+#[test]
+fn a_source_the_water_was_not_described_by_is_refused() {
+    let ph = Measured::ph(7.6, None).unwrap();
+    let ta = Measured::alkalinity_umol_kg(1800.0).unwrap();
+    let outputs = |s: &travertine::State| vec![Some(s.pco2_uatm)];
+    let run = |w: &Water, input: Input| {
+        let p = Problem::new(w, ph, ta).unwrap();
+        propagate(&p, &only(input, Size::Percent(5.0)), outputs)
+    };
+    // Described by salinity: no conductivity, no ionic strength.
+    let e = run(&pond(), Input::Conductivity).unwrap_err();
+    assert!(e.to_string().contains("conductivity"), "{e}");
+    assert!(run(&pond(), Input::IonicStrength).is_err());
+    assert!(run(&pond(), Input::Salinity).is_ok());
+    // Described by conductivity: the salinity computed from it is refused.
+    let w = from_conductivity(14.0, "420 uS/cm", "fresh", false);
+    let e = run(&w, Input::Salinity).unwrap_err();
+    assert!(
+        e.to_string().contains("computed from the conductivity"),
+        "{e}"
+    );
+    // Saline water with a salinity given beside the reading: the reading
+    // sets nothing.
+    let mut s = Sample::new(18.0);
+    s.set(Input::Conductivity, "30 mS/cm").unwrap();
+    s.set(Input::Salinity, "20").unwrap();
+    s.set(Input::Medium, "saline").unwrap();
+    let w = s.water().unwrap();
+    let p = Problem::new(&w, Measured::ph(7.9, Some(PhScale::Total)).unwrap(), ta).unwrap();
+    let e = propagate(&p, &only(Input::Conductivity, Size::Percent(5.0)), outputs).unwrap_err();
+    assert!(e.to_string().contains("sets nothing"), "{e}");
+    // A given ionic strength that a conductivity overrides is refused.
+    let w = from_conductivity(14.0, "420 uS/cm", "fresh", false)
+        .with_ionic_strength(0.01)
+        .unwrap();
+    assert!(run(&w, Input::IonicStrength).is_err());
+    assert!(run(&w, Input::Conductivity).is_ok());
 }

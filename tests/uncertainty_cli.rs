@@ -502,3 +502,74 @@ fn sheet_setting_of_a_parameter_outside_a_rows_pair_is_noted_in_that_row() {
         "{message}"
     );
 }
+
+/// Fennel pond described by its conductivity (invented: 420 µS/cm at the
+/// sample temperature, calcium 1 mmol/kg): `conductivity=5%` and the same
+/// size in µS/cm (21) or mS/cm (0.021) give the same uncertainty, above
+/// zero for pCO2 and Ω calcite, and the budget names the conductivity.
+#[test]
+fn conductivity_uncertainty_from_the_command_line() {
+    let base = [
+        "--conductivity",
+        "420 uS/cm",
+        "--calcium",
+        "1000umol/kg",
+        "--no-constant-uncertainty",
+        "--budget",
+    ];
+    let with = |setting: &str| {
+        let mut args = base.to_vec();
+        args.extend_from_slice(&["--uncertainty", setting]);
+        fennel_solve(&args)
+    };
+    let pct = with("conductivity=5%");
+    let us = with("conductivity=21uS/cm");
+    let ms = with("conductivity=0.021 mS/cm");
+    for key in ["pco2_uatm_u", "omega_calcite_u"] {
+        let u = pct[key].as_f64().unwrap();
+        assert!(u > 0.0, "{key}");
+        assert!(close(u, us[key].as_f64().unwrap(), 1e-12), "{key}");
+        assert!(close(u, ms[key].as_f64().unwrap(), 1e-12), "{key}");
+    }
+    let share = pct["budget"]["pco2_uatm"]["conductivity"].as_f64().unwrap();
+    assert!((share - 1.0).abs() < 1e-12, "{share}");
+    // Without a conductivity, its uncertainty is refused, naming it.
+    let o = run_travertine(
+        &[
+            "solve",
+            "--temperature",
+            "18",
+            "--salinity",
+            "0.2",
+            "--ph",
+            "7.4",
+            "--alkalinity",
+            "150 mg/L CaCO3",
+            "--uncertainty",
+            "conductivity=5%",
+        ],
+        None,
+    );
+    assert!(!o.status.success());
+    let e = String::from_utf8_lossy(&o.stderr);
+    assert!(e.contains("conductivity"), "{e}");
+}
+
+/// The sheet reads a `specific_conductance_us_cm_u` column in the unit of
+/// its value column, and gives what the solve command gives.
+#[test]
+fn sheet_specific_conductance_u_column_equals_the_solve_command() {
+    let csv = "site,temperature_c,ph_nbs,alkalinity_mg_l_caco3,specific_conductance_us_cm,\
+               specific_conductance_us_cm_u\n\
+               Fennel pond,18,7.4,150,420,21\n";
+    let (rows, _) = sheet_rows(csv, &["--columns", COMPARED, "--no-constant-uncertainty"]);
+    let solved = fennel_solve(&[
+        "--conductivity",
+        "420 uS/cm@25C",
+        "--uncertainty",
+        "conductivity=5%",
+        "--no-constant-uncertainty",
+    ]);
+    assert_same_u(&rows[0], &solved);
+    assert!(rows[0]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+}

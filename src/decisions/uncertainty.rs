@@ -7,7 +7,8 @@
 //!   air over it), solved by the one shared solver of [`crate::flow`].
 //! - [`Uncertainties`] gives the standard uncertainty of each [`Source`]:
 //!   an input of the list ([`Input`]: the two carbonate parameters,
-//!   temperature, salinity, calcium, the nutrient totals, the wind) or a
+//!   temperature, salinity or conductivity, a given ionic strength,
+//!   calcium, the nutrient totals, the wind) or a
 //!   constant ([`ConstantName`]), each absolute or relative ([`Size`]).
 //!   The constants take published defaults unless switched off
 //!   ([`Uncertainties::without_constants`]).
@@ -61,7 +62,7 @@ use crate::sample::air::Air;
 use crate::sample::inputs::{Input, Total};
 use crate::sample::measured::Measured;
 use crate::sample::water::{Medium, Water};
-use crate::sample::Conditions;
+use crate::sample::{Conditions, Conductivity};
 use crate::solve::{Near, SolveOptions};
 use crate::state::State;
 use rand::SeedableRng;
@@ -83,7 +84,9 @@ pub enum Size {
     /// In the unit of the source: pH units; µmol/kg (µmol/L for an amount
     /// given per litre) for the carbonate amounts, calcium and the
     /// nutrients; µatm for pCO2 and fCO2; ppm for xCO2; °C; practical
-    /// salinity; m/s for the wind. For a constant, in pK units, except the
+    /// salinity; µS/cm for a conductivity (at the sample temperature or at
+    /// 25 °C, as the reading was given); mol/kg for an ionic strength; m/s
+    /// for the wind. For a constant, in pK units, except the
     /// total boron, in µmol/kg.
     Absolute(f64),
     /// Per cent of the value (of K itself for a constant).
@@ -149,9 +152,29 @@ impl Source {
 
 /// The inputs whose uncertainty can be propagated (besides the two
 /// carbonate parameters of the pair, [`Input::Carbon`]).
+///
+/// The salinity, the conductivity and the ionic strength each count only
+/// where the water was described by them:
+/// - **salinity**: where it was given (not computed from a conductivity);
+/// - **conductivity**: where the water was made from a reading
+///   ([`Water::given_conductivity`]) that sets something: the salinity
+///   (none given beside it) or, in fresh water, the ionic strength by its
+///   specific conductance (Russell 1976). The moved reading goes through
+///   the program's one path ([`crate::sample::Conductivity::specific_and_salinity`]),
+///   so the salinity and the specific conductance follow it; a reading at
+///   the sample temperature also follows a moved temperature;
+/// - **ionic strength**: where a fresh water's ionic strength was given
+///   and is the one used (no major ions, conductivity or TDS beside it).
+///
+/// Elsewhere their uncertainty is refused with a typed error
+/// ([`Error::IncompatiblePair`] naming the uncertainty and the input that
+/// was given instead, or [`Error::Missing`]), rather than propagated as
+/// zero.
 pub const INPUT_SOURCES: &[Input] = &[
     Input::Temperature,
     Input::Salinity,
+    Input::Conductivity,
+    Input::IonicStrength,
     Input::Total(Total::Calcium),
     Input::Total(Total::Phosphate),
     Input::Total(Total::Silicate),
@@ -486,7 +509,66 @@ impl Problem {
                 })
             }
             Source::Input(Input::Temperature) => c.temperature_c(),
-            Source::Input(Input::Salinity) => c.salinity(),
+            Source::Input(Input::Salinity) => {
+                if water.given_conductivity().is_some_and(|g| g.sets_salinity) {
+                    return Err(Error::IncompatiblePair {
+                        first: Field::Uncertainty,
+                        second: Field::Salinity,
+                        reason: "the salinity was computed from the conductivity, so its \
+                                 uncertainty comes from the conductivity's: give that \
+                                 (conductivity=2% or conductivity=10uS/cm)",
+                    });
+                }
+                c.salinity()
+            }
+            Source::Input(Input::Conductivity) => {
+                let Some(given) = water.given_conductivity() else {
+                    return Err(Error::Missing {
+                        field: Field::Conductivity,
+                        why: "; an uncertainty of the conductivity needs a water described by a \
+                              conductivity reading: give the uncertainty of the salinity or \
+                              ionic strength it was described by instead",
+                    });
+                };
+                let sets_ionic_strength = water.medium() == Medium::Fresh
+                    && crate::medium::fresh::ionic::route(water)
+                        == crate::medium::IonicStrengthRoute::SpecificConductance;
+                if !given.sets_salinity && !sets_ionic_strength {
+                    return Err(Error::IncompatiblePair {
+                        first: Field::Uncertainty,
+                        second: Field::Conductivity,
+                        reason: "the conductivity sets nothing in this water (the salinity was \
+                                 given beside it, and the ionic strength comes from elsewhere): \
+                                 give the uncertainty of the salinity instead",
+                    });
+                }
+                given.reading.us_cm()
+            }
+            Source::Input(Input::IonicStrength) => {
+                let given = water.fresh_options().ionic_strength;
+                let used = water.medium() == Medium::Fresh
+                    && crate::medium::fresh::ionic::route(water)
+                        == crate::medium::IonicStrengthRoute::Given;
+                match given {
+                    Some(i) if used => i,
+                    Some(_) => {
+                        return Err(Error::IncompatiblePair {
+                            first: Field::Uncertainty,
+                            second: Field::IonicStrength,
+                            reason: "the ionic strength given is not the one used (the major \
+                                     ions, a conductivity or the TDS set it): give the \
+                                     uncertainty of what sets it",
+                        })
+                    }
+                    None => {
+                        return Err(Error::Missing {
+                            field: Field::IonicStrength,
+                            why: "; an uncertainty of the ionic strength needs a fresh water \
+                                  whose ionic strength was given (--ionic-strength)",
+                        })
+                    }
+                }
+            }
             Source::Input(Input::Wind) => self
                 .air
                 .as_ref()
@@ -519,6 +601,13 @@ impl Problem {
         let mut water_changed = false;
         let mut c = *base.conditions();
         let mut composition = *base.composition();
+        let mut fresh = *base.fresh_options();
+        // The conductivity reading, where the water was described by one,
+        // and whether it (or the temperature of a reading at the sample
+        // temperature) moved.
+        let given = base.given_conductivity();
+        let mut reading = given.map(|g| g.reading);
+        let mut reading_moved = false;
         let (mut a, mut b) = (self.a, self.b);
         let mut air = self.air;
         for &(source, d) in shifts {
@@ -534,10 +623,22 @@ impl Problem {
                 }
                 Source::Input(Input::Temperature) => {
                     c = c.with_temperature_c(c.temperature_c() + d)?;
+                    if matches!(reading, Some(Conductivity::AtTemperature { .. })) {
+                        reading_moved = true;
+                    }
                     water_changed = true;
                 }
                 Source::Input(Input::Salinity) => {
                     c = with_salinity(&c, c.salinity() + d)?;
+                    water_changed = true;
+                }
+                Source::Input(Input::Conductivity) => {
+                    reading = reading.map(|r| r.with_us_cm(r.us_cm() + d));
+                    reading_moved = true;
+                    water_changed = true;
+                }
+                Source::Input(Input::IonicStrength) => {
+                    fresh.ionic_strength = fresh.ionic_strength.map(|i| i + d);
                     water_changed = true;
                 }
                 Source::Input(Input::Wind) => {
@@ -560,9 +661,34 @@ impl Problem {
                 _ => {}
             }
         }
+        // A moved reading goes through the program's one path from a
+        // conductivity to a water, as `Sample::water` takes it.
+        let mut moved_spc = None;
+        if let (true, Some(r), Some(g)) = (reading_moved, reading, given) {
+            let (spc, s) = r.specific_and_salinity(c.temperature_c())?;
+            if g.sets_salinity {
+                c = with_salinity(&c, s)?;
+            }
+            if base.medium() == Medium::Fresh {
+                moved_spc = Some(spc);
+            }
+        }
         // The prepared water is copied only where something in it moves.
         let mut prepared = if water_changed {
-            Some(base.at(c)?.with_composition(composition).prepare()?)
+            let mut w = base
+                .at(c)?
+                .with_composition(composition)
+                .with_fresh_options(fresh);
+            if let Some(spc) = moved_spc {
+                w = w.with_specific_conductance_us_cm(spc)?;
+            }
+            if let Some(i) = fresh
+                .ionic_strength
+                .filter(|_| base.medium() == Medium::Fresh)
+            {
+                w = w.with_ionic_strength(i)?;
+            }
+            Some(w.prepare()?)
         } else {
             None
         };
@@ -760,6 +886,8 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
         let scale = match input {
             Input::Carbon(crate::sample::measured::Parameter::Ph) => 1.0,
             Input::Temperature => 10.0,
+            // Ionic strengths are far below 1 mol/kg: the value itself.
+            Input::IonicStrength => x.abs().max(1e-6),
             _ => x.abs().max(1.0),
         };
         out.push((source, size.of(x), scale));

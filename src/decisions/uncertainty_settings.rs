@@ -11,7 +11,9 @@
 //! - **VALUE** is relative, `2%` (of the value; of K itself for a
 //!   constant), or absolute in one of the input's own units: a pH in pH
 //!   units (`0.01`), a temperature in °C (`0.1`, or `0.2 °F` as a
-//!   difference), a salinity as a plain number, an amount with its unit
+//!   difference), a salinity as a plain number, a conductivity with its
+//!   unit (`10uS/cm`, `0.01 mS/cm`; µS/cm@25C too, the same size), an
+//!   ionic strength in mol/kg (`0.0005`, or `0.5 mmol/kg`), an amount with its unit
 //!   (`2umol/kg`, `1 mg/L CaCO3`, `0.05 mg/L N`), a gas in µatm, atm, Pa or
 //!   kPa, the wind in m/s or km/h, a constant in pK units, the total boron
 //!   with its unit (`4 umol/kg`).
@@ -34,6 +36,7 @@ use crate::decisions::uncertainty::{Size, Source, Uncertainties, INPUT_SOURCES};
 use crate::medium::ConstantName;
 use crate::sample::inputs::{Input, Total, INPUTS};
 use crate::sample::measured::{Measured, MeasuredValue, Parameter};
+use crate::sample::values::{Conductivity, CONDUCTIVITY_UNITS};
 use thiserror::Error;
 
 /// A setting that cannot be read or used. Each variant names the setting
@@ -230,6 +233,12 @@ impl Target {
             Target::Input(Input::Total(t)) => list_units(&t.units()),
             Target::Input(Input::Temperature) => "°C (a plain number), K, °F".into(),
             Target::Input(Input::Salinity) => "practical salinity (a plain number)".into(),
+            Target::Input(Input::Conductivity) => format!(
+                "{} (a unit is needed; the uncertainty is in the reading's own terms, at the \
+                 sample temperature or at 25 °C as it was given)",
+                list_units(&CONDUCTIVITY_UNITS)
+            ),
+            Target::Input(Input::IonicStrength) => "mol/kg (a plain number), mmol/kg".into(),
             Target::Input(Input::Wind) => "m/s (a plain number), km/h".into(),
             Target::Input(_) => "a plain number".into(),
             Target::Constant(ConstantName::BoronTotal) => {
@@ -505,6 +514,15 @@ fn absolute(target: Target, number: f64, unit: &str, whole: &str) -> Option<Amou
                 _ => return None,
             }
         }
+        Target::Input(Input::Conductivity) => {
+            // µS/cm whichever unit: the @25C spellings name the same size.
+            Amountish::Number(Conductivity::from_quantity(quantity(&CONDUCTIVITY_UNITS)?).us_cm())
+        }
+        Target::Input(Input::IonicStrength) => match unit.to_lowercase().as_str() {
+            "" | "mol/kg" => Amountish::Number(number),
+            "mmol/kg" => Amountish::Number(number * 1e-3),
+            _ => return None,
+        },
         Target::Input(Input::Wind) if plain => Amountish::Number(number),
         Target::Input(Input::Wind) => {
             Amountish::Number(number * Input::Wind.number_unit(unit)?.to_base)
@@ -638,6 +656,22 @@ mod tests {
         );
         assert!(
             matches!(setting("boron_total=4umol/kg").value(), Amountish::Number(v) if (v - 4.0).abs() < 1e-12)
+        );
+        // A conductivity in µS/cm whichever unit; a unit is needed.
+        assert_eq!(
+            setting("conductivity=10uS/cm").value(),
+            Amountish::Number(10.0)
+        );
+        assert!(
+            matches!(setting("specific_conductance_us_cm=0.02 mS/cm@25C").value(), Amountish::Number(v) if (v - 20.0).abs() < 1e-12)
+        );
+        assert_eq!(setting("conductivity=5%").value(), Amountish::Percent(5.0));
+        assert_eq!(
+            "conductivity=10".parse::<Setting>().unwrap_err().code(),
+            "uncertainty_bad_value"
+        );
+        assert!(
+            matches!(setting("ionic-strength=0.5 mmol/kg").value(), Amountish::Number(v) if (v - 5e-4).abs() < 1e-15)
         );
     }
 

@@ -99,6 +99,8 @@ fn input_unit(input: Input, per_litre: bool) -> &'static str {
         Input::Carbon(_) | Input::Total(_) => "µmol/kg",
         Input::Temperature => "°C",
         Input::Wind => "m/s",
+        Input::Conductivity => "µS/cm",
+        Input::IonicStrength => "mol/kg",
         _ => "",
     }
 }

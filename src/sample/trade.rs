@@ -8,7 +8,6 @@ use crate::base::units::{list_units, Amount, Quantity, Unit, CACO3_G_MOL, MOLAR_
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::{BisulfateFit, BoronTotalFit, CarbonicFit, Fits, FluorideFit, GasTransfer};
 use crate::properties::activity::ActivityModel;
-use crate::properties::conductivity::{salinity_from_conductivity, specific_conductance_us_cm};
 use crate::properties::density::pressure_dbar_at_depth;
 use crate::properties::scales::PhScale;
 use crate::sample::conditions::Conditions;
@@ -686,21 +685,8 @@ impl Sample {
         let mut salinity = self.salinity;
         let mut cautions = Warnings::new();
         if let Some(c) = self.conductivity {
-            let (at_t, specific) = match c {
-                Conductivity::AtTemperature { us_cm } => {
-                    (us_cm, specific_conductance_us_cm(us_cm, t)?)
-                }
-                Conductivity::Specific { us_cm } => {
-                    check_range(Field::Conductivity, us_cm, 0.0, 100_000.0, " µS/cm")?;
-                    (us_cm, us_cm)
-                }
-            };
+            let (specific, from_conductivity) = c.specific_and_salinity(t)?;
             spc = Some(specific);
-            let (c_val, t_val) = match c {
-                Conductivity::AtTemperature { .. } => (at_t, t),
-                Conductivity::Specific { .. } => (specific, 25.0),
-            };
-            let from_conductivity = salinity_from_conductivity(c_val, t_val, 0.0)?;
             match salinity {
                 None => {
                     salinity = Some(from_conductivity);
@@ -984,6 +970,9 @@ impl Sample {
             .with_fits(fits)
             .with_composition(comp)
             .with_input_cautions(cautions);
+        if let Some(c) = self.conductivity {
+            water = water.with_given_conductivity(c, self.salinity.is_none());
+        }
         if fresh {
             if let Some(m) = self.activity {
                 water = water.with_activity_model(m);

@@ -132,6 +132,81 @@ impl Conductivity {
     }
 }
 
+impl Conductivity {
+    /// The reading, µS/cm (at the sample temperature or at 25 °C, as given).
+    ///
+    /// ```
+    /// # use travertine::sample::values::Conductivity;
+    /// assert_eq!(Conductivity::parse("0.41 mS/cm")?.us_cm(), 410.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn us_cm(self) -> f64 {
+        match self {
+            Conductivity::AtTemperature { us_cm } | Conductivity::Specific { us_cm } => us_cm,
+        }
+    }
+
+    /// The same kind of reading with another value, µS/cm.
+    ///
+    /// ```
+    /// # use travertine::sample::values::Conductivity;
+    /// let c = Conductivity::Specific { us_cm: 350.0 }.with_us_cm(360.0);
+    /// assert_eq!(c, Conductivity::Specific { us_cm: 360.0 });
+    /// ```
+    #[must_use]
+    pub fn with_us_cm(self, us_cm: f64) -> Self {
+        match self {
+            Conductivity::AtTemperature { .. } => Conductivity::AtTemperature { us_cm },
+            Conductivity::Specific { .. } => Conductivity::Specific { us_cm },
+        }
+    }
+
+    /// What the reading gives a water at `temperature_c`: its specific
+    /// conductance at 25 °C (µS/cm) and its practical salinity. A reading
+    /// at the sample temperature is compensated to 25 °C linearly
+    /// ([`specific_conductance_us_cm`]) and turned into salinity at that
+    /// temperature; a specific conductance is turned into salinity at
+    /// 25 °C ([`salinity_from_conductivity`], PSS-78 with the Hill et al.
+    /// 1986 extension), both at 0 dbar. This is the one path from a
+    /// conductivity to a water ([`crate::sample::Sample::water`] and the
+    /// propagation of its uncertainty alike).
+    ///
+    /// # Errors
+    /// As [`specific_conductance_us_cm`] and [`salinity_from_conductivity`].
+    ///
+    /// ```
+    /// # use travertine::sample::values::Conductivity;
+    /// // 42.914 mS/cm at 15 °C is salinity 35 (UNESCO 1983 / TEOS-10 check value).
+    /// let (spc, s) = Conductivity::AtTemperature { us_cm: 42914.0 }.specific_and_salinity(15.0)?;
+    /// assert!((s - 34.9968).abs() < 1e-3 && spc > 42914.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    ///
+    /// [`specific_conductance_us_cm`]: crate::properties::conductivity::specific_conductance_us_cm
+    /// [`salinity_from_conductivity`]: crate::properties::conductivity::salinity_from_conductivity
+    pub fn specific_and_salinity(self, temperature_c: f64) -> Result<(f64, f64)> {
+        use crate::properties::conductivity::{
+            salinity_from_conductivity, specific_conductance_us_cm,
+        };
+        match self {
+            Conductivity::AtTemperature { us_cm } => {
+                let spc = specific_conductance_us_cm(us_cm, temperature_c)?;
+                Ok((spc, salinity_from_conductivity(us_cm, temperature_c, 0.0)?))
+            }
+            Conductivity::Specific { us_cm } => {
+                crate::base::error::check_range(
+                    Field::Conductivity,
+                    us_cm,
+                    0.0,
+                    100_000.0,
+                    " µS/cm",
+                )?;
+                Ok((us_cm, salinity_from_conductivity(us_cm, 25.0, 0.0)?))
+            }
+        }
+    }
+}
+
 /// The reading as written in messages: `410 uS/cm`, or `350 uS/cm@25C`
 /// for specific conductance.
 ///

@@ -7,6 +7,7 @@ use crate::fits::Fits;
 use crate::properties::activity::ActivityModel;
 use crate::sample::composition::Composition;
 use crate::sample::conditions::Conditions;
+use crate::sample::values::Conductivity;
 use serde::Serialize;
 
 /// The ionic medium a set of constants is fitted to.
@@ -107,6 +108,32 @@ pub struct Water {
     /// a conductivity that disagree), passed on to every state solved.
     #[serde(skip)]
     input_cautions: Warnings,
+    /// The conductivity the water was described by, where it was.
+    #[serde(skip)]
+    conductivity: Option<GivenConductivity>,
+}
+
+/// The conductivity reading a water was described by
+/// ([`Water::given_conductivity`]): the reading as given, and whether it
+/// set the salinity (no salinity was given beside it). In fresh water it
+/// also sets the specific conductance of [`FreshOptions`].
+///
+/// ```
+/// use travertine::sample::{inputs::Input, Sample};
+/// let mut s = Sample::new(12.0);
+/// s.set(Input::Conductivity, "420 uS/cm")?;
+/// let given = s.water()?.given_conductivity().unwrap();
+/// assert_eq!(given.reading.us_cm(), 420.0);
+/// assert!(given.sets_salinity);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq)]
+#[non_exhaustive]
+pub struct GivenConductivity {
+    /// The reading, at the sample temperature or at 25 °C.
+    pub reading: Conductivity,
+    /// Whether the salinity was computed from it.
+    pub sets_salinity: bool,
 }
 
 /// Settings of the fresh medium: the activity model and the sources of the
@@ -162,6 +189,7 @@ impl Water {
             fits: Fits::default(),
             fresh: FreshOptions::default(),
             input_cautions: Warnings::new(),
+            conductivity: None,
         })
     }
 
@@ -194,6 +222,7 @@ impl Water {
             fits: Fits::default(),
             fresh: FreshOptions::default(),
             input_cautions: Warnings::new(),
+            conductivity: None,
         })
     }
 
@@ -353,6 +382,7 @@ impl Water {
         w.composition = self.composition;
         w.fits = self.fits;
         w.fresh = self.fresh;
+        w.conductivity = self.conductivity;
         Ok(w)
     }
 
@@ -406,6 +436,35 @@ impl Water {
     pub(crate) fn with_input_cautions(mut self, cautions: Warnings) -> Self {
         self.input_cautions = cautions;
         self
+    }
+
+    /// As described by a conductivity `reading` ([`GivenConductivity`]);
+    /// the salinity and specific conductance it gave are set by the caller.
+    #[must_use]
+    pub(crate) fn with_given_conductivity(
+        mut self,
+        reading: Conductivity,
+        sets_salinity: bool,
+    ) -> Self {
+        self.conductivity = Some(GivenConductivity {
+            reading,
+            sets_salinity,
+        });
+        self
+    }
+
+    /// The conductivity this water was described by, where it was (a water
+    /// made by [`crate::sample::Sample::water`] from a conductivity reading); the
+    /// propagation of uncertainty moves it
+    /// ([`crate::decisions::uncertainty`]).
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Water};
+    /// assert!(Water::saline(Conditions::new(25.0, 35.0)?)?.given_conductivity().is_none());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn given_conductivity(&self) -> Option<GivenConductivity> {
+        self.conductivity
     }
 
     /// Cautions about the inputs this water was made from, such as a

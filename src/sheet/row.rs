@@ -733,6 +733,12 @@ fn cell_setting(
                 Ok(x) => format!("{}", x * scale),
                 Err(_) => text,
             },
+            // In µS/cm, at the sample temperature or at 25 °C as the
+            // column's readings are.
+            Reading::Conductivity { scale, .. } => match text.parse::<f64>() {
+                Ok(x) => format!("{} uS/cm", x * scale),
+                Err(_) => text,
+            },
             _ => text,
         }
     };
