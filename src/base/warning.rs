@@ -321,9 +321,23 @@ impl Serialize for Warning {
 /// assert!(json[0]["message"].as_str().unwrap().contains("also fits"));
 /// # Ok::<(), travertine::Error>(())
 /// ```
-#[derive(Debug, Clone, PartialEq, Default)]
+#[derive(Debug, PartialEq, Default)]
 #[non_exhaustive]
 pub struct Warnings(SmallVec<[Warning; 1]>);
+
+// By hand for the common case, no caution: `SmallVec`'s own clone goes
+// through an iterator even when empty, a few hundred instructions paid by
+// every clone of a `Water` (each `State` holds one), which the propagation
+// of uncertainties makes once per source.
+impl Clone for Warnings {
+    fn clone(&self) -> Self {
+        if self.0.is_empty() {
+            Warnings::new()
+        } else {
+            Warnings(self.0.clone())
+        }
+    }
+}
 
 impl Warnings {
     /// No cautions.
