@@ -348,19 +348,28 @@ pub(super) fn panel(area: &Area<'_>, p: &Panel) -> Result<(), ChartError> {
         }
         (Scale::Linear(x0, x1), Scale::Log(y0, y1)) => {
             let chart = builder
-                .build_cartesian_2d(x0..x1, (y0..y1).log_scale())
+                .build_cartesian_2d(
+                    x0..x1,
+                    (y0..y1).log_scale().with_key_points(log_ticks(y0, y1)),
+                )
                 .map_err(drawing)?;
             fill(chart, p)
         }
         (Scale::Log(x0, x1), Scale::Linear(y0, y1)) => {
             let chart = builder
-                .build_cartesian_2d((x0..x1).log_scale(), y0..y1)
+                .build_cartesian_2d(
+                    (x0..x1).log_scale().with_key_points(log_ticks(x0, x1)),
+                    y0..y1,
+                )
                 .map_err(drawing)?;
             fill(chart, p)
         }
         (Scale::Log(x0, x1), Scale::Log(y0, y1)) => {
             let chart = builder
-                .build_cartesian_2d((x0..x1).log_scale(), (y0..y1).log_scale())
+                .build_cartesian_2d(
+                    (x0..x1).log_scale().with_key_points(log_ticks(x0, x1)),
+                    (y0..y1).log_scale().with_key_points(log_ticks(y0, y1)),
+                )
                 .map_err(drawing)?;
             fill(chart, p)
         }
@@ -656,6 +665,27 @@ pub(super) fn linear_over(
     Scale::Linear(mid - half, mid + half)
 }
 
+/// The ticks of a log axis from `lo` to `hi`: 1, 2 and 5 times each power
+/// of ten inside it (plotters alone marks the powers of ten only, which
+/// leaves an axis of a decade or so with a single label).
+pub(super) fn log_ticks(lo: f64, hi: f64) -> Vec<f64> {
+    let mut out = Vec::new();
+    if !(lo > 0.0 && hi > lo && lo.is_finite() && hi.is_finite()) {
+        return out;
+    }
+    let first = lo.log10().floor() as i32;
+    let last = hi.log10().ceil() as i32;
+    for k in first..=last.min(first + 12) {
+        for m in [1.0, 2.0, 5.0] {
+            let v = m * 10f64.powi(k);
+            if v >= lo && v <= hi {
+                out.push(v);
+            }
+        }
+    }
+    out
+}
+
 /// A log scale over the positive `values`, a little beyond them (at least
 /// 1.2 decades wide), or `fallback`.
 pub(super) fn log_over(values: impl Iterator<Item = f64>, fallback: (f64, f64)) -> Scale {
@@ -690,6 +720,15 @@ mod tests {
         assert_eq!(days_from_civil(1970, 1, 1), 0);
         // 2000-03-01 is day 11017 since 1970-01-01 (common practice: Unix time 951868800 / 86400).
         assert_eq!(days_from_civil(2000, 3, 1), 11017);
+    }
+
+    #[test]
+    fn log_ticks_are_one_two_five() {
+        assert_eq!(
+            log_ticks(300.0, 6000.0),
+            vec![500.0, 1000.0, 2000.0, 5000.0]
+        );
+        assert!(log_ticks(-1.0, 10.0).is_empty());
     }
 
     #[test]
