@@ -91,6 +91,16 @@ enum Prepared {
     Fresh(FreshBasis),
 }
 
+impl Prepared {
+    /// Borrowed, for a solve.
+    fn basis(&self) -> Basis<'_> {
+        match self {
+            Prepared::Saline(k) => Basis::Saline(k),
+            Prepared::Fresh(b) => Basis::Fresh(b),
+        }
+    }
+}
+
 /// A water with its constants evaluated, ready to solve any number of
 /// measured pairs. It cannot be given another water's constants: it makes
 /// its own. It is `Send + Sync`, so one prepared water can serve many
@@ -340,11 +350,7 @@ impl PreparedWater {
         options: &SolveOptions,
         near: &Near,
     ) -> Result<State> {
-        let basis = match &self.prepared {
-            Prepared::Saline(k) => Basis::Saline(k),
-            Prepared::Fresh(b) => Basis::Fresh(b),
-        };
-        solve_lean(&self.water, basis, a, b, options, near)
+        solve_lean(&self.water, self.prepared.basis(), a, b, options, near)
     }
 
     /// As [`PreparedWater::solve_lean`], in this water with constant
@@ -438,11 +444,7 @@ impl PreparedWater {
         options: &SolveOptions,
         near: &Near,
     ) -> Result<State> {
-        let basis = match &self.prepared {
-            Prepared::Saline(k) => Basis::Saline(k),
-            Prepared::Fresh(b) => Basis::Fresh(b),
-        };
-        solve_in(&self.water, basis, a, b, options, near)
+        solve_in(&self.water, self.prepared.basis(), a, b, options, near)
     }
 }
 

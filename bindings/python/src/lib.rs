@@ -707,55 +707,23 @@ fn library_loop<'py>(
     let a = alkalinity_umol_kg.as_slice().map_err(value_error)?;
     let p = ph_total.as_slice().map_err(value_error)?;
     let n = t.len();
-    let outputs: Vec<Output> = keys
-        .iter()
-        .map(|k| Output::from_key(k).ok_or_else(|| value_error(format!("no output `{k}`"))))
-        .collect::<PyResult<_>>()?;
-    let mut columns: Vec<Vec<f64>> = outputs.iter().map(|_| vec![f64::NAN; n]).collect();
-    py.detach(|| {
-        let mut chunks: Vec<_> = columns.iter_mut().map(|c| c.chunks_mut(TASK)).collect();
-        let tasks: Vec<(usize, Vec<&mut [f64]>)> = (0..n.div_ceil(TASK))
-            .map(|k| {
-                (
-                    k * TASK,
-                    chunks.iter_mut().filter_map(Iterator::next).collect(),
+    library_columns(py, n, &keys, |i| {
+        Conditions::new(t[i], s[i])
+            .and_then(Water::saline)
+            .and_then(|w| {
+                w.solve(
+                    Measured::alkalinity_umol_kg(a[i])?,
+                    Measured::ph(p[i], Some(PhScale::Total))?,
                 )
             })
-            .collect();
-        tasks.into_par_iter().for_each(|(start, mut out)| {
-            let len = out.first().map_or(0, |c| c.len());
-            for k in 0..len {
-                let i = start + k;
-                let solved = Conditions::new(t[i], s[i])
-                    .and_then(Water::saline)
-                    .and_then(|w| {
-                        w.solve(
-                            Measured::alkalinity_umol_kg(a[i])?,
-                            Measured::ph(p[i], Some(PhScale::Total))?,
-                        )
-                    })
-                    .and_then(|state| {
-                        if exchange {
-                            state.with_exchange(&travertine::sample::Air::new(), None)
-                        } else {
-                            Ok(state)
-                        }
-                    });
-                if let Ok(state) = solved {
-                    for (column, o) in out.iter_mut().zip(&outputs) {
-                        if let Value::Number(Some(v)) = o.value(&state) {
-                            column[k] = v;
-                        }
-                    }
+            .and_then(|state| {
+                if exchange {
+                    state.with_exchange(&travertine::sample::Air::new(), None)
+                } else {
+                    Ok(state)
                 }
-            }
-        });
-    });
-    let dict = PyDict::new(py);
-    for (k, c) in keys.iter().zip(columns) {
-        dict.set_item(k, PyArray1::from_vec(py, c))?;
-    }
-    Ok(dict)
+            })
+    })
 }
 
 /// The library's own loop over fresh rows with calcium, for the benchmark
@@ -783,6 +751,42 @@ fn library_loop_fresh<'py>(
     let p = ph_nbs.as_slice().map_err(value_error)?;
     let ca = calcium_mg_l.as_slice().map_err(value_error)?;
     let n = t.len();
+    library_columns(py, n, &keys, |i| {
+        (|| {
+            let calcium = Amount::from_quantity(
+                Quantity::new(ca[i], Unit::MgPerLCa),
+                Unit::MgPerLCa,
+                CA_G_MOL,
+            )
+            .ok_or(travertine::Error::Missing {
+                field: travertine::base::field::Field::Calcium,
+                why: "",
+            })?;
+            let water = Water::fresh(Conditions::new(t[i], 0.0)?)?
+                .with_specific_conductance_us_cm(c[i])?
+                .with_composition(Composition::default().with_calcium(calcium)?);
+            let state = water.solve(
+                Measured::new(
+                    Parameter::Alkalinity,
+                    Quantity::new(a[i], Unit::MgPerLCaCO3),
+                )?,
+                Measured::ph(p[i], None)?,
+            )?;
+            state.with_exchange(&travertine::sample::Air::new(), None)
+        })()
+    })
+}
+
+/// The numeric outputs `keys` of `n` rows solved by `row` (its index in,
+/// a state or an error out), in parallel without the GIL, as arrays (NaN
+/// where a row failed): the scaffold of the library's own loops of the
+/// benchmark.
+fn library_columns<'py>(
+    py: Python<'py>,
+    n: usize,
+    keys: &[String],
+    row: impl Fn(usize) -> travertine::Result<travertine::State> + Sync,
+) -> PyResult<Bound<'py, PyDict>> {
     let outputs: Vec<Output> = keys
         .iter()
         .map(|k| Output::from_key(k).ok_or_else(|| value_error(format!("no output `{k}`"))))
@@ -802,28 +806,7 @@ fn library_loop_fresh<'py>(
             let len = out.first().map_or(0, |c| c.len());
             for k in 0..len {
                 let i = start + k;
-                let solved = (|| {
-                    let calcium = Amount::from_quantity(
-                        Quantity::new(ca[i], Unit::MgPerLCa),
-                        Unit::MgPerLCa,
-                        CA_G_MOL,
-                    )
-                    .ok_or(travertine::Error::Missing {
-                        field: travertine::base::field::Field::Calcium,
-                        why: "",
-                    })?;
-                    let water = Water::fresh(Conditions::new(t[i], 0.0)?)?
-                        .with_specific_conductance_us_cm(c[i])?
-                        .with_composition(Composition::default().with_calcium(calcium)?);
-                    let state = water.solve(
-                        Measured::new(
-                            Parameter::Alkalinity,
-                            Quantity::new(a[i], Unit::MgPerLCaCO3),
-                        )?,
-                        Measured::ph(p[i], None)?,
-                    )?;
-                    state.with_exchange(&travertine::sample::Air::new(), None)
-                })();
+                let solved = row(i);
                 if let Ok(state) = solved {
                     for (column, o) in out.iter_mut().zip(&outputs) {
                         if let Value::Number(Some(v)) = o.value(&state) {
