@@ -3,9 +3,18 @@
 //! issue's target is at most 10.
 //!
 //! For each water and pair, measured back to back:
-//! - `<water>/<pair>/plain_solve`: [`PreparedWater::solve`] of the pair;
+//! - `<water>/<pair>/plain_solve`: [`PreparedWater::solve`] of the pair,
+//!   the constants already made;
 //! - `<water>/<pair>/linear_pair_only`: [`propagate`] with the
 //!   uncertainties of the two measured parameters alone, constants off;
+//! - `<water>/<pair>/plain_solve_from_water`: [`Water::solve`], as a
+//!   caller with a sample solves it (the constants made for it);
+//! - `<water>/<pair>/linear_default_from_water`: [`Problem::new`] and
+//!   [`propagate`] of pCO2 with the realistic default setup (below), as a
+//!   caller with a sample propagates it;
+//! - `<water>/<pair>/linear_default_every_output`: [`Problem::new`] and
+//!   [`outputs_propagated`], every numeric output (as `solve --json
+//!   --uncertainty` and the sheet's `_u` columns), the same setup;
 //! - `<water>/<pair>/linear_default`: [`propagate`] with the realistic
 //!   default setup: the two measured parameters, temperature (0.1 °C), in
 //!   sea water salinity (0.01), in the pond salinity (the route of its
@@ -22,6 +31,8 @@
 //! outputs from each perturbed state is that of the reading).
 //!
 //! [`PreparedWater::solve`]: travertine::PreparedWater::solve
+//! [`Water::solve`]: travertine::Water::solve
+//! [`outputs_propagated`]: travertine::output::uncertainty::outputs_propagated
 //! [`SALINE_DEFAULTS`]: travertine::decisions::uncertainty::SALINE_DEFAULTS
 //! [`FRESH_DEFAULTS`]: travertine::decisions::uncertainty::FRESH_DEFAULTS
 
@@ -29,6 +40,7 @@ use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
 use std::time::Duration;
 use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
+use travertine::output::uncertainty::outputs_propagated;
 use travertine::sample::inputs::{Input, Total};
 use travertine::units::Amount;
 use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
@@ -105,12 +117,41 @@ fn bench(c: &mut Criterion) {
             });
             group.bench_function(format!("{name}/{pair}/linear_pair_only"), |bench| {
                 bench.iter(|| {
-                    black_box(propagate(&problem, &only, |s| vec![Some(s.pco2_uatm)]).unwrap())
+                    black_box(
+                        propagate(&problem, &only, |s, out| out.push(Some(s.pco2_uatm))).unwrap(),
+                    )
                 })
             });
+            group.bench_function(format!("{name}/{pair}/plain_solve_from_water"), |bench| {
+                bench.iter(|| black_box(black_box(&water).solve(black_box(a), b).unwrap()))
+            });
+            group.bench_function(
+                format!("{name}/{pair}/linear_default_from_water"),
+                |bench| {
+                    bench.iter(|| {
+                        let problem = Problem::new(black_box(&water), a, b).unwrap();
+                        black_box(
+                            propagate(&problem, &default, |s, out| out.push(Some(s.pco2_uatm)))
+                                .unwrap(),
+                        )
+                    })
+                },
+            );
+            group.bench_function(
+                format!("{name}/{pair}/linear_default_every_output"),
+                |bench| {
+                    bench.iter(|| {
+                        let problem = Problem::new(black_box(&water), a, b).unwrap();
+                        black_box(outputs_propagated(&problem, &default).unwrap())
+                    })
+                },
+            );
             group.bench_function(format!("{name}/{pair}/linear_default"), |bench| {
                 bench.iter(|| {
-                    black_box(propagate(&problem, &default, |s| vec![Some(s.pco2_uatm)]).unwrap())
+                    black_box(
+                        propagate(&problem, &default, |s, out| out.push(Some(s.pco2_uatm)))
+                            .unwrap(),
+                    )
                 })
             });
         }

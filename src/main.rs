@@ -144,7 +144,7 @@ fn chart_ph_uncertainty(
     let problem = Problem::new(&solved.water, a, b)
         .map(|p| p.with_options(options))
         .map_err(at_flag(&solved.pair_flags))?;
-    let p = propagate(&problem, &sources, |s| vec![Some(s.ph(scale))])
+    let p = propagate(&problem, &sources, |s, out| out.push(Some(s.ph(scale))))
         .map_err(at_flag("--uncertainty"))?;
     Ok(p.outputs.first().and_then(|o| o.u))
 }

@@ -502,7 +502,7 @@ fn the_band_can_come_from_the_propagated_uncertainty() {
     let u = Uncertainties::new()
         .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.015))
         .unwrap();
-    let p = propagate(&problem, &u, |s| vec![Some(s.ph(PhScale::Total))]).unwrap();
+    let p = propagate(&problem, &u, |s, out| out.push(Some(s.ph(PhScale::Total)))).unwrap();
     let u_ph = p.outputs[0].u.unwrap();
     // pH measured on the chart's scale: its uncertainty is the input's.
     assert!((u_ph - 0.015).abs() < 1e-6, "{u_ph}");

@@ -44,10 +44,10 @@
 //! let u = Uncertainties::new()
 //!     .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))?
 //!     .with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0))?;
-//! let p = propagate(&problem, &u, |s| vec![Some(s.pco2_uatm)])?;
+//! let p = propagate(&problem, &u, |s, out| out.push(Some(s.pco2_uatm)))?;
 //! let pco2 = &p.outputs[0];
 //! assert!(pco2.u.unwrap() > 0.02 * pco2.value.unwrap()); // more than 2 %
-//! let shares: f64 = pco2.budget(&p.sources).iter().map(|(_, f)| f).sum();
+//! let shares: f64 = p.budget(0).iter().map(|(_, f)| f).sum();
 //! assert!((shares - 1.0).abs() < 1e-12);
 //! # Ok::<(), travertine::Error>(())
 //! ```
@@ -755,17 +755,25 @@ impl Problem {
         })
     }
 
-    /// The state with one source moved by `d`, for a derivative: as
-    /// [`Problem::realise`], but lean where no air is over the water (every
+    /// The state with one source moved by `d`, for a derivative (`base`:
+    /// the unperturbed state): as [`Problem::realise`], but lean where no air is over the water (every
     /// number the same, no warnings: [`PreparedWater::solve_lean`]), and a
     /// constant perturbed in `scratch` rather than in a new prepared water.
     fn realise_one(
         &self,
         source: Source,
         d: f64,
+        base: &State,
         near: &Near,
         scratch: &mut Scratch,
     ) -> Result<State> {
+        if let (
+            Source::Constant(k @ (ConstantName::KspCalcite | ConstantName::KspAragonite)),
+            Medium::Saline,
+        ) = (source, base.medium)
+        {
+            return Ok(base.with_pksp_moved(k == ConstantName::KspAragonite, d));
+        }
         if self.air.is_some() {
             return self.realise(&[(source, d)], near);
         }
@@ -826,39 +834,20 @@ fn total_umol_kg(prepared: &PreparedWater, which: Total) -> f64 {
     total_of(prepared.totals(), which) * 1e6
 }
 
-/// The standard uncertainty of one quantity and what makes it up.
+/// The standard uncertainty of one quantity.
 ///
 /// ```
-/// use travertine::decisions::uncertainty::{Propagated, Source};
-/// use travertine::sample::inputs::Input;
-/// let p = Propagated { value: Some(10.0), u: Some(5.0), contributions: vec![3.0, 4.0] };
-/// let sources = [(Source::Input(Input::Temperature), 0.1), (Source::Input(Input::Salinity), 0.01)];
-/// let b = p.budget(&sources);
-/// assert!((b[0].1 - 0.36).abs() < 1e-15 && (b[1].1 - 0.64).abs() < 1e-15);
+/// use travertine::decisions::uncertainty::Propagated;
+/// let p = Propagated { value: Some(10.0), u: Some(5.0) };
+/// assert_eq!(p.u, Some(5.0));
 /// ```
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Propagated {
     /// The value, unperturbed (`None` where the state has none).
     pub value: Option<f64>,
     /// The standard uncertainty (`None` where there is no value, or where
     /// the quantity disappears on both sides of a source's step).
     pub u: Option<f64>,
-    /// For each source (in the order of [`Propagation::sources`]), its
-    /// sensitivity times its standard uncertainty, with its sign.
-    pub contributions: Vec<f64>,
-}
-
-impl Propagated {
-    /// Each source's share of the variance, u_i² / u²; the shares sum to 1
-    /// where the variance is above zero, and are all zero where it is zero.
-    pub fn budget(&self, sources: &[(Source, f64)]) -> Vec<(Source, f64)> {
-        let var: f64 = self.contributions.iter().map(|c| c * c).sum();
-        sources
-            .iter()
-            .zip(&self.contributions)
-            .map(|((s, _), c)| (*s, if var > 0.0 { c * c / var } else { 0.0 }))
-            .collect()
-    }
 }
 
 /// The result of [`propagate`].
@@ -871,6 +860,64 @@ pub struct Propagation {
     pub sources: Vec<(Source, f64)>,
     /// One entry per quantity, in the order the quantities were given.
     pub outputs: Vec<Propagated>,
+    /// Each quantity's contributions (a row of `sources.len()` per
+    /// quantity, in the order of `outputs`).
+    contributions: Vec<f64>,
+}
+
+impl Propagation {
+    /// For quantity `k` (its place in [`Propagation::outputs`]), each
+    /// source's sensitivity times its standard uncertainty, with its sign,
+    /// in the order of [`Propagation::sources`]; empty for a `k` beyond the
+    /// quantities. u² is the sum of their squares.
+    ///
+    /// ```
+    /// use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
+    /// use travertine::sample::inputs::Input;
+    /// use travertine::{Conditions, Measured, Parameter, Water};
+    /// let pond = Water::fresh(Conditions::new(15.0, 0.2)?)?;
+    /// let p = Problem::new(&pond, Measured::ph(7.5, None)?, Measured::alkalinity_umol_kg(1200.0)?)?;
+    /// let u = Uncertainties::new().with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.02))?;
+    /// let r = propagate(&p, &u, |s, out| out.push(Some(s.pco2_uatm)))?;
+    /// let c = r.contributions(0);
+    /// let u2: f64 = c.iter().map(|c| c * c).sum();
+    /// assert!((u2.sqrt() - r.outputs[0].u.unwrap()).abs() < 1e-12 * u2.sqrt());
+    /// assert!(r.contributions(1).is_empty());
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn contributions(&self, k: usize) -> &[f64] {
+        let m = self.sources.len();
+        self.contributions
+            .get(k * m..(k + 1) * m)
+            .filter(|_| k < self.outputs.len())
+            .unwrap_or(&[])
+    }
+
+    /// Each source's share of the variance of quantity `k`, u_i² / u²; the
+    /// shares sum to 1 where the variance is above zero, and are all zero
+    /// where it is zero.
+    ///
+    /// ```
+    /// use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
+    /// use travertine::sample::inputs::Input;
+    /// use travertine::{Conditions, Measured, Parameter, PhScale, Water};
+    /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let p = Problem::new(&sea, Measured::ph(8.05, Some(PhScale::Total))?, Measured::alkalinity_umol_kg(2300.0)?)?;
+    /// let u = Uncertainties::new().with_input(Input::Temperature, Size::Absolute(0.1))?;
+    /// let r = propagate(&p, &u, |s, out| out.push(Some(s.pco2_uatm)))?;
+    /// let shares: f64 = r.budget(0).iter().map(|(_, f)| f).sum();
+    /// assert!((shares - 1.0).abs() < 1e-12);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn budget(&self, k: usize) -> Vec<(Source, f64)> {
+        let c = self.contributions(k);
+        let var: f64 = c.iter().map(|c| c * c).sum();
+        self.sources
+            .iter()
+            .zip(c)
+            .map(|((s, _), c)| (*s, if var > 0.0 { c * c / var } else { 0.0 }))
+            .collect()
+    }
 }
 
 /// Every source with its standard uncertainty in the coordinate that
@@ -928,87 +975,111 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
 const STEP: f64 = 1e-6;
 
 /// Linear (first-order) propagation: for each quantity `quantities` reads
-/// from a state, its standard uncertainty u = √Σ (∂y/∂x_i · u_i)² over the
-/// sources (taken as independent), each derivative a forward difference
-/// (y(x_i + h) − y(x_i))/h of the unperturbed state and one solve with the
-/// source moved by h = min(u_i, 10⁻⁶ × scale): the scale is 1 pH or pK
-/// unit, 10 °C, or the value itself (at least 1 in its unit). Each
-/// perturbed solve starts its searches from the unperturbed state's
-/// unknowns and builds its state without warnings (its numbers are those
-/// of a full solve); a constant is perturbed through its own method in a
-/// scratch copy of the constants. Where the step up cannot be solved (a
-/// value taken out of its range) or loses a quantity, the backward
-/// difference is used.
+/// from a state (appending them, in a fixed order, to the buffer it is
+/// given, which is empty), its standard uncertainty
+/// u = √Σ (∂y/∂x_i · u_i)² over the sources (taken as independent), each
+/// derivative a forward difference (y(x_i + h) − y(x_i))/h of the
+/// unperturbed state and one solve with the source moved by
+/// h = min(u_i, 10⁻⁶ × scale): the scale is 1 pH or pK unit, 10 °C, or the
+/// value itself (at least 1 in its unit). Each perturbed solve starts its
+/// searches from the unperturbed state's unknowns and builds its state
+/// without warnings (its numbers are those of a full solve); a constant is
+/// perturbed through its own method in a scratch copy of the constants. A
+/// solubility product of sea water moves only the saturation states and
+/// indices (Ω ∝ 1/Ksp, SI = log10 Ω): its perturbed state is the
+/// unperturbed one with those moved, no solve.
+/// Where the step up cannot be solved (a value taken out of its range) or
+/// loses a quantity, the backward difference is used.
 ///
 /// # Errors
 /// As [`Problem::solve`] for the unperturbed state; an error of a source
 /// whose steps fail on both sides, or an input that is not part of the
 /// problem (a carbonate parameter not measured).
-pub fn propagate<F>(problem: &Problem, u: &Uncertainties, quantities: F) -> Result<Propagation>
+pub fn propagate<F>(problem: &Problem, u: &Uncertainties, mut quantities: F) -> Result<Propagation>
 where
-    F: Fn(&State) -> Vec<Option<f64>>,
+    F: FnMut(&State, &mut Vec<Option<f64>>),
 {
     let base_state = problem.solve_numbers()?;
-    let base = quantities(&base_state);
+    let mut base = Vec::new();
+    quantities(&base_state, &mut base);
     let sources = sources_of(problem, u)?;
-    let mut outputs: Vec<Propagated> = base
-        .iter()
-        .map(|v| Propagated {
-            value: *v,
-            u: v.map(|_| 0.0),
-            contributions: Vec::with_capacity(sources.len()),
-        })
-        .collect();
+    let (n, m) = (base.len(), sources.len());
+    // A row of m contributions per quantity; source j fills column j.
+    let mut contributions = vec![0.0; n * m];
+    let mut lost = vec![false; n];
     let near = base_state.near();
     let mut scratch = problem.prepared.scratch();
-    for &(source, ui, scale) in &sources {
+    let (mut up, mut down) = (Vec::with_capacity(n), Vec::with_capacity(n));
+    for (j, &(source, ui, scale)) in sources.iter().enumerate() {
         let h = ui.min(STEP * scale);
-        let mut at_step = |d: f64| {
+        let column = contributions.iter_mut().skip(j).step_by(m.max(1));
+        let mut at_step = |d: f64, out: &mut Vec<Option<f64>>| {
+            out.clear();
             problem
-                .realise_one(source, d, &near, &mut scratch)
-                .map(|s| quantities(&s))
+                .realise_one(source, d, &base_state, &near, &mut scratch)
+                .map(|s| quantities(&s, out))
         };
-        let up = at_step(h);
-        let at = |r: &Result<Vec<Option<f64>>>, k: usize| {
-            r.as_ref().ok().and_then(|v| v.get(k).copied().flatten())
-        };
-        // The step down is taken only where the step up fails or loses a
-        // value.
-        let lost = |r: &Result<Vec<Option<f64>>>| match r {
-            Ok(v) => v.iter().zip(&base).any(|(p, y)| p.is_none() && y.is_some()),
-            Err(_) => true,
-        };
-        let down = if lost(&up) {
-            at_step(-h)
-        } else {
-            Ok(Vec::new())
-        };
-        if let (Err(e), Err(_)) = (&up, &down) {
+        let up_solved = at_step(h, &mut up);
+        // The usual case: the step up solved and kept every value, so the
+        // slope is the forward difference.
+        let kept = up_solved.is_ok()
+            && up.len() == n
+            && up
+                .iter()
+                .zip(&base)
+                .all(|(p, y)| p.is_some() || y.is_none());
+        if kept {
+            let per_step = ui / h;
+            for (c, (p, y)) in column.zip(up.iter().zip(&base)) {
+                if let (Some(p), Some(y)) = (p, y) {
+                    *c = beyond_rounding(*p, *y) * per_step;
+                }
+            }
+            continue;
+        }
+        // Otherwise the step down too, and the central or backward
+        // difference where the step up failed or lost a value.
+        let down_solved = at_step(-h, &mut down);
+        if let (Err(e), Err(_)) = (&up_solved, &down_solved) {
             return Err(e.clone());
         }
-        for (k, out) in outputs.iter_mut().enumerate() {
-            let slope = match (at(&up, k), out.value, at(&down, k)) {
+        let read = |r: &Result<()>, v: &[Option<f64>], k: usize| {
+            r.as_ref().ok().and_then(|_| v.get(k).copied().flatten())
+        };
+        for (k, (c, y)) in column.zip(&base).enumerate() {
+            let slope = match (read(&up_solved, &up, k), *y, read(&down_solved, &down, k)) {
                 (Some(p), _, Some(m)) => Some(beyond_rounding(p, m) / (2.0 * h)),
                 (Some(p), Some(y), None) => Some(beyond_rounding(p, y) / h),
                 (None, Some(y), Some(m)) => Some(beyond_rounding(y, m) / h),
                 _ => None,
             };
             match slope {
-                Some(s) => out.contributions.push(s * ui),
-                None => {
-                    out.contributions.push(0.0);
-                    out.u = None;
-                }
+                Some(s) => *c = s * ui,
+                None => lost[k] = true,
             }
         }
     }
-    for out in &mut outputs {
-        if out.u.is_some() {
-            out.u = Some(out.contributions.iter().map(|c| c * c).sum::<f64>().sqrt());
-        }
-    }
+    let outputs = base
+        .iter()
+        .zip(&lost)
+        .zip(
+            contributions
+                .chunks_exact(m.max(1))
+                .map(Some)
+                .chain(std::iter::repeat(None)),
+        )
+        .map(|((v, lost), row)| Propagated {
+            value: *v,
+            u: v.filter(|_| !lost)
+                .map(|_| row.map_or(0.0, |row| row.iter().map(|c| c * c).sum::<f64>().sqrt())),
+        })
+        .collect();
     let sources = sources.into_iter().map(|(s, u, _)| (s, u)).collect();
-    Ok(Propagation { sources, outputs })
+    Ok(Propagation {
+        sources,
+        outputs,
+        contributions,
+    })
 }
 
 /// The difference `a − b` of an output at two steps, or exactly zero where
@@ -1057,7 +1128,7 @@ pub struct MonteCarlo {
 /// use travertine::{Conditions, Measured, PhScale, Water};
 /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
 /// let p = Problem::new(&sea, Measured::ph(8.05, Some(PhScale::Total))?, Measured::alkalinity_umol_kg(2300.0)?)?;
-/// let mc = monte_carlo(&p, &Uncertainties::new(), |s| vec![Some(s.pco2_uatm)], 200, 7)?;
+/// let mc = monte_carlo(&p, &Uncertainties::new(), |s, out| out.push(Some(s.pco2_uatm)), 200, 7)?;
 /// assert_eq!(mc.solved + mc.failed, 200);
 /// assert!(mc.std_devs[0].unwrap() > 0.0);
 /// # Ok::<(), travertine::Error>(())
@@ -1065,12 +1136,12 @@ pub struct MonteCarlo {
 pub fn monte_carlo<F>(
     problem: &Problem,
     u: &Uncertainties,
-    quantities: F,
+    mut quantities: F,
     draws: usize,
     seed: u64,
 ) -> Result<MonteCarlo>
 where
-    F: Fn(&State) -> Vec<Option<f64>>,
+    F: FnMut(&State, &mut Vec<Option<f64>>),
 {
     if draws < 2 {
         return Err(Error::OutOfRange {
@@ -1081,7 +1152,9 @@ where
             unit: "",
         });
     }
-    let n = quantities(&problem.solve()?).len();
+    let mut values = Vec::new();
+    quantities(&problem.solve()?, &mut values);
+    let n = values.len();
     let sources = sources_of(problem, u)?;
     let mut rng = rand_chacha::ChaCha8Rng::seed_from_u64(seed);
     // Welford's running mean and sum of squares, per quantity.
@@ -1099,7 +1172,9 @@ where
         match problem.realise(&shifts, &Near::default()) {
             Ok(state) => {
                 solved += 1;
-                for (k, v) in quantities(&state).into_iter().enumerate() {
+                values.clear();
+                quantities(&state, &mut values);
+                for (k, v) in values.iter().copied().enumerate().take(n) {
                     if let Some(v) = v.filter(|v| v.is_finite()) {
                         count[k] += 1;
                         let d = v - mean[k];

@@ -350,6 +350,55 @@ macro_rules! outputs {
             /// ```
             pub const ALL: &'static [Output] = &[ $( Output::$variant, )* ];
 
+            /// How many outputs the list has.
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert_eq!(Output::COUNT, Output::ALL.len());
+            /// ```
+            pub const COUNT: usize = Self::ALL.len();
+
+            /// Its place in [`Output::ALL`].
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// assert!(Output::ALL.iter().enumerate().all(|(i, o)| o.index() == i));
+            /// ```
+            pub fn index(self) -> usize {
+                self as usize
+            }
+
+            /// Every output's number in a state, in the order of
+            /// [`Output::ALL`] (`None` where the state has none, and for a
+            /// name): one pass over the list, without a dispatch per
+            /// output, for a caller that reads many outputs of many states
+            /// (the propagation of uncertainties).
+            ///
+            /// ```
+            /// use travertine::output::{Output, Value};
+            /// use travertine::{Conditions, Measured, Water};
+            /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+            ///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+            /// let all = Output::numbers(&s);
+            /// for o in Output::ALL {
+            ///     let number = match o.value(&s) {
+            ///         Value::Number(v) => v,
+            ///         _ => None,
+            ///     };
+            ///     assert_eq!(all[o.index()], number);
+            /// }
+            /// # Ok::<(), travertine::Error>(())
+            /// ```
+            pub fn numbers(state: &State) -> [Option<f64>; Output::COUNT] {
+                [ $( {
+                    let $s = state;
+                    match $value {
+                        Value::Number(v) => v,
+                        Value::Text(_) => None,
+                    }
+                }, )* ]
+            }
+
             /// The key: the JSON key and the sheet's column name, snake_case.
             ///
             /// ```

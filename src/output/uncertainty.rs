@@ -19,35 +19,50 @@ use crate::state::State;
 /// assert!(!numeric.contains(&Output::Water));
 /// ```
 pub fn numeric_outputs() -> Vec<Output> {
-    // A state of any water tells which outputs are numbers: an output's
-    // kind does not depend on the state.
-    let probe = crate::sample::Conditions::new(25.0, 35.0)
-        .and_then(crate::sample::Water::saline)
-        .and_then(|w| {
-            w.solve(
-                crate::sample::Measured::alkalinity_umol_kg(2300.0)?,
-                crate::sample::Measured::dic_umol_kg(2000.0)?,
-            )
-        });
-    match probe {
-        Ok(s) => Output::ALL
-            .iter()
-            .copied()
-            .filter(|o| matches!(o.value(&s), Value::Number(_)))
-            .collect(),
-        Err(_) => Vec::new(),
-    }
+    numeric_list().to_vec()
 }
 
-/// The values of `outputs` in `state`, `None` where it has none.
-fn values(outputs: &[Output], state: &State) -> Vec<Option<f64>> {
-    outputs
-        .iter()
-        .map(|o| match o.value(state) {
-            Value::Number(v) => v,
-            Value::Text(_) => None,
-        })
-        .collect()
+/// The numeric outputs, found once: a state of any water tells which
+/// outputs are numbers (an output's kind does not depend on the state).
+fn numeric_list() -> &'static [Output] {
+    static NUMERIC: std::sync::OnceLock<Vec<Output>> = std::sync::OnceLock::new();
+    NUMERIC.get_or_init(|| {
+        let probe = crate::sample::Conditions::new(25.0, 35.0)
+            .and_then(crate::sample::Water::saline)
+            .and_then(|w| {
+                w.solve(
+                    crate::sample::Measured::alkalinity_umol_kg(2300.0)?,
+                    crate::sample::Measured::dic_umol_kg(2000.0)?,
+                )
+            });
+        match probe {
+            Ok(s) => Output::ALL
+                .iter()
+                .copied()
+                .filter(|o| matches!(o.value(&s), Value::Number(_)))
+                .collect(),
+            Err(_) => Vec::new(),
+        }
+    })
+}
+
+/// Appends the values of `outputs` in `state` to `out`, `None` where it
+/// has none (or where the output is a name), reading every output of the
+/// state in one pass ([`Output::numbers`]).
+///
+/// ```
+/// use travertine::output::{uncertainty::values_into, Output};
+/// use travertine::{Conditions, Measured, Water};
+/// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+/// let mut out = Vec::new();
+/// values_into(&[Output::Pco2, Output::Water], &s, &mut out);
+/// assert_eq!(out, vec![Some(s.pco2_uatm), None]);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn values_into(outputs: &[Output], state: &State, out: &mut Vec<Option<f64>>) {
+    let all = Output::numbers(state);
+    out.extend(outputs.iter().map(|o| all[o.index()]));
 }
 
 /// The standard uncertainty and budget of every numeric output: the
@@ -68,6 +83,7 @@ fn values(outputs: &[Output], state: &State) -> Vec<Option<f64>> {
 /// let (outputs, result) = outputs_propagated(&p, &u)?;
 /// let k = outputs.iter().position(|o| *o == Output::Pco2).unwrap();
 /// assert!(result.outputs[k].u.unwrap() > 0.0);
+/// assert_eq!(result.contributions(k).len(), result.sources.len());
 /// # Ok::<(), travertine::Error>(())
 /// ```
 pub fn outputs_propagated(
@@ -75,7 +91,7 @@ pub fn outputs_propagated(
     u: &Uncertainties,
 ) -> Result<(Vec<Output>, Propagation)> {
     let outputs = numeric_outputs();
-    let result = propagate(problem, u, |s| values(&outputs, s))?;
+    let result = propagate(problem, u, |s, out| values_into(&outputs, s, out))?;
     Ok((outputs, result))
 }
 
@@ -102,6 +118,12 @@ pub fn outputs_monte_carlo(
     seed: u64,
 ) -> Result<(Vec<Output>, MonteCarlo)> {
     let outputs = numeric_outputs();
-    let result = monte_carlo(problem, u, |s| values(&outputs, s), draws, seed)?;
+    let result = monte_carlo(
+        problem,
+        u,
+        |s, out| values_into(&outputs, s, out),
+        draws,
+        seed,
+    )?;
     Ok((outputs, result))
 }

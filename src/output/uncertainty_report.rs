@@ -357,12 +357,13 @@ impl Report {
         object.insert("uncertainty".into(), about);
         if budget {
             let mut all = Map::new();
-            for (o, p) in self.outputs.iter().zip(&self.linear.outputs) {
+            for (k, (o, p)) in self.outputs.iter().zip(&self.linear.outputs).enumerate() {
                 if !p.u.is_some_and(|u| u > 0.0) {
                     continue;
                 }
-                let shares: Map<String, Value> = p
-                    .budget(&self.linear.sources)
+                let shares: Map<String, Value> = self
+                    .linear
+                    .budget(k)
                     .into_iter()
                     .map(|(s, f)| (Self::source_name(s), json!(f)))
                     .collect();

@@ -827,14 +827,8 @@ fn uncertainty_row(
         problem
     };
     let outputs: Vec<Output> = up.outputs.iter().map(|&i| plan.computed[i]).collect();
-    let result = propagate(&problem, &u, |st| {
-        outputs
-            .iter()
-            .map(|o| match o.value(st) {
-                Value::Number(v) => v,
-                Value::Text(_) => None,
-            })
-            .collect()
+    let result = propagate(&problem, &u, |st, out| {
+        crate::output::uncertainty::values_into(&outputs, st, out)
     });
     match result {
         Ok(p) => {

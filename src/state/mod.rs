@@ -310,6 +310,32 @@ impl State {
         }
     }
 
+    /// This state with the pKsp of calcite (or of aragonite, `aragonite`)
+    /// moved by `d_pk`, where nothing but the saturation of that mineral
+    /// depends on it (sea water: no saturation pH, no ion pairs): Ksp is
+    /// multiplied by 10^−d_pk, so
+    ///
+    /// ```text
+    /// Ω' = [Ca] [CO3--] / Ksp' = Ω 10^d_pk,   SI' = log10 Ω' = SI + d_pk
+    /// ```
+    ///
+    /// the formulas of [`State::omega_calcite`] and [`State::si_calcite`].
+    /// The propagation of uncertainties moves a solubility product of sea
+    /// water so, without a solve (a test compares it with the constant
+    /// perturbed and solved again).
+    pub(crate) fn with_pksp_moved(&self, aragonite: bool, d_pk: f64) -> State {
+        let mut s = self.clone();
+        let factor = 10f64.powf(d_pk);
+        let (omega, si) = if aragonite {
+            (&mut s.omega_aragonite, &mut s.si_aragonite)
+        } else {
+            (&mut s.omega_calcite, &mut s.si_calcite)
+        };
+        *omega = omega.map(|o| o * factor);
+        *si = si.map(|i| i + d_pk);
+        s
+    }
+
     /// The gas constants this state was solved with.
     pub(crate) fn gas_terms(&self) -> exchange::GasTerms {
         self.gas
