@@ -489,6 +489,20 @@ impl State {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn at_with(&self, conditions: Conditions, options: &SolveOptions) -> Result<State> {
+        self.at_perturbed(conditions, options, &[])
+    }
+
+    /// As [`State::at_with`], with each constant of `constants` perturbed
+    /// by its shift in pK units in the water at the new conditions, as
+    /// [`PreparedWater::with_constants_perturbed`] perturbs it: the
+    /// propagation of uncertainties reports a state at other conditions
+    /// so, the error of a fit taken as the same at both conditions.
+    pub(crate) fn at_perturbed(
+        &self,
+        conditions: Conditions,
+        options: &SolveOptions,
+        constants: &[(ConstantName, f64)],
+    ) -> Result<State> {
         let mut water = self.water_sample().at(conditions)?;
         // The measured state's model is kept: an automatic carbonic fit
         // becomes the one the measured state used, so that the default
@@ -499,11 +513,19 @@ impl State {
                 water = water.with_fits(fits);
             }
         }
-        let mut moved = water.solve_with(
+        let (alkalinity, dic) = (
             Measured::alkalinity_umol_kg(self.alkalinity_umol_kg)?,
             Measured::dic_umol_kg(self.dic_umol_kg)?,
-            options,
-        )?;
+        );
+        let mut moved = if constants.is_empty() {
+            water.solve_with(alkalinity, dic, options)?
+        } else {
+            let mut prepared = water.prepare()?;
+            for &(which, delta_pk) in constants {
+                prepared = prepared.with_constants_perturbed(which, delta_pk)?;
+            }
+            prepared.solve_with(alkalinity, dic, options)?
+        };
         // issue 11: the parameters of the measurement, not of this re-solve.
         moved.computed_from = self.computed_from;
         Ok(moved)

@@ -409,6 +409,7 @@ impl UncertaintyArgs {
         &self,
         solved: &Solved,
         options: SolveOptions,
+        (at_temperature, at_pressure): (Option<f64>, Option<f64>),
     ) -> Result<travertine::output::uncertainty_report::Report, FlagError> {
         use travertine::decisions::uncertainty::Problem;
         use travertine::decisions::uncertainty_settings::per_litre_inputs;
@@ -418,6 +419,7 @@ impl UncertaintyArgs {
             .map(|p| {
                 p.with_options(options)
                     .with_air(solved.air, solved.sample.ph_scale_given())
+                    .reported_at(at_temperature, at_pressure)
             })
             .map_err(at_flag(&solved.pair_flags))?;
         let mc = self.monte_carlo.map(|n| {
@@ -709,18 +711,13 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     let options = SolveOptions::default().with_precipitation_potential(true);
     let solved = solve_sample(&a.inputs.given, &a.root, options)?;
     let options = options.with_root(a.root.parse().map_err(at_flag("--root"))?);
-    // issue 13: the uncertainties, of the state as measured.
+    // issue 13: the uncertainties, of the state reported (as measured, or
+    // moved by --at-temperature/--at-pressure).
     let report = if a.uncertainty.asked() {
-        if a.at_temperature.is_some() || a.at_pressure.is_some() {
-            return Err(FlagError {
-                flag: "--uncertainty".into(),
-                error: "uncertainties are given for the state as measured; leave out \
-                        --at-temperature and --at-pressure, or solve the water at those \
-                        conditions"
-                    .into(),
-            });
-        }
-        Some(a.uncertainty.report(&solved, options)?)
+        Some(
+            a.uncertainty
+                .report(&solved, options, (a.at_temperature, a.at_pressure))?,
+        )
     } else {
         None
     };
@@ -731,26 +728,6 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
         air,
         ..
     } = solved;
-    if let Some(r) = &report {
-        let scale = Some(sample.input_ph_scale(water.medium()));
-        return Ok(if a.shown.json {
-            travertine::output::uncertainty_report::json_with_uncertainty(
-                &state,
-                &profile,
-                r,
-                a.uncertainty.budget,
-            )
-        } else {
-            travertine::output::table_with_uncertainty(
-                &state,
-                None,
-                scale,
-                precision,
-                &profile,
-                Some(r),
-            )
-        });
-    }
     let exchange = |s: State| s.with_exchange(&air, sample.ph_scale_given());
 
     let reported = if a.at_temperature.is_some() || a.at_pressure.is_some() {
@@ -772,6 +749,31 @@ fn run(a: &SolveArgs) -> Result<String, FlagError> {
     } else {
         None
     };
+    if let Some(r) = &report {
+        let scale = Some(sample.input_ph_scale(water.medium()));
+        let (shown, measured) = match &reported {
+            Some(moved) => (moved, Some(&state)),
+            None => (&state, None),
+        };
+        return Ok(if a.shown.json {
+            travertine::output::uncertainty_report::json_with_uncertainty(
+                shown,
+                measured,
+                &profile,
+                r,
+                a.uncertainty.budget,
+            )
+        } else {
+            travertine::output::table_with_uncertainty(
+                shown,
+                measured,
+                scale,
+                precision,
+                &profile,
+                Some(r),
+            )
+        });
+    }
     Ok(render(
         &state,
         reported.as_ref(),

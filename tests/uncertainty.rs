@@ -672,3 +672,96 @@ fn a_source_the_water_was_not_described_by_is_refused() {
     assert!(run(&w, Input::IonicStrength).is_err());
     assert!(run(&w, Input::Conductivity).is_ok());
 }
+
+/// Uncertainties of a state reported at other conditions
+/// ([`Problem::reported_at`]: pH measured at 25 °C, reported at 9 °C and
+/// 120 dbar) agree with central differences of full solves written here:
+/// the measured state solved with the source moved, then moved to the
+/// reporting conditions with its alkalinity and DIC (and, for a constant,
+/// the same pK shift in the water there). To 10⁻⁴ of the contribution, or
+/// 10⁻⁵ of the output's u.
+#[test]
+fn uncertainties_at_the_reporting_conditions_agree_with_moved_solves() {
+    use travertine::medium::ConstantName;
+    let water = sea();
+    let (ph, ta) = (
+        Measured::ph(7.9, Some(PhScale::Total)).unwrap(),
+        Measured::alkalinity_umol_kg(2300.0).unwrap(),
+    );
+    let at = |w: &Water| {
+        Conditions::new(9.0, w.conditions().salinity())
+            .unwrap()
+            .with_pressure_dbar(120.0)
+            .unwrap()
+    };
+    let read = |s: &travertine::State| vec![Some(s.ph_total), Some(s.pco2_uatm), s.omega_calcite];
+    // pK1 alone among the constants (the others set to zero).
+    let mut u = Uncertainties::new()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.2)))
+        .unwrap();
+    for (c, _) in travertine::decisions::uncertainty::SALINE_DEFAULTS {
+        let size = if c == ConstantName::K1 { 0.01 } else { 0.0 };
+        u = u.with_constant(c, Size::Absolute(size)).unwrap();
+    }
+    let p = Problem::new(&water, ph, ta)
+        .unwrap()
+        .reported_at(Some(9.0), Some(120.0));
+    let r = propagate(&p, &u, q(read)).unwrap();
+    assert_eq!(r.sources.len(), 3);
+    let base = read(&p.solve().unwrap());
+    assert_eq!(
+        base,
+        read(&water.solve(ph, ta).unwrap().at(at(&water)).unwrap())
+    );
+    let mut checked = 0;
+    for (k, (source, size)) in r.sources.iter().enumerate() {
+        let moved = |d: f64| -> Vec<Option<f64>> {
+            let state = match source {
+                Source::Input(Input::Carbon(_)) => water
+                    .solve(Measured::ph(7.9 + d, Some(PhScale::Total)).unwrap(), ta)
+                    .and_then(|s| s.at(at(&water))),
+                Source::Input(Input::Temperature) => {
+                    let c = Conditions::new(25.0 + d, 35.0).unwrap();
+                    let w = water.at(c).unwrap();
+                    w.solve(ph, ta).and_then(|s| s.at(at(&w)))
+                }
+                Source::Constant(c) => {
+                    let measured = water
+                        .prepare()
+                        .and_then(|w| w.with_constants_perturbed(*c, d))
+                        .and_then(|w| w.solve(ph, ta))
+                        .unwrap();
+                    water
+                        .at(at(&water))
+                        .and_then(|w| w.prepare())
+                        .and_then(|w| w.with_constants_perturbed(*c, d))
+                        .and_then(|w| {
+                            w.solve(
+                                Measured::alkalinity_umol_kg(measured.alkalinity_umol_kg)?,
+                                Measured::dic_umol_kg(measured.dic_umol_kg)?,
+                            )
+                        })
+                }
+                other => panic!("{other:?}"),
+            };
+            read(&state.unwrap())
+        };
+        let h = 1e-3;
+        let (up, down) = (moved(h), moved(-h));
+        for (q, out) in r.outputs.iter().enumerate() {
+            let (Some(a), Some(b), Some(u_out)) = (up[q], down[q], out.u) else {
+                panic!("{source:?} output {q}: no value");
+            };
+            let expected = (a - b) / (2.0 * h) * size;
+            let got = r.contributions(q)[k];
+            assert!(
+                (got - expected).abs() <= 1e-4 * expected.abs() + 1e-5 * u_out,
+                "{source:?} output {q}: {got} against {expected}"
+            );
+            assert!(base[q].is_some());
+            checked += 1;
+        }
+    }
+    assert_eq!(checked, 9);
+}

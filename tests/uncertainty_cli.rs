@@ -573,3 +573,55 @@ fn sheet_specific_conductance_u_column_equals_the_solve_command() {
     assert_same_u(&rows[0], &solved);
     assert!(rows[0]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
 }
+
+/// `--at-temperature`/`--at-pressure` with uncertainties: the state shown
+/// is the one moved to the reporting conditions, with its `_u` keys equal
+/// to the library's propagation with [`Problem::reported_at`], the state as
+/// measured under `as_measured`, and the method saying how it was moved.
+#[test]
+fn uncertainties_at_other_conditions_are_those_of_the_state_reported() {
+    let v = tarnholm(&[
+        "--at-temperature",
+        "4",
+        "--at-pressure",
+        "300",
+        "--uncertainty",
+        "ph=0.01",
+    ]);
+    assert_eq!(v["temperature_c"], 4.0);
+    assert_eq!(v["pressure_dbar"], 300.0);
+    assert_eq!(v["as_measured"]["temperature_c"], 12.0);
+    let (p, _) = tarnholm_problem();
+    let p = p.reported_at(Some(4.0), Some(300.0));
+    let u = Uncertainties::new()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .unwrap();
+    let (outputs, lib) = outputs_propagated(&p, &u).unwrap();
+    let mut checked = 0;
+    for (o, r) in outputs.iter().zip(&lib.outputs) {
+        let key = format!("{}_u", o.key());
+        match (v[&key].as_f64(), r.u) {
+            (Some(g), Some(l)) => {
+                assert!(close(g, l, 1e-9), "{key}: {g} against {l}");
+                checked += 1;
+            }
+            (None, None) => {}
+            (g, l) => panic!("{key}: {g:?} against {l:?}"),
+        }
+    }
+    assert!(checked > 40, "{checked}");
+    assert!(v["omega_calcite_u"].as_f64().unwrap() > 0.0);
+    let method = v["uncertainty"]["method"].as_str().unwrap();
+    assert!(method.contains("reported at 4 °C and 300 dbar"), "{method}");
+    // The table says so too.
+    let mut args: Vec<&str> = TARNHOLM
+        .iter()
+        .copied()
+        .filter(|a| *a != "--json")
+        .collect();
+    args.extend(["--at-temperature", "4", "--uncertainty", "ph=0.01"]);
+    let o = run_travertine(&args, None);
+    let text = String::from_utf8_lossy(&o.stdout);
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    assert!(text.contains("of the state reported at 4 °C"), "{text}");
+}

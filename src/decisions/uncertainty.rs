@@ -417,6 +417,15 @@ pub struct Problem {
     b: Measured,
     options: SolveOptions,
     air: Option<(Air, Option<PhScale>)>,
+    reported_at: Option<ReportedAt>,
+}
+
+/// The conditions a [`Problem`]'s states are reported at, where they are
+/// not those of the measurement ([`Problem::reported_at`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+struct ReportedAt {
+    temperature_c: Option<f64>,
+    pressure_dbar: Option<f64>,
 }
 
 impl Problem {
@@ -432,6 +441,7 @@ impl Problem {
             b,
             options: SolveOptions::default().with_media_comparison(false),
             air: None,
+            reported_at: None,
         })
     }
 
@@ -469,6 +479,74 @@ impl Problem {
         self
     }
 
+    /// With every state reported at another temperature and/or pressure
+    /// (`None`: the measurement's), as [`State::at_with`] moves it: the
+    /// alkalinity, DIC and totals kept, the state solved again there (for
+    /// example a pH measured in the laboratory at 25 °C, its water reported
+    /// at the 9 °C and 120 dbar it was sampled at). The uncertainties are
+    /// then those of the state reported: each perturbed state is solved as
+    /// measured and moved, its salinity with it; a constant perturbed is
+    /// perturbed by the same pK at both conditions (the error of a fit
+    /// taken as systematic), and the reporting conditions are taken as
+    /// exact. Each perturbed solve is a full one (no warm start, no lean
+    /// state).
+    ///
+    /// ```
+    /// use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
+    /// use travertine::sample::inputs::Input;
+    /// use travertine::{Conditions, Measured, Parameter, PhScale, Water};
+    /// let lab = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let (ph, ta) = (Measured::ph(7.9, Some(PhScale::Total))?, Measured::alkalinity_umol_kg(2300.0)?);
+    /// let p = Problem::new(&lab, ph, ta)?.reported_at(Some(9.0), Some(120.0));
+    /// assert_eq!(p.solve()?.temperature_c, 9.0);
+    /// let u = Uncertainties::new().with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))?;
+    /// let r = propagate(&p, &u, |s, out| out.push(s.omega_calcite))?;
+    /// assert!(r.outputs[0].u.unwrap() > 0.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn reported_at(mut self, temperature_c: Option<f64>, pressure_dbar: Option<f64>) -> Self {
+        self.reported_at =
+            (temperature_c.is_some() || pressure_dbar.is_some()).then_some(ReportedAt {
+                temperature_c,
+                pressure_dbar,
+            });
+        self
+    }
+
+    /// The temperature (°C) and pressure (dbar) the states are reported at,
+    /// where [`Problem::reported_at`] moved them (`None` within: the
+    /// measurement's).
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Problem;
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let lake = Water::fresh(Conditions::new(20.0, 0.1)?)?;
+    /// let p = Problem::new(&lake, Measured::ph(7.6, None)?, Measured::alkalinity_umol_kg(900.0)?)?;
+    /// assert_eq!(p.reporting_conditions(), None);
+    /// assert_eq!(p.reported_at(Some(6.0), None).reporting_conditions(), Some((Some(6.0), None)));
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn reporting_conditions(&self) -> Option<(Option<f64>, Option<f64>)> {
+        self.reported_at.map(|r| (r.temperature_c, r.pressure_dbar))
+    }
+
+    /// `state`, solved at the measurement's conditions, moved to the
+    /// reporting conditions with `constants` perturbed there too; itself
+    /// where there are none.
+    fn reported(&self, state: State, constants: &[(ConstantName, f64)]) -> Result<State> {
+        let Some(at) = self.reported_at else {
+            return Ok(state);
+        };
+        let mut c = *state.water_sample().conditions();
+        if let Some(t) = at.temperature_c {
+            c = c.with_temperature_c(t)?;
+        }
+        if let Some(p) = at.pressure_dbar {
+            c = c.with_pressure_dbar(p)?;
+        }
+        state.at_perturbed(c, &self.options, constants)
+    }
+
     /// The state, unperturbed.
     ///
     /// # Errors
@@ -481,11 +559,12 @@ impl Problem {
     /// where no air is over the water ([`PreparedWater::solve_lean`]: every
     /// number the same, no warnings): the propagation reads only numbers.
     fn solve_numbers(&self) -> Result<State> {
-        match self.air {
-            Some(_) => self.solve(),
-            None => self
-                .prepared
-                .solve_lean(self.a, self.b, &self.options, &Near::default()),
+        match (self.air, self.reported_at) {
+            (Some(_), _) | (_, Some(_)) => self.solve(),
+            (None, None) => {
+                self.prepared
+                    .solve_lean(self.a, self.b, &self.options, &Near::default())
+            }
         }
     }
 
@@ -718,6 +797,18 @@ impl Problem {
         } = self.shifted(shifts)?;
         let prepared = prepared.as_ref().unwrap_or(&self.prepared);
         let state = prepared.solve_near(a, b, &self.options, near)?;
+        let state = if self.reported_at.is_some() {
+            let constants: Vec<(ConstantName, f64)> = shifts
+                .iter()
+                .filter_map(|&(source, d)| match source {
+                    Source::Constant(k) if d != 0.0 => Some((k, d)),
+                    _ => None,
+                })
+                .collect();
+            self.reported(state, &constants)?
+        } else {
+            state
+        };
         match &air {
             Some((air, scale)) => prepared.with_exchange(state, air, *scale),
             None => Ok(state),
@@ -773,6 +864,11 @@ impl Problem {
         ) = (source, base.medium)
         {
             return Ok(base.with_pksp_moved(k == ConstantName::KspAragonite, d));
+        }
+        if self.reported_at.is_some() {
+            // The unperturbed unknowns are those of the state reported, not
+            // of the measurement: a cold start.
+            return self.realise(&[(source, d)], &Near::default());
         }
         if self.air.is_some() {
             return self.realise(&[(source, d)], near);

@@ -35,6 +35,11 @@ pub fn u_digits(o: Output) -> Digits {
     }
 }
 
+/// The method of [`Report`], as its JSON states it.
+const METHOD: &str = "linear (first-order) propagation, each derivative a forward difference of \
+                      two solves (the source moved alone by a small step; a backward or central \
+                      difference where the step up cannot be solved); sources independent";
+
 /// The most draws `--monte-carlo` takes: a check, not a method; 10⁶ full
 /// solves take minutes.
 pub const MOST_DRAWS: usize = 1_000_000;
@@ -69,6 +74,9 @@ pub struct Report {
     linear: Propagation,
     monte_carlo: Option<(MonteCarlo, usize, u64)>,
     sources: Vec<Described>,
+    /// How the state reported was moved from the measurement's
+    /// conditions, where it was.
+    moved: Option<String>,
 }
 
 /// One source as the result states it.
@@ -284,11 +292,25 @@ impl Report {
             .iter()
             .map(|(source, _)| describe(*source, u, medium, per_litre))
             .collect();
+        let moved = problem.reporting_conditions().map(|(t, p)| {
+            let at: Vec<String> = t
+                .map(|t| format!("{t} °C"))
+                .into_iter()
+                .chain(p.map(|p| format!("{p} dbar")))
+                .collect();
+            format!(
+                "of the state reported at {}: each perturbed state solved as measured and \
+                 moved there, a constant moved by the same pK at both conditions, the \
+                 reporting conditions taken as exact",
+                at.join(" and ")
+            )
+        });
         Ok(Report {
             outputs,
             linear,
             monte_carlo,
             sources,
+            moved,
         })
     }
 
@@ -344,8 +366,13 @@ impl Report {
             .iter()
             .map(|d| stated_json(d, Map::new()))
             .collect();
+        let mut method = String::from(METHOD);
+        if let Some(m) = &self.moved {
+            method.push_str("; ");
+            method.push_str(m);
+        }
         let mut about = json!({
-            "method": "linear (first-order) propagation, derivatives by central differences of full solves; sources independent",
+            "method": method,
             "sources": sources,
         });
         if let (Some((mc, draws, seed)), Some(a)) = (&self.monte_carlo, about.as_object_mut()) {
@@ -395,6 +422,9 @@ impl Report {
     /// size and where it comes from, and the Monte Carlo draws.
     pub fn block(&self) -> String {
         let mut out = String::from("\nUncertainty (linear propagation; sources independent)\n");
+        if let Some(m) = &self.moved {
+            out.push_str(&format!("  {m}\n"));
+        }
         if self.sources.is_empty() {
             out.push_str("  no source has an uncertainty: every ± is 0\n");
         }
@@ -419,7 +449,10 @@ impl Report {
 }
 
 /// The JSON of a state judged against `profile` ([`super::Judged`]), with
-/// the uncertainties of `report` added ([`Report::add_to_json`]).
+/// the uncertainties of `report` added ([`Report::add_to_json`]), and the
+/// state as measured under `as_measured` where `state` was moved to other
+/// conditions ([`crate::decisions::uncertainty::Problem::reported_at`]; the
+/// uncertainties are those of `state`).
 ///
 /// ```
 /// use travertine::decisions::{uncertainty::{Problem, Uncertainties}, Profile};
@@ -428,7 +461,7 @@ impl Report {
 /// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
 /// let (a, b) = (Measured::dic_umol_kg(2000.0)?, Measured::alkalinity_umol_kg(2300.0)?);
 /// let r = Report::new(&Problem::new(&sea, a, b)?, &Uncertainties::new(), None)?;
-/// let text = json_with_uncertainty(&sea.solve(a, b)?, &Profile::default(), &r, false);
+/// let text = json_with_uncertainty(&sea.solve(a, b)?, None, &Profile::default(), &r, false);
 /// let v: serde_json::Value = serde_json::from_str(&text).unwrap();
 /// assert!(v["omega_aragonite_u"].as_f64().unwrap() > 0.0);
 /// assert_eq!(v["uncertainty"]["sources"][1]["name"], "pk1");
@@ -436,13 +469,18 @@ impl Report {
 /// ```
 pub fn json_with_uncertainty(
     state: &crate::state::State,
+    measured: Option<&crate::state::State>,
     profile: &crate::decisions::Profile,
     report: &Report,
     budget: bool,
 ) -> String {
-    let mut v = serde_json::to_value(super::Judged::new(state, profile)).unwrap_or(Value::Null);
+    let judged = |s| serde_json::to_value(super::Judged::new(s, profile));
+    let mut v = judged(state).unwrap_or(Value::Null);
     if let Some(object) = v.as_object_mut() {
         report.add_to_json(object, budget);
+        if let Some(m) = measured {
+            object.insert("as_measured".into(), judged(m).unwrap_or(Value::Null));
+        }
     }
     serde_json::to_string_pretty(&v).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }
