@@ -230,6 +230,8 @@ struct DoseArgs {
     /// The uncertainty of the dose (issue 13).
     #[command(flatten)]
     uncertainty: UncertaintySources,
+    #[command(flatten)]
+    check: MonteCarloArgs,
 }
 
 /// How a result is shown: the flags of every command that prints one.
@@ -385,22 +387,42 @@ struct SolveArgs {
 struct UncertaintyArgs {
     #[command(flatten)]
     sources: UncertaintySources,
-    /// Check the linear propagation with N Monte Carlo draws (2 to 1000000; each a full
-    /// solve): `<key>_u_mc` beside `<key>_u`.
-    #[arg(long, value_name = "N")]
-    monte_carlo: Option<usize>,
-    /// Seed of the Monte Carlo draws (default 1; the same seed gives the same numbers).
-    #[arg(long, value_name = "S", requires = "monte_carlo")]
-    seed: Option<u64>,
+    #[command(flatten)]
+    check: MonteCarloArgs,
     /// Each source's share of the variance of every output (a `budget` object in the JSON).
     #[arg(long)]
     budget: bool,
 }
 
+/// The flags of the Monte Carlo check of `solve` and `dose`.
+#[derive(Args)]
+struct MonteCarloArgs {
+    /// Check the linear propagation with N Monte Carlo draws (2 to 1000000; each a full
+    /// solve, or a full dose): `<key>_u_mc` beside `<key>_u`.
+    #[arg(long, value_name = "N")]
+    monte_carlo: Option<usize>,
+    /// Seed of the Monte Carlo draws (default 1; the same seed gives the same numbers).
+    #[arg(long, value_name = "S", requires = "monte_carlo")]
+    seed: Option<u64>,
+}
+
+impl MonteCarloArgs {
+    /// The draws and seed asked for.
+    fn asked(&self) -> Option<(usize, u64)> {
+        self.monte_carlo.map(|n| {
+            (
+                n,
+                self.seed
+                    .unwrap_or(travertine::output::uncertainty_report::DEFAULT_SEED),
+            )
+        })
+    }
+}
+
 impl UncertaintyArgs {
     /// Whether any uncertainty was asked for.
     fn asked(&self) -> bool {
-        self.sources.asked() || self.monte_carlo.is_some() || self.budget
+        self.sources.asked() || self.check.monte_carlo.is_some() || self.budget
     }
 
     /// The report of the uncertainties asked for, of the pair solved in
@@ -422,13 +444,7 @@ impl UncertaintyArgs {
                     .reported_at(at_temperature, at_pressure)
             })
             .map_err(at_flag(&solved.pair_flags))?;
-        let mc = self.monte_carlo.map(|n| {
-            (
-                n,
-                self.seed
-                    .unwrap_or(travertine::output::uncertainty_report::DEFAULT_SEED),
-            )
-        });
+        let mc = self.check.asked();
         travertine::output::uncertainty_report::Report::stated(
             &problem,
             &u,
@@ -789,7 +805,7 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
     use travertine::decisions::volume::Volume;
     let precision = a.shown.precision()?;
     let solved = solve_sample(&a.inputs.given, &a.root, SolveOptions::default())?;
-    let u = if a.uncertainty.asked() {
+    let u = if a.uncertainty.asked() || a.check.monte_carlo.is_some() {
         Some(a.uncertainty.read(&solved)?)
     } else {
         None
@@ -852,8 +868,20 @@ fn dose(a: &DoseArgs) -> Result<String, FlagError> {
             let problem = Problem::new(&water, first, second)
                 .map(|p| p.with_options(SolveOptions::default().with_root(root)))
                 .map_err(at_flag(&pair_flags))?;
-            let dose_u =
+            let mut dose_u =
                 dose_uncertainty(&problem, u, d.request).map_err(at_flag("--uncertainty"))?;
+            if let Some((draws, seed)) = a.check.asked() {
+                let most = travertine::output::uncertainty_report::MOST_DRAWS;
+                if draws > most {
+                    return Err(FlagError {
+                        flag: "--monte-carlo".into(),
+                        error: format!("{draws} draws: at most {most}"),
+                    });
+                }
+                dose_u = dose_u
+                    .with_monte_carlo(&problem, u, d.request, draws, seed)
+                    .map_err(at_flag("--monte-carlo"))?;
+            }
             let per_litre =
                 travertine::decisions::uncertainty_settings::per_litre_inputs(&first, &second);
             let statement = travertine::output::uncertainty_report::dose_statement(

@@ -625,3 +625,49 @@ fn uncertainties_at_other_conditions_are_those_of_the_state_reported() {
     assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
     assert!(text.contains("of the state reported at 4 °C"), "{text}");
 }
+
+/// `dose --monte-carlo N --seed S`: `_u_mc` beside each `_u` of the dose,
+/// close to the linear figure for a small pH uncertainty (the dose is
+/// nearly linear over ±0.02 pH), the draws stated, the same seed giving
+/// the same numbers; and the library's check equal to the command's.
+#[test]
+fn dose_monte_carlo_checks_the_linear_dose_uncertainty() {
+    let extra = [
+        "--no-constant-uncertainty",
+        "--uncertainty",
+        "ph=0.02",
+        "--monte-carlo",
+        "2000",
+        "--seed",
+        "9",
+    ];
+    let v = lime_dose("6.9", &extra);
+    let (u, mc) = (
+        v["dose_g_m3_u"].as_f64().unwrap(),
+        v["dose_g_m3_u_mc"].as_f64().unwrap(),
+    );
+    assert!(close(u, mc, 0.05), "{u} against {mc}");
+    let keys: Vec<&String> = v.as_object().unwrap().keys().collect();
+    let at = keys.iter().position(|k| *k == "dose_total_kg_u").unwrap();
+    assert_eq!(keys[at + 1], "dose_total_kg_u_mc");
+    assert!(close(
+        v["dose_total_kg_u_mc"].as_f64().unwrap(),
+        9.6 * mc,
+        1e-12
+    ));
+    let check = &v["uncertainty"]["monte_carlo"];
+    assert_eq!(check["draws"], 2000);
+    assert_eq!(check["seed"], 9);
+    assert_eq!(
+        check["solved"].as_u64().unwrap() + check["failed"].as_u64().unwrap(),
+        2000
+    );
+    assert_eq!(
+        lime_dose("6.9", &extra)["dose_g_m3_u_mc"],
+        v["dose_g_m3_u_mc"]
+    );
+    // Without asking, no check.
+    assert!(lime_dose("6.9", &["--uncertainty", "ph=0.02"])
+        .get("dose_g_m3_u_mc")
+        .is_none());
+}

@@ -1194,6 +1194,61 @@ fn beyond_rounding(a: f64, b: f64) -> f64 {
     }
 }
 
+/// The draws of a Monte Carlo check: every source drawn at once from a
+/// normal distribution of its standard uncertainty (independent), by a
+/// ChaCha8 generator (the same numbers on every platform).
+pub(crate) struct Draws {
+    sources: Vec<(Source, f64, f64)>,
+    rng: rand_chacha::ChaCha8Rng,
+}
+
+impl Draws {
+    /// The draws of `sources` (as [`sources_of`] gives them) from `seed`.
+    pub(crate) fn new(sources: Vec<(Source, f64, f64)>, seed: u64) -> Self {
+        Draws {
+            sources,
+            rng: rand_chacha::ChaCha8Rng::seed_from_u64(seed),
+        }
+    }
+
+    /// The next draw, as shifts of the sources, into `shifts`.
+    pub(crate) fn next_into(&mut self, shifts: &mut Vec<(Source, f64)>) {
+        shifts.clear();
+        for &(s, ui, _) in &self.sources {
+            let z: f64 = StandardNormal.sample(&mut self.rng);
+            shifts.push((s, z * ui));
+        }
+    }
+}
+
+/// Welford's running mean and sum of squared deviations of one quantity.
+#[derive(Debug, Clone, Copy, Default)]
+pub(crate) struct Running {
+    count: usize,
+    mean: f64,
+    m2: f64,
+}
+
+impl Running {
+    /// Adds a value.
+    pub(crate) fn add(&mut self, v: f64) {
+        self.count += 1;
+        let d = v - self.mean;
+        self.mean += d / self.count as f64;
+        self.m2 += d * (v - self.mean);
+    }
+
+    /// The sample standard deviation (`None` with fewer than two values).
+    pub(crate) fn std_dev(&self) -> Option<f64> {
+        (self.count >= 2).then(|| (self.m2 / (self.count - 1) as f64).sqrt())
+    }
+
+    /// The mean (`None` without a value).
+    pub(crate) fn mean(&self) -> Option<f64> {
+        (self.count >= 1).then_some(self.mean)
+    }
+}
+
 /// The result of [`monte_carlo`].
 #[derive(Debug, Clone, PartialEq)]
 #[non_exhaustive]
@@ -1251,41 +1306,28 @@ where
     let mut values = Vec::new();
     quantities(&problem.solve()?, &mut values);
     let n = values.len();
-    let sources = sources_of(problem, u)?;
-    let mut rng = rand_chacha::ChaCha8Rng::seed_from_u64(seed);
-    // Welford's running mean and sum of squares, per quantity.
-    let mut count = vec![0usize; n];
-    let mut mean = vec![0.0; n];
-    let mut m2 = vec![0.0; n];
+    let mut draw = Draws::new(sources_of(problem, u)?, seed);
+    let mut running = vec![Running::default(); n];
     let (mut solved, mut failed) = (0, 0);
-    let mut shifts: Vec<(Source, f64)> = Vec::with_capacity(sources.len());
+    let mut shifts: Vec<(Source, f64)> = Vec::new();
     for _ in 0..draws {
-        shifts.clear();
-        for &(s, ui, _) in &sources {
-            let z: f64 = StandardNormal.sample(&mut rng);
-            shifts.push((s, z * ui));
-        }
+        draw.next_into(&mut shifts);
         match problem.realise(&shifts, &Near::default()) {
             Ok(state) => {
                 solved += 1;
                 values.clear();
                 quantities(&state, &mut values);
-                for (k, v) in values.iter().copied().enumerate().take(n) {
+                for (r, v) in running.iter_mut().zip(&values) {
                     if let Some(v) = v.filter(|v| v.is_finite()) {
-                        count[k] += 1;
-                        let d = v - mean[k];
-                        mean[k] += d / count[k] as f64;
-                        m2[k] += d * (v - mean[k]);
+                        r.add(v);
                     }
                 }
             }
             Err(_) => failed += 1,
         }
     }
-    let std_devs = (0..n)
-        .map(|k| (count[k] >= 2).then(|| (m2[k] / (count[k] - 1) as f64).sqrt()))
-        .collect();
-    let means = (0..n).map(|k| (count[k] >= 1).then(|| mean[k])).collect();
+    let std_devs = running.iter().map(Running::std_dev).collect();
+    let means = running.iter().map(Running::mean).collect();
     Ok(MonteCarlo {
         std_devs,
         means,

@@ -71,7 +71,8 @@ pub fn dose_json(d: &Dose, volume: Option<Volume>, scale: PhScale) -> String {
 
 /// As [`dose_json`], with the standard uncertainty of the dose (issue 13)
 /// where given: `dose_g_m3_u`, and with a volume `dose_total_kg_u` and
-/// `dose_total_lb_u`, each beside its key, and `uncertainty`, the
+/// `dose_total_lb_u`, each beside its key (and each followed by its
+/// `_u_mc` where the Monte Carlo check ran), and `uncertainty`, the
 /// statement of the sources ([`super::uncertainty_report::dose_statement`]).
 ///
 /// ```
@@ -137,10 +138,24 @@ pub fn dose_json_with_uncertainty(
                 "dose_total_lb" => Some(json!(kg_u.map(|kg| kg / KG_PER_POUND))),
                 _ => None,
             };
+            // The Monte Carlo check, in the same units, where it ran.
+            let mc = u.monte_carlo.as_ref().map(|mc| {
+                let sd = mc.dose_g_m3_std_dev;
+                match key.as_str() {
+                    "dose_total_kg" => json!(volume.and_then(|v| sd.map(|s| s * v.m3() / 1000.0))),
+                    "dose_total_lb" => {
+                        json!(volume.and_then(|v| sd.map(|s| s * v.m3() / 1000.0 / KG_PER_POUND)))
+                    }
+                    _ => json!(sd),
+                }
+            });
             let u_key = format!("{key}_u");
             object.insert(key, value);
             if let Some(x) = u_value {
-                object.insert(u_key, x);
+                object.insert(u_key.clone(), x);
+                if let Some(m) = mc {
+                    object.insert(format!("{u_key}_mc"), m);
+                }
             }
         }
         object.insert("uncertainty".into(), statement);

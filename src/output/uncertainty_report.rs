@@ -232,10 +232,26 @@ pub fn dose_statement(
     if dose_u.contributions.is_empty() {
         block.push_str("  no source has an uncertainty: the ± is 0\n");
     }
-    let json = json!({
+    let mut json = json!({
         "method": "linear (first-order) propagation, each derivative a central difference of two full doses; sources independent; the volume taken as exact",
         "sources": sources,
     });
+    if let (Some(mc), Some(o)) = (&dose_u.monte_carlo, json.as_object_mut()) {
+        o.insert(
+            "monte_carlo".into(),
+            json!({"draws": mc.draws, "seed": mc.seed, "solved": mc.solved, "failed": mc.failed}),
+        );
+        let _ = writeln!(
+            block,
+            "  Monte Carlo check: {} draws, seed {}, {} dosed, {} failed: ± {} g/m³",
+            mc.draws,
+            mc.seed,
+            mc.solved,
+            mc.failed,
+            mc.dose_g_m3_std_dev
+                .map_or_else(|| "—".to_string(), |sd| format!("{sd:.3}"))
+        );
+    }
     (json, block)
 }
 
