@@ -627,6 +627,57 @@ fn ionic_strength_uncertainty_agrees_with_a_central_difference() {
     );
 }
 
+/// A fresh water's TDS, where it sets the ionic strength (Langelier
+/// 1936), is a source too: its u matches a central difference of two full
+/// solves at TDS ± 0.1 %; and the `tds=` setting reads mg/L and g/L.
+#[test]
+fn tds_uncertainty_agrees_with_a_central_difference() {
+    use travertine::decisions::uncertainty_settings::{with_settings, Setting};
+    let ph = Measured::ph(7.8, None).unwrap();
+    let ta = Measured::alkalinity_umol_kg(1800.0).unwrap();
+    let water = |t: f64| {
+        Water::fresh(Conditions::new(15.0, 0.0).unwrap())
+            .unwrap()
+            .with_composition(
+                Composition::default()
+                    .with_calcium(Amount::PerKg(1.0e-3))
+                    .unwrap(),
+            )
+            .with_tds_mg_l(t)
+            .unwrap()
+    };
+    let solve = |t: f64| water(t).solve(ph, ta).unwrap().omega_calcite.unwrap();
+    let (t, h) = (300.0, 0.3);
+    let slope = (solve(t + h) - solve(t - h)) / (2.0 * h);
+    let p = Problem::new(&water(t), ph, ta).unwrap();
+    let u = only(Input::Tds, Size::Absolute(20.0));
+    let r = propagate(&p, &u, q(|s| vec![s.omega_calcite])).unwrap();
+    let got = r.outputs[0].u.unwrap();
+    assert!(got > 0.0);
+    assert!(
+        (got / (slope * 20.0).abs() - 1.0).abs() < 1e-3,
+        "{got} {slope}"
+    );
+    // Where the ionic strength comes from elsewhere (the salinity of
+    // `pond`), a TDS uncertainty is refused.
+    let p = Problem::new(&pond(), ph, ta).unwrap();
+    assert!(propagate(
+        &p,
+        &only(Input::Tds, Size::Percent(5.0)),
+        q(|s| vec![s.omega_calcite])
+    )
+    .is_err());
+    // The setting, in mg/L and in g/L.
+    for text in ["tds=20", "tds=20 mg/L", "tds=0.02 g/L"] {
+        let s: Setting = text.parse().unwrap();
+        let u = with_settings(Uncertainties::new(), &[s], &ph, &ta, 999.0).unwrap();
+        match u.inputs() {
+            [(Input::Tds, Size::Absolute(x))] => assert!((x - 20.0).abs() < 1e-9, "{text}: {x}"),
+            other => panic!("{text}: {other:?}"),
+        }
+    }
+}
+
 /// Salinity, conductivity and ionic strength count only where the water
 /// was described by them; elsewhere a typed error, not a silent zero.
 #[test]

@@ -164,7 +164,10 @@ impl Source {
 ///   so the salinity and the specific conductance follow it; a reading at
 ///   the sample temperature also follows a moved temperature;
 /// - **ionic strength**: where a fresh water's ionic strength was given
-///   and is the one used (no major ions, conductivity or TDS beside it).
+///   and is the one used (no major ions, conductivity or TDS beside it);
+/// - **TDS**: where a fresh water's ionic strength comes from its total
+///   dissolved solids (Langelier 1936; no major ions or conductivity
+///   beside it).
 ///
 /// Elsewhere their uncertainty is refused with a typed error
 /// ([`Error::IncompatiblePair`] naming the uncertainty and the input that
@@ -175,6 +178,7 @@ pub const INPUT_SOURCES: &[Input] = &[
     Input::Salinity,
     Input::Conductivity,
     Input::IonicStrength,
+    Input::Tds,
     Input::Total(Total::Calcium),
     Input::Total(Total::Phosphate),
     Input::Total(Total::Silicate),
@@ -648,6 +652,31 @@ impl Problem {
                     }
                 }
             }
+            Source::Input(Input::Tds) => {
+                let given = water.fresh_options().tds_mg_l;
+                let used = water.medium() == Medium::Fresh
+                    && crate::medium::fresh::ionic::route(water)
+                        == crate::medium::IonicStrengthRoute::Tds;
+                match given {
+                    Some(t) if used => t,
+                    Some(_) => {
+                        return Err(Error::IncompatiblePair {
+                            first: Field::Uncertainty,
+                            second: Field::Tds,
+                            reason: "the TDS given is not what sets the ionic strength (the \
+                                     major ions or a conductivity do): give the uncertainty of \
+                                     what sets it",
+                        })
+                    }
+                    None => {
+                        return Err(Error::Missing {
+                            field: Field::Tds,
+                            why: "; an uncertainty of the TDS needs a fresh water whose ionic \
+                                  strength comes from a TDS (--tds)",
+                        })
+                    }
+                }
+            }
             Source::Input(Input::Wind) => self
                 .air
                 .as_ref()
@@ -720,6 +749,10 @@ impl Problem {
                     fresh.ionic_strength = fresh.ionic_strength.map(|i| i + d);
                     water_changed = true;
                 }
+                Source::Input(Input::Tds) => {
+                    fresh.tds_mg_l = fresh.tds_mg_l.map(|t| t + d);
+                    water_changed = true;
+                }
                 Source::Input(Input::Wind) => {
                     if let Some((air, _)) = &mut air {
                         let wind = air.wind_m_s().unwrap_or(0.0) + d;
@@ -766,6 +799,9 @@ impl Problem {
                 .filter(|_| base.medium() == Medium::Fresh)
             {
                 w = w.with_ionic_strength(i)?;
+            }
+            if let Some(t) = fresh.tds_mg_l.filter(|_| base.medium() == Medium::Fresh) {
+                w = w.with_tds_mg_l(t)?;
             }
             Some(w.prepare()?)
         } else {

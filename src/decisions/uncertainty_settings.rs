@@ -239,6 +239,7 @@ impl Target {
                 list_units(&CONDUCTIVITY_UNITS)
             ),
             Target::Input(Input::IonicStrength) => "mol/kg (a plain number), mmol/kg".into(),
+            Target::Input(Input::Tds) => "mg/L (a plain number), g/L".into(),
             Target::Input(Input::Wind) => "m/s (a plain number), km/h".into(),
             Target::Input(_) => "a plain number".into(),
             Target::Constant(ConstantName::BoronTotal) => {
@@ -521,6 +522,11 @@ fn absolute(target: Target, number: f64, unit: &str, whole: &str) -> Option<Amou
         Target::Input(Input::IonicStrength) => match unit.to_lowercase().as_str() {
             "" | "mol/kg" => Amountish::Number(number),
             "mmol/kg" => Amountish::Number(number * 1e-3),
+            _ => return None,
+        },
+        Target::Input(Input::Tds) => match unit.to_lowercase().as_str() {
+            "" | "mg/l" => Amountish::Number(number),
+            "g/l" => Amountish::Number(number * 1e3),
             _ => return None,
         },
         Target::Input(Input::Wind) if plain => Amountish::Number(number),
