@@ -627,56 +627,26 @@ impl Problem {
                 }
                 given.reading.us_cm()
             }
-            Source::Input(Input::IonicStrength) => {
-                let given = water.fresh_options().ionic_strength;
-                let used = water.medium() == Medium::Fresh
-                    && crate::medium::fresh::ionic::route(water)
-                        == crate::medium::IonicStrengthRoute::Given;
-                match given {
-                    Some(i) if used => i,
-                    Some(_) => {
-                        return Err(Error::IncompatiblePair {
-                            first: Field::Uncertainty,
-                            second: Field::IonicStrength,
-                            reason: "the ionic strength given is not the one used (the major \
-                                     ions, a conductivity or the TDS set it): give the \
-                                     uncertainty of what sets it",
-                        })
-                    }
-                    None => {
-                        return Err(Error::Missing {
-                            field: Field::IonicStrength,
-                            why: "; an uncertainty of the ionic strength needs a fresh water \
-                                  whose ionic strength was given (--ionic-strength)",
-                        })
-                    }
-                }
-            }
-            Source::Input(Input::Tds) => {
-                let given = water.fresh_options().tds_mg_l;
-                let used = water.medium() == Medium::Fresh
-                    && crate::medium::fresh::ionic::route(water)
-                        == crate::medium::IonicStrengthRoute::Tds;
-                match given {
-                    Some(t) if used => t,
-                    Some(_) => {
-                        return Err(Error::IncompatiblePair {
-                            first: Field::Uncertainty,
-                            second: Field::Tds,
-                            reason: "the TDS given is not what sets the ionic strength (the \
-                                     major ions or a conductivity do): give the uncertainty of \
-                                     what sets it",
-                        })
-                    }
-                    None => {
-                        return Err(Error::Missing {
-                            field: Field::Tds,
-                            why: "; an uncertainty of the TDS needs a fresh water whose ionic \
-                                  strength comes from a TDS (--tds)",
-                        })
-                    }
-                }
-            }
+            Source::Input(Input::IonicStrength) => routed(
+                water,
+                water.fresh_options().ionic_strength,
+                crate::medium::IonicStrengthRoute::Given,
+                Field::IonicStrength,
+                "the ionic strength given is not the one used (the major ions, a conductivity \
+                 or the TDS set it): give the uncertainty of what sets it",
+                "; an uncertainty of the ionic strength needs a fresh water whose ionic \
+                 strength was given (--ionic-strength)",
+            )?,
+            Source::Input(Input::Tds) => routed(
+                water,
+                water.fresh_options().tds_mg_l,
+                crate::medium::IonicStrengthRoute::Tds,
+                Field::Tds,
+                "the TDS given is not what sets the ionic strength (the major ions or a \
+                 conductivity do): give the uncertainty of what sets it",
+                "; an uncertainty of the TDS needs a fresh water whose ionic strength comes \
+                 from a TDS (--tds)",
+            )?,
             Source::Input(Input::Wind) => self
                 .air
                 .as_ref()
@@ -940,6 +910,34 @@ pub(crate) struct Moved {
     pub(crate) a: Measured,
     /// The pair.
     pub(crate) b: Measured,
+}
+
+/// The value `given` of an input that sets a fresh water's ionic strength
+/// by `route`, where it is the one that does; else the error naming
+/// `field`: `not_used` where it was given beside what sets the ionic
+/// strength instead, `missing` where it was not given.
+fn routed(
+    water: &Water,
+    given: Option<f64>,
+    route: crate::medium::IonicStrengthRoute,
+    field: Field,
+    not_used: &'static str,
+    missing: &'static str,
+) -> Result<f64> {
+    let used =
+        water.medium() == Medium::Fresh && crate::medium::fresh::ionic::route(water) == route;
+    match given {
+        Some(v) if used => Ok(v),
+        Some(_) => Err(Error::IncompatiblePair {
+            first: Field::Uncertainty,
+            second: field,
+            reason: not_used,
+        }),
+        None => Err(Error::Missing {
+            field,
+            why: missing,
+        }),
+    }
 }
 
 /// The conditions `c` at salinity `s`, everything else kept.
