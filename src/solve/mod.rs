@@ -112,6 +112,10 @@ pub struct SolveOptions {
     /// other root to report it (off only for the crate's own derived
     /// solves, which read the chosen root alone).
     pub(crate) report_other_root: bool,
+    /// Whether a fresh water with calcium gets its saturation pH and
+    /// Langelier index (off only for the crate's own derived solves that
+    /// read neither: the water at equilibrium with the air).
+    pub(crate) saturation_ph: bool,
 }
 
 impl Default for SolveOptions {
@@ -121,6 +125,7 @@ impl Default for SolveOptions {
             precipitation_potential: false,
             compare_media: true,
             report_other_root: true,
+            saturation_ph: true,
         }
     }
 }
@@ -275,6 +280,7 @@ fn dic_per_co3(k: &Constants, h: f64) -> f64 {
     h * h / (k.k1e() * k.k2e()) + h / k.k2e() + 1.0
 }
 
+#[derive(Clone, Copy)]
 pub(crate) struct Pair<'a> {
     pub(crate) a: &'a Measured,
     pub(crate) b: &'a Measured,
@@ -339,10 +345,11 @@ pub(crate) fn alkalinity_in_range(ta: f64) -> bool {
 /// unknowns of the solved neighbour (its working-scale h, and in fresh
 /// water its ionic strength, free calcium and saturation pH). Used by the
 /// propagation of uncertainties, whose perturbed solves lie within a small
-/// step of the unperturbed one: each search still runs on its full bracket
-/// with its usual convergence test, so a start that is not near changes
-/// the cost of a solve, never its result beyond the tolerance of the
-/// search.
+/// step of the unperturbed one, and by the water at equilibrium with the
+/// air (the ionic strength and free calcium of the sample): each search
+/// still runs with its usual convergence test (and falls back to its full
+/// bracket), so a start that is not near changes the cost of a solve,
+/// never its result beyond the tolerance of the search.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub(crate) struct Near {
     /// The neighbour's h on the working scale (NaN: none).
@@ -374,9 +381,22 @@ pub(crate) fn solve_near(
     options: &SolveOptions,
     near_h: f64,
 ) -> Result<Solution> {
+    solve_working(k, &working(k, a, b)?, options, near_h)
+}
+
+/// A measured pair in its internal form at some constants, in the order
+/// the pair algebra takes it, with the notes the conversion gave.
+pub(crate) struct Working<'a> {
+    ka: WorkingValue,
+    kb: WorkingValue,
+    pair: Pair<'a>,
+    warnings: Warnings,
+}
+
+/// The internal form of the pair `a`, `b` at the constants `k`
+/// ([`to_working`]), after the pair is checked.
+pub(crate) fn working<'a>(k: &Constants, a: &'a Measured, b: &'a Measured) -> Result<Working<'a>> {
     check_pair(a, b)?;
-    let warm = near_h > 0.0 && near_h.is_finite();
-    let start = |cold: f64| if warm { near_h } else { cold };
     let mut warnings = Warnings::new();
     let mut ka = to_working(k, a, &mut warnings);
     let mut kb = to_working(k, b, &mut warnings);
@@ -385,7 +405,36 @@ pub(crate) fn solve_near(
         std::mem::swap(&mut ka, &mut kb);
         std::mem::swap(&mut ma, &mut mb);
     }
-    let pair = Pair { a: ma, b: mb };
+    Ok(Working {
+        ka,
+        kb,
+        pair: Pair { a: ma, b: mb },
+        warnings,
+    })
+}
+
+/// Whether the internal form of a measured parameter depends on the free
+/// calcium of fresh water: the free HCO3- and CO3-- given are turned into
+/// carbon-balance totals with the calcium pairs. Every other form depends
+/// only on the ionic strength and the temperature-only constants, so a
+/// fixed point over the free calcium converts it once ([`working`]).
+pub(crate) fn depends_on_calcium(m: &Measured) -> bool {
+    matches!(m.parameter(), Parameter::Hco3 | Parameter::Co3)
+}
+
+/// As [`solve_near`], for a pair already in its internal form at `k`
+/// ([`working`]).
+pub(crate) fn solve_working(
+    k: &Constants,
+    w: &Working,
+    options: &SolveOptions,
+    near_h: f64,
+) -> Result<Solution> {
+    let warm = near_h > 0.0 && near_h.is_finite();
+    let start = |cold: f64| if warm { near_h } else { cold };
+    let mut warnings = w.warnings.clone();
+    let (ka, kb, pair) = (w.ka, w.kb, w.pair);
+    let (ma, mb) = (pair.a, pair.b);
     let k12 = k.k1e() * k.k2e();
 
     let (h, dic) = match (ka, kb) {

@@ -67,6 +67,59 @@ pub(crate) fn ln_omega_at_alkalinity(k: &Constants, ta: f64, ca_total: f64, h: f
     ln.is_finite().then_some(ln)
 }
 
+/// ln Ω of calcite as [`ln_omega_at_alkalinity`] gives it, and its
+/// derivative with respect to the NBS pH at the same alkalinity and
+/// calcium, by implicit differentiation of the balance. With x = ln h,
+/// u′ = −u, v′ = −2v (primes: d/dx) and, in the balance
+/// G(S, x) = (C − S c)(1 + S w) − S q = 0 of [`balance_root`] (C the
+/// carbonate alkalinity, c = u + 2v, w = a u + b v, q = CaT (a u + 2 b v)):
+///
+/// ```text
+/// G_S = −c (1 + S w) + (C − S c) w − q
+/// G_x = (C′ − S c′)(1 + S w) + (C − S c) S w′ − S q′,   S′ = −G_x / G_S
+/// C′ = −h d(non-carbonate)/dh,  c′ = −u − 4v,  w′ = −a u − 2 b v,  q′ = −CaT (a u + 4 b v)
+/// ln Ω = ln CaT − ln(1 + S w) + ln S + ln v − ln Ksp′
+/// d ln Ω/dx = −(S′ w + S w′)/(1 + S w) + S′/S − 2,   d ln Ω/dpH = −ln 10 · d ln Ω/dx
+/// ```
+/// (implicit differentiation; our own derivation). The value is the same
+/// number [`ln_omega_at_alkalinity`] returns.
+pub(crate) fn ln_omega_and_slope_at_alkalinity(
+    k: &Constants,
+    ta: f64,
+    ca_total: f64,
+    h: f64,
+) -> Option<(f64, f64)> {
+    let (nc, dnc) = crate::speciation::alkalinity::non_carbonate(k, h);
+    let carbon = ta - nc;
+    if carbon <= 0.0 {
+        return None;
+    }
+    let u = k.k1() / h;
+    let v = k.k1() * k.k2() / (h * h);
+    let (a, b) = (k.k_cahco3(), k.k_caco3());
+    let w = a * u + b * v;
+    let c = u + 2.0 * v;
+    let q = ca_total * (a * u + 2.0 * b * v);
+    let s = balance_root(c, w, q, carbon);
+    let one_sw = 1.0 + s * w;
+    let ca = ca_total / one_sw;
+    let ln = (ca * s * v / k.ksp_calcite()).ln();
+    if !ln.is_finite() {
+        return None;
+    }
+    let d_carbon = -h * dnc;
+    let dc = -u - 4.0 * v;
+    let dw = -a * u - 2.0 * b * v;
+    let dq = -ca_total * (a * u + 4.0 * b * v);
+    let left = carbon - s * c;
+    let g_s = -c * one_sw + left * w - q;
+    let g_x = (d_carbon - s * dc) * one_sw + left * s * dw - s * dq;
+    let ds = -g_x / g_s;
+    let d_ln_dx = -(ds * w + s * dw) / one_sw + ds / s - 2.0;
+    let slope = -std::f64::consts::LN_10 * d_ln_dx;
+    slope.is_finite().then_some((ln, slope))
+}
+
 /// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).
 pub(crate) fn free_carbonate(k: &Constants, h: f64, dic: f64) -> f64 {
     let k12 = k.k1e() * k.k2e();
