@@ -4,7 +4,7 @@
 use super::fixed_point::{fixed_point, Bracket, Failure};
 use super::{
     depends_on_calcium, solve, solve_near, solve_working, working, Near, RootChoice, Solution,
-    SolveOptions,
+    SolveOptions, WorkingValue,
 };
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
@@ -15,7 +15,7 @@ use crate::medium::Constants;
 use crate::properties::scales::PhScale;
 use crate::sample::measured::is_two_root_pair;
 use crate::sample::measured::Measured;
-use crate::speciation::calcium::{free_calcium, free_ion_pairs};
+use crate::speciation::calcium::{free_calcium, free_calcium_at_alkalinity, free_ion_pairs};
 
 impl FreshBasis {
     /// The fixed point of a solve: the shared solver at the apparent
@@ -132,6 +132,15 @@ impl FreshBasis {
             None
         } else {
             Some(working(&k, &a, &b)?)
+        };
+        // A pH with the alkalinity fixes the free calcium in closed form
+        // (`free_calcium_at_alkalinity`): the fixed point then starts at
+        // its root, and its first trial settles it.
+        let start = match fixed.as_ref().map(|w| (w.ka, w.kb)) {
+            Some((WorkingValue::Ta(ta), WorkingValue::H(h))) => {
+                free_calcium_at_alkalinity(&k, ta, ca_total, h).unwrap_or(start)
+            }
+            _ => start,
         };
         // Each root search after the first starts from the h of the last
         // solve (a trial of the free calcium moves it little), unless the
@@ -387,6 +396,47 @@ mod tests {
                     .unwrap();
                 assert_eq!(s.k, basis.constants_at(s.i, s.ca, s.ca_total));
                 assert!(s.ca > 0.0 && s.ca < 1.5e-3);
+            }
+        }
+    }
+
+    /// The free calcium of a pH with an alkalinity in closed form is the
+    /// fixed point of the free calcium: the shared solver at it gives back
+    /// the same free calcium, to rounding, over a grid of invented waters.
+    #[test]
+    fn the_closed_form_free_calcium_is_the_fixed_point() {
+        for t in [2.0, 15.0, 30.0] {
+            for ca_total in [1e-4, 1e-3, 5e-3] {
+                for (ph, ta) in [(6.5, 3e-4), (7.6, 2e-3), (8.8, 5e-3)] {
+                    let water = Water::fresh(Conditions::new(t, 0.0).unwrap())
+                        .unwrap()
+                        .with_specific_conductance_us_cm(400.0)
+                        .unwrap()
+                        .with_composition(
+                            Composition::default()
+                                .with_calcium(Amount::PerKg(ca_total))
+                                .unwrap(),
+                        );
+                    let basis = FreshBasis::new(&water, false).unwrap();
+                    let i = basis.fixed_i.unwrap();
+                    let mut k = basis.constants_at(i, ca_total, ca_total);
+                    let h = crate::base::numeric::pow10(-ph);
+                    let ca = free_calcium_at_alkalinity(&k, ta, ca_total, h).unwrap();
+                    k.set_free_calcium(ca);
+                    let (a, b) = (
+                        Measured::ph(ph, None).unwrap(),
+                        Measured::per_kg(crate::sample::measured::Parameter::Alkalinity, ta)
+                            .unwrap(),
+                    );
+                    let sol = solve(&k, &a, &b, &SolveOptions::default()).unwrap();
+                    let again = free_calcium(&k, sol.h, sol.dic, ca_total);
+                    assert!((again / ca - 1.0).abs() < 1e-13, "{t} {ca_total} {ph} {ta}");
+                    // The fixed point settles there at its first trial.
+                    let s = basis
+                        .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
+                        .unwrap();
+                    assert_eq!(s.ca, ca, "{t} {ca_total} {ph} {ta}");
+                }
             }
         }
     }

@@ -31,6 +31,35 @@ pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f6
     ca_total / (1.0 + s * w)
 }
 
+/// The free calcium of a water whose h and alkalinity `ta` are both known,
+/// at the apparent constants of `k` (its ionic strength; the free calcium
+/// set in it is not read): the carbonate alkalinity
+/// TA − (non-carbonate) = S (u + 2v) + Ca S (a u + 2 b v) and
+/// Ca = CaT/(1 + S (a u + b v)), with CO2* = S, u = K1′/h, v = K1′K2′/h²,
+/// one quadratic in S ([`balance_root`]), as in [`ln_omega_at_alkalinity`].
+/// The free calcium at which the shared solver, given that pH and
+/// alkalinity, returns exactly that water: the fixed point of the free
+/// calcium in closed form. `None` where the alkalinity left for carbon is
+/// not positive.
+pub(crate) fn free_calcium_at_alkalinity(
+    k: &Constants,
+    ta: f64,
+    ca_total: f64,
+    h: f64,
+) -> Option<f64> {
+    let carbon = ta - crate::speciation::alkalinity::non_carbonate(k, h).0;
+    if carbon <= 0.0 || ca_total <= 0.0 {
+        return None;
+    }
+    let u = k.k1() / h;
+    let v = k.k1() * k.k2() / (h * h);
+    let (a, b) = (k.k_cahco3(), k.k_caco3());
+    let w = a * u + b * v;
+    let s = balance_root(u + 2.0 * v, w, ca_total * (a * u + 2.0 * b * v), carbon);
+    let ca = ca_total / (1.0 + s * w);
+    (ca.is_finite() && ca > 0.0 && ca <= ca_total).then_some(ca)
+}
+
 /// [CaHCO3+]/[Ca++] or [CaCO3⁰]/[Ca++] of a free ion given (0 for any
 /// other parameter), at the apparent pair constants of `k`.
 pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
