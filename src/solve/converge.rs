@@ -15,7 +15,9 @@ use crate::medium::Constants;
 use crate::properties::scales::PhScale;
 use crate::sample::measured::is_two_root_pair;
 use crate::sample::measured::Measured;
-use crate::speciation::calcium::{free_calcium, free_calcium_at_alkalinity, free_ion_pairs};
+use crate::speciation::calcium::{
+    free_calcium, free_calcium_at_alkalinity, free_calcium_at_alkalinity_and_co2, free_ion_pairs,
+};
 
 impl FreshBasis {
     /// The fixed point of a solve: the shared solver at the apparent
@@ -136,16 +138,33 @@ impl FreshBasis {
         // A pH with the alkalinity fixes the free calcium in closed form
         // (`free_calcium_at_alkalinity`): the fixed point then starts at
         // its root, and its first trial settles it.
+        // So does an alkalinity with CO2* (or a gas), as one monotone root
+        // in h (`free_calcium_at_alkalinity_and_co2`); the fixed point
+        // starts at it, its root search at its h.
+        let mut from_h = near_h;
         let start = match fixed.as_ref().map(|w| (w.ka, w.kb)) {
             Some((WorkingValue::Ta(ta), WorkingValue::H(h))) => {
                 free_calcium_at_alkalinity(&k, ta, ca_total, h).unwrap_or(start)
             }
+            Some((WorkingValue::Ta(ta), WorkingValue::Co2(co2))) => {
+                // The bicarbonate water's h (HCO3- = TA) where no start is given.
+                let guess = if near_h > 0.0 && near_h.is_finite() {
+                    near_h
+                } else {
+                    k.k1() * co2 / ta
+                };
+                match free_calcium_at_alkalinity_and_co2(&k, ta, co2, ca_total, guess) {
+                    Some((h, ca)) => {
+                        from_h = h;
+                        ca
+                    }
+                    None => start,
+                }
+            }
             _ => start,
         };
         // Each root search after the first starts from the h of the last
-        // solve (a trial of the free calcium moves it little), unless the
-        // caller gave a start.
-        let mut from_h = near_h;
+        // solve (a trial of the free calcium moves it little).
         let mut solve_at = |ca: f64| -> Result<(Trial, f64)> {
             k.set_free_calcium(ca);
             let k = &k;
@@ -436,6 +455,33 @@ mod tests {
                         .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
                         .unwrap();
                     assert_eq!(s.ca, ca, "{t} {ca_total} {ph} {ta}");
+                    // Alkalinity with the CO2* of that water: the root in h
+                    // gives back its h and free calcium, and the shared
+                    // solver at that calcium gives back the same calcium.
+                    let co2 =
+                        sol.dic / (1.0 + k.k1e() / sol.h + k.k1e() * k.k2e() / (sol.h * sol.h));
+                    let k0 = basis.constants_at(i, ca_total, ca_total);
+                    let (h2, ca2) =
+                        free_calcium_at_alkalinity_and_co2(&k0, ta, co2, ca_total, 1e-8).unwrap();
+                    assert!((h2 / sol.h - 1.0).abs() < 1e-9, "{t} {ca_total} {ph} {ta}");
+                    assert!((ca2 / ca - 1.0).abs() < 1e-9, "{t} {ca_total} {ph} {ta}");
+                    let mut k2 = k0.clone();
+                    k2.set_free_calcium(ca2);
+                    let gas =
+                        Measured::per_kg(crate::sample::measured::Parameter::Co2, co2).unwrap();
+                    let sol2 = solve(&k2, &b, &gas, &SolveOptions::default()).unwrap();
+                    let again = free_calcium(&k2, sol2.h, sol2.dic, ca_total);
+                    assert!(
+                        (again / ca2 - 1.0).abs() < 1e-12,
+                        "{t} {ca_total} {ph} {ta}"
+                    );
+                    let s2 = basis
+                        .converge_pair(&b, &gas, RootChoice::Natural, &Near::default())
+                        .unwrap();
+                    assert!(
+                        (s2.ca / ca2 - 1.0).abs() < 1e-12,
+                        "{t} {ca_total} {ph} {ta}"
+                    );
                 }
             }
         }

@@ -60,6 +60,56 @@ pub(crate) fn free_calcium_at_alkalinity(
     (ca.is_finite() && ca > 0.0 && ca <= ca_total).then_some(ca)
 }
 
+/// h and the free calcium of a water whose alkalinity `ta` and CO2* `co2`
+/// are both known, at the apparent constants of `k` (its ionic strength;
+/// the free calcium set in it is not read). At a given h the free ions are
+/// HCO3- = CO2* u and CO3-- = CO2* v (u = K1′/h, v = K1′K2′/h²), so the
+/// free calcium is Ca(h) = CaT/(1 + CO2* (a u + b v)) in closed form, and
+/// the alkalinity
+///
+/// ```text
+/// TA(h) = CO2* (u (1 + a Ca) + 2 v (1 + b Ca)) + non-carbonate(h)
+/// ```
+///
+/// falls with h (each term does: a u CaT/(1 + CO2* (a u + b v)) rises with
+/// u), a single root in h found by [`monotone_newton`] on pH 0 to 14 with
+/// the analytic derivative, from `guess`. The free calcium at which the
+/// shared solver, given that alkalinity and CO2*, returns that water: the
+/// fixed point of the free calcium as a root in h. `None` where there is no
+/// root in that range or the search does not converge.
+pub(crate) fn free_calcium_at_alkalinity_and_co2(
+    k: &Constants,
+    ta: f64,
+    co2: f64,
+    ca_total: f64,
+    guess: f64,
+) -> Option<(f64, f64)> {
+    use crate::base::root::{monotone_newton, Search};
+    if ca_total <= 0.0 || co2 <= 0.0 {
+        return None;
+    }
+    let (k1, k12) = (k.k1(), k.k1() * k.k2());
+    let (a, b) = (k.k_cahco3(), k.k_caco3());
+    let calcium = |u: f64, v: f64| ca_total / (1.0 + co2 * (a * u + b * v));
+    let f = |h: f64| {
+        let u = k1 / h;
+        let v = k12 / (h * h);
+        let (du, dv) = (-u / h, -2.0 * v / h);
+        let d = 1.0 + co2 * (a * u + b * v);
+        let ca = ca_total / d;
+        let dca = -ca_total * co2 * (a * du + b * dv) / (d * d);
+        let (nc, dnc) = crate::speciation::alkalinity::non_carbonate(k, h);
+        let carb = co2 * (u + 2.0 * v + ca * (a * u + 2.0 * b * v));
+        let dcarb =
+            co2 * (du + 2.0 * dv + dca * (a * u + 2.0 * b * v) + ca * (a * du + 2.0 * b * dv));
+        (carb + nc - ta, dcarb + dnc)
+    };
+    let search = Search::new(1e-14, 1.0, true);
+    let h = monotone_newton(f, &search, guess).ok()?;
+    let ca = calcium(k1 / h, k12 / (h * h));
+    (ca.is_finite() && ca > 0.0 && ca <= ca_total).then_some((h, ca))
+}
+
 /// [CaHCO3+]/[Ca++] or [CaCO3⁰]/[Ca++] of a free ion given (0 for any
 /// other parameter), at the apparent pair constants of `k`.
 pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
