@@ -71,12 +71,17 @@ pub(crate) fn free_calcium_at_alkalinity(
 /// TA(h) = CO2* (u (1 + a Ca) + 2 v (1 + b Ca)) + non-carbonate(h)
 /// ```
 ///
-/// falls with h (each term does: a u CaT/(1 + CO2* (a u + b v)) rises with
-/// u), a single root in h found by [`monotone_newton`] on pH 0 to 14 with
-/// the analytic derivative, from `guess`. The free calcium at which the
-/// shared solver, given that alkalinity and CO2*, returns that water: the
-/// fixed point of the free calcium as a root in h. `None` where there is no
-/// root in that range or the search does not converge.
+/// falls with h in natural waters (the pair term a u CaT/(1 + CO2* (a u +
+/// b v)) rises with u while the CaCO3⁰ ratio b CO2* v, about 0.2 at
+/// CO3-- = 10⁻⁴ mol/kg, stays below 1; the other terms always rise), a
+/// single root in h found by [`crate::base::root::monotone_newton`] on
+/// pH 0 to 14 with the analytic derivative, from `guess`. The free
+/// calcium at which the shared
+/// solver, given that alkalinity and CO2*, returns that water: the fixed
+/// point of the free calcium as a root in h, used as the fixed point's
+/// start (which the fixed point then checks, so a water where the root
+/// were not unique would cost iterations, not accuracy). `None` where no
+/// root is found in that range.
 pub(crate) fn free_calcium_at_alkalinity_and_co2(
     k: &Constants,
     ta: f64,
