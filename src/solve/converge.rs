@@ -16,7 +16,8 @@ use crate::properties::scales::PhScale;
 use crate::sample::measured::is_two_root_pair;
 use crate::sample::measured::Measured;
 use crate::speciation::calcium::{
-    free_calcium, free_calcium_at_alkalinity, free_calcium_at_alkalinity_and_co2, free_ion_pairs,
+    free_calcium, free_calcium_at_alkalinity, free_calcium_at_alkalinity_and_co2,
+    free_calcium_at_alkalinity_and_dic, free_ion_pairs,
 };
 
 impl FreshBasis {
@@ -154,6 +155,21 @@ impl FreshBasis {
                     k.k1() * co2 / ta
                 };
                 match free_calcium_at_alkalinity_and_co2(&k, ta, co2, ca_total, guess) {
+                    Some((h, ca)) => {
+                        from_h = h;
+                        ca
+                    }
+                    None => start,
+                }
+            }
+            Some((WorkingValue::Ta(ta), WorkingValue::Dic(dic))) => {
+                // From the carbonate-only root where no start is given.
+                let guess = if near_h > 0.0 && near_h.is_finite() {
+                    near_h
+                } else {
+                    super::carbonate_only_root(&k, ta, dic)
+                };
+                match free_calcium_at_alkalinity_and_dic(&k, ta, dic, ca_total, guess) {
                     Some((h, ca)) => {
                         from_h = h;
                         ca
@@ -480,6 +496,25 @@ mod tests {
                         .unwrap();
                     assert!(
                         (s2.ca / ca2 - 1.0).abs() < 1e-12,
+                        "{t} {ca_total} {ph} {ta}"
+                    );
+                    // Alkalinity with the DIC of that water: the same.
+                    let (h3, ca3) =
+                        free_calcium_at_alkalinity_and_dic(&k0, ta, sol.dic, ca_total, 1e-8)
+                            .unwrap();
+                    assert!((h3 / sol.h - 1.0).abs() < 1e-9, "{t} {ca_total} {ph} {ta}");
+                    assert!((ca3 / ca - 1.0).abs() < 1e-9, "{t} {ca_total} {ph} {ta}");
+                    let dic =
+                        Measured::per_kg(crate::sample::measured::Parameter::Dic, sol.dic).unwrap();
+                    let s3 = basis
+                        .converge_pair(&b, &dic, RootChoice::Natural, &Near::default())
+                        .unwrap();
+                    assert!(
+                        (s3.ca / ca3 - 1.0).abs() < 1e-12,
+                        "{t} {ca_total} {ph} {ta}"
+                    );
+                    assert!(
+                        (s3.sol.h / h3 - 1.0).abs() < 1e-9,
                         "{t} {ca_total} {ph} {ta}"
                     );
                 }

@@ -115,6 +115,73 @@ pub(crate) fn free_calcium_at_alkalinity_and_co2(
     (ca.is_finite() && ca > 0.0 && ca <= ca_total).then_some((h, ca))
 }
 
+/// h and the free calcium of a water whose alkalinity `ta` and DIC `dic`
+/// are both known, at the apparent constants of `k` (its ionic strength;
+/// the free calcium set in it is not read). At a given h the DIC balance
+/// fixes CO2* = S and the free calcium as in [`free_calcium`] (one
+/// quadratic, G(S, h) = (DIC − S c)(1 + S w) − S q = 0 with c = 1 + u + v,
+/// w = a u + b v, q = CaT w), and the alkalinity is
+///
+/// ```text
+/// TA(h) = S (u + 2v) + Ca S (a u + 2 b v) + non-carbonate(h),   Ca = CaT/(1 + S w)
+/// dS/dh = −G_h/G_S,  G_S = −c (1 + S w) + (DIC − S c) w − q,
+/// G_h = −S c′ (1 + S w) + (DIC − S c) S w′ − S q′      (primes: d/dh)
+/// ```
+///
+/// (implicit differentiation; our own derivation). TA(h) falls with h in
+/// natural waters; its root, by [`crate::base::root::monotone_newton`] on
+/// pH 0 to 14 from `guess`, gives the free calcium at which the shared
+/// solver, given that alkalinity and DIC, returns that water: a start for
+/// the fixed point, which checks it. `None` where no root is found.
+pub(crate) fn free_calcium_at_alkalinity_and_dic(
+    k: &Constants,
+    ta: f64,
+    dic: f64,
+    ca_total: f64,
+    guess: f64,
+) -> Option<(f64, f64)> {
+    use crate::base::root::{monotone_newton, Search};
+    if ca_total <= 0.0 || dic <= 0.0 {
+        return None;
+    }
+    let (k1, k12) = (k.k1(), k.k1() * k.k2());
+    let (a, b) = (k.k_cahco3(), k.k_caco3());
+    // S and Ca at h, with the pieces of the derivative.
+    let at = |h: f64| {
+        let u = k1 / h;
+        let v = k12 / (h * h);
+        let w = a * u + b * v;
+        let c = 1.0 + u + v;
+        let q = ca_total * w;
+        let s = balance_root(c, w, q, dic);
+        (u, v, w, c, q, s)
+    };
+    let f = |h: f64| {
+        let (u, v, w, c, q, s) = at(h);
+        let (du, dv) = (-u / h, -2.0 * v / h);
+        let (dc, dw) = (du + dv, a * du + b * dv);
+        let dq = ca_total * dw;
+        let one_sw = 1.0 + s * w;
+        let left = dic - s * c;
+        let g_s = -c * one_sw + left * w - q;
+        let g_h = -s * dc * one_sw + left * s * dw - s * dq;
+        let ds = -g_h / g_s;
+        let ca = ca_total / one_sw;
+        let dca = -ca_total * (ds * w + s * dw) / (one_sw * one_sw);
+        let (e, de) = (a * u + 2.0 * b * v, a * du + 2.0 * b * dv);
+        let carb = s * (u + 2.0 * v) + ca * s * e;
+        let dcarb =
+            ds * (u + 2.0 * v) + s * (du + 2.0 * dv) + dca * s * e + ca * ds * e + ca * s * de;
+        let (nc, dnc) = crate::speciation::alkalinity::non_carbonate(k, h);
+        (carb + nc - ta, dcarb + dnc)
+    };
+    let search = Search::new(1e-14, 1.0, true);
+    let h = monotone_newton(f, &search, guess).ok()?;
+    let (_, _, w, _, _, s) = at(h);
+    let ca = ca_total / (1.0 + s * w);
+    (ca.is_finite() && ca > 0.0 && ca <= ca_total).then_some((h, ca))
+}
+
 /// [CaHCO3+]/[Ca++] or [CaCO3⁰]/[Ca++] of a free ion given (0 for any
 /// other parameter), at the apparent pair constants of `k`.
 pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
