@@ -307,15 +307,23 @@ impl Pair<'_> {
 
 /// Checks that a solved DIC (mol/kg) is one a measurement could have: a pH
 /// near 0 with ordinary alkalinity, say, implies an absurd DIC.
+#[inline(always)]
 pub(crate) fn check_dic(pair: &Pair, dic: f64) -> Result<()> {
-    let (min, max) = Parameter::Dic.accepted_range();
-    let umol = dic * 1e6;
     if dic_in_range(dic) {
         return Ok(());
     }
-    Err(pair.no_water(format!(
+    Err(dic_out_of_range(pair, dic))
+}
+
+/// The error of [`check_dic`], out of line.
+#[cold]
+#[inline(never)]
+fn dic_out_of_range(pair: &Pair, dic: f64) -> Error {
+    let (min, max) = Parameter::Dic.accepted_range();
+    let umol = dic * 1e6;
+    pair.no_water(format!(
         "the DIC would be {umol:.3e} µmol/kg, beyond the accepted {min} to {max} µmol/kg"
-    )))
+    ))
 }
 
 /// Whether h lies in pH 0–14 (a pH given as exactly 0 or 14 may come back a
@@ -381,7 +389,18 @@ pub(crate) fn solve_near(
     options: &SolveOptions,
     near_h: f64,
 ) -> Result<Solution> {
-    solve_working(k, &working(k, a, b)?, options, near_h)
+    check_pair(a, b)?;
+    let mut warnings = Warnings::new();
+    let mut ka = to_working(k, a, &mut warnings);
+    let mut kb = to_working(k, b, &mut warnings);
+    let (mut ma, mut mb) = (a, b);
+    if ka.rank() > kb.rank() {
+        std::mem::swap(&mut ka, &mut kb);
+        std::mem::swap(&mut ma, &mut mb);
+    }
+    let pair = Pair { a: ma, b: mb };
+    let (h, dic) = solve_pair(k, ka, kb, pair, options, near_h, &mut warnings)?;
+    Ok(Solution { h, dic, warnings })
 }
 
 /// A measured pair in its internal form at some constants, in the order
@@ -430,10 +449,26 @@ pub(crate) fn solve_working(
     options: &SolveOptions,
     near_h: f64,
 ) -> Result<Solution> {
+    let mut warnings = w.warnings.clone();
+    let (h, dic) = solve_pair(k, w.ka, w.kb, w.pair, options, near_h, &mut warnings)?;
+    Ok(Solution { h, dic, warnings })
+}
+
+/// h and DIC from a pair in its internal form, ordered by rank; notes go
+/// to `warnings`. (Inlined into both callers, so that [`solve_near`]
+/// costs what it did as one function.)
+#[inline(always)]
+fn solve_pair(
+    k: &Constants,
+    ka: WorkingValue,
+    kb: WorkingValue,
+    pair: Pair,
+    options: &SolveOptions,
+    near_h: f64,
+    warnings: &mut Warnings,
+) -> Result<(f64, f64)> {
     let warm = near_h > 0.0 && near_h.is_finite();
     let start = |cold: f64| if warm { near_h } else { cold };
-    let mut warnings = w.warnings.clone();
-    let (ka, kb, pair) = (w.ka, w.kb, w.pair);
     let (ma, mb) = (pair.a, pair.b);
     let k12 = k.k1e() * k.k2e();
 
@@ -493,7 +528,7 @@ pub(crate) fn solve_working(
         }
         (WorkingValue::Ta(ta), WorkingValue::Co3(co3)) => {
             let fits = |h: f64| h_in_range(h) && dic_in_range(co3 * dic_per_co3(k, h));
-            let h = ta_co3_root(k, &pair, ta, co3, options, fits, &mut warnings)?;
+            let h = ta_co3_root(k, &pair, ta, co3, options, fits, warnings)?;
             (h, co3 * dic_per_co3(k, h))
         }
         (WorkingValue::Dic(dic), WorkingValue::H(h)) => (h, dic),
@@ -525,7 +560,7 @@ pub(crate) fn solve_working(
                             crate::speciation::alkalinity::parts(k, h, dic).total(),
                         ))
             };
-            let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, &mut warnings)?;
+            let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, warnings)?;
             (h, dic)
         }
         (WorkingValue::Dic(dic), WorkingValue::Co3(co3)) => {
@@ -567,7 +602,7 @@ pub(crate) fn solve_working(
         )));
     }
     check_dic(&pair, dic)?;
-    Ok(Solution { h, dic, warnings })
+    Ok((h, dic))
 }
 
 /// First guess for (TA, DIC): the root of the carbonate-only equation
