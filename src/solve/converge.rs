@@ -435,6 +435,35 @@ mod tests {
         }
     }
 
+    /// Where the closed form has no answer (the alkalinity is below the
+    /// hydroxide of the pH given), the fixed point starts as before and the
+    /// pair is refused as before: no water fits.
+    #[test]
+    fn without_a_closed_form_the_fixed_point_starts_as_before() {
+        let water = Water::fresh(Conditions::new(20.0, 0.0).unwrap())
+            .unwrap()
+            .with_specific_conductance_us_cm(300.0)
+            .unwrap()
+            .with_composition(
+                Composition::default()
+                    .with_calcium(Amount::PerKg(1e-3))
+                    .unwrap(),
+            );
+        let basis = FreshBasis::new(&water, false).unwrap();
+        let k = basis.constants_at(basis.fixed_i.unwrap(), 1e-3, 1e-3);
+        let (ph, ta) = (11.0, 5e-5);
+        let h = crate::base::numeric::pow10(-ph);
+        assert_eq!(free_calcium_at_alkalinity(&k, ta, 1e-3, h), None);
+        let (a, b) = (
+            Measured::ph(ph, None).unwrap(),
+            Measured::per_kg(crate::sample::measured::Parameter::Alkalinity, ta).unwrap(),
+        );
+        let e = basis
+            .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
+            .unwrap_err();
+        assert!(matches!(e, Error::NoWaterFits { .. }), "{e}");
+    }
+
     /// The free calcium of a pH with an alkalinity in closed form is the
     /// fixed point of the free calcium: the shared solver at it gives back
     /// the same free calcium, to rounding, over a grid of invented waters.
