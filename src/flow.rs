@@ -685,10 +685,11 @@ fn solve_lean(
         Basis::Fresh(basis) => {
             let settled = basis.converge_pair(&a, &b, options.root, near)?;
             let (h, dic) = (settled.sol.h, settled.sol.dic);
-            let k = settled.k;
+            // Borrowed where it lies: the constants are a large value.
+            let k = &settled.k;
             let mut ignored = Warnings::new();
-            let figures = basis.fresh_figures(&k, h, dic, options, near, &mut ignored);
-            State::build_quiet(water, &k, h, dic, Some(figures), (&a, &b))
+            let figures = basis.fresh_figures(k, h, dic, options, near, &mut ignored);
+            State::build_quiet(water, k, h, dic, Some(figures), (&a, &b))
         }
     }
 }
