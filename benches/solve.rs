@@ -24,7 +24,13 @@
 //!   wind, air CO2 420 ppm: the flux and the water at equilibrium with the
 //!   air, a second solve), measured back to back; and the same two with
 //!   the water prepared once (`prepared_plain`, `prepared_with_exchange`,
-//!   as a sheet of one water solves its rows).
+//!   as a sheet of one water solves its rows);
+//! - `binding_rows/saline_ph_alkalinity_with_air` and
+//!   `binding_rows/fresh_with_calcium_and_air`: 32 rows over the ranges of
+//!   the Python binding's speed benchmark, each row a water made, solved
+//!   and given its exchange with the default air, as the library loops of
+//!   the binding do; measured back to back, their ratio is the
+//!   library-level fresh/saline ratio of issue 15.
 //!
 //! The values of the other seven parameters come from solving the
 //! alkalinity + DIC pair once, so every pair describes the same water.
@@ -320,6 +326,93 @@ fn bench_exchange(c: &mut Criterion) {
     }
 }
 
+/// Rows of the Python binding's speed benchmark
+/// (`bindings/python/benches/speed.py`), drawn evenly over its ranges by a
+/// fixed sequence (invented values): fresh rows of 5–30 °C, specific
+/// conductance 150–600 µS/cm, alkalinity 40–160 mg/L as CaCO3, pH (NBS)
+/// 7.0–8.6 and calcium 10–80 mg/L; saline rows of 10–30 °C, salinity
+/// 30–35, alkalinity 2100–2400 µmol/kg and pH (total) 7.8–8.2.
+const BINDING_ROWS: usize = 32;
+
+/// The k-th of `BINDING_ROWS` points of a low-discrepancy sequence in
+/// [lo, hi] (the golden-ratio sequence, shifted per input by `shift`).
+fn spread(k: usize, shift: f64, lo: f64, hi: f64) -> f64 {
+    let golden = 0.618_033_988_749_894_9;
+    let u = (shift + golden * k as f64).fract();
+    lo + (hi - lo) * u
+}
+
+/// The library's own loop over the binding's rows, as
+/// `library_loop_fresh` and `library_loop` in `bindings/python/src`
+/// solve them: a water made for each row, the pair solved, then the
+/// exchange with the default air (the water at equilibrium with it, a
+/// second solve). Each fresh row and each saline row, measured back to
+/// back in one run (`binding_rows/fresh_with_calcium_and_air` beside
+/// `binding_rows/saline_ph_alkalinity_with_air`), gives the library-level
+/// ratio of issue 15.
+fn bench_binding_rows(c: &mut Criterion) {
+    use travertine::units::{Quantity, Unit, CA_G_MOL};
+    use travertine::PhScale;
+    let air = Air::new();
+    let fresh_row = |k: usize| -> State {
+        let calcium = Amount::from_quantity(
+            Quantity::new(spread(k, 0.1, 10.0, 80.0), Unit::MgPerLCa),
+            Unit::MgPerLCa,
+            CA_G_MOL,
+        )
+        .expect("calcium");
+        Water::fresh(Conditions::new(spread(k, 0.3, 5.0, 30.0), 0.0).expect("conditions"))
+            .and_then(|w| w.with_specific_conductance_us_cm(spread(k, 0.5, 150.0, 600.0)))
+            .map(|w| w.with_composition(Composition::default().with_calcium(calcium).expect("ca")))
+            .and_then(|w| {
+                w.solve(
+                    Measured::new(
+                        Parameter::Alkalinity,
+                        Quantity::new(spread(k, 0.7, 40.0, 160.0), Unit::MgPerLCaCO3),
+                    )?,
+                    Measured::ph(spread(k, 0.9, 7.0, 8.6), None)?,
+                )
+            })
+            .and_then(|s| s.with_exchange(&air, None))
+            .expect("fresh row")
+    };
+    let saline_row = |k: usize| -> State {
+        Water::saline(
+            Conditions::new(spread(k, 0.3, 10.0, 30.0), spread(k, 0.5, 30.0, 35.0))
+                .expect("conditions"),
+        )
+        .and_then(|w| {
+            w.solve(
+                Measured::alkalinity_umol_kg(spread(k, 0.7, 2100.0, 2400.0))?,
+                Measured::ph(spread(k, 0.9, 7.8, 8.2), Some(PhScale::Total))?,
+            )
+        })
+        .and_then(|s| s.with_exchange(&air, None))
+        .expect("saline row")
+    };
+    for k in 0..BINDING_ROWS {
+        let (f, s) = (fresh_row(k), saline_row(k));
+        assert!(f.langelier_index.is_some() && f.exchange.and_then(|e| e.equilibrium_ph).is_some());
+        assert!(s.exchange.and_then(|e| e.equilibrium_ph).is_some());
+    }
+    let mut group = c.benchmark_group("binding_rows");
+    group.bench_function("saline_ph_alkalinity_with_air", |bench| {
+        bench.iter(|| {
+            for k in 0..BINDING_ROWS {
+                black_box(saline_row(black_box(k)));
+            }
+        })
+    });
+    group.bench_function("fresh_with_calcium_and_air", |bench| {
+        bench.iter(|| {
+            for k in 0..BINDING_ROWS {
+                black_box(fresh_row(black_box(k)));
+            }
+        })
+    });
+    group.finish();
+}
+
 /// As [`check_pair`], on the NBS scale of the fresh medium.
 fn check_fresh_pair(water: &Water, reference: &State, a: Measured, b: Measured) {
     let name = format!("{}+{}", a.parameter().name(), b.parameter().name());
@@ -348,6 +441,6 @@ criterion_group! {
     name = benches;
     config = settings();
     targets = bench_constants, bench_full_solve, bench_deep_nutrients, bench_low_salinity, bench_fresh,
-        bench_exchange
+        bench_exchange, bench_binding_rows
 }
 criterion_main!(benches);

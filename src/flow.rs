@@ -197,15 +197,26 @@ impl Water {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn solve_with(&self, a: Measured, b: Measured, options: &SolveOptions) -> Result<State> {
+        self.solve_near(a, b, options, &Near::default())
+    }
+
+    /// As [`Water::solve_with`], the searches started from `near`.
+    fn solve_near(
+        &self,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+        near: &Near,
+    ) -> Result<State> {
         // As a prepared water, without moving the constants into one.
         match self.medium() {
             Medium::Saline => {
                 let k = Constants::saline(self.conditions(), self.composition(), self.fits())?;
-                solve_in(self, Basis::Saline(&k), a, b, options, &Near::default())
+                solve_in(self, Basis::Saline(&k), a, b, options, near)
             }
             Medium::Fresh => {
                 let basis = FreshBasis::new(self, false)?;
-                solve_in(self, Basis::Fresh(&basis), a, b, options, &Near::default())
+                solve_in(self, Basis::Fresh(&basis), a, b, options, near)
             }
         }
     }
@@ -638,12 +649,26 @@ fn at_equilibrium_with(
     fco2_uatm: f64,
     prepared: Option<&PreparedWater>,
 ) -> Result<State> {
-    let options = SolveOptions::default().with_media_comparison(false);
+    // Only the pH and the free CO2 of that water are read: no saturation
+    // pH (a search of its own) is made for it.
+    let options = SolveOptions {
+        saturation_ph: false,
+        ..SolveOptions::default().with_media_comparison(false)
+    };
     let a = Measured::alkalinity_umol_kg(state.alkalinity_umol_kg)?;
     let b = Measured::fco2_uatm(fco2_uatm)?;
+    // In fresh water its fixed point starts from the state's ionic
+    // strength and free calcium (the same water at another pH: nearer its
+    // own than the first guesses); it is settled to the same tolerance.
+    let here = state.near();
+    let near = Near {
+        ionic_strength: here.ionic_strength,
+        calcium_free: here.calcium_free,
+        ..Near::default()
+    };
     match prepared {
-        Some(p) if p.water() == state.water_sample() => p.solve_with(a, b, &options),
-        _ => state.water_sample().solve_with(a, b, &options),
+        Some(p) if p.water() == state.water_sample() => p.solve_near(a, b, &options, &near),
+        _ => state.water_sample().solve_near(a, b, &options, &near),
     }
 }
 
@@ -681,11 +706,12 @@ fn solve_lean(
         }
         Basis::Fresh(basis) => {
             let settled = basis.converge_pair(&a, &b, options.root, near)?;
-            let k = basis.constants_of(&settled);
             let (h, dic) = (settled.sol.h, settled.sol.dic);
+            // Borrowed where it lies: the constants are a large value.
+            let k = &settled.k;
             let mut ignored = Warnings::new();
-            let figures = basis.fresh_figures(&k, h, dic, options, near, &mut ignored);
-            State::build_quiet(water, &k, h, dic, Some(figures), (&a, &b))
+            let figures = basis.fresh_figures(k, h, dic, options, near, &mut ignored);
+            State::build_quiet(water, k, h, dic, Some(figures), (&a, &b))
         }
     }
 }
@@ -766,7 +792,7 @@ fn solve_fresh(
     near: &Near,
 ) -> Result<State> {
     let settled = basis.converge_pair(&a, &b, options.root, near)?;
-    let mut k = basis.constants_of(&settled);
+    let mut k = settled.k;
     let Solution {
         h,
         dic,

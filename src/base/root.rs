@@ -82,6 +82,7 @@ impl Search {
 /// stay inside the interval (the usual case with a good first guess) thus
 /// spends no evaluation on the ends, and convergence is still guaranteed:
 /// every bisection is on a bracket whose ends are both evaluated.
+#[inline(always)]
 pub(crate) fn monotone_newton<F>(mut f: F, search: &Search, guess: f64) -> Result<f64, Failure>
 where
     F: FnMut(f64) -> (f64, f64),

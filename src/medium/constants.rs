@@ -570,12 +570,25 @@ impl Constants {
     pub(crate) fn log10s(&self) -> Log10s {
         self.logs.unwrap_or_else(|| {
             let log10 = crate::base::numeric::log10;
+            // Without sulfate and fluoride the total, sea-water and free
+            // scales are one, and the NBS scale is the working scale of
+            // fresh water: one logarithm where the values are equal.
+            let free = log10(self.free_per_working);
+            let like_free = |v: f64| {
+                if v == self.free_per_working {
+                    free
+                } else if v == 1.0 {
+                    0.0
+                } else {
+                    log10(v)
+                }
+            };
             Log10s {
                 per_working: [
-                    log10(self.total_per_working),
-                    log10(self.seawater_per_working),
-                    log10(self.free_per_working),
-                    log10(self.nbs_per_working),
+                    like_free(self.total_per_working),
+                    like_free(self.seawater_per_working),
+                    free,
+                    like_free(self.nbs_per_working),
                 ],
                 ksp_calcite: log10(self.ksp_calcite),
                 ksp_aragonite: log10(self.ksp_aragonite),

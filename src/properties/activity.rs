@@ -91,6 +91,16 @@ pub fn debye_huckel_a(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
     1.82483e6 * rho_w_g_cm3.sqrt() * et.powf(-1.5)
 }
 
+/// Debye–Hückel A and B together, as [`debye_huckel_a`] and
+/// [`debye_huckel_b`] give them (to rounding), from one square root:
+/// with r = (εT)^(−1/2), A = 1.82483e6 √ρ r³ and B = 50.2916 √ρ r.
+pub(crate) fn debye_huckel_coefficients(temperature_c: f64, rho_w_g_cm3: f64) -> (f64, f64) {
+    let et = dielectric_constant(temperature_c) * (temperature_c + 273.15);
+    let r = 1.0 / et.sqrt();
+    let root_rho = rho_w_g_cm3.sqrt();
+    (1.82483e6 * root_rho * (r * r * r), 50.2916 * root_rho * r)
+}
+
 /// Debye–Hückel B (Å⁻¹ kg^0.5 mol^-0.5).
 ///
 /// ```
@@ -229,5 +239,25 @@ impl Gammas {
 impl std::fmt::Display for ActivityModel {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         f.write_str(self.name())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The coefficients made together are those made apart, to rounding.
+    #[test]
+    fn debye_huckel_coefficients_together_match_apart() {
+        for (t, rho) in [
+            (0.0, 0.99984),
+            (15.0, 0.99910),
+            (25.0, 0.997048),
+            (40.0, 0.99222),
+        ] {
+            let (a, b) = debye_huckel_coefficients(t, rho);
+            assert!((a / debye_huckel_a(t, rho) - 1.0).abs() < 1e-14, "A at {t}");
+            assert!((b / debye_huckel_b(t, rho) - 1.0).abs() < 1e-14, "B at {t}");
+        }
     }
 }

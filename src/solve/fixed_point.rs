@@ -168,7 +168,7 @@ pub(crate) fn falsi(f: impl Fn(f64) -> f64, a: f64, b: f64) -> Option<f64> {
 }
 
 /// [`falsi`] with f already known at both ends: `(a, f(a))`, `(b, f(b))`.
-pub(crate) fn falsi_known(
+fn falsi_known(
     f: impl Fn(f64) -> f64,
     (mut a, mut fa): (f64, f64),
     (mut b, mut fb): (f64, f64),

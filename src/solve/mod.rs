@@ -112,6 +112,10 @@ pub struct SolveOptions {
     /// other root to report it (off only for the crate's own derived
     /// solves, which read the chosen root alone).
     pub(crate) report_other_root: bool,
+    /// Whether a fresh water with calcium gets its saturation pH and
+    /// Langelier index (off only for the crate's own derived solves that
+    /// read neither: the water at equilibrium with the air).
+    pub(crate) saturation_ph: bool,
 }
 
 impl Default for SolveOptions {
@@ -121,6 +125,7 @@ impl Default for SolveOptions {
             precipitation_potential: false,
             compare_media: true,
             report_other_root: true,
+            saturation_ph: true,
         }
     }
 }
@@ -275,6 +280,7 @@ fn dic_per_co3(k: &Constants, h: f64) -> f64 {
     h * h / (k.k1e() * k.k2e()) + h / k.k2e() + 1.0
 }
 
+#[derive(Clone, Copy)]
 pub(crate) struct Pair<'a> {
     pub(crate) a: &'a Measured,
     pub(crate) b: &'a Measured,
@@ -301,15 +307,23 @@ impl Pair<'_> {
 
 /// Checks that a solved DIC (mol/kg) is one a measurement could have: a pH
 /// near 0 with ordinary alkalinity, say, implies an absurd DIC.
+#[inline(always)]
 pub(crate) fn check_dic(pair: &Pair, dic: f64) -> Result<()> {
-    let (min, max) = Parameter::Dic.accepted_range();
-    let umol = dic * 1e6;
     if dic_in_range(dic) {
         return Ok(());
     }
-    Err(pair.no_water(format!(
+    Err(dic_out_of_range(pair, dic))
+}
+
+/// The error of [`check_dic`], out of line.
+#[cold]
+#[inline(never)]
+fn dic_out_of_range(pair: &Pair, dic: f64) -> Error {
+    let (min, max) = Parameter::Dic.accepted_range();
+    let umol = dic * 1e6;
+    pair.no_water(format!(
         "the DIC would be {umol:.3e} µmol/kg, beyond the accepted {min} to {max} µmol/kg"
-    )))
+    ))
 }
 
 /// Whether h lies in pH 0–14 (a pH given as exactly 0 or 14 may come back a
@@ -339,10 +353,11 @@ pub(crate) fn alkalinity_in_range(ta: f64) -> bool {
 /// unknowns of the solved neighbour (its working-scale h, and in fresh
 /// water its ionic strength, free calcium and saturation pH). Used by the
 /// propagation of uncertainties, whose perturbed solves lie within a small
-/// step of the unperturbed one: each search still runs on its full bracket
-/// with its usual convergence test, so a start that is not near changes
-/// the cost of a solve, never its result beyond the tolerance of the
-/// search.
+/// step of the unperturbed one, and by the water at equilibrium with the
+/// air (the ionic strength and free calcium of the sample): each search
+/// still runs with its usual convergence test (and falls back to its full
+/// bracket), so a start that is not near changes the cost of a solve,
+/// never its result beyond the tolerance of the search.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
 pub(crate) struct Near {
     /// The neighbour's h on the working scale (NaN: none).
@@ -375,8 +390,6 @@ pub(crate) fn solve_near(
     near_h: f64,
 ) -> Result<Solution> {
     check_pair(a, b)?;
-    let warm = near_h > 0.0 && near_h.is_finite();
-    let start = |cold: f64| if warm { near_h } else { cold };
     let mut warnings = Warnings::new();
     let mut ka = to_working(k, a, &mut warnings);
     let mut kb = to_working(k, b, &mut warnings);
@@ -386,6 +399,77 @@ pub(crate) fn solve_near(
         std::mem::swap(&mut ma, &mut mb);
     }
     let pair = Pair { a: ma, b: mb };
+    let (h, dic) = solve_pair(k, ka, kb, pair, options, near_h, &mut warnings)?;
+    Ok(Solution { h, dic, warnings })
+}
+
+/// A measured pair in its internal form at some constants, in the order
+/// the pair algebra takes it, with the notes the conversion gave.
+pub(crate) struct Working<'a> {
+    ka: WorkingValue,
+    kb: WorkingValue,
+    pair: Pair<'a>,
+    warnings: Warnings,
+}
+
+/// The internal form of the pair `a`, `b` at the constants `k`
+/// ([`to_working`]), after the pair is checked.
+pub(crate) fn working<'a>(k: &Constants, a: &'a Measured, b: &'a Measured) -> Result<Working<'a>> {
+    check_pair(a, b)?;
+    let mut warnings = Warnings::new();
+    let mut ka = to_working(k, a, &mut warnings);
+    let mut kb = to_working(k, b, &mut warnings);
+    let (mut ma, mut mb) = (a, b);
+    if ka.rank() > kb.rank() {
+        std::mem::swap(&mut ka, &mut kb);
+        std::mem::swap(&mut ma, &mut mb);
+    }
+    Ok(Working {
+        ka,
+        kb,
+        pair: Pair { a: ma, b: mb },
+        warnings,
+    })
+}
+
+/// Whether the internal form of a measured parameter depends on the free
+/// calcium of fresh water: the free HCO3- and CO3-- given are turned into
+/// carbon-balance totals with the calcium pairs. Every other form depends
+/// only on the ionic strength and the temperature-only constants, so a
+/// fixed point over the free calcium converts it once ([`working`]).
+pub(crate) fn depends_on_calcium(m: &Measured) -> bool {
+    matches!(m.parameter(), Parameter::Hco3 | Parameter::Co3)
+}
+
+/// As [`solve_near`], for a pair already in its internal form at `k`
+/// ([`working`]).
+pub(crate) fn solve_working(
+    k: &Constants,
+    w: &Working,
+    options: &SolveOptions,
+    near_h: f64,
+) -> Result<Solution> {
+    let mut warnings = w.warnings.clone();
+    let (h, dic) = solve_pair(k, w.ka, w.kb, w.pair, options, near_h, &mut warnings)?;
+    Ok(Solution { h, dic, warnings })
+}
+
+/// h and DIC from a pair in its internal form, ordered by rank; notes go
+/// to `warnings`. (Inlined into both callers, so that [`solve_near`]
+/// costs what it did as one function.)
+#[inline(always)]
+fn solve_pair(
+    k: &Constants,
+    ka: WorkingValue,
+    kb: WorkingValue,
+    pair: Pair,
+    options: &SolveOptions,
+    near_h: f64,
+    warnings: &mut Warnings,
+) -> Result<(f64, f64)> {
+    let warm = near_h > 0.0 && near_h.is_finite();
+    let start = |cold: f64| if warm { near_h } else { cold };
+    let (ma, mb) = (pair.a, pair.b);
     let k12 = k.k1e() * k.k2e();
 
     let (h, dic) = match (ka, kb) {
@@ -444,7 +528,7 @@ pub(crate) fn solve_near(
         }
         (WorkingValue::Ta(ta), WorkingValue::Co3(co3)) => {
             let fits = |h: f64| h_in_range(h) && dic_in_range(co3 * dic_per_co3(k, h));
-            let h = ta_co3_root(k, &pair, ta, co3, options, fits, &mut warnings)?;
+            let h = ta_co3_root(k, &pair, ta, co3, options, fits, warnings)?;
             (h, co3 * dic_per_co3(k, h))
         }
         (WorkingValue::Dic(dic), WorkingValue::H(h)) => (h, dic),
@@ -476,7 +560,7 @@ pub(crate) fn solve_near(
                             crate::speciation::alkalinity::parts(k, h, dic).total(),
                         ))
             };
-            let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, &mut warnings)?;
+            let h = dic_hco3_root(k, &pair, dic, hco3, options, fits, warnings)?;
             (h, dic)
         }
         (WorkingValue::Dic(dic), WorkingValue::Co3(co3)) => {
@@ -518,7 +602,7 @@ pub(crate) fn solve_near(
         )));
     }
     check_dic(&pair, dic)?;
-    Ok(Solution { h, dic, warnings })
+    Ok((h, dic))
 }
 
 /// First guess for (TA, DIC): the root of the carbonate-only equation

@@ -8,9 +8,11 @@ use crate::medium::fresh::ionic::ion_sum;
 use crate::medium::fresh::{FreshBasis, IonicStrengthRoute};
 use crate::medium::Constants;
 use crate::sample::measured::{Measured, Parameter};
-use crate::solve::fixed_point::{falsi, falsi_known};
+use crate::solve::fixed_point::falsi;
 use crate::solve::{Near, RootChoice, SolveOptions};
-use crate::speciation::calcium::{free_carbonate, ln_omega_at_alkalinity};
+use crate::speciation::calcium::{
+    free_carbonate, ln_omega_and_slope_at_alkalinity, ln_omega_at_alkalinity,
+};
 
 /// The charge imbalance of the ions given, as % of the sum of their
 /// charges, beyond which a warning is raised. Laboratories accept about
@@ -18,6 +20,34 @@ use crate::speciation::calcium::{free_carbonate, ln_omega_at_alkalinity};
 /// common practice, from memory, unverified); twice that cannot be an
 /// analytical scatter.
 pub const CHARGE_BALANCE_CAUTION_PERCENT: f64 = 10.0;
+
+/// The range of NBS pH in which pHs is sought.
+const PHS_LOWEST: f64 = 4.0;
+const PHS_HIGHEST: f64 = 13.0;
+/// A Newton step of pHs shorter than this (in pH) ends the iteration.
+const PHS_ACCEPT: f64 = 1e-6;
+
+/// A first estimate of pHs: the textbook closed form (Langelier 1936, in
+/// its usual form; from memory, unverified) with the apparent constants and
+/// the calcium pairs of the sample. At saturation the free CO3-- is
+/// Ksp′/Ca, Ca being taken as the sample's free calcium; its carbon-balance
+/// total is (1 + the CaCO3⁰ pair ratio) times that, the carbonate
+/// alkalinity is taken as all the alkalinity (HCO3- total = TA − 2 CO3--
+/// total), and h = K2e HCO3- / CO3-- with the K2e of those pairs. Only a
+/// start: the Newton iteration then solves the exact balance. `None` where
+/// it is not a pH of 4 to 13.
+pub(crate) fn saturation_ph_estimate(k: &Constants, ta: f64, ca_total: f64) -> Option<f64> {
+    let ca = if k.calcium_free_mol_kg() > 0.0 {
+        k.calcium_free_mol_kg()
+    } else {
+        ca_total
+    };
+    let co3 = k.ksp_calcite() / ca * (1.0 + k.pair_co3());
+    let hco3 = ta - 2.0 * co3;
+    let h = k.k2e() * hco3 / co3;
+    let ph = -crate::base::numeric::log10(h);
+    (hco3 > 0.0 && (PHS_LOWEST..=PHS_HIGHEST).contains(&ph)).then_some(ph)
+}
 
 impl FreshBasis {
     pub(crate) fn fresh_figures(
@@ -51,25 +81,26 @@ impl FreshBasis {
             langelier_index: None,
             precipitation_potential_mg_l_caco3: None,
         };
-        if self.totals.calcium_mol_kg <= 0.0 {
+        if self.totals.calcium_mol_kg <= 0.0
+            || !(options.saturation_ph || options.precipitation_potential)
+        {
             return e;
         }
         let ta = crate::speciation::alkalinity::parts(k, h, dic).total();
         let ph = -crate::base::numeric::log10(h);
-        let phs = near
-            .saturation_ph
-            .and_then(|p| self.saturation_ph_near(k, ta, p))
-            .or_else(|| self.saturation_ph(k, ta, ph));
-        match phs {
-            Some(phs) => {
-                e.saturation_ph_nbs = Some(phs);
-                e.langelier_index = Some(ph - phs);
+        if options.saturation_ph {
+            let phs = self.saturation_ph(k, ta, ph, near.saturation_ph);
+            match phs {
+                Some(phs) => {
+                    e.saturation_ph_nbs = Some(phs);
+                    e.langelier_index = Some(ph - phs);
+                }
+                None => warnings.push(Warning::Note {
+                    code: "langelier_not_computed",
+                    text: "no pH between 4 and 13 saturates this water with calcite at its \
+                           alkalinity and calcium: Langelier index not computed",
+                }),
             }
-            None => warnings.push(Warning::Note {
- code: "langelier_not_computed",
- text: "no pH between 4 and 13 saturates this water with calcite at its alkalinity and \
-                 calcium: Langelier index not computed",
- }),
         }
         if options.precipitation_potential {
             match self.precipitation_potential(k, ta, dic) {
@@ -98,7 +129,7 @@ impl FreshBasis {
     /// rising side, and [`falsi`] refines it to 1e-12 pH. This is the
     /// same root as the alkalinity + CO3 pair at CO3 = Ksp'/Ca (its lower
     /// root), at a tenth of the cost.
-    pub(crate) fn saturation_ph(&self, k: &Constants, ta: f64, ph: f64) -> Option<f64> {
+    pub(crate) fn saturation_ph_search(&self, k: &Constants, ta: f64, ph: f64) -> Option<f64> {
         const LOWEST: f64 = 4.0;
         const HIGHEST: f64 = 13.0;
         const STEP: f64 = 0.5;
@@ -161,41 +192,87 @@ impl FreshBasis {
         None
     }
 
-    /// pHs as [`FreshBasis::saturation_ph`] gives it, for a water very near
-    /// one whose pHs is `near` (a perturbed solve of the propagation of
-    /// uncertainties): one Newton step from `near` with the slope ln 10 of
-    /// [`FreshBasis::saturation_ph`]'s first step, taken twice as far so
-    /// that the step brackets the root, then [`falsi`] to 1e-12 pH on that
-    /// bracket. The root found is the one on the rising side of ln Ω next
-    /// to `near`, the same as the full search finds for a water that near.
-    /// `None` where `near` is not within 0.01 pH of a bracketed root on
-    /// that side (the caller then searches in full).
-    pub(crate) fn saturation_ph_near(&self, k: &Constants, ta: f64, near: f64) -> Option<f64> {
-        const LOWEST: f64 = 4.0;
-        const HIGHEST: f64 = 13.0;
-        const REACH: f64 = 0.01;
+    /// pHs of the Langelier index, as [`FreshBasis::saturation_ph_search`]
+    /// defines and finds it, found first by Newton's iteration
+    /// ([`FreshBasis::saturation_ph_newton`]) from `near` (the pHs of a
+    /// water very near this one, in the propagation of uncertainties) or
+    /// else from the closed-form estimate of [`saturation_ph_estimate`];
+    /// where that iteration does not settle on the rising side of ln Ω
+    /// within pH 4 to 13, by the bracketing search from the sample's pH
+    /// `ph`.
+    pub(crate) fn saturation_ph(
+        &self,
+        k: &Constants,
+        ta: f64,
+        ph: f64,
+        near: Option<f64>,
+    ) -> Option<f64> {
+        let start = near
+            .filter(|p| (PHS_LOWEST..=PHS_HIGHEST).contains(p))
+            .or_else(|| saturation_ph_estimate(k, ta, self.totals.calcium_mol_kg))
+            .unwrap_or(ph);
+        self.saturation_ph_newton(k, ta, start)
+            .or_else(|| self.saturation_ph_search(k, ta, ph))
+    }
+
+    /// The pHs root by Newton's iteration on ln Ω(pH) at fixed alkalinity
+    /// and calcium, with the analytic slope of
+    /// [`ln_omega_and_slope_at_alkalinity`], from the pH `start`. The
+    /// iteration runs in h (each step multiplies h by 10^(−Δ pH), in the
+    /// [1/1] Padé form of the exponential for short steps, an error of
+    /// order Δ³ against the Newton step's Δ²). It ends at a step shorter
+    /// than [`PHS_ACCEPT`], returning the point after that step: near a
+    /// simple root the error after a step of length d is of order
+    /// (f″/2f′) d², here below 1e-12 pH, the tolerance of the bracketing
+    /// search (the same rule as the root in h, [`crate::base::root`]). A
+    /// start within a derivative step of the root (the pHs of the
+    /// unperturbed water, for a perturbed one) thus takes one evaluation. `None`, for the caller to search in full, where a slope is
+    /// not positive (the iterate is past the maximum of ln Ω, or at it: the
+    /// root sought is the one on the rising side, the only one there since
+    /// ln Ω rises to a single maximum), where an iterate leaves pH 4 to 13
+    /// or ln Ω is not defined there, or after 20 steps.
+    pub(crate) fn saturation_ph_newton(&self, k: &Constants, ta: f64, start: f64) -> Option<f64> {
+        const MAX_STEPS: usize = 20;
         let ca_total = self.totals.calcium_mol_kg;
-        let f = |p: f64| ln_omega_at_alkalinity(k, ta, ca_total, crate::base::numeric::pow10(-p));
-        if !(LOWEST..=HIGHEST).contains(&near) {
+        if !(PHS_LOWEST..=PHS_HIGHEST).contains(&start) {
             return None;
         }
-        let f0 = f(near)?;
-        if f0 == 0.0 {
-            return Some(near);
+        let (h_low, h_high) = (
+            crate::base::numeric::pow10(-PHS_HIGHEST),
+            crate::base::numeric::pow10(-PHS_LOWEST),
+        );
+        let mut h = crate::base::numeric::pow10(-start);
+        // The pH of h where known without a logarithm (at the start).
+        let mut ph = Some(start);
+        for _ in 0..MAX_STEPS {
+            let (f, slope) = ln_omega_and_slope_at_alkalinity(k, ta, ca_total, h)?;
+            if slope.is_nan() || slope <= 0.0 {
+                return None;
+            }
+            if f == 0.0 {
+                return Some(ph.unwrap_or_else(|| -crate::base::numeric::log10(h)));
+            }
+            // The step in pH, and in ln h: Δ ln h = −ln 10 Δ pH.
+            let step = -f / slope;
+            let y = -std::f64::consts::LN_10 * step;
+            let next = if y.abs() < 0.5 {
+                h * (2.0 + y) / (2.0 - y)
+            } else {
+                h * y.exp()
+            };
+            if !(h_low..=h_high).contains(&next) {
+                return None;
+            }
+            if step.abs() < PHS_ACCEPT {
+                return Some(match ph {
+                    Some(p) => p + step,
+                    None => -crate::base::numeric::log10(next),
+                });
+            }
+            h = next;
+            ph = None;
         }
-        let step = -2.0 * f0 / std::f64::consts::LN_10;
-        if step.abs() > REACH {
-            return None;
-        }
-        let far = (near + step).clamp(LOWEST, HIGHEST);
-        let f1 = f(far)?;
-        // On the rising side ln Ω is below zero under the root, above it over.
-        let rising = (f0 < 0.0 && f1 > 0.0 && far > near) || (f0 > 0.0 && f1 < 0.0 && far < near);
-        if !rising {
-            return None;
-        }
-        falsi_known(|p| f(p).unwrap_or(f64::NAN), (near, f0), (far, f1))
-            .filter(|p| (LOWEST..=HIGHEST).contains(p))
+        None
     }
 
     /// Calcium carbonate precipitation potential (mol/kg): the calcite that
@@ -220,7 +297,7 @@ impl FreshBasis {
             let given = |_: &Constants| Ok((a, b));
             match self.converge(ca_t - x, held, None, RootChoice::Natural, &cold, given) {
                 Ok(settled) => {
-                    let (kx, s) = (self.constants_of(&settled), settled.sol);
+                    let (kx, s) = (settled.k, settled.sol);
                     let co3 = free_carbonate(&kx, s.h, s.dic);
                     (kx.calcium_free_mol_kg() * co3 / kx.ksp_calcite()).ln()
                 }
@@ -252,5 +329,163 @@ impl FreshBasis {
             max_iter: 200,
         };
         roots::find_root_brent(lo, hi, log_omega, &mut conv).ok()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::base::units::Amount;
+    use crate::sample::{Composition, Conditions, Water};
+
+    /// A fresh water's basis and its constants at a settled ionic strength
+    /// and free calcium, from pH and alkalinity (invented waters).
+    fn settled(
+        t: f64,
+        conductance: f64,
+        calcium: f64,
+        ph: f64,
+        ta: f64,
+    ) -> (FreshBasis, Constants, f64) {
+        let water = Water::fresh(Conditions::new(t, 0.0).unwrap())
+            .unwrap()
+            .with_specific_conductance_us_cm(conductance)
+            .unwrap()
+            .with_composition(
+                Composition::default()
+                    .with_calcium(Amount::PerKg(calcium))
+                    .unwrap(),
+            );
+        let basis = FreshBasis::new(&water, false).unwrap();
+        let (a, b) = (
+            Measured::ph(ph, None).unwrap(),
+            Measured::per_kg(Parameter::Alkalinity, ta).unwrap(),
+        );
+        let s = basis
+            .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
+            .unwrap();
+        let ta = crate::speciation::alkalinity::parts(&s.k, s.sol.h, s.sol.dic).total();
+        (basis, s.k, ta)
+    }
+
+    /// A grid of invented fresh waters: 1 to 35 °C, conductance 50 to
+    /// 1500 µS/cm, calcium 0.05 to 4 mmol/kg, alkalinity 0.1 to 6 mmol/kg,
+    /// pH 6 to 9.5.
+    fn grid() -> Vec<(f64, f64, f64, f64, f64)> {
+        let mut g = Vec::new();
+        for t in [1.0, 12.0, 25.0, 35.0] {
+            for c in [50.0, 400.0, 1500.0] {
+                for ca in [5e-5, 8e-4, 4e-3] {
+                    for ta in [1e-4, 1.5e-3, 6e-3] {
+                        for ph in [6.0, 7.6, 9.5] {
+                            g.push((t, c, ca, ph, ta));
+                        }
+                    }
+                }
+            }
+        }
+        g
+    }
+
+    /// The value of ln Ω with its slope is the same number as without it,
+    /// and the slope is that of a central difference.
+    #[test]
+    fn ln_omega_slope_is_its_derivative() {
+        for (t, c, ca, ph, ta) in grid() {
+            let (_, k, ta) = settled(t, c, ca, ph, ta);
+            for p in [5.0, 7.0, 8.5] {
+                let at =
+                    |p: f64| ln_omega_at_alkalinity(&k, ta, ca, crate::base::numeric::pow10(-p));
+                let Some((v, slope)) =
+                    ln_omega_and_slope_at_alkalinity(&k, ta, ca, crate::base::numeric::pow10(-p))
+                else {
+                    assert!(at(p).is_none());
+                    continue;
+                };
+                assert_eq!(Some(v), at(p));
+                let d = 1e-5;
+                if let (Some(up), Some(down)) = (at(p + d), at(p - d)) {
+                    let central = (up - down) / (2.0 * d);
+                    assert!(
+                        (slope - central).abs() <= 1e-6 * central.abs().max(1.0),
+                        "{t} {c} {ca} {ph} {ta} at pH {p}: {slope} against {central}"
+                    );
+                }
+            }
+        }
+    }
+
+    /// pHs by Newton's iteration (from the estimate, and warm from a
+    /// neighbour's pHs) is the root the bracketing search finds, to 1e-12
+    /// relative, on a grid of fresh waters; where the search finds none,
+    /// neither does the whole.
+    #[test]
+    fn newton_saturation_ph_agrees_with_the_search() {
+        let mut found = 0;
+        let mut missed = 0;
+        for (t, c, ca, ph, ta) in grid() {
+            let (basis, k, ta) = settled(t, c, ca, ph, ta);
+            let search = basis.saturation_ph_search(&k, ta, ph);
+            let whole = basis.saturation_ph(&k, ta, ph, None);
+            match search {
+                Some(s) => {
+                    found += 1;
+                    let w = whole.expect("the whole finds the root the search finds");
+                    assert!(
+                        (w / s - 1.0).abs() <= 1e-12,
+                        "{t} {c} {ca} {ph} {ta}: {w} {s}"
+                    );
+                    // From the estimate, where there is one.
+                    if let Some(start) = saturation_ph_estimate(&k, ta, ca) {
+                        if let Some(n) = basis.saturation_ph_newton(&k, ta, start) {
+                            assert!((n / s - 1.0).abs() <= 1e-12, "{n} {s}");
+                        }
+                    }
+                    // Warm, from a neighbour's pHs a derivative step away.
+                    for near in [s + 1e-7, s - 3e-7] {
+                        let n = basis.saturation_ph(&k, ta, ph, Some(near)).unwrap();
+                        assert!((n / s - 1.0).abs() <= 1e-12, "warm {n} {s}");
+                    }
+                }
+                // The search walks in steps of 0.5 pH and can step over a
+                // narrow supersaturated window just below the maximum of
+                // ln Ω (near pH 10 in a cold, weakly buffered water): the
+                // iteration then finds that root, which must be a true
+                // root on the rising side.
+                None => {
+                    if let Some(p) = whole {
+                        missed += 1;
+                        let h = crate::base::numeric::pow10(-p);
+                        let (f, slope) = ln_omega_and_slope_at_alkalinity(&k, ta, ca, h).unwrap();
+                        assert!(f.abs() < 1e-9 && slope > 0.0, "{t} {c} {ca} {ph} {ta}: {p}");
+                        assert!((PHS_LOWEST..=PHS_HIGHEST).contains(&p));
+                    }
+                }
+            }
+        }
+        assert!(found > 200, "the grid has waters with a pHs: {found}");
+        assert!(
+            missed < 10,
+            "roots the search steps over are rare: {missed}"
+        );
+    }
+
+    /// Where Newton's iteration cannot settle on the rising side of ln Ω
+    /// (a start past its maximum, where hydroxide takes the alkalinity),
+    /// it gives nothing, and the whole falls back to the search.
+    #[test]
+    fn saturation_ph_falls_back_to_the_search() {
+        let (basis, k, ta) = settled(20.0, 300.0, 1e-3, 7.5, 1e-3);
+        let search = basis.saturation_ph_search(&k, ta, 7.5).unwrap();
+        // At pH 12.9 the slope of ln Ω is negative (or ln Ω undefined).
+        let far = 12.9;
+        let slope =
+            ln_omega_and_slope_at_alkalinity(&k, ta, 1e-3, crate::base::numeric::pow10(-far));
+        assert!(slope.is_none_or(|(_, s)| s <= 0.0), "{slope:?}");
+        assert_eq!(basis.saturation_ph_newton(&k, ta, far), None);
+        let whole = basis.saturation_ph(&k, ta, 7.5, Some(far)).unwrap();
+        assert_eq!(whole, search);
+        // A start outside pH 4 to 13 is refused too.
+        assert_eq!(basis.saturation_ph_newton(&k, ta, 13.5), None);
     }
 }

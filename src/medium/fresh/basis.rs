@@ -60,11 +60,12 @@ impl FreshBasis {
         let calcium = totals.calcium_mol_kg;
         let model = water.fresh_options().activity;
         let route = route(water);
+        let (dh_a, dh_b) = crate::properties::activity::debye_huckel_coefficients(t_c, rho_w);
         let mut b = FreshBasis {
             conditions: *c,
             model,
-            dh_a: crate::properties::activity::debye_huckel_a(t_c, rho_w),
-            dh_b: crate::properties::activity::debye_huckel_b(t_c, rho_w),
+            dh_a,
+            dh_b,
             kh: p10(pb::log_kh(t)),
             k1: p10(pb::log_k1(t)),
             k2: p10(pb::log_k2(t)),
