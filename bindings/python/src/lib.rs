@@ -143,11 +143,18 @@ fn uncertainties(given: &[(String, f64, bool)], constants: bool) -> PyResult<Unc
     Ok(u)
 }
 
-/// The output buffers of one task: a slice of every column.
+/// The output buffers of one task: a slice of every column, each computed
+/// one with its output, so that a row's outputs go from its state straight
+/// into their columns.
 struct Task<'a> {
     start: usize,
-    numbers: Vec<&'a mut [f64]>,
-    texts: Vec<&'a mut [Option<&'static str>]>,
+    numbers: Vec<(Output, &'a mut [f64])>,
+    texts: Vec<(Output, &'a mut [Option<&'static str>])>,
+    residuals: Vec<&'a mut [f64]>,
+    dose: Vec<&'a mut [f64]>,
+    /// The uncertainty column of each computed column, where asked for
+    /// (none for a text).
+    uncertain: Vec<Option<&'a mut [f64]>>,
     flags: Option<&'a mut [String]>,
     status: &'a mut [&'static str],
     message: &'a mut [std::sync::Arc<str>],
@@ -272,16 +279,42 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
         let mut flag_chunks = flags.as_mut().map(|v| v.chunks_mut(TASK));
         let mut status_chunks = status.chunks_mut(TASK);
         let mut message_chunks = message.chunks_mut(TASK);
+        let residuals_at = computed_numbers;
+        let dose_at = residuals_at + batch.residual_columns().len();
+        let u_at = dose_at + batch.dose_columns().len();
         let mut start = 0;
         while let (Some(status), Some(message)) = (status_chunks.next(), message_chunks.next()) {
             let len = status.len();
+            let mut number = number_chunks.iter_mut().filter_map(Iterator::next);
+            let mut text = text_chunks.iter_mut().filter_map(Iterator::next);
+            let mut numbers = Vec::with_capacity(computed_numbers);
+            let mut texts = Vec::with_capacity(text_count);
+            for (o, slot) in computed.iter().zip(&slots) {
+                match slot {
+                    Slot::Number(_) => numbers.extend(number.next().map(|c| (*o, c))),
+                    Slot::Text(_) => texts.extend(text.next().map(|c| (*o, c))),
+                }
+            }
+            let residuals: Vec<_> = number.by_ref().take(dose_at - residuals_at).collect();
+            let dose: Vec<_> = number.by_ref().take(u_at - dose_at).collect();
+            let uncertain = if uncertain {
+                slots
+                    .iter()
+                    .map(|slot| match slot {
+                        Slot::Number(_) => number.next(),
+                        Slot::Text(_) => None,
+                    })
+                    .collect()
+            } else {
+                Vec::new()
+            };
             tasks.push(Task {
                 start,
-                numbers: number_chunks
-                    .iter_mut()
-                    .filter_map(Iterator::next)
-                    .collect(),
-                texts: text_chunks.iter_mut().filter_map(Iterator::next).collect(),
+                numbers,
+                texts,
+                residuals,
+                dose,
+                uncertain,
                 flags: flag_chunks.as_mut().and_then(Iterator::next),
                 status,
                 message,
@@ -289,28 +322,22 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
             start += len;
         }
     }
-    let residuals_at = computed_numbers;
-    let dose_at = residuals_at + batch.residual_columns().len();
-    let u_at = dose_at + batch.dose_columns().len();
     let firsts: Vec<Option<FirstError>> = tasks
         .into_par_iter()
         .map(|mut t| {
             let mut out = Outcome::default();
             let mut first = None;
-            // Rows of one water often share their message: one copy.
-            let mut last: std::sync::Arc<str> = empty.clone();
-            let mut cells: Vec<Cell<'_>> = Vec::with_capacity(columns.len());
+            let mut cells: Vec<Cell<'_>> = columns.iter().map(|c| c.cell(t.start)).collect();
             for k in 0..t.status.len() {
                 let row = t.start + k;
-                cells.clear();
-                cells.extend(columns.iter().map(|c| c.cell(row)));
+                for (cell, column) in cells.iter_mut().zip(columns) {
+                    *cell = column.cell(row);
+                }
                 batch.solve(&cells, &mut out);
                 t.status[k] = out.status();
                 if !out.message().is_empty() {
-                    if &*last != out.message() {
-                        last = std::sync::Arc::from(out.message());
-                    }
-                    t.message[k] = last.clone();
+                    // Rows with the same message share one copy.
+                    t.message[k] = out.shared_message().clone();
                 }
                 if let Some((code, field)) = out.error() {
                     if first.is_none() {
@@ -323,24 +350,29 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
                     }
                     continue;
                 }
-                for (value, slot) in out.values().iter().zip(&slots) {
-                    match (value, slot) {
-                        (Value::Number(Some(v)), Slot::Number(j)) => t.numbers[*j][k] = *v,
-                        (Value::Text(Some(s)), Slot::Text(j)) => t.texts[*j][k] = Some(s),
-                        _ => {}
+                // Each output read from the row's state straight into its
+                // column.
+                if let Some(state) = out.state() {
+                    for (o, column) in t.numbers.iter_mut() {
+                        if let Value::Number(Some(v)) = o.value(state) {
+                            column[k] = v;
+                        }
+                    }
+                    for (o, column) in t.texts.iter_mut() {
+                        if let Value::Text(Some(s)) = o.value(state) {
+                            column[k] = Some(s);
+                        }
                     }
                 }
-                for (j, r) in out.residuals().enumerate() {
-                    t.numbers[residuals_at + j][k] = r.unwrap_or(f64::NAN);
+                for (column, r) in t.residuals.iter_mut().zip(out.residuals()) {
+                    column[k] = r.unwrap_or(f64::NAN);
                 }
-                for (j, d) in out.dose().enumerate() {
-                    t.numbers[dose_at + j][k] = d.unwrap_or(f64::NAN);
+                for (column, d) in t.dose.iter_mut().zip(out.dose()) {
+                    column[k] = d.unwrap_or(f64::NAN);
                 }
-                if uncertain {
-                    for (u, slot) in out.uncertainties().zip(&slots) {
-                        if let Slot::Number(j) = slot {
-                            t.numbers[u_at + j][k] = u.unwrap_or(f64::NAN);
-                        }
+                for (column, u) in t.uncertain.iter_mut().zip(out.uncertainties()) {
+                    if let Some(column) = column {
+                        column[k] = u.unwrap_or(f64::NAN);
                     }
                 }
                 if let Some(f) = t.flags.as_mut() {
