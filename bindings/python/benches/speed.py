@@ -52,15 +52,18 @@ def best(*calls, runs=3):
     """The best time of each call and its result. The calls take turns
     (runs rounds, each running every call once), so that a change in the
     machine's load during the benchmark weighs on all of them alike rather
-    than on whichever ran then."""
+    than on whichever ran then. The time is the call's: freeing the result of
+    the round before falls outside it."""
     times = [[] for _ in calls]
     outs = [None] * len(calls)
     for _ in range(runs):
         for i, f in enumerate(calls):
             t0 = time.perf_counter()
-            outs[i] = f()
+            out = f()
             times[i].append(time.perf_counter() - t0)
-    return [(min(t), out) for t, out in zip(times, outs)]
+            # The result of the round before is freed here, after the clock.
+            outs[i] = out
+    return [(min(t), o) for t, o in zip(times, outs)]
 
 
 def numeric(keys):

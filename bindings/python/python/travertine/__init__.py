@@ -177,9 +177,11 @@ def _decoded(codes: np.ndarray, texts: list) -> np.ndarray:
     rather than indexed: several times faster on a million rows."""
     if len(texts) == 1 or len(codes) == 0:
         return np.empty(len(codes), dtype=object)  # every element None
-    if len(texts) == 2 and codes.min() == 1:
+    first = codes[0]
+    if codes.min() == first == codes.max():
         a = np.empty(len(codes), dtype=object)
-        a.fill(texts[1])
+        if first:
+            a.fill(texts[first])
         return a
     table = np.empty(len(texts), dtype=object)
     table[:] = texts
