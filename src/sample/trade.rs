@@ -132,8 +132,18 @@ pub struct Sample {
 }
 
 /// The amount of a total: by its molar unit, or by one of its mass units.
+///
+/// Inline, so that the common case, a total not given, costs a test.
+#[inline]
 fn amount(total: Total, q: Option<Quantity>) -> Result<Option<Amount>> {
-    let Some(q) = q else { return Ok(None) };
+    match q {
+        None => Ok(None),
+        Some(q) => amount_of(total, q),
+    }
+}
+
+/// [`amount`] of a total given.
+fn amount_of(total: Total, q: Quantity) -> Result<Option<Amount>> {
     let mass = total.mass_units();
     for (unit, g) in mass {
         if q.unit == *unit {
@@ -762,43 +772,57 @@ impl Sample {
         } else {
             // Inputs that only set a fresh water's ionic strength would be
             // dropped in saline water, where salinity sets it: refused, not
-            // ignored.
-            let fresh_only = [
-                (Field::Tds, self.tds_mg_l.map(|v| format!("{v} mg/L"))),
-                (
-                    Field::IonicStrength,
-                    self.ionic_strength.map(|v| format!("{v} mol/kg")),
-                ),
-                (
-                    Field::Hardness,
-                    self.total(Total::Hardness).map(|q| q.to_string()),
-                ),
-                (
-                    Field::Magnesium,
-                    self.total(Total::Magnesium).map(|q| q.to_string()),
-                ),
-                (
-                    Field::Sodium,
-                    self.total(Total::Sodium).map(|q| q.to_string()),
-                ),
-                (
-                    Field::Potassium,
-                    self.total(Total::Potassium).map(|q| q.to_string()),
-                ),
-                (
-                    Field::Chloride,
-                    self.total(Total::Chloride).map(|q| q.to_string()),
-                ),
-            ];
-            if let Some((field, Some(name))) = fresh_only.into_iter().find(|(_, v)| v.is_some()) {
-                return Err(Error::WrongMedium {
-                    field,
-                    name,
-                    medium: "fresh",
-                    hint: "in saline water the ionic strength and the major ions follow from \
-                           salinity, so this would not be used; drop it, or choose --water \
-                           fresh",
-                });
+            // ignored. Most samples give none of them: one test first.
+            let any_fresh_only = self.tds_mg_l.is_some()
+                || self.ionic_strength.is_some()
+                || [
+                    Total::Hardness,
+                    Total::Magnesium,
+                    Total::Sodium,
+                    Total::Potassium,
+                    Total::Chloride,
+                ]
+                .iter()
+                .any(|t| self.total(*t).is_some());
+            if any_fresh_only {
+                let fresh_only = [
+                    (Field::Tds, self.tds_mg_l.map(|v| format!("{v} mg/L"))),
+                    (
+                        Field::IonicStrength,
+                        self.ionic_strength.map(|v| format!("{v} mol/kg")),
+                    ),
+                    (
+                        Field::Hardness,
+                        self.total(Total::Hardness).map(|q| q.to_string()),
+                    ),
+                    (
+                        Field::Magnesium,
+                        self.total(Total::Magnesium).map(|q| q.to_string()),
+                    ),
+                    (
+                        Field::Sodium,
+                        self.total(Total::Sodium).map(|q| q.to_string()),
+                    ),
+                    (
+                        Field::Potassium,
+                        self.total(Total::Potassium).map(|q| q.to_string()),
+                    ),
+                    (
+                        Field::Chloride,
+                        self.total(Total::Chloride).map(|q| q.to_string()),
+                    ),
+                ];
+                if let Some((field, Some(name))) = fresh_only.into_iter().find(|(_, v)| v.is_some())
+                {
+                    return Err(Error::WrongMedium {
+                        field,
+                        name,
+                        medium: "fresh",
+                        hint: "in saline water the ionic strength and the major ions follow from \
+                               salinity, so this would not be used; drop it, or choose --water \
+                               fresh",
+                    });
+                }
             }
         }
         if self.calcium_fraction.is_some() && self.total(Total::Hardness).is_none() {
@@ -823,153 +847,161 @@ impl Sample {
         }
 
         let mut comp = Composition::default();
-        if let Some(a) = amount(Total::Phosphate, self.total(Total::Phosphate))? {
-            comp = comp
-                .with_phosphate(a)
-                .map_err(retyped(Total::Phosphate, self.total(Total::Phosphate)))?;
-        }
-        if let Some(a) = amount(Total::Silicate, self.total(Total::Silicate))? {
-            comp = comp
-                .with_silicate(a)
-                .map_err(retyped(Total::Silicate, self.total(Total::Silicate)))?;
-        }
-        if let Some(a) = amount(Total::Ammonia, self.total(Total::Ammonia))? {
-            comp = comp
-                .with_ammonia(a)
-                .map_err(retyped(Total::Ammonia, self.total(Total::Ammonia)))?;
-        }
-        if let Some(a) = amount(Total::Sulfide, self.total(Total::Sulfide))? {
-            comp = comp
-                .with_sulfide(a)
-                .map_err(retyped(Total::Sulfide, self.total(Total::Sulfide)))?;
-        }
-        let calcium = amount(Total::Calcium, self.total(Total::Calcium))?;
-        if let Some(a) = calcium {
-            comp = comp
-                .with_calcium(a)
-                .map_err(retyped(Total::Calcium, self.total(Total::Calcium)))?;
-        }
-        if let Some(h) = amount(Total::Hardness, self.total(Total::Hardness))? {
-            // Calcium is part of the total hardness; more calcium than
-            // hardness is a slip in one of them. Compared at 1 kg/L, with
-            // 1 % to spare for the per-litre and per-kilogram bases.
-            if let Some(ca) = calcium {
-                if ca.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
-                    return Err(Error::Inconsistent {
-                        first: Field::Calcium,
-                        second: Field::Hardness,
-                        reason: "calcium is more than the total hardness, of which it is a part; \
-                                 check both (calcium hardness and total hardness are both \
-                                 written as mg/L CaCO3)",
-                    });
-                }
+        // Most samples give no totals: one test instead of one per total.
+        if self.totals.iter().any(Option::is_some) {
+            if let Some(a) = amount(Total::Phosphate, self.total(Total::Phosphate))? {
+                comp = comp
+                    .with_phosphate(a)
+                    .map_err(retyped(Total::Phosphate, self.total(Total::Phosphate)))?;
             }
-            match self.calcium_fraction {
-                Some(f) => {
-                    check_range(Field::CalciumFraction, f, 0.0, 1.0, "")?;
-                    if self.total(Total::Calcium).is_some() {
-                        return Err(Error::IncompatiblePair {
+            if let Some(a) = amount(Total::Silicate, self.total(Total::Silicate))? {
+                comp = comp
+                    .with_silicate(a)
+                    .map_err(retyped(Total::Silicate, self.total(Total::Silicate)))?;
+            }
+            if let Some(a) = amount(Total::Ammonia, self.total(Total::Ammonia))? {
+                comp = comp
+                    .with_ammonia(a)
+                    .map_err(retyped(Total::Ammonia, self.total(Total::Ammonia)))?;
+            }
+            if let Some(a) = amount(Total::Sulfide, self.total(Total::Sulfide))? {
+                comp = comp
+                    .with_sulfide(a)
+                    .map_err(retyped(Total::Sulfide, self.total(Total::Sulfide)))?;
+            }
+            let calcium = amount(Total::Calcium, self.total(Total::Calcium))?;
+            if let Some(a) = calcium {
+                comp = comp
+                    .with_calcium(a)
+                    .map_err(retyped(Total::Calcium, self.total(Total::Calcium)))?;
+            }
+            if let Some(h) = amount(Total::Hardness, self.total(Total::Hardness))? {
+                // Calcium is part of the total hardness; more calcium than
+                // hardness is a slip in one of them. Compared at 1 kg/L, with
+                // 1 % to spare for the per-litre and per-kilogram bases.
+                if let Some(ca) = calcium {
+                    if ca.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
+                        return Err(Error::Inconsistent {
                             first: Field::Calcium,
-                            second: Field::CalciumFraction,
-                            reason: "give calcium, or hardness with a calcium fraction, not both",
+                            second: Field::Hardness,
+                            reason:
+                                "calcium is more than the total hardness, of which it is a part; \
+                                     check both (calcium hardness and total hardness are both \
+                                     written as mg/L CaCO3)",
                         });
                     }
-                    let scale = |a: Amount, x: f64| match a {
-                        Amount::PerKg(v) => Amount::PerKg(v * x),
-                        Amount::PerLitre(v) => Amount::PerLitre(v * x),
-                    };
-                    if f > 0.0 {
-                        comp = comp.with_calcium(scale(h, f))?;
-                    }
-                    comp = comp.with_magnesium(scale(h, 1.0 - f))?;
                 }
-                None => {
-                    let magnesium = amount(Total::Magnesium, self.total(Total::Magnesium))?;
-                    match (calcium, magnesium) {
-                        // Total hardness is calcium plus magnesium (both as
-                        // CaCO3): the one not given is the difference.
-                        (Some(ca), None) => {
-                            comp = comp.with_magnesium(difference(h, ca))?;
-                            cautions.push(Warning::Note {
-                                code: "magnesium_from_hardness",
-                                text: "magnesium taken as the total hardness less the calcium",
+                match self.calcium_fraction {
+                    Some(f) => {
+                        check_range(Field::CalciumFraction, f, 0.0, 1.0, "")?;
+                        if self.total(Total::Calcium).is_some() {
+                            return Err(Error::IncompatiblePair {
+                                first: Field::Calcium,
+                                second: Field::CalciumFraction,
+                                reason:
+                                    "give calcium, or hardness with a calcium fraction, not both",
                             });
                         }
-                        (None, Some(mg)) => {
-                            if mg.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
-                                return Err(Error::Inconsistent {
-                                    first: Field::Magnesium,
-                                    second: Field::Hardness,
-                                    reason: "magnesium is more than the total hardness, of which \
-                                             it is a part; check both",
+                        let scale = |a: Amount, x: f64| match a {
+                            Amount::PerKg(v) => Amount::PerKg(v * x),
+                            Amount::PerLitre(v) => Amount::PerLitre(v * x),
+                        };
+                        if f > 0.0 {
+                            comp = comp.with_calcium(scale(h, f))?;
+                        }
+                        comp = comp.with_magnesium(scale(h, 1.0 - f))?;
+                    }
+                    None => {
+                        let magnesium = amount(Total::Magnesium, self.total(Total::Magnesium))?;
+                        match (calcium, magnesium) {
+                            // Total hardness is calcium plus magnesium (both as
+                            // CaCO3): the one not given is the difference.
+                            (Some(ca), None) => {
+                                comp = comp.with_magnesium(difference(h, ca))?;
+                                cautions.push(Warning::Note {
+                                    code: "magnesium_from_hardness",
+                                    text: "magnesium taken as the total hardness less the calcium",
                                 });
                             }
-                            comp = comp.with_calcium(difference(h, mg))?;
-                            cautions.push(Warning::Note {
-                                code: "calcium_from_hardness",
-                                text: "calcium taken as the total hardness less the magnesium",
-                            });
-                        }
-                        (Some(ca), Some(mg)) => {
-                            let sum = ca.mol_kg(1000.0) + mg.mol_kg(1000.0);
-                            let total = h.mol_kg(1000.0);
-                            if (sum - total).abs() > HARDNESS_AGREEMENT * total {
-                                cautions.push(Warning::Text {
-                                    code: "hardness_disagrees",
-                                    text: format!(
-                                        "calcium and magnesium given add up to {:.0} mg/L as \
-                                         CaCO3, the total hardness given is {:.0}: calcium and \
-                                         magnesium were used; check the three",
-                                        sum * CACO3_G_MOL * 1000.0,
-                                        total * CACO3_G_MOL * 1000.0
-                                    ),
+                            (None, Some(mg)) => {
+                                if mg.mol_kg(1000.0) > 1.01 * h.mol_kg(1000.0) {
+                                    return Err(Error::Inconsistent {
+                                        first: Field::Magnesium,
+                                        second: Field::Hardness,
+                                        reason:
+                                            "magnesium is more than the total hardness, of which \
+                                                 it is a part; check both",
+                                    });
+                                }
+                                comp = comp.with_calcium(difference(h, mg))?;
+                                cautions.push(Warning::Note {
+                                    code: "calcium_from_hardness",
+                                    text: "calcium taken as the total hardness less the magnesium",
                                 });
                             }
-                        }
-                        (None, None) => {
-                            comp = comp
-                                .with_unassigned_hardness(h)
-                                .map_err(retyped(Total::Hardness, self.total(Total::Hardness)))?
+                            (Some(ca), Some(mg)) => {
+                                let sum = ca.mol_kg(1000.0) + mg.mol_kg(1000.0);
+                                let total = h.mol_kg(1000.0);
+                                if (sum - total).abs() > HARDNESS_AGREEMENT * total {
+                                    cautions.push(Warning::Text {
+                                        code: "hardness_disagrees",
+                                        text: format!(
+                                            "calcium and magnesium given add up to {:.0} mg/L as \
+                                             CaCO3, the total hardness given is {:.0}: calcium and \
+                                             magnesium were used; check the three",
+                                            sum * CACO3_G_MOL * 1000.0,
+                                            total * CACO3_G_MOL * 1000.0
+                                        ),
+                                    });
+                                }
+                            }
+                            (None, None) => {
+                                comp = comp.with_unassigned_hardness(h).map_err(retyped(
+                                    Total::Hardness,
+                                    self.total(Total::Hardness),
+                                ))?
+                            }
                         }
                     }
                 }
             }
-        }
-        if let Some(a) = amount(Total::Magnesium, self.total(Total::Magnesium))? {
-            comp = comp
-                .with_magnesium(a)
-                .map_err(retyped(Total::Magnesium, self.total(Total::Magnesium)))?;
-        }
-        if let Some(a) = amount(Total::Sodium, self.total(Total::Sodium))? {
-            comp = comp
-                .with_sodium(a)
-                .map_err(retyped(Total::Sodium, self.total(Total::Sodium)))?;
-        }
-        if let Some(a) = amount(Total::Potassium, self.total(Total::Potassium))? {
-            comp = comp
-                .with_potassium(a)
-                .map_err(retyped(Total::Potassium, self.total(Total::Potassium)))?;
-        }
-        if let Some(a) = amount(Total::Chloride, self.total(Total::Chloride))? {
-            comp = comp
-                .with_chloride(a)
-                .map_err(retyped(Total::Chloride, self.total(Total::Chloride)))?;
-        }
-        if let Some(a) = amount(Total::Sulfate, self.total(Total::Sulfate))? {
-            comp = comp
-                .with_sulfate(a)
-                .map_err(retyped(Total::Sulfate, self.total(Total::Sulfate)))?;
-        }
-        if let Some(a) = amount(Total::Boron, self.total(Total::Boron))? {
-            comp = comp
-                .with_boron(a)
-                .map_err(retyped(Total::Boron, self.total(Total::Boron)))?;
+            if let Some(a) = amount(Total::Magnesium, self.total(Total::Magnesium))? {
+                comp = comp
+                    .with_magnesium(a)
+                    .map_err(retyped(Total::Magnesium, self.total(Total::Magnesium)))?;
+            }
+            if let Some(a) = amount(Total::Sodium, self.total(Total::Sodium))? {
+                comp = comp
+                    .with_sodium(a)
+                    .map_err(retyped(Total::Sodium, self.total(Total::Sodium)))?;
+            }
+            if let Some(a) = amount(Total::Potassium, self.total(Total::Potassium))? {
+                comp = comp
+                    .with_potassium(a)
+                    .map_err(retyped(Total::Potassium, self.total(Total::Potassium)))?;
+            }
+            if let Some(a) = amount(Total::Chloride, self.total(Total::Chloride))? {
+                comp = comp
+                    .with_chloride(a)
+                    .map_err(retyped(Total::Chloride, self.total(Total::Chloride)))?;
+            }
+            if let Some(a) = amount(Total::Sulfate, self.total(Total::Sulfate))? {
+                comp = comp
+                    .with_sulfate(a)
+                    .map_err(retyped(Total::Sulfate, self.total(Total::Sulfate)))?;
+            }
+            if let Some(a) = amount(Total::Boron, self.total(Total::Boron))? {
+                comp = comp
+                    .with_boron(a)
+                    .map_err(retyped(Total::Boron, self.total(Total::Boron)))?;
+            }
         }
 
-        let mut water = water
-            .with_fits(fits)
-            .with_composition(comp)
-            .with_input_cautions(cautions);
+        let mut water = water.with_fits(fits).with_composition(comp);
+        // A new water has no cautions: set only where there are some.
+        if !cautions.is_empty() {
+            water = water.with_input_cautions(cautions);
+        }
         if let Some(c) = self.conductivity {
             water = water.with_given_conductivity(c, self.salinity.is_none());
         }

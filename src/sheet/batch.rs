@@ -12,13 +12,16 @@
 //! let mut out = Outcome::default();
 //! batch.solve(&[Cell::Number(25.0), Cell::Number(35.0), Cell::Number(2300.0), Cell::Number(8.05)], &mut out);
 //! assert_eq!(out.status(), "ok");
-//! let Value::Number(Some(ph)) = out.values()[0] else { panic!() };
+//! let Value::Number(Some(ph)) = out.values(&batch).next().unwrap() else { panic!() };
 //! assert!((ph - 8.05).abs() < 1e-12);
+//! // The same, read from the row's state.
+//! assert_eq!(batch.computed()[0].value(out.state().unwrap()), Value::Number(Some(ph)));
 //! // A bad row: its status, message, code and field; the batch goes on.
 //! batch.solve(&[Cell::Number(25.0), Cell::Number(35.0), Cell::Number(2300.0), Cell::Number(15.0)], &mut out);
 //! assert_eq!(out.status(), "error");
 //! assert_eq!(out.error(), Some(("out_of_range", Some("ph"))));
-//! assert!(out.values().is_empty());
+//! assert!(out.state().is_none());
+//! assert_eq!(out.values(&batch).count(), 0);
 //! # Ok::<(), travertine::sheet::SheetError>(())
 //! ```
 
@@ -28,6 +31,8 @@ use super::row::{evaluate_values, Scratch, Status};
 use super::{SheetError, SheetOptions};
 use crate::decisions::uncertainty::Uncertainties;
 use crate::output::{Output, Value};
+use crate::state::State;
+use std::sync::Arc;
 
 /// The plan of a batch: its columns read and checked once, as the header of
 /// a sheet is, with the options of a sheet ([`SheetOptions::with_columns`],
@@ -69,6 +74,7 @@ impl Batch {
         }
         let mut plan = plan;
         plan.keys = false;
+        plan.keep_state = true;
         Ok(Batch { plan })
     }
 
@@ -90,7 +96,8 @@ impl Batch {
     }
 
     /// The computed columns, in order: [`Outcome::values`] (and
-    /// [`Outcome::uncertainties`]) follow it.
+    /// [`Outcome::uncertainties`]) follow it; each one's value is
+    /// [`Output::value`] of the row's state ([`Outcome::state`]).
     pub fn computed(&self) -> &[Output] {
         &self.plan.computed
     }
@@ -134,28 +141,64 @@ impl Batch {
     /// Solves one row, `cells` in the order of the names, into `out`.
     pub fn solve(&self, cells: &[Cell<'_>], out: &mut Outcome) {
         evaluate_values(&self.plan, cells, &mut out.scratch);
-        out.message.clear();
-        for (i, issue) in out.scratch.issues.iter().enumerate() {
-            if i > 0 {
-                out.message.push_str("; ");
-            }
-            out.message.push_str(&issue.text);
+        // Rows with the same things to say (the cautions every row of a
+        // sheet without air data has) share the words: the message is
+        // joined again only when they change.
+        let issues = &out.scratch.issues;
+        let same = issues.len() == out.parts.len()
+            && issues
+                .iter()
+                .zip(&out.parts)
+                .all(|(i, p)| Arc::ptr_eq(&i.text, p));
+        if same {
+            return;
         }
+        out.parts.clear();
+        let mut message = String::new();
+        for (i, issue) in issues.iter().enumerate() {
+            if i > 0 {
+                message.push_str("; ");
+            }
+            message.push_str(&issue.text);
+            out.parts.push(Arc::clone(&issue.text));
+        }
+        out.message = message.into();
     }
 }
 
 /// The outcome of a row, reused from row to row.
-#[derive(Debug, Default)]
+#[derive(Debug)]
 pub struct Outcome {
     scratch: Scratch,
-    message: String,
+    message: Arc<str>,
+    /// The texts `message` was joined from.
+    parts: Vec<Arc<str>>,
+}
+
+impl Default for Outcome {
+    fn default() -> Self {
+        Outcome {
+            scratch: Scratch::default(),
+            message: "".into(),
+            parts: Vec::new(),
+        }
+    }
 }
 
 impl Outcome {
-    /// The value of each computed column ([`Batch::computed`]); empty where
-    /// the row could not be solved.
-    pub fn values(&self) -> &[Value] {
-        &self.scratch.values
+    /// The row's state, where it was solved: every output of the row is
+    /// [`Output::value`] of it.
+    pub fn state(&self) -> Option<&State> {
+        self.scratch.state()
+    }
+
+    /// The value of each computed column of `batch` ([`Batch::computed`])
+    /// for this row, solved by `batch`; none where the row could not be
+    /// solved.
+    pub fn values<'a>(&'a self, batch: &'a Batch) -> impl Iterator<Item = Value> + 'a {
+        self.state()
+            .into_iter()
+            .flat_map(|s| batch.computed().iter().map(move |o| o.value(s)))
     }
 
     /// The standard uncertainty of each computed column where the batch
@@ -192,6 +235,30 @@ impl Outcome {
 
     /// The row's message: its errors, warnings and notes, `; `-separated.
     pub fn message(&self) -> &str {
+        &self.message
+    }
+
+    /// The row's message, shared: rows with the same things to say in a
+    /// row of rows (the cautions of a batch without air data, say) hand
+    /// back the same text, so a caller that keeps every row's message
+    /// keeps one copy of it.
+    ///
+    /// ```
+    /// use std::sync::Arc;
+    /// use travertine::sheet::{Batch, Cell, Outcome, SheetOptions};
+    /// // The exchange with the air, without air data: the same cautions every row.
+    /// let options = SheetOptions::default().with_columns("ph_total,air_pco2_uatm")?;
+    /// let batch = Batch::new(&["temperature_c", "salinity", "alkalinity_umol_kg", "ph_total"],
+    ///                        &options)?;
+    /// let mut out = Outcome::default();
+    /// batch.solve(&[Cell::Number(25.0), Cell::Number(35.0), Cell::Number(2300.0), Cell::Number(8.05)], &mut out);
+    /// let first = Arc::clone(out.shared_message());
+    /// assert!(first.contains("CO2 of the air not given"));
+    /// batch.solve(&[Cell::Number(12.0), Cell::Number(33.0), Cell::Number(2200.0), Cell::Number(7.9)], &mut out);
+    /// assert!(Arc::ptr_eq(&first, out.shared_message()));
+    /// # Ok::<(), travertine::sheet::SheetError>(())
+    /// ```
+    pub fn shared_message(&self) -> &Arc<str> {
         &self.message
     }
 

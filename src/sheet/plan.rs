@@ -114,6 +114,11 @@ pub(crate) struct Plan {
     /// Whether each issue keeps its key, for the sheet's summary (a batch
     /// has none, and saves the copy).
     pub keys: bool,
+    /// Whether each solved row keeps its state for the caller
+    /// ([`super::row::Scratch::state`]) instead of writing the computed
+    /// values out of it: a batch reads the outputs it hands back straight
+    /// from the state.
+    pub keep_state: bool,
 }
 
 /// An input column of standard uncertainties, `<column>_u`.
@@ -540,6 +545,7 @@ impl Plan {
             exchange,
             uncertainty,
             keys: true,
+            keep_state: false,
         })
     }
 }

@@ -7,7 +7,7 @@ use super::pair::{choose_pair, rank, RANKING};
 use super::plan::{Label, Plan, STATE_THE_SCALE};
 use crate::base::error::Error;
 use crate::base::units::{Amount, Unit, CACO3_G_EQ, CO2_G_MOL, CO3_G_MOL, C_G_MOL, HCO3_G_MOL};
-use crate::base::warning::Severity;
+use crate::base::warning::{Severity, Warning};
 use crate::decisions::dose::DoseRequest;
 use crate::decisions::uncertainty_settings::{Setting, SettingError};
 use crate::flow::PreparedWater;
@@ -19,6 +19,7 @@ use crate::sample::water::Medium;
 use crate::sample::water::Water;
 use crate::sample::{CarbonValue, Sample};
 use crate::state::State;
+use std::sync::Arc;
 
 /// The outcome of a row.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -39,13 +40,15 @@ impl Status {
     }
 }
 
-/// Something to say about a row.
+/// Something to say about a row. Key and text are shared (`Arc`): the
+/// cautions rows have in common (the air's CO2 not given, ...) are written
+/// once and handed to every row that has them (see [`Scratch::said`]).
 #[derive(Debug, Clone, PartialEq)]
 pub(crate) struct Issue {
     /// The message without the row's values, for counting alike issues.
-    pub key: String,
+    pub key: Arc<str>,
     /// The message.
-    pub text: String,
+    pub text: Arc<str>,
     /// An error (the row is not computed) rather than a warning.
     pub error: bool,
     /// A note (an optional input not given): shown, but the row stays `ok`.
@@ -74,9 +77,38 @@ pub(crate) struct Scratch {
     prepared: Option<PreparedWater>,
     /// The code and field of the row's first error, where it has one.
     pub first_error: Option<(&'static str, Option<String>)>,
+    /// The state of the last row the plan kept one for
+    /// ([`Plan::keep_state`]: a batch reads its outputs from it), as the
+    /// solver returned it and boxed, so that the next one is moved in once
+    /// (a state is over a kilobyte); the row's own where `solved`.
+    state: Option<Box<Result<State, Error>>>,
+    /// Whether `state` is the row's.
+    solved: bool,
+    /// Whether the last row's water was not the one before it.
+    changing: bool,
+    /// The cautions of the last rows written as issues, by their place
+    /// among a state's warnings: a row whose warnings are those of an
+    /// earlier row takes their issues as they are (the same words) instead
+    /// of writing them again.
+    said: Vec<Said>,
+}
+
+/// A caution of a state written as an issue (see [`Scratch::said`]).
+#[derive(Debug)]
+struct Said {
+    warning: Warning,
+    issue: Issue,
 }
 
 impl Scratch {
+    /// The row's state, where the plan keeps it and the row was solved.
+    pub fn state(&self) -> Option<&State> {
+        match &self.state {
+            Some(kept) if self.solved => kept.as_ref().as_ref().ok(),
+            _ => None,
+        }
+    }
+
     /// Records the code and field of the row's first error.
     fn fail(&mut self, code: &'static str, field: Option<String>) {
         if self.first_error.is_none() {
@@ -86,8 +118,8 @@ impl Scratch {
 
     fn error(&mut self, key: String, text: String) {
         self.issues.push(Issue {
-            key,
-            text,
+            key: key.into(),
+            text: text.into(),
             error: true,
             note: false,
         });
@@ -95,8 +127,8 @@ impl Scratch {
 
     fn warning(&mut self, key: String, text: String) {
         self.issues.push(Issue {
-            key,
-            text,
+            key: key.into(),
+            text: text.into(),
             error: false,
             note: false,
         });
@@ -104,11 +136,46 @@ impl Scratch {
 
     fn note(&mut self, key: String, text: String) {
         self.issues.push(Issue {
-            key,
-            text,
+            key: key.into(),
+            text: text.into(),
             error: false,
             note: true,
         });
+    }
+
+    /// The issue of a state's `i`-th caution `w` (a note or a warning by
+    /// its severity), written as it was for an earlier row where that row
+    /// had the same caution in the same place, else written now; with its
+    /// key where `keys` (the sheet's summary counts issues by key).
+    fn caution(&mut self, i: usize, w: &Warning, keys: bool) {
+        if let Some(said) = self.said.get(i) {
+            if said.warning == *w {
+                self.issues.push(said.issue.clone());
+                return;
+            }
+        }
+        let text = w.to_string();
+        let key: Arc<str> = if keys {
+            text.split(": ").next().unwrap_or(&text).into()
+        } else {
+            "".into()
+        };
+        let issue = Issue {
+            key,
+            text: text.into(),
+            error: false,
+            note: w.severity() == Severity::Note,
+        };
+        let said = Said {
+            warning: w.clone(),
+            issue: issue.clone(),
+        };
+        if i < self.said.len() {
+            self.said[i] = said;
+        } else {
+            self.said.push(said);
+        }
+        self.issues.push(issue);
     }
 }
 
@@ -334,6 +401,7 @@ pub(crate) fn evaluate_values(plan: &Plan, cells: &[Cell<'_>], s: &mut Scratch) 
 /// Clears the scratch for a new row.
 fn start(plan: &Plan, s: &mut Scratch) {
     s.first_error = None;
+    s.solved = false;
     s.issues.clear();
     s.values.clear();
     s.residuals.clear();
@@ -447,7 +515,7 @@ fn solve_row(plan: &Plan, record: &csv::ByteRecord, s: &mut Scratch) -> Option<(
     if !s.issues.is_empty() {
         return None;
     }
-    solve_inputs(plan, Cells::Csv(record), inputs, s)
+    solve_inputs(plan, Cells::Csv(record), &inputs, s)
 }
 
 /// The work of [`evaluate_values`]: each value read as a cell of its
@@ -475,11 +543,11 @@ fn solve_values(plan: &Plan, cells: &[Cell<'_>], s: &mut Scratch) -> Option<()> 
     if !s.issues.is_empty() {
         return None;
     }
-    solve_inputs(plan, Cells::Values(cells), inputs, s)
+    solve_inputs(plan, Cells::Values(cells), &inputs, s)
 }
 
 /// Solves a row whose inputs are read.
-fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch) -> Option<()> {
+fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: &Sample, s: &mut Scratch) -> Option<()> {
     let Some(t) = inputs.temperature_c else {
         let label = match plan.label(Input::Temperature) {
             Some(Label::Column(i)) => format!("column `{}` is empty", plan.read[*i].header),
@@ -505,10 +573,12 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch)
             );
         }
     }
-    let water = match inputs.water() {
+    // Borrowed in place, not moved out (a water is several hundred bytes).
+    let water = inputs.water();
+    let water = match &water {
         Ok(w) => w,
         Err(e) => {
-            library_issue(plan, record, &e, s);
+            library_issue(plan, record, e, s);
             return None;
         }
     };
@@ -572,8 +642,15 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch)
     }
     let (ma, mb) = (pair[0]?, pair[1]?);
     // Rows with the same water (a sheet of one station or one pond, or
-    // values from --set) share its prepared constants.
-    if s.prepared.as_ref().map(|p| p.water()) != Some(&water) {
+    // values from --set) share its prepared constants. Where the water
+    // changes from row to row and no exchange (which solves the water
+    // again) is asked for, a row is solved straight from its water, with
+    // the same constants: keeping a copy of them that no other row will use
+    // costs more than it saves.
+    let same = s.prepared.as_ref().map(|p| p.water()) == Some(water);
+    let direct = !same && !plan.exchange && s.changing;
+    s.changing = !same;
+    if !same && !direct {
         match water.prepare() {
             Ok(p) => s.prepared = Some(p),
             Err(e) => {
@@ -583,22 +660,49 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch)
             }
         }
     }
-    let prepared = s.prepared.as_ref()?;
-    let mut result = prepared.solve_with(ma, mb, &plan.options);
-    if plan.exchange {
-        result = result.and_then(|state| {
-            let air = inputs.air()?;
-            prepared.with_exchange(state, &air, inputs.ph_scale_given())
-        });
-    }
+    let prepared = s.prepared.as_ref();
+    let solve = || {
+        let Some(prepared) = prepared.filter(|_| !direct) else {
+            return water.solve_with(ma, mb, &plan.options);
+        };
+        if plan.exchange {
+            match prepared.solve_with(ma, mb, &plan.options) {
+                Ok(state) => match inputs.air() {
+                    Ok(air) => prepared.with_exchange(state, &air, inputs.ph_scale_given()),
+                    Err(e) => Err(e),
+                },
+                Err(e) => Err(e),
+            }
+        } else {
+            prepared.solve_with(ma, mb, &plan.options)
+        }
+    };
+    // A state is over a kilobyte, so it is made in its place and borrowed:
+    // on the stack, or where the plan keeps it, in the scratch's box (moved
+    // in once; the box goes back to the scratch at the end).
+    let mut kept = None;
+    let local;
+    let result: &Result<State, Error> = if plan.keep_state {
+        let place = match s.state.take() {
+            Some(mut place) => {
+                *place = solve();
+                place
+            }
+            None => Box::new(solve()),
+        };
+        kept.insert(place)
+    } else {
+        local = solve();
+        &local
+    };
     let state = match result {
         Ok(state) => state,
         Err(e) => {
-            library_issue(plan, record, &e, s);
+            library_issue(plan, record, e, s);
             return None;
         }
     };
-    if let Some(text) = implausible(&state, &ma, &mb) {
+    if let Some(text) = implausible(state, &ma, &mb) {
         s.fail("no_water_fits", Some(a.field().name().to_string()));
         s.error(
             format!("no water fits {} with {}", a.name(), b.name()),
@@ -606,11 +710,13 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch)
         );
         return None;
     }
-    for c in &plan.computed {
-        s.values.push(c.value(&state));
+    if !plan.keep_state {
+        for c in &plan.computed {
+            s.values.push(c.value(state));
+        }
     }
     if let Some(profile) = &plan.flags {
-        crate::decisions::codes_into(&state, profile, &mut s.flags);
+        crate::decisions::codes_into(state, profile, &mut s.flags);
     }
     let default_scale = scale.unwrap_or(medium_scale(water.medium()));
     for (i, rc) in plan.residuals.iter().enumerate() {
@@ -637,25 +743,20 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: Sample, s: &mut Scratch)
             CarbonValue::Ph(_, Some(sc)) => sc,
             _ => default_scale,
         };
-        s.residuals[i] = measured_in_output(p, v, &state, plan.units, ph_scale);
+        s.residuals[i] = measured_in_output(p, v, state, plan.units, ph_scale);
     }
     if let Some(request) = plan.dose {
-        dose_row(&inputs, &water, &state, request, s);
+        dose_row(inputs, water, state, request, s);
     }
     if let Some(up) = &plan.uncertainty {
-        uncertainty_row(plan, up, record, &inputs, &water, (ma, mb), &state, s);
+        uncertainty_row(plan, up, record, inputs, water, (ma, mb), state, s);
     }
-    for w in &state.warnings {
-        let text = w.to_string();
-        let key = if plan.keys {
-            text.split(": ").next().unwrap_or(&text).to_string()
-        } else {
-            String::new()
-        };
-        match w.severity() {
-            Severity::Note => s.note(key, text),
-            _ => s.warning(key, text),
-        }
+    for (i, w) in state.warnings.iter().enumerate() {
+        s.caution(i, w, plan.keys);
+    }
+    if let Some(place) = kept {
+        s.state = Some(place);
+        s.solved = true;
     }
     Some(())
 }

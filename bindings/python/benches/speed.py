@@ -15,8 +15,9 @@ and prints the ratios the issue bounds: saline call / library loop (at most
 1.5) and fresh call / saline call (at most 2), with the library's own fresh
 loop beside its saline one (the fresh state itself costs more: the activity
 fixed point, the saturation pH of the Langelier index, the equilibrium with
-the air). Each time is the best of
-three runs. The rows are generated (invented values in natural ranges).
+the air). Each time is the best of three runs; the six calls take turns, round
+after round, so that a change in the machine's load falls on all of them. The
+rows are generated (invented values in natural ranges).
 """
 
 import sys
@@ -47,27 +48,38 @@ NO_EXCHANGE = [k for k in EVERY if k not in EXCHANGE]
 TEXT = ("water", "ionic_strength_from", "carbonic_fit", "equilibrium_ph_scale", "gas_transfer")
 
 
-def best(f, runs=3):
-    times = []
+def best(*calls, runs=3):
+    """The best time of each call and its result. The calls take turns
+    (runs rounds, each running every call once), so that a change in the
+    machine's load during the benchmark weighs on all of them alike rather
+    than on whichever ran then. The time is the call's: freeing the result of
+    the round before falls outside it."""
+    times = [[] for _ in calls]
+    outs = [None] * len(calls)
     for _ in range(runs):
-        t0 = time.perf_counter()
-        out = f()
-        times.append(time.perf_counter() - t0)
-    return min(times), out
+        for i, f in enumerate(calls):
+            t0 = time.perf_counter()
+            out = f()
+            times[i].append(time.perf_counter() - t0)
+            # The result of the round before is freed here, after the clock.
+            outs[i] = out
+    return [(min(t), o) for t, o in zip(times, outs)]
 
 
 def numeric(keys):
     return [k for k in keys if k not in TEXT]
 
 
-lib_x, l_x = best(lambda: _native.library_loop(t, s, alk, ph, numeric(EVERY), exchange=True))
-lib, l_nx = best(lambda: _native.library_loop(t, s, alk, ph, numeric(NO_EXCHANGE)))
-saline, r = best(lambda: travertine.solve(temperature_c=t, salinity=s, alkalinity_umol_kg=alk, ph_total=ph))
-saline_nx, r_nx = best(lambda: travertine.solve(temperature_c=t, salinity=s, alkalinity_umol_kg=alk,
-                                                ph_total=ph, columns=NO_EXCHANGE + ["flags"]))
-lib_fresh, lf = best(lambda: _native.library_loop_fresh(fresh_t, spc, alk_mg, ph_nbs, ca, numeric(EVERY)))
-fresh, rf = best(lambda: travertine.solve(temperature_c=fresh_t, specific_conductance_us_cm=spc,
-                                          alkalinity_mg_l_caco3=alk_mg, ph_nbs=ph_nbs, calcium_mg_l=ca))
+(lib_x, l_x), (saline, r), (lib, l_nx), (saline_nx, r_nx), (lib_fresh, lf), (fresh, rf) = best(
+    lambda: _native.library_loop(t, s, alk, ph, numeric(EVERY), exchange=True),
+    lambda: travertine.solve(temperature_c=t, salinity=s, alkalinity_umol_kg=alk, ph_total=ph),
+    lambda: _native.library_loop(t, s, alk, ph, numeric(NO_EXCHANGE)),
+    lambda: travertine.solve(temperature_c=t, salinity=s, alkalinity_umol_kg=alk, ph_total=ph,
+                             columns=NO_EXCHANGE + ["flags"]),
+    lambda: _native.library_loop_fresh(fresh_t, spc, alk_mg, ph_nbs, ca, numeric(EVERY)),
+    lambda: travertine.solve(temperature_c=fresh_t, specific_conductance_us_cm=spc,
+                             alkalinity_mg_l_caco3=alk_mg, ph_nbs=ph_nbs, calcium_mg_l=ca),
+)
 for k in numeric(EVERY):
     assert np.array_equal(r[k], l_x[k], equal_nan=True), f"{k}: the binding and the library loop disagree"
 assert (r["status"] != "error").all() and (rf["status"] != "error").all()

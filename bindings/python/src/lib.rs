@@ -143,14 +143,120 @@ fn uncertainties(given: &[(String, f64, bool)], constants: bool) -> PyResult<Unc
     Ok(u)
 }
 
-/// The output buffers of one task: a slice of every column.
+/// The output buffers of one task: a slice of every column, each computed
+/// one with its output, so that a row's outputs go from its state straight
+/// into their columns.
 struct Task<'a> {
     start: usize,
-    numbers: Vec<&'a mut [f64]>,
-    texts: Vec<&'a mut [Option<&'static str>]>,
-    flags: Option<&'a mut [String]>,
-    status: &'a mut [&'static str],
-    message: &'a mut [std::sync::Arc<str>],
+    len: usize,
+    numbers: Vec<(Output, &'a mut [f64])>,
+    texts: Vec<(Output, Coder<'a>)>,
+    residuals: Vec<&'a mut [f64]>,
+    dose: Vec<&'a mut [f64]>,
+    /// The uncertainty column of each computed column, where asked for
+    /// (none for a text).
+    uncertain: Vec<Option<&'a mut [f64]>>,
+    flags: Option<Coder<'a>>,
+    status: Coder<'a>,
+    message: Coder<'a>,
+}
+
+/// The tables of a task's coded columns, in the order of [`Task`]: the
+/// texts, the flags, the status and the message.
+type Tables = (
+    Vec<Vec<String>>,
+    Option<Vec<String>>,
+    Vec<String>,
+    Vec<String>,
+);
+
+/// A task's coding of one text column: each row's code written straight
+/// into the task's slice of the column's codes (0: none), into the task's
+/// own table (code k: `table[k - 1]`); the tables of the tasks are merged
+/// after the rows ([`merge_codes`]). With `hashed` a text met before in the
+/// task is coded as before (a short search); without, only a run of equal
+/// texts is (messages carry the row's figures when they have any).
+struct Coder<'a> {
+    codes: &'a mut [u32],
+    table: Vec<String>,
+    hashed: bool,
+}
+
+impl<'a> Coder<'a> {
+    fn new(codes: &'a mut [u32], hashed: bool) -> Self {
+        Coder {
+            codes,
+            table: Vec::new(),
+            hashed,
+        }
+    }
+
+    /// Codes `text` for the task's row `k`.
+    fn put(&mut self, k: usize, text: &str) {
+        let code = match self.table.last() {
+            Some(last) if last == text => self.table.len(),
+            _ => {
+                // A short search: a longer table is merged by hash later.
+                let found = if self.hashed && self.table.len() <= 16 {
+                    self.table.iter().position(|t| t == text)
+                } else {
+                    None
+                };
+                match found {
+                    Some(i) => i + 1,
+                    None => {
+                        self.table.push(text.to_string());
+                        self.table.len()
+                    }
+                }
+            }
+        };
+        self.codes[k] = code as u32;
+    }
+}
+
+/// Merges the tables of the tasks of one coded column (`codes`, in chunks
+/// of [`TASK`] rows, one per task) into one, and rewrites each task's codes
+/// into it: every distinct text once with `hashed`, else each run of equal
+/// texts once.
+fn merge_codes(codes: Vec<u32>, tables: Vec<Vec<String>>, hashed: bool) -> Coded {
+    let mut codes = codes;
+    let mut texts: Vec<Option<String>> = vec![None];
+    let mut index: std::collections::HashMap<String, u32> = std::collections::HashMap::new();
+    let mut maps: Vec<Vec<u32>> = Vec::with_capacity(tables.len());
+    for table in tables {
+        let mut map = Vec::with_capacity(table.len() + 1);
+        map.push(0);
+        for text in table {
+            let code = if hashed {
+                let next = texts.len() as u32;
+                *index.entry(text).or_insert_with_key(|t| {
+                    texts.push(Some(t.clone()));
+                    next
+                })
+            } else if texts.last().and_then(|t| t.as_deref()) == Some(text.as_str()) {
+                (texts.len() - 1) as u32
+            } else {
+                texts.push(Some(text));
+                (texts.len() - 1) as u32
+            };
+            map.push(code);
+        }
+        maps.push(map);
+    }
+    codes
+        .par_chunks_mut(TASK)
+        .zip(maps)
+        .for_each(|(chunk, map)| {
+            // A task whose codes are already those of the merged table.
+            if map.iter().enumerate().all(|(i, c)| *c as usize == i) {
+                return;
+            }
+            for c in chunk {
+                *c = map[*c as usize];
+            }
+        });
+    Coded { codes, texts }
 }
 
 /// Where each computed column goes.
@@ -169,42 +275,6 @@ type FirstError = (usize, &'static str, Option<String>, String);
 struct Coded {
     codes: Vec<u32>,
     texts: Vec<Option<String>>,
-}
-
-/// Codes a column of texts. With `hashed` every distinct text is kept
-/// once; without, only runs of equal texts are (for messages, which carry
-/// the row's figures when they have any: hashing a million distinct ones
-/// costs more than it saves).
-fn coded<'a>(values: impl Iterator<Item = Option<&'a str>>, hashed: bool) -> Coded {
-    let mut codes = Vec::with_capacity(values.size_hint().0);
-    let mut texts: Vec<Option<String>> = vec![None];
-    let mut index: std::collections::HashMap<&'a str, u32> = std::collections::HashMap::new();
-    let mut last: Option<(&'a str, u32)> = None;
-    for v in values {
-        let code = match v {
-            None => 0,
-            Some(t) => match last {
-                // Rows of one water often share a text: the same pointer.
-                Some((l, c)) if std::ptr::eq(l, t) || l == t => c,
-                _ if !hashed => {
-                    texts.push(Some(t.to_string()));
-                    let c = (texts.len() - 1) as u32;
-                    last = Some((t, c));
-                    c
-                }
-                _ => {
-                    let c = *index.entry(t).or_insert_with(|| {
-                        texts.push(Some(t.to_string()));
-                        (texts.len() - 1) as u32
-                    });
-                    last = Some((t, c));
-                    c
-                }
-            },
-        };
-        codes.push(code);
-    }
-    Coded { codes, texts }
 }
 
 /// The solved rows, column by column.
@@ -258,12 +328,12 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
         }
     }
     let mut numbers: Vec<Vec<f64>> = number_names.iter().map(|_| vec![f64::NAN; n]).collect();
-    let mut texts: Vec<Vec<Option<&'static str>>> =
-        (0..text_count).map(|_| vec![None; n]).collect();
-    let mut flags: Option<Vec<String>> = batch.has_flags().then(|| vec![String::new(); n]);
-    let mut status: Vec<&'static str> = vec![""; n];
-    let empty: std::sync::Arc<str> = std::sync::Arc::from("");
-    let mut message: Vec<std::sync::Arc<str>> = vec![empty.clone(); n];
+    // The codes of the text columns (zeroed: code 0 is none), written by
+    // the tasks.
+    let mut texts: Vec<Vec<u32>> = (0..text_count).map(|_| vec![0; n]).collect();
+    let mut flags: Option<Vec<u32>> = batch.has_flags().then(|| vec![0; n]);
+    let mut status: Vec<u32> = vec![0; n];
+    let mut message: Vec<u32> = vec![0; n];
 
     let mut tasks = Vec::with_capacity(n.div_ceil(TASK));
     {
@@ -272,45 +342,87 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
         let mut flag_chunks = flags.as_mut().map(|v| v.chunks_mut(TASK));
         let mut status_chunks = status.chunks_mut(TASK);
         let mut message_chunks = message.chunks_mut(TASK);
+        let residuals_at = computed_numbers;
+        let dose_at = residuals_at + batch.residual_columns().len();
+        let u_at = dose_at + batch.dose_columns().len();
         let mut start = 0;
         while let (Some(status), Some(message)) = (status_chunks.next(), message_chunks.next()) {
             let len = status.len();
+            let mut number = number_chunks.iter_mut().filter_map(Iterator::next);
+            let mut text = text_chunks.iter_mut().filter_map(Iterator::next);
+            let mut numbers = Vec::with_capacity(computed_numbers);
+            let mut texts = Vec::with_capacity(text_count);
+            for (o, slot) in computed.iter().zip(&slots) {
+                match slot {
+                    Slot::Number(_) => numbers.extend(number.next().map(|c| (*o, c))),
+                    Slot::Text(_) => texts.extend(text.next().map(|c| (*o, Coder::new(c, true)))),
+                }
+            }
+            let residuals: Vec<_> = number.by_ref().take(dose_at - residuals_at).collect();
+            let dose: Vec<_> = number.by_ref().take(u_at - dose_at).collect();
+            let uncertain = if uncertain {
+                slots
+                    .iter()
+                    .map(|slot| match slot {
+                        Slot::Number(_) => number.next(),
+                        Slot::Text(_) => None,
+                    })
+                    .collect()
+            } else {
+                Vec::new()
+            };
             tasks.push(Task {
                 start,
-                numbers: number_chunks
-                    .iter_mut()
-                    .filter_map(Iterator::next)
-                    .collect(),
-                texts: text_chunks.iter_mut().filter_map(Iterator::next).collect(),
-                flags: flag_chunks.as_mut().and_then(Iterator::next),
-                status,
-                message,
+                len,
+                numbers,
+                texts,
+                residuals,
+                dose,
+                uncertain,
+                flags: flag_chunks
+                    .as_mut()
+                    .and_then(Iterator::next)
+                    .map(|c| Coder::new(c, true)),
+                status: Coder::new(status, true),
+                message: Coder::new(message, false),
             });
             start += len;
         }
     }
-    let residuals_at = computed_numbers;
-    let dose_at = residuals_at + batch.residual_columns().len();
-    let u_at = dose_at + batch.dose_columns().len();
-    let firsts: Vec<Option<FirstError>> = tasks
+    let done: Vec<(Option<FirstError>, Tables)> = tasks
         .into_par_iter()
         .map(|mut t| {
             let mut out = Outcome::default();
             let mut first = None;
-            // Rows of one water often share their message: one copy.
-            let mut last: std::sync::Arc<str> = empty.clone();
-            let mut cells: Vec<Cell<'_>> = Vec::with_capacity(columns.len());
-            for k in 0..t.status.len() {
+            let mut cells: Vec<Cell<'_>> = columns.iter().map(|c| c.cell(t.start)).collect();
+            // The row's message where it is the last one coded (rows with
+            // the same things to say share it: no comparing of texts).
+            let mut last_message: Option<std::sync::Arc<str>> = None;
+            for k in 0..t.len {
                 let row = t.start + k;
-                cells.clear();
-                cells.extend(columns.iter().map(|c| c.cell(row)));
+                for (cell, column) in cells.iter_mut().zip(columns) {
+                    *cell = column.cell(row);
+                }
                 batch.solve(&cells, &mut out);
-                t.status[k] = out.status();
-                if !out.message().is_empty() {
-                    if &*last != out.message() {
-                        last = std::sync::Arc::from(out.message());
+                t.status.put(k, out.status());
+                // Every row has a message ("" where there is nothing to say).
+                let shared = out.shared_message();
+                match &last_message {
+                    Some(last) if std::sync::Arc::ptr_eq(last, shared) => {
+                        t.message.codes[k] = t.message.table.len() as u32;
                     }
-                    t.message[k] = last.clone();
+                    _ => {
+                        t.message.put(k, shared);
+                        last_message = Some(shared.clone());
+                    }
+                }
+                // And flags ("" where none), where they are asked for.
+                if let Some(f) = t.flags.as_mut() {
+                    if out.flags().is_empty() {
+                        f.put(k, "");
+                    } else {
+                        f.put(k, &out.flags().join(";"));
+                    }
                 }
                 if let Some((code, field)) = out.error() {
                     if first.is_none() {
@@ -323,58 +435,65 @@ fn solve_rows(batch: &Batch, columns: &[Column<'_>], n: usize, uncertain: bool) 
                     }
                     continue;
                 }
-                for (value, slot) in out.values().iter().zip(&slots) {
-                    match (value, slot) {
-                        (Value::Number(Some(v)), Slot::Number(j)) => t.numbers[*j][k] = *v,
-                        (Value::Text(Some(s)), Slot::Text(j)) => t.texts[*j][k] = Some(s),
-                        _ => {}
+                // Each output read from the row's state straight into its
+                // column.
+                if let Some(state) = out.state() {
+                    for (o, column) in t.numbers.iter_mut() {
+                        if let Value::Number(Some(v)) = o.value(state) {
+                            column[k] = v;
+                        }
                     }
-                }
-                for (j, r) in out.residuals().enumerate() {
-                    t.numbers[residuals_at + j][k] = r.unwrap_or(f64::NAN);
-                }
-                for (j, d) in out.dose().enumerate() {
-                    t.numbers[dose_at + j][k] = d.unwrap_or(f64::NAN);
-                }
-                if uncertain {
-                    for (u, slot) in out.uncertainties().zip(&slots) {
-                        if let Slot::Number(j) = slot {
-                            t.numbers[u_at + j][k] = u.unwrap_or(f64::NAN);
+                    for (o, column) in t.texts.iter_mut() {
+                        if let Value::Text(Some(s)) = o.value(state) {
+                            column.put(k, s);
                         }
                     }
                 }
-                if let Some(f) = t.flags.as_mut() {
-                    if !out.flags().is_empty() {
-                        f[k] = out.flags().join(";");
+                for (column, r) in t.residuals.iter_mut().zip(out.residuals()) {
+                    column[k] = r.unwrap_or(f64::NAN);
+                }
+                for (column, d) in t.dose.iter_mut().zip(out.dose()) {
+                    column[k] = d.unwrap_or(f64::NAN);
+                }
+                for (column, u) in t.uncertain.iter_mut().zip(out.uncertainties()) {
+                    if let Some(column) = column {
+                        column[k] = u.unwrap_or(f64::NAN);
                     }
                 }
             }
-            first
+            let tables = (
+                t.texts.into_iter().map(|(_, c)| c.table).collect(),
+                t.flags.map(|c| c.table),
+                t.status.table,
+                t.message.table,
+            );
+            (first, tables)
         })
         .collect();
-    let (texts, (flags, (status, message))) = rayon::join(
-        || {
-            texts
-                .par_iter()
-                .map(|c| coded(c.iter().copied(), true))
-                .collect()
-        },
-        || {
-            rayon::join(
-                || {
-                    flags
-                        .as_ref()
-                        .map(|f| coded(f.iter().map(|s| Some(s.as_str())), true))
-                },
-                || {
-                    rayon::join(
-                        || coded(status.iter().map(|s| Some(*s)), true),
-                        || coded(message.iter().map(|s| Some(&**s)), false),
-                    )
-                },
-            )
-        },
-    );
+    let mut firsts = Vec::with_capacity(done.len());
+    let mut text_tables: Vec<Vec<Vec<String>>> = (0..text_count)
+        .map(|_| Vec::with_capacity(done.len()))
+        .collect();
+    let mut flag_tables = Vec::with_capacity(done.len());
+    let mut status_tables = Vec::with_capacity(done.len());
+    let mut message_tables = Vec::with_capacity(done.len());
+    for (first, (texts, flags, status, message)) in done {
+        firsts.push(first);
+        for (tables, table) in text_tables.iter_mut().zip(texts) {
+            tables.push(table);
+        }
+        flag_tables.extend(flags);
+        status_tables.push(status);
+        message_tables.push(message);
+    }
+    let texts = texts
+        .into_iter()
+        .zip(text_tables)
+        .map(|(codes, tables)| merge_codes(codes, tables, true))
+        .collect();
+    let flags = flags.map(|codes| merge_codes(codes, flag_tables, true));
+    let status = merge_codes(status, status_tables, true);
+    let message = merge_codes(message, message_tables, false);
     Solved {
         names: computed.iter().map(|o| o.key().to_string()).collect(),
         slots,

@@ -197,3 +197,33 @@ def test_help_lists_every_input_and_stubs_are_current():
         assert name in doc, name
     stub = pathlib.Path(travertine.__file__).with_name("__init__.pyi")
     assert stub.read_text() == travertine._stub_text(), "run: python -c 'import travertine; print(travertine._stub_text(), end=\"\")' > bindings/python/python/travertine/__init__.pyi"
+
+
+def test_stubs_pass_mypy(tmp_path):
+    """The type stubs are valid to mypy --strict, and calls as the README
+    writes them check against them (scripts/test-all installs mypy)."""
+    import pathlib
+    import sys
+
+    api = pytest.importorskip("mypy.api")
+    stub = pathlib.Path(travertine.__file__).with_name("__init__.pyi")
+    use = tmp_path / "use.py"
+    use.write_text(
+        "import numpy as np\n"
+        "import travertine\n"
+        "r = travertine.solve(temperature_c=np.array([20.0, 21.0]), salinity=35,\n"
+        "                     alkalinity_umol_kg=2300, ph_total=8.0, columns=['ph_total'])\n"
+        "ph: np.ndarray = r['ph_total']\n"
+        "d = travertine.dose(chemical='sodium-bicarbonate', target='alkalinity=80 mg/L CaCO3',\n"
+        "                    temperature_c=20, alkalinity_mg_l_caco3=50, ph_nbs=7.2, volume_m3=1500)\n"
+        "b = travertine.blend(r, r, fraction_first=0.5)\n"
+        "keys: tuple[str, ...] = travertine.output_keys()\n"
+    )
+    # The stub checked as a file of its own (site-packages is no source root).
+    copy = tmp_path / "stub" / "travertine" / "__init__.pyi"
+    copy.parent.mkdir(parents=True)
+    copy.write_text(stub.read_text())
+    for target in (str(copy), str(use)):
+        out, err, status = api.run(["--strict", "--python-executable", sys.executable,
+                                    "--cache-dir", str(tmp_path / "cache"), target])
+        assert status == 0, f"mypy {target}:\n{out}{err}"

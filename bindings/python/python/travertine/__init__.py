@@ -171,14 +171,29 @@ def _uncertainty(u: Optional[Mapping[str, Union[float, str]]]):
     return out
 
 
+def _decoded(codes: np.ndarray, texts: list) -> np.ndarray:
+    """An object array of texts from their codes (0: None). A column of one
+    text (the medium, status "ok", the message every row shares) is filled
+    rather than indexed: several times faster on a million rows."""
+    if len(texts) == 1 or len(codes) == 0:
+        return np.empty(len(codes), dtype=object)  # every element None
+    first = codes[0]
+    if codes.min() == first == codes.max():
+        a = np.empty(len(codes), dtype=object)
+        if first:
+            a.fill(texts[first])
+        return a
+    table = np.empty(len(texts), dtype=object)
+    table[:] = texts
+    return table[codes]
+
+
 def _shape_result(result: Dict[str, Any], shape) -> Dict[str, np.ndarray]:
     out = {}
     for key, value in result.items():
         if isinstance(value, tuple):
             codes, texts = value
-            table = np.empty(len(texts), dtype=object)
-            table[:] = texts
-            a = table[codes]
+            a = _decoded(codes, texts)
         elif isinstance(value, list):
             a = np.empty(len(value), dtype=object)
             a[:] = value
