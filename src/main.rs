@@ -106,7 +106,8 @@ struct UncertaintySources {
         allow_hyphen_values = true
     )]
     settings: Vec<String>,
-    /// No uncertainty in any constant (their defaults off); only the inputs' count.
+    /// No default uncertainty of the constants; only the inputs and the constants set with
+    /// --uncertainty count.
     #[arg(long)]
     no_constant_uncertainty: bool,
 }
@@ -348,7 +349,7 @@ struct SheetArgs {
         allow_hyphen_values = true
     )]
     uncertainty: Vec<String>,
-    /// No uncertainty in any constant, for every row.
+    /// No default uncertainty of the constants, for every row (those set still count).
     #[arg(long)]
     no_constant_uncertainty: bool,
 }

@@ -671,3 +671,14 @@ fn dose_monte_carlo_checks_the_linear_dose_uncertainty() {
         .get("dose_g_m3_u_mc")
         .is_none());
 }
+
+/// `--no-constant-uncertainty` switches off the constants' defaults, not a
+/// constant given by name: `pk1=0.01` beside it still counts, alone.
+#[test]
+fn a_constant_given_counts_without_the_defaults() {
+    let v = tarnholm(&["--no-constant-uncertainty", "--uncertainty", "pk1=0.01"]);
+    let sources = v["uncertainty"]["sources"].as_array().unwrap();
+    assert_eq!(sources.len(), 1, "{sources:?}");
+    assert_eq!(sources[0]["name"], "pk1");
+    assert!(v["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+}

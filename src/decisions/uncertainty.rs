@@ -353,19 +353,28 @@ impl Uncertainties {
         &self.inputs
     }
 
-    /// With no uncertainty in any constant (defaults and those set alike).
+    /// Without the default uncertainties of the constants: only the
+    /// constants set ([`Uncertainties::with_constant`], before or after)
+    /// count.
     ///
     /// ```
-    /// # use travertine::decisions::uncertainty::Uncertainties;
+    /// # use travertine::decisions::uncertainty::{Size, Uncertainties};
+    /// # use travertine::medium::ConstantName;
+    /// # use travertine::Medium;
     /// assert_ne!(Uncertainties::new().without_constants(), Uncertainties::new());
+    /// assert!(Uncertainties::new().without_constants().constants_in(Medium::Saline).is_empty());
+    /// let only_k1 = Uncertainties::new().without_constants().with_constant(ConstantName::K1, Size::Absolute(0.01))?;
+    /// assert_eq!(only_k1.constants_in(Medium::Saline), vec![(ConstantName::K1, Size::Absolute(0.01))]);
+    /// # Ok::<(), travertine::Error>(())
     /// ```
     pub fn without_constants(mut self) -> Self {
         self.constants_off = true;
         self
     }
 
-    /// The size of each constant's uncertainty in `medium`: the defaults,
-    /// overridden by those set; empty when switched off.
+    /// The size of each constant's uncertainty in `medium`: the defaults
+    /// (unless switched off, [`Uncertainties::without_constants`]),
+    /// overridden by those set.
     ///
     /// ```
     /// # use travertine::decisions::uncertainty::Uncertainties;
@@ -374,12 +383,10 @@ impl Uncertainties {
     /// assert!(Uncertainties::new().without_constants().constants_in(Medium::Fresh).is_empty());
     /// ```
     pub fn constants_in(&self, medium: Medium) -> Vec<(ConstantName, Size)> {
-        if self.constants_off {
-            return Vec::new();
-        }
-        let defaults: &[(ConstantName, Size)] = match medium {
-            Medium::Saline => &SALINE_DEFAULTS,
-            Medium::Fresh => &FRESH_DEFAULTS,
+        let defaults: &[(ConstantName, Size)] = match (self.constants_off, medium) {
+            (true, _) => &[],
+            (false, Medium::Saline) => &SALINE_DEFAULTS,
+            (false, Medium::Fresh) => &FRESH_DEFAULTS,
         };
         let mut all: Vec<(ConstantName, Size)> = defaults
             .iter()

@@ -95,6 +95,81 @@ impl Batch {
         self
     }
 
+    /// With the standard uncertainty of every numeric computed column, as
+    /// [`Batch::with_uncertainties`], the sources named as the binding
+    /// names them: `(name, size, percent)`, the name an input's column name
+    /// (any spelling a sheet header reads, such as `alkalinity_mg_l_caco3`)
+    /// with an absolute size in that column's unit, as a sheet's
+    /// `<column>_u` cell reads it; or an input's flag or a constant's name
+    /// (`pk1` or `K1`, `pksp_calcite`, `boron_total`) with a size in its own unit as
+    /// `--uncertainty NAME=VALUE` reads a plain number; or any of them with
+    /// a size in % (`percent`). Each is resolved for each row (an amount
+    /// per litre through that row's density), after `base`.
+    ///
+    /// # Errors
+    /// [`SheetError::BadOption`] (option `uncertainty`) naming the source:
+    /// a name that is neither, or a size its unit does not take.
+    ///
+    /// ```
+    /// use travertine::decisions::uncertainty::Uncertainties;
+    /// use travertine::sheet::{Batch, Cell, Outcome, SheetOptions};
+    /// let names = ["temperature_c", "salinity", "alkalinity_mg_l_caco3", "ph_nbs"];
+    /// let batch = Batch::new(&names, &SheetOptions::default())?
+    ///     .with_named_uncertainties(&[("alkalinity_mg_l_caco3".into(), 2.0, false)],
+    ///                               Uncertainties::new().without_constants())?;
+    /// let k = batch.computed().iter().position(|o| o.key() == "alkalinity_mg_l_caco3").unwrap();
+    /// let mut out = Outcome::default();
+    /// batch.solve(&[Cell::Number(15.0), Cell::Number(0.2), Cell::Number(100.0), Cell::Number(7.9)], &mut out);
+    /// // 2 mg/L as CaCO3 on an alkalinity given in mg/L as CaCO3.
+    /// let u = out.uncertainties().nth(k).flatten().unwrap();
+    /// assert!((u - 2.0).abs() < 1e-6, "{u}");
+    /// // A name that is neither an input nor a constant.
+    /// assert!(Batch::new(&names, &SheetOptions::default())?
+    ///     .with_named_uncertainties(&[("alkalinty".into(), 2.0, true)], Uncertainties::new())
+    ///     .is_err());
+    /// # Ok::<(), travertine::sheet::SheetError>(())
+    /// ```
+    pub fn with_named_uncertainties(
+        self,
+        named: &[(String, f64, bool)],
+        base: Uncertainties,
+    ) -> Result<Self, SheetError> {
+        use crate::decisions::uncertainty_settings::{Setting, Target};
+        let mut settings = Vec::with_capacity(named.len());
+        for (name, size, percent) in named {
+            let text = if *percent {
+                format!("{size}%")
+            } else {
+                format!("{size}")
+            };
+            let setting = match super::plan::uncertainty_column(0, &format!("{name}_u")) {
+                Some(column) => Setting::of(
+                    column.target,
+                    &super::row::in_column_unit(&column, text),
+                    name,
+                ),
+                // A constant also by the name of K (`K1` for `pk1`).
+                None => match Target::from_name(name)
+                    .or_else(|| Target::from_name(&format!("p{}", name.trim())))
+                {
+                    Some(target) => Setting::of(target, &text, name),
+                    // The error of the setting, with its nearest name.
+                    None => format!("{name}={text}").parse::<Setting>(),
+                },
+            }
+            .map_err(|e| SheetError::BadOption {
+                option: "uncertainty",
+                message: e.to_string(),
+            })?;
+            settings.push(setting);
+        }
+        let mut batch = self.with_uncertainties(base);
+        if let Some(u) = &mut batch.plan.uncertainty {
+            u.settings = settings;
+        }
+        Ok(batch)
+    }
+
     /// The computed columns, in order: [`Outcome::values`] (and
     /// [`Outcome::uncertainties`]) follow it; each one's value is
     /// [`Output::value`] of the row's state ([`Outcome::state`]).

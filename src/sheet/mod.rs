@@ -516,8 +516,10 @@ impl SheetOptions {
         Ok(self)
     }
 
-    /// No uncertainty in any constant, for every row (and the `_u`
-    /// columns written even with no other uncertainty asked for: all 0).
+    /// No default uncertainty of the constants, for every row (a constant
+    /// set with [`SheetOptions::with_uncertainty`] still counts; and the
+    /// `_u` columns are written even with no other uncertainty asked for:
+    /// all 0).
     ///
     /// ```
     /// # use travertine::sheet::SheetOptions;

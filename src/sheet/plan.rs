@@ -553,7 +553,7 @@ impl Plan {
 /// The column `text` at `index` as a column of standard uncertainties:
 /// any header recognised as an input whose uncertainty can be propagated,
 /// followed by `_u` (`ph_nbs_u`, `Alkalinity (mg/L as CaCO3)_u`).
-fn uncertainty_column(index: usize, text: &str) -> Option<UncertaintyColumn> {
+pub(super) fn uncertainty_column(index: usize, text: &str) -> Option<UncertaintyColumn> {
     let t = text.trim();
     let base = t.strip_suffix("_u").or_else(|| t.strip_suffix("_U"))?;
     let Recognition::Column(c) = header::recognise(base) else {

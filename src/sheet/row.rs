@@ -816,7 +816,6 @@ fn cell_setting(
     record: Cells<'_>,
     decimal_comma: bool,
 ) -> Option<Result<Setting, SettingError>> {
-    use super::header::Reading;
     let mut text = cell_text(record, u.index).trim().to_string();
     if text.is_empty() {
         return None;
@@ -824,26 +823,32 @@ fn cell_setting(
     if decimal_comma {
         text = text.replace(',', ".");
     }
-    let value = if text.ends_with('%') {
-        text
-    } else {
-        match u.reading {
-            Reading::Quantity(unit) => format!("{text} {}", unit.spelling()),
-            // A difference: the scale of the unit, not its offset.
-            Reading::Number { scale, .. } if scale != 1.0 => match text.parse::<f64>() {
-                Ok(x) => format!("{}", x * scale),
-                Err(_) => text,
-            },
-            // In µS/cm, at the sample temperature or at 25 °C as the
-            // column's readings are.
-            Reading::Conductivity { scale, .. } => match text.parse::<f64>() {
-                Ok(x) => format!("{} uS/cm", x * scale),
-                Err(_) => text,
-            },
-            _ => text,
-        }
-    };
-    Some(Setting::of(u.target, &value, &u.header))
+    Some(Setting::of(u.target, &in_column_unit(u, text), &u.header))
+}
+
+/// The text of an uncertainty of `u`'s value column, a number in that
+/// column's unit (a temperature in °F as a difference) or a percentage, as
+/// a setting's value reads it.
+pub(super) fn in_column_unit(u: &super::plan::UncertaintyColumn, text: String) -> String {
+    use super::header::Reading;
+    if text.ends_with('%') {
+        return text;
+    }
+    match u.reading {
+        Reading::Quantity(unit) => format!("{text} {}", unit.spelling()),
+        // A difference: the scale of the unit, not its offset.
+        Reading::Number { scale, .. } if scale != 1.0 => match text.parse::<f64>() {
+            Ok(x) => format!("{}", x * scale),
+            Err(_) => text,
+        },
+        // In µS/cm, at the sample temperature or at 25 °C as the
+        // column's readings are.
+        Reading::Conductivity { scale, .. } => match text.parse::<f64>() {
+            Ok(x) => format!("{} uS/cm", x * scale),
+            Err(_) => text,
+        },
+        _ => text,
+    }
 }
 
 /// The standard uncertainty of every numeric computed column of a row

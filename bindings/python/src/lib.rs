@@ -19,9 +19,8 @@ use pyo3::types::{PyDict, PyList, PyString};
 use rayon::prelude::*;
 use travertine::decisions::blend::{blend_states, Share};
 use travertine::decisions::dose::DoseRequest;
-use travertine::decisions::uncertainty::{Size, Uncertainties};
+use travertine::decisions::uncertainty::Uncertainties;
 use travertine::decisions::Profile;
-use travertine::medium::ConstantName;
 use travertine::output::{Output, Record, Value};
 use travertine::sample::inputs::INPUTS;
 use travertine::sheet::{input_named, Batch, Cell, Outcome, SheetOptions};
@@ -92,55 +91,6 @@ fn outputs() -> Vec<(&'static str, &'static str, &'static str)> {
 #[pyfunction]
 fn is_input(name: &str) -> bool {
     input_named(name).is_some()
-}
-
-/// The uncertainties of a call: `(name, size, percent)` for each source,
-/// `name` an input name or a constant (`pK1`, `K1`, `total boron`).
-fn uncertainties(given: &[(String, f64, bool)], constants: bool) -> PyResult<Uncertainties> {
-    let mut u = Uncertainties::new();
-    if !constants {
-        u = u.without_constants();
-    }
-    for (name, size, percent) in given {
-        let size_of = |own: bool| -> PyResult<Size> {
-            Ok(if *percent {
-                Size::Percent(*size)
-            } else if own {
-                Size::Absolute(*size)
-            } else {
-                return Err(value_error(format!(
-                    "uncertainty of `{name}`: an absolute size is in the library's unit of the \
-                     input (pH units, µmol/kg, µatm, ppm, °C, practical salinity, m/s), not in \
-                     the unit of `{name}`; give it under a name in that unit (such as \
-                     alkalinity_umol_kg) or as a percentage (\"1%\")"
-                )));
-            })
-        };
-        if let Some((input, own)) = input_named(name) {
-            u = u.with_input(input, size_of(own)?).map_err(value_error)?;
-            continue;
-        }
-        let wanted = name
-            .trim()
-            .trim_start_matches(['p', 'P'])
-            .to_ascii_lowercase();
-        let constant = ConstantName::ALL.iter().find(|c| {
-            let n = c.name().to_ascii_lowercase();
-            n == name.trim().to_ascii_lowercase() || n.trim_start_matches('p') == wanted
-        });
-        match constant {
-            Some(c) => u = u.with_constant(*c, size_of(true)?).map_err(value_error)?,
-            None => {
-                let names: Vec<&str> = ConstantName::ALL.iter().map(|c| c.name()).collect();
-                return Err(value_error(format!(
-                    "uncertainty of `{name}`: not an input name (such as ph_total, \
-                     alkalinity_umol_kg, temperature_c) nor a constant ({})",
-                    names.join(", ")
-                )));
-            }
-        }
-    }
-    Ok(u)
 }
 
 /// The output buffers of one task: a slice of every column, each computed
@@ -675,7 +625,16 @@ fn solve_columns<'py>(
     let mut batch = Batch::new(&name_refs, &options).map_err(value_error)?;
     let uncertain = uncertainty.is_some();
     if let Some(u) = &uncertainty {
-        batch = batch.with_uncertainties(uncertainties(u, constants)?);
+        // Each source read as a sheet reads it: an input's column name
+        // with a size in that column's unit, a constant's name, or a %.
+        let base = if constants {
+            Uncertainties::new()
+        } else {
+            Uncertainties::new().without_constants()
+        };
+        batch = batch
+            .with_named_uncertainties(u, base)
+            .map_err(value_error)?;
     }
     let arrays: Vec<Option<PyReadonlyArray1<'py, f64>>> =
         values.iter().map(|v| v.extract().ok()).collect();

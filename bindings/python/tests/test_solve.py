@@ -184,9 +184,24 @@ def test_uncertainty_keys():
     with_constants = travertine.solve(temperature_c=20, salinity=35, alkalinity_umol_kg=2300, ph_total=8.0,
                                       uncertainty={"ph_total": 0.01}, columns=["pco2_uatm"])
     assert with_constants["pco2_uatm_u"][()] > r["pco2_uatm_u"][0]
-    with pytest.raises(ValueError, match="percentage"):
+    # An absolute size is in the unit of its name: 2 mg/L as CaCO3 is the
+    # alkalinity's own uncertainty when it is measured in mg/L as CaCO3,
+    # and 2 % of 100 mg/L the same.
+    for size in (2.0, "2%"):
+        r = travertine.solve(temperature_c=20, salinity=0.2, alkalinity_mg_l_caco3=100, ph_nbs=8,
+                             uncertainty={"alkalinity_mg_l_caco3": size}, uncertainty_constants=False,
+                             columns=["alkalinity_mg_l_caco3"])
+        assert abs(r["alkalinity_mg_l_caco3_u"][()] - 2.0) < 1e-6, size
+    # A constant by the name of its pK or of K; an unknown name is refused
+    # with the nearest name.
+    a = travertine.solve(temperature_c=20, salinity=35, alkalinity_umol_kg=2300, ph_total=8.0,
+                         uncertainty={"pk1": 0.01}, uncertainty_constants=False, columns=["pco2_uatm"])
+    b = travertine.solve(temperature_c=20, salinity=35, alkalinity_umol_kg=2300, ph_total=8.0,
+                         uncertainty={"K1": 0.01}, uncertainty_constants=False, columns=["pco2_uatm"])
+    assert a["pco2_uatm_u"][()] > 0 and a["pco2_uatm_u"][()] == b["pco2_uatm_u"][()]
+    with pytest.raises(ValueError, match="alkalinity"):
         travertine.solve(temperature_c=20, salinity=0.2, alkalinity_mg_l_caco3=100, ph_nbs=8,
-                         uncertainty={"alkalinity_mg_l_caco3": 2.0})
+                         uncertainty={"alkalinty": 2.0})
 
 
 def test_help_lists_every_input_and_stubs_are_current():
