@@ -389,16 +389,12 @@ pub(crate) fn solve_near(
     options: &SolveOptions,
     near_h: f64,
 ) -> Result<Solution> {
-    check_pair(a, b)?;
-    let mut warnings = Warnings::new();
-    let mut ka = to_working(k, a, &mut warnings);
-    let mut kb = to_working(k, b, &mut warnings);
-    let (mut ma, mut mb) = (a, b);
-    if ka.rank() > kb.rank() {
-        std::mem::swap(&mut ka, &mut kb);
-        std::mem::swap(&mut ma, &mut mb);
-    }
-    let pair = Pair { a: ma, b: mb };
+    let Working {
+        ka,
+        kb,
+        pair,
+        mut warnings,
+    } = working(k, a, b)?;
     let (h, dic) = solve_pair(k, ka, kb, pair, options, near_h, &mut warnings)?;
     Ok(Solution { h, dic, warnings })
 }
@@ -414,6 +410,7 @@ pub(crate) struct Working<'a> {
 
 /// The internal form of the pair `a`, `b` at the constants `k`
 /// ([`to_working`]), after the pair is checked.
+#[inline(always)]
 pub(crate) fn working<'a>(k: &Constants, a: &'a Measured, b: &'a Measured) -> Result<Working<'a>> {
     check_pair(a, b)?;
     let mut warnings = Warnings::new();
