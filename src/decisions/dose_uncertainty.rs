@@ -54,6 +54,23 @@ pub struct DoseUncertainty {
 /// The Monte Carlo check of a dose's uncertainty: `draws` full doses, each
 /// with every source drawn at once (as
 /// [`crate::decisions::uncertainty::monte_carlo`] draws them).
+///
+/// ```
+/// use travertine::decisions::dose::{Chemical, DoseRequest};
+/// use travertine::decisions::dose_uncertainty::dose_uncertainty;
+/// use travertine::decisions::uncertainty::{Problem, Uncertainties};
+/// use travertine::{units::Unit, Conditions, Measured, Water};
+/// let pond = Water::fresh(Conditions::new(24.0, 0.1)?)?;
+/// let (a, b) = (Measured::alkalinity(28.0, Unit::MgPerLCaCO3)?, Measured::ph(7.1, None)?);
+/// let request = DoseRequest::new(Chemical::SodiumBicarbonate, "alkalinity=50 mg/L CaCO3".parse()?);
+/// let p = Problem::new(&pond, a, b)?;
+/// let u = Uncertainties::new();
+/// let d = dose_uncertainty(&p, &u, request)?.with_monte_carlo(&p, &u, request, 50, 2)?;
+/// let mc = d.monte_carlo.unwrap();
+/// assert_eq!((mc.draws, mc.seed), (50, 2));
+/// assert!(mc.dose_g_m3_mean.unwrap() > 0.0);
+/// # Ok::<(), travertine::Error>(())
+/// ```
 #[derive(Debug, Clone, PartialEq)]
 #[non_exhaustive]
 pub struct DoseMonteCarlo {
