@@ -524,6 +524,20 @@ impl Problem {
         self
     }
 
+    /// The medium of the water.
+    ///
+    /// ```
+    /// # use travertine::decisions::uncertainty::Problem;
+    /// # use travertine::{Conditions, Measured, Medium, Water};
+    /// let lake = Water::fresh(Conditions::new(20.0, 0.1)?)?;
+    /// let p = Problem::new(&lake, Measured::ph(7.6, None)?, Measured::alkalinity_umol_kg(900.0)?)?;
+    /// assert_eq!(p.medium(), Medium::Fresh);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn medium(&self) -> Medium {
+        self.prepared.water().medium()
+    }
+
     /// The temperature (°C) and pressure (dbar) the states are reported at,
     /// where [`Problem::reported_at`] moved them (`None` within: the
     /// measurement's).

@@ -302,7 +302,7 @@ impl Report {
             }
             None => None,
         };
-        let medium = problem.solve()?.medium;
+        let medium = problem.medium();
         let sources = linear
             .sources
             .iter()
