@@ -12,6 +12,9 @@
 //! - `<water>/<pair>/linear_default_from_water`: [`Problem::new`] and
 //!   [`propagate`] of pCO2 with the realistic default setup (below), as a
 //!   caller with a sample propagates it;
+//! - `<water>/<pair>/plain_every_output_from_water`: [`Water::solve`] and
+//!   every numeric output read from the state ([`values_into`]), as
+//!   `solve --json` reports them without uncertainties;
 //! - `<water>/<pair>/linear_default_every_output`: [`Problem::new`] and
 //!   [`outputs_propagated`], every numeric output (as `solve --json
 //!   --uncertainty` and the sheet's `_u` columns), the same setup;
@@ -33,6 +36,7 @@
 //! [`PreparedWater::solve`]: travertine::PreparedWater::solve
 //! [`Water::solve`]: travertine::Water::solve
 //! [`outputs_propagated`]: travertine::output::uncertainty::outputs_propagated
+//! [`values_into`]: travertine::output::uncertainty::values_into
 //! [`SALINE_DEFAULTS`]: travertine::decisions::uncertainty::SALINE_DEFAULTS
 //! [`FRESH_DEFAULTS`]: travertine::decisions::uncertainty::FRESH_DEFAULTS
 
@@ -40,7 +44,7 @@ use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
 use std::time::Duration;
 use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
-use travertine::output::uncertainty::outputs_propagated;
+use travertine::output::uncertainty::{numeric_outputs, outputs_propagated, values_into};
 use travertine::sample::inputs::{Input, Total};
 use travertine::units::Amount;
 use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
@@ -134,6 +138,19 @@ fn bench(c: &mut Criterion) {
                             propagate(&problem, &default, |s, out| out.push(Some(s.pco2_uatm)))
                                 .unwrap(),
                         )
+                    })
+                },
+            );
+            let outputs = numeric_outputs();
+            group.bench_function(
+                format!("{name}/{pair}/plain_every_output_from_water"),
+                |bench| {
+                    let mut values = Vec::with_capacity(outputs.len());
+                    bench.iter(|| {
+                        let s = black_box(&water).solve(black_box(a), b).unwrap();
+                        values.clear();
+                        values_into(&outputs, &s, &mut values);
+                        black_box(&values);
                     })
                 },
             );

@@ -406,6 +406,8 @@ fn warm_forward_differences_agree_with_cold_central_differences() {
     let read = |s: &travertine::State| {
         vec![
             Some(s.pco2_uatm),
+            Some(s.fco2_uatm),
+            Some(s.xco2_ppm),
             s.omega_calcite,
             s.langelier_index,
             s.omega_aragonite,
@@ -488,11 +490,13 @@ fn warm_forward_differences_agree_with_cold_central_differences() {
             }
         }
     }
-    // Sea water: 2 inputs and 8 constants × 4 outputs (no Langelier
-    // index; the solubility products moved without a solve,
-    // `State::with_pksp_moved`); each fresh water: 3 inputs and 9
-    // constants × 5 outputs.
-    assert_eq!(checked, 40 + 2 * 60);
+    // Sea water: 2 inputs and 8 constants × 6 outputs (no Langelier
+    // index; the solubility products and K0 moved without a solve,
+    // `State::with_pksp_moved`, `State::with_pk0_moved`); each fresh
+    // water: 3 inputs and 9 constants × 7 outputs (aragonite and K0
+    // moved without a solve; KB, without boron, moves nothing and is not
+    // solved at all).
+    assert_eq!(checked, 60 + 2 * 84);
 }
 
 /// A water made from a sample described by a conductivity reading (the
@@ -815,4 +819,60 @@ fn uncertainties_at_the_reporting_conditions_agree_with_moved_solves() {
         }
     }
     assert_eq!(checked, 9);
+}
+
+/// A constant of a system the water does not have (its total zero) moves
+/// no output: the propagation gives it zero contributions without a solve
+/// (`Problem::moves_nothing`), and a full solve with the constant perturbed
+/// (written here) indeed gives the same numbers. Checked for every constant
+/// in a fresh water without calcium or nutrients and in sea water without
+/// nutrients (and the ion pairs, zero there), and the other way: a constant
+/// that does move something gets a contribution.
+#[test]
+fn a_constant_of_an_absent_system_moves_nothing() {
+    use travertine::medium::ConstantName;
+    let bare = Water::fresh(Conditions::new(12.0, 0.1).unwrap()).unwrap();
+    let cases = [
+        (bare, Measured::ph(7.2, None).unwrap()),
+        (sea(), Measured::ph(8.0, Some(PhScale::Total)).unwrap()),
+    ];
+    let read = |s: &travertine::State| {
+        let mut v = Vec::new();
+        travertine::output::uncertainty::values_into(
+            &travertine::output::uncertainty::numeric_outputs(),
+            s,
+            &mut v,
+        );
+        v
+    };
+    let ta = Measured::alkalinity_umol_kg(1500.0).unwrap();
+    let mut zero = 0;
+    for (water, ph) in cases {
+        let p = Problem::new(&water, ph, ta).unwrap();
+        let prepared = water.prepare().unwrap();
+        let base = read(&prepared.solve(ph, ta).unwrap());
+        for which in ConstantName::ALL {
+            let u = Uncertainties::new()
+                .without_constants()
+                .with_constant(which, Size::Absolute(0.05))
+                .unwrap();
+            let r = propagate(&p, &u, q(read)).unwrap();
+            let moved = prepared
+                .with_constants_perturbed(which, 0.05)
+                .and_then(|w| w.solve(ph, ta))
+                .map(|s| read(&s));
+            let unmoved = moved.as_ref().is_ok_and(|m| *m == base);
+            let all_zero = r.outputs.iter().all(|o| o.u.unwrap_or(0.0) == 0.0);
+            if unmoved {
+                zero += 1;
+                assert!(all_zero, "{:?} {which:?}", water.medium());
+            } else {
+                assert!(!all_zero, "{:?} {which:?}: moved {moved:?}", water.medium());
+            }
+        }
+    }
+    // Fresh: KB, the boron total, the ion pairs, both solubility products,
+    // KP1–3, KSi, KNH4, KH2S, KS and KF; sea water (no nutrients given):
+    // the two ion pairs, KP1–3, KSi, KNH4 and KH2S.
+    assert_eq!(zero, 14 + 8);
 }

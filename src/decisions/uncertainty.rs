@@ -60,7 +60,7 @@ use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
 use crate::sample::inputs::{Input, Total};
-use crate::sample::measured::Measured;
+use crate::sample::measured::{Measured, Parameter};
 use crate::sample::water::{Medium, Water};
 use crate::sample::{Conditions, Conductivity};
 use crate::solve::{Near, SolveOptions};
@@ -873,6 +873,52 @@ impl Problem {
         })
     }
 
+    /// Whether `source` is a constant of a system this water does not have
+    /// (its total zero: KB and the total boron without boron, the ion
+    /// pairs and the solubility products without calcium, the phosphate,
+    /// silicate, ammonium, sulfide, bisulfate and fluoride constants
+    /// without their totals; the ion pairs in saline water, where they are
+    /// zero). Such a constant moves no output, so its contributions are
+    /// zero without a solve (a test compares this with the constant
+    /// perturbed and solved again).
+    pub(crate) fn moves_nothing(&self, source: Source) -> bool {
+        let t = self.prepared.totals();
+        let Source::Constant(k) = source else {
+            return false;
+        };
+        let total = match k {
+            ConstantName::Kb | ConstantName::BoronTotal => t.boron_mol_kg,
+            ConstantName::CaHco3Pair | ConstantName::CaCo3Pair
+                if self.prepared.water().medium() == Medium::Saline =>
+            {
+                0.0
+            }
+            ConstantName::CaHco3Pair
+            | ConstantName::CaCo3Pair
+            | ConstantName::KspCalcite
+            | ConstantName::KspAragonite => t.calcium_mol_kg,
+            ConstantName::Kp1 | ConstantName::Kp2 | ConstantName::Kp3 => t.phosphate_mol_kg,
+            ConstantName::Ksi => t.silicate_mol_kg,
+            ConstantName::Knh4 => t.ammonia_mol_kg,
+            ConstantName::Kh2s => t.sulfide_mol_kg,
+            ConstantName::Ks => t.sulfate_mol_kg,
+            ConstantName::Kf => t.fluoride_mol_kg,
+            _ => return false,
+        };
+        total == 0.0
+    }
+
+    /// Whether either measured parameter is a gas-phase one (pCO2, fCO2,
+    /// xCO2), whose solve reads K0.
+    fn pair_in_gas(&self) -> bool {
+        [self.a, self.b].iter().any(|m| {
+            matches!(
+                m.parameter(),
+                Parameter::Pco2 | Parameter::Fco2 | Parameter::Xco2
+            )
+        })
+    }
+
     /// The state with one source moved by `d`, for a derivative (`base`:
     /// the unperturbed state): as [`Problem::realise`], but lean where no air is over the water (every
     /// number the same, no warnings: [`PreparedWater::solve_lean`]), and a
@@ -885,12 +931,20 @@ impl Problem {
         near: &Near,
         scratch: &mut Scratch,
     ) -> Result<State> {
-        if let (
-            Source::Constant(k @ (ConstantName::KspCalcite | ConstantName::KspAragonite)),
-            Medium::Saline,
-        ) = (source, base.medium)
-        {
-            return Ok(base.with_pksp_moved(k == ConstantName::KspAragonite, d));
+        match (source, base.medium) {
+            (
+                Source::Constant(k @ (ConstantName::KspCalcite | ConstantName::KspAragonite)),
+                Medium::Saline,
+            )
+            | (Source::Constant(k @ ConstantName::KspAragonite), Medium::Fresh) => {
+                return Ok(base.with_pksp_moved(k == ConstantName::KspAragonite, d));
+            }
+            (Source::Constant(ConstantName::K0), _)
+                if self.air.is_none() && base.exchange.is_none() && !self.pair_in_gas() =>
+            {
+                return Ok(base.with_pk0_moved(d));
+            }
+            _ => {}
         }
         if self.reported_at.is_some() {
             // The unperturbed unknowns are those of the state reported, not
@@ -1162,8 +1216,10 @@ where
     let mut scratch = problem.prepared.scratch();
     let (mut up, mut down) = (Vec::with_capacity(n), Vec::with_capacity(n));
     for (j, &(source, ui, scale)) in sources.iter().enumerate() {
+        if problem.moves_nothing(source) {
+            continue;
+        }
         let h = ui.min(STEP * scale);
-        let column = contributions.iter_mut().skip(j).step_by(m.max(1));
         let mut at_step = |d: f64, out: &mut Vec<Option<f64>>| {
             out.clear();
             problem
@@ -1172,20 +1228,22 @@ where
         };
         let up_solved = at_step(h, &mut up);
         // The usual case: the step up solved and kept every value, so the
-        // slope is the forward difference.
-        let kept = up_solved.is_ok()
-            && up.len() == n
-            && up
-                .iter()
-                .zip(&base)
-                .all(|(p, y)| p.is_some() || y.is_none());
+        // slope is the forward difference (source j fills column j).
+        let mut kept = up_solved.is_ok() && up.len() == n;
         if kept {
             let per_step = ui / h;
-            for (c, (p, y)) in column.zip(up.iter().zip(&base)) {
-                if let (Some(p), Some(y)) = (p, y) {
-                    *c = beyond_rounding(*p, *y) * per_step;
+            for (row, (p, y)) in contributions.chunks_exact_mut(m).zip(up.iter().zip(&base)) {
+                match (p, y) {
+                    (Some(p), Some(y)) => row[j] = beyond_rounding(*p, *y) * per_step,
+                    (None, Some(_)) => {
+                        kept = false;
+                        break;
+                    }
+                    _ => {}
                 }
             }
+        }
+        if kept {
             continue;
         }
         // Otherwise the step down too, and the central or backward
@@ -1197,16 +1255,16 @@ where
         let read = |r: &Result<()>, v: &[Option<f64>], k: usize| {
             r.as_ref().ok().and_then(|_| v.get(k).copied().flatten())
         };
-        for (k, (c, y)) in column.zip(&base).enumerate() {
+        for (k, (row, y)) in contributions.chunks_exact_mut(m).zip(&base).enumerate() {
             let slope = match (read(&up_solved, &up, k), *y, read(&down_solved, &down, k)) {
                 (Some(p), _, Some(m)) => Some(beyond_rounding(p, m) / (2.0 * h)),
                 (Some(p), Some(y), None) => Some(beyond_rounding(p, y) / h),
                 (None, Some(y), Some(m)) => Some(beyond_rounding(y, m) / h),
                 _ => None,
             };
-            match slope {
-                Some(s) => *c = s * ui,
-                None => lost[k] = true,
+            row[j] = slope.map_or(0.0, |s| s * ui);
+            if slope.is_none() {
+                lost[k] = true;
             }
         }
     }
@@ -1242,7 +1300,11 @@ where
 /// used.
 fn beyond_rounding(a: f64, b: f64) -> f64 {
     let d = a - b;
-    if d.abs() <= 8.0 * f64::EPSILON * a.abs().max(b.abs()) {
+    let (a, b) = (a.abs(), b.abs());
+    // The larger magnitude, without `f64::max`'s handling of NaN (a NaN
+    // difference stays NaN either way).
+    let larger = if a > b { a } else { b };
+    if d.abs() <= 8.0 * f64::EPSILON * larger {
         0.0
     } else {
         d

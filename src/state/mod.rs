@@ -312,17 +312,18 @@ impl State {
 
     /// This state with the pKsp of calcite (or of aragonite, `aragonite`)
     /// moved by `d_pk`, where nothing but the saturation of that mineral
-    /// depends on it (sea water: no saturation pH, no ion pairs): Ksp is
-    /// multiplied by 10^−d_pk, so
+    /// depends on it (sea water: no saturation pH, no ion pairs; in fresh
+    /// water aragonite, which neither the ion pairs nor the saturation pH
+    /// read): Ksp is multiplied by 10^−d_pk, so
     ///
     /// ```text
     /// Ω' = [Ca] [CO3--] / Ksp' = Ω 10^d_pk,   SI' = log10 Ω' = SI + d_pk
     /// ```
     ///
     /// the formulas of [`State::omega_calcite`] and [`State::si_calcite`].
-    /// The propagation of uncertainties moves a solubility product of sea
-    /// water so, without a solve (a test compares it with the constant
-    /// perturbed and solved again).
+    /// The propagation of uncertainties moves such a solubility product
+    /// so, without a solve (a test compares it with the constant perturbed
+    /// and solved again).
     pub(crate) fn with_pksp_moved(&self, aragonite: bool, d_pk: f64) -> State {
         let mut s = self.clone();
         let factor = 10f64.powf(d_pk);
@@ -333,6 +334,28 @@ impl State {
         };
         *omega = omega.map(|o| o * factor);
         *si = si.map(|i| i + d_pk);
+        s
+    }
+
+    /// This state with pK0 moved by `d_pk`, where the solve did not read K0
+    /// (no gas-phase parameter measured) and there is no exchange with the
+    /// air: K0 is multiplied by 10^−d_pk, and only the gas-phase figures,
+    /// which divide CO2* by it, move:
+    ///
+    /// ```text
+    /// fCO2' = CO2*/K0' = fCO2 10^d_pk,   pCO2' = pCO2 10^d_pk,   xCO2' = xCO2 10^d_pk
+    /// ```
+    ///
+    /// the formulas of [`State::fco2_uatm`], [`State::pco2_uatm`] and
+    /// [`State::xco2_ppm`] (a test compares it with the constant perturbed
+    /// and solved again).
+    pub(crate) fn with_pk0_moved(&self, d_pk: f64) -> State {
+        let mut s = self.clone();
+        let factor = 10f64.powf(d_pk);
+        s.fco2_uatm *= factor;
+        s.pco2_uatm *= factor;
+        s.xco2_ppm *= factor;
+        s.gas.k0 /= factor;
         s
     }
 
