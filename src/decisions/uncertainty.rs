@@ -922,14 +922,15 @@ impl Problem {
     /// The state with one source moved by `d`, for a derivative (`base`:
     /// the unperturbed state): as [`Problem::realise`], but lean where no air is over the water (every
     /// number the same, no warnings: [`PreparedWater::solve_lean`]), and a
-    /// constant perturbed in `scratch` rather than in a new prepared water.
+    /// constant perturbed in `scratch` (made at the first constant) rather
+    /// than in a new prepared water.
     fn realise_one(
         &self,
         source: Source,
         d: f64,
         base: &State,
         near: &Near,
-        scratch: &mut Scratch,
+        scratch: &mut Option<Scratch>,
     ) -> Result<State> {
         match (source, base.medium) {
             (
@@ -956,9 +957,15 @@ impl Problem {
         }
         if let Source::Constant(k) = source {
             let (a, b, options) = (self.a, self.b, &self.options);
-            return self
-                .prepared
-                .solve_lean_perturbed(scratch, k, d, a, b, options, near);
+            return self.prepared.solve_lean_perturbed(
+                scratch.get_or_insert_with(|| self.prepared.scratch()),
+                k,
+                d,
+                a,
+                b,
+                options,
+                near,
+            );
         }
         let moved = self.shifted(&[(source, d)])?;
         let prepared = moved.prepared.as_ref().unwrap_or(&self.prepared);
@@ -1189,10 +1196,15 @@ const STEP: f64 = 1e-6;
 /// value itself (at least 1 in its unit). Each perturbed solve starts its
 /// searches from the unperturbed state's unknowns and builds its state
 /// without warnings (its numbers are those of a full solve); a constant is
-/// perturbed through its own method in a scratch copy of the constants. A
-/// solubility product of sea water moves only the saturation states and
-/// indices (Ω ∝ 1/Ksp, SI = log10 Ω): its perturbed state is the
-/// unperturbed one with those moved, no solve.
+/// perturbed through its own method in a scratch copy of the constants.
+/// Three kinds of constant need no solve: a solubility product that moves
+/// only its mineral's saturation state and index (Ω ∝ 1/Ksp,
+/// SI = log10 Ω; both in sea water, aragonite's in fresh water), K0 where
+/// the pair has no gas-phase parameter and no air is over the water (it
+/// moves only fCO2, pCO2 and xCO2, ∝ 1/K0), whose perturbed states are the
+/// unperturbed one with those moved; and a constant of a system the water
+/// does not have (its total zero), which moves nothing and gets zero
+/// contributions.
 /// Where the step up cannot be solved (a value taken out of its range) or
 /// loses a quantity, the backward difference is used.
 ///
@@ -1213,8 +1225,10 @@ where
     let mut contributions = vec![0.0; n * m];
     let mut lost = vec![false; n];
     let near = base_state.near();
-    let mut scratch = problem.prepared.scratch();
-    let (mut up, mut down) = (Vec::with_capacity(n), Vec::with_capacity(n));
+    // The scratch constants are copied at the first constant source; the
+    // step down's buffer grows only where one is taken.
+    let mut scratch = None;
+    let (mut up, mut down) = (Vec::with_capacity(n), Vec::new());
     for (j, &(source, ui, scale)) in sources.iter().enumerate() {
         if problem.moves_nothing(source) {
             continue;
