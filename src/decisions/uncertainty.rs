@@ -446,14 +446,32 @@ impl Problem {
     /// # Errors
     /// As [`Water::prepare`].
     pub fn new(water: &Water, a: Measured, b: Measured) -> Result<Self> {
-        Ok(Problem {
-            prepared: water.prepare()?,
+        Ok(Problem::from_prepared(water.prepare()?, a, b))
+    }
+
+    /// The pair `a`, `b` in a water already prepared (its constants made),
+    /// as [`Problem::new`] of that water gives it without preparing it
+    /// again: for a caller that has solved the water itself (the sheet's
+    /// rows, which keep the last row's prepared water).
+    ///
+    /// ```
+    /// use travertine::decisions::uncertainty::Problem;
+    /// use travertine::{Conditions, Measured, Water};
+    /// let pond = Water::fresh(Conditions::new(18.0, 0.2)?)?;
+    /// let (ph, ta) = (Measured::ph(7.6, None)?, Measured::alkalinity_umol_kg(1500.0)?);
+    /// let p = Problem::from_prepared(pond.prepare()?, ph, ta);
+    /// assert_eq!(p.solve()?, Problem::new(&pond, ph, ta)?.solve()?);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn from_prepared(prepared: PreparedWater, a: Measured, b: Measured) -> Self {
+        Problem {
+            prepared,
             a,
             b,
             options: SolveOptions::default().with_media_comparison(false),
             air: None,
             reported_at: None,
-        })
+        }
     }
 
     /// With these solve options (the comparison of media stays off).

@@ -915,7 +915,13 @@ fn uncertainty_row(
             )
         }
     };
-    let problem = match Problem::new(water, a, b) {
+    // The row's own prepared water where it is this water (as the row's
+    // solve found it), else the water prepared again.
+    let prepared = match s.prepared.as_ref().filter(|p| p.water() == water) {
+        Some(p) => Ok(p.clone()),
+        None => water.prepare(),
+    };
+    let problem = match prepared.map(|p| Problem::from_prepared(p, a, b)) {
         Ok(p) => p.with_options(plan.options),
         Err(e) => {
             return s.warning(
