@@ -58,6 +58,21 @@
 #define TRV_ERR_INTERNAL 6
 
 /**
+ * A standard uncertainty that cannot be read (trv_sample_uncertainty):
+ * no `=`, a name that is neither an input with an uncertainty nor a
+ * constant, a value not in the name's units, or a value below zero or
+ * not finite.
+ */
+#define TRV_ERR_BAD_UNCERTAINTY 7
+
+/**
+ * A standard uncertainty of a carbonate parameter that is not one of the
+ * two measured (`dic=1umol/kg` on a pH and an alkalinity): trv_solve's
+ * error, as the program refuses it.
+ */
+#define TRV_ERR_UNCERTAINTY_NOT_MEASURED 8
+
+/**
  * An error of the library of a kind newer than this header.
  */
 #define TRV_ERR_OTHER 99
@@ -167,14 +182,16 @@ typedef struct trv_error trv_error;
 
 /**
  * A sample being described: filled with `trv_sample_set` and
- * `trv_sample_option`, solved with `trv_solve`, freed with
- * `trv_sample_free`.
+ * `trv_sample_option` (and the uncertainties asked for with
+ * `trv_sample_uncertainty`, `trv_sample_no_constant_uncertainty`), solved
+ * with `trv_solve`, freed with `trv_sample_free`.
  */
 typedef struct trv_sample trv_sample;
 
 /**
  * A solved sample: every output of `travertine solve --json`, read with
- * `trv_state_get`, and its warnings. Freed with `trv_state_free`.
+ * `trv_state_get`, its warnings, and, where asked for, the standard
+ * uncertainty of every numeric output. Freed with `trv_state_free`.
  */
 typedef struct trv_state trv_state;
 
@@ -235,9 +252,71 @@ int trv_sample_set(trv_sample *sample, const char *input_name, double value);
 int trv_sample_option(trv_sample *sample, const char *option, const char *value);
 
 /**
+ * Asks for the standard uncertainty of an input or a constant, as the
+ * program's `travertine solve --uncertainty NAME=VALUE` takes it:
+ * `setting` is one `NAME=VALUE` text, read by the library as the flag is.
+ *
+ * NAME is a carbonate parameter (`ph`, `alkalinity`, `dic`, `pco2`, ...,
+ * or its canonical sheet column, `ph_nbs`, `alkalinity_mg_l_caco3`;
+ * another unit's column, `alkalinity_umol_kg`, is no name here: the unit
+ * goes in VALUE), another input whose uncertainty is propagated
+ * (`temperature`, `salinity`, `calcium`, `wind`, ...), or a constant
+ * (`pk0`, `pk1`, `pk2`, `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`,
+ * `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute in one of the input's units (`ph=0.01`,
+ * `alkalinity=2umol/kg`, `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for
+ * °C, a constant in pK units: `pk1=0.01`) or relative (`dic=0.5%`).
+ * `travertine solve --help` lists every name.
+ *
+ * Asking for the uncertainty of a name again replaces the earlier value,
+ * as on the command line. Unless trv_sample_no_constant_uncertainty is
+ * called, the constants keep their published default uncertainties
+ * besides those set. Once any uncertainty is asked for, trv_solve
+ * propagates them to every numeric output (trv_state_uncertainty).
+ * Whether a carbonate parameter named was measured is checked by
+ * trv_solve (TRV_ERR_UNCERTAINTY_NOT_MEASURED), since the pair may be set
+ * after this call.
+ *
+ * Returns TRV_OK, or TRV_ERR_NULL, TRV_ERR_NOT_UTF8, or
+ * TRV_ERR_BAD_UNCERTAINTY for a setting that cannot be read (no `=`, an
+ * unknown name, a value not in the name's units, a negative or infinite
+ * value); the sample is unchanged on error.
+ *
+ * # Safety
+ * `sample` is NULL or a live sample of trv_sample_new; `setting` is NULL
+ * or a NUL-terminated string. The sample keeps no pointer to `setting`.
+ */
+int trv_sample_uncertainty(trv_sample *sample,
+                           const char *setting);
+
+/**
+ * Switches off the published default uncertainties of the constants, as
+ * the program's `--no-constant-uncertainty`: only the uncertainties set
+ * with trv_sample_uncertainty count (a constant set there still does).
+ * It also asks for the propagation: with no uncertainty set, every
+ * output's standard uncertainty is then 0.
+ *
+ * Returns TRV_OK, or TRV_ERR_NULL.
+ *
+ * # Safety
+ * `sample` is NULL or a live sample of trv_sample_new.
+ */
+int trv_sample_no_constant_uncertainty(trv_sample *sample);
+
+/**
  * Solves the sample as `travertine solve` does: exactly two measured
  * carbonate parameters and the temperature are needed, the rest is
  * optional.
+ *
+ * Where any uncertainty was asked for (trv_sample_uncertainty,
+ * trv_sample_no_constant_uncertainty), the solve also propagates them to
+ * every numeric output, as `travertine solve --uncertainty` does (read
+ * them with trv_state_uncertainty). That costs a few full solves per
+ * source. An uncertainty that cannot be used fails the whole solve, as it
+ * fails the program: NULL, and an error with the program's message and
+ * TRV_ERR_UNCERTAINTY_NOT_MEASURED (a carbonate parameter that is not one
+ * of the pair), or the library's code where the propagation cannot be
+ * made. There is no state without its uncertainties once they were asked
+ * for.
  *
  * Returns the state (free it with trv_state_free), or NULL on error. On
  * error, if `error` is not NULL, `*error` is set to a new error that
@@ -265,6 +344,69 @@ trv_state *trv_solve(const trv_sample *sample, trv_error **error);
  * NUL-terminated string.
  */
 double trv_state_get(const trv_state *state, const char *output_key);
+
+/**
+ * The standard uncertainty of the output `output_key` of the state: the
+ * `<key>_u` of `travertine solve --json --uncertainty ...` for the same
+ * sample and uncertainties (linear propagation; the sources taken as
+ * independent), in the unit of the output (pH units for `ph_total`,
+ * µmol/kg for `dic_umol_kg`, µatm for `pco2_uatm`, ...).
+ *
+ * NaN where no uncertainty was asked for before trv_solve, where the
+ * output has no value (as trv_state_get), for a key that is a name or
+ * unknown, and for NULL arguments. 0 where no source moves the output.
+ *
+ * # Safety
+ * `state` is NULL or a live state of trv_solve; `output_key` is NULL or a
+ * NUL-terminated string.
+ */
+double trv_state_uncertainty(const trv_state *state, const char *output_key);
+
+/**
+ * The number of sources of the state's uncertainties: every input and
+ * constant with an uncertainty above zero that the propagation moved, the
+ * `sources` of the `uncertainty` object of `solve --json` in its order.
+ * 0 where no uncertainty was asked for, and for NULL.
+ *
+ * # Safety
+ * `state` is NULL or a live state of trv_solve.
+ */
+size_t trv_state_uncertainty_source_count(const trv_state *state);
+
+/**
+ * The name of source `index` of the state's uncertainties, as the
+ * program's `budget` names it: an input's flag (`ph`, `alkalinity`,
+ * `temperature`) or a constant (`pk1`, `pksp_calcite`, `boron_total`).
+ * NULL for an index past the last, without uncertainties, or for NULL.
+ *
+ * The string is owned by the state and valid until trv_state_free.
+ *
+ * # Safety
+ * `state` is NULL or a live state of trv_solve.
+ */
+const char *trv_state_uncertainty_source(const trv_state *state, size_t index);
+
+/**
+ * The share of source `source_name` in the variance of output
+ * `output_key`: u_i² / u², between 0 and 1, the shares of an output
+ * summing to 1; the `budget` object of `solve --json --budget`.
+ *
+ * `source_name` is any name trv_sample_uncertainty takes for it (`ph`,
+ * `ph_nbs`, `alkalinity`, `alkalinity_mg_l_caco3`, `pk1`, ...), whatever
+ * unit or scale the input was given in. 0 for a source that is a valid
+ * name but not among the state's sources (its uncertainty is 0). NaN
+ * where the output's variance is not above zero (the program's budget
+ * leaves such an output out), where the output has no value, for an
+ * unknown key or name, where no uncertainty was asked for, and for NULL
+ * arguments.
+ *
+ * # Safety
+ * `state` is NULL or a live state of trv_solve; `output_key` and
+ * `source_name` are NULL or NUL-terminated strings.
+ */
+double trv_state_budget_share(const trv_state *state,
+                              const char *output_key,
+                              const char *source_name);
 
 /**
  * The number of warnings and notes of the state: the entries of the

@@ -3,7 +3,10 @@
  * Larkvane Fish Farm: Alder pond at dawn (fresh water, alkalinity in mg/L
  * as CaCO3, pH on the NBS scale) and the farm's sea-water holding tank
  * (saline, alkalinity in umol/kg, pH on the total scale), then the tank's
- * pH without its scale, which travertine refuses in saline water.
+ * pH without its scale, which travertine refuses in saline water. The
+ * tank's pH and alkalinity are given with their standard uncertainties
+ * (as `travertine solve --uncertainty ph=0.01 --uncertainty
+ * alkalinity=2umol/kg`), and the pCO2 is printed with its own.
  *
  * Build it against the static library (from the repository's root):
  *
@@ -38,9 +41,12 @@ static void show(const char *what, const char *name, double value)
         printf("  %-6s %-28s %.4g\n", what, name, value);
 }
 
-/* Fills a sample, solves it and prints its inputs, some outputs and its
- * warnings, or its error. Returns 0 when it solved. */
-static int run(const char *title, const struct input *inputs, size_t n)
+/* Fills a sample, asks for the standard uncertainties of `settings`
+ * (NAME=VALUE texts, `m` of them), solves it and prints its inputs, some
+ * outputs, the standard uncertainty of the pCO2 where uncertainties were
+ * asked for, and its warnings, or its error. Returns 0 when it solved. */
+static int run(const char *title, const struct input *inputs, size_t n,
+               const char *const *settings, size_t m)
 {
     static const char *outputs[] = {
         "ph_nbs", "ph_total", "alkalinity_umol_kg", "dic_umol_kg",
@@ -72,6 +78,16 @@ static int run(const char *title, const struct input *inputs, size_t n)
         }
     }
 
+    for (i = 0; i < m; i++) {
+        status = trv_sample_uncertainty(sample, settings[i]);
+        printf("  uncertainty %s\n", settings[i]);
+        if (status != TRV_OK) {
+            printf("  uncertainty %s refused with code %d\n", settings[i], status);
+            trv_sample_free(sample);
+            return 1;
+        }
+    }
+
     state = trv_solve(sample, &error);
     trv_sample_free(sample);
     if (state == NULL) {
@@ -81,6 +97,9 @@ static int run(const char *title, const struct input *inputs, size_t n)
     }
     for (i = 0; i < sizeof outputs / sizeof outputs[0]; i++)
         show("output", outputs[i], trv_state_get(state, outputs[i]));
+    /* The standard uncertainty of the pCO2 (NaN without uncertainties). */
+    if (m > 0)
+        show("u", "pco2_uatm", trv_state_uncertainty(state, "pco2_uatm"));
     for (i = 0; i < trv_state_warning_count(state); i++)
         printf("  warning %s\n", trv_state_warning_code(state, i));
     trv_state_free(state);
@@ -108,6 +127,8 @@ int main(int argc, char **argv)
         {"ph_total", 7.96, NULL},
         {"carbonic", 0, "lueker2000"},
     };
+    /* The tank's pH meter and titration, to one standard uncertainty. */
+    static const char *const tank_u[] = {"ph=0.01", "alkalinity=2umol/kg"};
     /* The same tank with a pH that names no scale. */
     static const struct input unscaled[] = {
         {"temperature_c", 14.2, NULL},
@@ -118,11 +139,13 @@ int main(int argc, char **argv)
     int failed = 0;
 
     all_digits = argc > 1 && strcmp(argv[1], "--all-digits") == 0;
-    failed += run("Alder pond, dawn", alder, sizeof alder / sizeof alder[0]);
-    failed += run("holding tank", tank, sizeof tank / sizeof tank[0]);
+    failed += run("Alder pond, dawn", alder, sizeof alder / sizeof alder[0],
+                  NULL, 0);
+    failed += run("holding tank", tank, sizeof tank / sizeof tank[0],
+                  tank_u, sizeof tank_u / sizeof tank_u[0]);
     /* This one is meant to fail: the error names the choice to make. */
     if (run("holding tank, pH without its scale", unscaled,
-            sizeof unscaled / sizeof unscaled[0]) == 0)
+            sizeof unscaled / sizeof unscaled[0], NULL, 0) == 0)
         failed += 1;
     return failed == 0 ? 0 : 1;
 }

@@ -8,6 +8,13 @@
 //! (the one list of outputs). New inputs and outputs of the library need no
 //! new C function.
 //!
+//! Standard uncertainties are asked for as `travertine solve
+//! --uncertainty NAME=VALUE` asks for them (`trv_sample_uncertainty`,
+//! `trv_sample_no_constant_uncertainty`); the solve then propagates them to
+//! every numeric output, read with `trv_state_uncertainty` (the
+//! `<key>_u` of `solve --json`) and `trv_state_budget_share` (its
+//! `budget` object).
+//!
 //! The header `travertine.h` beside this crate is generated from this file
 //! by cbindgen; `tests/header.rs` fails when the committed header is not
 //! what cbindgen makes of it (`TRV_WRITE_HEADER=1` rewrites it).
@@ -33,7 +40,10 @@
 use std::ffi::{c_char, c_double, c_int, CStr, CString};
 use std::panic::{catch_unwind, AssertUnwindSafe};
 
+use travertine::decisions::uncertainty::{Problem, Propagation, Source, Uncertainties};
+use travertine::decisions::uncertainty_settings::{with_settings, Setting, SettingError, Target};
 use travertine::error::ErrorKind;
+use travertine::output::uncertainty::outputs_propagated;
 use travertine::output::{Output, Value};
 use travertine::sample::inputs::{NamedInput, UnreadName};
 use travertine::sample::Sample;
@@ -57,6 +67,15 @@ pub const TRV_ERR_NAME_UNIT: c_int = 4;
 pub const TRV_ERR_WRONG_KIND: c_int = 5;
 /// A bug in travertine, caught at the boundary (a panic): please report it.
 pub const TRV_ERR_INTERNAL: c_int = 6;
+/// A standard uncertainty that cannot be read (trv_sample_uncertainty):
+/// no `=`, a name that is neither an input with an uncertainty nor a
+/// constant, a value not in the name's units, or a value below zero or
+/// not finite.
+pub const TRV_ERR_BAD_UNCERTAINTY: c_int = 7;
+/// A standard uncertainty of a carbonate parameter that is not one of the
+/// two measured (`dic=1umol/kg` on a pH and an alkalinity): trv_solve's
+/// error, as the program refuses it.
+pub const TRV_ERR_UNCERTAINTY_NOT_MEASURED: c_int = 8;
 /// An error of the library of a kind newer than this header.
 pub const TRV_ERR_OTHER: c_int = 99;
 /// A number outside the range accepted for its input.
@@ -128,19 +147,79 @@ fn kind_code(kind: ErrorKind) -> c_int {
     }
 }
 
+/// The stable number of a standard uncertainty that cannot be read or
+/// used, from the library's code of it ([`SettingError::code`]):
+/// `TRV_ERR_UNCERTAINTY_NOT_MEASURED` for a carbonate parameter not
+/// measured, `TRV_ERR_BAD_UNCERTAINTY` for every other (and for a kind
+/// newer than this binding: each is a setting that cannot be read).
+fn setting_code(e: &SettingError) -> c_int {
+    match e.code() {
+        "uncertainty_not_measured" => TRV_ERR_UNCERTAINTY_NOT_MEASURED,
+        _ => TRV_ERR_BAD_UNCERTAINTY,
+    }
+}
+
 /// A sample being described: filled with `trv_sample_set` and
-/// `trv_sample_option`, solved with `trv_solve`, freed with
-/// `trv_sample_free`.
+/// `trv_sample_option` (and the uncertainties asked for with
+/// `trv_sample_uncertainty`, `trv_sample_no_constant_uncertainty`), solved
+/// with `trv_solve`, freed with `trv_sample_free`.
 pub struct trv_sample {
     sample: Sample,
+    /// The uncertainty settings, one per name: a repeated name replaces
+    /// the earlier one and moves to the end, as the library's
+    /// `with_settings` treats a name given twice.
+    settings: Vec<Setting>,
+    /// The default uncertainties of the constants are off.
+    no_constant_uncertainty: bool,
+}
+
+impl trv_sample {
+    /// Whether any uncertainty was asked for, as the program's
+    /// `--uncertainty` or `--no-constant-uncertainty`.
+    fn uncertainty_asked(&self) -> bool {
+        !self.settings.is_empty() || self.no_constant_uncertainty
+    }
 }
 
 /// A solved sample: every output of `travertine solve --json`, read with
-/// `trv_state_get`, and its warnings. Freed with `trv_state_free`.
+/// `trv_state_get`, its warnings, and, where asked for, the standard
+/// uncertainty of every numeric output. Freed with `trv_state_free`.
 pub struct trv_state {
     state: State,
     /// The warning codes, NUL-terminated, owned here.
     warning_codes: Vec<CString>,
+    /// The propagation, where uncertainties were asked for.
+    uncertainty: Option<Propagated>,
+}
+
+/// The propagation of a state's uncertainties to every numeric output.
+struct Propagated {
+    /// The numeric outputs, in the order of `linear.outputs`.
+    outputs: Vec<Output>,
+    /// The library's result: each output's u, its budget.
+    linear: Propagation,
+    /// The name of each source, as the program's `budget` names it, in
+    /// the order of `linear.sources`, NUL-terminated, owned here.
+    source_names: Vec<CString>,
+}
+
+impl Propagated {
+    /// The place of the output `key` in `outputs`.
+    fn place(&self, key: &str) -> Option<usize> {
+        let o = Output::from_key(key)?;
+        self.outputs.iter().position(|p| *p == o)
+    }
+}
+
+/// The name of a source as the program's `uncertainty` and `budget`
+/// objects write it (an input's flag, `pk1`, `boron_total`).
+fn source_name(source: Source) -> String {
+    match source {
+        Source::Input(i) => Target::Input(i).name(),
+        Source::Constant(c) => Target::Constant(c).name(),
+        // A kind of source newer than this binding: its debug name.
+        other => format!("{other:?}"),
+    }
 }
 
 /// Why a sample could not be solved: a code and a message that names the
@@ -196,6 +275,8 @@ pub extern "C" fn trv_sample_new() -> *mut trv_sample {
     guarded(std::ptr::null_mut(), || {
         Box::into_raw(Box::new(trv_sample {
             sample: Sample::default(),
+            settings: Vec::new(),
+            no_constant_uncertainty: false,
         }))
     })
 }
@@ -303,9 +384,140 @@ pub unsafe extern "C" fn trv_sample_option(
     })
 }
 
+/// Asks for the standard uncertainty of an input or a constant, as the
+/// program's `travertine solve --uncertainty NAME=VALUE` takes it:
+/// `setting` is one `NAME=VALUE` text, read by the library as the flag is.
+///
+/// NAME is a carbonate parameter (`ph`, `alkalinity`, `dic`, `pco2`, ...,
+/// or its canonical sheet column, `ph_nbs`, `alkalinity_mg_l_caco3`;
+/// another unit's column, `alkalinity_umol_kg`, is no name here: the unit
+/// goes in VALUE), another input whose uncertainty is propagated
+/// (`temperature`, `salinity`, `calcium`, `wind`, ...), or a constant
+/// (`pk0`, `pk1`, `pk2`, `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`,
+/// `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute in one of the input's units (`ph=0.01`,
+/// `alkalinity=2umol/kg`, `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for
+/// °C, a constant in pK units: `pk1=0.01`) or relative (`dic=0.5%`).
+/// `travertine solve --help` lists every name.
+///
+/// Asking for the uncertainty of a name again replaces the earlier value,
+/// as on the command line. Unless trv_sample_no_constant_uncertainty is
+/// called, the constants keep their published default uncertainties
+/// besides those set. Once any uncertainty is asked for, trv_solve
+/// propagates them to every numeric output (trv_state_uncertainty).
+/// Whether a carbonate parameter named was measured is checked by
+/// trv_solve (TRV_ERR_UNCERTAINTY_NOT_MEASURED), since the pair may be set
+/// after this call.
+///
+/// Returns TRV_OK, or TRV_ERR_NULL, TRV_ERR_NOT_UTF8, or
+/// TRV_ERR_BAD_UNCERTAINTY for a setting that cannot be read (no `=`, an
+/// unknown name, a value not in the name's units, a negative or infinite
+/// value); the sample is unchanged on error.
+///
+/// # Safety
+/// `sample` is NULL or a live sample of trv_sample_new; `setting` is NULL
+/// or a NUL-terminated string. The sample keeps no pointer to `setting`.
+#[no_mangle]
+pub unsafe extern "C" fn trv_sample_uncertainty(
+    sample: *mut trv_sample,
+    setting: *const c_char,
+) -> c_int {
+    guarded(TRV_ERR_INTERNAL, || {
+        // SAFETY: NULL or live and not shared, by the contract.
+        let Some(s) = (unsafe { sample.as_mut() }) else {
+            return TRV_ERR_NULL;
+        };
+        // SAFETY: NULL or NUL-terminated, by the contract.
+        let text = match unsafe { text(setting) } {
+            Ok(t) => t,
+            Err(code) => return code,
+        };
+        match text.parse::<Setting>() {
+            Ok(new) => {
+                // The library's `with_settings` keeps the last setting of
+                // a name, moved to the end: so does the list kept here.
+                s.settings.retain(|old| old.target() != new.target());
+                s.settings.push(new);
+                TRV_OK
+            }
+            Err(e) => setting_code(&e),
+        }
+    })
+}
+
+/// Switches off the published default uncertainties of the constants, as
+/// the program's `--no-constant-uncertainty`: only the uncertainties set
+/// with trv_sample_uncertainty count (a constant set there still does).
+/// It also asks for the propagation: with no uncertainty set, every
+/// output's standard uncertainty is then 0.
+///
+/// Returns TRV_OK, or TRV_ERR_NULL.
+///
+/// # Safety
+/// `sample` is NULL or a live sample of trv_sample_new.
+#[no_mangle]
+pub unsafe extern "C" fn trv_sample_no_constant_uncertainty(sample: *mut trv_sample) -> c_int {
+    guarded(TRV_ERR_INTERNAL, || {
+        // SAFETY: NULL or live and not shared, by the contract.
+        let Some(s) = (unsafe { sample.as_mut() }) else {
+            return TRV_ERR_NULL;
+        };
+        s.no_constant_uncertainty = true;
+        TRV_OK
+    })
+}
+
+/// The propagation of the sample's uncertainties to every numeric output
+/// of `state` (its solve), as `travertine solve --uncertainty` makes it:
+/// the settings resolved for the pair measured at the state's density,
+/// the problem of the sample's water, pair, solve options, air and pH
+/// scale given, and the library's linear propagation of every output.
+fn propagated(
+    s: &trv_sample,
+    state: &State,
+    options: SolveOptions,
+) -> Result<Propagated, trv_error> {
+    let library = |e: travertine::Error| trv_error::new(kind_code(e.kind()), &e.to_string());
+    // Each of these succeeded in the solve that made `state`.
+    let (a, b) = s.sample.pair().map_err(library)?;
+    let water = s.sample.water().map_err(library)?;
+    let air = s.sample.air().map_err(library)?;
+    let mut base = Uncertainties::new();
+    if s.no_constant_uncertainty {
+        base = base.without_constants();
+    }
+    let u = with_settings(base, &s.settings, &a, &b, state.density_kg_m3)
+        .map_err(|e| trv_error::new(setting_code(&e), &e.to_string()))?;
+    let problem = Problem::new(&water, a, b)
+        .map_err(library)?
+        .with_options(options)
+        .with_air(air, s.sample.ph_scale_given());
+    let (outputs, linear) = outputs_propagated(&problem, &u).map_err(library)?;
+    let source_names = linear
+        .sources
+        .iter()
+        .map(|(source, _)| CString::new(source_name(*source)).unwrap_or_default())
+        .collect();
+    Ok(Propagated {
+        outputs,
+        linear,
+        source_names,
+    })
+}
+
 /// Solves the sample as `travertine solve` does: exactly two measured
 /// carbonate parameters and the temperature are needed, the rest is
 /// optional.
+///
+/// Where any uncertainty was asked for (trv_sample_uncertainty,
+/// trv_sample_no_constant_uncertainty), the solve also propagates them to
+/// every numeric output, as `travertine solve --uncertainty` does (read
+/// them with trv_state_uncertainty). That costs a few full solves per
+/// source. An uncertainty that cannot be used fails the whole solve, as it
+/// fails the program: NULL, and an error with the program's message and
+/// TRV_ERR_UNCERTAINTY_NOT_MEASURED (a carbonate parameter that is not one
+/// of the pair), or the library's code where the propagation cannot be
+/// made. There is no state without its uncertainties once they were asked
+/// for.
 ///
 /// Returns the state (free it with trv_state_free), or NULL on error. On
 /// error, if `error` is not NULL, `*error` is set to a new error that
@@ -332,20 +544,25 @@ pub unsafe extern "C" fn trv_solve(
             };
             // One sample at a time, as the command line solves it.
             let options = SolveOptions::default().with_precipitation_potential(true);
-            match s.sample.solve(&options) {
-                Ok(state) => {
-                    let warning_codes = state
-                        .warnings
-                        .iter()
-                        .map(|w| CString::new(w.code()).unwrap_or_default())
-                        .collect();
-                    Ok(trv_state {
-                        state,
-                        warning_codes,
-                    })
-                }
-                Err(e) => Err(trv_error::new(kind_code(e.kind()), &e.to_string())),
-            }
+            let state = s
+                .sample
+                .solve(&options)
+                .map_err(|e| trv_error::new(kind_code(e.kind()), &e.to_string()))?;
+            let uncertainty = if s.uncertainty_asked() {
+                Some(propagated(s, &state, options)?)
+            } else {
+                None
+            };
+            let warning_codes = state
+                .warnings
+                .iter()
+                .map(|w| CString::new(w.code()).unwrap_or_default())
+                .collect();
+            Ok(trv_state {
+                state,
+                warning_codes,
+                uncertainty,
+            })
         },
     );
     let (state, err) = match outcome {
@@ -394,6 +611,132 @@ pub unsafe extern "C" fn trv_state_get(
             Some(Value::Number(Some(v))) => v,
             _ => f64::NAN,
         }
+    })
+}
+
+/// The standard uncertainty of the output `output_key` of the state: the
+/// `<key>_u` of `travertine solve --json --uncertainty ...` for the same
+/// sample and uncertainties (linear propagation; the sources taken as
+/// independent), in the unit of the output (pH units for `ph_total`,
+/// µmol/kg for `dic_umol_kg`, µatm for `pco2_uatm`, ...).
+///
+/// NaN where no uncertainty was asked for before trv_solve, where the
+/// output has no value (as trv_state_get), for a key that is a name or
+/// unknown, and for NULL arguments. 0 where no source moves the output.
+///
+/// # Safety
+/// `state` is NULL or a live state of trv_solve; `output_key` is NULL or a
+/// NUL-terminated string.
+#[no_mangle]
+pub unsafe extern "C" fn trv_state_uncertainty(
+    state: *const trv_state,
+    output_key: *const c_char,
+) -> c_double {
+    guarded(f64::NAN, || {
+        // SAFETY: NULL or live, by the contract.
+        let Some(p) = (unsafe { state.as_ref() }).and_then(|st| st.uncertainty.as_ref()) else {
+            return f64::NAN;
+        };
+        // SAFETY: NULL or NUL-terminated, by the contract.
+        let Ok(key) = (unsafe { text(output_key) }) else {
+            return f64::NAN;
+        };
+        p.place(key)
+            .and_then(|k| p.linear.outputs.get(k))
+            .and_then(|o| o.u)
+            .unwrap_or(f64::NAN)
+    })
+}
+
+/// The number of sources of the state's uncertainties: every input and
+/// constant with an uncertainty above zero that the propagation moved, the
+/// `sources` of the `uncertainty` object of `solve --json` in its order.
+/// 0 where no uncertainty was asked for, and for NULL.
+///
+/// # Safety
+/// `state` is NULL or a live state of trv_solve.
+#[no_mangle]
+pub unsafe extern "C" fn trv_state_uncertainty_source_count(state: *const trv_state) -> usize {
+    guarded(0, || {
+        // SAFETY: NULL or live, by the contract.
+        unsafe { state.as_ref() }
+            .and_then(|st| st.uncertainty.as_ref())
+            .map_or(0, |p| p.source_names.len())
+    })
+}
+
+/// The name of source `index` of the state's uncertainties, as the
+/// program's `budget` names it: an input's flag (`ph`, `alkalinity`,
+/// `temperature`) or a constant (`pk1`, `pksp_calcite`, `boron_total`).
+/// NULL for an index past the last, without uncertainties, or for NULL.
+///
+/// The string is owned by the state and valid until trv_state_free.
+///
+/// # Safety
+/// `state` is NULL or a live state of trv_solve.
+#[no_mangle]
+pub unsafe extern "C" fn trv_state_uncertainty_source(
+    state: *const trv_state,
+    index: usize,
+) -> *const c_char {
+    guarded(std::ptr::null(), || {
+        // SAFETY: NULL or live, by the contract.
+        unsafe { state.as_ref() }
+            .and_then(|st| st.uncertainty.as_ref())
+            .and_then(|p| p.source_names.get(index))
+            .map_or(std::ptr::null(), |c| c.as_ptr())
+    })
+}
+
+/// The share of source `source_name` in the variance of output
+/// `output_key`: u_i² / u², between 0 and 1, the shares of an output
+/// summing to 1; the `budget` object of `solve --json --budget`.
+///
+/// `source_name` is any name trv_sample_uncertainty takes for it (`ph`,
+/// `ph_nbs`, `alkalinity`, `alkalinity_mg_l_caco3`, `pk1`, ...), whatever
+/// unit or scale the input was given in. 0 for a source that is a valid
+/// name but not among the state's sources (its uncertainty is 0). NaN
+/// where the output's variance is not above zero (the program's budget
+/// leaves such an output out), where the output has no value, for an
+/// unknown key or name, where no uncertainty was asked for, and for NULL
+/// arguments.
+///
+/// # Safety
+/// `state` is NULL or a live state of trv_solve; `output_key` and
+/// `source_name` are NULL or NUL-terminated strings.
+#[no_mangle]
+pub unsafe extern "C" fn trv_state_budget_share(
+    state: *const trv_state,
+    output_key: *const c_char,
+    source_name: *const c_char,
+) -> c_double {
+    guarded(f64::NAN, || {
+        // SAFETY: NULL or live, by the contract.
+        let Some(p) = (unsafe { state.as_ref() }).and_then(|st| st.uncertainty.as_ref()) else {
+            return f64::NAN;
+        };
+        // SAFETY: NULL or NUL-terminated, by the contract.
+        let (Ok(key), Ok(name)) = (unsafe { (text(output_key), text(source_name)) }) else {
+            return f64::NAN;
+        };
+        let (Some(k), Some(target)) = (p.place(key), Target::from_name(name)) else {
+            return f64::NAN;
+        };
+        if !p
+            .linear
+            .outputs
+            .get(k)
+            .and_then(|o| o.u)
+            .is_some_and(|u| u > 0.0)
+        {
+            return f64::NAN;
+        }
+        let wanted = target.source();
+        p.linear
+            .budget(k)
+            .into_iter()
+            .find(|(s, _)| *s == wanted)
+            .map_or(0.0, |(_, share)| share)
     })
 }
 

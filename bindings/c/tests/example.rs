@@ -1,12 +1,13 @@
 //! The C example (`examples/larkvane.c`) compiles with the system's C
 //! compiler against the committed header and the static library, runs,
 //! and prints the numbers `travertine solve --json` gives for the same
-//! inputs, to 1e-12 relative; its warnings are the program's, and its
-//! error message is the program's.
+//! inputs, to 1e-12 relative (and the standard uncertainty the program
+//! gives with the same `--uncertainty` settings); its warnings are the
+//! program's, and its error message is the program's.
 
 mod common;
 
-use common::{agree, cli_json, static_lib, Given};
+use common::{agree, cli_json_with, static_lib, Given};
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
@@ -43,6 +44,10 @@ struct Printed {
     title: String,
     given: Given,
     outputs: Vec<(String, f64)>,
+    /// The uncertainty settings given (`ph=0.01`).
+    settings: Vec<String>,
+    /// The standard uncertainties printed, by output key.
+    uncertainties: Vec<(String, f64)>,
     warnings: Vec<String>,
     error: Option<(i32, String)>,
 }
@@ -73,6 +78,8 @@ fn read(stdout: &str) -> Vec<Printed> {
             ["input", name, value] => s.given.inputs.push((name.to_string(), number(value))),
             ["option", name, value] => s.given.options.push((name.to_string(), value.to_string())),
             ["output", key, value] => s.outputs.push((key.to_string(), number(value))),
+            ["uncertainty", setting] => s.settings.push(setting.to_string()),
+            ["u", key, value] => s.uncertainties.push((key.to_string(), number(value))),
             ["warning", code] => s.warnings.push(code.to_string()),
             ["error", code, ..] => {
                 let message = line.trim_start()["error".len()..]
@@ -101,9 +108,23 @@ fn the_c_example_gives_the_numbers_of_the_command_line() {
     assert_eq!(samples.len(), 3, "{stdout}");
 
     let mut compared = 0;
+    let mut compared_u = 0;
     for s in &samples {
-        match (&s.error, cli_json(&s.given)) {
+        let flags: Vec<&str> = s
+            .settings
+            .iter()
+            .flat_map(|t| ["--uncertainty", t.as_str()])
+            .collect();
+        match (&s.error, cli_json_with(&s.given, &flags)) {
             (None, Ok(json)) => {
+                for (key, c) in &s.uncertainties {
+                    let v = json[format!("{key}_u").as_str()]
+                        .as_f64()
+                        .unwrap_or_else(|| panic!("{}: no {key}_u from the program", s.title));
+                    assert!(agree(*c, v), "{}: {key}_u: C {c}, CLI {v}", s.title);
+                    assert!(*c > 0.0, "{}: {key}_u is {c}", s.title);
+                    compared_u += 1;
+                }
                 assert!(!s.outputs.is_empty(), "{}: no outputs", s.title);
                 for (key, c) in &s.outputs {
                     match json[key.as_str()].as_f64() {
@@ -137,6 +158,9 @@ fn the_c_example_gives_the_numbers_of_the_command_line() {
         }
     }
     assert!(compared >= 20, "only {compared} numbers compared");
+    // The tank's pCO2 with its standard uncertainty.
+    assert_eq!(compared_u, 1, "{stdout}");
+    assert_eq!(samples[1].settings, ["ph=0.01", "alkalinity=2umol/kg"]);
     // Both media, and a number on each side of the example: a fresh
     // Langelier index, no Langelier index in saline water.
     assert!(samples[0]
@@ -150,7 +174,8 @@ fn the_c_example_gives_the_numbers_of_the_command_line() {
 }
 
 /// The C code of the README's "From C" section compiles and runs, inside
-/// a `main`, and prints the pond's pCO2 and its notes.
+/// a `main`, and prints the pond's pCO2, its standard uncertainty and the
+/// pH's share of it, and its notes.
 #[test]
 fn the_readme_c_code_compiles_and_runs() {
     let readme =
@@ -176,6 +201,7 @@ fn the_readme_c_code_compiles_and_runs() {
     assert!(out.status.success(), "{stdout}");
     // The program, given the inputs and options the code sets.
     let mut given = Given::default();
+    let mut settings = Vec::new();
     for line in code.lines().map(str::trim) {
         let args = |prefix: &str| {
             line.strip_prefix(prefix)
@@ -192,14 +218,28 @@ fn the_readme_c_code_compiles_and_runs() {
                 .push((a[0].clone(), a[1].parse().expect("a number")));
         } else if let Some(a) = args("trv_sample_option(s, ") {
             given.options.push((a[0].clone(), a[1].clone()));
+        } else if let Some(a) = args("trv_sample_uncertainty(s, ") {
+            settings.push(a[0].clone());
         }
     }
     assert_eq!(given.inputs.len(), 5, "{given:?}");
-    let json = cli_json(&given).expect("the program solves it");
+    assert_eq!(settings.len(), 2, "{settings:?}");
+    let mut flags: Vec<&str> = settings
+        .iter()
+        .flat_map(|t| ["--uncertainty", t.as_str()])
+        .collect();
+    flags.push("--budget");
+    let json = cli_json_with(&given, &flags).expect("the program solves it");
     let expected = format!(
-        "pCO2 {:.0} uatm, Langelier index {:.2}\n",
+        "pCO2 {:.0} uatm, Langelier index {:.2}\n\
+         pCO2 standard uncertainty {:.0} uatm, {:.0}% of it from the pH\n",
         json["pco2_uatm"].as_f64().expect("pCO2"),
-        json["langelier_index"].as_f64().expect("a Langelier index")
+        json["langelier_index"].as_f64().expect("a Langelier index"),
+        json["pco2_uatm_u"].as_f64().expect("its uncertainty"),
+        100.0
+            * json["budget"]["pco2_uatm"]["ph"]
+                .as_f64()
+                .expect("the pH's share"),
     );
     assert!(stdout.starts_with(&expected), "C {stdout}, CLI {expected}");
     assert!(stdout.contains("note: air_co2_default"), "{stdout}");

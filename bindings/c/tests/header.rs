@@ -33,17 +33,42 @@ fn the_committed_header_is_current() {
     );
 }
 
+/// The header with each line that ends in a comma joined to the next: a
+/// parameter list that cbindgen wrapped (by a width rule of its own) on
+/// one line.
+fn unwrapped(h: &str) -> String {
+    let mut out = String::with_capacity(h.len());
+    for line in h.lines() {
+        if out.ends_with(',') {
+            out.push(' ');
+            out.push_str(line.trim_start());
+        } else {
+            if !out.is_empty() {
+                out.push('\n');
+            }
+            out.push_str(line);
+        }
+    }
+    out
+}
+
 /// Every function of the surface, and every error code, is in the header
 /// with its doc comment.
 #[test]
 fn the_header_declares_the_whole_surface_with_docs() {
-    let h = generated();
+    let h = unwrapped(&generated());
     for f in [
         "trv_sample *trv_sample_new(void);",
         "int trv_sample_set(trv_sample *sample, const char *input_name, double value);",
         "int trv_sample_option(trv_sample *sample, const char *option, const char *value);",
+        "int trv_sample_uncertainty(trv_sample *sample, const char *setting);",
+        "int trv_sample_no_constant_uncertainty(trv_sample *sample);",
         "trv_state *trv_solve(const trv_sample *sample, trv_error **error);",
         "double trv_state_get(const trv_state *state, const char *output_key);",
+        "double trv_state_uncertainty(const trv_state *state, const char *output_key);",
+        "size_t trv_state_uncertainty_source_count(const trv_state *state);",
+        "const char *trv_state_uncertainty_source(const trv_state *state, size_t index);",
+        "double trv_state_budget_share(const trv_state *state, const char *output_key, const char *source_name);",
         "size_t trv_state_warning_count(const trv_state *state);",
         "const char *trv_state_warning_code(const trv_state *state, size_t index);",
         "const char *trv_error_message(const trv_error *error);",
@@ -66,6 +91,8 @@ fn the_header_declares_the_whole_surface_with_docs() {
     for code in [
         "TRV_OK 0",
         "TRV_ERR_NULL 1",
+        "TRV_ERR_BAD_UNCERTAINTY 7",
+        "TRV_ERR_UNCERTAINTY_NOT_MEASURED 8",
         "TRV_ERR_OUT_OF_RANGE 100",
         "TRV_ERR_BAD_PROFILE 118",
     ] {

@@ -100,10 +100,17 @@ impl Given {
 /// What `travertine solve --json` gives for the sample: the JSON object,
 /// or the error message (stderr) when it fails.
 pub fn cli_json(given: &Given) -> Result<serde_json::Value, String> {
+    cli_json_with(given, &[])
+}
+
+/// As [`cli_json`], with more flags after the sample's (`--uncertainty
+/// ph=0.01`, `--budget`).
+pub fn cli_json_with(given: &Given, extra: &[&str]) -> Result<serde_json::Value, String> {
     let out = Command::new(cli())
         .arg("solve")
         .arg("--json")
         .args(given.flags())
+        .args(extra)
         .output()
         .expect("travertine runs");
     if out.status.success() {
