@@ -1224,7 +1224,9 @@ const STEP: f64 = 1e-6;
 /// does not have (its total zero), which moves nothing and gets zero
 /// contributions.
 /// Where the step up cannot be solved (a value taken out of its range) or
-/// loses a quantity, the backward difference is used.
+/// loses a quantity, the step down is taken too: the central difference
+/// for each quantity both steps kept, the backward one where the step up
+/// lost it, the forward one where the step down did.
 ///
 /// # Errors
 /// As [`Problem::solve`] for the unperturbed state; an error of a source
