@@ -388,8 +388,8 @@ fn ion_pair_constants_move_calcite_saturation_in_fresh_water() {
 /// of the scale), for sources that move the water (temperature, calcium),
 /// every default constant and the pair, in sea water and in two fresh waters (the
 /// ionic strength from salinity, and from the ions with calcium, where it
-/// is a fixed point), for pCO2, calcite Ω, the Langelier index, aragonite
-/// Ω and its SI: to
+/// is a fixed point), for pCO2, fCO2, xCO2, calcite Ω, the Langelier
+/// index, aragonite Ω and its SI: to
 /// 10⁻⁴ of the contribution, or 10⁻⁵ of the output's whole uncertainty for
 /// a contribution near zero (where the 10⁻¹² tolerance of the fixed
 /// points, divided by the 10⁻⁶ step, is what is left: DEVELOPERS.md,
