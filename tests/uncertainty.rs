@@ -876,3 +876,31 @@ fn a_constant_of_an_absent_system_moves_nothing() {
     // the two ion pairs, KP1–3, KSi, KNH4 and KH2S.
     assert_eq!(zero, 14 + 8);
 }
+
+/// A quantity lost on both sides of one source's step has no uncertainty,
+/// and no contributions from the other sources either: its budget is all
+/// zeros, not shares of a variance it does not have. Here DIC is read
+/// only while the pH stays at its measured 8.05: alkalinity's steps keep
+/// it (the pH is measured, so it does not move), the pH's steps lose it.
+#[test]
+fn a_lost_quantity_has_no_contributions() {
+    let ph = Measured::ph(8.05, Some(PhScale::Total)).unwrap();
+    let ta = Measured::alkalinity_umol_kg(2300.0).unwrap();
+    let p = Problem::new(&sea(), ph, ta).unwrap();
+    let u = Uncertainties::new()
+        .without_constants()
+        .with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0))
+        .and_then(|u| u.with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01)))
+        .unwrap();
+    let r = propagate(&p, &u, |s, out| {
+        out.push(Some(s.dic_umol_kg).filter(|_| (s.ph_total - 8.05).abs() < 1e-9));
+        out.push(Some(s.dic_umol_kg));
+    })
+    .unwrap();
+    assert_eq!(r.outputs[0].u, None);
+    assert!(r.outputs[0].value.is_some());
+    assert!(r.contributions(0).iter().all(|c| *c == 0.0));
+    assert!(r.budget(0).iter().all(|(_, share)| *share == 0.0));
+    // The other quantity, read at every step, keeps both contributions.
+    assert!(r.contributions(1).iter().all(|c| *c != 0.0));
+}

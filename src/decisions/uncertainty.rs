@@ -452,7 +452,10 @@ impl Problem {
     /// The pair `a`, `b` in a water already prepared (its constants made),
     /// as [`Problem::new`] of that water gives it without preparing it
     /// again: for a caller that has solved the water itself (the sheet's
-    /// rows, which keep the last row's prepared water).
+    /// rows, which keep the last row's prepared water). The constants are
+    /// taken as they are: a water whose constants were moved
+    /// ([`PreparedWater::with_constants_perturbed`]) is propagated about
+    /// those moved constants, not the published ones.
     ///
     /// ```
     /// use travertine::decisions::uncertainty::Problem;
@@ -1300,6 +1303,18 @@ where
             if slope.is_none() {
                 lost[k] = true;
             }
+        }
+    }
+    // A quantity without a value, or lost on both sides of a source's
+    // step, has no uncertainty: no contributions either, so that its
+    // budget is all zeros rather than shares of a variance it lacks.
+    for ((row, y), lost) in contributions
+        .chunks_exact_mut(m.max(1))
+        .zip(&base)
+        .zip(&lost)
+    {
+        if y.is_none() || *lost {
+            row.fill(0.0);
         }
     }
     let outputs = base
