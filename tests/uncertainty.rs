@@ -904,3 +904,37 @@ fn a_lost_quantity_has_no_contributions() {
     // The other quantity, read at every step, keeps both contributions.
     assert!(r.contributions(1).iter().all(|c| *c != 0.0));
 }
+
+/// A quantity that is not a number at a step falls back to the other
+/// side's difference instead of giving a NaN uncertainty: here DIC, made
+/// NaN by the closure above (first quantity) or below (second) the
+/// measured pH, against DIC read plainly (third), whose u comes from the
+/// forward difference; the backward and forward ones agree with it to the
+/// step's curvature (10⁻⁶ here).
+#[test]
+fn a_quantity_not_a_number_at_one_step_uses_the_other_side() {
+    let ph = Measured::ph(8.05, Some(PhScale::Total)).unwrap();
+    let ta = Measured::alkalinity_umol_kg(2300.0).unwrap();
+    let p = Problem::new(&sea(), ph, ta).unwrap();
+    let r = propagate(&p, &ph_only(0.01), |s, out| {
+        let dic = s.dic_umol_kg;
+        out.push(Some(if s.ph_total > 8.05 + 5e-7 {
+            f64::NAN
+        } else {
+            dic
+        }));
+        out.push(Some(if s.ph_total < 8.05 - 5e-7 {
+            f64::NAN
+        } else {
+            dic
+        }));
+        out.push(Some(dic));
+    })
+    .unwrap();
+    let plain = r.outputs[2].u.unwrap();
+    assert!(plain > 0.0);
+    for o in &r.outputs[..2] {
+        let u = o.u.unwrap();
+        assert!((u / plain - 1.0).abs() < 1e-4, "{u} against {plain}");
+    }
+}

@@ -1271,8 +1271,11 @@ where
             let per_step = ui / h;
             for (row, (p, y)) in contributions.chunks_exact_mut(m).zip(up.iter().zip(&base)) {
                 match (p, y) {
-                    (Some(p), Some(y)) => row[j] = beyond_rounding(*p, *y) * per_step,
-                    (None, Some(_)) => {
+                    (Some(p), Some(y)) if p.is_finite() => {
+                        row[j] = beyond_rounding(*p, *y) * per_step
+                    }
+                    // A value lost, or not a number, at the step.
+                    (_, Some(_)) => {
                         kept = false;
                         break;
                     }
@@ -1290,7 +1293,10 @@ where
             return Err(e.clone());
         }
         let read = |r: &Result<()>, v: &[Option<f64>], k: usize| {
-            r.as_ref().ok().and_then(|_| v.get(k).copied().flatten())
+            r.as_ref()
+                .ok()
+                .and_then(|_| v.get(k).copied().flatten())
+                .filter(|x| x.is_finite())
         };
         for (k, (row, y)) in contributions.chunks_exact_mut(m).zip(&base).enumerate() {
             let slope = match (read(&up_solved, &up, k), *y, read(&down_solved, &down, k)) {
