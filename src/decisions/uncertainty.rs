@@ -1227,9 +1227,11 @@ const STEP: f64 = 1e-6;
 /// does not have (its total zero), which moves nothing and gets zero
 /// contributions.
 /// Where the step up cannot be solved (a value taken out of its range) or
-/// loses a quantity, the step down is taken too: the central difference
-/// for each quantity both steps kept, the backward one where the step up
-/// lost it, the forward one where the step down did.
+/// loses a quantity (no value, or one that is not a finite number), the
+/// step down is taken too: the central difference for each quantity both
+/// steps kept, the backward one where the step up lost it, the forward one
+/// where the step down did. A quantity lost on both sides, or without a
+/// value at all, has no uncertainty and no contributions.
 ///
 /// # Errors
 /// As [`Problem::solve`] for the unperturbed state; an error of a source
