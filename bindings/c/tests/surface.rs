@@ -5,120 +5,12 @@
 
 mod common;
 
-use std::ffi::{c_char, CStr, CString};
 use std::ptr::{null, null_mut};
 
+use common::surface::{c, given, text, Sample};
 use common::{agree, cli_json, Given};
 use travertine::output::Output;
 use travertine_c::*;
-
-fn c(text: &str) -> CString {
-    CString::new(text).expect("no NUL")
-}
-
-/// A C string returned by the binding, as Rust text (`None` for NULL).
-fn text(p: *const c_char) -> Option<String> {
-    // SAFETY: NULL or a string owned by a live object.
-    (!p.is_null()).then(|| unsafe { CStr::from_ptr(p) }.to_string_lossy().into_owned())
-}
-
-/// A sample made through the C surface, freed on drop.
-struct Sample(*mut trv_sample);
-
-impl Sample {
-    fn new() -> Sample {
-        let s = trv_sample_new();
-        assert!(!s.is_null());
-        Sample(s)
-    }
-
-    fn set(&self, name: &str, value: f64) -> i32 {
-        // SAFETY: a live sample, a C string.
-        unsafe { trv_sample_set(self.0, c(name).as_ptr(), value) }
-    }
-
-    fn option(&self, name: &str, value: &str) -> i32 {
-        // SAFETY: a live sample, C strings.
-        unsafe { trv_sample_option(self.0, c(name).as_ptr(), c(value).as_ptr()) }
-    }
-
-    fn given(given: &Given) -> Sample {
-        let s = Sample::new();
-        for (name, value) in &given.inputs {
-            assert_eq!(s.set(name, *value), TRV_OK, "{name}");
-        }
-        for (name, value) in &given.options {
-            assert_eq!(s.option(name, value), TRV_OK, "{name}");
-        }
-        s
-    }
-
-    /// The state, or the error's code and message.
-    fn solve(&self) -> Result<State, (i32, String)> {
-        let mut error: *mut trv_error = null_mut();
-        // SAFETY: a live sample, a writable pointer.
-        let st = unsafe { trv_solve(self.0, &mut error) };
-        if st.is_null() {
-            assert!(!error.is_null(), "NULL state without an error");
-            // SAFETY: a live error, freed once.
-            let out = unsafe {
-                let out = (
-                    trv_error_code(error),
-                    text(trv_error_message(error)).expect("a message"),
-                );
-                trv_error_free(error);
-                out
-            };
-            Err(out)
-        } else {
-            assert!(error.is_null(), "a state and an error");
-            Ok(State(st))
-        }
-    }
-}
-
-impl Drop for Sample {
-    fn drop(&mut self) {
-        // SAFETY: made by trv_sample_new, freed once.
-        unsafe { trv_sample_free(self.0) }
-    }
-}
-
-/// A state made through the C surface, freed on drop.
-struct State(*mut trv_state);
-
-impl State {
-    fn get(&self, key: &str) -> f64 {
-        // SAFETY: a live state, a C string.
-        unsafe { trv_state_get(self.0, c(key).as_ptr()) }
-    }
-
-    fn warnings(&self) -> Vec<String> {
-        // SAFETY: a live state; the codes live as long as it does.
-        unsafe {
-            (0..trv_state_warning_count(self.0))
-                .map(|i| text(trv_state_warning_code(self.0, i)).expect("a code"))
-                .collect()
-        }
-    }
-}
-
-impl Drop for State {
-    fn drop(&mut self) {
-        // SAFETY: made by trv_solve, freed once.
-        unsafe { trv_state_free(self.0) }
-    }
-}
-
-fn given(inputs: &[(&str, f64)], options: &[(&str, &str)]) -> Given {
-    Given {
-        inputs: inputs.iter().map(|(n, v)| (n.to_string(), *v)).collect(),
-        options: options
-            .iter()
-            .map(|(n, v)| (n.to_string(), v.to_string()))
-            .collect(),
-    }
-}
 
 /// A fresh pond of the invented Larkvane farm (Cedar pond in the
 /// afternoon), with ammonia, calcium and wind.

@@ -9,6 +9,8 @@ use std::sync::OnceLock;
 
 use travertine::sample::inputs::NamedInput;
 
+pub mod surface;
+
 /// The build directory of this test's profile (`target/release` or
 /// `target/debug`), where the static library and the program are.
 pub fn profile_dir() -> PathBuf {
