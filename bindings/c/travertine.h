@@ -262,9 +262,10 @@ int trv_sample_option(trv_sample *sample, const char *option, const char *value)
  * goes in VALUE), another input whose uncertainty is propagated
  * (`temperature`, `salinity`, `calcium`, `wind`, ...), or a constant
  * (`pk0`, `pk1`, `pk2`, `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`,
- * `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute in one of the input's units (`ph=0.01`,
- * `alkalinity=2umol/kg`, `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for
- * °C, a constant in pK units: `pk1=0.01`) or relative (`dic=0.5%`).
+ * `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute
+ * in one of the input's units (`ph=0.01`, `alkalinity=2umol/kg`,
+ * `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for °C, a constant in pK
+ * units: `pk1=0.01`) or relative (`dic=0.5%`).
  * `travertine solve --help` lists every name.
  *
  * Asking for the uncertainty of a name again replaces the earlier value,
@@ -285,8 +286,7 @@ int trv_sample_option(trv_sample *sample, const char *option, const char *value)
  * `sample` is NULL or a live sample of trv_sample_new; `setting` is NULL
  * or a NUL-terminated string. The sample keeps no pointer to `setting`.
  */
-int trv_sample_uncertainty(trv_sample *sample,
-                           const char *setting);
+int trv_sample_uncertainty(trv_sample *sample, const char *setting);
 
 /**
  * Switches off the published default uncertainties of the constants, as
@@ -314,9 +314,10 @@ int trv_sample_no_constant_uncertainty(trv_sample *sample);
  * source. An uncertainty that cannot be used fails the whole solve, as it
  * fails the program: NULL, and an error with the program's message and
  * TRV_ERR_UNCERTAINTY_NOT_MEASURED (a carbonate parameter that is not one
- * of the pair), or the library's code where the propagation cannot be
- * made. There is no state without its uncertainties once they were asked
- * for.
+ * of the pair), TRV_ERR_BAD_UNCERTAINTY (a size that is no longer finite
+ * once converted for the pair, `alkalinity=1e308 mg/L CaCO3`), or the
+ * library's code where the propagation cannot be made. There is no
+ * state without its uncertainties once they were asked for.
  *
  * Returns the state (free it with trv_state_free), or NULL on error. On
  * error, if `error` is not NULL, `*error` is set to a new error that

@@ -165,9 +165,11 @@ fn setting_code(e: &SettingError) -> c_int {
 /// with `trv_solve`, freed with `trv_sample_free`.
 pub struct trv_sample {
     sample: Sample,
-    /// The uncertainty settings, one per name: a repeated name replaces
-    /// the earlier one and moves to the end, as the library's
-    /// `with_settings` treats a name given twice.
+    /// The uncertainty settings, in the order given, every one kept as the
+    /// program keeps its `--uncertainty` flags: the library's
+    /// `with_settings` replaces a repeated name (the last wins, moved to
+    /// the end) and, resolving them in this order, names the same setting
+    /// in its error as the program does.
     settings: Vec<Setting>,
     /// The default uncertainties of the constants are off.
     no_constant_uncertainty: bool,
@@ -394,9 +396,10 @@ pub unsafe extern "C" fn trv_sample_option(
 /// goes in VALUE), another input whose uncertainty is propagated
 /// (`temperature`, `salinity`, `calcium`, `wind`, ...), or a constant
 /// (`pk0`, `pk1`, `pk2`, `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`,
-/// `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute in one of the input's units (`ph=0.01`,
-/// `alkalinity=2umol/kg`, `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for
-/// °C, a constant in pK units: `pk1=0.01`) or relative (`dic=0.5%`).
+/// `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute
+/// in one of the input's units (`ph=0.01`, `alkalinity=2umol/kg`,
+/// `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for °C, a constant in pK
+/// units: `pk1=0.01`) or relative (`dic=0.5%`).
 /// `travertine solve --help` lists every name.
 ///
 /// Asking for the uncertainty of a name again replaces the earlier value,
@@ -433,9 +436,8 @@ pub unsafe extern "C" fn trv_sample_uncertainty(
         };
         match text.parse::<Setting>() {
             Ok(new) => {
-                // The library's `with_settings` keeps the last setting of
-                // a name, moved to the end: so does the list kept here.
-                s.settings.retain(|old| old.target() != new.target());
+                // Kept in order as the program's flags are; the library's
+                // `with_settings` lets the last of a name win.
                 s.settings.push(new);
                 TRV_OK
             }
@@ -515,9 +517,10 @@ fn propagated(
 /// source. An uncertainty that cannot be used fails the whole solve, as it
 /// fails the program: NULL, and an error with the program's message and
 /// TRV_ERR_UNCERTAINTY_NOT_MEASURED (a carbonate parameter that is not one
-/// of the pair), or the library's code where the propagation cannot be
-/// made. There is no state without its uncertainties once they were asked
-/// for.
+/// of the pair), TRV_ERR_BAD_UNCERTAINTY (a size that is no longer finite
+/// once converted for the pair, `alkalinity=1e308 mg/L CaCO3`), or the
+/// library's code where the propagation cannot be made. There is no
+/// state without its uncertainties once they were asked for.
 ///
 /// Returns the state (free it with trv_state_free), or NULL on error. On
 /// error, if `error` is not NULL, `*error` is set to a new error that

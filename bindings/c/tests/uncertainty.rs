@@ -216,6 +216,15 @@ fn a_repeated_name_replaces_the_earlier_value() {
     let json =
         cli_json_with(&g, &flags(&["ph=0.5", "alkalinity=2umol/kg", "PH=0.01"])).expect("solves");
     compare_u("twice", &twice, &json);
+    // The sources in the program's order: the name given again last.
+    let cli_sources: Vec<String> = json["uncertainty"]["sources"]
+        .as_array()
+        .expect("sources")
+        .iter()
+        .map(|s| s["name"].as_str().expect("a name").to_string())
+        .collect();
+    assert_eq!(twice.sources(), cli_sources);
+    assert_eq!(twice.sources()[..2], ["alkalinity", "ph"]);
 
     // pk1 set to 0.1 pK instead of its default moves DIC's uncertainty.
     let pk1 = solved(&g, &["ph=0.01", "pk1=0.1"], false);
@@ -303,6 +312,47 @@ fn bad_settings_give_their_codes() {
     assert!(message.contains("not measured"), "{message}");
     let stderr = cli_json_with(&fennel(), &flags(&["dic=1umol/kg"])).expect_err("refused");
     assert!(stderr.contains(&message), "C `{message}`, CLI `{stderr}`");
+}
+
+/// Two settings the pair cannot use, one of them given twice: the solve
+/// fails naming the setting the program names (the first given), not the
+/// one given again.
+#[test]
+fn a_repeated_unusable_name_fails_as_the_program_says() {
+    let settings = ["dic=1umol/kg", "pco2=1uatm", "dic=2umol/kg"];
+    let (code, message) = match solved_or_error(&fennel(), &settings) {
+        Err(e) => e,
+        Ok(_) => panic!("DIC and pCO2 uncertainties without either solved"),
+    };
+    assert_eq!(code, TRV_ERR_UNCERTAINTY_NOT_MEASURED, "{message}");
+    let stderr = cli_json_with(&fennel(), &flags(&settings)).expect_err("refused");
+    assert!(stderr.contains(&message), "C `{message}`, CLI `{stderr}`");
+    assert!(message.contains("`dic=1umol/kg`"), "{message}");
+}
+
+/// A size read as finite that is not once converted for the pair (1e308
+/// mg/L as CaCO3 is more than f64 holds in µmol/L): the setting is taken,
+/// and the solve fails with TRV_ERR_BAD_UNCERTAINTY and the program's
+/// message, as its doc says.
+#[test]
+fn a_size_too_large_once_converted_fails_the_solve() {
+    let setting = "alkalinity=1e308 mg/L CaCO3";
+    let (code, message) = match solved_or_error(&fennel(), &[setting]) {
+        Err(e) => e,
+        Ok(_) => panic!("an infinite alkalinity uncertainty solved"),
+    };
+    assert_eq!(code, TRV_ERR_BAD_UNCERTAINTY, "{message}");
+    let stderr = cli_json_with(&fennel(), &flags(&[setting])).expect_err("refused");
+    assert!(stderr.contains(&message), "C `{message}`, CLI `{stderr}`");
+}
+
+/// A sample with `settings`, solved or refused (the code and message).
+fn solved_or_error(g: &Given, settings: &[&str]) -> Result<State, (i32, String)> {
+    let s = Sample::given(g);
+    for t in settings {
+        assert_eq!(s.uncertainty(t), TRV_OK, "{t}");
+    }
+    s.solve()
 }
 
 /// The new codes follow the binding's own and change no existing one.
