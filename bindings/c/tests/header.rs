@@ -99,3 +99,74 @@ fn the_header_declares_the_whole_surface_with_docs() {
         assert!(h.contains(&format!("#define {code}")), "no #define {code}");
     }
 }
+
+/// Every code the header has published, with its number: a code is never
+/// renumbered or removed, so each of these is `#define`d with exactly this
+/// number; a new code is added here in the commit that adds it.
+const PUBLISHED: &[(&str, i32)] = &[
+    ("TRV_OK", 0),
+    ("TRV_ERR_NULL", 1),
+    ("TRV_ERR_NOT_UTF8", 2),
+    ("TRV_ERR_UNKNOWN_NAME", 3),
+    ("TRV_ERR_NAME_UNIT", 4),
+    ("TRV_ERR_WRONG_KIND", 5),
+    ("TRV_ERR_INTERNAL", 6),
+    ("TRV_ERR_BAD_UNCERTAINTY", 7),
+    ("TRV_ERR_UNCERTAINTY_NOT_MEASURED", 8),
+    ("TRV_ERR_OTHER", 99),
+    ("TRV_ERR_OUT_OF_RANGE", 100),
+    ("TRV_ERR_NOT_FINITE", 101),
+    ("TRV_ERR_NOT_A_NUMBER", 102),
+    ("TRV_ERR_MISSING_UNIT", 103),
+    ("TRV_ERR_WRONG_UNIT", 104),
+    ("TRV_ERR_INCOMPATIBLE_PAIR", 105),
+    ("TRV_ERR_NO_WATER_FITS", 106),
+    ("TRV_ERR_NO_CONVERGENCE", 107),
+    ("TRV_ERR_UNKNOWN_FIT", 108),
+    ("TRV_ERR_WRONG_MEDIUM", 109),
+    ("TRV_ERR_UNKNOWN_CHOICE", 110),
+    ("TRV_ERR_UNSTATED_PH_SCALE", 111),
+    ("TRV_ERR_INCONSISTENT", 112),
+    ("TRV_ERR_MISSING", 113),
+    ("TRV_ERR_WRONG_COUNT", 114),
+    ("TRV_ERR_COMPUTATION", 115),
+    ("TRV_ERR_UNREACHABLE", 116),
+    ("TRV_ERR_PAST_TARGET", 117),
+    ("TRV_ERR_BAD_PROFILE", 118),
+];
+
+#[test]
+fn no_published_code_is_renumbered_or_removed() {
+    let h = generated();
+    let defined: Vec<(String, i32)> = h
+        .lines()
+        .filter_map(|l| l.strip_prefix("#define TRV_"))
+        .map(|rest| {
+            let mut parts = rest.split_whitespace();
+            let name = format!("TRV_{}", parts.next().expect("a name"));
+            let number = parts
+                .next()
+                .and_then(|n| n.parse().ok())
+                .unwrap_or_else(|| panic!("{name} has no number"));
+            (name, number)
+        })
+        .collect();
+    for (name, number) in PUBLISHED {
+        let found = defined.iter().find(|(n, _)| n == name);
+        assert_eq!(
+            found.map(|(_, v)| *v),
+            Some(*number),
+            "{name} was published as {number}: it is never renumbered or removed"
+        );
+    }
+    for (name, number) in &defined {
+        assert!(
+            PUBLISHED.iter().any(|(n, _)| n == name),
+            "{name} = {number} is new: add it to PUBLISHED"
+        );
+    }
+    let mut numbers: Vec<i32> = defined.iter().map(|(_, v)| *v).collect();
+    numbers.sort_unstable();
+    numbers.dedup();
+    assert_eq!(numbers.len(), defined.len(), "two codes share a number");
+}
