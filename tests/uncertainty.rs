@@ -299,6 +299,24 @@ fn wind_uncertainty_reaches_the_flux_only() {
     .unwrap();
     assert_eq!(r.outputs[0].u, Some(0.0));
     assert!(r.outputs[1].u.unwrap() > 0.0);
+    // Without a wind speed (air with none, or no air at all) the wind's
+    // uncertainty would move nothing: refused, naming the wind, not
+    // counted as a source of zero.
+    let ph = Measured::ph(7.6, None).unwrap();
+    let ta = Measured::alkalinity_umol_kg(1500.0).unwrap();
+    for p in [
+        Problem::new(&pond(), ph, ta)
+            .unwrap()
+            .with_air(Air::new(), None),
+        Problem::new(&pond(), ph, ta).unwrap(),
+    ] {
+        for size in [Size::Absolute(0.5), Size::Percent(10.0)] {
+            let u = Uncertainties::new().with_input(Input::Wind, size).unwrap();
+            let e = propagate(&p, &u, q(|s| vec![Some(s.pco2_uatm)])).unwrap_err();
+            assert!(matches!(e, travertine::Error::Missing { .. }), "{e}");
+            assert!(e.to_string().contains("wind"), "{e}");
+        }
+    }
 }
 
 /// The calcium ion pairs of fresh water (CaHCO3+ and CaCO3⁰) are

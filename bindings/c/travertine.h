@@ -365,7 +365,8 @@ double trv_state_uncertainty(const trv_state *state, const char *output_key);
 
 /**
  * The number of sources of the state's uncertainties: every input and
- * constant with an uncertainty above zero that the propagation moved, the
+ * constant given a standard uncertainty above zero (a constant of a
+ * system the water lacks moves nothing, and counts with zero shares), the
  * `sources` of the `uncertainty` object of `solve --json` in its order.
  * 0 where no uncertainty was asked for, and for NULL.
  *

@@ -689,11 +689,17 @@ impl Problem {
                 "; an uncertainty of the TDS needs a fresh water whose ionic strength comes \
                  from a TDS (--tds)",
             )?,
-            Source::Input(Input::Wind) => self
-                .air
-                .as_ref()
-                .and_then(|(a, _)| a.wind_m_s())
-                .unwrap_or(0.0),
+            Source::Input(Input::Wind) => {
+                self.air
+                    .as_ref()
+                    .and_then(|(a, _)| a.wind_m_s())
+                    .ok_or(Error::Missing {
+                        field: Field::Wind,
+                        why: "; an uncertainty of the wind speed needs the wind speed it is the \
+                          uncertainty of (--wind; with a k600 given instead, the wind moves \
+                          nothing)",
+                    })?
+            }
             Source::Input(Input::Total(t)) => total_umol_kg(&self.prepared, t),
             Source::Input(other) => {
                 return Err(Error::UnknownChoice {
@@ -1159,9 +1165,6 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
     let mut out = Vec::with_capacity(u.inputs.len() + SALINE_DEFAULTS.len() + u.constants.len());
     for &(input, size) in &u.inputs {
         let source = Source::Input(input);
-        if input == Input::Wind && problem.air.is_none() {
-            continue;
-        }
         let x = problem.value_of(source)?;
         let scale = match input {
             Input::Carbon(crate::sample::measured::Parameter::Ph) => 1.0,
