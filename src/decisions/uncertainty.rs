@@ -107,7 +107,8 @@ impl Size {
         }
     }
 
-    fn number(self) -> f64 {
+    /// The number of the size: in the unit of [`Size::Absolute`], or %.
+    pub(crate) fn number(self) -> f64 {
         match self {
             Size::Absolute(u) | Size::Percent(u) => u,
         }

@@ -596,11 +596,13 @@ pub fn with_settings(
     let mut u = base;
     for s in settings {
         let size = s.resolve(a, b, density_kg_m3)?;
-        // The size is checked (finite, 0 or more) when read; the target
-        // is one `Uncertainties` takes.
+        // The size is checked (finite, 0 or more) when read, but its
+        // conversion to the pair's unit can overflow (1e308 mg/L as CaCO3):
+        // the error gives the converted size. The target is one
+        // `Uncertainties` takes.
         let out_of_range = |_| SettingError::OutOfRange {
             setting: s.text.clone(),
-            value: f64::NAN,
+            value: size.number(),
         };
         u = match s.target {
             Target::Input(i) => u.with_input(i, size).map_err(out_of_range)?,
@@ -688,6 +690,16 @@ mod tests {
         assert!(e.to_string().contains("alkalinity=2") && e.to_string().contains("umol/kg"));
         let e = "pk1=-0.1".parse::<Setting>().unwrap_err();
         assert_eq!(e.code(), "uncertainty_out_of_range");
+        // Finite as typed, infinite once in µmol/kg: refused with the
+        // converted size, not NaN.
+        let (ph, ta) = (
+            Measured::ph(8.0, Some(crate::properties::scales::PhScale::Total)).unwrap(),
+            Measured::alkalinity_umol_kg(2300.0).unwrap(),
+        );
+        let huge = [setting("alkalinity=1e308 mg/L CaCO3")];
+        let e = with_settings(Uncertainties::new(), &huge, &ph, &ta, 1025.0).unwrap_err();
+        assert_eq!(e.code(), "uncertainty_out_of_range");
+        assert!(e.to_string().contains("inf is out of range"), "{e}");
         let e = "temprature=0.1".parse::<Setting>().unwrap_err();
         assert!(
             matches!(&e, SettingError::UnknownName { hint: Some(h), .. } if h == "temperature")
