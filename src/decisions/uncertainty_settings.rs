@@ -7,7 +7,12 @@
 //!   every input of [`INPUT_SOURCES`]), or a constant: `pk0`, `pk1`, `pk2`,
 //!   `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`, `boron_total` and the
 //!   others of [`ConstantName::ALL`] (`pks`, `pkf`, `pkp1`, ..., `pknh4`,
-//!   `pkh2s`). Case and `-`/`_` do not matter.
+//!   `pkh2s`). Case and `-`/`_` do not matter. An input may also be named
+//!   by any column name with its unit, as a sheet header or a binding's
+//!   input names it (`alkalinity_umol_kg`, `ph_total`, `temperature_f`,
+//!   `Alkalinity (mg/L as CaCO3)`): a bare number is then in that unit, as
+//!   in the column's `<column>_u` cell (`alkalinity_umol_kg=2` is
+//!   2 µmol/kg, `temperature_f=0.18` is 0.1 °C).
 //! - **VALUE** is relative, `2%` (of the value; of K itself for a
 //!   constant), or absolute in one of the input's own units: a pH in pH
 //!   units (`0.01`), a temperature in °C (`0.1`, or `0.2 °F` as a
@@ -178,10 +183,25 @@ fn inputs() -> impl Iterator<Item = &'static crate::sample::inputs::InputSpec> {
 }
 
 impl Target {
-    /// The target a name gives: an input's flag or canonical column, or a
+    /// The target a name gives: an input's flag, canonical column or any
+    /// column name with its unit (`alkalinity_umol_kg`, `ph_total`), or a
     /// constant's name ([`constant_name`]; the total boron also as the
     /// input `boron-total` names it). `None` for any other name.
+    ///
+    /// ```
+    /// use travertine::decisions::uncertainty_settings::Target;
+    /// let alk = Target::from_name("alkalinity");
+    /// assert!(alk.is_some());
+    /// assert_eq!(Target::from_name("alkalinity_umol_kg"), alk);
+    /// assert_eq!(Target::from_name("Alkalinity (mg/L as CaCO3)"), alk);
+    /// assert_eq!(Target::from_name("colour"), None);
+    /// ```
     pub fn from_name(name: &str) -> Option<Target> {
+        Target::by_flag_or_constant(name).or_else(|| Target::column(name).map(|(t, _)| t))
+    }
+
+    /// The target of a flag, a canonical column or a constant's name.
+    fn by_flag_or_constant(name: &str) -> Option<Target> {
         let n = normal(name);
         if let Some(spec) = inputs().find(|s| normal(s.flag) == n || normal(s.column) == n) {
             return Some(Target::Input(spec.input));
@@ -194,6 +214,19 @@ impl Target {
             .iter()
             .find(|c| constant_name(**c) == n)
             .map(|c| Target::Constant(*c))
+    }
+
+    /// The target of a column's name with its unit (`alkalinity_umol_kg`,
+    /// `temperature_f`), and the name as found; `None` for a flag, which
+    /// keeps the unit in the value.
+    fn column(name: &str) -> Option<(Target, crate::sample::inputs::NamedInput)> {
+        if inputs().any(|s| normal(s.flag) == normal(name)) {
+            return None;
+        }
+        crate::sample::inputs::NamedInput::find(name.trim())
+            .ok()
+            .filter(|n| !n.takes_name())
+            .and_then(|n| Target::by_flag_or_constant(n.input().flag()).map(|t| (t, n)))
     }
 
     /// The name as a setting writes it: the input's flag, or
@@ -322,6 +355,14 @@ impl std::str::FromStr for Setting {
                 setting: text.to_string(),
             });
         };
+        // A column's name with its unit (`alkalinity_umol_kg`,
+        // `alkalinity_mg_l_caco3`, `ph_total`, `temperature_f`), as a
+        // sheet's header or a binding's input names it: a bare number is
+        // in that unit, as in the column's `_u` cell. A flag (`alkalinity`)
+        // keeps the unit in the value.
+        if let Some((target, named)) = Target::column(name) {
+            return Setting::of(target, &named.uncertainty_text(value.trim()), text);
+        }
         let target = Target::from_name(name).ok_or_else(|| {
             let names = accepted_names();
             let n = normal(name);
@@ -690,6 +731,34 @@ mod tests {
         assert!(e.to_string().contains("alkalinity=2") && e.to_string().contains("umol/kg"));
         let e = "pk1=-0.1".parse::<Setting>().unwrap_err();
         assert_eq!(e.code(), "uncertainty_out_of_range");
+        // A column's name with its unit reads a bare number in that unit;
+        // the flag needs the unit in the value.
+        let a = Target::Input(Input::Carbon(Parameter::Alkalinity));
+        for (text, value) in [
+            (
+                "alkalinity_umol_kg=2",
+                Amountish::Amount(Amount::PerKg(2e-6)),
+            ),
+            (
+                "Alkalinity (mg/L as CaCO3)=1",
+                setting("alkalinity=1 mg/L CaCO3").value(),
+            ),
+            (
+                "alkalinity_mg_l_caco3=1",
+                setting("alkalinity=1 mg/L CaCO3").value(),
+            ),
+            ("alkalinity_umol_kg=3%", Amountish::Percent(3.0)),
+        ] {
+            assert_eq!(setting(text).target(), a, "{text}");
+            assert_eq!(setting(text).value(), value, "{text}");
+        }
+        assert!(matches!(setting("temperature_f=0.18").value(),
+            Amountish::Number(v) if (v - 0.1).abs() < 1e-12));
+        assert_eq!(setting("ph_total=0.01").value(), setting("ph=0.01").value());
+        assert_eq!(
+            "alkalinity=1".parse::<Setting>().unwrap_err().code(),
+            "uncertainty_bad_value"
+        );
         // Finite as typed, infinite once in µmol/kg: refused with the
         // converted size, not NaN.
         let (ph, ta) = (

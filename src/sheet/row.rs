@@ -828,27 +828,9 @@ fn cell_setting(
 
 /// The text of an uncertainty of `u`'s value column, a number in that
 /// column's unit (a temperature in °F as a difference) or a percentage, as
-/// a setting's value reads it.
+/// a setting's value reads it (the one reading, in the input layer).
 pub(super) fn in_column_unit(u: &super::plan::UncertaintyColumn, text: String) -> String {
-    use super::header::Reading;
-    if text.ends_with('%') {
-        return text;
-    }
-    match u.reading {
-        Reading::Quantity(unit) => format!("{text} {}", unit.spelling()),
-        // A difference: the scale of the unit, not its offset.
-        Reading::Number { scale, .. } if scale != 1.0 => match text.parse::<f64>() {
-            Ok(x) => format!("{}", x * scale),
-            Err(_) => text,
-        },
-        // In µS/cm, at the sample temperature or at 25 °C as the
-        // column's readings are.
-        Reading::Conductivity { scale, .. } => match text.parse::<f64>() {
-            Ok(x) => format!("{} uS/cm", x * scale),
-            Err(_) => text,
-        },
-        _ => text,
-    }
+    u.reading.difference_text(text)
 }
 
 /// The standard uncertainty of every numeric computed column of a row

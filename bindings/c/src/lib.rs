@@ -390,16 +390,16 @@ pub unsafe extern "C" fn trv_sample_option(
 /// program's `travertine solve --uncertainty NAME=VALUE` takes it:
 /// `setting` is one `NAME=VALUE` text, read by the library as the flag is.
 ///
-/// NAME is a carbonate parameter (`ph`, `alkalinity`, `dic`, `pco2`, ...,
-/// or its canonical sheet column, `ph_nbs`, `alkalinity_mg_l_caco3`;
-/// another unit's column, `alkalinity_umol_kg`, is no name here: the unit
-/// goes in VALUE), another input whose uncertainty is propagated
-/// (`temperature`, `salinity`, `calcium`, `wind`, ...), or a constant
-/// (`pk0`, `pk1`, `pk2`, `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`,
-/// `boron_total`, ...); case and `-`/`_` do not matter. VALUE is absolute
-/// in one of the input's units (`ph=0.01`, `alkalinity=2umol/kg`,
-/// `alkalinity=1 mg/L CaCO3`, `temperature=0.1` for °C, a constant in pK
-/// units: `pk1=0.01`) or relative (`dic=0.5%`).
+/// NAME is a carbonate parameter (`ph`, `alkalinity`, `dic`, `pco2`, ...),
+/// another input whose uncertainty is propagated (`temperature`,
+/// `salinity`, `calcium`, `wind`, ...), or a constant (`pk0`, `pk1`, `pk2`,
+/// `pkb`, `pkw`, `pksp_calcite`, `pksp_aragonite`, `boron_total`, ...);
+/// case and `-`/`_` do not matter. VALUE is absolute in one of the input's
+/// units (`ph=0.01`, `alkalinity=2umol/kg`, `alkalinity=1 mg/L CaCO3`,
+/// `temperature=0.1` for °C, a constant in pK units: `pk1=0.01`) or
+/// relative (`dic=0.5%`). An input may also be named as trv_sample_set
+/// names it, by a column name with its unit; a bare number is then in that
+/// unit (`ph_total=0.01`, `alkalinity_umol_kg=2`, `temperature_f=0.18`).
 /// `travertine solve --help` lists every name.
 ///
 /// Asking for the uncertainty of a name again replaces the earlier value,

@@ -161,10 +161,10 @@ fn every_u_and_the_budget_agree_with_the_command_line_in_both_media() {
         assert_eq!(st.share("pco2_uatm", "ph"), st.share("pco2_uatm", "PH"));
         let alkalinity = st.share("pco2_uatm", "alkalinity");
         assert!(alkalinity > 0.0 && alkalinity < 1.0, "{alkalinity}");
-        // The canonical column names it too; another unit's column not.
+        // Any column name with its unit names it too.
         assert_eq!(st.share("pco2_uatm", "alkalinity_mg_l_caco3"), alkalinity);
         assert_eq!(st.share("pco2_uatm", "ph_nbs"), st.share("pco2_uatm", "ph"));
-        assert!(st.share("pco2_uatm", "alkalinity_umol_kg").is_nan());
+        assert_eq!(st.share("pco2_uatm", "alkalinity_umol_kg"), alkalinity);
         assert_eq!(st.share("pco2_uatm", "wind"), 0.0);
         // Not a source name, not an output key.
         assert!(st.share("pco2_uatm", "colour").is_nan());
@@ -225,6 +225,14 @@ fn a_repeated_name_replaces_the_earlier_value() {
         .collect();
     assert_eq!(twice.sources(), cli_sources);
     assert_eq!(twice.sources()[..2], ["alkalinity", "ph"]);
+
+    // Named as trv_sample_set names the inputs, a bare number in the
+    // name's unit: the same as the flags with the unit in the value.
+    let by_column = solved(&g, &["alkalinity_umol_kg=2", "ph_total=0.01"], false);
+    for o in Output::ALL {
+        let (a, b) = (by_column.u(o.key()), once.u(o.key()));
+        assert!(a == b || (a.is_nan() && b.is_nan()), "{}: {a} {b}", o.key());
+    }
 
     // pk1 set to 0.1 pK instead of its default moves DIC's uncertainty.
     let pk1 = solved(&g, &["ph=0.01", "pk1=0.1"], false);

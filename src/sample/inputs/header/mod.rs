@@ -52,6 +52,36 @@ impl Reading {
         offset: 0.0,
         label: "",
     };
+
+    /// The text of a difference (an uncertainty) given as `text` under a
+    /// name read this way, in a form that names its unit: a number in the
+    /// name's unit gets that unit, a scaled number (°F) is scaled without
+    /// its offset (a difference), a conductivity goes to µS/cm as the
+    /// name's readings are (at the sample temperature or at 25 °C); a
+    /// percentage, a pH difference, a plain number or text that is not a
+    /// number is left as it is. The one reading of `<column>_u` cells and
+    /// of `NAME=VALUE` settings named by a column.
+    pub(crate) fn difference_text(self, text: String) -> String {
+        if text.ends_with('%') {
+            return text;
+        }
+        match self {
+            Reading::Quantity(unit) => match text.trim().parse::<f64>() {
+                Ok(_) => format!("{} {}", text.trim(), unit.spelling()),
+                Err(_) => text,
+            },
+            // A difference: the scale of the unit, not its offset.
+            Reading::Number { scale, .. } if scale != 1.0 => match text.trim().parse::<f64>() {
+                Ok(x) => format!("{}", x * scale),
+                Err(_) => text,
+            },
+            Reading::Conductivity { scale, .. } => match text.trim().parse::<f64>() {
+                Ok(x) => format!("{} uS/cm", x * scale),
+                Err(_) => text,
+            },
+            _ => text,
+        }
+    }
 }
 
 /// A recognised column.
@@ -380,6 +410,24 @@ impl NamedInput {
     /// The input.
     pub fn input(self) -> Input {
         self.column.field
+    }
+
+    /// The text of a standard uncertainty `value` given under this name,
+    /// with the name's unit where it is a bare number: what a sheet's
+    /// `<column>_u` cell of this column means (`2` under
+    /// `alkalinity_umol_kg` is 2 µmol/kg; `0.18` under `temperature_f` is
+    /// 0.1 °C, a difference; `5%` stays 5 %).
+    ///
+    /// ```
+    /// use travertine::sample::inputs::NamedInput;
+    /// assert_eq!(NamedInput::find("alkalinity_umol_kg")?.uncertainty_text("2"), "2 umol/kg");
+    /// assert_eq!(NamedInput::find("temperature_f")?.uncertainty_text("0.18"), "0.1");
+    /// assert_eq!(NamedInput::find("ph_total")?.uncertainty_text("0.01"), "0.01");
+    /// assert_eq!(NamedInput::find("dic_umol_kg")?.uncertainty_text("1%"), "1%");
+    /// # Ok::<(), travertine::sample::inputs::UnreadName>(())
+    /// ```
+    pub fn uncertainty_text(self, value: &str) -> String {
+        self.column.reading.difference_text(value.to_string())
     }
 
     /// Whether the input takes a name (the medium, a scale, a fit, a
