@@ -109,12 +109,7 @@ fn every_u_and_the_budget_agree_with_the_command_line_in_both_media() {
         assert!(numbers > 40, "{name}: only {numbers} numbers");
         assert!(above > 30, "{name}: only {above} above zero");
 
-        let cli_sources: Vec<String> = json["uncertainty"]["sources"]
-            .as_array()
-            .expect("sources")
-            .iter()
-            .map(|s| s["name"].as_str().expect("a name").to_string())
-            .collect();
+        let cli_sources = cli_sources(&json);
         let sources = st.sources();
         assert_eq!(sources, cli_sources, "{name}");
         assert!(sources.contains(&"ph".to_string()), "{sources:?}");
@@ -202,6 +197,25 @@ fn no_constant_uncertainty_matches_the_command_line() {
     }
 }
 
+/// The names of the sources in the program's JSON, in its order.
+fn cli_sources(json: &serde_json::Value) -> Vec<String> {
+    json["uncertainty"]["sources"]
+        .as_array()
+        .expect("sources")
+        .iter()
+        .map(|s| s["name"].as_str().expect("a name").to_string())
+        .collect()
+}
+
+/// Every output's uncertainty equal in two states (NaN in both where
+/// there is none).
+fn same_u(a: &State, b: &State) {
+    for o in Output::ALL {
+        let (x, y) = (a.u(o.key()), b.u(o.key()));
+        assert!(x == y || (x.is_nan() && y.is_nan()), "{}: {x} {y}", o.key());
+    }
+}
+
 /// A name given twice keeps the last value, as the program does; a
 /// constant set replaces its default.
 #[test]
@@ -209,30 +223,19 @@ fn a_repeated_name_replaces_the_earlier_value() {
     let g = tarnholm();
     let twice = solved(&g, &["ph=0.5", "alkalinity=2umol/kg", "PH=0.01"], false);
     let once = solved(&g, &["alkalinity=2umol/kg", "ph=0.01"], false);
-    for o in Output::ALL {
-        let (a, b) = (twice.u(o.key()), once.u(o.key()));
-        assert!(a == b || (a.is_nan() && b.is_nan()), "{}: {a} {b}", o.key());
-    }
+    same_u(&twice, &once);
     let json =
         cli_json_with(&g, &flags(&["ph=0.5", "alkalinity=2umol/kg", "PH=0.01"])).expect("solves");
     compare_u("twice", &twice, &json);
     // The sources in the program's order: the name given again last.
-    let cli_sources: Vec<String> = json["uncertainty"]["sources"]
-        .as_array()
-        .expect("sources")
-        .iter()
-        .map(|s| s["name"].as_str().expect("a name").to_string())
-        .collect();
+    let cli_sources = cli_sources(&json);
     assert_eq!(twice.sources(), cli_sources);
     assert_eq!(twice.sources()[..2], ["alkalinity", "ph"]);
 
     // Named as trv_sample_set names the inputs, a bare number in the
     // name's unit: the same as the flags with the unit in the value.
     let by_column = solved(&g, &["alkalinity_umol_kg=2", "ph_total=0.01"], false);
-    for o in Output::ALL {
-        let (a, b) = (by_column.u(o.key()), once.u(o.key()));
-        assert!(a == b || (a.is_nan() && b.is_nan()), "{}: {a} {b}", o.key());
-    }
+    same_u(&by_column, &once);
 
     // pk1 set to 0.1 pK instead of its default moves DIC's uncertainty.
     let pk1 = solved(&g, &["ph=0.01", "pk1=0.1"], false);
