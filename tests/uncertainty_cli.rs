@@ -503,6 +503,57 @@ fn sheet_setting_of_a_parameter_outside_a_rows_pair_is_noted_in_that_row() {
     );
 }
 
+/// A wind uncertainty for every row: counted in the row with a wind speed
+/// (the flux gets an uncertainty), noted and left out in the row without
+/// one, whose other uncertainties are still given (Tarnholm inlet,
+/// invented).
+#[test]
+fn sheet_wind_uncertainty_in_a_row_without_wind_is_noted_in_that_row() {
+    let csv = "temperature_c,salinity,ph_total,alkalinity_umol_kg,wind_m_s\n\
+               12,34,8.05,2300,6\n\
+               12,34,8.05,2300,\n";
+    let (rows, _) = sheet_rows(
+        csv,
+        &[
+            "--columns",
+            "pco2_uatm,co2_flux_mmol_m2_d",
+            "--uncertainty",
+            "wind=0.5",
+        ],
+    );
+    assert_eq!(rows[0]["status"], "ok");
+    assert!(rows[0]["co2_flux_mmol_m2_d_u"].as_f64().unwrap() > 0.0);
+    assert_eq!(rows[1]["status"], "ok");
+    assert!(rows[1]["pco2_uatm_u"].as_f64().unwrap() > 0.0);
+    let message = rows[1]["message"].as_str().unwrap();
+    assert!(
+        message.contains("not used in this row") && message.contains("wind"),
+        "{message}"
+    );
+    // `solve` without a wind speed refuses it outright, naming the wind.
+    let o = run_travertine(
+        &[
+            "solve",
+            "--temperature",
+            "12",
+            "--salinity",
+            "34",
+            "--ph",
+            "8.05",
+            "--ph-scale",
+            "total",
+            "--alkalinity",
+            "2300umol/kg",
+            "--uncertainty",
+            "wind=0.5",
+        ],
+        None,
+    );
+    assert_eq!(o.status.code(), Some(2));
+    let e = String::from_utf8_lossy(&o.stderr);
+    assert!(e.contains("wind"), "{e}");
+}
+
 /// Fennel pond described by its conductivity (invented: 420 µS/cm at the
 /// sample temperature, calcium 1 mmol/kg): `conductivity=5%` and the same
 /// size in µS/cm (21) or mS/cm (0.021) give the same uncertainty, above

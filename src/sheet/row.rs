@@ -851,7 +851,7 @@ fn uncertainty_row(
     s: &mut Scratch,
 ) {
     use crate::decisions::uncertainty::{propagate, Problem, Uncertainties};
-    use crate::decisions::uncertainty_settings::with_settings;
+    use crate::decisions::uncertainty_settings::{with_settings, Target};
     let mut settings: Vec<Setting> = up.settings.clone();
     for u in &up.columns {
         match cell_setting(u, record, plan.decimal_comma) {
@@ -867,7 +867,18 @@ fn uncertainty_row(
     }
     let base = up.base.clone();
     let mut used = Vec::with_capacity(settings.len());
+    // The wind's uncertainty counts only in a row with a wind speed (and
+    // the exchange figures); elsewhere it is noted and left out, as a
+    // carbonate parameter the row did not measure is.
+    let wind = plan.exchange && inputs.air().is_ok_and(|air| air.wind_m_s().is_some());
     for setting in settings {
+        if setting.target() == Target::Input(Input::Wind) && !wind {
+            s.note(
+                format!("uncertainty not used: {}", setting.name()),
+                "not used in this row: it has no wind speed".to_string(),
+            );
+            continue;
+        }
         match with_settings(
             Uncertainties::new(),
             std::slice::from_ref(&setting),
