@@ -530,25 +530,15 @@ fn sheet_wind_uncertainty_in_a_row_without_wind_is_noted_in_that_row() {
         message.contains("not used in this row") && message.contains("wind"),
         "{message}"
     );
-    // `solve` without a wind speed refuses it outright, naming the wind.
-    let o = run_travertine(
-        &[
-            "solve",
-            "--temperature",
-            "12",
-            "--salinity",
-            "34",
-            "--ph",
-            "8.05",
-            "--ph-scale",
-            "total",
-            "--alkalinity",
-            "2300umol/kg",
-            "--uncertainty",
-            "wind=0.5",
-        ],
-        None,
-    );
+    // `solve` without a wind speed (the Tarnholm sample with its wind
+    // left out) refuses it outright, naming the wind.
+    let mut args: Vec<&str> = TARNHOLM
+        .iter()
+        .copied()
+        .filter(|a| !matches!(*a, "--wind" | "6"))
+        .collect();
+    args.extend(["--uncertainty", "wind=0.5"]);
+    let o = run_travertine(&args, None);
     assert_eq!(o.status.code(), Some(2));
     let e = String::from_utf8_lossy(&o.stderr);
     assert!(e.contains("wind"), "{e}");
