@@ -3,7 +3,7 @@
 
 pub mod error;
 pub mod field;
-pub(crate) mod numeric;
+pub mod numeric;
 pub mod range;
 pub(crate) mod root;
 pub mod units;
