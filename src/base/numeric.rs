@@ -69,6 +69,7 @@ mod sealed {
 pub trait Real:
     sealed::Sealed
     + Copy
+    + Default
     + Debug
     + PartialEq
     + Send
@@ -198,6 +199,13 @@ pub struct Tangent<const N: usize> {
     pub v: f64,
     /// ∂value/∂source, one per source.
     pub d: [f64; N],
+}
+
+/// Zero, with every derivative zero.
+impl<const N: usize> Default for Tangent<N> {
+    fn default() -> Self {
+        Tangent { v: 0.0, d: [0.0; N] }
+    }
 }
 
 impl<const N: usize> Tangent<N> {

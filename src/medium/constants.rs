@@ -99,7 +99,7 @@ pub struct Constants<R: Real = f64> {
     /// Aragonite solubility product, (mol/kg)².
     pub(in crate::medium) ksp_aragonite: R,
     /// The totals used.
-    pub(in crate::medium) totals: Totals,
+    pub(in crate::medium) totals: Totals<R>,
     /// [H+] on the free scale per unit of working-scale h.
     pub(in crate::medium) free_per_working: R,
     /// [H+] on the sea-water scale per unit of working-scale h.
@@ -454,7 +454,7 @@ impl<R: Real> Constants<R> {
     /// # Ok::<(), travertine::Error>(())
     /// ```
     #[inline]
-    pub fn totals(&self) -> &Totals {
+    pub fn totals(&self) -> &Totals<R> {
         &self.totals
     }
 

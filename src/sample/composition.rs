@@ -3,6 +3,7 @@
 
 use crate::base::error::{check_range, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use crate::base::units::Amount;
 use crate::fits::BoronTotalFit;
 use serde::Serialize;
@@ -238,31 +239,31 @@ impl Composition {
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
 #[non_exhaustive]
-pub struct Totals {
+pub struct Totals<R: Real = f64> {
     /// Total boron.
-    pub boron_mol_kg: f64,
+    pub boron_mol_kg: R,
     /// Total sulfate.
-    pub sulfate_mol_kg: f64,
+    pub sulfate_mol_kg: R,
     /// Total fluoride.
-    pub fluoride_mol_kg: f64,
+    pub fluoride_mol_kg: R,
     /// Total phosphate.
-    pub phosphate_mol_kg: f64,
+    pub phosphate_mol_kg: R,
     /// Total silicate.
-    pub silicate_mol_kg: f64,
+    pub silicate_mol_kg: R,
     /// Total ammonia (NH3 + NH4+).
-    pub ammonia_mol_kg: f64,
+    pub ammonia_mol_kg: R,
     /// Total sulfide (H2S + HS-).
-    pub sulfide_mol_kg: f64,
+    pub sulfide_mol_kg: R,
     /// Calcium.
-    pub calcium_mol_kg: f64,
+    pub calcium_mol_kg: R,
     /// Magnesium (fresh water, for the ionic strength).
-    pub magnesium_mol_kg: f64,
+    pub magnesium_mol_kg: R,
     /// Sodium (fresh water).
-    pub sodium_mol_kg: f64,
+    pub sodium_mol_kg: R,
     /// Potassium (fresh water).
-    pub potassium_mol_kg: f64,
+    pub potassium_mol_kg: R,
     /// Chloride (fresh water).
-    pub chloride_mol_kg: f64,
+    pub chloride_mol_kg: R,
     /// Hardness whose split between Ca and Mg is unknown (fresh water).
-    pub hardness_mol_kg: f64,
+    pub hardness_mol_kg: R,
 }

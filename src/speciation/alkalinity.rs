@@ -8,6 +8,7 @@
 //! ```
 //! Here h is [H+] on the working scale of the [`Constants`].
 
+use crate::base::numeric::Real;
 use crate::medium::Constants;
 use serde::Serialize;
 
@@ -23,37 +24,37 @@ use serde::Serialize;
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
 #[non_exhaustive]
-pub struct AlkalinityParts {
+pub struct AlkalinityParts<R: Real = f64> {
     /// [HCO3-] + 2[CO3--] (+ [CaHCO3+] + 2\[CaCO3⁰\] in fresh water).
-    pub carbonate: f64,
+    pub carbonate: R,
     /// [B(OH)4-].
-    pub borate: f64,
+    pub borate: R,
     /// [OH-].
-    pub hydroxide: f64,
+    pub hydroxide: R,
     /// [HPO4--] + 2[PO4---] - \[H3PO4\].
-    pub phosphate: f64,
+    pub phosphate: R,
     /// [SiO(OH)3-].
-    pub silicate: f64,
+    pub silicate: R,
     /// \[NH3\].
-    pub ammonia: f64,
+    pub ammonia: R,
     /// [HS-].
-    pub sulfide: f64,
+    pub sulfide: R,
     /// [H+] on the free scale (counted negatively).
-    pub free_hydrogen: f64,
+    pub free_hydrogen: R,
     /// [HSO4-] (counted negatively).
-    pub bisulfate: f64,
+    pub bisulfate: R,
     /// \[HF\] (counted negatively).
-    pub hydrogen_fluoride: f64,
+    pub hydrogen_fluoride: R,
 }
 
-impl AlkalinityParts {
+impl<R: Real> AlkalinityParts<R> {
     /// The total alkalinity these parts make.
     ///
     /// ```
     /// # use travertine::speciation::alkalinity::AlkalinityParts;
     /// assert_eq!(AlkalinityParts::default().total(), 0.0);
     /// ```
-    pub fn total(&self) -> f64 {
+    pub fn total(&self) -> R {
         self.carbonate + self.non_carbonate()
     }
 
@@ -63,7 +64,7 @@ impl AlkalinityParts {
     /// # use travertine::speciation::alkalinity::AlkalinityParts;
     /// assert_eq!(AlkalinityParts::default().non_carbonate(), 0.0);
     /// ```
-    pub fn non_carbonate(&self) -> f64 {
+    pub fn non_carbonate(&self) -> R {
         self.borate + self.hydroxide + self.phosphate + self.silicate + self.ammonia + self.sulfide
             - self.free_hydrogen
             - self.bisulfate
@@ -75,24 +76,24 @@ impl AlkalinityParts {
 /// (with the pair-inclusive K1e, K2e),
 /// and its derivative with respect to h.
 #[inline]
-pub(crate) fn carbonate_per_dic(k: &Constants, h: f64) -> (f64, f64) {
+pub(crate) fn carbonate_per_dic<R: Real>(k: &Constants<R>, h: R) -> (R, R) {
     let k12 = k.k1e() * k.k2e();
-    let n = k.k1e() * h + 2.0 * k12;
+    let n = k.k1e() * h + k12 * 2.0;
     let d = h * h + k.k1e() * h + k12;
-    let inv = 1.0 / d;
+    let inv = d.under(1.0);
     let c = n * inv;
     // d/dh (n/d) = (K1 − c (2h + K1)) / d.
-    (c, (k.k1e() - c * (2.0 * h + k.k1e())) * inv)
+    (c, (k.k1e() - c * (h * 2.0 + k.k1e())) * inv)
 }
 
 /// Base form of a monoprotic acid, T·K/(K + h), and its derivative
 /// −T·K/(K + h)², with one division.
 #[inline]
-fn base(total: f64, ka: f64, h: f64) -> (f64, f64) {
-    if total == 0.0 {
-        return (0.0, 0.0);
+fn base<R: Real>(total: R, ka: R, h: R) -> (R, R) {
+    if total.value() == 0.0 {
+        return (R::constant(0.0), R::constant(0.0));
     }
-    let inv = 1.0 / (ka + h);
+    let inv = (ka + h).under(1.0);
     let v = total * ka * inv;
     (v, -v * inv)
 }
@@ -100,8 +101,8 @@ fn base(total: f64, ka: f64, h: f64) -> (f64, f64) {
 /// Acid form on the free scale, T·hf/(K + hf) with hf = ff·h, and its
 /// derivative with respect to h, T·K·ff/(K + hf)², with one division.
 #[inline]
-fn acid_free(total: f64, ka: f64, hf: f64, ff: f64) -> (f64, f64) {
-    let inv = 1.0 / (ka + hf);
+fn acid_free<R: Real>(total: R, ka: R, hf: R, ff: R) -> (R, R) {
+    let inv = (ka + hf).under(1.0);
     let v = total * hf * inv;
     (v, total * ka * ff * inv * inv)
 }
@@ -109,13 +110,13 @@ fn acid_free(total: f64, ka: f64, hf: f64, ff: f64) -> (f64, f64) {
 /// Every part of the alkalinity but the carbonate, with the derivative of
 /// their sum with respect to h.
 #[inline]
-fn non_carbonate_parts(k: &Constants, h: f64) -> (AlkalinityParts, f64) {
+fn non_carbonate_parts<R: Real>(k: &Constants<R>, h: R) -> (AlkalinityParts<R>, R) {
     let t = &k.totals();
     let (b, db) = base(t.boron_mol_kg, k.kb(), h);
     let (si, dsi) = base(t.silicate_mol_kg, k.ksi(), h);
     let (nh, dnh) = base(t.ammonia_mol_kg, k.knh4(), h);
     let (hs, dhs) = base(t.sulfide_mol_kg, k.kh2s(), h);
-    let inv_h = 1.0 / h;
+    let inv_h = h.under(1.0);
     let oh = k.kw() * inv_h;
     let doh = -oh * inv_h;
     let ff = k.free_per_working();
@@ -125,7 +126,7 @@ fn non_carbonate_parts(k: &Constants, h: f64) -> (AlkalinityParts, f64) {
     let (hfl, dhfl) = acid_free(t.fluoride_mol_kg, k.kf_free(), hf, ff);
     let (p, dp) = phosphate(k, h);
     let parts = AlkalinityParts {
-        carbonate: 0.0,
+        carbonate: R::constant(0.0),
         borate: b,
         hydroxide: oh,
         phosphate: p,
@@ -141,7 +142,7 @@ fn non_carbonate_parts(k: &Constants, h: f64) -> (AlkalinityParts, f64) {
 
 /// Non-carbonate alkalinity at h and its derivative with respect to h.
 #[inline]
-pub(crate) fn non_carbonate(k: &Constants, h: f64) -> (f64, f64) {
+pub(crate) fn non_carbonate<R: Real>(k: &Constants<R>, h: R) -> (R, R) {
     let (p, d) = non_carbonate_parts(k, h);
     (p.non_carbonate(), d)
 }
@@ -149,18 +150,18 @@ pub(crate) fn non_carbonate(k: &Constants, h: f64) -> (f64, f64) {
 /// Every part of the alkalinity at h and DIC (mol/kg), with the slopes a
 /// state needs, from one evaluation.
 #[derive(Debug, Clone, Copy)]
-pub(crate) struct PartsWithSlopes {
-    pub parts: AlkalinityParts,
+pub(crate) struct PartsWithSlopes<R: Real = f64> {
+    pub parts: AlkalinityParts<R>,
     /// Carbonate alkalinity per unit DIC, and its derivative with respect to h.
-    pub carbonate_per_dic: f64,
-    pub d_carbonate_per_dic: f64,
+    pub carbonate_per_dic: R,
+    pub d_carbonate_per_dic: R,
     /// Derivative of the non-carbonate sum with respect to h.
-    pub d_non_carbonate: f64,
+    pub d_non_carbonate: R,
 }
 
 /// [`PartsWithSlopes`] at h and DIC (mol/kg).
 #[inline]
-pub(crate) fn parts_with_slopes(k: &Constants, h: f64, dic_mol_kg: f64) -> PartsWithSlopes {
+pub(crate) fn parts_with_slopes<R: Real>(k: &Constants<R>, h: R, dic_mol_kg: R) -> PartsWithSlopes<R> {
     let (c, dc) = carbonate_per_dic(k, h);
     let (mut parts, dn) = non_carbonate_parts(k, h);
     parts.carbonate = dic_mol_kg * c;
@@ -173,19 +174,19 @@ pub(crate) fn parts_with_slopes(k: &Constants, h: f64, dic_mol_kg: f64) -> Parts
 }
 
 #[inline]
-fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
+fn phosphate<R: Real>(k: &Constants<R>, h: R) -> (R, R) {
     let tp = k.totals().phosphate_mol_kg;
-    if tp == 0.0 {
-        return (0.0, 0.0);
+    if tp.value() == 0.0 {
+        return (R::constant(0.0), R::constant(0.0));
     }
     let (k1, k12, k123) = (k.kp1(), k.kp1() * k.kp2(), k.kp1() * k.kp2() * k.kp3());
     let h2 = h * h;
     let h3 = h2 * h;
     let d = h3 + k1 * h2 + k12 * h + k123;
-    let n = k12 * h + 2.0 * k123 - h3;
-    let dn = k12 - 3.0 * h2;
-    let dd = 3.0 * h2 + 2.0 * k1 * h + k12;
-    let inv = 1.0 / d;
+    let n = k12 * h + k123 * 2.0 - h3;
+    let dn = k12 - h2 * 3.0;
+    let dd = h2 * 3.0 + k1 * 2.0 * h + k12;
+    let inv = d.under(1.0);
     let v = n * inv;
     (tp * v, tp * (dn - v * dd) * inv)
 }
@@ -200,6 +201,6 @@ fn phosphate(k: &Constants, h: f64) -> (f64, f64) {
 /// assert!((p.total() * 1e6 - 2300.0).abs() < 0.5); // worked value computed from Lueker et al. (2000), Dickson (1990), Lee et al. (2010), Millero (1995) and Weiss (1974)
 /// # Ok::<(), travertine::Error>(())
 /// ```
-pub fn parts(k: &Constants, h: f64, dic_mol_kg: f64) -> AlkalinityParts {
+pub fn parts<R: Real>(k: &Constants<R>, h: R, dic_mol_kg: R) -> AlkalinityParts<R> {
     parts_with_slopes(k, h, dic_mol_kg).parts
 }
