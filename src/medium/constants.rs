@@ -52,6 +52,11 @@ pub struct Constants<R: Real = f64> {
     pub(in crate::medium) conditions: Conditions,
     /// The working pH scale of every acid constant.
     pub(in crate::medium) working_scale: PhScale,
+    /// The temperature (°C), practical salinity and gauge pressure (dbar)
+    /// of `conditions`, as numbers of this type (on a [`Tangent`](crate::base::numeric::Tangent),
+    /// with their derivatives).
+    #[serde(skip)]
+    pub(in crate::medium) at: [R; 3],
     /// CO2 solubility, mol kg⁻¹ atm⁻¹.
     pub(in crate::medium) k0: R,
     /// First dissociation constant of carbonic acid.
@@ -260,6 +265,32 @@ impl<R: Real> Constants<R> {
     #[inline]
     pub fn conditions(&self) -> &Conditions {
         &self.conditions
+    }
+
+    /// The temperature (°C) evaluated, as a number of this type: on a
+    /// [`Tangent`](crate::base::numeric::Tangent), with its derivatives.
+    ///
+    /// ```
+    /// use travertine::{Conditions, Water};
+    /// let k = Water::saline(Conditions::new(25.0, 35.0)?)?.constants()?;
+    /// assert_eq!(k.temperature_c(), 25.0);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    #[inline]
+    pub fn temperature_c(&self) -> R {
+        self.at[0]
+    }
+
+    /// The practical salinity evaluated, as [`Constants::temperature_c`].
+    #[inline]
+    pub fn salinity(&self) -> R {
+        self.at[1]
+    }
+
+    /// The gauge pressure evaluated, dbar, as [`Constants::temperature_c`].
+    #[inline]
+    pub fn pressure_dbar(&self) -> R {
+        self.at[2]
     }
 
     /// The working pH scale of every acid constant: total in saline water,

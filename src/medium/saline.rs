@@ -154,6 +154,7 @@ impl Constants {
         Ok(Constants {
             conditions: *conditions,
             working_scale: PhScale::Total,
+            at: [t_c, s, conditions.pressure_dbar()],
             k0,
             k1,
             k2,

@@ -24,6 +24,7 @@
 //! water); ρ the density of the water. fCO2(water) is the state's fCO2.
 //! All of them are the same values the state itself was solved with.
 
+use crate::base::numeric::Real;
 use crate::base::warning::Warning;
 use crate::fits::transfer::{
     schmidt_exponent, schmidt_number, transfer_velocity, GasTransfer, WANNINKHOF2014_SCHMIDT_RANGE,
@@ -58,48 +59,48 @@ pub const M_D_PER_CM_H: f64 = 0.24;
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[non_exhaustive]
-pub struct Exchange {
+pub struct Exchange<R: Real = f64> {
     /// CO2 of the air, ppm (dry mole fraction), as given or the default.
-    pub air_co2_ppm: f64,
+    pub air_co2_ppm: R,
     /// CO2 partial pressure of the air at the water surface (moist air at
     /// the barometric pressure), µatm.
-    pub air_pco2_uatm: f64,
+    pub air_pco2_uatm: R,
     /// CO2 fugacity of that air, µatm.
-    pub air_fco2_uatm: f64,
+    pub air_fco2_uatm: R,
     /// The water's pCO2 over the air's: above 1 the water gives off CO2.
-    pub co2_saturation_ratio: f64,
+    pub co2_saturation_ratio: R,
     /// Schmidt number of CO2 in the water (Wanninkhof 2014).
-    pub schmidt_number: f64,
+    pub schmidt_number: R,
     /// The model of the transfer velocity used.
     pub gas_transfer: GasTransfer,
     /// The exponent n of (Sc/600)^(−n) used.
-    pub schmidt_exponent: f64,
+    pub schmidt_exponent: R,
     /// Transfer velocity at Schmidt number 600, cm/h (`None` without a
     /// wind speed or a k600 given).
-    pub k600_cm_h: Option<f64>,
+    pub k600_cm_h: Option<R>,
     /// Transfer velocity of CO2 at the water's Schmidt number, cm/h.
-    pub k_cm_h: Option<f64>,
+    pub k_cm_h: Option<R>,
     /// CO2 flux, mmol m⁻² d⁻¹, positive out of the water.
-    pub co2_flux_mmol_m2_d: Option<f64>,
+    pub co2_flux_mmol_m2_d: Option<R>,
     /// pH of the water at equilibrium with the air, at the same
     /// alkalinity and totals, on [`Exchange::equilibrium_ph_scale`].
-    pub equilibrium_ph: Option<f64>,
+    pub equilibrium_ph: Option<R>,
     /// The scale of [`Exchange::equilibrium_ph`]: that of the pH given,
     /// else the medium's own (NBS in fresh water, total in saline water).
     pub equilibrium_ph_scale: PhScale,
     /// Free CO2 of the water at equilibrium with the air, mg/L as CO2.
-    pub equilibrium_free_co2_mg_l: Option<f64>,
+    pub equilibrium_free_co2_mg_l: Option<R>,
 }
 
 /// The gas constants a state was solved with, kept for the exchange.
 #[derive(Debug, Clone, Copy, PartialEq, Default)]
-pub(crate) struct GasTerms {
+pub(crate) struct GasTerms<R: Real = f64> {
     /// CO2 solubility, mol kg⁻¹ atm⁻¹.
-    pub k0: f64,
+    pub k0: R,
     /// fCO2/pCO2 of CO2 in air.
-    pub fugacity_factor: f64,
+    pub fugacity_factor: R,
     /// Water vapour pressure, atm.
-    pub vapour_pressure_atm: f64,
+    pub vapour_pressure_atm: R,
 }
 
 /// The usual pH scale of a medium: NBS in fresh water, total in saline.

@@ -2,6 +2,7 @@
 
 use crate::base::error::Result;
 use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL, H2S_G_MOL, NH3_G_MOL, N_G_MOL};
+use crate::base::numeric::Real;
 use crate::base::warning::Warnings;
 use crate::fits::FitsUsed;
 use crate::medium::Constants;
@@ -18,12 +19,12 @@ pub use exchange::Exchange;
 
 /// The fresh-water results computed beside the carbonate state.
 #[derive(Debug, Clone, Copy, PartialEq)]
-pub(crate) struct FreshFigures {
+pub(crate) struct FreshFigures<R: Real = f64> {
     pub ionic_strength_from: IonicStrengthRoute,
-    pub charge_balance_percent: Option<f64>,
-    pub saturation_ph_nbs: Option<f64>,
-    pub langelier_index: Option<f64>,
-    pub precipitation_potential_mg_l_caco3: Option<f64>,
+    pub charge_balance_percent: Option<R>,
+    pub saturation_ph_nbs: Option<R>,
+    pub langelier_index: Option<R>,
+    pub precipitation_potential_mg_l_caco3: Option<R>,
 }
 
 /// Every output of a solve. Field names are the JSON keys of the interface
@@ -58,117 +59,117 @@ pub(crate) struct FreshFigures {
 /// ```
 #[derive(Debug, Clone, PartialEq)]
 #[non_exhaustive]
-pub struct State {
+pub struct State<R: Real = f64> {
     /// Temperature, °C.
-    pub temperature_c: f64,
+    pub temperature_c: R,
     /// Practical salinity.
-    pub salinity: f64,
+    pub salinity: R,
     /// Gauge pressure, dbar.
-    pub pressure_dbar: f64,
+    pub pressure_dbar: R,
     /// The medium: `saline`.
     pub medium: Medium,
     /// pH, total scale.
-    pub ph_total: f64,
+    pub ph_total: R,
     /// pH, sea-water scale.
-    pub ph_seawater: f64,
+    pub ph_seawater: R,
     /// pH, free scale.
-    pub ph_free: f64,
+    pub ph_free: R,
     /// pH, NBS scale (in saline water an approximation, Takahashi et al. 1982).
-    pub ph_nbs: f64,
+    pub ph_nbs: R,
     /// Total alkalinity.
-    pub alkalinity_umol_kg: f64,
+    pub alkalinity_umol_kg: R,
     /// Dissolved inorganic carbon.
-    pub dic_umol_kg: f64,
+    pub dic_umol_kg: R,
     /// CO2* (dissolved CO2 + H2CO3).
-    pub co2_umol_kg: f64,
+    pub co2_umol_kg: R,
     /// Bicarbonate.
-    pub hco3_umol_kg: f64,
+    pub hco3_umol_kg: R,
     /// Carbonate.
-    pub co3_umol_kg: f64,
+    pub co3_umol_kg: R,
     /// CO2 fugacity, µatm: CO2*/K0, with K0 and the fugacity coefficient
     /// at one atmosphere and no Poynting term. At depth CO2* is that of the
     /// water at its pressure, so this is the fugacity it would have at the
     /// surface pressure (the ocean convention); the fugacity in situ is
     /// higher by exp(V̄ ΔP / RT), V̄ ≈ 32.3 cm³/mol (Weiss 1974; from memory,
     /// unverified), about 1.4 % per 100 dbar at 10 °C.
-    pub fco2_uatm: f64,
+    pub fco2_uatm: R,
     /// CO2 partial pressure (moist air at the air pressure), µatm; at depth
     /// on the same convention as `fco2_uatm`.
-    pub pco2_uatm: f64,
+    pub pco2_uatm: R,
     /// CO2 mole fraction in dry air, ppm.
-    pub xco2_ppm: f64,
+    pub xco2_ppm: R,
     /// Saturation state of calcite (`None` in fresh water without calcium).
-    pub omega_calcite: Option<f64>,
+    pub omega_calcite: Option<R>,
     /// Saturation state of aragonite.
-    pub omega_aragonite: Option<f64>,
+    pub omega_aragonite: Option<R>,
     /// Saturation index of calcite, log10 Ω (= log10 IAP/Ksp).
-    pub si_calcite: Option<f64>,
+    pub si_calcite: Option<R>,
     /// Saturation index of aragonite, log10 Ω.
-    pub si_aragonite: Option<f64>,
+    pub si_aragonite: Option<R>,
     /// Revelle (buffer) factor.
-    pub revelle_factor: f64,
+    pub revelle_factor: R,
     /// Carbonate alkalinity, [HCO3-] + 2[CO3--].
-    pub carbonate_alkalinity_umol_kg: f64,
+    pub carbonate_alkalinity_umol_kg: R,
     /// Borate alkalinity.
-    pub borate_alkalinity_umol_kg: f64,
+    pub borate_alkalinity_umol_kg: R,
     /// Hydroxide, [OH-].
-    pub hydroxide_umol_kg: f64,
+    pub hydroxide_umol_kg: R,
     /// Phosphate alkalinity, [HPO4--] + 2[PO4---] − \[H3PO4\].
-    pub phosphate_alkalinity_umol_kg: f64,
+    pub phosphate_alkalinity_umol_kg: R,
     /// Silicate alkalinity.
-    pub silicate_alkalinity_umol_kg: f64,
+    pub silicate_alkalinity_umol_kg: R,
     /// Ammonia alkalinity, \[NH3\].
-    pub ammonia_alkalinity_umol_kg: f64,
+    pub ammonia_alkalinity_umol_kg: R,
     /// Sulfide alkalinity, [HS-].
-    pub sulfide_alkalinity_umol_kg: f64,
+    pub sulfide_alkalinity_umol_kg: R,
     /// Free hydrogen ion, counted against alkalinity.
-    pub free_hydrogen_umol_kg: f64,
+    pub free_hydrogen_umol_kg: R,
     /// Bisulfate, counted against alkalinity.
-    pub bisulfate_umol_kg: f64,
+    pub bisulfate_umol_kg: R,
     /// Hydrogen fluoride, counted against alkalinity.
-    pub hydrogen_fluoride_umol_kg: f64,
+    pub hydrogen_fluoride_umol_kg: R,
     /// Total calcium (`None` in fresh water without calcium).
-    pub calcium_umol_kg: Option<f64>,
+    pub calcium_umol_kg: Option<R>,
     /// Free Ca++ (fresh water: total less the CaHCO3+ and CaCO3⁰ pairs).
-    pub calcium_free_umol_kg: Option<f64>,
+    pub calcium_free_umol_kg: Option<R>,
     /// Activity of free Ca++ (molal, fresh water).
-    pub calcium_activity: Option<f64>,
+    pub calcium_activity: Option<R>,
     /// CaHCO3+ ion pair (fresh water).
-    pub cahco3_umol_kg: Option<f64>,
+    pub cahco3_umol_kg: Option<R>,
     /// CaCO3⁰ ion pair (fresh water).
-    pub caco3_pair_umol_kg: Option<f64>,
+    pub caco3_pair_umol_kg: Option<R>,
     /// Ionic strength, mol/kg.
-    pub ionic_strength: f64,
+    pub ionic_strength: R,
     /// Where the ionic strength came from (fresh water).
     pub ionic_strength_from: Option<IonicStrengthRoute>,
     /// Charge imbalance of the ions given, % of the total charge (fresh
     /// water with major ions; positive: excess cations).
-    pub charge_balance_percent: Option<f64>,
+    pub charge_balance_percent: Option<R>,
     /// Activity coefficient of monovalent ions (fresh water).
-    pub gamma_monovalent: Option<f64>,
+    pub gamma_monovalent: Option<R>,
     /// Activity coefficient of divalent ions such as CO3-- (fresh water).
-    pub gamma_divalent: Option<f64>,
+    pub gamma_divalent: Option<R>,
     /// pHs, the NBS pH of calcite saturation at this alkalinity and calcium (fresh water).
-    pub saturation_ph_nbs: Option<f64>,
+    pub saturation_ph_nbs: Option<R>,
     /// Langelier index, pH − pHs (fresh water with calcium; null otherwise).
-    pub langelier_index: Option<f64>,
+    pub langelier_index: Option<R>,
     /// Calcium carbonate precipitation potential, mg/L as CaCO3: positive to
     /// precipitate, negative to dissolve (fresh water with calcium).
-    pub precipitation_potential_mg_l_caco3: Option<f64>,
+    pub precipitation_potential_mg_l_caco3: Option<R>,
     /// Alkalinity, mg/L as CaCO3.
-    pub alkalinity_mg_l_caco3: f64,
+    pub alkalinity_mg_l_caco3: R,
     /// DIC, mg/L as C.
-    pub dic_mg_l_c: f64,
+    pub dic_mg_l_c: R,
     /// Free CO2 (CO2*), mg/L as CO2.
-    pub free_co2_mg_l: f64,
+    pub free_co2_mg_l: R,
     /// Density used for per-litre units, kg/m³ (Millero & Poisson 1981, EOS-80).
-    pub density_kg_m3: f64,
+    pub density_kg_m3: R,
     /// The fit used for each constant.
     pub fits_used: FitsUsed,
     /// Cautions: fits used outside their range, other roots, approximations.
     pub warnings: Warnings,
     water_sample: Water,
-    h: f64,
+    h: R,
     // issue 11: toxic fractions
     /// Un-ionised fraction of the total ammonia, \[NH3\]/(\[NH3\] + [NH4+])
     /// (`None` where no ammonia was given, or zero).
@@ -195,11 +196,11 @@ pub struct State {
     /// assert!((s.nh3_fraction.unwrap() - 0.0537).abs() < 5e-5);
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub nh3_fraction: Option<f64>,
+    pub nh3_fraction: Option<R>,
     /// Un-ionised ammonia NH3, mg/L as N.
-    pub nh3_mg_l_n: Option<f64>,
+    pub nh3_mg_l_n: Option<R>,
     /// Un-ionised ammonia NH3, mg/L as NH3.
-    pub nh3_mg_l: Option<f64>,
+    pub nh3_mg_l: Option<R>,
     /// Fraction of the total sulfide that is H2S, \[H2S\]/(\[H2S\] + [HS-])
     /// (`None` where no sulfide was given, or zero); S-- is negligible
     /// below pH 12.
@@ -208,9 +209,9 @@ pub struct State {
     /// fresh:   f = 1 / (1 + K1 / (γHS {H+}))      K1: Millero et al. (1988) at S = 0
     /// saline:  f = 1 / (1 + K1,T / [H+]T)         Millero et al. (1988), total scale
     /// ```
-    pub h2s_fraction: Option<f64>,
+    pub h2s_fraction: Option<R>,
     /// Hydrogen sulfide H2S, mg/L as H2S.
-    pub h2s_mg_l: Option<f64>,
+    pub h2s_mg_l: Option<R>,
     /// The two measured parameters this state comes from. A state moved to
     /// other conditions ([`State::at`]) keeps those of its measurement, so
     /// that a judgement on how it was measured (the organic-acid bias of
@@ -221,15 +222,15 @@ pub struct State {
     /// with, mol/kg: as measured, or from salinity in saline water. A
     /// saved result carries them (`*_total_umol_kg`), so that two saved
     /// results can be mixed.
-    pub totals: crate::sample::composition::Totals,
+    pub totals: crate::sample::composition::Totals<R>,
     // issue 11: air–water CO2 exchange
     /// The exchange of CO2 with the air: the air's pCO2, the saturation
     /// ratio, the transfer velocity, the flux and the water at equilibrium
     /// with the air. `None` unless asked for with [`State::with_exchange`]
     /// (the command line always asks; a sheet asks when it has an
     /// exchange column or input).
-    pub exchange: Option<Exchange>,
-    gas: exchange::GasTerms,
+    pub exchange: Option<Exchange<R>>,
+    gas: exchange::GasTerms<R>,
 }
 
 impl State {
@@ -421,21 +422,29 @@ impl State {
         Self::build_fresh_or_saline(water, k, h, dic, Warnings::new(), figures, a, b)
     }
 
-    // The two measurements are passed apart from the rest so that the
-    // implausibility error can name them; the state is checked before it is
-    // built, so a large value is never built only to be thrown away.
-    // `warnings` are all the state's: the callers put the constants' first.
+}
+
+impl<R: Real> State<R> {
+    /// Builds a state, fresh (with its figures) or saline, from the solved
+    /// h and DIC and the constants, on any [`Real`]: on `f64` the state of
+    /// a solve, on a [`Tangent`](crate::base::numeric::Tangent) the same
+    /// numbers with their derivatives (the propagation of uncertainties).
+    ///
+    /// The two measurements are passed apart from the rest so that the
+    /// implausibility error can name them; the state is checked before it
+    /// is built, so a large value is never built only to be thrown away.
+    /// `warnings` are all the state's: the callers put the constants' first.
     #[allow(clippy::too_many_arguments)]
-    fn build_fresh_or_saline(
+    pub(crate) fn build_fresh_or_saline(
         water: &Water,
-        k: &Constants,
-        h: f64,
-        dic: f64,
+        k: &Constants<R>,
+        h: R,
+        dic: R,
         warnings: Warnings,
-        figures: Option<FreshFigures>,
+        figures: Option<FreshFigures<R>>,
         a: &Measured,
         b: &Measured,
-    ) -> Result<State> {
+    ) -> Result<State<R>> {
         let k12 = k.k1e() * k.k2e();
         let d = h * h + k.k1e() * h + k12;
         let dic_per_d = dic / d;
@@ -443,38 +452,40 @@ impl State {
         // Carbon-balance totals, then the free ions and the Ca pairs.
         let hco3_t = dic_per_d * k.k1e() * h;
         let co3_t = dic_per_d * k12;
-        let hco3 = hco3_t / (1.0 + k.pair_hco3());
-        let co3 = co3_t / (1.0 + k.pair_co3());
+        let hco3 = hco3_t / (k.pair_hco3() + 1.0);
+        let co3 = co3_t / (k.pair_co3() + 1.0);
         let s = parts_with_slopes(k, h, dic);
         let p = s.parts;
         let ta = p.total();
-        implausible(ta, a, b)?;
+        implausible(ta.value(), a, b)?;
         let fco2 = co2 / k.k0();
         let pco2 = fco2 / k.fugacity_factor();
-        let xco2 = pco2 / (k.conditions().air_pressure_atm() - k.vapour_pressure_atm());
-        let ca_known = k.totals().calcium_mol_kg > 0.0;
+        let xco2 = pco2
+            / k.vapour_pressure_atm()
+                .subtracted_from(k.conditions().air_pressure_atm());
+        let ca_known = k.totals().calcium_mol_kg.value() > 0.0;
         let ca_free = k.calcium_free_mol_kg();
         let omega_c = ca_known.then(|| ca_free * co3 / k.ksp_calcite());
         let omega_a = ca_known.then(|| ca_free * co3 / k.ksp_aragonite());
         // One logarithm for the four pH values and one for both indices.
         let logs = k.log10s();
-        let ph_working = -crate::base::numeric::log10(h);
+        let ph_working = -h.log10_via_ln();
         let ph = |scale: usize| ph_working - logs.per_working[scale];
-        let log_iap = ca_known.then(|| crate::base::numeric::log10(ca_free * co3));
+        let log_iap = ca_known.then(|| (ca_free * co3).log10_via_ln());
 
         // Revelle factor at constant TA (and pairs): dh/dDIC = −c(h) / (DIC c'(h) + n'(h)).
         let dh_ddic = -s.carbonate_per_dic / (dic * s.d_carbonate_per_dic + s.d_non_carbonate);
-        let revelle = 1.0 + dic * (k.k1e() * h + 2.0 * k12) / (h * d) * dh_ddic;
+        let revelle = dic * (k.k1e() * h + k12 * 2.0) / (h * d) * dh_ddic + 1.0;
 
         let rho = k.density_kg_m3();
         let (ammonia, sulfide) = toxic_fractions(k, h);
         let u = 1e6;
         let fresh = figures.is_some();
-        let fresh_only = |v: f64| fresh.then_some(v);
+        let fresh_only = |v: R| fresh.then_some(v);
         Ok(State {
-            temperature_c: k.conditions().temperature_c(),
-            salinity: k.conditions().salinity(),
-            pressure_dbar: k.conditions().pressure_dbar(),
+            temperature_c: k.temperature_c(),
+            salinity: k.salinity(),
+            pressure_dbar: k.pressure_dbar(),
             medium: water.medium(),
             ph_total: ph(0),
             ph_seawater: ph(1),
@@ -505,14 +516,17 @@ impl State {
             hydrogen_fluoride_umol_kg: p.hydrogen_fluoride * u,
             calcium_umol_kg: ca_known.then_some(k.totals().calcium_mol_kg * u),
             calcium_free_umol_kg: ca_known.then_some(ca_free * u),
-            calcium_activity: k.gammas().filter(|_| ca_known).map(|g| g.calcium * ca_free),
+            calcium_activity: k
+                .gammas()
+                .filter(|_| ca_known)
+                .map(|g| R::constant(g.calcium) * ca_free),
             cahco3_umol_kg: fresh_only((hco3_t - hco3) * u).filter(|_| ca_known),
             caco3_pair_umol_kg: fresh_only((co3_t - co3) * u).filter(|_| ca_known),
             ionic_strength: k.ionic_strength(),
             ionic_strength_from: figures.map(|e| e.ionic_strength_from),
             charge_balance_percent: figures.and_then(|e| e.charge_balance_percent),
-            gamma_monovalent: k.gammas().map(|g| g.monovalent),
-            gamma_divalent: k.gammas().map(|g| g.carbonate),
+            gamma_monovalent: k.gammas().map(|g| R::constant(g.monovalent)),
+            gamma_divalent: k.gammas().map(|g| R::constant(g.carbonate)),
             saturation_ph_nbs: figures.and_then(|e| e.saturation_ph_nbs),
             langelier_index: figures.and_then(|e| e.langelier_index),
             precipitation_potential_mg_l_caco3: figures
@@ -547,13 +561,13 @@ impl State {
 /// given. In both media the constants are on the working scale of `h`
 /// (see [`State::nh3_fraction`] and [`State::h2s_fraction`]).
 #[allow(clippy::type_complexity)]
-fn toxic_fractions(k: &Constants, h: f64) -> (Option<(f64, f64)>, Option<(f64, f64)>) {
+fn toxic_fractions<R: Real>(k: &Constants<R>, h: R) -> (Option<(R, R)>, Option<(R, R)>) {
     let totals = k.totals();
-    let ammonia = (totals.ammonia_mol_kg > 0.0 && k.knh4() > 0.0).then(|| {
+    let ammonia = (totals.ammonia_mol_kg.value() > 0.0 && k.knh4().value() > 0.0).then(|| {
         let f = k.knh4() / (k.knh4() + h);
         (f, f * totals.ammonia_mol_kg)
     });
-    let sulfide = (totals.sulfide_mol_kg > 0.0 && k.kh2s() > 0.0).then(|| {
+    let sulfide = (totals.sulfide_mol_kg.value() > 0.0 && k.kh2s().value() > 0.0).then(|| {
         let f = h / (h + k.kh2s());
         (f, f * totals.sulfide_mol_kg)
     });

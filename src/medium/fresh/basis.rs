@@ -241,6 +241,11 @@ impl FreshBasis {
         let mut k = Constants {
             conditions: self.conditions,
             working_scale: PhScale::Nbs,
+            at: [
+                self.conditions.temperature_c(),
+                self.conditions.salinity(),
+                self.conditions.pressure_dbar(),
+            ],
             k0: self.kh,
             k1,
             k2,
