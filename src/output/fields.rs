@@ -34,6 +34,7 @@
 use super::digits::Digits;
 use crate::base::units::{CACO3_G_MOL, CO3_G_MOL, HCO3_G_MOL};
 use crate::sample::water::Medium;
+use crate::base::numeric::Real;
 use crate::state::{Exchange, State};
 use serde::{Serialize, Serializer};
 
@@ -291,21 +292,42 @@ impl Kind {
     }
 }
 
-fn n(v: f64) -> Value {
-    Value::Number(Some(v))
+/// The value of one output in a state of any [`Real`]: what the list
+/// reads, before [`Value`] (on `f64`) or [`Output::numbers`] (on any).
+enum Reading<R> {
+    Number(Option<R>),
+    Text(Option<&'static str>),
 }
 
-fn o(v: Option<f64>) -> Value {
-    Value::Number(v)
+impl From<Reading<f64>> for Value {
+    #[inline(always)]
+    fn from(r: Reading<f64>) -> Value {
+        match r {
+            Reading::Number(v) => Value::Number(v),
+            Reading::Text(t) => Value::Text(t),
+        }
+    }
+}
+
+#[inline(always)]
+fn n<R: Real>(v: R) -> Reading<R> {
+    Reading::Number(Some(v))
+}
+
+#[inline(always)]
+fn o<R: Real>(v: Option<R>) -> Reading<R> {
+    Reading::Number(v)
 }
 
 /// A figure of the exchange with the air, where it was computed.
-fn ex(s: &State, figure: impl Fn(&Exchange) -> Option<f64>) -> Value {
-    Value::Number(s.exchange.as_ref().and_then(figure))
+#[inline(always)]
+fn ex<R: Real>(s: &State<R>, figure: impl Fn(&Exchange<R>) -> Option<R>) -> Reading<R> {
+    Reading::Number(s.exchange.as_ref().and_then(figure))
 }
 
 /// µmol/kg to mg/L of a species of molar mass `g_mol`, with the density of the state.
-fn mg_l(s: &State, umol_kg: f64, g_mol: f64) -> f64 {
+#[inline(always)]
+fn mg_l<R: Real>(s: &State<R>, umol_kg: R, g_mol: f64) -> R {
     umol_kg * 1e-6 * s.density_kg_m3 * g_mol
 }
 
@@ -389,12 +411,16 @@ macro_rules! outputs {
             /// }
             /// # Ok::<(), travertine::Error>(())
             /// ```
-            pub fn numbers(state: &State) -> [Option<f64>; Output::COUNT] {
+            ///
+            /// On a state of [`Tangent`](crate::base::numeric::Tangent)s
+            /// (the propagation of uncertainties), every number with its
+            /// derivatives.
+            pub fn numbers<R: Real>(state: &State<R>) -> [Option<R>; Output::COUNT] {
                 [ $( {
                     let $s = state;
                     match $value {
-                        Value::Number(v) => v,
-                        Value::Text(_) => None,
+                        Reading::Number(v) => v,
+                        Reading::Text(_) => None,
                     }
                 }, )* ]
             }
@@ -480,7 +506,7 @@ macro_rules! outputs {
                 match self {
                     $( Output::$variant => {
                         let $s = state;
-                        $value
+                        Value::from($value)
                     } )*
                 }
             }
@@ -497,7 +523,7 @@ outputs! {
     PressureDbar => "pressure_dbar", "gauge pressure", "dbar", Pressure,
         Conditions, [Hidden, Hidden], |s| n(s.pressure_dbar);
     Water => "water", "medium", "", Name,
-        Conditions, [Hidden, Hidden], |s| Value::Text(Some(s.medium.name()));
+        Conditions, [Hidden, Hidden], |s| Reading::Text(Some(s.medium.name()));
 
     // Acidity: fresh water leads with its working scale, the NBS scale.
     PhTotal => "ph_total", "pH, total scale", "", Ph,
@@ -575,7 +601,7 @@ outputs! {
     IonicStrength => "ionic_strength", "ionic strength", "mol/kg", IonicStrength,
         Medium, [Row, Row], |s| n(s.ionic_strength);
     IonicStrengthFrom => "ionic_strength_from", "ionic strength from", "", Name,
-        Medium, [Hidden, Hidden], |s| Value::Text(s.ionic_strength_from.map(|r| r.name()));
+        Medium, [Hidden, Hidden], |s| Reading::Text(s.ionic_strength_from.map(|r| r.name()));
     GammaMonovalent => "gamma_monovalent", "activity coefficient, z = 1", "", ActivityCoefficient,
         Medium, [Row, Hidden], |s| o(s.gamma_monovalent);
     GammaDivalent => "gamma_divalent", "activity coefficient, z = 2", "", ActivityCoefficient,
@@ -625,7 +651,7 @@ outputs! {
 
     // The fits are in the table's Constants block.
     CarbonicFit => "carbonic_fit", "K1, K2", "", Name,
-        Fits, [Hidden, Hidden], |s| Value::Text(Some(s.fits_used.carbonic.as_str()));
+        Fits, [Hidden, Hidden], |s| Reading::Text(Some(s.fits_used.carbonic.as_str()));
 
     // issue 11: toxic fractions (null where the total was not given)
     Nh3Fraction => "nh3_fraction", "un-ionised ammonia, fraction of total", "", Fraction,
@@ -647,14 +673,14 @@ outputs! {
         Exchange, [Row, Row], |s| ex(s, |e| e.equilibrium_ph);
     EquilibriumPhScale => "equilibrium_ph_scale", "its pH scale", "", Name,
         Exchange, [Row, Row],
-        |s| Value::Text(s.exchange.as_ref().map(|e| e.equilibrium_ph_scale.name()));
+        |s| Reading::Text(s.exchange.as_ref().map(|e| e.equilibrium_ph_scale.name()));
     EquilibriumFreeCo2 => "equilibrium_free_co2_mg_l", "free CO2 at equilibrium with the air",
         "mg/L", MassConcentration,
         Exchange, [Row, Row], |s| ex(s, |e| e.equilibrium_free_co2_mg_l);
     SchmidtNumber => "schmidt_number", "Schmidt number of CO2", "", Factor,
         Exchange, [Row, Row], |s| ex(s, |e| Some(e.schmidt_number));
     GasTransfer => "gas_transfer", "transfer velocity model", "", Name,
-        Exchange, [Row, Row], |s| Value::Text(s.exchange.as_ref().map(|e| e.gas_transfer.name()));
+        Exchange, [Row, Row], |s| Reading::Text(s.exchange.as_ref().map(|e| e.gas_transfer.name()));
     K600 => "k600_cm_h", "k600", "cm/h", TransferVelocity,
         Exchange, [Row, Row], |s| ex(s, |e| e.k600_cm_h);
     KCo2 => "k_cm_h", "transfer velocity of CO2, k", "cm/h", TransferVelocity,
