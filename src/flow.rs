@@ -9,6 +9,7 @@
 //! ```
 
 use crate::base::error::Result;
+use crate::base::numeric::Tangent;
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
@@ -16,6 +17,7 @@ use crate::medium::fresh::FreshBasis;
 use crate::medium::{ConstantName, Constants};
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
+use crate::sample::inputs::Total;
 use crate::sample::measured::{Measured, Parameter};
 use crate::sample::trade::Sample;
 use crate::sample::water::{Medium, Water};
@@ -975,5 +977,75 @@ mod tests {
     fn a_prepared_water_can_be_shared_between_threads() {
         fn shareable<T: Send + Sync>() {}
         shareable::<PreparedWater>();
+    }
+}
+
+/// Where each source of a pass on [`Tangent`]s sits: its slot (its place
+/// in every number's derivatives), for the propagation of uncertainties
+/// ([`crate::decisions::uncertainty`]).
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct Seeds<const N: usize> {
+    /// The two measurements, as numbers in the unit of
+    /// [`Measured::number`], seeded where a measurement is a source.
+    pub a: Tangent<N>,
+    pub b: Tangent<N>,
+    /// Constants whose pK is a source (the total boron: log10 of its
+    /// factor), each with its slot.
+    pub constants: Vec<(ConstantName, usize)>,
+    /// Totals that are sources (µmol/kg), each with its slot.
+    pub totals: Vec<(Total, usize)>,
+    /// Two free slots for the unknowns h and DIC (they come back zero).
+    pub unknowns: (usize, usize),
+}
+
+impl PreparedWater {
+    /// The state `base` (a solve of the pair `a`, `b` in this water) on
+    /// [`Tangent`]s: the same numbers, each with its derivatives with
+    /// respect to the sources of `seeds` (forward-mode differentiation
+    /// through the constants and the state, and implicit differentiation
+    /// at the solver's root for h and DIC, [`crate::solve::tangent`]).
+    ///
+    /// `None` where this pass does not cover the water or a source yet:
+    /// fresh water (its fixed point of ionic strength and free calcium),
+    /// a total the water lacks, a singular root. The caller then takes
+    /// differences of full solves instead.
+    pub(crate) fn solve_tangent<const N: usize>(
+        &self,
+        base: &State,
+        a: &Measured,
+        b: &Measured,
+        seeds: &Seeds<N>,
+    ) -> Option<Result<State<Tangent<N>>>> {
+        let Prepared::Saline(k0) = &self.prepared else {
+            return None;
+        };
+        let mut k: Constants<Tangent<N>> = k0.lift();
+        for &(which, slot) in &seeds.constants {
+            if let Err(e) = k.pk_in_place(which, Tangent::source(0.0, slot)) {
+                return Some(Err(e));
+            }
+        }
+        for &(which, slot) in &seeds.totals {
+            if !k.shift_saline_total(which, Tangent::source(0.0, slot) * 1e-6) {
+                return None;
+            }
+        }
+        let (h, dic) = crate::solve::tangent::unknowns(
+            &k,
+            (base.h_mol_kg(), base.dic_mol_kg()),
+            (a, seeds.a),
+            (b, seeds.b),
+            seeds.unknowns,
+        )?;
+        Some(State::build_fresh_or_saline(
+            &self.water,
+            &k,
+            h,
+            dic,
+            Warnings::new(),
+            None,
+            a,
+            b,
+        ))
     }
 }

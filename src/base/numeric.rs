@@ -204,7 +204,10 @@ pub struct Tangent<const N: usize> {
 /// Zero, with every derivative zero.
 impl<const N: usize> Default for Tangent<N> {
     fn default() -> Self {
-        Tangent { v: 0.0, d: [0.0; N] }
+        Tangent {
+            v: 0.0,
+            d: [0.0; N],
+        }
     }
 }
 
@@ -450,25 +453,31 @@ mod tests {
             ("under", |x| x.under(3.0), |x| 3.0 / x),
             ("subtracted_from", |x| x.subtracted_from(3.0), |x| 3.0 - x),
             ("neg abs", |x| (-x).abs(), |x| (-x).abs()),
-            ("mixed", |x| x * x / (x + 1.0) - x * 0.5, |x| {
-                x * x / (x + 1.0) - x * 0.5
-            }),
+            (
+                "mixed",
+                |x| x * x / (x + 1.0) - x * 0.5,
+                |x| x * x / (x + 1.0) - x * 0.5,
+            ),
             ("div const", |x| x / 7.0, |x| x / 7.0),
-            ("assign", |x| {
-                let mut y = x;
-                y *= x;
-                y -= x;
-                y /= x + 2.0;
-                y += x;
-                y
-            }, |x| {
-                let mut y = x;
-                y *= x;
-                y -= x;
-                y /= x + 2.0;
-                y += x;
-                y
-            }),
+            (
+                "assign",
+                |x| {
+                    let mut y = x;
+                    y *= x;
+                    y -= x;
+                    y /= x + 2.0;
+                    y += x;
+                    y
+                },
+                |x| {
+                    let mut y = x;
+                    y *= x;
+                    y -= x;
+                    y /= x + 2.0;
+                    y += x;
+                    y
+                },
+            ),
         ];
         for (name, f, g) in cases {
             for x in [0.37, 1.3, 2.9, 7.5] {

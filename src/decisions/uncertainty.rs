@@ -54,8 +54,9 @@
 
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
+use crate::base::numeric::{Real, Tangent};
 use crate::base::units::Amount;
-use crate::flow::{PreparedWater, Scratch};
+use crate::flow::{PreparedWater, Scratch, Seeds};
 use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
@@ -1001,6 +1002,105 @@ impl Problem {
     }
 }
 
+impl Problem {
+    /// The columns of the sources this pass on tangents covers (see
+    /// [`propagate_quantities`]), filled in `contributions` (a row of
+    /// `sources.len()` per quantity of `base`); `true` for each column
+    /// filled. A column whose derivative is lost or not finite for a
+    /// quantity with a value is left to the differences.
+    fn tangent_columns<Q: Quantities>(
+        &self,
+        base_state: &State,
+        sources: &[(Source, f64, f64)],
+        quantities: &mut Q,
+        base: &[Option<f64>],
+        contributions: &mut [f64],
+    ) -> Vec<bool> {
+        let m = sources.len();
+        let mut done = vec![false; m];
+        if self.air.is_some()
+            || self.reported_at.is_some()
+            || self.prepared.water().medium() != Medium::Saline
+        {
+            return done;
+        }
+        // The sources this pass can seed, by their place in `sources`.
+        let covered: Vec<usize> = (0..m)
+            .filter(|&j| {
+                let source = sources[j].0;
+                !self.moves_nothing(source)
+                    && match source {
+                        Source::Input(Input::Carbon(p)) => {
+                            p == self.a.parameter() || p == self.b.parameter()
+                        }
+                        Source::Input(Input::Total(t)) => matches!(
+                            t,
+                            Total::Phosphate
+                                | Total::Silicate
+                                | Total::Ammonia
+                                | Total::Sulfide
+                                | Total::Calcium
+                        ),
+                        Source::Constant(_) => true,
+                        _ => false,
+                    }
+            })
+            .collect();
+        let per_pass = TANGENT_WIDTH - 2;
+        let mut out = Vec::with_capacity(base.len());
+        for chunk in covered.chunks(per_pass) {
+            let mut seeds = Seeds {
+                a: Tangent::constant(self.a.number()),
+                b: Tangent::constant(self.b.number()),
+                constants: Vec::new(),
+                totals: Vec::new(),
+                unknowns: (per_pass, per_pass + 1),
+            };
+            for (slot, &j) in chunk.iter().enumerate() {
+                match sources[j].0 {
+                    Source::Input(Input::Carbon(p)) if p == self.a.parameter() => {
+                        seeds.a = Tangent::source(self.a.number(), slot)
+                    }
+                    Source::Input(Input::Carbon(_)) => {
+                        seeds.b = Tangent::source(self.b.number(), slot)
+                    }
+                    Source::Input(Input::Total(t)) => seeds.totals.push((t, slot)),
+                    Source::Constant(k) => seeds.constants.push((k, slot)),
+                    Source::Input(_) => {}
+                }
+            }
+            let Some(Ok(state)) = self
+                .prepared
+                .solve_tangent(base_state, &self.a, &self.b, &seeds)
+            else {
+                continue;
+            };
+            out.clear();
+            if !quantities.read_tangent(&state, &mut out) || out.len() != base.len() {
+                continue;
+            }
+            for (slot, &j) in chunk.iter().enumerate() {
+                let ui = sources[j].1;
+                let column_ok = base.iter().zip(&out).all(|(y, t)| match (y, t) {
+                    (Some(_), Some(t)) => t.d[slot].is_finite(),
+                    (Some(_), None) => false,
+                    (None, _) => true,
+                });
+                if !column_ok {
+                    continue;
+                }
+                for ((row, y), t) in contributions.chunks_exact_mut(m).zip(base).zip(&out) {
+                    if let (Some(_), Some(t)) = (y, t) {
+                        row[j] = t.d[slot] * ui;
+                    }
+                }
+                done[j] = true;
+            }
+        }
+        done
+    }
+}
+
 /// A problem with its sources moved ([`Problem::shifted`]).
 struct Shifted {
     prepared: Option<PreparedWater>,
@@ -1241,25 +1341,115 @@ const STEP: f64 = 1e-6;
 /// As [`Problem::solve`] for the unperturbed state; an error of a source
 /// whose steps fail on both sides, or an input that is not part of the
 /// problem (a carbonate parameter not measured).
-pub fn propagate<F>(problem: &Problem, u: &Uncertainties, mut quantities: F) -> Result<Propagation>
+pub fn propagate<F>(problem: &Problem, u: &Uncertainties, quantities: F) -> Result<Propagation>
 where
     F: FnMut(&State, &mut Vec<Option<f64>>),
 {
+    propagate_quantities(problem, u, ByDifferences(quantities))
+}
+
+/// The number of derivatives a number of a pass on tangents carries: up to
+/// `TANGENT_WIDTH − 2` sources at once, and two slots for the solver's
+/// unknowns (see [`propagate_quantities`]).
+///
+/// ```
+/// assert_eq!(travertine::decisions::uncertainty::TANGENT_WIDTH, 16);
+/// ```
+pub const TANGENT_WIDTH: usize = 16;
+
+/// A number of a pass on tangents: a value and [`TANGENT_WIDTH`]
+/// derivatives.
+pub type Tangents = Tangent<TANGENT_WIDTH>;
+
+/// Quantities read from a state, for [`propagate_quantities`]: from a
+/// state of numbers, and (where the reader can) the same quantities, in
+/// the same order, from a state of [`Tangents`], whose derivatives are
+/// then the sensitivities.
+///
+/// ```
+/// use travertine::decisions::uncertainty::{Quantities, Tangents};
+/// use travertine::State;
+/// struct Pco2;
+/// impl Quantities for Pco2 {
+///     fn read(&mut self, s: &State, out: &mut Vec<Option<f64>>) {
+///         out.push(Some(s.pco2_uatm));
+///     }
+///     fn read_tangent(&mut self, s: &State<Tangents>, out: &mut Vec<Option<Tangents>>) -> bool {
+///         out.push(Some(s.pco2_uatm));
+///         true
+///     }
+/// }
+/// ```
+pub trait Quantities {
+    /// Appends the quantities of `state` to `out` (which is empty).
+    fn read(&mut self, state: &State, out: &mut Vec<Option<f64>>);
+    /// Appends the same quantities of a state of [`Tangents`] to `out`
+    /// (which is empty) and returns `true`; or returns `false` where the
+    /// quantities are read only from states of numbers, and the
+    /// derivatives are then differences of solves.
+    fn read_tangent(&mut self, state: &State<Tangents>, out: &mut Vec<Option<Tangents>>) -> bool;
+}
+
+/// Quantities given as a function of a state of numbers: their
+/// derivatives are differences of solves.
+struct ByDifferences<F>(F);
+
+impl<F: FnMut(&State, &mut Vec<Option<f64>>)> Quantities for ByDifferences<F> {
+    fn read(&mut self, state: &State, out: &mut Vec<Option<f64>>) {
+        (self.0)(state, out)
+    }
+    fn read_tangent(&mut self, _: &State<Tangents>, _: &mut Vec<Option<Tangents>>) -> bool {
+        false
+    }
+}
+
+/// As [`propagate`], for quantities that can also be read from a state of
+/// [`Tangents`] ([`Quantities`]): the sensitivities to the sources this
+/// pass covers are then exact derivatives rather than differences, from
+/// one state on tangents per `TANGENT_WIDTH − 2` sources. The constants
+/// and the state are computed on tangents (forward-mode differentiation,
+/// the chain rule at every operation, through the same generic code that
+/// computes them on numbers), and the derivatives of the solver's unknowns
+/// h and DIC come from implicit differentiation at its root
+/// ([`crate::solve`]'s `tangent` module): J (dh, dDIC) = −∂G/∂s, G the
+/// residuals of the two measurements.
+///
+/// Covered so far: saline water without air over it and reported at the
+/// conditions of its measurement; the two measurements, every constant
+/// and the measured totals (phosphate, silicate, ammonia, sulfide,
+/// calcium) as sources. Every other source, and every source in other
+/// problems, takes differences of solves as [`propagate`] does (the
+/// temperature and salinity until the published fits are generic).
+///
+/// # Errors
+/// As [`propagate`].
+pub fn propagate_quantities<Q: Quantities>(
+    problem: &Problem,
+    u: &Uncertainties,
+    mut quantities: Q,
+) -> Result<Propagation> {
     let base_state = problem.solve_numbers()?;
     let mut base = Vec::new();
-    quantities(&base_state, &mut base);
+    quantities.read(&base_state, &mut base);
     let sources = sources_of(problem, u)?;
     let (n, m) = (base.len(), sources.len());
     // A row of m contributions per quantity; source j fills column j.
     let mut contributions = vec![0.0; n * m];
     let mut lost = vec![false; n];
+    let done = problem.tangent_columns(
+        &base_state,
+        &sources,
+        &mut quantities,
+        &base,
+        &mut contributions,
+    );
     let near = base_state.near();
     // The scratch constants are copied at the first constant source; the
     // step down's buffer grows only where one is taken.
     let mut scratch = None;
     let (mut up, mut down) = (Vec::with_capacity(n), Vec::new());
     for (j, &(source, ui, scale)) in sources.iter().enumerate() {
-        if problem.moves_nothing(source) {
+        if done[j] || problem.moves_nothing(source) {
             continue;
         }
         let h = ui.min(STEP * scale);
@@ -1267,7 +1457,7 @@ where
             out.clear();
             problem
                 .realise_one(source, d, &base_state, &near, &mut scratch)
-                .map(|s| quantities(&s, out))
+                .map(|s| quantities.read(&s, out))
         };
         let up_solved = at_step(h, &mut up);
         // The usual case: the step up solved and kept every value, so the

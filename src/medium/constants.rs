@@ -246,6 +246,80 @@ pub(crate) struct Log10s<R: Real = f64> {
     pub ksp_aragonite: R,
 }
 
+/// `t` as numbers of another type, each a constant (no derivatives).
+pub(crate) fn lift_totals<S: Real>(t: &Totals) -> Totals<S> {
+    let c = S::constant;
+    Totals {
+        boron_mol_kg: c(t.boron_mol_kg),
+        sulfate_mol_kg: c(t.sulfate_mol_kg),
+        fluoride_mol_kg: c(t.fluoride_mol_kg),
+        phosphate_mol_kg: c(t.phosphate_mol_kg),
+        silicate_mol_kg: c(t.silicate_mol_kg),
+        ammonia_mol_kg: c(t.ammonia_mol_kg),
+        sulfide_mol_kg: c(t.sulfide_mol_kg),
+        calcium_mol_kg: c(t.calcium_mol_kg),
+        magnesium_mol_kg: c(t.magnesium_mol_kg),
+        sodium_mol_kg: c(t.sodium_mol_kg),
+        potassium_mol_kg: c(t.potassium_mol_kg),
+        chloride_mol_kg: c(t.chloride_mol_kg),
+        hardness_mol_kg: c(t.hardness_mol_kg),
+    }
+}
+
+impl Constants {
+    /// These constants as numbers of another type, each a constant (no
+    /// derivatives), without the warnings: the start of a pass on
+    /// [`Tangent`](crate::base::numeric::Tangent)s where the sources are
+    /// seeded afterwards.
+    pub(crate) fn lift<S: Real>(&self) -> Constants<S> {
+        let c = S::constant;
+        Constants {
+            conditions: self.conditions,
+            working_scale: self.working_scale,
+            at: self.at.map(c),
+            k0: c(self.k0),
+            k1: c(self.k1),
+            k2: c(self.k2),
+            kb: c(self.kb),
+            kw: c(self.kw),
+            kp1: c(self.kp1),
+            kp2: c(self.kp2),
+            kp3: c(self.kp3),
+            ksi: c(self.ksi),
+            knh4: c(self.knh4),
+            kh2s: c(self.kh2s),
+            ks_free: c(self.ks_free),
+            kf_free: c(self.kf_free),
+            k1e: c(self.k1e),
+            k2e: c(self.k2e),
+            pair_hco3: c(self.pair_hco3),
+            pair_co3: c(self.pair_co3),
+            calcium_free_mol_kg: c(self.calcium_free_mol_kg),
+            ionic_strength: c(self.ionic_strength),
+            ksp_calcite: c(self.ksp_calcite),
+            ksp_aragonite: c(self.ksp_aragonite),
+            totals: lift_totals(&self.totals),
+            free_per_working: c(self.free_per_working),
+            seawater_per_working: c(self.seawater_per_working),
+            total_per_working: c(self.total_per_working),
+            nbs_per_working: c(self.nbs_per_working),
+            fugacity_factor: c(self.fugacity_factor),
+            vapour_pressure_atm: c(self.vapour_pressure_atm),
+            density_kg_m3: c(self.density_kg_m3),
+            fits_used: self.fits_used,
+            warnings: Vec::new(),
+            gammas: self.gammas,
+            k_cahco3: c(self.k_cahco3),
+            k_caco3: c(self.k_caco3),
+            logs: self.logs.map(|l| Log10s {
+                per_working: l.per_working.map(c),
+                ksp_calcite: c(l.ksp_calcite),
+                ksp_aragonite: c(l.ksp_aragonite),
+            }),
+        }
+    }
+}
+
 impl<R: Real> Constants<R> {
     /// Sets the free calcium of fresh-water constants and what follows from
     /// it: the pair ratios and the pair-inclusive K1e, K2e (see

@@ -4,7 +4,9 @@
 use super::constants::{scale_factors, Constants, ScaleLink};
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use crate::properties::scales::PhScale;
+use crate::sample::inputs::Total;
 
 /// One constant of a [`Constants`] value, to perturb with
 /// [`Constants::with_pk`] or [`Constants::with_scaled`].
@@ -111,19 +113,19 @@ impl ConstantName {
     }
 }
 
-impl Constants {
+impl<R: Real> Constants<R> {
     /// How the NBS scale ties to the others in these constants, recovered
     /// rather than stored (a stored copy would be one more value to keep in
     /// step): γH from the activity coefficients in fresh water; in saline
     /// water fH as the ratio of the NBS and sea-water factors, which does not
     /// depend on KS or KF.
-    fn scale_link(&self) -> ScaleLink {
+    fn scale_link(&self) -> ScaleLink<R> {
         match (self.working_scale, self.gammas) {
             (PhScale::Nbs, Some(g)) => ScaleLink::Nbs {
-                gamma_h: g.hydrogen,
+                gamma_h: R::constant(g.hydrogen),
             },
             (PhScale::Nbs, None) => ScaleLink::Nbs {
-                gamma_h: 1.0 / self.free_per_working,
+                gamma_h: self.free_per_working.under(1.0),
             },
             _ => ScaleLink::Total {
                 fh: self.nbs_per_working / self.seawater_per_working,
@@ -184,7 +186,7 @@ impl Constants {
     /// assert!(k.with_scaled(ConstantName::K1, f64::NAN).is_err());
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn with_scaled(mut self, which: ConstantName, factor: f64) -> Result<Constants> {
+    pub fn with_scaled(mut self, which: ConstantName, factor: R) -> Result<Constants<R>> {
         self.scale_in_place(which, factor)?;
         Ok(self)
     }
@@ -193,20 +195,21 @@ impl Constants {
     /// uncertainties, which perturbs a scratch copy of the constants one
     /// constant at a time: see [`Constants::copy_numbers_from`]). On an
     /// error the constants may be left part-way and must be copied again.
-    pub(crate) fn scale_in_place(&mut self, which: ConstantName, factor: f64) -> Result<()> {
+    pub(crate) fn scale_in_place(&mut self, which: ConstantName, factor: R) -> Result<()> {
         use ConstantName as C;
-        if !factor.is_finite() {
+        if !factor.value().is_finite() {
             return Err(Error::NotFinite {
                 field: Field::Factor,
-                value: factor,
+                value: factor.value(),
             });
         }
-        if factor <= 0.0 {
+        if factor.value() <= 0.0 {
             return Err(Error::Computation {
                 field: Field::Constant,
                 reason: format!(
-                    "{} can only be scaled by a positive factor, not {factor}",
-                    which.name()
+                    "{} can only be scaled by a positive factor, not {}",
+                    which.name(),
+                    factor.value()
                 ),
             });
         }
@@ -232,20 +235,21 @@ impl Constants {
         };
         let before = *slot;
         let after = before * factor;
-        if !after.is_finite() {
+        let (f, a) = (factor.value(), after.value());
+        if !a.is_finite() {
             return Err(Error::Computation {
                 field: Field::Constant,
-                reason: format!("{} scaled by {factor} would be {after}", which.name()),
+                reason: format!("{} scaled by {f} would be {a}", which.name()),
             });
         }
-        if before > 0.0 && after <= 0.0 {
+        if before.value() > 0.0 && a <= 0.0 {
             return Err(Error::Computation {
                 field: Field::Constant,
-                reason: format!("{} scaled by {factor} would be zero", which.name()),
+                reason: format!("{} scaled by {f} would be zero", which.name()),
             });
         }
         *slot = after;
-        let log10 = crate::base::numeric::log10;
+        let log10 = |x: R| x.log10_via_ln();
         match which {
             C::K1 | C::K2 | C::CaHco3Pair | C::CaCo3Pair => {
                 self.set_free_calcium(self.calcium_free_mol_kg)
@@ -284,25 +288,55 @@ impl Constants {
     /// assert_eq!(p.k1e(), p.k1()); // no calcium pairs in saline water
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Constants> {
+    pub fn with_pk(mut self, which: ConstantName, delta_pk: R) -> Result<Constants<R>> {
         self.pk_in_place(which, delta_pk)?;
         Ok(self)
     }
 
     /// [`Constants::with_pk`] in place, as [`Constants::scale_in_place`].
-    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: f64) -> Result<()> {
-        if !delta_pk.is_finite() {
+    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: R) -> Result<()> {
+        if !delta_pk.value().is_finite() {
             return Err(Error::NotFinite {
                 field: Field::DeltaPk,
-                value: delta_pk,
+                value: delta_pk.value(),
             });
         }
-        self.scale_in_place(which, crate::base::numeric::pow10(-delta_pk))
+        self.scale_in_place(which, (-delta_pk).pow10())
+    }
+
+    /// Saline constants with total `which` raised by `by_mol_kg`, and what
+    /// follows from it (calcium: the free calcium of Ω, which is the total
+    /// in saline water), for a total the water has (above zero: the
+    /// constants of its system were evaluated) and that no other constant
+    /// follows: phosphate, silicate, ammonia, sulfide or calcium. `false`
+    /// (and nothing changed) otherwise, and in fresh water, whose totals
+    /// move the ionic strength and the ion pairs of the fixed point.
+    pub(crate) fn shift_saline_total(&mut self, which: Total, by_mol_kg: R) -> bool {
+        if self.working_scale != PhScale::Total {
+            return false;
+        }
+        let t = &mut self.totals;
+        let slot = match which {
+            Total::Phosphate => &mut t.phosphate_mol_kg,
+            Total::Silicate => &mut t.silicate_mol_kg,
+            Total::Ammonia => &mut t.ammonia_mol_kg,
+            Total::Sulfide => &mut t.sulfide_mol_kg,
+            Total::Calcium => &mut t.calcium_mol_kg,
+            _ => return false,
+        };
+        if slot.value() <= 0.0 {
+            return false;
+        }
+        *slot += by_mol_kg;
+        if which == Total::Calcium {
+            self.calcium_free_mol_kg = self.totals.calcium_mol_kg;
+        }
+        true
     }
 
     /// Every value of `other` but its warnings, which are left empty: the
     /// copy a perturbation in place starts from again, without allocating.
-    pub(crate) fn copy_numbers_from(&mut self, other: &Constants) {
+    pub(crate) fn copy_numbers_from(&mut self, other: &Constants<R>) {
         *self = Constants {
             warnings: Vec::new(),
             ..*other
@@ -325,10 +359,12 @@ impl Constants {
         });
         let bad = positive
             .iter()
-            .copied()
+            .map(|v| v.value())
             .find(|v| !(v.is_finite() && *v > 0.0))
-            .or_else(|| finite.iter().copied().find(|v| !v.is_finite()))
-            .or_else(|| logs.and_then(|l| l.into_iter().find(|v| !v.is_finite())));
+            .or_else(|| finite.iter().map(|v| v.value()).find(|v| !v.is_finite()))
+            .or_else(|| {
+                logs.and_then(|l| l.into_iter().map(|v| v.value()).find(|v| !v.is_finite()))
+            });
         match bad {
             None => Ok(()),
             Some(value) => Err(Error::Computation {

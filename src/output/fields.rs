@@ -32,9 +32,9 @@
 //! ```
 
 use super::digits::Digits;
+use crate::base::numeric::Real;
 use crate::base::units::{CACO3_G_MOL, CO3_G_MOL, HCO3_G_MOL};
 use crate::sample::water::Medium;
-use crate::base::numeric::Real;
 use crate::state::{Exchange, State};
 use serde::{Serialize, Serializer};
 

@@ -4,8 +4,10 @@
 
 use super::fields::{Output, Value};
 use crate::base::error::Result;
+use crate::base::numeric::Real;
 use crate::decisions::uncertainty::{
-    monte_carlo, propagate, MonteCarlo, Problem, Propagation, Uncertainties,
+    monte_carlo, propagate_quantities, MonteCarlo, Problem, Propagation, Quantities, Tangents,
+    Uncertainties,
 };
 use crate::state::State;
 
@@ -60,9 +62,40 @@ fn numeric_list() -> &'static [Output] {
 /// assert_eq!(out, vec![Some(s.pco2_uatm), None]);
 /// # Ok::<(), travertine::Error>(())
 /// ```
-pub fn values_into(outputs: &[Output], state: &State, out: &mut Vec<Option<f64>>) {
+pub fn values_into<R: Real>(outputs: &[Output], state: &State<R>, out: &mut Vec<Option<R>>) {
     let all = Output::numbers(state);
     out.extend(outputs.iter().map(|o| all[o.index()]));
+}
+
+/// Outputs of the list as the quantities of a propagation
+/// ([`propagate_quantities`]): read by [`values_into`] from a state of
+/// numbers or of [`Tangents`], so that their sensitivities are exact
+/// derivatives wherever the pass on tangents covers the problem.
+///
+/// ```
+/// use travertine::decisions::uncertainty::{propagate_quantities, Problem, Size, Uncertainties};
+/// use travertine::output::{uncertainty::OutputQuantities, Output};
+/// use travertine::sample::inputs::Input;
+/// use travertine::{Conditions, Measured, Parameter, PhScale, Water};
+/// let sea = Water::saline(Conditions::new(25.0, 35.0)?)?;
+/// let p = Problem::new(&sea, Measured::ph(8.0, Some(PhScale::Total))?, Measured::dic_umol_kg(2000.0)?)?;
+/// let u = Uncertainties::new().with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))?;
+/// let r = propagate_quantities(&p, &u, OutputQuantities(&[Output::Pco2]))?;
+/// // pCO2 ∝ [H+] at fixed DIC to first order only partly; its u is about 2 % here.
+/// assert!(r.outputs[0].u.unwrap() > 0.01 * r.outputs[0].value.unwrap());
+/// # Ok::<(), travertine::Error>(())
+/// ```
+#[derive(Debug, Clone, Copy)]
+pub struct OutputQuantities<'a>(pub &'a [Output]);
+
+impl Quantities for OutputQuantities<'_> {
+    fn read(&mut self, state: &State, out: &mut Vec<Option<f64>>) {
+        values_into(self.0, state, out)
+    }
+    fn read_tangent(&mut self, state: &State<Tangents>, out: &mut Vec<Option<Tangents>>) -> bool {
+        values_into(self.0, state, out);
+        true
+    }
 }
 
 /// The standard uncertainty and budget of every numeric output: the
@@ -91,7 +124,7 @@ pub fn outputs_propagated(
     u: &Uncertainties,
 ) -> Result<(Vec<Output>, Propagation)> {
     let outputs = numeric_outputs();
-    let result = propagate(problem, u, |s, out| values_into(&outputs, s, out))?;
+    let result = propagate_quantities(problem, u, OutputQuantities(&outputs))?;
     Ok((outputs, result))
 }
 

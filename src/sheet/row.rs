@@ -850,7 +850,7 @@ fn uncertainty_row(
     state: &State,
     s: &mut Scratch,
 ) {
-    use crate::decisions::uncertainty::{propagate, Problem, Uncertainties};
+    use crate::decisions::uncertainty::{propagate_quantities, Problem, Uncertainties};
     use crate::decisions::uncertainty_settings::{with_settings, Target};
     let mut settings: Vec<Setting> = up.settings.clone();
     for u in &up.columns {
@@ -932,9 +932,11 @@ fn uncertainty_row(
         problem
     };
     let outputs: Vec<Output> = up.outputs.iter().map(|&i| plan.computed[i]).collect();
-    let result = propagate(&problem, &u, |st, out| {
-        crate::output::uncertainty::values_into(&outputs, st, out)
-    });
+    let result = propagate_quantities(
+        &problem,
+        &u,
+        crate::output::uncertainty::OutputQuantities(&outputs),
+    );
     match result {
         Ok(p) => {
             for (slot, (o, r)) in s.uncertain.iter_mut().zip(outputs.iter().zip(&p.outputs)) {

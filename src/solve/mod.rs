@@ -17,6 +17,7 @@
 
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use crate::base::root::{monotone_newton, Failure, Search};
 use crate::base::warning::{Warning, Warnings};
 use crate::medium::Constants;
@@ -26,6 +27,7 @@ use crate::speciation::alkalinity::{carbonate_per_dic, non_carbonate};
 
 pub(crate) mod converge;
 pub(crate) mod fixed_point;
+pub(crate) mod tangent;
 mod two_roots;
 
 #[cfg(test)]
@@ -268,15 +270,15 @@ pub(crate) fn to_working(k: &Constants, m: &Measured, warnings: &mut Warnings) -
 
 /// DIC / CO2*, DIC / HCO3-, DIC / CO3-- at h.
 #[inline]
-fn dic_per_co2(k: &Constants, h: f64) -> f64 {
-    1.0 + k.k1e() / h + k.k1e() * k.k2e() / (h * h)
+fn dic_per_co2<R: Real>(k: &Constants<R>, h: R) -> R {
+    k.k1e() / h + 1.0 + k.k1e() * k.k2e() / (h * h)
 }
 #[inline]
-fn dic_per_hco3(k: &Constants, h: f64) -> f64 {
+fn dic_per_hco3<R: Real>(k: &Constants<R>, h: R) -> R {
     h / k.k1e() + 1.0 + k.k2e() / h
 }
 #[inline]
-fn dic_per_co3(k: &Constants, h: f64) -> f64 {
+fn dic_per_co3<R: Real>(k: &Constants<R>, h: R) -> R {
     h * h / (k.k1e() * k.k2e()) + h / k.k2e() + 1.0
 }
 

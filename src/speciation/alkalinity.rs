@@ -161,7 +161,11 @@ pub(crate) struct PartsWithSlopes<R: Real = f64> {
 
 /// [`PartsWithSlopes`] at h and DIC (mol/kg).
 #[inline]
-pub(crate) fn parts_with_slopes<R: Real>(k: &Constants<R>, h: R, dic_mol_kg: R) -> PartsWithSlopes<R> {
+pub(crate) fn parts_with_slopes<R: Real>(
+    k: &Constants<R>,
+    h: R,
+    dic_mol_kg: R,
+) -> PartsWithSlopes<R> {
     let (c, dc) = carbonate_per_dic(k, h);
     let (mut parts, dn) = non_carbonate_parts(k, h);
     parts.carbonate = dic_mol_kg * c;

@@ -1,8 +1,8 @@
 //! The complete carbonate state of a sample.
 
 use crate::base::error::Result;
-use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL, H2S_G_MOL, NH3_G_MOL, N_G_MOL};
 use crate::base::numeric::Real;
+use crate::base::units::{CACO3_G_EQ, CO2_G_MOL, C_G_MOL, H2S_G_MOL, NH3_G_MOL, N_G_MOL};
 use crate::base::warning::Warnings;
 use crate::fits::FitsUsed;
 use crate::medium::Constants;
@@ -170,6 +170,8 @@ pub struct State<R: Real = f64> {
     pub warnings: Warnings,
     water_sample: Water,
     h: R,
+    /// DIC as solved, mol/kg (`dic_umol_kg` is this times 10⁶).
+    dic: R,
     // issue 11: toxic fractions
     /// Un-ionised fraction of the total ammonia, \[NH3\]/(\[NH3\] + [NH4+])
     /// (`None` where no ammonia was given, or zero).
@@ -300,6 +302,11 @@ impl State {
         }
     }
 
+    /// DIC as solved, mol/kg.
+    pub(crate) fn dic_mol_kg(&self) -> f64 {
+        self.dic
+    }
+
     /// The unknowns of this state, from which the solve of a water very
     /// near it may start ([`crate::solve::Near`]).
     pub(crate) fn near(&self) -> crate::solve::Near {
@@ -421,7 +428,6 @@ impl State {
     ) -> Result<State> {
         Self::build_fresh_or_saline(water, k, h, dic, Warnings::new(), figures, a, b)
     }
-
 }
 
 impl<R: Real> State<R> {
@@ -539,6 +545,7 @@ impl<R: Real> State<R> {
             warnings,
             water_sample: water.clone(),
             h,
+            dic,
             nh3_fraction: ammonia.map(|(f, _)| f),
             nh3_mg_l_n: ammonia.map(|(_, c)| c * rho * N_G_MOL),
             nh3_mg_l: ammonia.map(|(_, c)| c * rho * NH3_G_MOL),

@@ -1,0 +1,203 @@
+//! The pass on tangents (forward-mode derivatives through the constants
+//! and the state, implicit differentiation at the solver's root) against
+//! the differences of full solves, on every numeric output, and against
+//! sensitivities known exactly.
+
+use travertine::decisions::uncertainty::{
+    propagate, propagate_quantities, Problem, Size, Uncertainties,
+};
+use travertine::medium::ConstantName;
+use travertine::output::uncertainty::{numeric_outputs, values_into, OutputQuantities};
+use travertine::output::Output;
+use travertine::sample::inputs::{Input, Total};
+use travertine::units::Amount;
+use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
+
+/// Every numeric output's contributions by the pass on tangents and by
+/// differences, for `problem` and `u`: they agree to the truncation of the
+/// differences (a step of 10⁻⁶ of the source's scale; DEVELOPERS.md,
+/// "Uncertainty"), here 2·10⁻⁵ of the output's u plus 10⁻¹² of its value.
+/// Returns how many contributions were compared.
+fn agree(problem: &Problem, u: &Uncertainties, what: &str) -> usize {
+    let outputs = numeric_outputs();
+    let by_tangents = propagate_quantities(problem, u, OutputQuantities(&outputs)).unwrap();
+    let by_differences = propagate(problem, u, |s, out| values_into(&outputs, s, out)).unwrap();
+    assert_eq!(by_tangents.sources, by_differences.sources);
+    let mut compared = 0;
+    for (k, o) in outputs.iter().enumerate() {
+        let (t, d) = (&by_tangents.outputs[k], &by_differences.outputs[k]);
+        assert_eq!(t.value, d.value, "{what}: {}", o.key());
+        let (Some(ut), Some(ud)) = (t.u, d.u) else {
+            assert_eq!(t.u.is_some(), d.u.is_some(), "{what}: {}", o.key());
+            continue;
+        };
+        let scale = ud.max(ut);
+        let floor = 1e-12 * t.value.unwrap_or(0.0).abs();
+        for (j, (ct, cd)) in by_tangents
+            .contributions(k)
+            .iter()
+            .zip(by_differences.contributions(k))
+            .enumerate()
+        {
+            assert!(
+                (ct - cd).abs() <= 2e-5 * scale + floor,
+                "{what}: {} from {}: tangent {ct:e}, differences {cd:e} (u {scale:e})",
+                o.key(),
+                by_tangents.sources[j].0.name()
+            );
+            compared += 1;
+        }
+    }
+    compared
+}
+
+fn sea(t: f64, s: f64, p_dbar: f64) -> Water {
+    Water::saline(
+        Conditions::new(t, s)
+            .and_then(|c| c.with_pressure_dbar(p_dbar))
+            .unwrap(),
+    )
+    .unwrap()
+}
+
+#[test]
+fn tangents_agree_with_differences_in_sea_water() {
+    let ph = |v| Measured::ph(v, Some(PhScale::Total)).unwrap();
+    let ph_nbs = |v| Measured::ph(v, Some(PhScale::Nbs)).unwrap();
+    let ta = |v| Measured::alkalinity_umol_kg(v).unwrap();
+    let ta_l = |v| Measured::alkalinity(v, travertine::units::Unit::UmolPerL).unwrap();
+    let dic = |v| Measured::dic_umol_kg(v).unwrap();
+    let pco2 = |v| Measured::pco2_uatm(v).unwrap();
+    let fco2 = |v| Measured::fco2_uatm(v).unwrap();
+    let xco2 = |v| Measured::xco2_ppm(v).unwrap();
+    let co3 = |v| Measured::co3_umol_kg(v).unwrap();
+    let hco3 = |v| Measured::hco3_umol_kg(v).unwrap();
+    let co2 = |v| Measured::co2_umol_kg(v).unwrap();
+    let nutrients = sea(12.0, 33.0, 0.0).with_composition(
+        Composition::default()
+            .with_phosphate(Amount::PerKg(2e-6))
+            .and_then(|c| c.with_silicate(Amount::PerKg(30e-6)))
+            .and_then(|c| c.with_ammonia(Amount::PerKg(5e-6)))
+            .and_then(|c| c.with_sulfide(Amount::PerKg(1e-6)))
+            .and_then(|c| c.with_calcium(Amount::PerKg(10.2e-3)))
+            .unwrap(),
+    );
+    let cases: Vec<(&str, Water, Measured, Measured)> = vec![
+        ("pH + TA", sea(25.0, 35.0, 0.0), ph(8.05), ta(2300.0)),
+        ("TA + DIC", sea(25.0, 35.0, 0.0), ta(2300.0), dic(2000.0)),
+        (
+            "DIC + pH, deep",
+            sea(2.0, 34.7, 3000.0),
+            dic(2250.0),
+            ph(7.75),
+        ),
+        ("pCO2 + TA", sea(18.0, 36.0, 0.0), pco2(420.0), ta(2350.0)),
+        ("fCO2 + DIC", sea(10.0, 30.0, 0.0), fco2(380.0), dic(2050.0)),
+        (
+            "xCO2 + pH NBS",
+            sea(28.0, 20.0, 0.0),
+            xco2(600.0),
+            ph_nbs(8.1),
+        ),
+        ("CO3 + TA", sea(25.0, 35.0, 0.0), co3(220.0), ta(2300.0)),
+        ("HCO3 + CO2", sea(15.0, 35.0, 0.0), hco3(1800.0), co2(15.0)),
+        (
+            "TA per litre + DIC",
+            sea(20.0, 35.0, 0.0),
+            ta_l(2350.0),
+            dic(2050.0),
+        ),
+        ("nutrients, pH + TA", nutrients, ph(7.9), ta(2250.0)),
+    ];
+    let mut compared = 0;
+    for (what, water, a, b) in cases {
+        let problem = Problem::new(&water, a, b).unwrap();
+        let u = Uncertainties::new()
+            .with_input(Input::Carbon(a.parameter()), Size::Percent(0.5))
+            .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Percent(0.3)))
+            .and_then(|u| u.with_constant(ConstantName::Ks, Size::Absolute(0.02)))
+            .and_then(|u| u.with_constant(ConstantName::Kf, Size::Absolute(0.05)))
+            .and_then(|u| u.with_constant(ConstantName::Kp2, Size::Absolute(0.02)))
+            .and_then(|u| u.with_constant(ConstantName::Knh4, Size::Absolute(0.02)))
+            .and_then(|u| u.with_input(Input::Total(Total::Calcium), Size::Percent(1.0)))
+            .and_then(|u| u.with_input(Input::Total(Total::Silicate), Size::Percent(5.0)))
+            .unwrap();
+        // The totals a water lacks refuse their uncertainty; drop them there.
+        let u = match propagate(&problem, &u, |s, out| out.push(Some(s.ph_total))) {
+            Ok(_) => u,
+            Err(_) => Uncertainties::new()
+                .with_input(Input::Carbon(a.parameter()), Size::Percent(0.5))
+                .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Percent(0.3)))
+                .and_then(|u| u.with_input(Input::Total(Total::Calcium), Size::Percent(1.0)))
+                .unwrap(),
+        };
+        compared += agree(&problem, &u, what);
+    }
+    assert!(compared > 5000, "{compared} contributions compared");
+}
+
+/// From pH and HCO3⁻, pCO2 ∝ [H⁺][HCO3⁻]/K1 (the definition of K1), so
+/// u(pH) = 0.01 alone gives a relative u(pCO2) of ln(10) · 0.01 exactly to
+/// first order, and u(pK1) = 0.01 the same. Exact derivatives give it to
+/// rounding (differences of solves only to about 10⁻⁶).
+#[test]
+fn exact_sensitivities_come_out_to_rounding() {
+    let water = sea(20.0, 35.0, 0.0);
+    let problem = Problem::new(
+        &water,
+        Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+        Measured::hco3_umol_kg(1800.0).unwrap(),
+    )
+    .unwrap();
+    for u in [
+        Uncertainties::new()
+            .without_constants()
+            .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+            .unwrap(),
+        Uncertainties::new()
+            .without_constants()
+            .with_constant(ConstantName::K1, Size::Absolute(0.01))
+            .unwrap(),
+    ] {
+        let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Pco2])).unwrap();
+        let relative = r.outputs[0].u.unwrap() / r.outputs[0].value.unwrap();
+        let exact = std::f64::consts::LN_10 * 0.01;
+        assert!(
+            (relative / exact - 1.0).abs() < 1e-12,
+            "{relative} against {exact}"
+        );
+    }
+}
+
+/// An output that the sources do not move has exactly zero uncertainty
+/// (DIC measured, only the pH uncertain), and zero uncertainties give
+/// exactly zero.
+#[test]
+fn zeros_stay_exact_on_tangents() {
+    let water = sea(25.0, 35.0, 0.0);
+    let problem = Problem::new(
+        &water,
+        Measured::dic_umol_kg(2000.0).unwrap(),
+        Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+    )
+    .unwrap();
+    let u = Uncertainties::new()
+        .without_constants()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .unwrap();
+    let outputs = numeric_outputs();
+    let r = propagate_quantities(&problem, &u, OutputQuantities(&outputs)).unwrap();
+    let at = |o: Output| r.outputs[outputs.iter().position(|x| *x == o).unwrap()].u;
+    assert_eq!(at(Output::DicUmolKg), Some(0.0));
+    assert_eq!(at(Output::BoronTotal), Some(0.0));
+    let none = propagate_quantities(
+        &problem,
+        &Uncertainties::new().without_constants(),
+        OutputQuantities(&outputs),
+    )
+    .unwrap();
+    assert!(none
+        .outputs
+        .iter()
+        .all(|p| p.u.is_none() || p.u == Some(0.0)));
+}
