@@ -1047,7 +1047,6 @@ impl Problem {
             })
             .collect();
         let per_pass = TANGENT_WIDTH - 2;
-        let mut out = Vec::with_capacity(base.len());
         for chunk in covered.chunks(per_pass) {
             let mut seeds = Seeds {
                 a: Tangent::constant(self.a.number()),
@@ -1069,32 +1068,71 @@ impl Problem {
                     Source::Input(_) => {}
                 }
             }
-            let Some(Ok(state)) = self
+            // Borrowed where it lies: a state on tangents is a large value.
+            let solved = self
                 .prepared
-                .solve_tangent(base_state, &self.a, &self.b, &seeds)
-            else {
+                .solve_tangent(base_state, &self.a, &self.b, &seeds);
+            let Some(Ok(state)) = &solved else {
                 continue;
             };
-            out.clear();
-            if !quantities.read_tangent(&state, &mut out) || out.len() != base.len() {
-                continue;
+            // Row by row, as the reader gives each quantity (its
+            // derivatives lie together); a column lost or not finite for a
+            // quantity with a value is left to the differences.
+            let mut bad = [false; TANGENT_WIDTH];
+            let mut us = [0.0; TANGENT_WIDTH];
+            for (u, &j) in us.iter_mut().zip(chunk) {
+                *u = sources[j].1;
             }
-            for (slot, &j) in chunk.iter().enumerate() {
-                let ui = sources[j].1;
-                let column_ok = base.iter().zip(&out).all(|(y, t)| match (y, t) {
-                    (Some(_), Some(t)) => t.d[slot].is_finite(),
-                    (Some(_), None) => false,
-                    (None, _) => true,
-                });
-                if !column_ok {
-                    continue;
+            let width = chunk.len();
+            // The usual case: the chunk's columns are side by side.
+            let first = chunk.first().copied().unwrap_or(0);
+            let side_by_side = chunk.iter().enumerate().all(|(i, &j)| j == first + i);
+            let mut k = 0;
+            let read = quantities.read_tangent(state, &mut |t| {
+                let (Some(Some(_)), Some(row)) =
+                    (base.get(k), contributions.get_mut(k * m..(k + 1) * m))
+                else {
+                    k += 1;
+                    return;
+                };
+                k += 1;
+                let Some(t) = t else {
+                    bad.fill(true);
+                    return;
+                };
+                let mut c = [0.0; TANGENT_WIDTH];
+                for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
+                    *c = d * u;
                 }
-                for ((row, y), t) in contributions.chunks_exact_mut(m).zip(base).zip(&out) {
-                    if let (Some(_), Some(t)) = (y, t) {
-                        row[j] = t.d[slot] * ui;
+                // Zero unless one is infinite or not a number.
+                let probe: f64 = c.iter().map(|x| x * 0.0).sum();
+                if probe != 0.0 || probe.is_nan() {
+                    for (b, c) in bad.iter_mut().zip(&c) {
+                        *b |= !c.is_finite();
                     }
                 }
-                done[j] = true;
+                match row.get_mut(first..first + width) {
+                    Some(cols) if side_by_side => cols.copy_from_slice(&c[..width]),
+                    _ => {
+                        for (&j, c) in chunk.iter().zip(&c) {
+                            if let Some(x) = row.get_mut(j) {
+                                *x = *c;
+                            }
+                        }
+                    }
+                }
+            });
+            if !read || k != base.len() {
+                bad.fill(true);
+            }
+            for (slot, &j) in chunk.iter().enumerate() {
+                if bad[slot] {
+                    for row in contributions.chunks_exact_mut(m) {
+                        row[j] = 0.0;
+                    }
+                } else {
+                    done[j] = true;
+                }
             }
         }
         done
@@ -1374,8 +1412,12 @@ pub type Tangents = Tangent<TANGENT_WIDTH>;
 ///     fn read(&mut self, s: &State, out: &mut Vec<Option<f64>>) {
 ///         out.push(Some(s.pco2_uatm));
 ///     }
-///     fn read_tangent(&mut self, s: &State<Tangents>, out: &mut Vec<Option<Tangents>>) -> bool {
-///         out.push(Some(s.pco2_uatm));
+///     fn read_tangent(
+///         &mut self,
+///         s: &State<Tangents>,
+///         each: &mut dyn FnMut(Option<&Tangents>),
+///     ) -> bool {
+///         each(Some(&s.pco2_uatm));
 ///         true
 ///     }
 /// }
@@ -1383,11 +1425,17 @@ pub type Tangents = Tangent<TANGENT_WIDTH>;
 pub trait Quantities {
     /// Appends the quantities of `state` to `out` (which is empty).
     fn read(&mut self, state: &State, out: &mut Vec<Option<f64>>);
-    /// Appends the same quantities of a state of [`Tangents`] to `out`
-    /// (which is empty) and returns `true`; or returns `false` where the
-    /// quantities are read only from states of numbers, and the
-    /// derivatives are then differences of solves.
-    fn read_tangent(&mut self, state: &State<Tangents>, out: &mut Vec<Option<Tangents>>) -> bool;
+    /// Gives `each` the same quantities of a state of [`Tangents`], one at
+    /// a time in the same order (`None` where the state has none), and
+    /// returns `true`; or returns `false` where the quantities are read
+    /// only from states of numbers, and the derivatives are then
+    /// differences of solves. (One at a time, by reference: a number on
+    /// tangents is a large value to copy.)
+    fn read_tangent(
+        &mut self,
+        state: &State<Tangents>,
+        each: &mut dyn FnMut(Option<&Tangents>),
+    ) -> bool;
 }
 
 /// Quantities given as a function of a state of numbers: their
@@ -1398,7 +1446,7 @@ impl<F: FnMut(&State, &mut Vec<Option<f64>>)> Quantities for ByDifferences<F> {
     fn read(&mut self, state: &State, out: &mut Vec<Option<f64>>) {
         (self.0)(state, out)
     }
-    fn read_tangent(&mut self, _: &State<Tangents>, _: &mut Vec<Option<Tangents>>) -> bool {
+    fn read_tangent(&mut self, _: &State<Tangents>, _: &mut dyn FnMut(Option<&Tangents>)) -> bool {
         false
     }
 }
@@ -1429,7 +1477,8 @@ pub fn propagate_quantities<Q: Quantities>(
     mut quantities: Q,
 ) -> Result<Propagation> {
     let base_state = problem.solve_numbers()?;
-    let mut base = Vec::new();
+    // Room for every output of the list, without growing on the way.
+    let mut base = Vec::with_capacity(128);
     quantities.read(&base_state, &mut base);
     let sources = sources_of(problem, u)?;
     let (n, m) = (base.len(), sources.len());

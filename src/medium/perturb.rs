@@ -346,25 +346,35 @@ impl<R: Real> Constants<R> {
     /// Refuses constants whose derived values a perturbation of `which`
     /// took out of range (a K1e that overflows, a scale factor of zero).
     fn check_derived(&self, which: ConstantName) -> Result<()> {
+        // Values only: a copy of the numbers would carry their derivatives.
         let positive = [
-            self.free_per_working,
-            self.seawater_per_working,
-            self.total_per_working,
-            self.nbs_per_working,
+            self.free_per_working.value(),
+            self.seawater_per_working.value(),
+            self.total_per_working.value(),
+            self.nbs_per_working.value(),
         ];
-        let finite = [self.k1e, self.k2e, self.pair_hco3, self.pair_co3];
-        let logs = self.logs.map(|l| {
-            let [a, b, c, d] = l.per_working;
-            [a, b, c, d, l.ksp_calcite, l.ksp_aragonite]
+        let finite = [
+            self.k1e.value(),
+            self.k2e.value(),
+            self.pair_hco3.value(),
+            self.pair_co3.value(),
+        ];
+        let logs = self.logs.as_ref().map(|l| {
+            let v = |x: &R| x.value();
+            [
+                v(&l.per_working[0]),
+                v(&l.per_working[1]),
+                v(&l.per_working[2]),
+                v(&l.per_working[3]),
+                v(&l.ksp_calcite),
+                v(&l.ksp_aragonite),
+            ]
         });
         let bad = positive
-            .iter()
-            .map(|v| v.value())
+            .into_iter()
             .find(|v| !(v.is_finite() && *v > 0.0))
-            .or_else(|| finite.iter().map(|v| v.value()).find(|v| !v.is_finite()))
-            .or_else(|| {
-                logs.and_then(|l| l.into_iter().map(|v| v.value()).find(|v| !v.is_finite()))
-            });
+            .or_else(|| finite.into_iter().find(|v| !v.is_finite()))
+            .or_else(|| logs.and_then(|l| l.into_iter().find(|v| !v.is_finite())));
         match bad {
             None => Ok(()),
             Some(value) => Err(Error::Computation {

@@ -425,6 +425,32 @@ macro_rules! outputs {
                 }, )* ]
             }
 
+            /// Its number in a state of any [`Real`] (`None` where the
+            /// state has none, and for a name): one output, where
+            /// [`Output::numbers`] reads them all.
+            ///
+            /// ```
+            /// use travertine::output::Output;
+            /// use travertine::{Conditions, Measured, Water};
+            /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+            ///     .solve(Measured::alkalinity_umol_kg(2300.0)?, Measured::dic_umol_kg(2000.0)?)?;
+            /// assert_eq!(Output::Pco2.number(&s), Some(s.pco2_uatm));
+            /// assert_eq!(Output::Water.number(&s), None);
+            /// # Ok::<(), travertine::Error>(())
+            /// ```
+            #[inline]
+            pub fn number<R: Real>(self, state: &State<R>) -> Option<R> {
+                match self {
+                    $( Output::$variant => {
+                        let $s = state;
+                        match $value {
+                            Reading::Number(v) => v,
+                            Reading::Text(_) => None,
+                        }
+                    } )*
+                }
+            }
+
             /// The key: the JSON key and the sheet's column name, snake_case.
             ///
             /// ```

@@ -92,8 +92,14 @@ impl Quantities for OutputQuantities<'_> {
     fn read(&mut self, state: &State, out: &mut Vec<Option<f64>>) {
         values_into(self.0, state, out)
     }
-    fn read_tangent(&mut self, state: &State<Tangents>, out: &mut Vec<Option<Tangents>>) -> bool {
-        values_into(self.0, state, out);
+    fn read_tangent(
+        &mut self,
+        state: &State<Tangents>,
+        each: &mut dyn FnMut(Option<&Tangents>),
+    ) -> bool {
+        for o in self.0 {
+            each(o.number(state).as_ref());
+        }
         true
     }
 }
