@@ -109,7 +109,10 @@ pub trait Real:
     fn pow10(self) -> Self;
     /// xᵖ for a constant p; d xᵖ = p xᵖ⁻¹ dx.
     fn powf(self, p: f64) -> Self;
-    /// Square root; d √x = dx / (2 √x).
+    /// Square root; d √x = dx / (2 √x). At x = 0 a source that does not
+    /// move x does not move √x (a slope of 0, not 0 · ∞): a sea-water fit
+    /// evaluated at a constant salinity of 0 keeps finite temperature
+    /// slopes.
     fn sqrt(self) -> Self;
     /// Absolute value; its derivative is the sign of the value times dx
     /// (that of the positive branch at 0).
@@ -120,6 +123,13 @@ pub trait Real:
     /// evaluated at x held fixed (its derivatives are ∂F/∂source) and
     /// `slope` is ∂F/∂x. On `f64`, `x` alone.
     fn root(x: f64, residual: Self, slope: f64) -> Self;
+    /// A number of value `v` whose derivatives are `slope` times this
+    /// number's: a function of `self` whose value at this point is known
+    /// without its arithmetic (a shortcut such as a pressure factor of
+    /// exactly 1 at zero pressure) and whose slope there is `slope`. On
+    /// `f64`, `v` alone (the slope is not read, and not computed once
+    /// inlined).
+    fn with_slope(self, v: f64, slope: f64) -> Self;
 }
 
 impl Real for f64 {
@@ -174,6 +184,10 @@ impl Real for f64 {
     #[inline(always)]
     fn root(x: f64, _: Self, _: f64) -> Self {
         x
+    }
+    #[inline(always)]
+    fn with_slope(self, v: f64, _: f64) -> Self {
+        v
     }
 }
 
@@ -395,6 +409,15 @@ impl<const N: usize> Real for Tangent<N> {
     #[inline(always)]
     fn sqrt(self) -> Self {
         let r = self.v.sqrt();
+        if r == 0.0 {
+            let mut d = self.d;
+            for x in &mut d {
+                if *x != 0.0 {
+                    *x *= 0.5 / r;
+                }
+            }
+            return Tangent { v: r, d };
+        }
         self.chain(r, 0.5 / r)
     }
     #[inline(always)]
@@ -408,6 +431,10 @@ impl<const N: usize> Real for Tangent<N> {
     #[inline(always)]
     fn root(x: f64, residual: Self, slope: f64) -> Self {
         residual.chain(x, -1.0 / slope)
+    }
+    #[inline(always)]
+    fn with_slope(self, v: f64, slope: f64) -> Self {
+        self.chain(v, slope)
     }
 }
 
@@ -431,7 +458,7 @@ mod tests {
     fn tangent_values_are_the_f64_values_and_slopes_agree_with_central_differences() {
         type F = fn(Tangent<1>) -> Tangent<1>;
         type G = fn(f64) -> f64;
-        let cases: [(&str, F, G); 13] = [
+        let cases: [(&str, F, G); 14] = [
             ("ln", |x| x.ln(), |x| x.ln()),
             ("exp", |x| x.exp(), |x| x.exp()),
             ("log10", |x| Real::log10(x), f64::log10),
@@ -442,25 +469,36 @@ mod tests {
             ("under", |x| x.under(3.0), |x| 3.0 / x),
             ("subtracted_from", |x| x.subtracted_from(3.0), |x| 3.0 - x),
             ("neg abs", |x| (-x).abs(), |x| (-x).abs()),
-            ("mixed", |x| x * x / (x + 1.0) - x * 0.5, |x| {
-                x * x / (x + 1.0) - x * 0.5
-            }),
+            (
+                "mixed",
+                |x| x * x / (x + 1.0) - x * 0.5,
+                |x| x * x / (x + 1.0) - x * 0.5,
+            ),
             ("div const", |x| x / 7.0, |x| x / 7.0),
-            ("assign", |x| {
-                let mut y = x;
-                y *= x;
-                y -= x;
-                y /= x + 2.0;
-                y += x;
-                y
-            }, |x| {
-                let mut y = x;
-                y *= x;
-                y -= x;
-                y /= x + 2.0;
-                y += x;
-                y
-            }),
+            (
+                "with_slope",
+                |x| x.with_slope(x.value().sqrt(), 0.5 / x.value().sqrt()),
+                |x| x.sqrt(),
+            ),
+            (
+                "assign",
+                |x| {
+                    let mut y = x;
+                    y *= x;
+                    y -= x;
+                    y /= x + 2.0;
+                    y += x;
+                    y
+                },
+                |x| {
+                    let mut y = x;
+                    y *= x;
+                    y -= x;
+                    y /= x + 2.0;
+                    y += x;
+                    y
+                },
+            ),
         ];
         for (name, f, g) in cases {
             for x in [0.37, 1.3, 2.9, 7.5] {
@@ -488,6 +526,17 @@ mod tests {
         assert_eq!(r.v, x);
         assert!((r.d[0] - 0.5 / x).abs() < 1e-15);
         assert_eq!(<f64 as Real>::root(x, 1.0, 2.0), x);
+    }
+
+    /// √x at x = 0: infinite slope for a source that moves x, none for
+    /// one that does not (0 · ∞ would be NaN).
+    #[test]
+    fn sqrt_at_zero_moves_only_with_the_sources_that_move_its_argument() {
+        let x = Tangent::new(0.0, [1.0, 0.0]);
+        let r = x.sqrt();
+        assert_eq!(r.v, 0.0);
+        assert_eq!(r.d, [f64::INFINITY, 0.0]);
+        assert_eq!(Tangent::<2>::constant(0.0).sqrt().d, [0.0, 0.0]);
     }
 
     #[test]
