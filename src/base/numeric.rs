@@ -117,6 +117,10 @@ pub trait Real:
     /// Absolute value; its derivative is the sign of the value times dx
     /// (that of the positive branch at 0).
     fn abs(self) -> Self;
+    /// The larger of the value and a constant `c`, as `f64::max` gives it
+    /// (`c` for a NaN value); the derivatives are those of the value where
+    /// the result is the value, and zero where it is `c`.
+    fn max(self, c: f64) -> Self;
     /// The root x of F(x, sources) = 0, found at `x` by a solver working on
     /// values, with its derivatives by implicit differentiation:
     /// dx/dsource = −(∂F/∂source) / (∂F/∂x), where `residual` is F
@@ -180,6 +184,10 @@ impl Real for f64 {
     #[inline(always)]
     fn abs(self) -> Self {
         f64::abs(self)
+    }
+    #[inline(always)]
+    fn max(self, c: f64) -> Self {
+        f64::max(self, c)
     }
     #[inline(always)]
     fn root(x: f64, _: Self, _: f64) -> Self {
@@ -429,6 +437,15 @@ impl<const N: usize> Real for Tangent<N> {
         }
     }
     #[inline(always)]
+    fn max(self, c: f64) -> Self {
+        let v = self.v.max(c);
+        if v == self.v {
+            Tangent { v, d: self.d }
+        } else {
+            Self::constant(v)
+        }
+    }
+    #[inline(always)]
     fn root(x: f64, residual: Self, slope: f64) -> Self {
         residual.chain(x, -1.0 / slope)
     }
@@ -458,7 +475,7 @@ mod tests {
     fn tangent_values_are_the_f64_values_and_slopes_agree_with_central_differences() {
         type F = fn(Tangent<1>) -> Tangent<1>;
         type G = fn(f64) -> f64;
-        let cases: [(&str, F, G); 14] = [
+        let cases: [(&str, F, G); 16] = [
             ("ln", |x| x.ln(), |x| x.ln()),
             ("exp", |x| x.exp(), |x| x.exp()),
             ("log10", |x| Real::log10(x), f64::log10),
@@ -475,6 +492,8 @@ mod tests {
                 |x| x * x / (x + 1.0) - x * 0.5,
             ),
             ("div const", |x| x / 7.0, |x| x / 7.0),
+            ("max, the value", |x| x.max(0.2), |x| x.max(0.2)),
+            ("max, the constant", |x| x.max(9.0), |x| x.max(9.0)),
             (
                 "with_slope",
                 |x| x.with_slope(x.value().sqrt(), 0.5 / x.value().sqrt()),
@@ -537,6 +556,14 @@ mod tests {
         assert_eq!(r.v, 0.0);
         assert_eq!(r.d, [f64::INFINITY, 0.0]);
         assert_eq!(Tangent::<2>::constant(0.0).sqrt().d, [0.0, 0.0]);
+    }
+
+    /// `max` takes `f64::max`'s value, NaN included.
+    #[test]
+    fn max_of_nan_is_the_constant_without_slope() {
+        let t = Tangent::new(f64::NAN, [1.0]).max(0.0);
+        assert_eq!((t.v, t.d), (0.0, [0.0]));
+        assert_eq!(<f64 as Real>::max(f64::NAN, 0.0), 0.0);
     }
 
     #[test]

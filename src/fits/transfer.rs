@@ -289,13 +289,7 @@ impl GasTransfer {
             GasTransfer::Wanninkhof2014 => u * 0.251 * u * (REFERENCE_SCHMIDT / 660.0).powf(-0.5),
             GasTransfer::Given => return None,
         };
-        // `f64::max(k, 0.0)`, which also gives 0 for a NaN k; zero has no
-        // slope.
-        Some(if k.value() >= 0.0 {
-            k
-        } else {
-            R::constant(0.0)
-        })
+        Some(k.max(0.0))
     }
 }
 
