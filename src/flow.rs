@@ -994,8 +994,6 @@ pub(crate) struct Seeds<const N: usize> {
     pub constants: Vec<(ConstantName, usize)>,
     /// Totals that are sources (µmol/kg), each with its slot.
     pub totals: Vec<(Total, usize)>,
-    /// Two free slots for the unknowns h and DIC (they come back zero).
-    pub unknowns: (usize, usize),
 }
 
 impl PreparedWater {
@@ -1019,6 +1017,7 @@ impl PreparedWater {
         let Prepared::Saline(k0) = &self.prepared else {
             return None;
         };
+        let plain: Constants<Tangent<2>> = k0.lift();
         let mut k: Constants<Tangent<N>> = k0.lift();
         for &(which, slot) in &seeds.constants {
             if let Err(e) = k.pk_in_place(which, Tangent::source(0.0, slot)) {
@@ -1032,10 +1031,10 @@ impl PreparedWater {
         }
         let (h, dic) = crate::solve::tangent::unknowns(
             &k,
+            &plain,
             (base.h_mol_kg(), base.dic_mol_kg()),
             (a, seeds.a),
             (b, seeds.b),
-            seeds.unknowns,
         )?;
         Some(State::build_fresh_or_saline(
             &self.water,

@@ -110,17 +110,31 @@ pub trait Real:
     fn pow10(self) -> Self;
     /// xᵖ for a constant p; d xᵖ = p xᵖ⁻¹ dx.
     fn powf(self, p: f64) -> Self;
-    /// Square root; d √x = dx / (2 √x).
+    /// Square root; d √x = dx / (2 √x). At x = 0 a source that does not
+    /// move x does not move √x (a slope of 0, not 0 · ∞): a sea-water fit
+    /// evaluated at a constant salinity of 0 keeps finite temperature
+    /// slopes.
     fn sqrt(self) -> Self;
     /// Absolute value; its derivative is the sign of the value times dx
     /// (that of the positive branch at 0).
     fn abs(self) -> Self;
+    /// The larger of the value and a constant `c`, as `f64::max` gives it
+    /// (`c` for a NaN value); the derivatives are those of the value where
+    /// the result is the value, and zero where it is `c`.
+    fn max(self, c: f64) -> Self;
     /// The root x of F(x, sources) = 0, found at `x` by a solver working on
     /// values, with its derivatives by implicit differentiation:
     /// dx/dsource = −(∂F/∂source) / (∂F/∂x), where `residual` is F
     /// evaluated at x held fixed (its derivatives are ∂F/∂source) and
     /// `slope` is ∂F/∂x. On `f64`, `x` alone.
     fn root(x: f64, residual: Self, slope: f64) -> Self;
+    /// A number of value `v` whose derivatives are `slope` times this
+    /// number's: a function of `self` whose value at this point is known
+    /// without its arithmetic (a shortcut such as a pressure factor of
+    /// exactly 1 at zero pressure) and whose slope there is `slope`. On
+    /// `f64`, `v` alone (the slope is not read, and not computed once
+    /// inlined).
+    fn with_slope(self, v: f64, slope: f64) -> Self;
 }
 
 impl Real for f64 {
@@ -173,8 +187,16 @@ impl Real for f64 {
         f64::abs(self)
     }
     #[inline(always)]
+    fn max(self, c: f64) -> Self {
+        f64::max(self, c)
+    }
+    #[inline(always)]
     fn root(x: f64, _: Self, _: f64) -> Self {
         x
+    }
+    #[inline(always)]
+    fn with_slope(self, v: f64, _: f64) -> Self {
+        v
     }
 }
 
@@ -406,6 +428,15 @@ impl<const N: usize> Real for Tangent<N> {
     #[inline(always)]
     fn sqrt(self) -> Self {
         let r = self.v.sqrt();
+        if r == 0.0 {
+            let mut d = self.d;
+            for x in &mut d {
+                if *x != 0.0 {
+                    *x *= 0.5 / r;
+                }
+            }
+            return Tangent { v: r, d };
+        }
         self.chain(r, 0.5 / r)
     }
     #[inline(always)]
@@ -417,8 +448,21 @@ impl<const N: usize> Real for Tangent<N> {
         }
     }
     #[inline(always)]
+    fn max(self, c: f64) -> Self {
+        let v = self.v.max(c);
+        if v == self.v {
+            Tangent { v, d: self.d }
+        } else {
+            Self::constant(v)
+        }
+    }
+    #[inline(always)]
     fn root(x: f64, residual: Self, slope: f64) -> Self {
         residual.chain(x, -1.0 / slope)
+    }
+    #[inline(always)]
+    fn with_slope(self, v: f64, slope: f64) -> Self {
+        self.chain(v, slope)
     }
 }
 
@@ -442,7 +486,7 @@ mod tests {
     fn tangent_values_are_the_f64_values_and_slopes_agree_with_central_differences() {
         type F = fn(Tangent<1>) -> Tangent<1>;
         type G = fn(f64) -> f64;
-        let cases: [(&str, F, G); 13] = [
+        let cases: [(&str, F, G); 16] = [
             ("ln", |x| x.ln(), |x| x.ln()),
             ("exp", |x| x.exp(), |x| x.exp()),
             ("log10", |x| Real::log10(x), f64::log10),
@@ -459,6 +503,13 @@ mod tests {
                 |x| x * x / (x + 1.0) - x * 0.5,
             ),
             ("div const", |x| x / 7.0, |x| x / 7.0),
+            ("max, the value", |x| x.max(0.2), |x| x.max(0.2)),
+            ("max, the constant", |x| x.max(9.0), |x| x.max(9.0)),
+            (
+                "with_slope",
+                |x| x.with_slope(x.value().sqrt(), 0.5 / x.value().sqrt()),
+                |x| x.sqrt(),
+            ),
             (
                 "assign",
                 |x| {
@@ -505,6 +556,25 @@ mod tests {
         assert_eq!(r.v, x);
         assert!((r.d[0] - 0.5 / x).abs() < 1e-15);
         assert_eq!(<f64 as Real>::root(x, 1.0, 2.0), x);
+    }
+
+    /// √x at x = 0: infinite slope for a source that moves x, none for
+    /// one that does not (0 · ∞ would be NaN).
+    #[test]
+    fn sqrt_at_zero_moves_only_with_the_sources_that_move_its_argument() {
+        let x = Tangent::new(0.0, [1.0, 0.0]);
+        let r = x.sqrt();
+        assert_eq!(r.v, 0.0);
+        assert_eq!(r.d, [f64::INFINITY, 0.0]);
+        assert_eq!(Tangent::<2>::constant(0.0).sqrt().d, [0.0, 0.0]);
+    }
+
+    /// `max` takes `f64::max`'s value, NaN included.
+    #[test]
+    fn max_of_nan_is_the_constant_without_slope() {
+        let t = Tangent::new(f64::NAN, [1.0]).max(0.0);
+        assert_eq!((t.v, t.d), (0.0, [0.0]));
+        assert_eq!(<f64 as Real>::max(f64::NAN, 0.0), 0.0);
     }
 
     #[test]

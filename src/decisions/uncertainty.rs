@@ -1046,14 +1046,13 @@ impl Problem {
                     }
             })
             .collect();
-        let per_pass = TANGENT_WIDTH - 2;
+        let per_pass = TANGENT_WIDTH;
         for chunk in covered.chunks(per_pass) {
             let mut seeds = Seeds {
                 a: Tangent::constant(self.a.number()),
                 b: Tangent::constant(self.b.number()),
                 constants: Vec::new(),
                 totals: Vec::new(),
-                unknowns: (per_pass, per_pass + 1),
             };
             for (slot, &j) in chunk.iter().enumerate() {
                 match sources[j].0 {
@@ -1386,14 +1385,15 @@ where
     propagate_quantities(problem, u, ByDifferences(quantities))
 }
 
-/// The number of derivatives a number of a pass on tangents carries: up to
-/// `TANGENT_WIDTH − 2` sources at once, and two slots for the solver's
-/// unknowns (see [`propagate_quantities`]).
+/// The number of derivatives a number of a pass on tangents carries: the
+/// sources of one pass (see [`propagate_quantities`]). 14 covers the
+/// realistic sets of both media in one pass (12 sources in sea water, 14
+/// in a pond with calcium).
 ///
 /// ```
-/// assert_eq!(travertine::decisions::uncertainty::TANGENT_WIDTH, 16);
+/// assert_eq!(travertine::decisions::uncertainty::TANGENT_WIDTH, 14);
 /// ```
-pub const TANGENT_WIDTH: usize = 16;
+pub const TANGENT_WIDTH: usize = 14;
 
 /// A number of a pass on tangents: a value and [`TANGENT_WIDTH`]
 /// derivatives.
@@ -1454,7 +1454,7 @@ impl<F: FnMut(&State, &mut Vec<Option<f64>>)> Quantities for ByDifferences<F> {
 /// As [`propagate`], for quantities that can also be read from a state of
 /// [`Tangents`] ([`Quantities`]): the sensitivities to the sources this
 /// pass covers are then exact derivatives rather than differences, from
-/// one state on tangents per `TANGENT_WIDTH − 2` sources. The constants
+/// one state on tangents per [`TANGENT_WIDTH`] sources. The constants
 /// and the state are computed on tangents (forward-mode differentiation,
 /// the chain rule at every operation, through the same generic code that
 /// computes them on numbers), and the derivatives of the solver's unknowns

@@ -1,6 +1,7 @@
 //! Ammonium in sea water.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Published range of the Johansson & Wedborg (1980) fit (from memory, unverified).
 pub const JOHANSSON_WEDBORG1980_RANGE: FitRange =
@@ -20,7 +21,11 @@ pub const JOHANSSON_WEDBORG1980_RANGE: FitRange =
 /// let pk = travertine::fits::ammonia::johansson_wedborg1980_pka(298.15, 35.0);
 /// assert!((pk - 9.2586).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn johansson_wedborg1980_pka(temperature_k: f64, salinity: f64) -> f64 {
-    -0.467 + 0.00113 * salinity + 2887.9 / temperature_k
+pub fn johansson_wedborg1980_pka<R: Real>(temperature_k: R, salinity: R) -> R {
+    salinity * 0.00113 + -0.467 + temperature_k.under(2887.9)
 }

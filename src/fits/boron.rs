@@ -1,6 +1,7 @@
 //! Boric acid: its dissociation constant and total boron from salinity.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 use serde::Serialize;
 
 /// Published range of Dickson (1990) KB.
@@ -20,16 +21,20 @@ pub const DICKSON1990_KB_RANGE: FitRange = FitRange::new("dickson1990", (0.0, 45
 /// let l = travertine::fits::boron::dickson1990_ln_kb(298.15, 35.0);
 /// assert!((l - -19.7964).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn dickson1990_ln_kb(temperature_k: f64, salinity: f64) -> f64 {
+pub fn dickson1990_ln_kb<R: Real>(temperature_k: R, salinity: R) -> R {
     let (t, s) = (temperature_k, salinity);
     let rs = s.sqrt();
-    (-8966.90 - 2890.53 * rs - 77.942 * s + 1.728 * s * rs - 0.0996 * s * s) / t
+    ((rs * 2890.53).subtracted_from(-8966.90) - s * 77.942 + s * 1.728 * rs - s * 0.0996 * s) / t
         + 148.0248
-        + 137.1942 * rs
-        + 1.62142 * s
-        - (24.4344 + 25.085 * rs + 0.2474 * s) * t.ln()
-        + 0.053105 * rs * t
+        + rs * 137.1942
+        + s * 1.62142
+        - (rs * 25.085 + 24.4344 + s * 0.2474) * t.ln()
+        + rs * 0.053105 * t
 }
 
 /// The ratio of total boron to salinity.
@@ -81,11 +86,15 @@ impl BoronTotalFit {
     /// # use travertine::fits::BoronTotalFit;
     /// assert!((BoronTotalFit::Uppstrom1974.total_mol_kg(35.0) * 1e6 - 415.8).abs() < 0.05);
     /// ```
+    ///
+    /// Generic over [`Real`]: on `f64` the value, on a
+    /// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+    /// and its derivatives.
     #[inline]
-    pub fn total_mol_kg(self, salinity: f64) -> f64 {
+    pub fn total_mol_kg<R: Real>(self, salinity: R) -> R {
         match self {
-            BoronTotalFit::Lee2010 => 0.1336e-3 / 10.811 * salinity,
-            BoronTotalFit::Uppstrom1974 => 0.232e-3 / 10.811 * salinity / 1.80655,
+            BoronTotalFit::Lee2010 => salinity * (0.1336e-3 / 10.811),
+            BoronTotalFit::Uppstrom1974 => salinity * (0.232e-3 / 10.811) / 1.80655,
         }
     }
 }

@@ -5,6 +5,7 @@
 //! converts them to the working scale.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 use crate::properties::scales::PhScale;
 use serde::Serialize;
 
@@ -95,8 +96,12 @@ impl CarbonicFit {
     /// assert!((-k1.log10() - 5.8401).abs() < 5e-5);
     /// assert!((-k2.log10() - 8.9636).abs() < 5e-5);
     /// ```
+    ///
+    /// Generic over [`Real`]: on `f64` the value, on a
+    /// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+    /// and its derivatives.
     #[inline]
-    pub fn k1_k2(self, temperature_k: f64, salinity: f64) -> (f64, f64) {
+    pub fn k1_k2<R: Real>(self, temperature_k: R, salinity: R) -> (R, R) {
         let (a, b) = match self {
             CarbonicFit::Lueker2000 => lueker2000_pk1_pk2(temperature_k, salinity),
             CarbonicFit::Millero2006 => millero2006_pk1_pk2(temperature_k, salinity),
@@ -106,10 +111,7 @@ impl CarbonicFit {
             }
             CarbonicFit::DicksonMillero1987 => dickson_millero1987_pk1_pk2(temperature_k, salinity),
         };
-        (
-            crate::base::numeric::pow10(-a),
-            crate::base::numeric::pow10(-b),
-        )
+        ((-a).pow10(), (-b).pow10())
     }
 }
 
@@ -128,12 +130,16 @@ fit_from_str!(CarbonicFit, crate::base::field::Field::CarbonicFit);
 /// let (pk1, pk2) = travertine::fits::carbonic::lueker2000_pk1_pk2(298.15, 35.0);
 /// assert!((pk1 - 5.8472).abs() < 5e-5 && (pk2 - 8.9660).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn lueker2000_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
+pub fn lueker2000_pk1_pk2<R: Real>(temperature_k: R, salinity: R) -> (R, R) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
-    let pk1 = 3633.86 / t - 61.2172 + 9.67770 * ln_t - 0.011555 * s + 0.0001152 * s * s;
-    let pk2 = 471.78 / t + 25.9290 - 3.16967 * ln_t - 0.01781 * s + 0.0001122 * s * s;
+    let pk1 = t.under(3633.86) - 61.2172 + ln_t * 9.67770 - s * 0.011555 + s * 0.0001152 * s;
+    let pk2 = t.under(471.78) + 25.9290 - ln_t * 3.16967 - s * 0.01781 + s * 0.0001122 * s;
     (pk1, pk2)
 }
 
@@ -153,19 +159,23 @@ pub fn lueker2000_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let (pk1, pk2) = travertine::fits::carbonic::millero2006_pk1_pk2(298.15, 35.0);
 /// assert!((pk1 - 5.8401).abs() < 5e-5 && (pk2 - 8.9636).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn millero2006_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
+pub fn millero2006_pk1_pk2<R: Real>(temperature_k: R, salinity: R) -> (R, R) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
     let rs = s.sqrt();
-    let pk10 = -126.34048 + 6320.813 / t + 19.568224 * ln_t;
-    let pk20 = -90.18333 + 5143.692 / t + 14.613358 * ln_t;
-    let a1 = 13.4191 * rs + 0.0331 * s - 5.33e-5 * s * s;
-    let b1 = -530.123 * rs - 6.103 * s;
-    let c1 = -2.06950 * rs;
-    let a2 = 21.0894 * rs + 0.1248 * s - 3.687e-4 * s * s;
-    let b2 = -772.483 * rs - 20.051 * s;
-    let c2 = -3.3336 * rs;
+    let pk10 = t.under(6320.813) + -126.34048 + ln_t * 19.568224;
+    let pk20 = t.under(5143.692) + -90.18333 + ln_t * 14.613358;
+    let a1 = rs * 13.4191 + s * 0.0331 - s * 5.33e-5 * s;
+    let b1 = rs * -530.123 - s * 6.103;
+    let c1 = rs * -2.06950;
+    let a2 = rs * 21.0894 + s * 0.1248 - s * 3.687e-4 * s;
+    let b2 = rs * -772.483 - s * 20.051;
+    let c2 = rs * -3.3336;
     (
         pk10 + a1 + b1 / t + c1 * ln_t,
         pk20 + a2 + b2 / t + c2 * ln_t,
@@ -188,21 +198,25 @@ pub fn millero2006_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let (l1, l2) = travertine::fits::carbonic::roy1993_ln_k1_k2(298.15, 35.0);
 /// assert!((l1 - -13.4847).abs() < 5e-4 && (l2 - -20.5504).abs() < 5e-4);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn roy1993_ln_k1_k2(temperature_k: f64, salinity: f64) -> (f64, f64) {
+pub fn roy1993_ln_k1_k2<R: Real>(temperature_k: R, salinity: R) -> (R, R) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
     let rs = s.sqrt();
-    let to_soln = (1.0 - 0.001005 * s).ln();
-    let l1 = 2.83655 - 2307.1266 / t - 1.5529413 * ln_t
-        + (-0.20760841 - 4.0484 / t) * rs
-        + 0.08468345 * s
-        - 0.00654208 * s * rs
+    let to_soln = (s * 0.001005).subtracted_from(1.0).ln();
+    let l1 = t.under(2307.1266).subtracted_from(2.83655) - ln_t * 1.5529413
+        + t.under(4.0484).subtracted_from(-0.20760841) * rs
+        + s * 0.08468345
+        - s * 0.00654208 * rs
         + to_soln;
-    let l2 = -9.226508 - 3351.6106 / t - 0.2005743 * ln_t
-        + (-0.106901773 - 23.9722 / t) * rs
-        + 0.1130822 * s
-        - 0.00846934 * s * rs
+    let l2 = t.under(3351.6106).subtracted_from(-9.226508) - ln_t * 0.2005743
+        + t.under(23.9722).subtracted_from(-0.106901773) * rs
+        + s * 0.1130822
+        - s * 0.00846934 * rs
         + to_soln;
     (l1, l2)
 }
@@ -221,11 +235,15 @@ pub fn roy1993_ln_k1_k2(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let (pk1, pk2) = travertine::fits::carbonic::dickson_millero1987_pk1_pk2(298.15, 35.0);
 /// assert!((pk1 - 5.8372).abs() < 5e-5 && (pk2 - 8.9554).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn dickson_millero1987_pk1_pk2(temperature_k: f64, salinity: f64) -> (f64, f64) {
+pub fn dickson_millero1987_pk1_pk2<R: Real>(temperature_k: R, salinity: R) -> (R, R) {
     let (t, s) = (temperature_k, salinity);
-    let pk1 = 3670.7 / t - 62.008 + 9.7944 * t.ln() - 0.0118 * s + 0.000116 * s * s;
-    let pk2 = 1394.7 / t + 4.777 - 0.0184 * s + 0.000118 * s * s;
+    let pk1 = t.under(3670.7) - 62.008 + t.ln() * 9.7944 - s * 0.0118 + s * 0.000116 * s;
+    let pk2 = t.under(1394.7) + 4.777 - s * 0.0184 + s * 0.000118 * s;
     (pk1, pk2)
 }
 

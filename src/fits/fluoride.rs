@@ -1,6 +1,7 @@
 //! Hydrogen fluoride: its dissociation constant and total fluoride.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 use crate::fits::sulfate::seawater_ionic_strength;
 use crate::properties::scales::PhScale;
 use serde::Serialize;
@@ -83,14 +84,21 @@ impl FluorideFit {
     /// let kf = FluorideFit::DicksonRiley1979.kf(298.15, 35.0);
     /// assert!((kf.ln() - -6.0468).abs() < 5e-4);
     /// ```
+    ///
+    /// Generic over [`Real`]: on `f64` the value, on a
+    /// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+    /// and its derivatives.
     #[inline]
-    pub fn kf(self, temperature_k: f64, salinity: f64) -> f64 {
+    pub fn kf<R: Real>(self, temperature_k: R, salinity: R) -> R {
         let t = temperature_k;
         match self {
-            FluorideFit::PerezFraga1987 => (874.0 / t - 9.68 + 0.111 * salinity.sqrt()).exp(),
+            FluorideFit::PerezFraga1987 => (t.under(874.0) - 9.68 + salinity.sqrt() * 0.111).exp(),
             FluorideFit::DicksonRiley1979 => {
                 let i = seawater_ionic_strength(salinity);
-                (1590.2 / t - 12.641 + 1.525 * i.sqrt() + (1.0 - 0.001005 * salinity).ln()).exp()
+                (t.under(1590.2) - 12.641
+                    + i.sqrt() * 1.525
+                    + (salinity * 0.001005).subtracted_from(1.0).ln())
+                .exp()
             }
         }
     }
@@ -106,9 +114,13 @@ fit_from_str!(FluorideFit, crate::base::field::Field::FluorideFit);
 /// let ft = travertine::fits::fluoride::riley1965_total_mol_kg(35.0);
 /// assert!((ft - 6.83e-5).abs() < 5e-8);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn riley1965_total_mol_kg(salinity: f64) -> f64 {
-    (6.7e-5 / 18.998) * (salinity / 1.80655)
+pub fn riley1965_total_mol_kg<R: Real>(salinity: R) -> R {
+    (salinity / 1.80655) * (6.7e-5 / 18.998)
 }
 
 /// The plain name, as [`FluorideFit::name`] gives it.

@@ -1,6 +1,7 @@
 //! CO2 solubility, fugacity and the vapour pressure of water.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Gas constant in cm³ atm mol⁻¹ K⁻¹, as used with Weiss (1974) virial coefficients.
 pub const R_CM3_ATM: f64 = 82.0578;
@@ -28,13 +29,17 @@ pub const WEISS_PRICE1980_RANGE: FitRange =
 /// let ln_k0 = travertine::fits::gas::weiss1974_ln_k0(298.15, 35.0);
 /// assert!((ln_k0 - -3.5617).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn weiss1974_ln_k0(temperature_k: f64, salinity: f64) -> f64 {
+pub fn weiss1974_ln_k0<R: Real>(temperature_k: R, salinity: R) -> R {
     let t100 = temperature_k / 100.0;
-    -60.2409
-        + 93.4517 / t100
-        + 23.3585 * t100.ln()
-        + salinity * (0.023517 - 0.023656 * t100 + 0.0047036 * t100 * t100)
+    t100.under(93.4517)
+        + -60.2409
+        + t100.ln() * 23.3585
+        + salinity * ((t100 * 0.023656).subtracted_from(0.023517) + t100 * 0.0047036 * t100)
 }
 
 /// Fugacity coefficient fCO2/pCO2 of CO2 in air, Weiss (1974).
@@ -54,12 +59,16 @@ pub fn weiss1974_ln_k0(temperature_k: f64, salinity: f64) -> f64 {
 /// let f = travertine::fits::gas::weiss1974_fugacity_factor(298.15, 1.0);
 /// assert!((f - 0.996810).abs() < 2e-6);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn weiss1974_fugacity_factor(temperature_k: f64, air_pressure_atm: f64) -> f64 {
+pub fn weiss1974_fugacity_factor<R: Real>(temperature_k: R, air_pressure_atm: R) -> R {
     let t = temperature_k;
-    let b = -1636.75 + 12.0408 * t - 3.27957e-2 * t * t + 3.16528e-5 * t * t * t;
-    let delta = 57.7 - 0.118 * t;
-    (air_pressure_atm * (b + 2.0 * delta) / (R_CM3_ATM * t)).exp()
+    let b = t * 12.0408 + -1636.75 - t * 3.27957e-2 * t + t * 3.16528e-5 * t * t;
+    let delta = (t * 0.118).subtracted_from(57.7);
+    (air_pressure_atm * (b + delta * 2.0) / (t * R_CM3_ATM)).exp()
 }
 
 /// Water vapour pressure over sea water, atm, Weiss & Price (1980).
@@ -75,8 +84,12 @@ pub fn weiss1974_fugacity_factor(temperature_k: f64, air_pressure_atm: f64) -> f
 /// let p = travertine::fits::gas::weiss_price1980_vapour_pressure_atm(298.15, 35.0);
 /// assert!((p - 0.030655).abs() < 2e-6);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn weiss_price1980_vapour_pressure_atm(temperature_k: f64, salinity: f64) -> f64 {
+pub fn weiss_price1980_vapour_pressure_atm<R: Real>(temperature_k: R, salinity: R) -> R {
     let t100 = temperature_k / 100.0;
-    (24.4543 - 67.4509 / t100 - 4.8489 * t100.ln() - 0.000544 * salinity).exp()
+    (t100.under(67.4509).subtracted_from(24.4543) - t100.ln() * 4.8489 - salinity * 0.000544).exp()
 }

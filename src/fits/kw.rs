@@ -1,6 +1,7 @@
 //! The ion product of water in sea water.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Published range of Millero (1995) KW (range from memory, unverified).
 pub const MILLERO1995_KW_RANGE: FitRange = FitRange::new("millero1995", (0.0, 45.0), (0.0, 45.0));
@@ -19,11 +20,15 @@ pub const MILLERO1995_KW_RANGE: FitRange = FitRange::new("millero1995", (0.0, 45
 /// let l = travertine::fits::kw::millero1995_ln_kw(298.15, 35.0);
 /// assert!((l - -30.434).abs() < 5e-4);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn millero1995_ln_kw(temperature_k: f64, salinity: f64) -> f64 {
+pub fn millero1995_ln_kw<R: Real>(temperature_k: R, salinity: R) -> R {
     let t = temperature_k;
     let ln_t = t.ln();
-    148.96502 - 13847.26 / t - 23.6521 * ln_t
-        + (118.67 / t - 5.977 + 1.0495 * ln_t) * salinity.sqrt()
-        - 0.01615 * salinity
+    t.under(13847.26).subtracted_from(148.96502) - ln_t * 23.6521
+        + (t.under(118.67) - 5.977 + ln_t * 1.0495) * salinity.sqrt()
+        - salinity * 0.01615
 }

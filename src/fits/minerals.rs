@@ -1,6 +1,7 @@
 //! Solubility of calcite and aragonite in sea water, and calcium from salinity.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Published range of Mucci (1983) (from memory, unverified).
 pub const MUCCI1983_RANGE: FitRange = FitRange::new("mucci1983", (5.0, 40.0), (5.0, 44.0));
@@ -22,23 +23,27 @@ pub const MUCCI1983_RANGE: FitRange = FitRange::new("mucci1983", (5.0, 40.0), (5
 /// let (c, a) = travertine::fits::minerals::mucci1983_log_ksp(298.15, 35.0);
 /// assert!((c - -6.3693).abs() < 5e-5 && (a - -6.1883).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn mucci1983_log_ksp(temperature_k: f64, salinity: f64) -> (f64, f64) {
+pub fn mucci1983_log_ksp<R: Real>(temperature_k: R, salinity: R) -> (R, R) {
     let (t, s) = (temperature_k, salinity);
     let rs = s.sqrt();
-    let log_t = t.log10();
-    let cal = -171.9065 - 0.077993 * t
-        + 2839.319 / t
-        + 71.595 * log_t
-        + (-0.77712 + 0.0028426 * t + 178.34 / t) * rs
-        - 0.07711 * s
-        + 0.0041249 * s * rs;
-    let arag = -171.945 - 0.077993 * t
-        + 2903.293 / t
-        + 71.595 * log_t
-        + (-0.068393 + 0.0017276 * t + 88.135 / t) * rs
-        - 0.10018 * s
-        + 0.0059415 * s * rs;
+    let log_t = Real::log10(t);
+    let cal = (t * 0.077993).subtracted_from(-171.9065)
+        + t.under(2839.319)
+        + log_t * 71.595
+        + (t * 0.0028426 + -0.77712 + t.under(178.34)) * rs
+        - s * 0.07711
+        + s * 0.0041249 * rs;
+    let arag = (t * 0.077993).subtracted_from(-171.945)
+        + t.under(2903.293)
+        + log_t * 71.595
+        + (t * 0.0017276 + -0.068393 + t.under(88.135)) * rs
+        - s * 0.10018
+        + s * 0.0059415 * rs;
     (cal, arag)
 }
 
@@ -50,7 +55,11 @@ pub fn mucci1983_log_ksp(temperature_k: f64, salinity: f64) -> (f64, f64) {
 /// let ca = travertine::fits::minerals::riley_tongudai1967_calcium_mol_kg(35.0);
 /// assert!((ca - 0.01028).abs() < 5e-6);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn riley_tongudai1967_calcium_mol_kg(salinity: f64) -> f64 {
-    (0.02128 / 40.087) * (salinity / 1.80655)
+pub fn riley_tongudai1967_calcium_mol_kg<R: Real>(salinity: R) -> R {
+    (salinity / 1.80655) * (0.02128 / 40.087)
 }

@@ -5,6 +5,23 @@
 //! Each acid system, gas and mineral has its own file with one function per
 //! published fit. The medium layer ([`crate::medium`]) evaluates them into
 //! one set of constants.
+//!
+//! Every fit is generic over [`Real`](crate::base::numeric::Real) in its
+//! numeric arguments (temperature, salinity, pressure, wind): on `f64` it
+//! gives the constant, on a [`Tangent`](crate::base::numeric::Tangent) the
+//! same value, bit for bit, and its derivatives with respect to the
+//! tangent's sources. The choices of fit (names, ranges, [`Fits`]) stay
+//! plain values.
+//!
+//! ```
+//! use travertine::base::numeric::{Real, Tangent};
+//! use travertine::fits::boron::dickson1990_ln_kb;
+//! let t = Tangent::<2>::source(298.15, 0); // d/dT
+//! let s = Tangent::<2>::source(35.0, 1); // d/dS
+//! let l = dickson1990_ln_kb(t, s);
+//! assert_eq!(l.value(), dickson1990_ln_kb(298.15, 35.0));
+//! assert!(l.d[0] > 0.0); // boric acid is stronger in warmer water
+//! ```
 
 /// `FromStr` for a fit enum with `ALL` and `name()`: the author-year name,
 /// case-insensitive, or an error listing the accepted names.

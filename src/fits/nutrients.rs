@@ -1,6 +1,7 @@
 //! Phosphoric and silicic acids in sea water, Millero (1995).
 
 use super::FitRange;
+use crate::base::numeric::Real;
 use crate::fits::sulfate::seawater_ionic_strength;
 
 /// Published range of the Millero (1995) phosphate and silicate fits
@@ -23,18 +24,24 @@ pub const MILLERO1995_NUTRIENT_RANGE: FitRange =
 /// let (a, b, c) = travertine::fits::nutrients::millero1995_ln_kp(298.15, 35.0);
 /// assert!((a - -3.71).abs() < 5e-3 && (b - -13.727).abs() < 5e-4 && (c - -20.24).abs() < 5e-3);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn millero1995_ln_kp(temperature_k: f64, salinity: f64) -> (f64, f64, f64) {
+pub fn millero1995_ln_kp<R: Real>(temperature_k: R, salinity: R) -> (R, R, R) {
     let (t, s) = (temperature_k, salinity);
     let ln_t = t.ln();
     let rs = s.sqrt();
-    let kp1 = -4576.752 / t + 115.525 - 18.453 * ln_t
-        + (-106.736 / t + 0.69171) * rs
-        + (-0.65643 / t - 0.01844) * s;
-    let kp2 = -8814.715 / t + 172.0883 - 27.927 * ln_t
-        + (-160.340 / t + 1.3566) * rs
-        + (0.37335 / t - 0.05778) * s;
-    let kp3 = -3070.75 / t - 18.141 + (17.27039 / t + 2.81197) * rs + (-44.99486 / t - 0.09984) * s;
+    let kp1 = t.under(-4576.752) + 115.525 - ln_t * 18.453
+        + (t.under(-106.736) + 0.69171) * rs
+        + (t.under(-0.65643) - 0.01844) * s;
+    let kp2 = t.under(-8814.715) + 172.0883 - ln_t * 27.927
+        + (t.under(-160.340) + 1.3566) * rs
+        + (t.under(0.37335) - 0.05778) * s;
+    let kp3 = t.under(-3070.75) - 18.141
+        + (t.under(17.27039) + 2.81197) * rs
+        + (t.under(-44.99486) - 0.09984) * s;
     (kp1, kp2, kp3)
 }
 
@@ -51,13 +58,17 @@ pub fn millero1995_ln_kp(temperature_k: f64, salinity: f64) -> (f64, f64, f64) {
 /// let l = travertine::fits::nutrients::millero1995_ln_ksi(298.15, 35.0);
 /// assert!((l - -21.61).abs() < 5e-3);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn millero1995_ln_ksi(temperature_k: f64, salinity: f64) -> f64 {
+pub fn millero1995_ln_ksi<R: Real>(temperature_k: R, salinity: R) -> R {
     let t = temperature_k;
     let i = seawater_ionic_strength(salinity);
-    -8904.2 / t + 117.385 - 19.334 * t.ln()
-        + (-458.79 / t + 3.5913) * i.sqrt()
-        + (188.74 / t - 1.5998) * i
-        + (-12.1652 / t + 0.07871) * i * i
-        + (1.0 - 0.001005 * salinity).ln()
+    t.under(-8904.2) + 117.385 - t.ln() * 19.334
+        + (t.under(-458.79) + 3.5913) * i.sqrt()
+        + (t.under(188.74) - 1.5998) * i
+        + (t.under(-12.1652) + 0.07871) * i * i
+        + (salinity * 0.001005).subtracted_from(1.0).ln()
 }

@@ -8,6 +8,8 @@
 //! verified; the coefficients are from memory (unverified). Acid constants
 //! are corrected on the sea-water scale, KS and KF on the free scale.
 
+use crate::base::numeric::Real;
+
 /// Gas constant, cm³ bar mol⁻¹ K⁻¹.
 pub const R_CM3_BAR: f64 = 83.14472;
 
@@ -65,37 +67,63 @@ pub const CALCITE: PressureCoefficients = pc(-48.76, 0.5304, 0.0, -11.76, 0.3692
 /// Aragonite solubility product.
 pub const ARAGONITE: PressureCoefficients = pc(-45.96, 0.5304, 0.0, -11.76, 0.3692);
 
-/// K_P / K_0 for gauge pressure `pressure_bar` at `temperature_c`.
+/// K_P / K_0 for gauge pressure `pressure_bar` at `temperature_c`. At
+/// P = 0 it is exactly 1 without the arithmetic, with the slope of the
+/// formula there (−ΔV/(RT) per bar) for a tangent.
 ///
 /// ```
 /// use travertine::fits::pressure::{CALCITE, pressure_factor};
 /// assert!((pressure_factor(&CALCITE, 25.0, 1000.0) - 3.979).abs() < 1e-3);
 /// assert_eq!(pressure_factor(&CALCITE, 25.0, 0.0), 1.0);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn pressure_factor(c: &PressureCoefficients, temperature_c: f64, pressure_bar: f64) -> f64 {
-    if pressure_bar == 0.0 {
-        return 1.0;
+pub fn pressure_factor<R: Real>(c: &PressureCoefficients, temperature_c: R, pressure_bar: R) -> R {
+    if pressure_bar.value() == 0.0 {
+        // 1 exactly, with the slope of the formula at P = 0 (the factor is
+        // smooth there; the shortcut only saves the arithmetic).
+        return pressure_bar.with_slope(1.0, slope_at_zero(c, temperature_c.value()));
     }
     pressure_ln_factor(c, temperature_c, pressure_bar).exp()
 }
 
 /// ln(K_P / K_0) = (−ΔV P + ½ ΔK P²)/(R T), with ΔV = a0 + a1 t + a2 t² and
-/// ΔK = (b0 + b1 t)·1e-3 (Millero 1995).
+/// ΔK = (b0 + b1 t)·1e-3 (Millero 1995). Exactly 0 at P = 0, with the slope
+/// −ΔV/(RT) per bar for a tangent.
 ///
 /// ```
 /// use travertine::fits::pressure::{CALCITE, pressure_ln_factor};
 /// assert!((pressure_ln_factor(&CALCITE, 25.0, 1000.0) - 3.979f64.ln()).abs() < 3e-4);
 /// assert_eq!(pressure_ln_factor(&CALCITE, 25.0, 0.0), 0.0);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn pressure_ln_factor(c: &PressureCoefficients, temperature_c: f64, pressure_bar: f64) -> f64 {
-    if pressure_bar == 0.0 {
-        return 0.0;
+pub fn pressure_ln_factor<R: Real>(
+    c: &PressureCoefficients,
+    temperature_c: R,
+    pressure_bar: R,
+) -> R {
+    if pressure_bar.value() == 0.0 {
+        // 0 exactly, with the slope of the formula at P = 0.
+        return pressure_bar.with_slope(0.0, slope_at_zero(c, temperature_c.value()));
     }
     let t = temperature_c;
-    let rt = R_CM3_BAR * (t + 273.15);
-    let dv = c.a[0] + c.a[1] * t + c.a[2] * t * t;
-    let dk = (c.b[0] + c.b[1] * t) * 1e-3;
-    (-dv * pressure_bar + 0.5 * dk * pressure_bar * pressure_bar) / rt
+    let rt = (t + 273.15) * R_CM3_BAR;
+    let dv = t * c.a[1] + c.a[0] + t * c.a[2] * t;
+    let dk = (t * c.b[1] + c.b[0]) * 1e-3;
+    (-dv * pressure_bar + dk * 0.5 * pressure_bar * pressure_bar) / rt
+}
+
+/// d ln(K_P / K_0) / dP at P = 0: −ΔV / (R T). Only a tangent reads it;
+/// on `f64` it is not computed.
+#[inline]
+fn slope_at_zero(c: &PressureCoefficients, temperature_c: f64) -> f64 {
+    let t = temperature_c;
+    -(c.a[0] + c.a[1] * t + c.a[2] * t * t) / (R_CM3_BAR * (t + 273.15))
 }

@@ -4,6 +4,7 @@
 use super::FitRange;
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use serde::Serialize;
 
 /// Published range of Dickson (1990) KS (range from memory, unverified).
@@ -21,9 +22,13 @@ pub const DICKSON1990_KS_RANGE: FitRange = FitRange::new("dickson1990", (0.0, 45
 /// let i = travertine::fits::sulfate::seawater_ionic_strength(35.0);
 /// assert!((i - 0.7227).abs() < 1e-4);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn seawater_ionic_strength(salinity: f64) -> f64 {
-    19.924 * salinity / (1000.0 - 1.005 * salinity)
+pub fn seawater_ionic_strength<R: Real>(salinity: R) -> R {
+    salinity * 19.924 / (salinity * 1.005).subtracted_from(1000.0)
 }
 
 /// ln KS of Dickson (1990) for HSO4⁻, FREE scale, mol/kg-soln.
@@ -40,18 +45,22 @@ pub fn seawater_ionic_strength(salinity: f64) -> f64 {
 /// let l = travertine::fits::sulfate::dickson1990_ln_ks(298.15, 35.0);
 /// assert!((l - -2.30).abs() < 5e-3);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn dickson1990_ln_ks(temperature_k: f64, salinity: f64) -> f64 {
+pub fn dickson1990_ln_ks<R: Real>(temperature_k: R, salinity: R) -> R {
     let t = temperature_k;
     let ln_t = t.ln();
     let i = seawater_ionic_strength(salinity);
     let ri = i.sqrt();
-    -4276.1 / t + 141.328 - 23.093 * ln_t
-        + (-13856.0 / t + 324.57 - 47.986 * ln_t) * ri
-        + (35474.0 / t - 771.54 + 114.723 * ln_t) * i
-        - 2698.0 / t * i * ri
-        + 1776.0 / t * i * i
-        + (1.0 - 0.001005 * salinity).ln()
+    t.under(-4276.1) + 141.328 - ln_t * 23.093
+        + (t.under(-13856.0) + 324.57 - ln_t * 47.986) * ri
+        + (t.under(35474.0) - 771.54 + ln_t * 114.723) * i
+        - t.under(2698.0) * i * ri
+        + t.under(1776.0) * i * i
+        + (salinity * 0.001005).subtracted_from(1.0).ln()
 }
 
 /// Total sulfate, mol/kg-soln, from Morris & Riley (1966):
@@ -62,9 +71,13 @@ pub fn dickson1990_ln_ks(temperature_k: f64, salinity: f64) -> f64 {
 /// let st = travertine::fits::sulfate::morris_riley1966_total_mol_kg(35.0);
 /// assert!((st - 0.02824).abs() < 5e-6);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn morris_riley1966_total_mol_kg(salinity: f64) -> f64 {
-    (0.1400 / 96.062) * (salinity / 1.80655)
+pub fn morris_riley1966_total_mol_kg<R: Real>(salinity: R) -> R {
+    (salinity / 1.80655) * (0.1400 / 96.062)
 }
 
 /// The bisulfate fit. Only Dickson (1990) is offered; it is a value so that

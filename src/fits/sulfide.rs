@@ -1,6 +1,7 @@
 //! Hydrogen sulfide (first dissociation) in sea water.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Published range of the Millero, Plese & Fernandez (1988) fit (from memory, unverified).
 pub const MILLERO1988_RANGE: FitRange = FitRange::new("millero1988", (0.0, 65.0), (0.0, 44.0));
@@ -19,8 +20,12 @@ pub const MILLERO1988_RANGE: FitRange = FitRange::new("millero1988", (0.0, 65.0)
 /// let pk = travertine::fits::sulfide::millero1988_pk1(298.15, 35.0);
 /// assert!((pk - 6.5107).abs() < 5e-5);
 /// ```
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
 #[inline]
-pub fn millero1988_pk1(temperature_k: f64, salinity: f64) -> f64 {
+pub fn millero1988_pk1<R: Real>(temperature_k: R, salinity: R) -> R {
     let t = temperature_k;
-    -98.080 + 5765.4 / t + 15.0455 * t.ln() - 0.1498 * salinity.sqrt() + 0.0119 * salinity
+    t.under(5765.4) + -98.080 + t.ln() * 15.0455 - salinity.sqrt() * 0.1498 + salinity * 0.0119
 }

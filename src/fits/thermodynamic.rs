@@ -6,6 +6,7 @@
 //! returns log10 K with T in kelvin.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Published range of the Plummer & Busenberg (1982) carbonic acid, CO2 and mineral fits.
 pub const PLUMMER_BUSENBERG1982_RANGE: FitRange =
@@ -32,8 +33,13 @@ pub const EMERSON1975_RANGE: FitRange = FitRange::new("emerson1975", (0.0, 30.0)
 /// let v = travertine::fits::thermodynamic::log_kh(298.15);
 /// assert!((v - -1.4679).abs() < 1e-4);
 /// ```
-pub fn log_kh(t: f64) -> f64 {
-    108.3865 + 0.01985076 * t - 6919.53 / t - 40.45154 * t.log10() + 669365.0 / (t * t)
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_kh<R: Real>(t: R) -> R {
+    t * 0.01985076 + 108.3865 - t.under(6919.53) - Real::log10(t) * 40.45154
+        + (t * t).under(669365.0)
 }
 
 /// log10 K1 of carbonic acid, Plummer & Busenberg (1982).
@@ -46,8 +52,13 @@ pub fn log_kh(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_k1(298.15) - -6.3519).abs() < 1e-4);
 /// ```
-pub fn log_k1(t: f64) -> f64 {
-    -356.3094 - 0.06091964 * t + 21834.37 / t + 126.8339 * t.log10() - 1684915.0 / (t * t)
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_k1<R: Real>(t: R) -> R {
+    (t * 0.06091964).subtracted_from(-356.3094) + t.under(21834.37) + Real::log10(t) * 126.8339
+        - (t * t).under(1684915.0)
 }
 
 /// log10 K2 of carbonic acid, Plummer & Busenberg (1982).
@@ -60,8 +71,13 @@ pub fn log_k1(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_k2(298.15) - -10.3289).abs() < 1e-4);
 /// ```
-pub fn log_k2(t: f64) -> f64 {
-    -107.8871 - 0.03252849 * t + 5151.79 / t + 38.92561 * t.log10() - 563713.9 / (t * t)
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_k2<R: Real>(t: R) -> R {
+    (t * 0.03252849).subtracted_from(-107.8871) + t.under(5151.79) + Real::log10(t) * 38.92561
+        - (t * t).under(563713.9)
 }
 
 /// log10 Ksp of calcite, Plummer & Busenberg (1982).
@@ -74,8 +90,12 @@ pub fn log_k2(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_ksp_calcite(298.15) - -8.4798).abs() < 1e-4);
 /// ```
-pub fn log_ksp_calcite(t: f64) -> f64 {
-    -171.9065 - 0.077993 * t + 2839.319 / t + 71.595 * t.log10()
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_ksp_calcite<R: Real>(t: R) -> R {
+    (t * 0.077993).subtracted_from(-171.9065) + t.under(2839.319) + Real::log10(t) * 71.595
 }
 
 /// log10 Ksp of aragonite, Plummer & Busenberg (1982).
@@ -88,8 +108,12 @@ pub fn log_ksp_calcite(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_ksp_aragonite(298.15) - -8.3361).abs() < 1e-4);
 /// ```
-pub fn log_ksp_aragonite(t: f64) -> f64 {
-    -171.9773 - 0.077993 * t + 2903.293 / t + 71.595 * t.log10()
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_ksp_aragonite<R: Real>(t: R) -> R {
+    (t * 0.077993).subtracted_from(-171.9773) + t.under(2903.293) + Real::log10(t) * 71.595
 }
 
 /// log10 K of the CaHCO3+ ion pair (association), Plummer & Busenberg (1982).
@@ -102,8 +126,12 @@ pub fn log_ksp_aragonite(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_k_cahco3(298.15) - 1.11).abs() < 0.01);
 /// ```
-pub fn log_k_cahco3(t: f64) -> f64 {
-    1209.120 + 0.31294 * t - 34765.05 / t - 478.782 * t.log10()
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_k_cahco3<R: Real>(t: R) -> R {
+    t * 0.31294 + 1209.120 - t.under(34765.05) - Real::log10(t) * 478.782
 }
 
 /// log10 K of the CaCO3⁰ ion pair (association), Plummer & Busenberg (1982).
@@ -116,8 +144,12 @@ pub fn log_k_cahco3(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_k_caco3(298.15) - 3.22).abs() < 0.01);
 /// ```
-pub fn log_k_caco3(t: f64) -> f64 {
-    -1228.732 - 0.299444 * t + 35512.75 / t + 485.818 * t.log10()
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_k_caco3<R: Real>(t: R) -> R {
+    (t * 0.299444).subtracted_from(-1228.732) + t.under(35512.75) + Real::log10(t) * 485.818
 }
 
 /// log10 Kw of pure water, the simple fit of Harned & Owen (1958):
@@ -131,8 +163,12 @@ pub fn log_k_caco3(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::log_kw(298.15) - -13.9947).abs() < 1e-3);
 /// ```
-pub fn log_kw(t: f64) -> f64 {
-    -4470.99 / t + 6.0875 - 0.01706 * t
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn log_kw<R: Real>(t: R) -> R {
+    t.under(-4470.99) + 6.0875 - t * 0.01706
 }
 
 /// pKa of NH4+ in fresh water, Emerson et al. (1975):
@@ -142,6 +178,10 @@ pub fn log_kw(t: f64) -> f64 {
 /// ```
 /// assert!((travertine::fits::thermodynamic::emerson1975_pka(298.15) - 9.2464).abs() < 1e-4);
 /// ```
-pub fn emerson1975_pka(t: f64) -> f64 {
-    0.09018 + 2729.92 / t
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn emerson1975_pka<R: Real>(t: R) -> R {
+    t.under(2729.92) + 0.09018
 }

@@ -17,6 +17,7 @@
 //! every wind.
 
 use super::FitRange;
+use crate::base::numeric::Real;
 
 /// Published range of the Wanninkhof (2014) Schmidt-number polynomials:
 /// −2 to 40 °C; fresh water (salinity 0) and sea water (salinity 35),
@@ -51,9 +52,13 @@ pub const SMOOTH_SURFACE_BELOW_M_S: f64 = 3.7;
 /// // Wanninkhof 2014: 600.3 at 20 °C in fresh water.
 /// assert!((wanninkhof2014_schmidt_fresh(20.0) - 600.3).abs() < 0.05);
 /// ```
-pub fn wanninkhof2014_schmidt_fresh(temperature_c: f64) -> f64 {
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn wanninkhof2014_schmidt_fresh<R: Real>(temperature_c: R) -> R {
     let t = temperature_c;
-    1923.6 + t * (-125.06 + t * (4.3773 + t * (-0.085681 + t * 0.000_702_84)))
+    t * (t * (t * (t * 0.000_702_84 + -0.085681) + 4.3773) + -125.06) + 1923.6
 }
 
 /// Schmidt number of CO2 in sea water of salinity 35, Wanninkhof (2014):
@@ -70,9 +75,13 @@ pub fn wanninkhof2014_schmidt_fresh(temperature_c: f64) -> f64 {
 /// // Wanninkhof 2014: 668.3 at 20 °C in sea water (S 35).
 /// assert!((wanninkhof2014_schmidt_sea(20.0) - 668.3).abs() < 0.05);
 /// ```
-pub fn wanninkhof2014_schmidt_sea(temperature_c: f64) -> f64 {
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn wanninkhof2014_schmidt_sea<R: Real>(temperature_c: R) -> R {
     let t = temperature_c;
-    2116.8 + t * (-136.25 + t * (4.7353 + t * (-0.092307 + t * 0.000_755_5)))
+    t * (t * (t * (t * 0.000_755_5 + -0.092307) + 4.7353) + -136.25) + 2116.8
 }
 
 /// Schmidt number of CO2 at any salinity: the Wanninkhof (2014) fresh-water
@@ -92,7 +101,11 @@ pub fn wanninkhof2014_schmidt_sea(temperature_c: f64) -> f64 {
 /// let half = schmidt_number(20.0, 17.5);
 /// assert!((half - (600.326 + 668.344) / 2.0).abs() < 0.01);
 /// ```
-pub fn schmidt_number(temperature_c: f64, salinity: f64) -> f64 {
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn schmidt_number<R: Real>(temperature_c: R, salinity: R) -> R {
     let fresh = wanninkhof2014_schmidt_fresh(temperature_c);
     let sea = wanninkhof2014_schmidt_sea(temperature_c);
     fresh + (sea - fresh) * salinity / SEA_WATER_SALINITY
@@ -128,7 +141,11 @@ pub fn schmidt_exponent(model: GasTransfer, wind_m_s: Option<f64>) -> f64 {
 /// assert_eq!(transfer_velocity(5.0, 600.0, 0.5), 5.0);
 /// assert!((transfer_velocity(5.0, 2400.0, 0.5) - 2.5).abs() < 1e-12);
 /// ```
-pub fn transfer_velocity(k600: f64, sc: f64, n: f64) -> f64 {
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn transfer_velocity<R: Real>(k600: R, sc: R, n: f64) -> R {
     k600 * (sc / REFERENCE_SCHMIDT).powf(-n)
 }
 
@@ -247,6 +264,9 @@ impl GasTransfer {
     /// area. A negative result (Vachon & Prairie on a very small lake in a
     /// strong wind) is kept at zero.
     ///
+    /// The wind is generic (an uncertainty source); the area is a plain
+    /// number. Zero has no slope.
+    ///
     /// # Units
     /// Wind in m/s, area in km², k600 in cm/h.
     ///
@@ -257,12 +277,16 @@ impl GasTransfer {
     /// assert!((vp.k600_cm_h(4.0, Some(10.0)).unwrap() - 9.99).abs() < 1e-9);
     /// assert_eq!(vp.k600_cm_h(4.0, None), None);
     /// ```
-    pub fn k600_cm_h(self, wind_m_s: f64, area_km2: Option<f64>) -> Option<f64> {
+    ///
+    /// Generic over [`Real`]: on `f64` the value, on a
+    /// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+    /// and its derivatives.
+    pub fn k600_cm_h<R: Real>(self, wind_m_s: R, area_km2: Option<f64>) -> Option<R> {
         let u = wind_m_s;
         let k = match self {
-            GasTransfer::ColeCaraco1998 => 2.07 + 0.215 * u.powf(1.7),
-            GasTransfer::VachonPrairie2013 => 2.51 + 1.48 * u + 0.39 * u * area_km2?.log10(),
-            GasTransfer::Wanninkhof2014 => 0.251 * u * u * (REFERENCE_SCHMIDT / 660.0).powf(-0.5),
+            GasTransfer::ColeCaraco1998 => u.powf(1.7) * 0.215 + 2.07,
+            GasTransfer::VachonPrairie2013 => u * 1.48 + 2.51 + u * 0.39 * area_km2?.log10(),
+            GasTransfer::Wanninkhof2014 => u * 0.251 * u * (REFERENCE_SCHMIDT / 660.0).powf(-0.5),
             GasTransfer::Given => return None,
         };
         Some(k.max(0.0))

@@ -11,9 +11,9 @@
 //! J · (dh/ds, dDIC/ds)ᵀ = −∂G/∂s,     J = ∂G/∂(h, DIC)   (2 × 2)
 //! ```
 //!
-//! The residuals are evaluated once on [`Tangent`]s, with h and DIC
-//! seeded as two extra slots: their derivatives in those slots are J, and
-//! in the others ∂G/∂s. The values come from the solve on `f64`, which
+//! The residuals are evaluated twice on [`Tangent`]s: with h and DIC
+//! seeded and the sources held (their derivatives are J), and with h and
+//! DIC held and the sources seeded (∂G/∂s). The values come from the solve on `f64`, which
 //! stays the one solver; only the derivatives are made here.
 
 use super::{dic_per_co2, dic_per_co3, dic_per_hco3};
@@ -67,35 +67,34 @@ pub(crate) fn residual<R: Real>(k: &Constants<R>, h: R, dic: R, m: &Measured, nu
 
 /// h and DIC as [`Tangent`]s: the values `h`, `dic` of the solve, and their
 /// derivatives with respect to every source by implicit differentiation
-/// (see the module). `a` and `b` are the two measurements with their
-/// numbers (seeded where a measurement is a source); slots `slot_h` and
-/// `slot_dic` must be free (no source there) and come back zero. `None`
-/// where J is singular (a double root of a two-root pair) or a derivative
-/// is not finite.
+/// (see the module). `k` carries the sources' derivatives; `plain` is the
+/// same constants without them (its numbers on a two-slot tangent, which
+/// gives J: h and DIC are seeded there). `a` and `b` are the two
+/// measurements with their numbers (seeded where a measurement is a
+/// source). `None` where J is singular (a double root of a two-root pair)
+/// or a derivative is not finite.
 pub(crate) fn unknowns<const N: usize>(
     k: &Constants<Tangent<N>>,
+    plain: &Constants<Tangent<2>>,
     (h, dic): (f64, f64),
     a: (&Measured, Tangent<N>),
     b: (&Measured, Tangent<N>),
-    (slot_h, slot_dic): (usize, usize),
 ) -> Option<(Tangent<N>, Tangent<N>)> {
-    let th = Tangent::source(h, slot_h);
-    let tdic = Tangent::source(dic, slot_dic);
-    let ga = residual(k, th, tdic, a.0, a.1);
-    let gb = residual(k, th, tdic, b.0, b.1);
-    let j = [
-        [ga.d.get(slot_h)?, ga.d.get(slot_dic)?],
-        [gb.d.get(slot_h)?, gb.d.get(slot_dic)?],
-    ];
+    // J = ∂G/∂(h, DIC) at the constants and measurements held.
+    let (th, tdic) = (Tangent::<2>::source(h, 0), Tangent::<2>::source(dic, 1));
+    let ja = residual(plain, th, tdic, a.0, Tangent::constant(a.0.number()));
+    let jb = residual(plain, th, tdic, b.0, Tangent::constant(b.0.number()));
+    let j = [ja.d, jb.d];
     let det = j[0][0] * j[1][1] - j[0][1] * j[1][0];
     if !(det.is_finite() && det != 0.0) {
         return None;
     }
+    // ∂G/∂s at h and DIC held.
+    let (hh, dh0) = (Tangent::<N>::constant(h), Tangent::<N>::constant(dic));
+    let ga = residual(k, hh, dh0, a.0, a.1);
+    let gb = residual(k, hh, dh0, b.0, b.1);
     let (mut dh, mut ddic) = ([0.0; N], [0.0; N]);
     for s in 0..N {
-        if s == slot_h || s == slot_dic {
-            continue;
-        }
         let (ra, rb) = (ga.d[s], gb.d[s]);
         // (dh, dDIC) = −J⁻¹ (ra, rb), by Cramer's rule.
         dh[s] = -(ra * j[1][1] - rb * j[0][1]) / det;
