@@ -109,6 +109,9 @@ pub trait Real:
     fn pow10(self) -> Self;
     /// xᵖ for a constant p; d xᵖ = p xᵖ⁻¹ dx.
     fn powf(self, p: f64) -> Self;
+    /// bˣ for a constant base b, computed as `b.powf(x)` (not through
+    /// `exp`); d bˣ = ln b · bˣ dx.
+    fn power_of(self, base: f64) -> Self;
     /// Square root; d √x = dx / (2 √x).
     fn sqrt(self) -> Self;
     /// Absolute value; its derivative is the sign of the value times dx
@@ -162,6 +165,10 @@ impl Real for f64 {
     #[inline(always)]
     fn powf(self, p: f64) -> Self {
         f64::powf(self, p)
+    }
+    #[inline(always)]
+    fn power_of(self, base: f64) -> Self {
+        f64::powf(base, self)
     }
     #[inline(always)]
     fn sqrt(self) -> Self {
@@ -227,12 +234,16 @@ impl<const N: usize> Tangent<N> {
     }
 
     /// The chain rule for a function of one variable: value `f`, slope
-    /// `df` (df/dx at this value).
+    /// `df` (df/dx at this value). A zero derivative stays zero even where
+    /// the slope is infinite (√x at x = 0): a source that does not move x
+    /// does not move f(x), where 0 · ∞ would give NaN.
     #[inline(always)]
     fn chain(self, f: f64, df: f64) -> Self {
         let mut d = self.d;
         for x in &mut d {
-            *x *= df;
+            if *x != 0.0 {
+                *x *= df;
+            }
         }
         Tangent { v: f, d }
     }
@@ -393,6 +404,11 @@ impl<const N: usize> Real for Tangent<N> {
         self.chain(e, p * self.v.powf(p - 1.0))
     }
     #[inline(always)]
+    fn power_of(self, base: f64) -> Self {
+        let e = base.powf(self.v);
+        self.chain(e, e * base.ln())
+    }
+    #[inline(always)]
     fn sqrt(self) -> Self {
         let r = self.v.sqrt();
         self.chain(r, 0.5 / r)
@@ -431,36 +447,43 @@ mod tests {
     fn tangent_values_are_the_f64_values_and_slopes_agree_with_central_differences() {
         type F = fn(Tangent<1>) -> Tangent<1>;
         type G = fn(f64) -> f64;
-        let cases: [(&str, F, G); 13] = [
+        let cases: [(&str, F, G); 14] = [
             ("ln", |x| x.ln(), |x| x.ln()),
             ("exp", |x| x.exp(), |x| x.exp()),
             ("log10", |x| Real::log10(x), f64::log10),
             ("log10_via_ln", |x| x.log10_via_ln(), super::log10),
             ("pow10", |x| x.pow10(), super::pow10),
             ("powf", |x| x.powf(1.7), |x| x.powf(1.7)),
+            ("power_of", |x| x.power_of(10.0), |x| 10f64.powf(x)),
             ("sqrt", |x| x.sqrt(), |x| x.sqrt()),
             ("under", |x| x.under(3.0), |x| 3.0 / x),
             ("subtracted_from", |x| x.subtracted_from(3.0), |x| 3.0 - x),
             ("neg abs", |x| (-x).abs(), |x| (-x).abs()),
-            ("mixed", |x| x * x / (x + 1.0) - x * 0.5, |x| {
-                x * x / (x + 1.0) - x * 0.5
-            }),
+            (
+                "mixed",
+                |x| x * x / (x + 1.0) - x * 0.5,
+                |x| x * x / (x + 1.0) - x * 0.5,
+            ),
             ("div const", |x| x / 7.0, |x| x / 7.0),
-            ("assign", |x| {
-                let mut y = x;
-                y *= x;
-                y -= x;
-                y /= x + 2.0;
-                y += x;
-                y
-            }, |x| {
-                let mut y = x;
-                y *= x;
-                y -= x;
-                y /= x + 2.0;
-                y += x;
-                y
-            }),
+            (
+                "assign",
+                |x| {
+                    let mut y = x;
+                    y *= x;
+                    y -= x;
+                    y /= x + 2.0;
+                    y += x;
+                    y
+                },
+                |x| {
+                    let mut y = x;
+                    y *= x;
+                    y -= x;
+                    y /= x + 2.0;
+                    y += x;
+                    y
+                },
+            ),
         ];
         for (name, f, g) in cases {
             for x in [0.37, 1.3, 2.9, 7.5] {
@@ -488,6 +511,18 @@ mod tests {
         assert_eq!(r.v, x);
         assert!((r.d[0] - 0.5 / x).abs() < 1e-15);
         assert_eq!(<f64 as Real>::root(x, 1.0, 2.0), x);
+    }
+
+    /// √x at x = 0 has an infinite slope: a source that does not move x
+    /// keeps a zero derivative instead of 0 · ∞ = NaN; one that does gets ∞.
+    #[test]
+    fn a_constant_zero_under_an_infinite_slope_keeps_a_zero_derivative() {
+        let x = Tangent::<2>::new(0.0, [0.0, 1.0]);
+        let r = x.sqrt();
+        assert_eq!(r.v, 0.0);
+        assert_eq!(r.d[0], 0.0);
+        assert_eq!(r.d[1], f64::INFINITY);
+        assert_eq!(Tangent::<1>::constant(0.0).powf(0.5).d, [0.0]);
     }
 
     #[test]

@@ -3,6 +3,7 @@
 
 use crate::base::error::{check_range, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use crate::base::units::Amount;
 use crate::fits::BoronTotalFit;
 use serde::Serialize;
@@ -40,6 +41,18 @@ pub struct Composition {
     potassium: Option<Amount>,
     chloride: Option<Amount>,
     hardness: Option<Amount>,
+}
+
+/// An amount in mol/kg at a density: exactly [`Amount::mol_kg`]
+/// (`v · 1000 / ρ` for a per-litre amount, the same operations in the same
+/// order), generic over [`Real`] in the density. The amount itself is a
+/// constant.
+#[inline]
+fn mol_kg_at<R: Real>(a: Amount, density_kg_m3: R) -> R {
+    match a {
+        Amount::PerKg(v) => R::constant(v),
+        Amount::PerLitre(v) => density_kg_m3.under(v * 1000.0),
+    }
 }
 
 fn checked(field: Field, a: Amount, min: f64, max: f64) -> Result<Option<Amount>> {
@@ -128,17 +141,24 @@ impl Composition {
     }
 
     /// The totals for fresh water: nothing follows from salinity; what was
-    /// not given is zero.
+    /// not given is zero. Generic over [`Real`] in the density (used for
+    /// per-litre amounts); the amounts themselves are constants.
     ///
     /// ```
     /// # use travertine::{units::Amount, sample::Composition};
-    /// let t = Composition::default().with_calcium(Amount::PerLitre(1e-3))?.fresh_totals(998.0);
+    /// use travertine::base::numeric::{Real, Tangent};
+    /// let c = Composition::default().with_calcium(Amount::PerLitre(1e-3))?;
+    /// let t = c.fresh_totals(998.0);
     /// assert!((t.calcium_mol_kg - 1e-3 / 0.998).abs() < 1e-12);
     /// assert_eq!(t.boron_mol_kg, 0.0);
+    /// // d[Ca]/dρ = −[Ca]/ρ for a per-litre amount:
+    /// let d = c.fresh_totals(Tangent::<1>::source(998.0, 0));
+    /// assert_eq!(d.calcium_mol_kg.value(), t.calcium_mol_kg);
+    /// assert!((d.calcium_mol_kg.d[0] + t.calcium_mol_kg / 998.0).abs() < 1e-18);
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn fresh_totals(&self, density_kg_m3: f64) -> Totals {
-        let get = |a: Option<Amount>| a.map_or(0.0, |a| a.mol_kg(density_kg_m3));
+    pub fn fresh_totals<R: Real>(&self, density_kg_m3: R) -> Totals<R> {
+        let get = |a: Option<Amount>| a.map_or(R::constant(0.0), |a| mol_kg_at(a, density_kg_m3));
         Totals {
             boron_mol_kg: get(self.boron),
             sulfate_mol_kg: get(self.sulfate),
@@ -198,16 +218,35 @@ impl Composition {
     }
 
     /// The totals for saline water of practical salinity `salinity`, with
-    /// the density used for per-litre amounts.
+    /// the density used for per-litre amounts. Generic over [`Real`] in the
+    /// density; the salinity is a plain number for now, so the totals that
+    /// follow from it (boron, sulfate, fluoride, calcium not given) are
+    /// constants without derivatives.
     ///
     /// ```
     /// # use travertine::{fits::BoronTotalFit, sample::Composition};
+    /// use travertine::base::numeric::{Real, Tangent};
     /// let t = Composition::default().saline_totals(35.0, 1023.3, BoronTotalFit::Lee2010);
     /// assert!((t.boron_mol_kg * 1e6 - 432.5).abs() < 0.05);
+    /// let d = Composition::default().saline_totals(35.0, Tangent::<1>::source(1023.3, 0), BoronTotalFit::Lee2010);
+    /// assert_eq!(d.boron_mol_kg.value(), t.boron_mol_kg);
     /// ```
-    pub fn saline_totals(&self, salinity: f64, density_kg_m3: f64, boron: BoronTotalFit) -> Totals {
-        let get = |a: Option<Amount>, default: f64| a.map_or(default, |a| a.mol_kg(density_kg_m3));
+    // TODO(merge): generic in `salinity` too once the fits in src/fits are
+    // generic: `BoronTotalFit::total_mol_kg`,
+    // `sulfate::morris_riley1966_total_mol_kg`,
+    // `fluoride::riley1965_total_mol_kg` and
+    // `minerals::riley_tongudai1967_calcium_mol_kg`.
+    pub fn saline_totals<R: Real>(
+        &self,
+        salinity: f64,
+        density_kg_m3: R,
+        boron: BoronTotalFit,
+    ) -> Totals<R> {
+        let get = |a: Option<Amount>, default: f64| {
+            a.map_or(R::constant(default), |a| mol_kg_at(a, density_kg_m3))
+        };
         use crate::fits::{fluoride, minerals, sulfate};
+        let zero = R::constant(0.0);
         Totals {
             boron_mol_kg: get(self.boron, boron.total_mol_kg(salinity)),
             sulfate_mol_kg: get(
@@ -223,12 +262,19 @@ impl Composition {
                 self.calcium,
                 minerals::riley_tongudai1967_calcium_mol_kg(salinity),
             ),
-            ..Totals::default()
+            magnesium_mol_kg: zero,
+            sodium_mol_kg: zero,
+            potassium_mol_kg: zero,
+            chloride_mol_kg: zero,
+            hardness_mol_kg: zero,
         }
     }
 }
 
-/// Totals of the acid systems and calcium, mol/kg-soln.
+/// Totals of the acid systems and calcium, mol/kg-soln: plain numbers
+/// (`Totals`, i.e. `Totals<f64>`), or numbers with derivatives
+/// (`Totals<Tangent<N>>`, from [`Composition::fresh_totals`] or
+/// [`Composition::saline_totals`] given a density with derivatives).
 ///
 /// ```
 /// use travertine::{Conditions, Water};
@@ -238,31 +284,31 @@ impl Composition {
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Default)]
 #[non_exhaustive]
-pub struct Totals {
+pub struct Totals<R: Real = f64> {
     /// Total boron.
-    pub boron_mol_kg: f64,
+    pub boron_mol_kg: R,
     /// Total sulfate.
-    pub sulfate_mol_kg: f64,
+    pub sulfate_mol_kg: R,
     /// Total fluoride.
-    pub fluoride_mol_kg: f64,
+    pub fluoride_mol_kg: R,
     /// Total phosphate.
-    pub phosphate_mol_kg: f64,
+    pub phosphate_mol_kg: R,
     /// Total silicate.
-    pub silicate_mol_kg: f64,
+    pub silicate_mol_kg: R,
     /// Total ammonia (NH3 + NH4+).
-    pub ammonia_mol_kg: f64,
+    pub ammonia_mol_kg: R,
     /// Total sulfide (H2S + HS-).
-    pub sulfide_mol_kg: f64,
+    pub sulfide_mol_kg: R,
     /// Calcium.
-    pub calcium_mol_kg: f64,
+    pub calcium_mol_kg: R,
     /// Magnesium (fresh water, for the ionic strength).
-    pub magnesium_mol_kg: f64,
+    pub magnesium_mol_kg: R,
     /// Sodium (fresh water).
-    pub sodium_mol_kg: f64,
+    pub sodium_mol_kg: R,
     /// Potassium (fresh water).
-    pub potassium_mol_kg: f64,
+    pub potassium_mol_kg: R,
     /// Chloride (fresh water).
-    pub chloride_mol_kg: f64,
+    pub chloride_mol_kg: R,
     /// Hardness whose split between Ca and Mg is unknown (fresh water).
-    pub hardness_mol_kg: f64,
+    pub hardness_mol_kg: R,
 }
