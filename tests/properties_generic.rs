@@ -618,3 +618,78 @@ fn saline_totals() {
         }
     }
 }
+
+/// The companion of `salinity_from_conductivity` that carries derivatives:
+/// its value is the f64 result bit for bit (and on f64 it is that result),
+/// and its derivatives, themselves central differences of gsw with the
+/// step 1e-5 max(|x|, X), agree with central differences taken here with a
+/// step a hundred times larger (truncation about 1e-6 relative), within
+/// 1e-5 relative. This checks the chain rule's wiring (which source, sign
+/// and scale), not gsw.
+#[test]
+fn salinity_from_conductivity_with_derivatives() {
+    use travertine::properties::conductivity::{
+        salinity_from_conductivity, salinity_from_conductivity_generic,
+    };
+    let f = |x: [f64; 3]| {
+        salinity_from_conductivity(x[0], x[1], x[2]).unwrap_or_else(|e| panic!("{x:?}: {e}"))
+    };
+    let mut n = 0;
+    for cond in [0.0, 60.0, 415.0, 5200.0, 42914.0, 99_000.0] {
+        for t in [0.0, 15.0, 25.0, 35.0] {
+            for p in [0.0, 100.0, 1000.0] {
+                let x = [cond, t, p];
+                let Ok(s) = salinity_from_conductivity(cond, t, p) else {
+                    // gsw refuses some zero conductivities (a rounded
+                    // salinity below 0): so does the companion.
+                    assert!(
+                        salinity_from_conductivity_generic(T::source(cond, 0), c(t), c(p)).is_err()
+                    );
+                    assert_eq!(cond, 0.0, "{x:?}");
+                    continue;
+                };
+                assert_eq!(
+                    salinity_from_conductivity_generic(cond, t, p)
+                        .unwrap()
+                        .to_bits(),
+                    s.to_bits()
+                );
+                let r = salinity_from_conductivity_generic(
+                    T::source(cond, 0),
+                    T::source(t, 1),
+                    T::source(p, 2),
+                )
+                .unwrap();
+                assert_eq!(r.value().to_bits(), s.to_bits(), "{x:?}");
+                if cond == 0.0 {
+                    // PSS-78's low-salinity terms go as √Rt: no finite
+                    // slope, and gsw refuses the points just above 0.
+                    assert!(r.d[0].is_nan(), "{x:?}");
+                    // S is 0 to rounding whatever t and p.
+                    assert!(r.d[1].abs() < 1e-12 && r.d[2].abs() < 1e-12, "{x:?}: {r:?}");
+                    continue;
+                }
+                for j in 0..3 {
+                    let h = 1e-3 * x[j].abs().max([1.0, 1.0, 100.0][j]);
+                    let at = |dx: f64| {
+                        let mut y = x;
+                        y[j] += dx;
+                        f(y)
+                    };
+                    let cd = if x[j] - h < 0.0 {
+                        (-3.0 * s + 4.0 * at(h) - at(2.0 * h)) / (2.0 * h)
+                    } else {
+                        (at(h) - at(-h)) / (2.0 * h)
+                    };
+                    assert!(
+                        (r.d[j] - cd).abs() <= 1e-5 * cd.abs() + 1e-12,
+                        "dS/dx{j} {} against {cd} at {x:?}",
+                        r.d[j]
+                    );
+                    n += 1;
+                }
+            }
+        }
+    }
+    assert_eq!(n, 5 * 4 * 3 * 3);
+}

@@ -98,6 +98,90 @@ pub fn salinity_from_conductivity(
     }
 }
 
+/// Practical salinity from conductivity as [`salinity_from_conductivity`]
+/// gives it, on any [`Real`]: the value is that of
+/// [`salinity_from_conductivity`] bit for bit, and the derivatives follow
+/// by the chain rule, dS = ∂S/∂C dC + ∂S/∂t dt + ∂S/∂p dp.
+///
+/// TEOS-10 (`gsw`) computes on `f64` only, so the three partial
+/// derivatives are not exact: each is a central difference of
+/// [`salinity_from_conductivity`] with the step h = 1e-5 max(|x|, X), X
+/// being 1 µS/cm, 1 °C and 100 dbar, one-sided and of
+/// second order where a step would leave the accepted range (conductivity
+/// 0 or 100 000 µS/cm, a pressure below 0). PSS-78 is a smooth
+/// polynomial, so they are good to about 1e-9 relative (truncation h²,
+/// rounding ε/h). On `f64` no difference is taken. Where TEOS-10 gives no
+/// salinity beside the point (at zero conductivity, where PSS-78 goes as
+/// √Rt and has no finite slope, it refuses the points just above), that
+/// partial derivative is NaN: unknown, never a made-up zero. The value is
+/// set exactly, as the root of S − s(C, t, p) = 0 ([`Real::root`]).
+///
+/// # Errors
+/// As [`salinity_from_conductivity`] at the given values.
+///
+/// # Example
+/// ```
+/// use travertine::base::numeric::{Real, Tangent};
+/// use travertine::properties::conductivity::{
+///     salinity_from_conductivity, salinity_from_conductivity_generic,
+/// };
+/// let s = salinity_from_conductivity(42914.0, 15.0, 0.0)?;
+/// let c = Tangent::<1>::source(42914.0, 0);
+/// let t = salinity_from_conductivity_generic(c, Real::constant(15.0), Real::constant(0.0))?;
+/// assert_eq!(t.value(), s);
+/// // dS/dC against a difference taken here with a larger step:
+/// let up = salinity_from_conductivity(42924.0, 15.0, 0.0)?;
+/// let down = salinity_from_conductivity(42904.0, 15.0, 0.0)?;
+/// assert!((t.d[0] / ((up - down) / 20.0) - 1.0).abs() < 1e-6);
+/// assert_eq!(salinity_from_conductivity_generic(42914.0, 15.0, 0.0)?, s);
+/// # Ok::<(), travertine::Error>(())
+/// ```
+pub fn salinity_from_conductivity_generic<R: Real>(
+    conductivity_us_cm: R,
+    temperature_c: R,
+    pressure_dbar: R,
+) -> Result<R> {
+    let x = [
+        conductivity_us_cm.value(),
+        temperature_c.value(),
+        pressure_dbar.value(),
+    ];
+    let f = |x: [f64; 3]| salinity_from_conductivity(x[0], x[1], x[2]);
+    let s = f(x)?;
+    if std::any::TypeId::of::<R>() == std::any::TypeId::of::<f64>() {
+        return Ok(R::constant(s));
+    }
+    let lower = [0.0, f64::MIN, 0.0];
+    let upper = [100_000.0, f64::MAX, f64::MAX];
+    let scale = [1.0, 1.0, 100.0];
+    let mut slopes = [0.0; 3];
+    for (j, slope) in slopes.iter_mut().enumerate() {
+        let h = 1e-5 * x[j].abs().max(scale[j]);
+        let at = |dx: f64| {
+            let mut y = x;
+            y[j] += dx;
+            f(y)
+        };
+        let centred = x[j] - h >= lower[j] && x[j] + h <= upper[j];
+        *slope = match (centred, at(h).ok(), at(-h).ok()) {
+            (true, Some(hi), Some(lo)) => (hi - lo) / (2.0 * h),
+            (_, Some(hi), _) if x[j] + 2.0 * h <= upper[j] => {
+                at(2.0 * h).map_or(f64::NAN, |hi2| (-3.0 * s + 4.0 * hi - hi2) / (2.0 * h))
+            }
+            (_, _, Some(lo)) if x[j] - 2.0 * h >= lower[j] => {
+                at(-2.0 * h).map_or(f64::NAN, |lo2| (3.0 * s - 4.0 * lo + lo2) / (2.0 * h))
+            }
+            _ => f64::NAN,
+        };
+    }
+    // S is the root of F = S − s(C, t, p): ∂F/∂S = 1 and ∂F/∂source is
+    // −(∂s/∂x)(dx/dsource), the derivatives of `residual`.
+    let residual = (conductivity_us_cm - x[0]) * -slopes[0]
+        + (temperature_c - x[1]) * -slopes[1]
+        + (pressure_dbar - x[2]) * -slopes[2];
+    Ok(R::root(s, residual, 1.0))
+}
+
 /// Ionic strength (mol/kg) from specific conductance at 25 °C (µS/cm),
 /// Russell (1976): `I = 1.6e-5 SpC` (from memory, unverified).
 ///
