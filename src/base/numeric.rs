@@ -110,6 +110,9 @@ pub trait Real:
     fn pow10(self) -> Self;
     /// xᵖ for a constant p; d xᵖ = p xᵖ⁻¹ dx.
     fn powf(self, p: f64) -> Self;
+    /// bˣ for a constant base b, computed as `b.powf(x)` (not through
+    /// `exp`); d bˣ = ln b · bˣ dx.
+    fn power_of(self, base: f64) -> Self;
     /// Square root; d √x = dx / (2 √x). At x = 0 a source that does not
     /// move x does not move √x (a slope of 0, not 0 · ∞): a sea-water fit
     /// evaluated at a constant salinity of 0 keeps finite temperature
@@ -133,7 +136,8 @@ pub trait Real:
     /// without its arithmetic (a shortcut such as a pressure factor of
     /// exactly 1 at zero pressure) and whose slope there is `slope`. On
     /// `f64`, `v` alone (the slope is not read, and not computed once
-    /// inlined).
+    /// inlined). A slope that is not finite moves only with the sources
+    /// that move this number (0 rather than 0 · ∞ or 0 · NaN elsewhere).
     fn with_slope(self, v: f64, slope: f64) -> Self;
 }
 
@@ -177,6 +181,10 @@ impl Real for f64 {
     #[inline(always)]
     fn powf(self, p: f64) -> Self {
         f64::powf(self, p)
+    }
+    #[inline(always)]
+    fn power_of(self, base: f64) -> Self {
+        f64::powf(base, self)
     }
     #[inline(always)]
     fn sqrt(self) -> Self {
@@ -260,12 +268,31 @@ impl<const N: usize> Tangent<N> {
     }
 
     /// The chain rule for a function of one variable: value `f`, slope
-    /// `df` (df/dx at this value).
+    /// `df` (df/dx at this value). A zero derivative stays zero even where
+    /// the slope is infinite (√x at x = 0): a source that does not move x
+    /// does not move f(x), where 0 · ∞ would give NaN.
     #[inline(always)]
     fn chain(self, f: f64, df: f64) -> Self {
         let mut d = self.d;
         for x in &mut d {
             *x *= df;
+        }
+        Tangent { v: f, d }
+    }
+
+    /// [`Tangent::chain`] where the slope may be infinite (√x and x^p,
+    /// p < 1, at 0): a source that does not move x does not move f(x)
+    /// (0, not 0 · ∞ = NaN).
+    #[inline(always)]
+    fn chain_steep(self, f: f64, df: f64) -> Self {
+        if df.is_finite() {
+            return self.chain(f, df);
+        }
+        let mut d = self.d;
+        for x in &mut d {
+            if *x != 0.0 {
+                *x *= df;
+            }
         }
         Tangent { v: f, d }
     }
@@ -423,21 +450,17 @@ impl<const N: usize> Real for Tangent<N> {
     #[inline(always)]
     fn powf(self, p: f64) -> Self {
         let e = self.v.powf(p);
-        self.chain(e, p * self.v.powf(p - 1.0))
+        self.chain_steep(e, p * self.v.powf(p - 1.0))
+    }
+    #[inline(always)]
+    fn power_of(self, base: f64) -> Self {
+        let e = base.powf(self.v);
+        self.chain(e, e * base.ln())
     }
     #[inline(always)]
     fn sqrt(self) -> Self {
         let r = self.v.sqrt();
-        if r == 0.0 {
-            let mut d = self.d;
-            for x in &mut d {
-                if *x != 0.0 {
-                    *x *= 0.5 / r;
-                }
-            }
-            return Tangent { v: r, d };
-        }
-        self.chain(r, 0.5 / r)
+        self.chain_steep(r, 0.5 / r)
     }
     #[inline(always)]
     fn abs(self) -> Self {
@@ -462,7 +485,7 @@ impl<const N: usize> Real for Tangent<N> {
     }
     #[inline(always)]
     fn with_slope(self, v: f64, slope: f64) -> Self {
-        self.chain(v, slope)
+        self.chain_steep(v, slope)
     }
 }
 
@@ -486,13 +509,14 @@ mod tests {
     fn tangent_values_are_the_f64_values_and_slopes_agree_with_central_differences() {
         type F = fn(Tangent<1>) -> Tangent<1>;
         type G = fn(f64) -> f64;
-        let cases: [(&str, F, G); 16] = [
+        let cases: [(&str, F, G); 17] = [
             ("ln", |x| x.ln(), |x| x.ln()),
             ("exp", |x| x.exp(), |x| x.exp()),
             ("log10", |x| Real::log10(x), f64::log10),
             ("log10_via_ln", |x| x.log10_via_ln(), super::log10),
             ("pow10", |x| x.pow10(), super::pow10),
             ("powf", |x| x.powf(1.7), |x| x.powf(1.7)),
+            ("power_of", |x| x.power_of(10.0), |x| 10f64.powf(x)),
             ("sqrt", |x| x.sqrt(), |x| x.sqrt()),
             ("under", |x| x.under(3.0), |x| 3.0 / x),
             ("subtracted_from", |x| x.subtracted_from(3.0), |x| 3.0 - x),
@@ -575,6 +599,16 @@ mod tests {
         let t = Tangent::new(f64::NAN, [1.0]).max(0.0);
         assert_eq!((t.v, t.d), (0.0, [0.0]));
         assert_eq!(<f64 as Real>::max(f64::NAN, 0.0), 0.0);
+    }
+
+    /// A constant zero under an infinite slope keeps a zero derivative
+    /// (√x and x^p, p < 1, at 0).
+    #[test]
+    fn a_constant_zero_under_an_infinite_slope_keeps_a_zero_derivative() {
+        let x = Tangent::<2>::new(0.0, [0.0, 1.0]);
+        assert_eq!(x.sqrt().d, [0.0, f64::INFINITY]);
+        assert_eq!(x.powf(0.5).d, [0.0, f64::INFINITY]);
+        assert_eq!(Tangent::<1>::constant(0.0).powf(0.5).d, [0.0]);
     }
 
     #[test]

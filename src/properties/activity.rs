@@ -12,9 +12,14 @@
 //! (unverified); they give A = 0.5108 and B = 0.3287 at 25 °C, against the
 //! tabulated 0.509–0.511 and 0.3283. ρw is the density of pure water in g/cm³
 //! (TEOS-10 at S = 0). Neutral species have γ = 1 (no salting-out term).
+//!
+//! The functions are generic over [`Real`]: on `f64` they give the numbers
+//! the library reports, on a [`crate::base::numeric::Tangent`] the same
+//! values with their derivatives (charges and ion sizes stay constants).
 
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use serde::Serialize;
 
 /// A model of ionic activity coefficients.
@@ -74,9 +79,9 @@ impl std::str::FromStr for ActivityModel {
 /// let e = travertine::properties::activity::dielectric_constant(25.0);
 /// assert!((e - 78.30).abs() < 0.01); // computed from the equation; tables give 78.3–78.4
 /// ```
-pub fn dielectric_constant(temperature_c: f64) -> f64 {
+pub fn dielectric_constant<R: Real>(temperature_c: R) -> R {
     let t = temperature_c;
-    87.740 - 0.40008 * t + 9.398e-4 * t * t - 1.410e-6 * t * t * t
+    (t * 0.40008).subtracted_from(87.740) + t * 9.398e-4 * t - t * 1.410e-6 * t * t
 }
 
 /// Debye–Hückel A (log10 basis, kg^0.5 mol^-0.5) from the dielectric constant
@@ -86,19 +91,19 @@ pub fn dielectric_constant(temperature_c: f64) -> f64 {
 /// let a = travertine::properties::activity::debye_huckel_a(25.0, 0.997048);
 /// assert!((a - 0.5108).abs() < 5e-4); // computed from Malmberg & Maryott (1956); tables quote 0.509–0.511
 /// ```
-pub fn debye_huckel_a(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
+pub fn debye_huckel_a<R: Real>(temperature_c: R, rho_w_g_cm3: R) -> R {
     let et = dielectric_constant(temperature_c) * (temperature_c + 273.15);
-    1.82483e6 * rho_w_g_cm3.sqrt() * et.powf(-1.5)
+    rho_w_g_cm3.sqrt() * 1.82483e6 * et.powf(-1.5)
 }
 
 /// Debye–Hückel A and B together, as [`debye_huckel_a`] and
 /// [`debye_huckel_b`] give them (to rounding), from one square root:
 /// with r = (εT)^(−1/2), A = 1.82483e6 √ρ r³ and B = 50.2916 √ρ r.
-pub(crate) fn debye_huckel_coefficients(temperature_c: f64, rho_w_g_cm3: f64) -> (f64, f64) {
+pub(crate) fn debye_huckel_coefficients<R: Real>(temperature_c: R, rho_w_g_cm3: R) -> (R, R) {
     let et = dielectric_constant(temperature_c) * (temperature_c + 273.15);
-    let r = 1.0 / et.sqrt();
+    let r = et.sqrt().under(1.0);
     let root_rho = rho_w_g_cm3.sqrt();
-    (1.82483e6 * root_rho * (r * r * r), 50.2916 * root_rho * r)
+    (root_rho * 1.82483e6 * (r * r * r), root_rho * 50.2916 * r)
 }
 
 /// Debye–Hückel B (Å⁻¹ kg^0.5 mol^-0.5).
@@ -107,9 +112,9 @@ pub(crate) fn debye_huckel_coefficients(temperature_c: f64, rho_w_g_cm3: f64) ->
 /// let b = travertine::properties::activity::debye_huckel_b(25.0, 0.997048);
 /// assert!((b - 0.3283).abs() < 1e-3);
 /// ```
-pub fn debye_huckel_b(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
+pub fn debye_huckel_b<R: Real>(temperature_c: R, rho_w_g_cm3: R) -> R {
     let et = dielectric_constant(temperature_c) * (temperature_c + 273.15);
-    50.2916 * rho_w_g_cm3.sqrt() * et.powf(-0.5)
+    rho_w_g_cm3.sqrt() * 50.2916 * et.powf(-0.5)
 }
 
 /// Davies activity coefficient of an ion of charge `z` at ionic strength `i`.
@@ -119,9 +124,9 @@ pub fn debye_huckel_b(temperature_c: f64, rho_w_g_cm3: f64) -> f64 {
 /// let g = travertine::properties::activity::davies_gamma(0.509, 1.0, 0.01);
 /// assert!((g - 0.9021).abs() < 5e-5);
 /// ```
-pub fn davies_gamma(a: f64, z: f64, i: f64) -> f64 {
+pub fn davies_gamma<R: Real>(a: R, z: f64, i: R) -> R {
     let ri = i.sqrt();
-    crate::base::numeric::pow10(-a * z * z * (ri / (1.0 + ri) - 0.3 * i))
+    (-a * z * z * (ri / (ri + 1.0) - i * 0.3)).pow10()
 }
 
 /// Extended Debye–Hückel activity coefficient with ion size `size_angstrom`.
@@ -130,9 +135,9 @@ pub fn davies_gamma(a: f64, z: f64, i: f64) -> f64 {
 /// let g = travertine::properties::activity::extended_debye_huckel_gamma(0.5108, 0.3287, 2.0, 6.0, 0.01);
 /// assert!(g > 0.6 && g < 0.7);
 /// ```
-pub fn extended_debye_huckel_gamma(a: f64, b: f64, z: f64, size_angstrom: f64, i: f64) -> f64 {
+pub fn extended_debye_huckel_gamma<R: Real>(a: R, b: R, z: f64, size_angstrom: f64, i: R) -> R {
     let ri = i.sqrt();
-    10f64.powf(-a * z * z * ri / (1.0 + b * size_angstrom * ri))
+    (-a * z * z * ri / (b * size_angstrom * ri + 1.0)).power_of(10.0)
 }
 
 /// Kielland (1937) ion-size parameters, Å (from memory, unverified).
@@ -153,29 +158,37 @@ pub mod ion_size {
     pub const PO4: f64 = 4.0;
 }
 
-/// Activity coefficients for one ionic strength, by charge.
+/// Activity coefficients for one ionic strength, by charge: plain numbers
+/// (`Gammas`, i.e. `Gammas<f64>`), or numbers with derivatives
+/// (`Gammas<Tangent<N>>`) when made from them.
 ///
 /// ```
+/// use travertine::base::numeric::{Real, Tangent};
 /// use travertine::properties::activity::{ActivityModel, Gammas};
 /// let g = Gammas::new(ActivityModel::Davies, 25.0, 0.997048, 0.0);
 /// assert_eq!(g.monovalent, 1.0);
+/// // The same, with dγ/dI at I = 0.01:
+/// let i = Tangent::<1>::source(0.01, 0);
+/// let t = Gammas::new(ActivityModel::Davies, Real::constant(25.0), Real::constant(0.997048), i);
+/// assert_eq!(t.monovalent.value(), Gammas::new(ActivityModel::Davies, 25.0, 0.997048, 0.01).monovalent);
+/// assert!(t.monovalent.d[0] < 0.0);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 #[non_exhaustive]
-pub struct Gammas {
+pub struct Gammas<R: Real = f64> {
     /// H+.
-    pub hydrogen: f64,
+    pub hydrogen: R,
     /// Monovalent anions and cations (HCO3-, OH-, ...).
-    pub monovalent: f64,
+    pub monovalent: R,
     /// CO3-- and other divalent anions.
-    pub carbonate: f64,
+    pub carbonate: R,
     /// Ca++.
-    pub calcium: f64,
+    pub calcium: R,
     /// Trivalent ions (PO4---).
-    pub trivalent: f64,
+    pub trivalent: R,
 }
 
-impl Gammas {
+impl<R: Real> Gammas<R> {
     /// The coefficients under `model` at temperature (°C), pure-water density
     /// (g/cm³) and ionic strength (mol/kg).
     ///
@@ -184,7 +197,7 @@ impl Gammas {
     /// let g = Gammas::new(ActivityModel::Davies, 25.0, 0.997048, 0.01);
     /// assert!((g.monovalent - 0.9022).abs() < 1e-3);
     /// ```
-    pub fn new(model: ActivityModel, temperature_c: f64, rho_w_g_cm3: f64, i: f64) -> Self {
+    pub fn new(model: ActivityModel, temperature_c: R, rho_w_g_cm3: R, i: R) -> Self {
         let a = debye_huckel_a(temperature_c, rho_w_g_cm3);
         let b = debye_huckel_b(temperature_c, rho_w_g_cm3);
         Self::from_coefficients(model, a, b, i)
@@ -202,7 +215,7 @@ impl Gammas {
     /// let g = Gammas::from_coefficients(ActivityModel::Davies, a, b, 0.01);
     /// assert_eq!(g, Gammas::new(ActivityModel::Davies, 25.0, 0.997048, 0.01));
     /// ```
-    pub fn from_coefficients(model: ActivityModel, a: f64, b: f64, i: f64) -> Self {
+    pub fn from_coefficients(model: ActivityModel, a: R, b: R, i: R) -> Self {
         match model {
             ActivityModel::Davies => {
                 // log γ is proportional to z²: γ2 = γ1⁴ and γ3 = γ1⁹, one
@@ -258,6 +271,54 @@ mod tests {
             let (a, b) = debye_huckel_coefficients(t, rho);
             assert!((a / debye_huckel_a(t, rho) - 1.0).abs() < 1e-14, "A at {t}");
             assert!((b / debye_huckel_b(t, rho) - 1.0).abs() < 1e-14, "B at {t}");
+        }
+    }
+
+    /// On a `Tangent` the pair has the f64 values bit for bit (and those
+    /// of the formula before it was generic), and derivatives in t and ρw
+    /// that agree with central differences (step 1e-5 relative; truncation
+    /// and rounding both below 1e-9 relative here).
+    #[test]
+    fn debye_huckel_coefficients_on_tangents() {
+        use crate::base::numeric::Tangent;
+        let old = |t: f64, rho: f64| {
+            let d = 87.740 - 0.40008 * t + 9.398e-4 * t * t - 1.410e-6 * t * t * t;
+            let et = d * (t + 273.15);
+            let r = 1.0 / et.sqrt();
+            let root_rho = rho.sqrt();
+            (1.82483e6 * root_rho * (r * r * r), 50.2916 * root_rho * r)
+        };
+        for t in [0.0, 4.0, 15.0, 25.0, 40.0] {
+            for rho in [0.9922, 0.99705, 0.99984] {
+                let (a, b) = debye_huckel_coefficients(t, rho);
+                let (oa, ob) = old(t, rho);
+                assert_eq!((a.to_bits(), b.to_bits()), (oa.to_bits(), ob.to_bits()));
+                let (ta, tb) =
+                    debye_huckel_coefficients(Tangent::<2>::source(t, 0), Tangent::source(rho, 1));
+                assert_eq!(
+                    (ta.value().to_bits(), tb.value().to_bits()),
+                    (a.to_bits(), b.to_bits())
+                );
+                for (j, x, h) in [(0, t, 1e-5 * t.abs().max(1.0)), (1, rho, 1e-5 * rho)] {
+                    let at = |dx: f64| {
+                        if j == 0 {
+                            debye_huckel_coefficients(x + dx, rho)
+                        } else {
+                            debye_huckel_coefficients(t, x + dx)
+                        }
+                    };
+                    let (hi, lo) = (at(h), at(-h));
+                    let cd = ((hi.0 - lo.0) / (2.0 * h), (hi.1 - lo.1) / (2.0 * h));
+                    assert!(
+                        (ta.d[j] - cd.0).abs() <= 1e-7 * cd.0.abs(),
+                        "dA/dx{j} at {t}"
+                    );
+                    assert!(
+                        (tb.d[j] - cd.1).abs() <= 1e-7 * cd.1.abs(),
+                        "dB/dx{j} at {t}"
+                    );
+                }
+            }
         }
     }
 }

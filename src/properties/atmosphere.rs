@@ -1,6 +1,8 @@
 //! The air over the water: barometric pressure from elevation by the
 //! standard atmosphere, and the units a barometric pressure is read in.
 
+use crate::base::numeric::Real;
+
 /// Sea-level pressure of the standard atmosphere, kPa (ICAO 1993; U.S.
 /// Standard Atmosphere 1976: 101 325 Pa).
 pub const SEA_LEVEL_KPA: f64 = 101.325;
@@ -35,17 +37,27 @@ pub const ELEVATION_MAX_M: f64 = 7000.0;
 /// better.
 ///
 /// # Units
-/// Elevation in m; pressure in kPa.
+/// Elevation in m; pressure in kPa. Generic over [`Real`]: on a
+/// [`crate::base::numeric::Tangent`] it gives the same value with its
+/// derivatives.
 ///
 /// # Example
 /// ```
+/// use travertine::base::numeric::{Real, Tangent};
 /// use travertine::properties::atmosphere::standard_pressure_kpa;
 /// // ICAO / U.S. 1976 standard atmosphere table: 89.87 kPa at 1000 m.
 /// assert!((standard_pressure_kpa(1000.0) - 89.87).abs() < 0.005);
 /// assert_eq!(standard_pressure_kpa(0.0), 101.325);
+/// // dP/dh = −P (g0 M/(R* L)) L / (T0 − L h), computed: −0.01090 kPa/m at 1000 m.
+/// let p = standard_pressure_kpa(Tangent::<1>::source(1000.0, 0));
+/// assert_eq!(p.value(), standard_pressure_kpa(1000.0));
+/// assert!((p.d[0] + 0.01090).abs() < 1e-5);
 /// ```
-pub fn standard_pressure_kpa(elevation_m: f64) -> f64 {
-    SEA_LEVEL_KPA * (1.0 - LAPSE_RATE_K_M * elevation_m / SEA_LEVEL_K).powf(PRESSURE_EXPONENT)
+pub fn standard_pressure_kpa<R: Real>(elevation_m: R) -> R {
+    (elevation_m * LAPSE_RATE_K_M / SEA_LEVEL_K)
+        .subtracted_from(1.0)
+        .powf(PRESSURE_EXPONENT)
+        * SEA_LEVEL_KPA
 }
 
 #[cfg(test)]

@@ -11,6 +11,7 @@
 
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
+use crate::base::numeric::Real;
 use serde::Serialize;
 
 /// A pH scale. Every pH in this crate carries one.
@@ -88,14 +89,21 @@ impl std::str::FromStr for PhScale {
 /// Coefficients from memory (unverified); intended for sea water of about
 /// S 20–40. This is an approximation: a measured NBS pH in sea water also
 /// carries the electrode's liquid-junction error, so every use is warned.
+/// Generic over [`Real`]: on a [`crate::base::numeric::Tangent`] it gives
+/// the same value with its derivatives.
 ///
 /// ```
-/// let fh = travertine::properties::scales::takahashi1982_fh(298.15, 35.0);
+/// use travertine::base::numeric::{Real, Tangent};
+/// use travertine::properties::scales::takahashi1982_fh;
+/// let fh = takahashi1982_fh(298.15, 35.0);
 /// assert!((fh - 0.7134).abs() < 1e-3);
+/// let d = takahashi1982_fh(Real::constant(298.15), Tangent::<1>::source(35.0, 0));
+/// assert_eq!(d.value(), fh);
 /// ```
-pub fn takahashi1982_fh(temperature_k: f64, salinity: f64) -> f64 {
+pub fn takahashi1982_fh<R: Real>(temperature_k: R, salinity: R) -> R {
     let t = temperature_k;
-    1.2948 - 0.002036 * t + (0.0004607 - 0.000001475 * t) * salinity * salinity
+    (t * 0.002036).subtracted_from(1.2948)
+        + (t * 0.000001475).subtracted_from(0.0004607) * salinity * salinity
 }
 
 /// The plain name, as [`PhScale::name`] gives it.

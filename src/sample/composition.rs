@@ -43,6 +43,18 @@ pub struct Composition {
     hardness: Option<Amount>,
 }
 
+/// An amount in mol/kg at a density: exactly [`Amount::mol_kg`]
+/// (`v · 1000 / ρ` for a per-litre amount, the same operations in the same
+/// order), generic over [`Real`] in the density. The amount itself is a
+/// constant.
+#[inline]
+fn mol_kg_at<R: Real>(a: Amount, density_kg_m3: R) -> R {
+    match a {
+        Amount::PerKg(v) => R::constant(v),
+        Amount::PerLitre(v) => density_kg_m3.under(v * 1000.0),
+    }
+}
+
 fn checked(field: Field, a: Amount, min: f64, max: f64) -> Result<Option<Amount>> {
     check_range(field, a.raw(), min, max, " mol/kg")?;
     Ok(Some(a))
@@ -129,17 +141,24 @@ impl Composition {
     }
 
     /// The totals for fresh water: nothing follows from salinity; what was
-    /// not given is zero.
+    /// not given is zero. Generic over [`Real`] in the density (used for
+    /// per-litre amounts); the amounts themselves are constants.
     ///
     /// ```
     /// # use travertine::{units::Amount, sample::Composition};
-    /// let t = Composition::default().with_calcium(Amount::PerLitre(1e-3))?.fresh_totals(998.0);
+    /// use travertine::base::numeric::{Real, Tangent};
+    /// let c = Composition::default().with_calcium(Amount::PerLitre(1e-3))?;
+    /// let t = c.fresh_totals(998.0);
     /// assert!((t.calcium_mol_kg - 1e-3 / 0.998).abs() < 1e-12);
     /// assert_eq!(t.boron_mol_kg, 0.0);
+    /// // d[Ca]/dρ = −[Ca]/ρ for a per-litre amount:
+    /// let d = c.fresh_totals(Tangent::<1>::source(998.0, 0));
+    /// assert_eq!(d.calcium_mol_kg.value(), t.calcium_mol_kg);
+    /// assert!((d.calcium_mol_kg.d[0] + t.calcium_mol_kg / 998.0).abs() < 1e-18);
     /// # Ok::<(), travertine::Error>(())
     /// ```
-    pub fn fresh_totals(&self, density_kg_m3: f64) -> Totals {
-        let get = |a: Option<Amount>| a.map_or(0.0, |a| a.mol_kg(density_kg_m3));
+    pub fn fresh_totals<R: Real>(&self, density_kg_m3: R) -> Totals<R> {
+        let get = |a: Option<Amount>| a.map_or(R::constant(0.0), |a| mol_kg_at(a, density_kg_m3));
         Totals {
             boron_mol_kg: get(self.boron),
             sulfate_mol_kg: get(self.sulfate),
@@ -199,16 +218,33 @@ impl Composition {
     }
 
     /// The totals for saline water of practical salinity `salinity`, with
-    /// the density used for per-litre amounts.
+    /// the density used for per-litre amounts. Generic over [`Real`] in the
+    /// density; the salinity is a plain number for now, so the totals that
+    /// follow from it (boron, sulfate, fluoride, calcium not given) are
+    /// constants without derivatives.
     ///
     /// ```
     /// # use travertine::{fits::BoronTotalFit, sample::Composition};
+    /// use travertine::base::numeric::{Real, Tangent};
     /// let t = Composition::default().saline_totals(35.0, 1023.3, BoronTotalFit::Lee2010);
     /// assert!((t.boron_mol_kg * 1e6 - 432.5).abs() < 0.05);
+    /// let s = Tangent::<1>::constant(35.0);
+    /// let d = Composition::default().saline_totals(s, Tangent::<1>::source(1023.3, 0), BoronTotalFit::Lee2010);
+    /// assert_eq!(d.boron_mol_kg.value(), t.boron_mol_kg);
     /// ```
-    pub fn saline_totals(&self, salinity: f64, density_kg_m3: f64, boron: BoronTotalFit) -> Totals {
-        let get = |a: Option<Amount>, default: f64| a.map_or(default, |a| a.mol_kg(density_kg_m3));
+    pub fn saline_totals<R: Real>(
+        &self,
+        salinity: R,
+        density_kg_m3: R,
+        boron: BoronTotalFit,
+    ) -> Totals<R> {
+        // A measured total is taken as given (its amount carries no
+        // derivatives but the density's); one that follows from salinity
+        // carries the salinity's.
+        let get =
+            |a: Option<Amount>, default: R| a.map_or(default, |a| mol_kg_at(a, density_kg_m3));
         use crate::fits::{fluoride, minerals, sulfate};
+        let zero = R::constant(0.0);
         Totals {
             boron_mol_kg: get(self.boron, boron.total_mol_kg(salinity)),
             sulfate_mol_kg: get(
@@ -216,20 +252,27 @@ impl Composition {
                 sulfate::morris_riley1966_total_mol_kg(salinity),
             ),
             fluoride_mol_kg: get(self.fluoride, fluoride::riley1965_total_mol_kg(salinity)),
-            phosphate_mol_kg: get(self.phosphate, 0.0),
-            silicate_mol_kg: get(self.silicate, 0.0),
-            ammonia_mol_kg: get(self.ammonia, 0.0),
-            sulfide_mol_kg: get(self.sulfide, 0.0),
+            phosphate_mol_kg: get(self.phosphate, zero),
+            silicate_mol_kg: get(self.silicate, zero),
+            ammonia_mol_kg: get(self.ammonia, zero),
+            sulfide_mol_kg: get(self.sulfide, zero),
             calcium_mol_kg: get(
                 self.calcium,
                 minerals::riley_tongudai1967_calcium_mol_kg(salinity),
             ),
-            ..Totals::default()
+            magnesium_mol_kg: zero,
+            sodium_mol_kg: zero,
+            potassium_mol_kg: zero,
+            chloride_mol_kg: zero,
+            hardness_mol_kg: zero,
         }
     }
 }
 
-/// Totals of the acid systems and calcium, mol/kg-soln.
+/// Totals of the acid systems and calcium, mol/kg-soln: plain numbers
+/// (`Totals`, i.e. `Totals<f64>`), or numbers with derivatives
+/// (`Totals<Tangent<N>>`, from [`Composition::fresh_totals`] or
+/// [`Composition::saline_totals`] given a density with derivatives).
 ///
 /// ```
 /// use travertine::{Conditions, Water};
