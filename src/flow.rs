@@ -9,7 +9,7 @@
 //! ```
 
 use crate::base::error::Result;
-use crate::base::numeric::Tangent;
+use crate::base::numeric::{Real, Tangent};
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
@@ -994,6 +994,10 @@ pub(crate) struct Seeds<const N: usize> {
     pub constants: Vec<(ConstantName, usize)>,
     /// Totals that are sources (µmol/kg), each with its slot.
     pub totals: Vec<(Total, usize)>,
+    /// The slots of the temperature (°C) and the salinity, where they are
+    /// sources.
+    pub temperature: Option<usize>,
+    pub salinity: Option<usize>,
 }
 
 impl PreparedWater {
@@ -1018,7 +1022,27 @@ impl PreparedWater {
             return None;
         };
         let plain: Constants<Tangent<2>> = k0.lift();
-        let mut k: Constants<Tangent<N>> = k0.lift();
+        let mut k: Constants<Tangent<N>> = match (seeds.temperature, seeds.salinity) {
+            (None, None) => k0.lift(),
+            (t, s) => {
+                // Every constant evaluated again on tangents, by the one
+                // evaluation the plain constants came from.
+                let c = self.water.conditions();
+                let seeded = |v: f64, slot: Option<usize>| {
+                    slot.map_or(Tangent::constant(v), |i| Tangent::source(v, i))
+                };
+                match Constants::saline_at(
+                    c,
+                    seeded(c.temperature_c(), t),
+                    seeded(c.salinity(), s),
+                    self.water.composition(),
+                    self.water.fits(),
+                ) {
+                    Ok(k) => k,
+                    Err(e) => return Some(Err(e)),
+                }
+            }
+        };
         for &(which, slot) in &seeds.constants {
             if let Err(e) = k.pk_in_place(which, Tangent::source(0.0, slot)) {
                 return Some(Err(e));

@@ -121,6 +121,8 @@ fn tangents_agree_with_differences_in_sea_water() {
             .and_then(|u| u.with_constant(ConstantName::Knh4, Size::Absolute(0.02)))
             .and_then(|u| u.with_input(Input::Total(Total::Calcium), Size::Percent(1.0)))
             .and_then(|u| u.with_input(Input::Total(Total::Silicate), Size::Percent(5.0)))
+            .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+            .and_then(|u| u.with_input(Input::Salinity, Size::Absolute(0.02)))
             .unwrap();
         // The totals a water lacks refuse their uncertainty; drop them there.
         let u = match propagate(&problem, &u, |s, out| out.push(Some(s.ph_total))) {
@@ -129,6 +131,8 @@ fn tangents_agree_with_differences_in_sea_water() {
                 .with_input(Input::Carbon(a.parameter()), Size::Percent(0.5))
                 .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Percent(0.3)))
                 .and_then(|u| u.with_input(Input::Total(Total::Calcium), Size::Percent(1.0)))
+                .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+                .and_then(|u| u.with_input(Input::Salinity, Size::Absolute(0.02)))
                 .unwrap(),
         };
         compared += agree(&problem, &u, what);
@@ -200,4 +204,27 @@ fn zeros_stay_exact_on_tangents() {
         .outputs
         .iter()
         .all(|p| p.u.is_none() || p.u == Some(0.0)));
+}
+
+/// The temperature and the salinity are carried on tangents through every
+/// published fit: the state's own temperature and salinity then have
+/// exactly the uncertainty given (a derivative of exactly 1).
+#[test]
+fn temperature_and_salinity_are_sources_on_tangents() {
+    let water = sea(12.0, 34.0, 0.0);
+    let problem = Problem::new(
+        &water,
+        Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+        Measured::alkalinity_umol_kg(2250.0).unwrap(),
+    )
+    .unwrap();
+    let u = Uncertainties::new()
+        .with_input(Input::Temperature, Size::Absolute(0.1))
+        .and_then(|u| u.with_input(Input::Salinity, Size::Absolute(0.02)))
+        .unwrap();
+    let outputs = [Output::TemperatureC, Output::Salinity, Output::Pco2];
+    let r = propagate_quantities(&problem, &u, OutputQuantities(&outputs)).unwrap();
+    assert_eq!(r.outputs[0].u, Some(0.1));
+    assert_eq!(r.outputs[1].u, Some(0.02));
+    assert!(r.outputs[2].u.unwrap() > 0.0);
 }

@@ -1042,6 +1042,12 @@ impl Problem {
                                 | Total::Calcium
                         ),
                         Source::Constant(_) => true,
+                        // Where no conductivity reading is moved with them
+                        // (a reading at the sample temperature, a salinity
+                        // computed from one).
+                        Source::Input(Input::Temperature | Input::Salinity) => {
+                            self.prepared.water().given_conductivity().is_none()
+                        }
                         _ => false,
                     }
             })
@@ -1053,6 +1059,8 @@ impl Problem {
                 b: Tangent::constant(self.b.number()),
                 constants: Vec::new(),
                 totals: Vec::new(),
+                temperature: None,
+                salinity: None,
             };
             for (slot, &j) in chunk.iter().enumerate() {
                 match sources[j].0 {
@@ -1063,6 +1071,8 @@ impl Problem {
                         seeds.b = Tangent::source(self.b.number(), slot)
                     }
                     Source::Input(Input::Total(t)) => seeds.totals.push((t, slot)),
+                    Source::Input(Input::Temperature) => seeds.temperature = Some(slot),
+                    Source::Input(Input::Salinity) => seeds.salinity = Some(slot),
                     Source::Constant(k) => seeds.constants.push((k, slot)),
                     Source::Input(_) => {}
                 }
