@@ -9,7 +9,7 @@
 //! ```
 
 use crate::base::error::Result;
-use crate::base::numeric::{Real, Tangent};
+use crate::base::numeric::Tangent;
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
@@ -1011,13 +1011,16 @@ impl PreparedWater {
     /// fresh water (its fixed point of ionic strength and free calcium),
     /// a total the water lacks, a singular root. The caller then takes
     /// differences of full solves instead.
-    pub(crate) fn solve_tangent<const N: usize>(
+    /// The state is given to `read` where it lies (a state on tangents is
+    /// a large value, not to be moved).
+    pub(crate) fn solve_tangent<const N: usize, T>(
         &self,
         base: &State,
         a: &Measured,
         b: &Measured,
         seeds: &Seeds<N>,
-    ) -> Option<Result<State<Tangent<N>>>> {
+        read: impl FnOnce(&State<Tangent<N>>) -> T,
+    ) -> Option<Result<T>> {
         let Prepared::Saline(k0) = &self.prepared else {
             return None;
         };
@@ -1025,22 +1028,30 @@ impl PreparedWater {
         let mut k: Constants<Tangent<N>> = match (seeds.temperature, seeds.salinity) {
             (None, None) => k0.lift(),
             (t, s) => {
-                // Every constant evaluated again on tangents, by the one
-                // evaluation the plain constants came from.
+                // Every constant evaluated again by the one evaluation the
+                // plain constants came from, on tangents of the temperature
+                // and salinity alone (two slots, a seventh of the work),
+                // then spread onto their slots.
                 let c = self.water.conditions();
-                let seeded = |v: f64, slot: Option<usize>| {
-                    slot.map_or(Tangent::constant(v), |i| Tangent::source(v, i))
-                };
-                match Constants::saline_at(
+                let k = match Constants::saline_at(
                     c,
-                    seeded(c.temperature_c(), t),
-                    seeded(c.salinity(), s),
+                    Tangent::<2>::source(c.temperature_c(), 0),
+                    Tangent::<2>::source(c.salinity(), 1),
                     self.water.composition(),
                     self.water.fits(),
                 ) {
                     Ok(k) => k,
                     Err(e) => return Some(Err(e)),
-                }
+                };
+                k.map_numbers(|x| {
+                    let mut d = [0.0; N];
+                    for (slot, dx) in [(t, x.d[0]), (s, x.d[1])] {
+                        if let Some(x) = slot.and_then(|i| d.get_mut(i)) {
+                            *x = dx;
+                        }
+                    }
+                    Tangent::new(x.v, d)
+                })
             }
         };
         for &(which, slot) in &seeds.constants {
@@ -1060,15 +1071,11 @@ impl PreparedWater {
             (a, seeds.a),
             (b, seeds.b),
         )?;
-        Some(State::build_fresh_or_saline(
-            &self.water,
-            &k,
-            h,
-            dic,
-            Warnings::new(),
-            None,
-            a,
-            b,
-        ))
+        let state =
+            State::build_fresh_or_saline(&self.water, &k, h, dic, Warnings::new(), None, a, b);
+        Some(match &state {
+            Ok(state) => Ok(read(state)),
+            Err(e) => Err(e.clone()),
+        })
     }
 }

@@ -1077,17 +1077,6 @@ impl Problem {
                     Source::Input(_) => {}
                 }
             }
-            // Borrowed where it lies: a state on tangents is a large value.
-            let solved = self
-                .prepared
-                .solve_tangent(base_state, &self.a, &self.b, &seeds);
-            let Some(Ok(state)) = &solved else {
-                continue;
-            };
-            // Row by row, as the reader gives each quantity (its
-            // derivatives lie together); a column lost or not finite for a
-            // quantity with a value is left to the differences.
-            let mut bad = [false; TANGENT_WIDTH];
             let mut us = [0.0; TANGENT_WIDTH];
             for (u, &j) in us.iter_mut().zip(chunk) {
                 *u = sources[j].1;
@@ -1096,8 +1085,11 @@ impl Problem {
             // The usual case: the chunk's columns are side by side.
             let first = chunk.first().copied().unwrap_or(0);
             let side_by_side = chunk.iter().enumerate().all(|(i, &j)| j == first + i);
+            // Row by row, as the reader gives each quantity (its
+            // derivatives lie together), on the state where it lies.
             let mut k = 0;
-            let read = quantities.read_tangent(state, &mut |t| {
+            let mut lost = false;
+            let mut each = |t: Option<&Tangents>| {
                 let (Some(Some(_)), Some(row)) =
                     (base.get(k), contributions.get_mut(k * m..(k + 1) * m))
                 else {
@@ -1106,19 +1098,12 @@ impl Problem {
                 };
                 k += 1;
                 let Some(t) = t else {
-                    bad.fill(true);
+                    lost = true;
                     return;
                 };
                 let mut c = [0.0; TANGENT_WIDTH];
                 for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
                     *c = d * u;
-                }
-                // Zero unless one is infinite or not a number.
-                let probe: f64 = c.iter().map(|x| x * 0.0).sum();
-                if probe != 0.0 || probe.is_nan() {
-                    for (b, c) in bad.iter_mut().zip(&c) {
-                        *b |= !c.is_finite();
-                    }
                 }
                 match row.get_mut(first..first + width) {
                     Some(cols) if side_by_side => cols.copy_from_slice(&c[..width]),
@@ -1130,9 +1115,25 @@ impl Problem {
                         }
                     }
                 }
-            });
-            if !read || k != base.len() {
+            };
+            let read = self
+                .prepared
+                .solve_tangent(base_state, &self.a, &self.b, &seeds, |state| {
+                    quantities.read_tangent(state, &mut each)
+                });
+            // A column lost or not finite for a quantity with a value is
+            // left to the differences.
+            let mut bad = [false; TANGENT_WIDTH];
+            if !matches!(read, Some(Ok(true))) || k != base.len() || lost {
                 bad.fill(true);
+            } else {
+                for (row, y) in contributions.chunks_exact(m).zip(base) {
+                    if y.is_some() {
+                        for (b, &j) in bad.iter_mut().zip(chunk) {
+                            *b |= !row[j].is_finite();
+                        }
+                    }
+                }
             }
             for (slot, &j) in chunk.iter().enumerate() {
                 if bad[slot] {
@@ -1578,21 +1579,14 @@ pub fn propagate_quantities<Q: Quantities>(
             row.fill(0.0);
         }
     }
-    let outputs = base
-        .iter()
-        .zip(&lost)
-        .zip(
-            contributions
-                .chunks_exact(m.max(1))
-                .map(Some)
-                .chain(std::iter::repeat(None)),
-        )
-        .map(|((v, lost), row)| Propagated {
-            value: *v,
-            u: v.filter(|_| !lost)
-                .map(|_| row.map_or(0.0, |row| row.iter().map(|c| c * c).sum::<f64>().sqrt())),
-        })
-        .collect();
+    let mut outputs = Vec::with_capacity(n);
+    for (k, (v, lost)) in base.iter().zip(&lost).enumerate() {
+        let row = contributions.get(k * m..(k + 1) * m).unwrap_or(&[]);
+        let u = v
+            .filter(|_| !lost)
+            .map(|_| row.iter().map(|c| c * c).sum::<f64>().sqrt());
+        outputs.push(Propagated { value: *v, u });
+    }
     let sources = sources.into_iter().map(|(s, u, _)| (s, u)).collect();
     Ok(Propagation {
         sources,

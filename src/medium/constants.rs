@@ -124,7 +124,7 @@ pub struct Constants<R: Real = f64> {
     /// Every fit used outside its published range, and other cautions.
     pub(in crate::medium) warnings: Vec<Warning>,
     /// Activity coefficients (fresh water only).
-    pub(in crate::medium) gammas: Option<Gammas>,
+    pub(in crate::medium) gammas: Option<Gammas<R>>,
     /// [CaHCO3+]/([Ca++]\[HCO3-\]), concentration basis (fresh water; 0 in saline).
     pub(in crate::medium) k_cahco3: R,
     /// \[CaCO3⁰\]/([Ca++]\[CO3--\]), concentration basis (fresh water; 0 in saline).
@@ -246,23 +246,22 @@ pub(crate) struct Log10s<R: Real = f64> {
     pub ksp_aragonite: R,
 }
 
-/// `t` as numbers of another type, each a constant (no derivatives).
-pub(crate) fn lift_totals<S: Real>(t: &Totals) -> Totals<S> {
-    let c = S::constant;
+/// `t` with every number mapped by `f` (to another type).
+pub(crate) fn map_totals<R: Real, S: Real>(t: &Totals<R>, f: impl Fn(R) -> S) -> Totals<S> {
     Totals {
-        boron_mol_kg: c(t.boron_mol_kg),
-        sulfate_mol_kg: c(t.sulfate_mol_kg),
-        fluoride_mol_kg: c(t.fluoride_mol_kg),
-        phosphate_mol_kg: c(t.phosphate_mol_kg),
-        silicate_mol_kg: c(t.silicate_mol_kg),
-        ammonia_mol_kg: c(t.ammonia_mol_kg),
-        sulfide_mol_kg: c(t.sulfide_mol_kg),
-        calcium_mol_kg: c(t.calcium_mol_kg),
-        magnesium_mol_kg: c(t.magnesium_mol_kg),
-        sodium_mol_kg: c(t.sodium_mol_kg),
-        potassium_mol_kg: c(t.potassium_mol_kg),
-        chloride_mol_kg: c(t.chloride_mol_kg),
-        hardness_mol_kg: c(t.hardness_mol_kg),
+        boron_mol_kg: f(t.boron_mol_kg),
+        sulfate_mol_kg: f(t.sulfate_mol_kg),
+        fluoride_mol_kg: f(t.fluoride_mol_kg),
+        phosphate_mol_kg: f(t.phosphate_mol_kg),
+        silicate_mol_kg: f(t.silicate_mol_kg),
+        ammonia_mol_kg: f(t.ammonia_mol_kg),
+        sulfide_mol_kg: f(t.sulfide_mol_kg),
+        calcium_mol_kg: f(t.calcium_mol_kg),
+        magnesium_mol_kg: f(t.magnesium_mol_kg),
+        sodium_mol_kg: f(t.sodium_mol_kg),
+        potassium_mol_kg: f(t.potassium_mol_kg),
+        chloride_mol_kg: f(t.chloride_mol_kg),
+        hardness_mol_kg: f(t.hardness_mol_kg),
     }
 }
 
@@ -272,7 +271,16 @@ impl Constants {
     /// [`Tangent`](crate::base::numeric::Tangent)s where the sources are
     /// seeded afterwards.
     pub(crate) fn lift<S: Real>(&self) -> Constants<S> {
-        let c = S::constant;
+        self.map_numbers(S::constant)
+    }
+}
+
+impl<R: Real> Constants<R> {
+    /// These constants with every number mapped by `f` (to another type),
+    /// without the warnings: for example constants on a two-slot tangent
+    /// (temperature and salinity) spread onto the slots of a wider one.
+    pub(crate) fn map_numbers<S: Real>(&self, f: impl Fn(R) -> S) -> Constants<S> {
+        let c = &f;
         Constants {
             conditions: self.conditions,
             working_scale: self.working_scale,
@@ -298,7 +306,7 @@ impl Constants {
             ionic_strength: c(self.ionic_strength),
             ksp_calcite: c(self.ksp_calcite),
             ksp_aragonite: c(self.ksp_aragonite),
-            totals: lift_totals(&self.totals),
+            totals: map_totals(&self.totals, c),
             free_per_working: c(self.free_per_working),
             seawater_per_working: c(self.seawater_per_working),
             total_per_working: c(self.total_per_working),
@@ -308,7 +316,13 @@ impl Constants {
             density_kg_m3: c(self.density_kg_m3),
             fits_used: self.fits_used,
             warnings: Vec::new(),
-            gammas: self.gammas,
+            gammas: self.gammas.map(|g| Gammas {
+                hydrogen: c(g.hydrogen),
+                monovalent: c(g.monovalent),
+                carbonate: c(g.carbonate),
+                calcium: c(g.calcium),
+                trivalent: c(g.trivalent),
+            }),
             k_cahco3: c(self.k_cahco3),
             k_caco3: c(self.k_caco3),
             logs: self.logs.map(|l| Log10s {
@@ -631,7 +645,7 @@ impl<R: Real> Constants<R> {
 
     /// Activity coefficients (fresh water only).
     #[inline]
-    pub fn gammas(&self) -> Option<Gammas> {
+    pub fn gammas(&self) -> Option<Gammas<R>> {
         self.gammas
     }
 

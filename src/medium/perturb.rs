@@ -122,7 +122,7 @@ impl<R: Real> Constants<R> {
     fn scale_link(&self) -> ScaleLink<R> {
         match (self.working_scale, self.gammas) {
             (PhScale::Nbs, Some(g)) => ScaleLink::Nbs {
-                gamma_h: R::constant(g.hydrogen),
+                gamma_h: g.hydrogen,
             },
             (PhScale::Nbs, None) => ScaleLink::Nbs {
                 gamma_h: self.free_per_working.under(1.0),

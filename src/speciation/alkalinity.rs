@@ -52,7 +52,7 @@ impl<R: Real> AlkalinityParts<R> {
     ///
     /// ```
     /// # use travertine::speciation::alkalinity::AlkalinityParts;
-    /// assert_eq!(AlkalinityParts::default().total(), 0.0);
+    /// assert_eq!(AlkalinityParts::<f64>::default().total(), 0.0);
     /// ```
     pub fn total(&self) -> R {
         self.carbonate + self.non_carbonate()
@@ -62,7 +62,7 @@ impl<R: Real> AlkalinityParts<R> {
     ///
     /// ```
     /// # use travertine::speciation::alkalinity::AlkalinityParts;
-    /// assert_eq!(AlkalinityParts::default().non_carbonate(), 0.0);
+    /// assert_eq!(AlkalinityParts::<f64>::default().non_carbonate(), 0.0);
     /// ```
     pub fn non_carbonate(&self) -> R {
         self.borate + self.hydroxide + self.phosphate + self.silicate + self.ammonia + self.sulfide

@@ -522,17 +522,14 @@ impl<R: Real> State<R> {
             hydrogen_fluoride_umol_kg: p.hydrogen_fluoride * u,
             calcium_umol_kg: ca_known.then_some(k.totals().calcium_mol_kg * u),
             calcium_free_umol_kg: ca_known.then_some(ca_free * u),
-            calcium_activity: k
-                .gammas()
-                .filter(|_| ca_known)
-                .map(|g| R::constant(g.calcium) * ca_free),
+            calcium_activity: k.gammas().filter(|_| ca_known).map(|g| g.calcium * ca_free),
             cahco3_umol_kg: fresh_only((hco3_t - hco3) * u).filter(|_| ca_known),
             caco3_pair_umol_kg: fresh_only((co3_t - co3) * u).filter(|_| ca_known),
             ionic_strength: k.ionic_strength(),
             ionic_strength_from: figures.map(|e| e.ionic_strength_from),
             charge_balance_percent: figures.and_then(|e| e.charge_balance_percent),
-            gamma_monovalent: k.gammas().map(|g| R::constant(g.monovalent)),
-            gamma_divalent: k.gammas().map(|g| R::constant(g.carbonate)),
+            gamma_monovalent: k.gammas().map(|g| g.monovalent),
+            gamma_divalent: k.gammas().map(|g| g.carbonate),
             saturation_ph_nbs: figures.and_then(|e| e.saturation_ph_nbs),
             langelier_index: figures.and_then(|e| e.langelier_index),
             precipitation_potential_mg_l_caco3: figures
