@@ -5,12 +5,13 @@
 //! For each water and pair, measured back to back:
 //! - `<water>/<pair>/plain_solve`: [`PreparedWater::solve`] of the pair,
 //!   the constants already made;
-//! - `<water>/<pair>/linear_pair_only`: [`propagate`] with the
-//!   uncertainties of the two measured parameters alone, constants off;
+//! - `<water>/<pair>/linear_pair_only`: [`propagate_quantities`] of pCO2
+//!   with the uncertainties of the two measured parameters alone,
+//!   constants off;
 //! - `<water>/<pair>/plain_solve_from_water`: [`Water::solve`], as a
 //!   caller with a sample solves it (the constants made for it);
 //! - `<water>/<pair>/linear_default_from_water`: [`Problem::new`] and
-//!   [`propagate`] of pCO2 with the realistic default setup (below), as a
+//!   [`propagate_quantities`] of pCO2 with the realistic default setup (below), as a
 //!   caller with a sample propagates it;
 //! - `<water>/<pair>/plain_every_output_from_water`: [`Water::solve`] and
 //!   every numeric output read from the state ([`values_into`]), as
@@ -18,7 +19,11 @@
 //! - `<water>/<pair>/linear_default_every_output`: [`Problem::new`] and
 //!   [`outputs_propagated`], every numeric output (as `solve --json
 //!   --uncertainty` and the sheet's `_u` columns), the same setup;
-//! - `<water>/<pair>/linear_default`: [`propagate`] with the realistic
+//! - `<water>/<pair>/differences_default_every_output`: the same by
+//!   [`propagate`] with the outputs read by a closure, so by forward
+//!   differences of solves for every source: the method the pass on
+//!   tangents replaces, measured beside it;
+//! - `<water>/<pair>/linear_default`: [`propagate_quantities`] with the realistic
 //!   default setup: the two measured parameters, temperature (0.1 °C), in
 //!   sea water salinity (0.01), in the pond salinity (the route of its
 //!   ionic strength, 5 %) and calcium (3 %), and the default uncertainties
@@ -39,12 +44,19 @@
 //! [`values_into`]: travertine::output::uncertainty::values_into
 //! [`SALINE_DEFAULTS`]: travertine::decisions::uncertainty::SALINE_DEFAULTS
 //! [`FRESH_DEFAULTS`]: travertine::decisions::uncertainty::FRESH_DEFAULTS
+//! [`propagate_quantities`]: travertine::decisions::uncertainty::propagate_quantities
+//! [`propagate`]: travertine::decisions::uncertainty::propagate
 
 use criterion::{criterion_group, criterion_main, Criterion};
 use std::hint::black_box;
 use std::time::Duration;
-use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
-use travertine::output::uncertainty::{numeric_outputs, outputs_propagated, values_into};
+use travertine::decisions::uncertainty::{
+    propagate, propagate_quantities, Problem, Size, Uncertainties,
+};
+use travertine::output::uncertainty::{
+    numeric_outputs, outputs_propagated, values_into, OutputQuantities,
+};
+use travertine::output::Output;
 use travertine::sample::inputs::{Input, Total};
 use travertine::units::Amount;
 use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
@@ -80,6 +92,9 @@ fn realistic(a: Measured, b: Measured, fresh: bool) -> Uncertainties {
             .unwrap()
     }
 }
+
+/// The one output of the pCO2 cases.
+const PCO2: [Output; 1] = [Output::Pco2];
 
 fn bench(c: &mut Criterion) {
     let pond = Water::fresh(Conditions::new(15.0, 0.2).unwrap())
@@ -122,7 +137,7 @@ fn bench(c: &mut Criterion) {
             group.bench_function(format!("{name}/{pair}/linear_pair_only"), |bench| {
                 bench.iter(|| {
                     black_box(
-                        propagate(&problem, &only, |s, out| out.push(Some(s.pco2_uatm))).unwrap(),
+                        propagate_quantities(&problem, &only, OutputQuantities(&PCO2)).unwrap(),
                     )
                 })
             });
@@ -135,7 +150,7 @@ fn bench(c: &mut Criterion) {
                     bench.iter(|| {
                         let problem = Problem::new(black_box(&water), a, b).unwrap();
                         black_box(
-                            propagate(&problem, &default, |s, out| out.push(Some(s.pco2_uatm)))
+                            propagate_quantities(&problem, &default, OutputQuantities(&PCO2))
                                 .unwrap(),
                         )
                     })
@@ -163,11 +178,22 @@ fn bench(c: &mut Criterion) {
                     })
                 },
             );
+            group.bench_function(
+                format!("{name}/{pair}/differences_default_every_output"),
+                |bench| {
+                    bench.iter(|| {
+                        let problem = Problem::new(black_box(&water), a, b).unwrap();
+                        black_box(
+                            propagate(&problem, &default, |s, out| values_into(&outputs, s, out))
+                                .unwrap(),
+                        )
+                    })
+                },
+            );
             group.bench_function(format!("{name}/{pair}/linear_default"), |bench| {
                 bench.iter(|| {
                     black_box(
-                        propagate(&problem, &default, |s, out| out.push(Some(s.pco2_uatm)))
-                            .unwrap(),
+                        propagate_quantities(&problem, &default, OutputQuantities(&PCO2)).unwrap(),
                     )
                 })
             });

@@ -20,16 +20,34 @@
 //! layer does not depend on the list of outputs below it;
 //! [`crate::output::uncertainty`] applies both to every numeric output.
 //!
-//! **Derivatives.** Forward differences of solves, each source moved alone
-//! by a step of 10⁻⁶ of its scale (or its own uncertainty where that is
-//! smaller), each perturbed solve started from the unperturbed state's
-//! unknowns (its h, ionic strength, free calcium and saturation pH) and
-//! still run to the full tolerance of its searches; the constants are
-//! moved through their own methods ([`crate::medium::Constants::with_pk`]
-//! and the fresh basis's, as
-//! [`PreparedWater::with_constants_perturbed`]), so that every value
-//! derived from a constant follows it. DEVELOPERS.md ("Uncertainty") gives
-//! the reasons, the error of the method and its cost.
+//! **Derivatives.** Two ways, one result to the precision of the second:
+//! - **On tangents** ([`propagate_quantities`], with quantities that can
+//!   be read from a state of [`Tangents`], as the list of outputs can,
+//!   [`crate::output::uncertainty::OutputQuantities`]): exact first
+//!   derivatives. The constants and the state are computed once more on
+//!   [`Tangent`] numbers, which carry their derivatives with respect to
+//!   up to [`TANGENT_WIDTH`] sources through the same generic code that
+//!   computes them on `f64` (forward-mode differentiation); the solver's
+//!   unknowns h and DIC get theirs by implicit differentiation at its
+//!   root. Covered so far: sea water (the measurements, temperature,
+//!   salinity, every constant, the measured totals), without air over it
+//!   and reported where it was measured.
+//! - **By differences** elsewhere (fresh water, a reading of conductivity,
+//!   air over the water, another temperature or pressure, and quantities
+//!   given as a closure, [`propagate`]): forward differences of solves,
+//!   each source moved alone by a step of 10⁻⁶ of its scale (or its own
+//!   uncertainty where that is smaller), each perturbed solve started from
+//!   the unperturbed state's unknowns (its h, ionic strength, free calcium
+//!   and saturation pH) and still run to the full tolerance of its
+//!   searches; the constants are moved through their own methods
+//!   ([`crate::medium::Constants::with_pk`] and the fresh basis's, as
+//!   [`PreparedWater::with_constants_perturbed`]), so that every value
+//!   derived from a constant follows it.
+//!
+//! The two agree to the truncation of the differences (about 10⁻⁶
+//! relative; `tests/tangent_propagation.rs` compares every contribution
+//! to every numeric output). DEVELOPERS.md ("Uncertainty") gives the
+//! reasons, the error of each method and its cost.
 //!
 //! ```
 //! use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
