@@ -609,7 +609,9 @@ fn saline_totals() {
                             upper: [f64::MAX; 3],
                             new: &|x| fields(&comp.saline_totals(s, x[0], boron))[f],
                             old: &|x| old(x[0])[f],
-                            tangent: &|x| fields(&comp.saline_totals(Tangent::constant(s), x[0], boron))[f],
+                            tangent: &|x| {
+                                fields(&comp.saline_totals(Tangent::constant(s), x[0], boron))[f]
+                            },
                         },
                         &grid1(&[1003.0, 1023.3, 1031.0]),
                     );

@@ -40,7 +40,7 @@ use crate::sample::Totals;
 use serde::Serialize;
 
 mod basis;
-#[allow(unused_imports)]
+#[cfg_attr(not(test), allow(unused_imports))]
 pub(crate) use basis::FreshSources;
 pub(crate) mod ionic;
 
