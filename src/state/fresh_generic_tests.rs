@@ -626,3 +626,51 @@ fn saturation_ph_on_tangents_agrees_with_the_search_moved() {
     }
     assert!(checked > 60, "{checked}");
 }
+
+#[test]
+fn a_constant_perturbed_on_tangents_keeps_the_f64_values_and_moves_by_ln_10() {
+    use crate::medium::ConstantName as C;
+    let mut checked = 0;
+    for w in waters() {
+        let f = FreshBasis::new(&w, true).unwrap();
+        let g = FreshBasis::<D>::new_at(&w, &FreshSources::of(&w), true).unwrap();
+        for which in [
+            C::K1,
+            C::K2,
+            C::Kw,
+            C::KspCalcite,
+            C::CaHco3Pair,
+            C::CaCo3Pair,
+        ] {
+            let delta = 0.01;
+            let pf = f.clone().with_pk(which, delta).unwrap();
+            let mut pg = g.clone();
+            pg.copy_numbers_from(&g);
+            pg.pk_in_place(which, D::source(delta, ARG)).unwrap();
+            let (nf, ng) = (basis_numbers(&pf), basis_numbers(&pg));
+            for (n, (a, b)) in nf.iter().zip(&ng).enumerate() {
+                assert_eq!(a.to_bits(), b.v.to_bits(), "{which:?} number {n} {w:?}");
+            }
+            // Each number against the central difference in the pK step.
+            let dd = 1e-6;
+            let at = |d: f64| basis_numbers(&f.clone().with_pk(which, d).unwrap());
+            let (up, down) = (at(delta + dd), at(delta - dd));
+            for (n, x) in ng.iter().enumerate() {
+                close(
+                    x.d[ARG],
+                    up[n],
+                    down[n],
+                    dd,
+                    x.v,
+                    1.0,
+                    &format!("{which:?} {n} {w:?}"),
+                );
+                checked += 1;
+            }
+        }
+        // A step that is not finite is refused on tangents too.
+        let mut pg = g.clone();
+        assert!(pg.pk_in_place(C::K1, D::constant(f64::NAN)).is_err());
+    }
+    assert!(checked > 1000, "{checked}");
+}
