@@ -1,21 +1,22 @@
 //! The calcium ion pairs in the carbon balances: free calcium, the pair
 //! ratios in the constants, and ln Ω at a given alkalinity.
 
+use crate::base::numeric::Real;
 use crate::medium::Constants;
 use crate::sample::measured::{Measured, MeasuredValue, Parameter};
 
 /// Positive root of c w S² + (c + q − p w) S − p = 0 (with w = 0: S = p/c),
 /// the balance (p − S c)(1 + S w) = S q.
-pub(crate) fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
-    if w == 0.0 {
+pub(crate) fn balance_root<R: Real>(c: R, w: R, q: R, p: R) -> R {
+    if w.value() == 0.0 {
         return p / c;
     }
     let b = c + q - p * w;
-    let disc = (b * b + 4.0 * c * w * p).sqrt();
-    if b > 0.0 {
-        2.0 * p / (b + disc)
+    let disc = (b * b + c * 4.0 * w * p).sqrt();
+    if b.value() > 0.0 {
+        p * 2.0 / (b + disc)
     } else {
-        (disc - b) / (2.0 * c * w)
+        (disc - b) / (c * 2.0 * w)
     }
 }
 
@@ -23,12 +24,12 @@ pub(crate) fn balance_root(c: f64, w: f64, q: f64, p: f64) -> f64 {
 /// apparent constants of `k`: with CO2* = S, HCO3- = S u, CO3-- = S v,
 /// u = K1'/h, v = K1'K2'/h², the pairs give DIC = S (1 + u + v) + Ca S w,
 /// w = a u + b v, and Ca = CaT/(1 + S w); one quadratic in S.
-pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f64 {
+pub(crate) fn free_calcium<R: Real>(k: &Constants<R>, h: R, dic: R, ca_total: R) -> R {
     let u = k.k1() / h;
     let v = k.k1() * k.k2() / (h * h);
     let w = k.k_cahco3() * u + k.k_caco3() * v;
-    let s = balance_root(1.0 + u + v, w, ca_total * w, dic);
-    ca_total / (1.0 + s * w)
+    let s = balance_root(u + 1.0 + v, w, ca_total * w, dic);
+    ca_total / (s * w + 1.0)
 }
 
 /// The free calcium of a water whose h and alkalinity `ta` are both known,
@@ -41,23 +42,24 @@ pub(crate) fn free_calcium(k: &Constants, h: f64, dic: f64, ca_total: f64) -> f6
 /// alkalinity, returns exactly that water: the fixed point of the free
 /// calcium in closed form. `None` where the alkalinity left for carbon is
 /// not positive.
-pub(crate) fn free_calcium_at_alkalinity(
-    k: &Constants,
-    ta: f64,
-    ca_total: f64,
-    h: f64,
-) -> Option<f64> {
+pub(crate) fn free_calcium_at_alkalinity<R: Real>(
+    k: &Constants<R>,
+    ta: R,
+    ca_total: R,
+    h: R,
+) -> Option<R> {
     let carbon = ta - crate::speciation::alkalinity::non_carbonate(k, h).0;
-    if carbon <= 0.0 || ca_total <= 0.0 {
+    if carbon.value() <= 0.0 || ca_total.value() <= 0.0 {
         return None;
     }
     let u = k.k1() / h;
     let v = k.k1() * k.k2() / (h * h);
     let (a, b) = (k.k_cahco3(), k.k_caco3());
     let w = a * u + b * v;
-    let s = balance_root(u + 2.0 * v, w, ca_total * (a * u + 2.0 * b * v), carbon);
-    let ca = ca_total / (1.0 + s * w);
-    (ca.is_finite() && ca > 0.0 && ca <= ca_total).then_some(ca)
+    let s = balance_root(u + v * 2.0, w, ca_total * (a * u + b * 2.0 * v), carbon);
+    let ca = ca_total / (s * w + 1.0);
+    let (c, t) = (ca.value(), ca_total.value());
+    (c.is_finite() && c > 0.0 && c <= t).then_some(ca)
 }
 
 /// h and the free calcium of a water whose alkalinity `ta` and CO2* `co2`
@@ -184,15 +186,31 @@ pub(crate) fn free_calcium_at_alkalinity_and_dic(
 
 /// [CaHCO3+]/[Ca++] or [CaCO3⁰]/[Ca++] of a free ion given (0 for any
 /// other parameter), at the apparent pair constants of `k`.
-pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
-    let amount = |m: &Measured| match m.value() {
-        MeasuredValue::Amount(a) => a.mol_kg(k.density_kg_m3()),
-        _ => 0.0,
+pub(crate) fn free_ion_pairs<R: Real>(k: &Constants<R>, m: &Measured) -> R {
+    use crate::base::units::Amount;
+    let amount = match m.value() {
+        MeasuredValue::Amount(Amount::PerKg(v)) => R::constant(v),
+        // As `Amount::mol_kg` computes it: v · 1000 / density.
+        MeasuredValue::Amount(Amount::PerLitre(v)) => k.density_kg_m3().under(v * 1000.0),
+        _ => R::constant(0.0),
     };
-    match m.parameter() {
-        Parameter::Hco3 => k.k_cahco3() * amount(m),
-        Parameter::Co3 => k.k_caco3() * amount(m),
-        _ => 0.0,
+    free_ion_pairs_of(k, m.parameter(), amount)
+}
+
+/// [`free_ion_pairs`] of a free ion `parameter` whose amount (mol/kg) is
+/// `amount_mol_kg`, on any [`Real`] (the amount can carry the derivatives
+/// of the measured pair): K_CaHCO3′ HCO3- or K_CaCO3′ CO3--, 0 for any
+/// other parameter.
+#[inline]
+pub(crate) fn free_ion_pairs_of<R: Real>(
+    k: &Constants<R>,
+    parameter: Parameter,
+    amount_mol_kg: R,
+) -> R {
+    match parameter {
+        Parameter::Hco3 => k.k_cahco3() * amount_mol_kg,
+        Parameter::Co3 => k.k_caco3() * amount_mol_kg,
+        _ => R::constant(0.0),
     }
 }
 
@@ -203,19 +221,24 @@ pub(crate) fn free_ion_pairs(k: &Constants, m: &Measured) -> f64 {
 /// carbonate alkalinity TA − (non-carbonate) = S (u + 2v) + Ca S (a u + 2 b v)
 /// and Ca = CaT/(1 + S (a u + b v)): one quadratic in S. `None` where the
 /// alkalinity left for carbon is not positive.
-pub(crate) fn ln_omega_at_alkalinity(k: &Constants, ta: f64, ca_total: f64, h: f64) -> Option<f64> {
+pub(crate) fn ln_omega_at_alkalinity<R: Real>(
+    k: &Constants<R>,
+    ta: R,
+    ca_total: R,
+    h: R,
+) -> Option<R> {
     let carbon = ta - crate::speciation::alkalinity::non_carbonate(k, h).0;
-    if carbon <= 0.0 {
+    if carbon.value() <= 0.0 {
         return None;
     }
     let u = k.k1() / h;
     let v = k.k1() * k.k2() / (h * h);
     let (a, b) = (k.k_cahco3(), k.k_caco3());
     let w = a * u + b * v;
-    let s = balance_root(u + 2.0 * v, w, ca_total * (a * u + 2.0 * b * v), carbon);
-    let ca = ca_total / (1.0 + s * w);
+    let s = balance_root(u + v * 2.0, w, ca_total * (a * u + b * 2.0 * v), carbon);
+    let ca = ca_total / (s * w + 1.0);
     let ln = (ca * s * v / k.ksp_calcite()).ln();
-    ln.is_finite().then_some(ln)
+    ln.value().is_finite().then_some(ln)
 }
 
 /// ln Ω of calcite as [`ln_omega_at_alkalinity`] gives it, and its
@@ -234,45 +257,45 @@ pub(crate) fn ln_omega_at_alkalinity(k: &Constants, ta: f64, ca_total: f64, h: f
 /// ```
 /// (implicit differentiation; our own derivation). The value is the same
 /// number [`ln_omega_at_alkalinity`] returns.
-pub(crate) fn ln_omega_and_slope_at_alkalinity(
-    k: &Constants,
-    ta: f64,
-    ca_total: f64,
-    h: f64,
-) -> Option<(f64, f64)> {
+pub(crate) fn ln_omega_and_slope_at_alkalinity<R: Real>(
+    k: &Constants<R>,
+    ta: R,
+    ca_total: R,
+    h: R,
+) -> Option<(R, R)> {
     let (nc, dnc) = crate::speciation::alkalinity::non_carbonate(k, h);
     let carbon = ta - nc;
-    if carbon <= 0.0 {
+    if carbon.value() <= 0.0 {
         return None;
     }
     let u = k.k1() / h;
     let v = k.k1() * k.k2() / (h * h);
     let (a, b) = (k.k_cahco3(), k.k_caco3());
     let w = a * u + b * v;
-    let c = u + 2.0 * v;
-    let q = ca_total * (a * u + 2.0 * b * v);
+    let c = u + v * 2.0;
+    let q = ca_total * (a * u + b * 2.0 * v);
     let s = balance_root(c, w, q, carbon);
-    let one_sw = 1.0 + s * w;
+    let one_sw = s * w + 1.0;
     let ca = ca_total / one_sw;
     let ln = (ca * s * v / k.ksp_calcite()).ln();
-    if !ln.is_finite() {
+    if !ln.value().is_finite() {
         return None;
     }
     let d_carbon = -h * dnc;
-    let dc = -u - 4.0 * v;
-    let dw = -a * u - 2.0 * b * v;
-    let dq = -ca_total * (a * u + 4.0 * b * v);
+    let dc = -u - v * 4.0;
+    let dw = -a * u - b * 2.0 * v;
+    let dq = -ca_total * (a * u + b * 4.0 * v);
     let left = carbon - s * c;
     let g_s = -c * one_sw + left * w - q;
     let g_x = (d_carbon - s * dc) * one_sw + left * s * dw - s * dq;
     let ds = -g_x / g_s;
     let d_ln_dx = -(ds * w + s * dw) / one_sw + ds / s - 2.0;
-    let slope = -std::f64::consts::LN_10 * d_ln_dx;
-    slope.is_finite().then_some((ln, slope))
+    let slope = d_ln_dx * -std::f64::consts::LN_10;
+    slope.value().is_finite().then_some((ln, slope))
 }
 
 /// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).
-pub(crate) fn free_carbonate(k: &Constants, h: f64, dic: f64) -> f64 {
+pub(crate) fn free_carbonate<R: Real>(k: &Constants<R>, h: R, dic: R) -> R {
     let k12 = k.k1e() * k.k2e();
-    dic * k12 / (h * h + k.k1e() * h + k12) / (1.0 + k.pair_co3())
+    dic * k12 / (h * h + k.k1e() * h + k12) / (k.pair_co3() + 1.0)
 }

@@ -2,6 +2,7 @@
 //! and the calcium carbonate precipitation potential.
 
 use super::FreshFigures;
+use crate::base::numeric::Real;
 use crate::base::units::CACO3_G_MOL;
 use crate::base::warning::{Warning, Warnings};
 use crate::medium::fresh::ionic::ion_sum;
@@ -47,6 +48,85 @@ pub(crate) fn saturation_ph_estimate(k: &Constants, ta: f64, ca_total: f64) -> O
     let h = k.k2e() * hco3 / co3;
     let ph = -crate::base::numeric::log10(h);
     (hco3 > 0.0 && (PHS_LOWEST..=PHS_HIGHEST).contains(&ph)).then_some(ph)
+}
+
+/// The residual of the pHs root on any [`Real`]: ln Ω of calcite at the
+/// NBS pH `phs` held fixed (h = 10^(−pHs), a constant), for alkalinity `ta`
+/// and total calcium `ca_total` (mol/kg) at the apparent constants of `k`
+/// ([`ln_omega_at_alkalinity`], the function whose root the pHs searches
+/// find), with its slope ∂ ln Ω/∂pH
+/// ([`ln_omega_and_slope_at_alkalinity`]; the slope's value is read, as
+/// the slope of an implicit differentiation). At the settled pHs (found on
+/// `f64`) the residual's derivatives are ∂F/∂sources, and
+/// `R::root(phs, residual, slope.value())` gives pHs with its derivatives
+/// ([`saturation_ph_on`]). `None` where ln Ω is not defined there.
+#[cfg_attr(not(test), allow(dead_code))]
+pub(crate) fn saturation_ph_residual<R: Real>(
+    k: &Constants<R>,
+    ta: R,
+    ca_total: R,
+    phs: f64,
+) -> Option<(R, R)> {
+    let h = R::constant(crate::base::numeric::pow10(-phs));
+    ln_omega_and_slope_at_alkalinity(k, ta, ca_total, h)
+}
+
+/// pHs on any [`Real`] from its value `phs` (the root the `f64` searches
+/// settled on, [`FreshBasis::saturation_ph`]) by implicit differentiation
+/// of [`saturation_ph_residual`]: dpHs/dsource = −(∂F/∂source)/(∂F/∂pH).
+/// On `f64`, `phs` itself. `None` where ln Ω or its slope is not defined at
+/// `phs`, or the slope is zero.
+#[cfg_attr(not(test), allow(dead_code))]
+pub(crate) fn saturation_ph_on<R: Real>(
+    k: &Constants<R>,
+    ta: R,
+    ca_total: R,
+    phs: f64,
+) -> Option<R> {
+    let (residual, slope) = saturation_ph_residual(k, ta, ca_total, phs)?;
+    let slope = slope.value();
+    (slope != 0.0).then(|| R::root(phs, residual, slope))
+}
+
+impl<R: Real> FreshBasis<R> {
+    /// The figures of [`FreshBasis::fresh_figures`] on any [`Real`], for the
+    /// settled `k`, `h` and `dic` of this type, from `values`, the figures
+    /// the `f64` solve found (their searches are not run again): the
+    /// charge balance from the ions ([`ion_sum`]); pHs by implicit
+    /// differentiation at the value found ([`saturation_ph_on`]) and the
+    /// Langelier index pH − pHs; the precipitation potential (a search over
+    /// full solves, not differentiated here) as the caller gives it in
+    /// `precipitation_potential`. On `f64`, with the `f64` solve's
+    /// numbers, the same figures bit for bit.
+    #[cfg_attr(not(test), allow(dead_code))]
+    pub(crate) fn fresh_figures_on(
+        &self,
+        k: &Constants<R>,
+        h: R,
+        dic: R,
+        values: &FreshFigures,
+        precipitation_potential: Option<R>,
+    ) -> FreshFigures<R> {
+        let charge_balance_percent = values
+            .charge_balance_percent
+            .map(|_| ion_sum(k, h, dic).1 * 100.0);
+        let mut e = FreshFigures {
+            ionic_strength_from: values.ionic_strength_from,
+            charge_balance_percent,
+            saturation_ph_nbs: None,
+            langelier_index: None,
+            precipitation_potential_mg_l_caco3: precipitation_potential,
+        };
+        if let Some(phs) = values.saturation_ph_nbs {
+            let ta = crate::speciation::alkalinity::parts(k, h, dic).total();
+            let ph = -h.log10_via_ln();
+            if let Some(phs) = saturation_ph_on(k, ta, self.totals.calcium_mol_kg, phs) {
+                e.saturation_ph_nbs = Some(phs);
+                e.langelier_index = Some(ph - phs);
+            }
+        }
+        e
+    }
 }
 
 impl FreshBasis {

@@ -14,6 +14,8 @@ use crate::speciation::alkalinity::parts_with_slopes;
 
 pub mod exchange;
 mod fresh_figures;
+#[cfg(test)]
+mod fresh_generic_tests;
 
 pub use exchange::Exchange;
 

@@ -1,9 +1,10 @@
 //! The speciation-independent part of a fresh water's constants, and the
 //! apparent constants at an ionic strength and free calcium.
 
-use super::ionic::{fixed_ionic_strength, ion_sum, route};
+use super::ionic::{fixed_ionic_strength_at, ion_sum, route};
 use super::FreshBasis;
 use crate::base::error::Result;
+use crate::base::numeric::Real;
 use crate::fits::thermodynamic as pb;
 use crate::fits::{nutrients, sulfate, sulfide, FitName, FitsUsed};
 use crate::medium::constants::{scale_factors, ScaleLink};
@@ -14,48 +15,112 @@ use crate::properties::scales::PhScale;
 use crate::sample::water::Water;
 use crate::sample::Totals;
 
+/// The numbers of a fresh water that can be sources of uncertainty, as
+/// numbers of any [`Real`], for [`FreshBasis::new_at`]: on a
+/// [`Tangent`](crate::base::numeric::Tangent), each seeded with the
+/// derivatives the propagation wants carried. Every value must be the
+/// water's own (its conditions and options, which the basis still reads for
+/// names, ranges and warnings): the derivatives are what they add.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct FreshSources<R: Real = f64> {
+    /// Temperature, °C (the water's `temperature_c`).
+    pub(crate) temperature_c: R,
+    /// Practical salinity (the water's `salinity`).
+    pub(crate) salinity: R,
+    /// The number the fixed ionic strength is made from, by the water's
+    /// route: specific conductance (µS/cm), TDS (mg/L) or the ionic
+    /// strength given (mol/kg); `None` for the water's own number (a
+    /// constant). Not read on the salinity route (which reads `salinity`)
+    /// nor where the ions give the ionic strength.
+    pub(crate) fixed_ionic_input: Option<R>,
+    /// Added to the total calcium (mol/kg) the composition gives at the
+    /// basis's density; `None` adds nothing. A shift of value 0 carrying
+    /// the calcium source's derivative keeps the per-litre conversion's
+    /// derivatives with temperature and salinity, as moving the calcium
+    /// as a per-kg total does in the propagation (`Problem::shifted`).
+    pub(crate) calcium_shift_mol_kg: Option<R>,
+}
+
+impl<R: Real> FreshSources<R> {
+    /// The water's own numbers, as constants (no derivatives).
+    pub(crate) fn of(water: &Water) -> Self {
+        let c = water.conditions();
+        FreshSources {
+            temperature_c: R::constant(c.temperature_c()),
+            salinity: R::constant(c.salinity()),
+            fixed_ionic_input: None,
+            calcium_shift_mol_kg: None,
+        }
+    }
+}
+
 impl FreshBasis {
     /// The basis of `water`, a fresh water. With `every_constant` false,
     /// the constants of acid systems whose total is zero, and the calcium
     /// constants without calcium, are not evaluated and hold 0 (as in
     /// saline water); a solve never reads them.
     pub(crate) fn new(water: &Water, every_constant: bool) -> Result<Self> {
+        Self::new_at(water, &FreshSources::of(water), every_constant)
+    }
+}
+
+impl<R: Real> FreshBasis<R> {
+    /// The basis of `water`, a fresh water, on any [`Real`], with the
+    /// numbers that can be sources of uncertainty taken from `sources`
+    /// (their values must be the water's): temperature and salinity move
+    /// every constant through the fits, the density and through it a total
+    /// given per litre; the fixed ionic strength moves with its input (or
+    /// the salinity); the calcium total with its shift. Pressure, the air
+    /// pressure and the totals other than calcium are the water's
+    /// constants. On `f64` with [`FreshSources::of`] the water, it is
+    /// [`FreshBasis::new`], the same numbers bit for bit; the range
+    /// warnings read the values.
+    pub(crate) fn new_at(
+        water: &Water,
+        sources: &FreshSources<R>,
+        every_constant: bool,
+    ) -> Result<Self> {
         let c = water.conditions();
-        let t_c = c.temperature_c();
-        let t = c.temperature_k();
+        let zero = R::constant(0.0);
+        let t_c = sources.temperature_c;
+        let s = sources.salinity;
+        let t = t_c + 273.15;
         let mut warnings = Vec::new();
-        let density = density_kg_m3(c.salinity(), t_c)?;
-        let rho_w = density_kg_m3(0.0, t_c)? / 1000.0;
-        let totals = water.composition().fresh_totals(density);
+        let density = density_kg_m3(s, t_c)?;
+        let rho_w = density_kg_m3(zero, t_c)? / 1000.0;
+        let mut totals = water.composition().fresh_totals(density);
+        if let Some(shift) = sources.calcium_shift_mol_kg {
+            totals.calcium_mol_kg += shift;
+        }
+        let t_value = t_c.value();
         pb::PLUMMER_BUSENBERG1982_RANGE.check_for(
             "K0, K1, K2, calcite and aragonite",
-            t_c,
+            t_value,
             0.0,
             &mut warnings,
         );
-        pb::HARNED_OWEN_RANGE.check_for("KW", t_c, 0.0, &mut warnings);
-        if totals.calcium_mol_kg > 0.0 {
-            pb::CAHCO3_RANGE.check_for("CaHCO3+ pair", t_c, 0.0, &mut warnings);
-            pb::CACO3_RANGE.check_for("CaCO3 pair", t_c, 0.0, &mut warnings);
+        pb::HARNED_OWEN_RANGE.check_for("KW", t_value, 0.0, &mut warnings);
+        if totals.calcium_mol_kg.value() > 0.0 {
+            pb::CAHCO3_RANGE.check_for("CaHCO3+ pair", t_value, 0.0, &mut warnings);
+            pb::CACO3_RANGE.check_for("CaCO3 pair", t_value, 0.0, &mut warnings);
         }
-        if totals.ammonia_mol_kg > 0.0 {
-            pb::EMERSON1975_RANGE.check_for("KNH4", t_c, 0.0, &mut warnings);
+        if totals.ammonia_mol_kg.value() > 0.0 {
+            pb::EMERSON1975_RANGE.check_for("KNH4", t_value, 0.0, &mut warnings);
         }
-        let p10 = crate::base::numeric::pow10;
         // A constant whose total is zero is not evaluated (it stays 0, as in
         // saline water): each costs an exponential per prepared water.
-        let given = |total: f64, k: &dyn Fn() -> f64| {
-            if every_constant || total > 0.0 {
+        let given = |total: R, k: &dyn Fn() -> R| {
+            if every_constant || total.value() > 0.0 {
                 k()
             } else {
-                0.0
+                zero
             }
         };
-        let kp = if every_constant || totals.phosphate_mol_kg > 0.0 {
-            let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, 0.0);
+        let kp = if every_constant || totals.phosphate_mol_kg.value() > 0.0 {
+            let (lp1, lp2, lp3) = nutrients::millero1995_ln_kp(t, zero);
             (lp1.exp(), lp2.exp(), lp3.exp())
         } else {
-            (0.0, 0.0, 0.0)
+            (zero, zero, zero)
         };
         let calcium = totals.calcium_mol_kg;
         let model = water.fresh_options().activity;
@@ -63,46 +128,51 @@ impl FreshBasis {
         let (dh_a, dh_b) = crate::properties::activity::debye_huckel_coefficients(t_c, rho_w);
         let mut b = FreshBasis {
             conditions: *c,
+            at: [t_c, s, R::constant(c.pressure_dbar())],
             model,
             dh_a,
             dh_b,
-            kh: p10(pb::log_kh(t)),
-            k1: p10(pb::log_k1(t)),
-            k2: p10(pb::log_k2(t)),
-            kw: p10(pb::log_kw(t)),
+            kh: pb::log_kh(t).pow10(),
+            k1: pb::log_k1(t).pow10(),
+            k2: pb::log_k2(t).pow10(),
+            kw: pb::log_kw(t).pow10(),
             // Pure-water limits (S = 0) of the sea-water fits.
             kb: given(totals.boron_mol_kg, &|| {
-                crate::fits::boron::dickson1990_ln_kb(t, 0.0).exp()
+                crate::fits::boron::dickson1990_ln_kb(t, zero).exp()
             }),
             kp,
             ksi: given(totals.silicate_mol_kg, &|| {
-                nutrients::millero1995_ln_ksi(t, 0.0).exp()
+                nutrients::millero1995_ln_ksi(t, zero).exp()
             }),
             ks: given(totals.sulfate_mol_kg, &|| {
-                sulfate::dickson1990_ln_ks(t, 0.0).exp()
+                sulfate::dickson1990_ln_ks(t, zero).exp()
             }),
-            kf: given(totals.fluoride_mol_kg, &|| (1590.2 / t - 12.641).exp()),
-            knh4: given(totals.ammonia_mol_kg, &|| p10(-pb::emerson1975_pka(t))),
+            kf: given(totals.fluoride_mol_kg, &|| (t.under(1590.2) - 12.641).exp()),
+            knh4: given(totals.ammonia_mol_kg, &|| (-pb::emerson1975_pka(t)).pow10()),
             kh2s: given(totals.sulfide_mol_kg, &|| {
-                p10(-sulfide::millero1988_pk1(t, 0.0))
+                (-sulfide::millero1988_pk1(t, zero)).pow10()
             }),
-            ksp_calcite: given(calcium, &|| p10(pb::log_ksp_calcite(t))),
-            ksp_aragonite: given(calcium, &|| p10(pb::log_ksp_aragonite(t))),
-            k_cahco3: given(calcium, &|| p10(pb::log_k_cahco3(t))),
-            k_caco3: given(calcium, &|| p10(pb::log_k_caco3(t))),
-            fugacity_factor: crate::fits::gas::weiss1974_fugacity_factor(t, c.air_pressure_atm()),
-            vapour_pressure_atm: crate::fits::gas::weiss_price1980_vapour_pressure_atm(t, 0.0),
+            ksp_calcite: given(calcium, &|| pb::log_ksp_calcite(t).pow10()),
+            ksp_aragonite: given(calcium, &|| pb::log_ksp_aragonite(t).pow10()),
+            k_cahco3: given(calcium, &|| pb::log_k_cahco3(t).pow10()),
+            k_caco3: given(calcium, &|| pb::log_k_caco3(t).pow10()),
+            fugacity_factor: crate::fits::gas::weiss1974_fugacity_factor(
+                t,
+                R::constant(c.air_pressure_atm()),
+            ),
+            vapour_pressure_atm: crate::fits::gas::weiss_price1980_vapour_pressure_atm(t, zero),
             density,
             totals,
             fits_used: fresh_fits_used(&totals, model),
             route,
-            fixed_i: fixed_ionic_strength(water, route),
-            i_start: 0.0,
+            fixed_i: fixed_ionic_strength_at(water, route, s, sources.fixed_ionic_input),
+            i_start: zero,
             warnings,
         };
         let p_bar = c.pressure_bar();
         if p_bar > 0.0 {
             use crate::fits::pressure::*;
+            let p_bar = R::constant(p_bar);
             let f = |k: &PressureCoefficients| pressure_factor(k, t_c, p_bar);
             b.k1 *= f(&K1);
             b.k2 *= f(&K2);
@@ -124,10 +194,18 @@ impl FreshBasis {
         // Where the ions give the ionic strength, start from the ions given
         // (with all calcium free) and no carbon.
         if b.fixed_i.is_none() {
-            let ca = b.totals.calcium_mol_kg;
-            b.i_start = ion_sum(&b.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
+            b.i_start = b.ion_start();
         }
         Ok(b)
+    }
+
+    /// The first ionic strength of a fixed point where the ions give it:
+    /// the ions given, all calcium free, no carbon.
+    #[inline]
+    fn ion_start(&self) -> R {
+        let ca = self.totals.calcium_mol_kg;
+        let zero = R::constant(0.0);
+        ion_sum(&self.constants_at(zero, ca, ca), R::constant(1e-8), zero).0
     }
 
     /// This basis with one thermodynamic constant perturbed: pK = −log10 K
@@ -141,7 +219,7 @@ impl FreshBasis {
     /// [`crate::Error::NotFinite`] for a `delta_pk` that is not finite;
     /// [`crate::Error::Computation`] for a result that is not finite and
     /// positive (a constant that was evaluated).
-    pub(crate) fn with_pk(mut self, which: ConstantName, delta_pk: f64) -> Result<Self> {
+    pub(crate) fn with_pk(mut self, which: ConstantName, delta_pk: R) -> Result<Self> {
         self.pk_in_place(which, delta_pk)?;
         Ok(self)
     }
@@ -149,17 +227,17 @@ impl FreshBasis {
     /// [`FreshBasis::with_pk`] in place (for a scratch copy, see
     /// [`FreshBasis::copy_numbers_from`]); on an error the basis may be
     /// left part-way and must be copied again.
-    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: f64) -> Result<()> {
+    pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: R) -> Result<()> {
         use crate::base::error::Error;
         use crate::base::field::Field;
         use ConstantName as C;
-        if !delta_pk.is_finite() {
+        if !delta_pk.value().is_finite() {
             return Err(Error::NotFinite {
                 field: Field::DeltaPk,
-                value: delta_pk,
+                value: delta_pk.value(),
             });
         }
-        let factor = crate::base::numeric::pow10(-delta_pk);
+        let factor = (-delta_pk).pow10();
         let slot = match which {
             C::K0 => &mut self.kh,
             C::K1 => &mut self.k1,
@@ -182,19 +260,20 @@ impl FreshBasis {
         };
         let before = *slot;
         let after = before * factor;
-        if !after.is_finite() || (before > 0.0 && after <= 0.0) {
+        let (b, a) = (before.value(), after.value());
+        if !a.is_finite() || (b > 0.0 && a <= 0.0) {
             return Err(Error::Computation {
                 field: Field::Constant,
                 reason: format!(
-                    "{} with its pK raised by {delta_pk} would be {after}",
-                    which.name()
+                    "{} with its pK raised by {} would be {a}",
+                    which.name(),
+                    delta_pk.value()
                 ),
             });
         }
         *slot = after;
         if self.fixed_i.is_none() {
-            let ca = self.totals.calcium_mol_kg;
-            self.i_start = ion_sum(&self.constants_at(0.0, ca, ca), 1e-8, 0.0).0;
+            self.i_start = self.ion_start();
         }
         Ok(())
     }
@@ -202,7 +281,7 @@ impl FreshBasis {
     /// Every value of `other` but its range warnings, which are left
     /// empty: the copy a perturbation in place starts from again, without
     /// allocating.
-    pub(crate) fn copy_numbers_from(&mut self, other: &FreshBasis) {
+    pub(crate) fn copy_numbers_from(&mut self, other: &FreshBasis<R>) {
         *self = FreshBasis {
             warnings: Vec::new(),
             ..*other
@@ -211,7 +290,7 @@ impl FreshBasis {
 
     /// Apparent constants at ionic strength `i`, free calcium `ca_free` and
     /// total calcium `ca_total` (mol/kg), without the range warnings.
-    pub(crate) fn constants_at(&self, i: f64, ca_free: f64, ca_total: f64) -> Constants {
+    pub(crate) fn constants_at(&self, i: R, ca_free: R, ca_total: R) -> Constants<R> {
         let g = Gammas::from_coefficients(self.model, self.dh_a, self.dh_b, i);
         let (g1, g2, g3, gh, gca) = (
             g.monovalent,
@@ -226,7 +305,8 @@ impl FreshBasis {
         let k_caco3 = self.k_caco3 * gca * g2;
         let mut t = self.totals;
         t.calcium_mol_kg = ca_total;
-        let on = |total: f64, k: f64| if total > 0.0 { k } else { 0.0 };
+        let zero = R::constant(0.0);
+        let on = |total: R, k: R| if total.value() > 0.0 { k } else { zero };
         // Concentration constants on free [H+]: [H][SO4]/[HSO4] = KS γ1/(γH γ2),
         // [H][F]/[HF] = KF/(γH γ1).
         let ks_free = self.ks * g1 / (gh * g2);
@@ -241,20 +321,16 @@ impl FreshBasis {
         let mut k = Constants {
             conditions: self.conditions,
             working_scale: PhScale::Nbs,
-            at: [
-                self.conditions.temperature_c(),
-                self.conditions.salinity(),
-                self.conditions.pressure_dbar(),
-            ],
+            at: self.at,
             k0: self.kh,
             k1,
             k2,
             // Set with the free calcium below.
             k1e: k1,
             k2e: k2,
-            pair_hco3: 0.0,
-            pair_co3: 0.0,
-            calcium_free_mol_kg: 0.0,
+            pair_hco3: zero,
+            pair_co3: zero,
+            calcium_free_mol_kg: zero,
             ionic_strength: i,
             kb: on(t.boron_mol_kg, self.kb / g1),
             kw: self.kw / g1,
@@ -280,7 +356,16 @@ impl FreshBasis {
             // Attached only to the constants a caller sees (not on every
             // trial of a fixed point, where it would allocate).
             warnings: Vec::new(),
-            gammas: Some(g),
+            // The coefficients are kept as values (what the scale link and
+            // the state read as numbers); their derivatives are in the
+            // constants made from them here.
+            gammas: Some(Gammas {
+                hydrogen: gh.value(),
+                monovalent: g1.value(),
+                carbonate: g2.value(),
+                calcium: gca.value(),
+                trivalent: g3.value(),
+            }),
             k_cahco3,
             k_caco3,
             logs: None,
@@ -291,14 +376,14 @@ impl FreshBasis {
 
     /// Attaches the range warnings of this basis to constants made from it
     /// (those a caller sees; not those of every trial of a fixed point).
-    pub(crate) fn attach_warnings(&self, k: &mut Constants) {
+    pub(crate) fn attach_warnings(&self, k: &mut Constants<R>) {
         k.warnings = self.warnings.clone();
     }
 
     /// The constants at the first ionic strength of a solve, with all
     /// calcium free, and the range warnings: what [`Water::constants`]
     /// returns for a fresh water.
-    pub(crate) fn starting_constants(&self) -> Constants {
+    pub(crate) fn starting_constants(&self) -> Constants<R> {
         let ca = self.totals.calcium_mol_kg;
         let mut k = self.constants_at(self.fixed_i.unwrap_or(self.i_start), ca, ca);
         self.attach_warnings(&mut k);
@@ -306,13 +391,13 @@ impl FreshBasis {
     }
 }
 
-pub(crate) fn fresh_fits_used(
-    t: &Totals,
+pub(crate) fn fresh_fits_used<R: Real>(
+    t: &Totals<R>,
     activity: crate::properties::activity::ActivityModel,
 ) -> FitsUsed {
     let pb = FitName::PlummerBusenberg1982;
-    let given = |total: f64| {
-        if total > 0.0 {
+    let given = |total: R| {
+        if total.value() > 0.0 {
             FitName::Measured
         } else {
             FitName::NoneGiven

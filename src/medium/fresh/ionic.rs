@@ -2,6 +2,7 @@
 //! given, and the sum over the ions.
 
 use super::IonicStrengthRoute;
+use crate::base::numeric::Real;
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::sulfate;
 use crate::medium::Constants;
@@ -26,17 +27,28 @@ pub(crate) fn route(water: &Water) -> IonicStrengthRoute {
     }
 }
 
-pub(crate) fn fixed_ionic_strength(water: &Water, route: IonicStrengthRoute) -> Option<f64> {
+/// The ionic strength of `water` where it does not depend on the
+/// speciation (by `route`; `None` where the ions give it), on any [`Real`], from the numbers that can be
+/// sources of uncertainty: the salinity `salinity` (its value the water's)
+/// on the salinity route, and on the specific-conductance, TDS and given
+/// routes `input`, the number of that route (µS/cm, mg/L, mol/kg) in place
+/// of the water's own (`None`: the water's own, as a constant). Russell
+/// (1976), Langelier (1936) and the sea-water ratios, as on `f64`.
+pub(crate) fn fixed_ionic_strength_at<R: Real>(
+    water: &Water,
+    route: IonicStrengthRoute,
+    salinity: R,
+    input: Option<R>,
+) -> Option<R> {
     let f = water.fresh_options();
+    let number = |own: Option<f64>| own.map(|x| input.unwrap_or(R::constant(x)));
     match route {
         IonicStrengthRoute::SpecificConductance => {
-            f.specific_conductance_us_cm.map(russell1976_ionic_strength)
+            number(f.specific_conductance_us_cm).map(russell1976_ionic_strength)
         }
-        IonicStrengthRoute::Tds => f.tds_mg_l.map(langelier1936_ionic_strength),
-        IonicStrengthRoute::Given => f.ionic_strength,
-        IonicStrengthRoute::Salinity => Some(sulfate::seawater_ionic_strength(
-            water.conditions().salinity(),
-        )),
+        IonicStrengthRoute::Tds => number(f.tds_mg_l).map(langelier1936_ionic_strength),
+        IonicStrengthRoute::Given => number(f.ionic_strength),
+        IonicStrengthRoute::Salinity => Some(sulfate::seawater_ionic_strength(salinity)),
         _ => None,
     }
 }
@@ -44,22 +56,23 @@ pub(crate) fn fixed_ionic_strength(water: &Water, route: IonicStrengthRoute) -> 
 /// Ionic strength from every ion, with a monovalent ion added to carry any
 /// charge imbalance; also returns the imbalance as a fraction of the total
 /// charge (positive: excess cations).
-pub(crate) fn ion_sum(k: &Constants, h: f64, dic: f64) -> (f64, f64) {
+pub(crate) fn ion_sum<R: Real>(k: &Constants<R>, h: R, dic: R) -> (R, R) {
+    let zero = R::constant(0.0);
     let t = &k.totals;
     let d = h * h + k.k1e * h + k.k1e * k.k2e;
     let hco3_t = dic * k.k1e * h / d;
     let co3_t = dic * k.k1e * k.k2e / d;
-    let hco3 = hco3_t / (1.0 + k.pair_hco3);
-    let co3 = co3_t / (1.0 + k.pair_co3);
+    let hco3 = hco3_t / (k.pair_hco3 + 1.0);
+    let co3 = co3_t / (k.pair_co3 + 1.0);
     let cahco3 = hco3_t - hco3;
     let ca = k.calcium_free_mol_kg;
     let hf = h * k.free_per_working;
     let oh = k.kw / h;
-    let base = |total: f64, ka: f64| {
-        if total > 0.0 {
+    let base = |total: R, ka: R| {
+        if total.value() > 0.0 {
             total * ka / (ka + h)
         } else {
-            0.0
+            zero
         }
     };
     let borate = base(t.boron_mol_kg, k.kb);
@@ -69,8 +82,8 @@ pub(crate) fn ion_sum(k: &Constants, h: f64, dic: f64) -> (f64, f64) {
     let so4 = t.sulfate_mol_kg * k.ks_free / (k.ks_free + hf);
     let hso4 = t.sulfate_mol_kg - so4;
     let fl = t.fluoride_mol_kg * k.kf_free / (k.kf_free + hf);
-    let (mut h2po4, mut hpo4, mut po4) = (0.0, 0.0, 0.0);
-    if t.phosphate_mol_kg > 0.0 {
+    let (mut h2po4, mut hpo4, mut po4) = (zero, zero, zero);
+    if t.phosphate_mol_kg.value() > 0.0 {
         let (a, b, c) = (k.kp1, k.kp1 * k.kp2, k.kp1 * k.kp2 * k.kp3);
         let dp = h * h * h + a * h * h + b * h + c;
         h2po4 = t.phosphate_mol_kg * a * h * h / dp;
@@ -83,27 +96,27 @@ pub(crate) fn ion_sum(k: &Constants, h: f64, dic: f64) -> (f64, f64) {
     let mono_anions = oh + hco3 + t.chloride_mol_kg + borate + silicate + hs + hso4 + fl + h2po4;
     let divalent_anions = co3 + so4 + hpo4;
     let trivalent_anions = po4;
-    let charge = mono_cations + 2.0 * divalent_cations
+    let charge = mono_cations + divalent_cations * 2.0
         - mono_anions
-        - 2.0 * divalent_anions
-        - 3.0 * trivalent_anions;
+        - divalent_anions * 2.0
+        - trivalent_anions * 3.0;
     let total_charge = mono_cations
-        + 2.0 * divalent_cations
+        + divalent_cations * 2.0
         + mono_anions
-        + 2.0 * divalent_anions
-        + 3.0 * trivalent_anions;
-    let i = 0.5
-        * (mono_cations
-            + mono_anions
-            + 4.0 * (divalent_cations + divalent_anions)
-            + 9.0 * trivalent_anions
-            + charge.abs());
+        + divalent_anions * 2.0
+        + trivalent_anions * 3.0;
+    let i = (mono_cations
+        + mono_anions
+        + (divalent_cations + divalent_anions) * 4.0
+        + trivalent_anions * 9.0
+        + charge.abs())
+        * 0.5;
     (
         i,
-        if total_charge > 0.0 {
+        if total_charge.value() > 0.0 {
             charge / total_charge
         } else {
-            0.0
+            zero
         },
     )
 }

@@ -31,6 +31,7 @@
 //! its own ionic strength and calcium, so the root nearer pH 8 and the
 //! other root's warning hold for the converged waters.
 
+use crate::base::numeric::Real;
 use crate::base::warning::Warning;
 use crate::fits::FitsUsed;
 use crate::properties::activity::ActivityModel;
@@ -39,6 +40,8 @@ use crate::sample::Totals;
 use serde::Serialize;
 
 mod basis;
+#[cfg_attr(not(test), allow(unused_imports))]
+pub(crate) use basis::FreshSources;
 pub(crate) mod ionic;
 
 /// Where the ionic strength of a fresh water came from.
@@ -94,39 +97,46 @@ impl IonicStrengthRoute {
 /// Debye–Hückel coefficients, the totals, the ionic-strength route and the
 /// range warnings. Evaluated once per prepared water; apparent constants at
 /// any ionic strength and free calcium then cost the activity coefficients
-/// and a few products.
+/// and a few products. Its numbers are of any [`Real`]: on `f64` those of a
+/// solve, on a [`Tangent`](crate::base::numeric::Tangent) the same values
+/// with their derivatives with respect to the sources seeded in
+/// [`FreshSources`] (see `FreshBasis::new_at`).
 #[derive(Debug, Clone, PartialEq)]
-pub(crate) struct FreshBasis {
+pub(crate) struct FreshBasis<R: Real = f64> {
     pub(crate) conditions: Conditions,
+    /// The temperature (°C), practical salinity and gauge pressure (dbar)
+    /// of `conditions` as numbers of this type (the `at` of the constants
+    /// made from this basis).
+    pub(crate) at: [R; 3],
     pub(crate) model: ActivityModel,
     /// Debye–Hückel A and B at this temperature.
-    pub(crate) dh_a: f64,
-    pub(crate) dh_b: f64,
-    pub(crate) kh: f64,
-    pub(crate) k1: f64,
-    pub(crate) k2: f64,
-    pub(crate) kw: f64,
-    pub(crate) kb: f64,
-    pub(crate) kp: (f64, f64, f64),
-    pub(crate) ksi: f64,
-    pub(crate) ks: f64,
-    pub(crate) kf: f64,
-    pub(crate) knh4: f64,
-    pub(crate) kh2s: f64,
-    pub(crate) ksp_calcite: f64,
-    pub(crate) ksp_aragonite: f64,
-    pub(crate) k_cahco3: f64,
-    pub(crate) k_caco3: f64,
-    pub(crate) fugacity_factor: f64,
-    pub(crate) vapour_pressure_atm: f64,
-    pub(crate) density: f64,
-    pub(crate) totals: Totals,
+    pub(crate) dh_a: R,
+    pub(crate) dh_b: R,
+    pub(crate) kh: R,
+    pub(crate) k1: R,
+    pub(crate) k2: R,
+    pub(crate) kw: R,
+    pub(crate) kb: R,
+    pub(crate) kp: (R, R, R),
+    pub(crate) ksi: R,
+    pub(crate) ks: R,
+    pub(crate) kf: R,
+    pub(crate) knh4: R,
+    pub(crate) kh2s: R,
+    pub(crate) ksp_calcite: R,
+    pub(crate) ksp_aragonite: R,
+    pub(crate) k_cahco3: R,
+    pub(crate) k_caco3: R,
+    pub(crate) fugacity_factor: R,
+    pub(crate) vapour_pressure_atm: R,
+    pub(crate) density: R,
+    pub(crate) totals: Totals<R>,
     pub(crate) fits_used: FitsUsed,
     pub(crate) route: IonicStrengthRoute,
     /// The ionic strength where it does not depend on the speciation.
-    pub(crate) fixed_i: Option<f64>,
+    pub(crate) fixed_i: Option<R>,
     /// The first ionic strength of a fixed point where it comes from the ions.
-    pub(crate) i_start: f64,
+    pub(crate) i_start: R,
     pub(crate) warnings: Vec<Warning>,
 }
 
