@@ -249,7 +249,28 @@ fn the_basis_and_constants_on_tangents_have_the_f64_values_bit_for_bit() {
                 assert_eq!(a.to_bits(), b.v.to_bits(), "constant {n} of {w:?}");
                 compared += 1;
             }
-            assert_eq!(kf.gammas(), kg.gammas());
+            let values = |g: Option<crate::properties::activity::Gammas<D>>| {
+                g.map(|g| {
+                    [
+                        g.hydrogen,
+                        g.monovalent,
+                        g.carbonate,
+                        g.calcium,
+                        g.trivalent,
+                    ]
+                    .map(|x| x.v)
+                })
+            };
+            let plain = kf.gammas().map(|g| {
+                [
+                    g.hydrogen,
+                    g.monovalent,
+                    g.carbonate,
+                    g.calcium,
+                    g.trivalent,
+                ]
+            });
+            assert_eq!(plain, values(kg.gammas()));
             // The starting constants too.
             let (s1, s2) = (f.starting_constants(), g.starting_constants());
             for (a, b) in constant_numbers(&s1).iter().zip(constant_numbers(&s2)) {

@@ -356,16 +356,7 @@ impl<R: Real> FreshBasis<R> {
             // Attached only to the constants a caller sees (not on every
             // trial of a fixed point, where it would allocate).
             warnings: Vec::new(),
-            // The coefficients are kept as values (what the scale link and
-            // the state read as numbers); their derivatives are in the
-            // constants made from them here.
-            gammas: Some(Gammas {
-                hydrogen: gh.value(),
-                monovalent: g1.value(),
-                carbonate: g2.value(),
-                calcium: gca.value(),
-                trivalent: g3.value(),
-            }),
+            gammas: Some(g),
             k_cahco3,
             k_caco3,
             logs: None,
