@@ -9,7 +9,7 @@
 //! ```
 
 use crate::base::error::Result;
-use crate::base::numeric::Tangent;
+use crate::base::numeric::{Real, Tangent};
 use crate::base::warning::{Warning, Warnings};
 use crate::fits::CarbonicFit;
 use crate::medium::fresh::ionic::add_route_warnings;
@@ -998,6 +998,9 @@ pub(crate) struct Seeds<const N: usize> {
     /// sources.
     pub temperature: Option<usize>,
     pub salinity: Option<usize>,
+    /// The slot of the number a fresh water's fixed ionic strength is made
+    /// from (a TDS or an ionic strength given), where it is a source.
+    pub ionic_input: Option<usize>,
 }
 
 impl PreparedWater {
@@ -1021,8 +1024,9 @@ impl PreparedWater {
         seeds: &Seeds<N>,
         read: impl FnOnce(&State<Tangent<N>>) -> T,
     ) -> Option<Result<T>> {
-        let Prepared::Saline(k0) = &self.prepared else {
-            return None;
+        let k0 = match &self.prepared {
+            Prepared::Saline(k0) => k0,
+            Prepared::Fresh(_) => return self.solve_tangent_fresh(base, a, b, seeds, read),
         };
         let plain: Constants<Tangent<2>> = k0.lift();
         let mut k: Constants<Tangent<N>> = match (seeds.temperature, seeds.salinity) {
@@ -1073,6 +1077,108 @@ impl PreparedWater {
         )?;
         let state =
             State::build_fresh_or_saline(&self.water, &k, h, dic, Warnings::new(), None, a, b);
+        Some(match &state {
+            Ok(state) => Ok(read(state)),
+            Err(e) => Err(e.clone()),
+        })
+    }
+
+    /// [`PreparedWater::solve_tangent`] in fresh water: the basis on
+    /// tangents of its own sources (temperature, salinity, the number of
+    /// a fixed ionic strength, calcium) spread onto the sources' slots, the
+    /// constants perturbed on their slots, the four unknowns of the fixed
+    /// point by implicit differentiation
+    /// ([`crate::solve::tangent::fresh_unknowns`]), the apparent constants
+    /// at them, the figures (pHs by implicit differentiation at its root)
+    /// and the state. `None` where the water has a precipitation potential
+    /// (a search over full solves, left to the differences).
+    fn solve_tangent_fresh<const N: usize, T>(
+        &self,
+        base: &State,
+        a: &Measured,
+        b: &Measured,
+        seeds: &Seeds<N>,
+        read: impl FnOnce(&State<Tangent<N>>) -> T,
+    ) -> Option<Result<T>> {
+        use crate::medium::fresh::{FreshSources, IonicStrengthRoute};
+        if base.precipitation_potential_mg_l_caco3.is_some() {
+            return None;
+        }
+        let water = &self.water;
+        let c = water.conditions();
+        let f = water.fresh_options();
+        let calcium = seeds
+            .totals
+            .iter()
+            .find(|(t, _)| *t == Total::Calcium)
+            .map(|&(_, s)| s);
+        if seeds.totals.iter().any(|(t, _)| *t != Total::Calcium) {
+            return None;
+        }
+        let route = crate::medium::fresh::ionic::route(water);
+        let ionic_value = match route {
+            IonicStrengthRoute::Tds => f.tds_mg_l,
+            IonicStrengthRoute::Given => f.ionic_strength,
+            _ => None,
+        };
+        if seeds.ionic_input.is_some() && ionic_value.is_none() {
+            return None;
+        }
+        // The basis on four slots: temperature, salinity, the fixed ionic
+        // input, calcium.
+        let four = FreshSources {
+            temperature_c: Tangent::<4>::source(c.temperature_c(), 0),
+            salinity: Tangent::source(c.salinity(), 1),
+            fixed_ionic_input: ionic_value.map(|v| Tangent::source(v, 2)),
+            calcium_shift_mol_kg: Some(Tangent::source(0.0, 3)),
+        };
+        let b4 = match FreshBasis::new_at(water, &four, false) {
+            Ok(b4) => b4,
+            Err(e) => return Some(Err(e)),
+        };
+        // Each slot's derivative per unit of its source: the calcium's per
+        // µmol/kg (the unit of its uncertainty), the others in their own.
+        let slots = [
+            seeds.temperature,
+            seeds.salinity,
+            seeds.ionic_input,
+            calcium,
+        ];
+        let per_unit = [1.0, 1.0, 1.0, 1e-6];
+        let mut basis = b4.map_numbers(|x| {
+            let mut d = [0.0; N];
+            for ((slot, dx), p) in slots.iter().zip(x.d).zip(per_unit) {
+                if let Some(x) = slot.and_then(|i| d.get_mut(i)) {
+                    *x = dx * p;
+                }
+            }
+            Tangent::new(x.v, d)
+        });
+        for &(which, slot) in &seeds.constants {
+            if let Err(e) = basis.pk_in_place(which, Tangent::source(0.0, slot)) {
+                return Some(Err(e));
+            }
+        }
+        let plain = b4.map_numbers(|x| Tangent::<4>::constant(x.v));
+        let u = [
+            base.h_mol_kg(),
+            base.dic_mol_kg(),
+            base.ionic_strength,
+            base.calcium_free_umol_kg.map_or(0.0, |x| x * 1e-6),
+        ];
+        let [h, dic, i, ca] =
+            crate::solve::tangent::fresh_unknowns(&basis, &plain, u, (a, seeds.a), (b, seeds.b))?;
+        let k = basis.constants_at(i, ca, basis.totals.calcium_mol_kg);
+        let values = crate::state::FreshFigures {
+            ionic_strength_from: base.ionic_strength_from?,
+            charge_balance_percent: base.charge_balance_percent,
+            saturation_ph_nbs: base.saturation_ph_nbs,
+            langelier_index: base.langelier_index,
+            precipitation_potential_mg_l_caco3: None,
+        };
+        let figures = basis.fresh_figures_on(&k, h, dic, &values, None);
+        let state =
+            State::build_fresh_or_saline(water, &k, h, dic, Warnings::new(), Some(figures), a, b);
         Some(match &state {
             Ok(state) => Ok(read(state)),
             Err(e) => Err(e.clone()),

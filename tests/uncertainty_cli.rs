@@ -400,13 +400,14 @@ fn assert_same_u(row: &serde_json::Value, solved: &serde_json::Value) {
     for key in COMPARED.split(',') {
         let k = format!("{key}_u");
         let (a, b) = (row[&k].as_f64().unwrap(), solved[&k].as_f64().unwrap());
-        // The derivatives are forward differences of warm-started solves
-        // (DEVELOPERS.md, "Uncertainty"), good to about 1e-6 relative
-        // against central differences of cold solves (tests/uncertainty.rs);
-        // the sheet's row and the command's sample reach the same inputs by
-        // different unit conversions, so their uncertainties agree to that
-        // accuracy, not to every digit.
-        assert!(close(a, b, 1e-7), "{k}: sheet {a}, solve {b}");
+        // The command always computes the exchange with the air, so its
+        // derivatives are forward differences of warm-started solves, good
+        // to about 1e-6 relative (tests/uncertainty.rs); a sheet row
+        // without exchange columns takes exact derivatives on tangents
+        // (tests/tangent_propagation.rs compares the two to 2e-5 of each
+        // u). So they agree to the differences' accuracy, not to every
+        // digit.
+        assert!(close(a, b, 1e-5), "{k}: sheet {a}, solve {b}");
     }
 }
 

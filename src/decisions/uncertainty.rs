@@ -1036,12 +1036,11 @@ impl Problem {
     ) -> Vec<bool> {
         let m = sources.len();
         let mut done = vec![false; m];
-        if self.air.is_some()
-            || self.reported_at.is_some()
-            || self.prepared.water().medium() != Medium::Saline
-        {
+        if self.air.is_some() || self.reported_at.is_some() {
             return done;
         }
+        let water = self.prepared.water();
+        let fresh = water.medium() == Medium::Fresh;
         // The sources this pass can seed, by their place in `sources`.
         let covered: Vec<usize> = (0..m)
             .filter(|&j| {
@@ -1051,20 +1050,33 @@ impl Problem {
                         Source::Input(Input::Carbon(p)) => {
                             p == self.a.parameter() || p == self.b.parameter()
                         }
-                        Source::Input(Input::Total(t)) => matches!(
-                            t,
-                            Total::Phosphate
-                                | Total::Silicate
-                                | Total::Ammonia
-                                | Total::Sulfide
-                                | Total::Calcium
-                        ),
+                        // In fresh water calcium alone (the other totals
+                        // move the ions of the ionic strength), and a
+                        // calcium the water has.
+                        Source::Input(Input::Total(Total::Calcium)) => {
+                            self.prepared.totals().calcium_mol_kg > 0.0
+                        }
+                        Source::Input(Input::Total(t)) => {
+                            !fresh
+                                && matches!(
+                                    t,
+                                    Total::Phosphate
+                                        | Total::Silicate
+                                        | Total::Ammonia
+                                        | Total::Sulfide
+                                )
+                        }
                         Source::Constant(_) => true,
                         // Where no conductivity reading is moved with them
                         // (a reading at the sample temperature, a salinity
                         // computed from one).
                         Source::Input(Input::Temperature | Input::Salinity) => {
-                            self.prepared.water().given_conductivity().is_none()
+                            water.given_conductivity().is_none()
+                        }
+                        // The number a fresh water's fixed ionic strength
+                        // is made from (`value_of` refuses it elsewhere).
+                        Source::Input(Input::IonicStrength | Input::Tds) => {
+                            fresh && water.given_conductivity().is_none()
                         }
                         _ => false,
                     }
@@ -1079,6 +1091,7 @@ impl Problem {
                 totals: Vec::new(),
                 temperature: None,
                 salinity: None,
+                ionic_input: None,
             };
             for (slot, &j) in chunk.iter().enumerate() {
                 match sources[j].0 {
@@ -1091,6 +1104,9 @@ impl Problem {
                     Source::Input(Input::Total(t)) => seeds.totals.push((t, slot)),
                     Source::Input(Input::Temperature) => seeds.temperature = Some(slot),
                     Source::Input(Input::Salinity) => seeds.salinity = Some(slot),
+                    Source::Input(Input::IonicStrength | Input::Tds) => {
+                        seeds.ionic_input = Some(slot)
+                    }
                     Source::Constant(k) => seeds.constants.push((k, slot)),
                     Source::Input(_) => {}
                 }

@@ -19,9 +19,12 @@
 use super::{dic_per_co2, dic_per_co3, dic_per_hco3};
 use crate::base::numeric::{Real, Tangent};
 use crate::base::units::Amount;
+use crate::medium::fresh::ionic::ion_sum;
+use crate::medium::fresh::FreshBasis;
 use crate::medium::Constants;
 use crate::sample::measured::{Measured, MeasuredValue, Parameter};
 use crate::speciation::alkalinity::{carbonate_per_dic, non_carbonate};
+use crate::speciation::calcium::free_calcium;
 
 /// The residual of measurement `m` at (h, DIC) (mol/kg): the state's value
 /// of what `m` measures less the measurement, in the working units of
@@ -104,4 +107,145 @@ pub(crate) fn unknowns<const N: usize>(
         return None;
     }
     Some((Tangent::new(h, dh), Tangent::new(dic, ddic)))
+}
+
+/// The residuals of a fresh solve at the unknowns `u` = (h, DIC, I, free
+/// Ca): the two measurements' (as [`residual`]) at the apparent constants
+/// of (I, Ca), and the fixed point's, I − (the ionic strength of the ions
+/// there) where the ions give it (`from_ions`) and Ca − (the free calcium
+/// of the pair balance there) where the water has calcium (`with_ca`);
+/// zero where not.
+fn fresh_residuals<R: Real>(
+    basis: &FreshBasis<R>,
+    [h, dic, i, ca]: [R; 4],
+    a: (&Measured, R),
+    b: (&Measured, R),
+    from_ions: bool,
+    with_ca: bool,
+) -> [R; 4] {
+    let zero = R::constant(0.0);
+    let ca_total = basis.totals.calcium_mol_kg;
+    let i_used = match basis.fixed_i {
+        Some(fixed) if !from_ions => fixed,
+        _ => i,
+    };
+    let k = basis.constants_at(i_used, if with_ca { ca } else { zero }, ca_total);
+    [
+        residual(&k, h, dic, a.0, a.1),
+        residual(&k, h, dic, b.0, b.1),
+        if from_ions {
+            i - ion_sum(&k, h, dic).0
+        } else {
+            zero
+        },
+        if with_ca {
+            ca - free_calcium(&k, h, dic, ca_total)
+        } else {
+            zero
+        },
+    ]
+}
+
+/// The unknowns of a fresh solve, h, DIC, the ionic strength and the free
+/// calcium, as [`Tangent`]s: the values `u` of the solve (its fixed point
+/// settled), and their derivatives by implicit differentiation of all the
+/// equations the solve satisfies at once, the two measurements and the
+/// fixed point's two (see [`fresh_residuals`]): J (du/ds) = −∂G/∂s, J up
+/// to 4 × 4, solved by Gaussian elimination with partial pivoting on the
+/// unknowns scaled by their values. `basis` carries the sources'
+/// derivatives; `plain` is the same basis without them (J comes from it,
+/// the unknowns seeded on its four slots). Where the ionic strength does
+/// not come from the ions it is the basis's own (with its derivatives),
+/// and without calcium the free calcium is 0. `None` where J is singular
+/// or a derivative is not finite.
+pub(crate) fn fresh_unknowns<const N: usize>(
+    basis: &FreshBasis<Tangent<N>>,
+    plain: &FreshBasis<Tangent<4>>,
+    u: [f64; 4],
+    a: (&Measured, Tangent<N>),
+    b: (&Measured, Tangent<N>),
+) -> Option<[Tangent<N>; 4]> {
+    let from_ions = basis.fixed_i.is_none();
+    let with_ca = basis.totals.calcium_mol_kg.v > 0.0;
+    let mut all = [0usize; 4];
+    let mut n = 0;
+    for (i, on) in [true, true, from_ions, with_ca].into_iter().enumerate() {
+        if on {
+            all[n] = i;
+            n += 1;
+        }
+    }
+    let active = &all[..n];
+    // J, columns scaled by the unknowns' values (h and DIC differ by five
+    // orders of magnitude).
+    let seeded = [0, 1, 2, 3].map(|i| Tangent::<4>::source(u[i], i));
+    let ja = (a.0, Tangent::constant(a.0.number()));
+    let jb = (b.0, Tangent::constant(b.0.number()));
+    let g = fresh_residuals(plain, seeded, ja, jb, from_ions, with_ca);
+    let mut scale = [1.0; 4];
+    for (x, &i) in scale.iter_mut().zip(active) {
+        if u[i] != 0.0 && u[i].is_finite() {
+            *x = u[i].abs();
+        }
+    }
+    let mut j = [[0.0; 4]; 4];
+    for (r, &gr) in active.iter().enumerate() {
+        for (c, &uc) in active.iter().enumerate() {
+            j[r][c] = g[gr].d[uc] * scale[c];
+        }
+    }
+    // ∂G/∂s at the unknowns held.
+    let held = u.map(Tangent::<N>::constant);
+    let gs = fresh_residuals(basis, held, a, b, from_ions, with_ca);
+    let mut rhs = [[0.0; N]; 4];
+    for (r, &gr) in active.iter().enumerate() {
+        for (x, d) in rhs[r].iter_mut().zip(gs[gr].d) {
+            *x = -d;
+        }
+    }
+    // Gaussian elimination with partial pivoting, every source at once.
+    for col in 0..n {
+        let pivot = (col..n).max_by(|&p, &q| j[p][col].abs().total_cmp(&j[q][col].abs()))?;
+        if !(j[pivot][col].is_finite() && j[pivot][col] != 0.0) {
+            return None;
+        }
+        j.swap(col, pivot);
+        rhs.swap(col, pivot);
+        for r in col + 1..n {
+            let f = j[r][col] / j[col][col];
+            for c in col..n {
+                j[r][c] -= f * j[col][c];
+            }
+            for s in 0..N {
+                rhs[r][s] -= f * rhs[col][s];
+            }
+        }
+    }
+    let mut x = [[0.0; N]; 4];
+    for r in (0..n).rev() {
+        for s in 0..N {
+            let mut v = rhs[r][s];
+            for c in r + 1..n {
+                v -= j[r][c] * x[c][s];
+            }
+            x[r][s] = v / j[r][r];
+        }
+    }
+    let mut out = [
+        Tangent::constant(u[0]),
+        Tangent::constant(u[1]),
+        basis
+            .fixed_i
+            .filter(|_| !from_ions)
+            .unwrap_or(Tangent::constant(u[2])),
+        Tangent::constant(if with_ca { u[3] } else { 0.0 }),
+    ];
+    for (r, &ur) in active.iter().enumerate() {
+        let d = x[r].map(|v| v * scale[r]);
+        if d.iter().any(|v| !v.is_finite()) {
+            return None;
+        }
+        out[ur] = Tangent::new(u[ur], d);
+    }
+    Some(out)
 }

@@ -150,3 +150,43 @@ impl std::fmt::Display for IonicStrengthRoute {
         f.write_str(self.name())
     }
 }
+
+impl<R: Real> FreshBasis<R> {
+    /// This basis with every number mapped by `f` (to another type),
+    /// without the warnings: a basis on a few tangent slots spread onto
+    /// the slots of a wider one, or stripped of its derivatives.
+    pub(crate) fn map_numbers<S: Real>(&self, f: impl Fn(R) -> S) -> FreshBasis<S> {
+        let c = &f;
+        FreshBasis {
+            conditions: self.conditions,
+            at: self.at.map(c),
+            model: self.model,
+            dh_a: c(self.dh_a),
+            dh_b: c(self.dh_b),
+            kh: c(self.kh),
+            k1: c(self.k1),
+            k2: c(self.k2),
+            kw: c(self.kw),
+            kb: c(self.kb),
+            kp: (c(self.kp.0), c(self.kp.1), c(self.kp.2)),
+            ksi: c(self.ksi),
+            ks: c(self.ks),
+            kf: c(self.kf),
+            knh4: c(self.knh4),
+            kh2s: c(self.kh2s),
+            ksp_calcite: c(self.ksp_calcite),
+            ksp_aragonite: c(self.ksp_aragonite),
+            k_cahco3: c(self.k_cahco3),
+            k_caco3: c(self.k_caco3),
+            fugacity_factor: c(self.fugacity_factor),
+            vapour_pressure_atm: c(self.vapour_pressure_atm),
+            density: c(self.density),
+            totals: crate::medium::constants::map_totals(&self.totals, c),
+            fits_used: self.fits_used,
+            route: self.route,
+            fixed_i: self.fixed_i.map(c),
+            i_start: c(self.i_start),
+            warnings: Vec::new(),
+        }
+    }
+}
