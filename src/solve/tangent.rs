@@ -158,6 +158,8 @@ fn fresh_residuals<R: Real>(
 /// not come from the ions it is the basis's own (with its derivatives),
 /// and without calcium the free calcium is 0. `None` where J is singular
 /// or a derivative is not finite.
+// Index loops read as the elimination is written.
+#[allow(clippy::needless_range_loop)]
 pub(crate) fn fresh_unknowns<const N: usize>(
     basis: &FreshBasis<Tangent<N>>,
     plain: &FreshBasis<Tangent<4>>,
