@@ -60,7 +60,6 @@ pub(crate) fn saturation_ph_estimate(k: &Constants, ta: f64, ca_total: f64) -> O
 /// `f64`) the residual's derivatives are ∂F/∂sources, and
 /// `R::root(phs, residual, slope.value())` gives pHs with its derivatives
 /// ([`saturation_ph_on`]). `None` where ln Ω is not defined there.
-#[cfg_attr(not(test), allow(dead_code))]
 pub(crate) fn saturation_ph_residual<R: Real>(
     k: &Constants<R>,
     ta: R,
@@ -76,7 +75,6 @@ pub(crate) fn saturation_ph_residual<R: Real>(
 /// of [`saturation_ph_residual`]: dpHs/dsource = −(∂F/∂source)/(∂F/∂pH).
 /// On `f64`, `phs` itself. `None` where ln Ω or its slope is not defined at
 /// `phs`, or the slope is zero.
-#[cfg_attr(not(test), allow(dead_code))]
 pub(crate) fn saturation_ph_on<R: Real>(
     k: &Constants<R>,
     ta: R,
@@ -98,7 +96,6 @@ impl<R: Real> FreshBasis<R> {
     /// full solves, not differentiated here) as the caller gives it in
     /// `precipitation_potential`. On `f64`, with the `f64` solve's
     /// numbers, the same figures bit for bit.
-    #[cfg_attr(not(test), allow(dead_code))]
     pub(crate) fn fresh_figures_on(
         &self,
         k: &Constants<R>,

@@ -40,7 +40,6 @@ use crate::sample::Totals;
 use serde::Serialize;
 
 mod basis;
-#[cfg_attr(not(test), allow(unused_imports))]
 pub(crate) use basis::FreshSources;
 pub(crate) mod ionic;
 
