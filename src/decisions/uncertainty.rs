@@ -1036,7 +1036,7 @@ impl Problem {
     ) -> Vec<bool> {
         let m = sources.len();
         let mut done = vec![false; m];
-        if self.air.is_some() || self.reported_at.is_some() {
+        if self.air.is_some() || self.reported_at.is_some() || !quantities.reads_tangents() {
             return done;
         }
         let water = self.prepared.water();
@@ -1481,6 +1481,11 @@ pub trait Quantities {
         state: &State<Tangents>,
         each: &mut dyn FnMut(Option<&Tangents>),
     ) -> bool;
+    /// Whether [`Quantities::read_tangent`] reads anything: `false` saves
+    /// the pass on tangents where it would be thrown away.
+    fn reads_tangents(&self) -> bool {
+        true
+    }
 }
 
 /// Quantities given as a function of a state of numbers: their
@@ -1492,6 +1497,9 @@ impl<F: FnMut(&State, &mut Vec<Option<f64>>)> Quantities for ByDifferences<F> {
         (self.0)(state, out)
     }
     fn read_tangent(&mut self, _: &State<Tangents>, _: &mut dyn FnMut(Option<&Tangents>)) -> bool {
+        false
+    }
+    fn reads_tangents(&self) -> bool {
         false
     }
 }
