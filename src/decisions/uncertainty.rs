@@ -1025,39 +1025,38 @@ impl Problem {
             return done;
         }
         // The sources this pass can seed, by their place in `sources`.
-        let covered: Vec<usize> = (0..m)
-            .filter(|&j| {
-                let source = sources[j].0;
-                !self.moves_nothing(source)
-                    && match source {
-                        Source::Input(Input::Carbon(p)) => {
-                            p == self.a.parameter() || p == self.b.parameter()
-                        }
-                        Source::Input(Input::Total(t)) => matches!(
-                            t,
-                            Total::Phosphate
-                                | Total::Silicate
-                                | Total::Ammonia
-                                | Total::Sulfide
-                                | Total::Calcium
-                        ),
-                        Source::Constant(_) => true,
-                        // Where no conductivity reading is moved with them
-                        // (a reading at the sample temperature, a salinity
-                        // computed from one).
-                        Source::Input(Input::Temperature | Input::Salinity) => {
-                            self.prepared.water().given_conductivity().is_none()
-                        }
-                        _ => false,
+        let mut covered = Vec::with_capacity(m);
+        covered.extend((0..m).filter(|&j| {
+            let source = sources[j].0;
+            !self.moves_nothing(source)
+                && match source {
+                    Source::Input(Input::Carbon(p)) => {
+                        p == self.a.parameter() || p == self.b.parameter()
                     }
-            })
-            .collect();
+                    Source::Input(Input::Total(t)) => matches!(
+                        t,
+                        Total::Phosphate
+                            | Total::Silicate
+                            | Total::Ammonia
+                            | Total::Sulfide
+                            | Total::Calcium
+                    ),
+                    Source::Constant(_) => true,
+                    // Where no conductivity reading is moved with them
+                    // (a reading at the sample temperature, a salinity
+                    // computed from one).
+                    Source::Input(Input::Temperature | Input::Salinity) => {
+                        self.prepared.water().given_conductivity().is_none()
+                    }
+                    _ => false,
+                }
+        }));
         let per_pass = TANGENT_WIDTH;
         for chunk in covered.chunks(per_pass) {
             let mut seeds = Seeds {
                 a: Tangent::constant(self.a.number()),
                 b: Tangent::constant(self.b.number()),
-                constants: Vec::new(),
+                constants: Vec::with_capacity(chunk.len()),
                 totals: Vec::new(),
                 temperature: None,
                 salinity: None,
@@ -1089,6 +1088,10 @@ impl Problem {
             // derivatives lie together), on the state where it lies.
             let mut k = 0;
             let mut lost = false;
+            // NaN in a slot whose derivative is not finite for a quantity
+            // with a value (c · 0 is 0 for a finite c, NaN otherwise), found
+            // as the rows are written, all slots at once.
+            let mut not_finite = [0.0; TANGENT_WIDTH];
             let mut each = |t: Option<&Tangents>| {
                 let (Some(Some(_)), Some(row)) =
                     (base.get(k), contributions.get_mut(k * m..(k + 1) * m))
@@ -1104,6 +1107,9 @@ impl Problem {
                 let mut c = [0.0; TANGENT_WIDTH];
                 for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
                     *c = d * u;
+                }
+                for (z, c) in not_finite.iter_mut().zip(&c) {
+                    *z += c * 0.0;
                 }
                 match row.get_mut(first..first + width) {
                     Some(cols) if side_by_side => cols.copy_from_slice(&c[..width]),
@@ -1123,20 +1129,9 @@ impl Problem {
                 });
             // A column lost or not finite for a quantity with a value is
             // left to the differences.
-            let mut bad = [false; TANGENT_WIDTH];
-            if !matches!(read, Some(Ok(true))) || k != base.len() || lost {
-                bad.fill(true);
-            } else {
-                for (row, y) in contributions.chunks_exact(m).zip(base) {
-                    if y.is_some() {
-                        for (b, &j) in bad.iter_mut().zip(chunk) {
-                            *b |= !row[j].is_finite();
-                        }
-                    }
-                }
-            }
+            let whole = matches!(read, Some(Ok(true))) && k == base.len() && !lost;
             for (slot, &j) in chunk.iter().enumerate() {
-                if bad[slot] {
+                if !(whole && not_finite[slot] == 0.0) {
                     for row in contributions.chunks_exact_mut(m) {
                         row[j] = 0.0;
                     }
@@ -1507,7 +1502,8 @@ pub fn propagate_quantities<Q: Quantities>(
     // The scratch constants are copied at the first constant source; the
     // step down's buffer grows only where one is taken.
     let mut scratch = None;
-    let (mut up, mut down) = (Vec::with_capacity(n), Vec::new());
+    // Allocated at the first source taken by differences.
+    let (mut up, mut down) = (Vec::new(), Vec::new());
     for (j, &(source, ui, scale)) in sources.iter().enumerate() {
         if done[j] || problem.moves_nothing(source) {
             continue;
