@@ -1001,8 +1001,25 @@ pub(crate) struct Seeds<const N: usize> {
 }
 
 impl PreparedWater {
-    /// The state `base` (a solve of the pair `a`, `b` in this water) on
-    /// [`Tangent`]s: the same numbers, each with its derivatives with
+    /// The unknowns h and DIC of the pair `a`, `b` in this water, as
+    /// [`PreparedWater::solve_lean`] solves them, without the state: for
+    /// a pass on tangents that gives the state itself
+    /// ([`PreparedWater::solve_tangent`]). `None` in fresh water.
+    pub(crate) fn solve_unknowns(
+        &self,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+    ) -> Option<Result<(f64, f64)>> {
+        let Prepared::Saline(k) = &self.prepared else {
+            return None;
+        };
+        Some(solve_near(k, &a, &b, options, Near::default().h).map(|sol| (sol.h, sol.dic)))
+    }
+
+    /// The state of the unknowns `(h, dic)` (a solve of the pair `a`, `b`
+    /// in this water) on [`Tangent`]s: the same numbers, each with its
+    /// derivatives with
     /// respect to the sources of `seeds` (forward-mode differentiation
     /// through the constants and the state, and implicit differentiation
     /// at the solver's root for h and DIC, [`crate::solve::tangent`]).
@@ -1015,7 +1032,7 @@ impl PreparedWater {
     /// a large value, not to be moved).
     pub(crate) fn solve_tangent<const N: usize, T>(
         &self,
-        base: &State,
+        (h, dic): (f64, f64),
         a: &Measured,
         b: &Measured,
         seeds: &Seeds<N>,
@@ -1064,13 +1081,8 @@ impl PreparedWater {
                 return None;
             }
         }
-        let (h, dic) = crate::solve::tangent::unknowns(
-            &k,
-            &plain,
-            (base.h_mol_kg(), base.dic_mol_kg()),
-            (a, seeds.a),
-            (b, seeds.b),
-        )?;
+        let (h, dic) =
+            crate::solve::tangent::unknowns(&k, &plain, (h, dic), (a, seeds.a), (b, seeds.b))?;
         let state =
             State::build_fresh_or_saline(&self.water, &k, h, dic, Warnings::new(), None, a, b);
         Some(match &state {
