@@ -105,11 +105,11 @@ impl Quantities for OutputQuantities<'_> {
 }
 
 /// The standard uncertainty and budget of every numeric output: the
-/// outputs of [`numeric_outputs`], and [`propagate`]'s result for them in
+/// outputs of [`numeric_outputs`], and [`propagate_quantities`]'s result for them in
 /// the same order.
 ///
 /// # Errors
-/// As [`propagate`].
+/// As [`propagate_quantities`].
 ///
 /// ```
 /// use travertine::decisions::uncertainty::{Problem, Size, Uncertainties};
