@@ -1176,6 +1176,7 @@ impl Problem {
     /// or a column (the caller takes the general way); `Err(false)` where
     /// the quantities cannot be read on tangents (no pass is worth
     /// making).
+    #[inline(never)]
     fn propagated_on_tangents<Q: Quantities>(
         &self,
         sources: &[(Source, f64, f64)],
