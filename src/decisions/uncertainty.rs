@@ -390,11 +390,14 @@ impl Uncertainties {
             (false, Medium::Saline) => &SALINE_DEFAULTS,
             (false, Medium::Fresh) => &FRESH_DEFAULTS,
         };
-        let mut all: Vec<(ConstantName, Size)> = defaults
-            .iter()
-            .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
-            .copied()
-            .collect();
+        // Sized once (a filtered collection would grow on the way).
+        let mut all = Vec::with_capacity(defaults.len() + self.constants.len());
+        all.extend(
+            defaults
+                .iter()
+                .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
+                .copied(),
+        );
         all.extend(self.constants.iter().copied());
         all
     }
