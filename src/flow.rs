@@ -980,6 +980,15 @@ mod tests {
     }
 }
 
+/// The unperturbed solve a pass on [`Tangent`]s differentiates: its
+/// unknowns h and DIC (mol/kg; enough in sea water), or its state (fresh
+/// water reads the ionic strength, the free calcium and the figures too).
+#[derive(Debug, Clone, Copy)]
+pub(crate) enum Unperturbed<'a> {
+    Unknowns(f64, f64),
+    State(&'a State),
+}
+
 /// Where each source of a pass on [`Tangent`]s sits: its slot (its place
 /// in every number's derivatives), for the propagation of uncertainties
 /// ([`crate::decisions::uncertainty`]).
@@ -1004,8 +1013,25 @@ pub(crate) struct Seeds<const N: usize> {
 }
 
 impl PreparedWater {
-    /// The state `base` (a solve of the pair `a`, `b` in this water) on
-    /// [`Tangent`]s: the same numbers, each with its derivatives with
+    /// The unknowns h and DIC of the pair `a`, `b` in this water, as
+    /// [`PreparedWater::solve_lean`] solves them, without the state: for
+    /// a pass on tangents that gives the state itself
+    /// ([`PreparedWater::solve_tangent`]). `None` in fresh water.
+    pub(crate) fn solve_unknowns(
+        &self,
+        a: Measured,
+        b: Measured,
+        options: &SolveOptions,
+    ) -> Option<Result<(f64, f64)>> {
+        let Prepared::Saline(k) = &self.prepared else {
+            return None;
+        };
+        Some(solve_near(k, &a, &b, options, Near::default().h).map(|sol| (sol.h, sol.dic)))
+    }
+
+    /// The state of the unknowns `(h, dic)` (a solve of the pair `a`, `b`
+    /// in this water) on [`Tangent`]s: the same numbers, each with its
+    /// derivatives with
     /// respect to the sources of `seeds` (forward-mode differentiation
     /// through the constants and the state, and implicit differentiation
     /// at the solver's root for h and DIC, [`crate::solve::tangent`]).
@@ -1018,15 +1044,22 @@ impl PreparedWater {
     /// a large value, not to be moved).
     pub(crate) fn solve_tangent<const N: usize, T>(
         &self,
-        base: &State,
+        base: Unperturbed<'_>,
         a: &Measured,
         b: &Measured,
         seeds: &Seeds<N>,
         read: impl FnOnce(&State<Tangent<N>>) -> T,
     ) -> Option<Result<T>> {
-        let k0 = match &self.prepared {
-            Prepared::Saline(k0) => k0,
-            Prepared::Fresh(_) => return self.solve_tangent_fresh(base, a, b, seeds, read),
+        let k0 = match (&self.prepared, base) {
+            (Prepared::Saline(k0), _) => k0,
+            (Prepared::Fresh(_), Unperturbed::State(base)) => {
+                return self.solve_tangent_fresh(base, a, b, seeds, read)
+            }
+            (Prepared::Fresh(_), Unperturbed::Unknowns(..)) => return None,
+        };
+        let (h, dic) = match base {
+            Unperturbed::Unknowns(h, dic) => (h, dic),
+            Unperturbed::State(s) => (s.h_mol_kg(), s.dic_mol_kg()),
         };
         let plain: Constants<Tangent<2>> = k0.lift();
         let mut k: Constants<Tangent<N>> = match (seeds.temperature, seeds.salinity) {
@@ -1059,7 +1092,14 @@ impl PreparedWater {
             }
         };
         for &(which, slot) in &seeds.constants {
-            if let Err(e) = k.pk_in_place(which, Tangent::source(0.0, slot)) {
+            // pK raised by a source at zero: K times 10^−δ at δ = 0, a
+            // factor of exactly 1 with the slope −ln 10 in its slot, the
+            // number `pk_in_place` would make (without its exponential).
+            let mut factor = Tangent::<N>::new(1.0, [0.0; N]);
+            if let Some(d) = factor.d.get_mut(slot) {
+                *d = -std::f64::consts::LN_10;
+            }
+            if let Err(e) = k.scale_in_place(which, factor) {
                 return Some(Err(e));
             }
         }
@@ -1068,13 +1108,8 @@ impl PreparedWater {
                 return None;
             }
         }
-        let (h, dic) = crate::solve::tangent::unknowns(
-            &k,
-            &plain,
-            (base.h_mol_kg(), base.dic_mol_kg()),
-            (a, seeds.a),
-            (b, seeds.b),
-        )?;
+        let (h, dic) =
+            crate::solve::tangent::unknowns(&k, &plain, (h, dic), (a, seeds.a), (b, seeds.b))?;
         let state =
             State::build_fresh_or_saline(&self.water, &k, h, dic, Warnings::new(), None, a, b);
         Some(match &state {

@@ -74,7 +74,7 @@ use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::numeric::{Real, Tangent};
 use crate::base::units::Amount;
-use crate::flow::{PreparedWater, Scratch, Seeds};
+use crate::flow::{PreparedWater, Scratch, Seeds, Unperturbed};
 use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::air::Air;
@@ -408,11 +408,14 @@ impl Uncertainties {
             (false, Medium::Saline) => &SALINE_DEFAULTS,
             (false, Medium::Fresh) => &FRESH_DEFAULTS,
         };
-        let mut all: Vec<(ConstantName, Size)> = defaults
-            .iter()
-            .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
-            .copied()
-            .collect();
+        // Sized once (a filtered collection would grow on the way).
+        let mut all = Vec::with_capacity(defaults.len() + self.constants.len());
+        all.extend(
+            defaults
+                .iter()
+                .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
+                .copied(),
+        );
         all.extend(self.constants.iter().copied());
         all
     }
@@ -1036,81 +1039,13 @@ impl Problem {
     ) -> Vec<bool> {
         let m = sources.len();
         let mut done = vec![false; m];
-        if self.air.is_some() || self.reported_at.is_some() || !quantities.reads_tangents() {
+        if !self.on_tangents() {
             return done;
         }
-        let water = self.prepared.water();
-        let fresh = water.medium() == Medium::Fresh;
-        // The sources this pass can seed, by their place in `sources`.
-        let covered: Vec<usize> = (0..m)
-            .filter(|&j| {
-                let source = sources[j].0;
-                !self.moves_nothing(source)
-                    && match source {
-                        Source::Input(Input::Carbon(p)) => {
-                            p == self.a.parameter() || p == self.b.parameter()
-                        }
-                        // In fresh water calcium alone (the other totals
-                        // move the ions of the ionic strength), and a
-                        // calcium the water has.
-                        Source::Input(Input::Total(Total::Calcium)) => {
-                            self.prepared.totals().calcium_mol_kg > 0.0
-                        }
-                        Source::Input(Input::Total(t)) => {
-                            !fresh
-                                && matches!(
-                                    t,
-                                    Total::Phosphate
-                                        | Total::Silicate
-                                        | Total::Ammonia
-                                        | Total::Sulfide
-                                )
-                        }
-                        Source::Constant(_) => true,
-                        // Where no conductivity reading is moved with them
-                        // (a reading at the sample temperature, a salinity
-                        // computed from one).
-                        Source::Input(Input::Temperature | Input::Salinity) => {
-                            water.given_conductivity().is_none()
-                        }
-                        // The number a fresh water's fixed ionic strength
-                        // is made from (`value_of` refuses it elsewhere).
-                        Source::Input(Input::IonicStrength | Input::Tds) => {
-                            fresh && water.given_conductivity().is_none()
-                        }
-                        _ => false,
-                    }
-            })
-            .collect();
+        let covered = self.covered(sources);
         let per_pass = TANGENT_WIDTH;
         for chunk in covered.chunks(per_pass) {
-            let mut seeds = Seeds {
-                a: Tangent::constant(self.a.number()),
-                b: Tangent::constant(self.b.number()),
-                constants: Vec::new(),
-                totals: Vec::new(),
-                temperature: None,
-                salinity: None,
-                ionic_input: None,
-            };
-            for (slot, &j) in chunk.iter().enumerate() {
-                match sources[j].0 {
-                    Source::Input(Input::Carbon(p)) if p == self.a.parameter() => {
-                        seeds.a = Tangent::source(self.a.number(), slot)
-                    }
-                    Source::Input(Input::Carbon(_)) => {
-                        seeds.b = Tangent::source(self.b.number(), slot)
-                    }
-                    Source::Input(Input::Total(t)) => seeds.totals.push((t, slot)),
-                    Source::Input(Input::Temperature) => seeds.temperature = Some(slot),
-                    Source::Input(Input::Salinity) => seeds.salinity = Some(slot),
-                    Source::Input(Input::IonicStrength | Input::Tds) => {
-                        seeds.ionic_input = Some(slot)
-                    }
-                    Source::Constant(k) => seeds.constants.push((k, slot)),
-                    Source::Input(_) => {}
-                }
-            }
+            let seeds = self.seeds(chunk, sources);
             let mut us = [0.0; TANGENT_WIDTH];
             for (u, &j) in us.iter_mut().zip(chunk) {
                 *u = sources[j].1;
@@ -1123,6 +1058,10 @@ impl Problem {
             // derivatives lie together), on the state where it lies.
             let mut k = 0;
             let mut lost = false;
+            // NaN in a slot whose derivative is not finite for a quantity
+            // with a value (c · 0 is 0 for a finite c, NaN otherwise), found
+            // as the rows are written, all slots at once.
+            let mut not_finite = [0.0; TANGENT_WIDTH];
             let mut each = |t: Option<&Tangents>| {
                 let (Some(Some(_)), Some(row)) =
                     (base.get(k), contributions.get_mut(k * m..(k + 1) * m))
@@ -1139,6 +1078,9 @@ impl Problem {
                 for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
                     *c = d * u;
                 }
+                for (z, c) in not_finite.iter_mut().zip(&c) {
+                    *z += c * 0.0;
+                }
                 match row.get_mut(first..first + width) {
                     Some(cols) if side_by_side => cols.copy_from_slice(&c[..width]),
                     _ => {
@@ -1150,27 +1092,18 @@ impl Problem {
                     }
                 }
             };
-            let read = self
-                .prepared
-                .solve_tangent(base_state, &self.a, &self.b, &seeds, |state| {
-                    quantities.read_tangent(state, &mut each)
-                });
+            let read = self.prepared.solve_tangent(
+                Unperturbed::State(base_state),
+                &self.a,
+                &self.b,
+                &seeds,
+                |state| quantities.read_tangent(state, &mut each),
+            );
             // A column lost or not finite for a quantity with a value is
             // left to the differences.
-            let mut bad = [false; TANGENT_WIDTH];
-            if !matches!(read, Some(Ok(true))) || k != base.len() || lost {
-                bad.fill(true);
-            } else {
-                for (row, y) in contributions.chunks_exact(m).zip(base) {
-                    if y.is_some() {
-                        for (b, &j) in bad.iter_mut().zip(chunk) {
-                            *b |= !row[j].is_finite();
-                        }
-                    }
-                }
-            }
+            let whole = matches!(read, Some(Ok(true))) && k == base.len() && !lost;
             for (slot, &j) in chunk.iter().enumerate() {
-                if bad[slot] {
+                if !(whole && not_finite[slot] == 0.0) {
                     for row in contributions.chunks_exact_mut(m) {
                         row[j] = 0.0;
                     }
@@ -1180,6 +1113,195 @@ impl Problem {
             }
         }
         done
+    }
+}
+
+impl Problem {
+    /// Whether a pass on tangents applies to this problem at all (see
+    /// [`propagate_quantities`]).
+    fn on_tangents(&self) -> bool {
+        self.air.is_none() && self.reported_at.is_none()
+    }
+
+    /// The sources a pass on tangents can seed, by their place in `sources`.
+    fn covered(&self, sources: &[(Source, f64, f64)]) -> Vec<usize> {
+        let m = sources.len();
+        let water = self.prepared.water();
+        let fresh = water.medium() == Medium::Fresh;
+        let mut covered = Vec::with_capacity(m);
+        covered.extend((0..m).filter(|&j| {
+            let source = sources[j].0;
+            !self.moves_nothing(source)
+                && match source {
+                    Source::Input(Input::Carbon(p)) => {
+                        p == self.a.parameter() || p == self.b.parameter()
+                    }
+                    // In fresh water calcium alone (the other totals move
+                    // the ions of the ionic strength), and a calcium the
+                    // water has.
+                    Source::Input(Input::Total(Total::Calcium)) => {
+                        self.prepared.totals().calcium_mol_kg > 0.0
+                    }
+                    Source::Input(Input::Total(t)) => {
+                        !fresh
+                            && matches!(
+                                t,
+                                Total::Phosphate
+                                    | Total::Silicate
+                                    | Total::Ammonia
+                                    | Total::Sulfide
+                            )
+                    }
+                    Source::Constant(_) => true,
+                    // Where no conductivity reading is moved with them
+                    // (a reading at the sample temperature, a salinity
+                    // computed from one).
+                    Source::Input(Input::Temperature | Input::Salinity) => {
+                        water.given_conductivity().is_none()
+                    }
+                    // The number a fresh water's fixed ionic strength is
+                    // made from (`value_of` refuses it elsewhere).
+                    Source::Input(Input::IonicStrength | Input::Tds) => {
+                        fresh && water.given_conductivity().is_none()
+                    }
+                    _ => false,
+                }
+        }));
+        covered
+    }
+
+    /// The seeds of one pass: the sources `chunk` (places in `sources`),
+    /// source `chunk[i]` in slot `i`.
+    fn seeds(&self, chunk: &[usize], sources: &[(Source, f64, f64)]) -> Seeds<TANGENT_WIDTH> {
+        let mut seeds = Seeds {
+            a: Tangent::constant(self.a.number()),
+            b: Tangent::constant(self.b.number()),
+            constants: Vec::with_capacity(chunk.len()),
+            totals: Vec::new(),
+            temperature: None,
+            salinity: None,
+            ionic_input: None,
+        };
+        for (slot, &j) in chunk.iter().enumerate() {
+            match sources[j].0 {
+                Source::Input(Input::Carbon(p)) if p == self.a.parameter() => {
+                    seeds.a = Tangent::source(self.a.number(), slot)
+                }
+                Source::Input(Input::Carbon(_)) => seeds.b = Tangent::source(self.b.number(), slot),
+                Source::Input(Input::Total(t)) => seeds.totals.push((t, slot)),
+                Source::Input(Input::Temperature) => seeds.temperature = Some(slot),
+                Source::Input(Input::Salinity) => seeds.salinity = Some(slot),
+                Source::Input(Input::IonicStrength | Input::Tds) => seeds.ionic_input = Some(slot),
+                Source::Constant(k) => seeds.constants.push((k, slot)),
+                Source::Input(_) => {}
+            }
+        }
+        seeds
+    }
+
+    /// The whole propagation from one pass on tangents, where it covers
+    /// every source: the unperturbed values are then the values of the
+    /// state on tangents, and no state of numbers is built (the solve
+    /// gives h and DIC alone). The values are those of the state of
+    /// numbers, bit for bit: every operation on a tangent takes the `f64`
+    /// operation's value, and a source is seeded at a shift of exactly
+    /// zero (a factor of exactly 1 on a constant, +0 on a total). KS and
+    /// KF are left out: the pH-scale factors they move are derived again
+    /// through fH recovered from a quotient, which may round otherwise.
+    /// `Err(true)` where the pass does not cover the problem, the sources
+    /// or a column (the caller takes the general way); `Err(false)` where
+    /// the quantities cannot be read on tangents (no pass is worth
+    /// making).
+    #[inline(never)]
+    fn propagated_on_tangents<Q: Quantities>(
+        &self,
+        sources: &[(Source, f64, f64)],
+        quantities: &mut Q,
+    ) -> std::result::Result<Propagation, bool> {
+        let m = sources.len();
+        let rounding_apart = |(s, _, _): &(Source, f64, f64)| {
+            matches!(s, Source::Constant(ConstantName::Ks | ConstantName::Kf))
+        };
+        if !self.on_tangents() || m > TANGENT_WIDTH || sources.iter().any(rounding_apart) {
+            return Err(true);
+        }
+        let covered = self.covered(sources);
+        if covered.len() != m {
+            return Err(true);
+        }
+        let unknowns = self
+            .prepared
+            .solve_unknowns(self.a, self.b, &self.options)
+            .and_then(|r| r.ok())
+            .ok_or(true)?;
+        let seeds = self.seeds(&covered, sources);
+        let mut us = [0.0; TANGENT_WIDTH];
+        for (u, (_, ui, _)) in us.iter_mut().zip(sources) {
+            *u = *ui;
+        }
+        // Room for every output of the list, without growing on the way.
+        let mut base = Vec::with_capacity(128);
+        let mut contributions = Vec::with_capacity(128 * m + TANGENT_WIDTH);
+        // NaN in a slot whose derivative is not finite for a quantity with
+        // a value (c · 0 is 0 for a finite c, NaN otherwise).
+        let mut not_finite = [0.0; TANGENT_WIDTH];
+        let mut each = |t: Option<&Tangents>| {
+            base.push(t.map(|t| t.v));
+            let mut c = [0.0; TANGENT_WIDTH];
+            if let Some(t) = t {
+                for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
+                    *c = d * u;
+                }
+                for (z, c) in not_finite.iter_mut().zip(&c) {
+                    *z += c * 0.0;
+                }
+            }
+            // A whole row of the width, less the slots beyond the sources:
+            // a copy of a fixed size, without a call.
+            contributions.extend_from_slice(&c);
+            contributions.truncate(contributions.len() - (TANGENT_WIDTH - m));
+        };
+        let read = self.prepared.solve_tangent(
+            Unperturbed::Unknowns(unknowns.0, unknowns.1),
+            &self.a,
+            &self.b,
+            &seeds,
+            |state| quantities.read_tangent(state, &mut each),
+        );
+        match read {
+            Some(Ok(true)) if not_finite.iter().all(|z| *z == 0.0) => {}
+            Some(Ok(false)) => return Err(false),
+            _ => return Err(true),
+        }
+        let lost = vec![false; base.len()];
+        Ok(assembled(sources, base, &lost, contributions))
+    }
+}
+
+/// The result of a propagation from the unperturbed values `base`, the
+/// quantities `lost` on both sides of a step, and the contributions (a row
+/// of `sources.len()` per quantity, zero for a quantity without a value or
+/// lost).
+fn assembled(
+    sources: &[(Source, f64, f64)],
+    base: Vec<Option<f64>>,
+    lost: &[bool],
+    contributions: Vec<f64>,
+) -> Propagation {
+    let m = sources.len();
+    let mut outputs = Vec::with_capacity(base.len());
+    for (k, (v, lost)) in base.iter().zip(lost).enumerate() {
+        let row = contributions.get(k * m..(k + 1) * m).unwrap_or(&[]);
+        let u = v
+            .filter(|_| !lost)
+            .map(|_| row.iter().map(|c| c * c).sum::<f64>().sqrt());
+        outputs.push(Propagated { value: *v, u });
+    }
+    let sources = sources.iter().map(|&(s, u, _)| (s, u)).collect();
+    Propagation {
+        sources,
+        outputs,
+        contributions,
     }
 }
 
@@ -1529,6 +1651,16 @@ pub fn propagate_quantities<Q: Quantities>(
     u: &Uncertainties,
     mut quantities: Q,
 ) -> Result<Propagation> {
+    // One pass on tangents alone where it covers every source (the usual
+    // case in sea water); its sources are found again below otherwise, so
+    // that an error of the solve comes before one of the sources.
+    let mut tangents = true;
+    if let Ok(sources) = sources_of(problem, u) {
+        match problem.propagated_on_tangents(&sources, &mut quantities) {
+            Ok(p) => return Ok(p),
+            Err(worth_it) => tangents = worth_it,
+        }
+    }
     let base_state = problem.solve_numbers()?;
     // Room for every output of the list, without growing on the way.
     let mut base = Vec::with_capacity(128);
@@ -1538,18 +1670,23 @@ pub fn propagate_quantities<Q: Quantities>(
     // A row of m contributions per quantity; source j fills column j.
     let mut contributions = vec![0.0; n * m];
     let mut lost = vec![false; n];
-    let done = problem.tangent_columns(
-        &base_state,
-        &sources,
-        &mut quantities,
-        &base,
-        &mut contributions,
-    );
+    let done = if tangents {
+        problem.tangent_columns(
+            &base_state,
+            &sources,
+            &mut quantities,
+            &base,
+            &mut contributions,
+        )
+    } else {
+        vec![false; m]
+    };
     let near = base_state.near();
     // The scratch constants are copied at the first constant source; the
     // step down's buffer grows only where one is taken.
     let mut scratch = None;
-    let (mut up, mut down) = (Vec::with_capacity(n), Vec::new());
+    // Allocated at the first source taken by differences.
+    let (mut up, mut down) = (Vec::new(), Vec::new());
     for (j, &(source, ui, scale)) in sources.iter().enumerate() {
         if done[j] || problem.moves_nothing(source) {
             continue;
@@ -1621,20 +1758,7 @@ pub fn propagate_quantities<Q: Quantities>(
             row.fill(0.0);
         }
     }
-    let mut outputs = Vec::with_capacity(n);
-    for (k, (v, lost)) in base.iter().zip(&lost).enumerate() {
-        let row = contributions.get(k * m..(k + 1) * m).unwrap_or(&[]);
-        let u = v
-            .filter(|_| !lost)
-            .map(|_| row.iter().map(|c| c * c).sum::<f64>().sqrt());
-        outputs.push(Propagated { value: *v, u });
-    }
-    let sources = sources.into_iter().map(|(s, u, _)| (s, u)).collect();
-    Ok(Propagation {
-        sources,
-        outputs,
-        contributions,
-    })
+    Ok(assembled(&sources, base, &lost, contributions))
 }
 
 /// The difference `a − b` of an output at two steps, or exactly zero where

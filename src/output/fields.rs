@@ -294,35 +294,68 @@ impl Kind {
 
 /// The value of one output in a state of any [`Real`]: what the list
 /// reads, before [`Value`] (on `f64`) or [`Output::numbers`] (on any).
-enum Reading<R> {
-    Number(Option<R>),
+enum Reading<'a, R> {
+    Number(Option<Num<'a, R>>),
     Text(Option<&'static str>),
 }
 
-impl From<Reading<f64>> for Value {
+/// A number of the list: a field of the state, by reference (a number on
+/// tangents is a large value, not to be copied only to be read), or one
+/// computed from the state's fields.
+#[derive(Clone, Copy)]
+enum Num<'a, R> {
+    At(&'a R),
+    Made(R),
+}
+
+impl<R: Copy> Num<'_, R> {
     #[inline(always)]
-    fn from(r: Reading<f64>) -> Value {
+    fn get(self) -> R {
+        match self {
+            Num::At(r) => *r,
+            Num::Made(v) => v,
+        }
+    }
+}
+
+impl From<Reading<'_, f64>> for Value {
+    #[inline(always)]
+    fn from(r: Reading<'_, f64>) -> Value {
         match r {
-            Reading::Number(v) => Value::Number(v),
+            Reading::Number(v) => Value::Number(v.map(Num::get)),
             Reading::Text(t) => Value::Text(t),
         }
     }
 }
 
+/// A number computed from the state.
 #[inline(always)]
-fn n<R: Real>(v: R) -> Reading<R> {
-    Reading::Number(Some(v))
+fn n<'a, R: Real>(v: R) -> Reading<'a, R> {
+    Reading::Number(Some(Num::Made(v)))
 }
 
+/// A number computed from the state, where it has one.
 #[inline(always)]
-fn o<R: Real>(v: Option<R>) -> Reading<R> {
-    Reading::Number(v)
+fn o<'a, R: Real>(v: Option<R>) -> Reading<'a, R> {
+    Reading::Number(v.map(Num::Made))
+}
+
+/// A field of the state.
+#[inline(always)]
+fn at<R: Real>(v: &R) -> Reading<'_, R> {
+    Reading::Number(Some(Num::At(v)))
+}
+
+/// A field of the state, where it has one.
+#[inline(always)]
+fn opt_at<R: Real>(v: &Option<R>) -> Reading<'_, R> {
+    Reading::Number(v.as_ref().map(Num::At))
 }
 
 /// A figure of the exchange with the air, where it was computed.
 #[inline(always)]
-fn ex<R: Real>(s: &State<R>, figure: impl Fn(&Exchange<R>) -> Option<R>) -> Reading<R> {
-    Reading::Number(s.exchange.as_ref().and_then(figure))
+fn ex<R: Real>(s: &State<R>, figure: impl Fn(&Exchange<R>) -> Option<R>) -> Reading<'_, R> {
+    Reading::Number(s.exchange.as_ref().and_then(figure).map(Num::Made))
 }
 
 /// µmol/kg to mg/L of a species of molar mass `g_mol`, with the density of the state.
@@ -419,7 +452,7 @@ macro_rules! outputs {
                 [ $( {
                     let $s = state;
                     match $value {
-                        Reading::Number(v) => v,
+                        Reading::Number(v) => v.map(Num::get),
                         Reading::Text(_) => None,
                     }
                 }, )* ]
@@ -444,8 +477,32 @@ macro_rules! outputs {
                     $( Output::$variant => {
                         let $s = state;
                         match $value {
-                            Reading::Number(v) => v,
+                            Reading::Number(v) => v.map(Num::get),
                             Reading::Text(_) => None,
+                        }
+                    } )*
+                }
+            }
+
+            /// Gives `f` its number in a state of any [`Real`] (`None`
+            /// where the state has none, and for a name), as
+            /// [`Output::number`] but by reference: where the output is a
+            /// field of the state, the field where it lies (a number on
+            /// tangents is a large value, not to be copied only to be
+            /// read).
+            #[inline]
+            pub(crate) fn with_number<R: Real, T>(
+                self,
+                state: &State<R>,
+                f: impl FnOnce(Option<&R>) -> T,
+            ) -> T {
+                match self {
+                    $( Output::$variant => {
+                        let $s = state;
+                        match $value {
+                            Reading::Number(Some(Num::At(r))) => f(Some(r)),
+                            Reading::Number(Some(Num::Made(v))) => f(Some(&v)),
+                            _ => f(None),
                         }
                     } )*
                 }
@@ -543,112 +600,112 @@ macro_rules! outputs {
 outputs! {
     // Conditions: in the table's header line, not in its rows.
     TemperatureC => "temperature_c", "temperature", "°C", Temperature,
-        Conditions, [Hidden, Hidden], |s| n(s.temperature_c);
+        Conditions, [Hidden, Hidden], |s| at(&s.temperature_c);
     Salinity => "salinity", "practical salinity", "", Salinity,
-        Conditions, [Hidden, Hidden], |s| n(s.salinity);
+        Conditions, [Hidden, Hidden], |s| at(&s.salinity);
     PressureDbar => "pressure_dbar", "gauge pressure", "dbar", Pressure,
-        Conditions, [Hidden, Hidden], |s| n(s.pressure_dbar);
+        Conditions, [Hidden, Hidden], |s| at(&s.pressure_dbar);
     Water => "water", "medium", "", Name,
         Conditions, [Hidden, Hidden], |s| Reading::Text(Some(s.medium.name()));
 
     // Acidity: fresh water leads with its working scale, the NBS scale.
     PhTotal => "ph_total", "pH, total scale", "", Ph,
-        Acidity, [Hidden, Row], |s| n(s.ph_total);
+        Acidity, [Hidden, Row], |s| at(&s.ph_total);
     PhSeawater => "ph_seawater", "pH, sea-water scale", "", Ph,
-        Acidity, [Hidden, Row], |s| n(s.ph_seawater);
+        Acidity, [Hidden, Row], |s| at(&s.ph_seawater);
     PhFree => "ph_free", "pH, free scale", "", Ph,
-        Acidity, [Row, Row], |s| n(s.ph_free);
+        Acidity, [Row, Row], |s| at(&s.ph_free);
     PhNbs => "ph_nbs", "pH, NBS scale", "", Ph,
-        Acidity, [First, Labelled("pH, NBS scale (approximate)")], |s| n(s.ph_nbs);
+        Acidity, [First, Labelled("pH, NBS scale (approximate)")], |s| at(&s.ph_nbs);
 
     AlkalinityUmolKg => "alkalinity_umol_kg", "alkalinity", "µmol/kg", Amount,
-        Carbon, [Row, Row], |s| n(s.alkalinity_umol_kg);
+        Carbon, [Row, Row], |s| at(&s.alkalinity_umol_kg);
     DicUmolKg => "dic_umol_kg", "dissolved inorganic carbon", "µmol/kg", Amount,
-        Carbon, [Row, Row], |s| n(s.dic_umol_kg);
+        Carbon, [Row, Row], |s| at(&s.dic_umol_kg);
     Co2UmolKg => "co2_umol_kg", "CO2*", "µmol/kg", Amount,
-        Carbon, [Row, Row], |s| n(s.co2_umol_kg);
+        Carbon, [Row, Row], |s| at(&s.co2_umol_kg);
     Hco3UmolKg => "hco3_umol_kg", "bicarbonate HCO3-", "µmol/kg", Amount,
-        Carbon, [Row, Row], |s| n(s.hco3_umol_kg);
+        Carbon, [Row, Row], |s| at(&s.hco3_umol_kg);
     Co3UmolKg => "co3_umol_kg", "carbonate CO3--", "µmol/kg", Amount,
-        Carbon, [Row, Row], |s| n(s.co3_umol_kg);
+        Carbon, [Row, Row], |s| at(&s.co3_umol_kg);
 
     Fco2 => "fco2_uatm", "fCO2", "µatm", Amount,
-        Gas, [Row, Row], |s| n(s.fco2_uatm);
+        Gas, [Row, Row], |s| at(&s.fco2_uatm);
     Pco2 => "pco2_uatm", "pCO2", "µatm", Amount,
-        Gas, [Row, Row], |s| n(s.pco2_uatm);
+        Gas, [Row, Row], |s| at(&s.pco2_uatm);
     Xco2 => "xco2_ppm", "xCO2 (dry air)", "ppm", Amount,
-        Gas, [Row, Row], |s| n(s.xco2_ppm);
+        Gas, [Row, Row], |s| at(&s.xco2_ppm);
 
     OmegaCalcite => "omega_calcite", "calcite Ω", "", SaturationState,
-        Saturation, [Row, Row], |s| o(s.omega_calcite);
+        Saturation, [Row, Row], |s| opt_at(&s.omega_calcite);
     OmegaAragonite => "omega_aragonite", "aragonite Ω", "", SaturationState,
-        Saturation, [Row, Row], |s| o(s.omega_aragonite);
+        Saturation, [Row, Row], |s| opt_at(&s.omega_aragonite);
     SiCalcite => "si_calcite", "calcite SI (log10 Ω)", "", SaturationIndex,
-        Saturation, [Row, Row], |s| o(s.si_calcite);
+        Saturation, [Row, Row], |s| opt_at(&s.si_calcite);
     SiAragonite => "si_aragonite", "aragonite SI (log10 Ω)", "", SaturationIndex,
-        Saturation, [Row, Row], |s| o(s.si_aragonite);
+        Saturation, [Row, Row], |s| opt_at(&s.si_aragonite);
 
     Revelle => "revelle_factor", "Revelle factor", "", Factor,
-        Carbon, [Row, Row], |s| n(s.revelle_factor);
+        Carbon, [Row, Row], |s| at(&s.revelle_factor);
 
     CarbonateAlkalinity => "carbonate_alkalinity_umol_kg", "carbonate", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.carbonate_alkalinity_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.carbonate_alkalinity_umol_kg);
     BorateAlkalinity => "borate_alkalinity_umol_kg", "borate", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.borate_alkalinity_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.borate_alkalinity_umol_kg);
     Hydroxide => "hydroxide_umol_kg", "hydroxide", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.hydroxide_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.hydroxide_umol_kg);
     PhosphateAlkalinity => "phosphate_alkalinity_umol_kg", "phosphate", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.phosphate_alkalinity_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.phosphate_alkalinity_umol_kg);
     SilicateAlkalinity => "silicate_alkalinity_umol_kg", "silicate", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.silicate_alkalinity_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.silicate_alkalinity_umol_kg);
     AmmoniaAlkalinity => "ammonia_alkalinity_umol_kg", "ammonia", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.ammonia_alkalinity_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.ammonia_alkalinity_umol_kg);
     SulfideAlkalinity => "sulfide_alkalinity_umol_kg", "sulfide", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.sulfide_alkalinity_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.sulfide_alkalinity_umol_kg);
     FreeHydrogen => "free_hydrogen_umol_kg", "free hydrogen (minus)", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.free_hydrogen_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.free_hydrogen_umol_kg);
     Bisulfate => "bisulfate_umol_kg", "bisulfate (minus)", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.bisulfate_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.bisulfate_umol_kg);
     HydrogenFluoride => "hydrogen_fluoride_umol_kg", "hydrogen fluoride (minus)", "µmol/kg", Amount,
-        AlkalinityParts, [Row, Row], |s| n(s.hydrogen_fluoride_umol_kg);
+        AlkalinityParts, [Row, Row], |s| at(&s.hydrogen_fluoride_umol_kg);
 
     Calcium => "calcium_umol_kg", "calcium", "µmol/kg", Amount,
-        Saturation, [Row, Row], |s| o(s.calcium_umol_kg);
+        Saturation, [Row, Row], |s| opt_at(&s.calcium_umol_kg);
     CalciumFree => "calcium_free_umol_kg", "free calcium", "µmol/kg", Amount,
-        Saturation, [Row, Hidden], |s| o(s.calcium_free_umol_kg);
+        Saturation, [Row, Hidden], |s| opt_at(&s.calcium_free_umol_kg);
     CalciumActivity => "calcium_activity", "free calcium activity", "", Activity,
-        Saturation, [Hidden, Hidden], |s| o(s.calcium_activity);
+        Saturation, [Hidden, Hidden], |s| opt_at(&s.calcium_activity);
     Cahco3 => "cahco3_umol_kg", "CaHCO3+ pair", "µmol/kg", Amount,
-        Saturation, [Row, Hidden], |s| o(s.cahco3_umol_kg);
+        Saturation, [Row, Hidden], |s| opt_at(&s.cahco3_umol_kg);
     Caco3Pair => "caco3_pair_umol_kg", "CaCO3 pair", "µmol/kg", Amount,
-        Saturation, [Row, Hidden], |s| o(s.caco3_pair_umol_kg);
+        Saturation, [Row, Hidden], |s| opt_at(&s.caco3_pair_umol_kg);
 
     // The source of the ionic strength is in the table's header line.
     IonicStrength => "ionic_strength", "ionic strength", "mol/kg", IonicStrength,
-        Medium, [Row, Row], |s| n(s.ionic_strength);
+        Medium, [Row, Row], |s| at(&s.ionic_strength);
     IonicStrengthFrom => "ionic_strength_from", "ionic strength from", "", Name,
         Medium, [Hidden, Hidden], |s| Reading::Text(s.ionic_strength_from.map(|r| r.name()));
     GammaMonovalent => "gamma_monovalent", "activity coefficient, z = 1", "", ActivityCoefficient,
-        Medium, [Row, Hidden], |s| o(s.gamma_monovalent);
+        Medium, [Row, Hidden], |s| opt_at(&s.gamma_monovalent);
     GammaDivalent => "gamma_divalent", "activity coefficient, z = 2", "", ActivityCoefficient,
-        Medium, [Row, Hidden], |s| o(s.gamma_divalent);
+        Medium, [Row, Hidden], |s| opt_at(&s.gamma_divalent);
     ChargeBalance => "charge_balance_percent", "charge balance of ions given", "%", Percent,
-        Medium, [Row, Hidden], |s| o(s.charge_balance_percent);
+        Medium, [Row, Hidden], |s| opt_at(&s.charge_balance_percent);
 
     SaturationPh => "saturation_ph_nbs", "saturation pH, pHs (NBS)", "", Ph,
-        Saturation, [Row, Hidden], |s| o(s.saturation_ph_nbs);
+        Saturation, [Row, Hidden], |s| opt_at(&s.saturation_ph_nbs);
     Langelier => "langelier_index", "Langelier index", "", SaturationIndex,
-        Saturation, [Row, Hidden], |s| o(s.langelier_index);
+        Saturation, [Row, Hidden], |s| opt_at(&s.langelier_index);
     PrecipitationPotential => "precipitation_potential_mg_l_caco3",
         "CaCO3 precipitation potential", "mg/L as CaCO3", MassConcentration,
-        Saturation, [Row, Hidden], |s| o(s.precipitation_potential_mg_l_caco3);
+        Saturation, [Row, Hidden], |s| opt_at(&s.precipitation_potential_mg_l_caco3);
 
     AlkalinityMgL => "alkalinity_mg_l_caco3", "alkalinity", "mg/L as CaCO3", MassConcentration,
-        TradeUnits, [Row, Row], |s| n(s.alkalinity_mg_l_caco3);
+        TradeUnits, [Row, Row], |s| at(&s.alkalinity_mg_l_caco3);
     DicMgL => "dic_mg_l_c", "dissolved inorganic carbon", "mg/L as C", MassConcentration,
-        TradeUnits, [Row, Row], |s| n(s.dic_mg_l_c);
+        TradeUnits, [Row, Row], |s| at(&s.dic_mg_l_c);
     FreeCo2MgL => "free_co2_mg_l", "free CO2", "mg/L", MassConcentration,
-        TradeUnits, [Row, Row], |s| n(s.free_co2_mg_l);
+        TradeUnits, [Row, Row], |s| at(&s.free_co2_mg_l);
     Hco3MgL => "hco3_mg_l", "bicarbonate HCO3-", "mg/L", MassConcentration,
         TradeUnits, [Hidden, Hidden], |s| n(mg_l(s, s.hco3_umol_kg, HCO3_G_MOL));
     Co3MgL => "co3_mg_l", "carbonate CO3--", "mg/L", MassConcentration,
@@ -657,7 +714,7 @@ outputs! {
         MassConcentration, TradeUnits, [Row, Hidden],
         |s| o(s.calcium_umol_kg.map(|c| c * 1e-6 * s.density_kg_m3 * CACO3_G_MOL));
     Density => "density_kg_m3", "density used", "kg/m3", Density,
-        TradeUnits, [Row, Row], |s| n(s.density_kg_m3);
+        TradeUnits, [Row, Row], |s| at(&s.density_kg_m3);
     // issue 12: the totals a saved result carries, for blending (not rows
     // of the table: the inputs show them)
     PhosphateTotal => "phosphate_total_umol_kg", "total phosphate", "µmol/kg", Amount,
@@ -681,15 +738,15 @@ outputs! {
 
     // issue 11: toxic fractions (null where the total was not given)
     Nh3Fraction => "nh3_fraction", "un-ionised ammonia, fraction of total", "", Fraction,
-        ToxicFractions, [Row, Row], |s| o(s.nh3_fraction);
+        ToxicFractions, [Row, Row], |s| opt_at(&s.nh3_fraction);
     Nh3MgLN => "nh3_mg_l_n", "un-ionised ammonia NH3", "mg/L as N", MassConcentration,
-        ToxicFractions, [Row, Row], |s| o(s.nh3_mg_l_n);
+        ToxicFractions, [Row, Row], |s| opt_at(&s.nh3_mg_l_n);
     Nh3MgL => "nh3_mg_l", "un-ionised ammonia NH3", "mg/L", MassConcentration,
-        ToxicFractions, [Row, Row], |s| o(s.nh3_mg_l);
+        ToxicFractions, [Row, Row], |s| opt_at(&s.nh3_mg_l);
     H2sFraction => "h2s_fraction", "hydrogen sulfide H2S, fraction of total", "", Fraction,
-        ToxicFractions, [Row, Row], |s| o(s.h2s_fraction);
+        ToxicFractions, [Row, Row], |s| opt_at(&s.h2s_fraction);
     H2sMgL => "h2s_mg_l", "hydrogen sulfide H2S", "mg/L", MassConcentration,
-        ToxicFractions, [Row, Row], |s| o(s.h2s_mg_l);
+        ToxicFractions, [Row, Row], |s| opt_at(&s.h2s_mg_l);
     // issue 11: air–water CO2 exchange (null unless computed: see State::with_exchange)
     AirPco2 => "air_pco2_uatm", "pCO2 of the air", "µatm", Amount,
         Exchange, [Row, Row], |s| ex(s, |e| Some(e.air_pco2_uatm));

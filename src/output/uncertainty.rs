@@ -98,7 +98,7 @@ impl Quantities for OutputQuantities<'_> {
         each: &mut dyn FnMut(Option<&Tangents>),
     ) -> bool {
         for o in self.0 {
-            each(o.number(state).as_ref());
+            o.with_number(state, &mut *each);
         }
         true
     }
