@@ -160,22 +160,25 @@ fn exact_sensitivities_come_out_to_rounding() {
         Measured::hco3_umol_kg(1800.0).unwrap(),
     )
     .unwrap();
-    for u in [
-        Uncertainties::new()
-            .without_constants()
-            .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
-            .unwrap(),
-        Uncertainties::new()
-            .without_constants()
-            .with_constant(ConstantName::K1, Size::Absolute(0.01))
-            .unwrap(),
-    ] {
-        let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Pco2])).unwrap();
-        let relative = r.outputs[0].u.unwrap() / r.outputs[0].value.unwrap();
-        let exact = std::f64::consts::LN_10 * 0.01;
+    // With the default constants beside it, so that the pass is made
+    // (`TANGENTS_FROM`): each source's own contribution is checked.
+    let u = Uncertainties::new()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .and_then(|u| u.with_constant(ConstantName::K1, Size::Absolute(0.01)))
+        .unwrap();
+    let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Pco2])).unwrap();
+    assert!(r.sources.len() >= travertine::decisions::uncertainty::TANGENTS_FROM);
+    let exact = std::f64::consts::LN_10 * 0.01;
+    for name in ["ph", "pK1"] {
+        let j = r
+            .sources
+            .iter()
+            .position(|(s, _)| s.name() == name)
+            .unwrap();
+        let relative = r.contributions(0)[j].abs() / r.outputs[0].value.unwrap();
         assert!(
             (relative / exact - 1.0).abs() < 1e-12,
-            "{relative} against {exact}"
+            "{name}: {relative} against {exact}"
         );
     }
 }

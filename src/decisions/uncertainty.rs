@@ -29,10 +29,12 @@
 //!   up to [`TANGENT_WIDTH`] sources through the same generic code that
 //!   computes them on `f64` (forward-mode differentiation); the solver's
 //!   unknowns h and DIC get theirs by implicit differentiation at its
-//!   root. Covered so far: sea water (the measurements, temperature,
-//!   salinity, every constant, the measured totals), without air over it
-//!   and reported where it was measured.
-//! - **By differences** elsewhere (fresh water, a reading of conductivity,
+//!   root. Covered: both media (the measurements, temperature,
+//!   salinity, every constant, the measured totals, a TDS or ionic
+//!   strength given), without air over the water and reported where it
+//!   was measured, from [`TANGENTS_FROM`] sources on (with fewer, the
+//!   differences are cheaper).
+//! - **By differences** elsewhere (fewer sources, a reading of conductivity,
 //!   air over the water, another temperature or pressure, and quantities
 //!   given as a closure, [`propagate`]): forward differences of solves,
 //!   each source moved alone by a step of 10⁻⁶ of its scale (or its own
@@ -1043,6 +1045,9 @@ impl Problem {
             return done;
         }
         let covered = self.covered(sources);
+        if covered.len() < TANGENTS_FROM {
+            return done;
+        }
         let per_pass = TANGENT_WIDTH;
         for chunk in covered.chunks(per_pass) {
             let seeds = self.seeds(chunk, sources);
@@ -1226,7 +1231,7 @@ impl Problem {
             return Err(true);
         }
         let covered = self.covered(sources);
-        if covered.len() != m {
+        if covered.len() != m || m < TANGENTS_FROM {
             return Err(true);
         }
         let unknowns = self
@@ -1562,6 +1567,17 @@ where
 /// ```
 pub const TANGENT_WIDTH: usize = 14;
 
+/// The fewest sources a pass on tangents is made for: the pass costs about
+/// as much as five or six solves of the water (measured in both media,
+/// DEVELOPERS.md, "Uncertainty", the ninth session), and a difference one
+/// solve, so fewer sources are cheaper by differences (for example the
+/// two measurements alone).
+///
+/// ```
+/// assert_eq!(travertine::decisions::uncertainty::TANGENTS_FROM, 6);
+/// ```
+pub const TANGENTS_FROM: usize = 6;
+
 /// A number of a pass on tangents: a value and [`TANGENT_WIDTH`]
 /// derivatives.
 pub type Tangents = Tangent<TANGENT_WIDTH>;
@@ -1633,16 +1649,19 @@ impl<F: FnMut(&State, &mut Vec<Option<f64>>)> Quantities for ByDifferences<F> {
 /// and the state are computed on tangents (forward-mode differentiation,
 /// the chain rule at every operation, through the same generic code that
 /// computes them on numbers), and the derivatives of the solver's unknowns
-/// h and DIC come from implicit differentiation at its root
-/// ([`crate::solve`]'s `tangent` module): J (dh, dDIC) = −∂G/∂s, G the
-/// residuals of the two measurements.
+/// h and DIC (in fresh water also the ionic strength and free calcium of
+/// the fixed point, and pHs) come from implicit differentiation at its
+/// root ([`crate::solve`]'s `tangent` module): J du = −∂G/∂s, G the
+/// residuals of the equations the solve satisfies.
 ///
-/// Covered so far: saline water without air over it and reported at the
-/// conditions of its measurement; the two measurements, every constant
-/// and the measured totals (phosphate, silicate, ammonia, sulfide,
-/// calcium) as sources. Every other source, and every source in other
-/// problems, takes differences of solves as [`propagate`] does (the
-/// temperature and salinity until the published fits are generic).
+/// Covered: both media without air over the water and reported at the
+/// conditions of its measurement, from [`TANGENTS_FROM`] covered sources
+/// on; the two measurements, temperature and salinity (not where a
+/// conductivity reading moves with them), every constant, the measured
+/// totals (in fresh water calcium alone), a TDS or an ionic strength
+/// given. Every other source, and every source in other problems, takes
+/// differences of solves as [`propagate`] does; the two agree to about
+/// 10⁻⁶ relative.
 ///
 /// # Errors
 /// As [`propagate`].
