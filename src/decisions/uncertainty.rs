@@ -1215,8 +1215,8 @@ impl Problem {
     /// through fH recovered from a quotient, which may round otherwise.
     /// `Err(true)` where the pass does not cover the problem, the sources
     /// or a column (the caller takes the general way); `Err(false)` where
-    /// the quantities cannot be read on tangents (no pass is worth
-    /// making).
+    /// no pass is worth making (the quantities cannot be read on tangents,
+    /// or there are fewer than [`TANGENTS_FROM`] sources).
     #[inline(never)]
     fn propagated_on_tangents<Q: Quantities>(
         &self,
@@ -1227,6 +1227,9 @@ impl Problem {
         let rounding_apart = |(s, _, _): &(Source, f64, f64)| {
             matches!(s, Source::Constant(ConstantName::Ks | ConstantName::Kf))
         };
+        if m < TANGENTS_FROM {
+            return Err(false);
+        }
         if !self.on_tangents() || m > TANGENT_WIDTH || sources.iter().any(rounding_apart) {
             return Err(true);
         }
@@ -1674,8 +1677,9 @@ pub fn propagate_quantities<Q: Quantities>(
     // case in sea water); its sources are found again below otherwise, so
     // that an error of the solve comes before one of the sources.
     let mut tangents = true;
-    if let Ok(sources) = sources_of(problem, u) {
-        match problem.propagated_on_tangents(&sources, &mut quantities) {
+    let found = sources_of(problem, u);
+    if let Ok(sources) = &found {
+        match problem.propagated_on_tangents(sources, &mut quantities) {
             Ok(p) => return Ok(p),
             Err(worth_it) => tangents = worth_it,
         }
@@ -1684,7 +1688,7 @@ pub fn propagate_quantities<Q: Quantities>(
     // Room for every output of the list, without growing on the way.
     let mut base = Vec::with_capacity(128);
     quantities.read(&base_state, &mut base);
-    let sources = sources_of(problem, u)?;
+    let sources = found?;
     let (n, m) = (base.len(), sources.len());
     // A row of m contributions per quantity; source j fills column j.
     let mut contributions = vec![0.0; n * m];
