@@ -1685,8 +1685,8 @@ pub fn propagate_quantities<Q: Quantities>(
         }
     }
     let base_state = problem.solve_numbers()?;
-    // Room for every output of the list, without growing on the way.
-    let mut base = Vec::with_capacity(128);
+    // Room for a few quantities; every output of the list grows it thrice.
+    let mut base = Vec::with_capacity(16);
     quantities.read(&base_state, &mut base);
     let sources = found?;
     let (n, m) = (base.len(), sources.len());
