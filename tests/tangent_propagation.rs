@@ -195,15 +195,33 @@ fn zeros_stay_exact_on_tangents() {
         Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
     )
     .unwrap();
-    let u = Uncertainties::new()
-        .without_constants()
-        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
-        .unwrap();
     let outputs = numeric_outputs();
-    let r = propagate_quantities(&problem, &u, OutputQuantities(&outputs)).unwrap();
-    let at = |o: Output| r.outputs[outputs.iter().position(|x| *x == o).unwrap()].u;
-    assert_eq!(at(Output::DicUmolKg), Some(0.0));
-    assert_eq!(at(Output::BoronTotal), Some(0.0));
+    // The pH alone (by differences: fewer sources than a pass is made
+    // for), and with the default constants (on tangents): either way the
+    // measured DIC does not move, nor the state's own conditions.
+    for (u, boron_moves) in [
+        (
+            Uncertainties::new()
+                .without_constants()
+                .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+                .unwrap(),
+            false,
+        ),
+        (
+            Uncertainties::new()
+                .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+                .unwrap(),
+            true,
+        ),
+    ] {
+        let r = propagate_quantities(&problem, &u, OutputQuantities(&outputs)).unwrap();
+        let at = |o: Output| r.outputs[outputs.iter().position(|x| *x == o).unwrap()].u;
+        assert_eq!(at(Output::DicUmolKg), Some(0.0));
+        assert_eq!(at(Output::TemperatureC), Some(0.0));
+        assert_eq!(at(Output::Salinity), Some(0.0));
+        // The total boron is a source among the default constants.
+        assert_eq!(at(Output::BoronTotal) == Some(0.0), !boron_moves);
+    }
     let none = propagate_quantities(
         &problem,
         &Uncertainties::new().without_constants(),
