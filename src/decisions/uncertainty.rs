@@ -1050,7 +1050,7 @@ impl Problem {
         }
         let per_pass = TANGENT_WIDTH;
         for chunk in covered.chunks(per_pass) {
-            let seeds = self.seeds(chunk, sources);
+            let seeds = self.seeds(chunk.iter().copied().enumerate(), sources);
             let mut us = [0.0; TANGENT_WIDTH];
             for (u, &j) in us.iter_mut().zip(chunk) {
                 *u = sources[j].1;
@@ -1175,9 +1175,13 @@ impl Problem {
         covered
     }
 
-    /// The seeds of one pass: the sources `chunk` (places in `sources`),
-    /// source `chunk[i]` in slot `i`.
-    fn seeds(&self, chunk: &[usize], sources: &[(Source, f64, f64)]) -> Seeds<TANGENT_WIDTH> {
+    /// The seeds of one pass: the sources of `chunk`, each a slot and a
+    /// place in `sources`.
+    fn seeds(
+        &self,
+        chunk: impl ExactSizeIterator<Item = (usize, usize)>,
+        sources: &[(Source, f64, f64)],
+    ) -> Seeds<TANGENT_WIDTH> {
         let mut seeds = Seeds {
             a: Tangent::constant(self.a.number()),
             b: Tangent::constant(self.b.number()),
@@ -1187,7 +1191,7 @@ impl Problem {
             salinity: None,
             ionic_input: None,
         };
-        for (slot, &j) in chunk.iter().enumerate() {
+        for (slot, j) in chunk {
             match sources[j].0 {
                 Source::Input(Input::Carbon(p)) if p == self.a.parameter() => {
                     seeds.a = Tangent::source(self.a.number(), slot)
@@ -1206,8 +1210,11 @@ impl Problem {
 
     /// The whole propagation from one pass on tangents, where it covers
     /// every source: the unperturbed values are then the values of the
-    /// state on tangents, and no state of numbers is built (the solve
-    /// gives h and DIC alone). The values are those of the state of
+    /// state on tangents, and each u is summed as the row is written. In
+    /// sea water no state of numbers is built (the solve gives h and DIC
+    /// alone); in fresh water the state of numbers gives the settled ionic
+    /// strength, free calcium and figures, and is left in `numbers` for
+    /// the general way should this one not serve. The values are those of the state of
     /// numbers, bit for bit: every operation on a tangent takes the `f64`
     /// operation's value, and a source is seeded at a shift of exactly
     /// zero (a factor of exactly 1 on a constant, +0 on a total). KS and
@@ -1222,6 +1229,7 @@ impl Problem {
         &self,
         sources: &[(Source, f64, f64)],
         quantities: &mut Q,
+        numbers: &mut Option<State>,
     ) -> std::result::Result<Propagation, bool> {
         let m = sources.len();
         let rounding_apart = |(s, _, _): &(Source, f64, f64)| {
@@ -1233,56 +1241,75 @@ impl Problem {
         if !self.on_tangents() || m > TANGENT_WIDTH || sources.iter().any(rounding_apart) {
             return Err(true);
         }
+        // Every source covered, or moving nothing (its slot left unseeded:
+        // contributions of exactly zero, as the general way gives it).
         let covered = self.covered(sources);
-        if covered.len() != m || m < TANGENTS_FROM {
+        let uncovered = m - covered.len();
+        if uncovered > 0 && sources.iter().filter(|s| self.moves_nothing(s.0)).count() != uncovered
+        {
             return Err(true);
         }
-        let unknowns = self
-            .prepared
-            .solve_unknowns(self.a, self.b, &self.options)
-            .and_then(|r| r.ok())
-            .ok_or(true)?;
-        let seeds = self.seeds(&covered, sources);
+        // Sea water: the unknowns alone. Fresh water: the state of
+        // numbers (the pass reads its settled ionic strength, free calcium
+        // and figures), kept for the general way should this one fail.
+        let base = match self.prepared.solve_unknowns(self.a, self.b, &self.options) {
+            Some(Ok((h, dic))) => Unperturbed::Unknowns(h, dic),
+            Some(Err(_)) => return Err(true),
+            None => match numbers.insert(self.solve_numbers().map_err(|_| true)?) {
+                state if state.precipitation_potential_mg_l_caco3.is_some() => return Err(true),
+                state => Unperturbed::State(state),
+            },
+        };
+        let seeds = self.seeds(covered.iter().map(|&j| (j, j)), sources);
         let mut us = [0.0; TANGENT_WIDTH];
         for (u, (_, ui, _)) in us.iter_mut().zip(sources) {
             *u = *ui;
         }
         // Room for every output of the list, without growing on the way.
-        let mut base = Vec::with_capacity(128);
+        let mut outputs = Vec::with_capacity(128);
         let mut contributions = Vec::with_capacity(128 * m + TANGENT_WIDTH);
-        // NaN in a slot whose derivative is not finite for a quantity with
-        // a value (c · 0 is 0 for a finite c, NaN otherwise).
-        let mut not_finite = [0.0; TANGENT_WIDTH];
+        // Whether every derivative of a quantity with a value is finite.
+        let mut finite = true;
         let mut each = |t: Option<&Tangents>| {
-            base.push(t.map(|t| t.v));
             let mut c = [0.0; TANGENT_WIDTH];
-            if let Some(t) = t {
+            let u = t.map(|t| {
                 for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
                     *c = d * u;
                 }
-                for (z, c) in not_finite.iter_mut().zip(&c) {
-                    *z += c * 0.0;
+                // u² in the order of the sources (the slots beyond them
+                // hold zeros), as the general way sums it. It is finite
+                // exactly where every contribution is.
+                let mut u2 = 0.0;
+                for c in &c {
+                    u2 += c * c;
                 }
-            }
+                finite &= u2.is_finite();
+                u2.sqrt()
+            });
+            outputs.push(Propagated {
+                value: t.map(|t| t.v),
+                u,
+            });
             // A whole row of the width, less the slots beyond the sources:
             // a copy of a fixed size, without a call.
             contributions.extend_from_slice(&c);
             contributions.truncate(contributions.len() - (TANGENT_WIDTH - m));
         };
-        let read = self.prepared.solve_tangent(
-            Unperturbed::Unknowns(unknowns.0, unknowns.1),
-            &self.a,
-            &self.b,
-            &seeds,
-            |state| quantities.read_tangent(state, &mut each),
-        );
+        let read = self
+            .prepared
+            .solve_tangent(base, &self.a, &self.b, &seeds, |state| {
+                quantities.read_tangent(state, &mut each)
+            });
         match read {
-            Some(Ok(true)) if not_finite.iter().all(|z| *z == 0.0) => {}
+            Some(Ok(true)) if finite => {}
             Some(Ok(false)) => return Err(false),
             _ => return Err(true),
         }
-        let lost = vec![false; base.len()];
-        Ok(assembled(sources, base, &lost, contributions))
+        Ok(Propagation {
+            sources: sources.iter().map(|&(s, u, _)| (s, u)).collect(),
+            outputs,
+            contributions,
+        })
     }
 }
 
@@ -1678,13 +1705,17 @@ pub fn propagate_quantities<Q: Quantities>(
     // that an error of the solve comes before one of the sources.
     let mut tangents = true;
     let found = sources_of(problem, u);
+    let mut numbers = None;
     if let Ok(sources) = &found {
-        match problem.propagated_on_tangents(sources, &mut quantities) {
+        match problem.propagated_on_tangents(sources, &mut quantities, &mut numbers) {
             Ok(p) => return Ok(p),
             Err(worth_it) => tangents = worth_it,
         }
     }
-    let base_state = problem.solve_numbers()?;
+    let base_state = match numbers {
+        Some(state) => state,
+        None => problem.solve_numbers()?,
+    };
     // Room for a few quantities; every output of the list grows it thrice.
     let mut base = Vec::with_capacity(16);
     quantities.read(&base_state, &mut base);
