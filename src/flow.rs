@@ -651,12 +651,7 @@ fn at_equilibrium_with(
     fco2_uatm: f64,
     prepared: Option<&PreparedWater>,
 ) -> Result<State> {
-    // Only the pH and the free CO2 of that water are read: no saturation
-    // pH (a search of its own) is made for it.
-    let options = SolveOptions {
-        saturation_ph: false,
-        ..SolveOptions::default().with_media_comparison(false)
-    };
+    let options = equilibrium_options();
     let a = Measured::alkalinity_umol_kg(state.alkalinity_umol_kg)?;
     let b = Measured::fco2_uatm(fco2_uatm)?;
     // In fresh water its fixed point starts from the state's ionic
@@ -671,6 +666,16 @@ fn at_equilibrium_with(
     match prepared {
         Some(p) if p.water() == state.water_sample() => p.solve_near(a, b, &options, &near),
         _ => state.water_sample().solve_near(a, b, &options, &near),
+    }
+}
+
+/// The options of the solve of a water at equilibrium with the air: only
+/// its pH and free CO2 are read, so no saturation pH (a search of its own)
+/// is made for it.
+fn equilibrium_options() -> SolveOptions {
+    SolveOptions {
+        saturation_ph: false,
+        ..SolveOptions::default().with_media_comparison(false)
     }
 }
 
@@ -1010,6 +1015,8 @@ pub(crate) struct Seeds<const N: usize> {
     /// The slot of the number a fresh water's fixed ionic strength is made
     /// from (a TDS or an ionic strength given), where it is a source.
     pub ionic_input: Option<usize>,
+    /// The slot of the wind speed (m/s), where it is a source.
+    pub wind: Option<usize>,
 }
 
 impl PreparedWater {
@@ -1029,17 +1036,19 @@ impl PreparedWater {
         Some(solve_near(k, &a, &b, options, Near::default().h).map(|sol| (sol.h, sol.dic)))
     }
 
-    /// The state of the unknowns `(h, dic)` (a solve of the pair `a`, `b`
-    /// in this water) on [`Tangent`]s: the same numbers, each with its
-    /// derivatives with
+    /// The state of the solve `base` of the pair `a`, `b` in this water
+    /// (its unknowns in sea water, its state of numbers in fresh water) on
+    /// [`Tangent`]s: the same numbers, each with its derivatives with
     /// respect to the sources of `seeds` (forward-mode differentiation
     /// through the constants and the state, and implicit differentiation
-    /// at the solver's root for h and DIC, [`crate::solve::tangent`]).
+    /// at the solver's root, [`crate::solve::tangent`]); with `air` (and
+    /// the pH scale of its water at equilibrium) the exchange with the air
+    /// too ([`PreparedWater::exchange_on_tangents`]).
     ///
-    /// `None` where this pass does not cover the water or a source yet:
-    /// fresh water (its fixed point of ionic strength and free calcium),
-    /// a total the water lacks, a singular root. The caller then takes
-    /// differences of full solves instead.
+    /// `None` where this pass does not cover the water or a source: a
+    /// total the water lacks, a fresh water with a precipitation potential
+    /// or totals other than calcium as sources, a singular root. The
+    /// caller then takes differences of full solves instead.
     /// The state is given to `read` where it lies (a state on tangents is
     /// a large value, not to be moved).
     pub(crate) fn solve_tangent<const N: usize, T>(
@@ -1048,12 +1057,96 @@ impl PreparedWater {
         a: &Measured,
         b: &Measured,
         seeds: &Seeds<N>,
+        air: Option<(&Air, Option<PhScale>)>,
         read: impl FnOnce(&State<Tangent<N>>) -> T,
+    ) -> Option<Result<T>> {
+        self.state_on_tangents(base, a, b, seeds, |state| {
+            if let Some((air, ph_scale)) = air {
+                match self.exchange_on_tangents(state, base, seeds, air, ph_scale)? {
+                    Ok(exchange) => state.exchange = Some(exchange),
+                    Err(e) => return Some(Err(e)),
+                }
+            }
+            Some(Ok(read(state)))
+        })
+    }
+
+    /// The exchange of `state` (the state on tangents of the solve `base`)
+    /// with `air` on tangents, the water at equilibrium with the air
+    /// included: that water is solved in numbers as
+    /// [`State::with_exchange`] solves it, and its state made on tangents
+    /// as any other ([`PreparedWater::state_on_tangents`]), its pair the
+    /// alkalinity of `state` and the fCO2 of the air, both with their
+    /// derivatives. Its pH and free CO2 are `None` where its solve fails
+    /// (as [`State::with_exchange`] leaves them, with a warning). `None`
+    /// where the pass does not cover that water.
+    fn exchange_on_tangents<const N: usize>(
+        &self,
+        state: &State<Tangent<N>>,
+        base: Unperturbed<'_>,
+        seeds: &Seeds<N>,
+        air: &Air,
+        ph_scale: Option<PhScale>,
+    ) -> Option<Result<Exchange<Tangent<N>>>> {
+        let scale = ph_scale.unwrap_or(medium_scale(state.medium));
+        let wind = air.wind_m_s().map(|u| match seeds.wind {
+            Some(slot) => Tangent::source(u, slot),
+            None => Tangent::constant(u),
+        });
+        let mut exchange = Exchange::figures_on(state, air, scale, wind);
+        let (ta, fco2) = (state.alkalinity_umol_kg, exchange.air_fco2_uatm);
+        let pair =
+            Measured::alkalinity_umol_kg(ta.v).and_then(|a| Ok((a, Measured::fco2_uatm(fco2.v)?)));
+        let Ok((a, b)) = pair else {
+            return Some(Ok(exchange));
+        };
+        // The unknowns of that water, in numbers, as `at_equilibrium_with`
+        // solves it.
+        let equilibrium;
+        let base = match base {
+            Unperturbed::Unknowns(..) => {
+                match self.solve_unknowns(a, b, &equilibrium_options())? {
+                    Ok((h, dic)) => Unperturbed::Unknowns(h, dic),
+                    Err(_) => return Some(Ok(exchange)),
+                }
+            }
+            Unperturbed::State(s) => match at_equilibrium_with(s, fco2.v, Some(self)) {
+                Ok(e) => {
+                    equilibrium = e;
+                    Unperturbed::State(&equilibrium)
+                }
+                Err(_) => return Some(Ok(exchange)),
+            },
+        };
+        let seeds = Seeds {
+            a: ta,
+            b: fco2,
+            ..seeds.clone()
+        };
+        let (ph, free_co2) = self
+            .state_on_tangents(base, &a, &b, &seeds, |e| {
+                Some(Ok((e.ph(scale), e.free_co2_mg_l)))
+            })?
+            .ok()?;
+        exchange.equilibrium_ph = Some(ph);
+        exchange.equilibrium_free_co2_mg_l = Some(free_co2);
+        Some(Ok(exchange))
+    }
+
+    /// The state on tangents of [`PreparedWater::solve_tangent`], without
+    /// the exchange with the air, given to `with` where it lies.
+    fn state_on_tangents<const N: usize, T>(
+        &self,
+        base: Unperturbed<'_>,
+        a: &Measured,
+        b: &Measured,
+        seeds: &Seeds<N>,
+        with: impl FnOnce(&mut State<Tangent<N>>) -> Option<Result<T>>,
     ) -> Option<Result<T>> {
         let k0 = match (&self.prepared, base) {
             (Prepared::Saline(k0), _) => k0,
             (Prepared::Fresh(_), Unperturbed::State(base)) => {
-                return self.solve_tangent_fresh(base, a, b, seeds, read)
+                return self.state_on_tangents_fresh(base, a, b, seeds, with)
             }
             (Prepared::Fresh(_), Unperturbed::Unknowns(..)) => return None,
         };
@@ -1110,12 +1203,12 @@ impl PreparedWater {
         }
         let (h, dic) =
             crate::solve::tangent::unknowns(&k, &plain, (h, dic), (a, seeds.a), (b, seeds.b))?;
-        let state =
+        let mut state =
             State::build_fresh_or_saline(&self.water, &k, h, dic, Warnings::new(), None, a, b);
-        Some(match &state {
-            Ok(state) => Ok(read(state)),
-            Err(e) => Err(e.clone()),
-        })
+        match &mut state {
+            Ok(state) => with(state),
+            Err(e) => Some(Err(e.clone())),
+        }
     }
 
     /// [`PreparedWater::solve_tangent`] in fresh water: the basis on
@@ -1127,13 +1220,13 @@ impl PreparedWater {
     /// at them, the figures (pHs by implicit differentiation at its root)
     /// and the state. `None` where the water has a precipitation potential
     /// (a search over full solves, left to the differences).
-    fn solve_tangent_fresh<const N: usize, T>(
+    fn state_on_tangents_fresh<const N: usize, T>(
         &self,
         base: &State,
         a: &Measured,
         b: &Measured,
         seeds: &Seeds<N>,
-        read: impl FnOnce(&State<Tangent<N>>) -> T,
+        with: impl FnOnce(&mut State<Tangent<N>>) -> Option<Result<T>>,
     ) -> Option<Result<T>> {
         use crate::medium::fresh::{FreshSources, IonicStrengthRoute};
         if base.precipitation_potential_mg_l_caco3.is_some() {
@@ -1212,11 +1305,11 @@ impl PreparedWater {
             precipitation_potential_mg_l_caco3: None,
         };
         let figures = basis.fresh_figures_on(&k, h, dic, &values, None);
-        let state =
+        let mut state =
             State::build_fresh_or_saline(water, &k, h, dic, Warnings::new(), Some(figures), a, b);
-        Some(match &state {
-            Ok(state) => Ok(read(state)),
-            Err(e) => Err(e.clone()),
-        })
+        match &mut state {
+            Ok(state) => with(state),
+            Err(e) => Some(Err(e.clone())),
+        }
     }
 }

@@ -4,7 +4,7 @@
 //! sensitivities known exactly.
 
 use travertine::decisions::uncertainty::{
-    propagate, propagate_quantities, Problem, Size, Uncertainties,
+    propagate, propagate_quantities, Problem, Size, Source, Uncertainties,
 };
 use travertine::medium::ConstantName;
 use travertine::output::uncertainty::{numeric_outputs, values_into, OutputQuantities};
@@ -351,4 +351,144 @@ fn tangents_agree_with_differences_in_fresh_water() {
         .unwrap();
     let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::TemperatureC])).unwrap();
     assert_eq!(r.outputs[0].u, Some(0.1));
+}
+
+/// With air over the water the pass on tangents carries the exchange too:
+/// the air's pCO2, the flux and the water at equilibrium with the air (a
+/// second state on tangents, its pair the alkalinity and the air's fCO2
+/// with their derivatives). Every contribution agrees with differences of
+/// full solves with the exchange, in both media, with each model of the
+/// transfer velocity.
+#[test]
+fn tangents_carry_the_exchange_with_the_air() {
+    use travertine::fits::transfer::GasTransfer;
+    use travertine::sample::air::Air;
+    let ph = |v| Measured::ph(v, None).unwrap();
+    let ta = |v| Measured::alkalinity_umol_kg(v).unwrap();
+    let dic = |v| Measured::dic_umol_kg(v).unwrap();
+    let with_calcium = |w: Water| {
+        w.with_composition(
+            Composition::default()
+                .with_calcium(Amount::PerKg(1e-3))
+                .unwrap(),
+        )
+    };
+    let wind = |u| Air::new().with_wind_m_s(u).unwrap();
+    type Case = (
+        &'static str,
+        Water,
+        Measured,
+        Measured,
+        Air,
+        Option<PhScale>,
+    );
+    let cases: Vec<Case> = vec![
+        (
+            "sea, pH + TA, Wanninkhof 2014",
+            sea(25.0, 35.0, 0.0),
+            ph(8.05),
+            ta(2300.0),
+            wind(7.0).with_co2_ppm(425.0).unwrap(),
+            None,
+        ),
+        (
+            "sea, TA + DIC, k600 given, NBS",
+            sea(12.0, 33.0, 0.0),
+            ta(2250.0),
+            dic(2080.0),
+            Air::new().with_k600_cm_h(9.0).unwrap(),
+            Some(PhScale::Nbs),
+        ),
+        (
+            "pond, pH + TA, Cole & Caraco 1998",
+            with_calcium(pond(15.0, 0.2)),
+            ph(7.6),
+            ta(2000.0),
+            wind(3.0),
+            None,
+        ),
+        (
+            "lake, TA + DIC, Vachon & Prairie 2013",
+            with_calcium(pond(22.0, 0.1)),
+            ta(1500.0),
+            dic(1650.0),
+            wind(4.5).with_lake_area_km2(2.0).unwrap(),
+            None,
+        ),
+        (
+            "pond, pH + TA, Wanninkhof 2014 chosen, smooth surface",
+            with_calcium(pond(9.0, 0.3)),
+            ph(8.3),
+            ta(2600.0),
+            wind(2.0).with_model(GasTransfer::Wanninkhof2014),
+            None,
+        ),
+    ];
+    let mut compared = 0;
+    for (what, water, a, b, air, scale) in cases {
+        let problem = Problem::new(&water, a, b).unwrap().with_air(air, scale);
+        let mut u = Uncertainties::new()
+            .with_input(Input::Carbon(a.parameter()), Size::Percent(0.5))
+            .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Percent(0.3)))
+            .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+            .and_then(|u| u.with_input(Input::Salinity, Size::Percent(2.0)))
+            .unwrap();
+        if air.wind_m_s().is_some() {
+            u = u.with_input(Input::Wind, Size::Percent(10.0)).unwrap();
+        }
+        if water.medium() == travertine::Medium::Fresh {
+            u = u
+                .with_input(Input::Total(Total::Calcium), Size::Percent(3.0))
+                .unwrap();
+        }
+        compared += agree(&problem, &u, what);
+    }
+    assert!(compared > 1500, "{compared} contributions compared");
+
+    // Wanninkhof 2014: k600 = 0.251 U² (Sc/660)^−0.5, so the flux is
+    // proportional to U² and d ln F / d ln U = 2 exactly (the formula;
+    // nothing else in the flux depends on the wind). With 10 % of the wind
+    // the wind's contribution to u(F) is 20 % of F, to rounding on
+    // tangents (differences of solves give it to about 10⁻⁶).
+    let water = sea(25.0, 35.0, 0.0);
+    let problem = Problem::new(&water, ph(8.05), ta(2300.0))
+        .unwrap()
+        .with_air(wind(7.0).with_co2_ppm(425.0).unwrap(), None);
+    let u = Uncertainties::new()
+        .with_input(Input::Wind, Size::Percent(10.0))
+        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+        .unwrap();
+    let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Co2Flux])).unwrap();
+    let j = r
+        .sources
+        .iter()
+        .position(|(s, _)| *s == Source::Input(Input::Wind))
+        .unwrap();
+    let flux = r.outputs[0].value.unwrap();
+    let c = r.contributions(0)[j];
+    assert!(
+        (c / (0.2 * flux) - 1.0).abs() < 1e-12,
+        "wind's share {c}, flux {flux}"
+    );
+
+    // In fresh water too (its pass has a fixed point of its own): Cole &
+    // Caraco 1998, k600 = 2.07 + 0.215 U^1.7, so d ln F / d U =
+    // 0.215 · 1.7 U^0.7 / k600 (the formula).
+    let water = with_calcium(pond(15.0, 0.2));
+    let problem = Problem::new(&water, ph(7.6), ta(2000.0))
+        .unwrap()
+        .with_air(wind(3.0), None);
+    let u = Uncertainties::new()
+        .with_input(Input::Wind, Size::Absolute(0.3))
+        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+        .unwrap();
+    let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Co2Flux])).unwrap();
+    let flux = r.outputs[0].value.unwrap();
+    let c = r.contributions(0)[j];
+    let k600 = 2.07 + 0.215 * 3f64.powf(1.7);
+    let expected = flux * 0.215 * 1.7 * 3f64.powf(0.7) / k600 * 0.3;
+    assert!(
+        (c / expected - 1.0).abs() < 1e-12,
+        "wind's share {c}, expected {expected}"
+    );
 }

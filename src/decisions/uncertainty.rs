@@ -31,11 +31,12 @@
 //!   unknowns h and DIC get theirs by implicit differentiation at its
 //!   root. Covered: both media (the measurements, temperature,
 //!   salinity, every constant, the measured totals, a TDS or ionic
-//!   strength given), without air over the water and reported where it
-//!   was measured, from [`TANGENTS_FROM`] sources on (with fewer, the
-//!   differences are cheaper).
+//!   strength given, the wind), with or without air over the water (the
+//!   water at equilibrium with the air is a second state on tangents),
+//!   reported where it was measured, from [`TANGENTS_FROM`] sources on
+//!   (with fewer, the differences are cheaper).
 //! - **By differences** elsewhere (fewer sources, a reading of conductivity,
-//!   air over the water, another temperature or pressure, and quantities
+//!   another temperature or pressure, and quantities
 //!   given as a closure, [`propagate`]): forward differences of solves,
 //!   each source moved alone by a step of 10⁻⁶ of its scale (or its own
 //!   uncertainty where that is smaller), each perturbed solve started from
@@ -1080,9 +1081,7 @@ impl Problem {
                     return;
                 };
                 let mut c = [0.0; TANGENT_WIDTH];
-                for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
-                    *c = d * u;
-                }
+                contributions_of(t, &us, &mut c);
                 for (z, c) in not_finite.iter_mut().zip(&c) {
                     *z += c * 0.0;
                 }
@@ -1102,6 +1101,7 @@ impl Problem {
                 &self.a,
                 &self.b,
                 &seeds,
+                self.air_over(),
                 |state| quantities.read_tangent(state, &mut each),
             );
             // A column lost or not finite for a quantity with a value is
@@ -1125,7 +1125,13 @@ impl Problem {
     /// Whether a pass on tangents applies to this problem at all (see
     /// [`propagate_quantities`]).
     fn on_tangents(&self) -> bool {
-        self.air.is_none() && self.reported_at.is_none()
+        self.reported_at.is_none()
+    }
+
+    /// The air over the water, where the problem has one, and the pH scale
+    /// of its water at equilibrium.
+    fn air_over(&self) -> Option<(&Air, Option<PhScale>)> {
+        self.air.as_ref().map(|(air, scale)| (air, *scale))
     }
 
     /// The sources a pass on tangents can seed, by their place in `sources`.
@@ -1164,6 +1170,9 @@ impl Problem {
                     Source::Input(Input::Temperature | Input::Salinity) => {
                         water.given_conductivity().is_none()
                     }
+                    // The wind over the water (`value_of` refuses it
+                    // without one).
+                    Source::Input(Input::Wind) => true,
                     // The number a fresh water's fixed ionic strength is
                     // made from (`value_of` refuses it elsewhere).
                     Source::Input(Input::IonicStrength | Input::Tds) => {
@@ -1190,6 +1199,7 @@ impl Problem {
             temperature: None,
             salinity: None,
             ionic_input: None,
+            wind: None,
         };
         for (slot, j) in chunk {
             match sources[j].0 {
@@ -1201,6 +1211,7 @@ impl Problem {
                 Source::Input(Input::Temperature) => seeds.temperature = Some(slot),
                 Source::Input(Input::Salinity) => seeds.salinity = Some(slot),
                 Source::Input(Input::IonicStrength | Input::Tds) => seeds.ionic_input = Some(slot),
+                Source::Input(Input::Wind) => seeds.wind = Some(slot),
                 Source::Constant(k) => seeds.constants.push((k, slot)),
                 Source::Input(_) => {}
             }
@@ -1273,9 +1284,7 @@ impl Problem {
         let mut each = |t: Option<&Tangents>| {
             let mut c = [0.0; TANGENT_WIDTH];
             let u = t.map(|t| {
-                for ((c, d), u) in c.iter_mut().zip(&t.d).zip(&us) {
-                    *c = d * u;
-                }
+                contributions_of(t, &us, &mut c);
                 // u² in the order of the sources (the slots beyond them
                 // hold zeros), as the general way sums it. It is finite
                 // exactly where every contribution is.
@@ -1295,11 +1304,11 @@ impl Problem {
             contributions.extend_from_slice(&c);
             contributions.truncate(contributions.len() - (TANGENT_WIDTH - m));
         };
-        let read = self
-            .prepared
-            .solve_tangent(base, &self.a, &self.b, &seeds, |state| {
-                quantities.read_tangent(state, &mut each)
-            });
+        let read =
+            self.prepared
+                .solve_tangent(base, &self.a, &self.b, &seeds, self.air_over(), |state| {
+                    quantities.read_tangent(state, &mut each)
+                });
         match read {
             Some(Ok(true)) if finite => {}
             Some(Ok(false)) => return Err(false),
@@ -1684,12 +1693,14 @@ impl<F: FnMut(&State, &mut Vec<Option<f64>>)> Quantities for ByDifferences<F> {
 /// root ([`crate::solve`]'s `tangent` module): J du = −∂G/∂s, G the
 /// residuals of the equations the solve satisfies.
 ///
-/// Covered: both media without air over the water and reported at the
-/// conditions of its measurement, from [`TANGENTS_FROM`] covered sources
-/// on; the two measurements, temperature and salinity (not where a
-/// conductivity reading moves with them), every constant, the measured
-/// totals (in fresh water calcium alone), a TDS or an ionic strength
-/// given. Every other source, and every source in other problems, takes
+/// Covered: both media reported at the conditions of their measurement,
+/// from [`TANGENTS_FROM`] covered sources on; the two measurements,
+/// temperature and salinity (not where a conductivity reading moves with
+/// them), every constant, the measured totals (in fresh water calcium
+/// alone), a TDS or an ionic strength given, and with air over the water
+/// the wind (the exchange is computed on tangents too, the water at
+/// equilibrium with the air a second state on tangents whose pair, the
+/// alkalinity and the air's fCO2, carries its derivatives). Every other source, and every source in other problems, takes
 /// differences of solves as [`propagate`] does; the two agree to about
 /// 10⁻⁶ relative.
 ///
@@ -1701,7 +1712,7 @@ pub fn propagate_quantities<Q: Quantities>(
     mut quantities: Q,
 ) -> Result<Propagation> {
     // One pass on tangents alone where it covers every source (the usual
-    // case in sea water); its sources are found again below otherwise, so
+    // case); its sources are found again below otherwise, so
     // that an error of the solve comes before one of the sources.
     let mut tangents = true;
     let found = sources_of(problem, u);
@@ -1813,6 +1824,26 @@ pub fn propagate_quantities<Q: Quantities>(
         }
     }
     Ok(assembled(&sources, base, &lost, contributions))
+}
+
+/// Into `c`, the contributions of a quantity on tangents `t` from the
+/// sources of standard uncertainties `us` (one per slot): each derivative
+/// times its source's u, or exactly zero where that is no larger than the
+/// rounding of the value (8 units in the last place), as
+/// [`beyond_rounding`] makes a difference of two solves. An output that the
+/// measurements fix (the measured alkalinity when only the pH and the
+/// constants are uncertain) then gets exactly no contribution, rather
+/// than the rounding of its terms: it is computed again from the solved
+/// unknowns, whose derivatives cancel in it only to rounding. A change
+/// below the rounding of the value cannot be told from none.
+#[inline(always)]
+fn contributions_of(t: &Tangents, us: &[f64; TANGENT_WIDTH], c: &mut [f64; TANGENT_WIDTH]) {
+    let floor = 8.0 * f64::EPSILON * t.v.abs();
+    for ((c, d), u) in c.iter_mut().zip(&t.d).zip(us) {
+        let x = d * u;
+        // NaN stays NaN (a comparison with it is false).
+        *c = if x.abs() <= floor { 0.0 } else { x };
+    }
 }
 
 /// The difference `a − b` of an output at two steps, or exactly zero where

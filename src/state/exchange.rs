@@ -121,13 +121,17 @@ pub(crate) fn medium_scale(medium: Medium) -> PhScale {
 /// let f = flux_mmol_m2_d(5.0, 0.0391, 998.0, 1000.0, 400.0);
 /// assert!((f - 28.09).abs() < 0.01);
 /// ```
-pub fn flux_mmol_m2_d(
-    k_cm_h: f64,
-    k0_mol_kg_atm: f64,
-    density_kg_m3: f64,
-    fco2_water_uatm: f64,
-    fco2_air_uatm: f64,
-) -> f64 {
+///
+/// Generic over [`Real`]: on `f64` the value, on a
+/// [`Tangent`](crate::base::numeric::Tangent) the same value, bit for bit,
+/// and its derivatives.
+pub fn flux_mmol_m2_d<R: Real>(
+    k_cm_h: R,
+    k0_mol_kg_atm: R,
+    density_kg_m3: R,
+    fco2_water_uatm: R,
+    fco2_air_uatm: R,
+) -> R {
     let k_m_d = k_cm_h * M_D_PER_CM_H;
     let solubility_mol_m3_atm = k0_mol_kg_atm * density_kg_m3;
     let delta_atm = (fco2_water_uatm - fco2_air_uatm) * 1e-6;
@@ -141,10 +145,8 @@ impl Exchange {
         let mut notes = Vec::new();
         let conditions = state.water_sample().conditions();
         let (t, s) = (state.temperature_c, state.salinity);
-        let gas = state.gas_terms();
 
         // The air.
-        let air_co2_ppm = air.co2_ppm();
         if !air.co2_stated() {
             notes.push(Warning::Text {
                 code: "air_co2_default",
@@ -156,7 +158,6 @@ impl Exchange {
                 ),
             });
         }
-        let p_air = conditions.air_pressure_atm();
         if !conditions.air_pressure_stated() {
             notes.push(Warning::Note {
                 code: "barometric_default",
@@ -165,8 +166,6 @@ impl Exchange {
                        about 11 % less CO2)",
             });
         }
-        let air_pco2_uatm = air_co2_ppm * (p_air - gas.vapour_pressure_atm);
-        let air_fco2_uatm = air_pco2_uatm * gas.fugacity_factor;
         if state.pressure_dbar > 0.0 {
             notes.push(Warning::Note {
                 code: "exchange_below_surface",
@@ -176,7 +175,6 @@ impl Exchange {
         }
 
         // The transfer velocity.
-        let sc = schmidt_number(t, s);
         let mut extrapolated = Vec::new();
         WANNINKHOF2014_SCHMIDT_RANGE.check_for("Schmidt number of CO2", t, s, &mut extrapolated);
         notes.extend(extrapolated);
@@ -213,11 +211,8 @@ impl Exchange {
                 ),
             });
         }
-        let k600_cm_h = match model {
-            GasTransfer::Given => air.k600_cm_h(),
-            m => wind.and_then(|u| m.k600_cm_h(u, air.lake_area_km2())),
-        };
-        if k600_cm_h.is_none() {
+        let exchange = Exchange::figures_on(state, air, scale, wind);
+        if exchange.k600_cm_h.is_none() {
             if air.model().is_some_and(GasTransfer::needs_wind) {
                 notes.push(Warning::Text {
                     code: "gas_transfer_unused",
@@ -234,7 +229,36 @@ impl Exchange {
                 });
             }
         }
-        let n = schmidt_exponent(model, wind);
+        (exchange, notes)
+    }
+}
+
+impl<R: Real> Exchange<R> {
+    /// The figures of the exchange of `state` with `air` on any [`Real`],
+    /// all but the water at equilibrium with the air, as [`Exchange::of`]
+    /// gives them without its cautions: `wind_m_s` is the air's wind speed
+    /// (with its derivatives where it is a source), `scale` the scale of
+    /// the equilibrium pH. On `f64`, the same numbers as [`Exchange::of`]
+    /// bit for bit (it computes them here).
+    pub(crate) fn figures_on(
+        state: &State<R>,
+        air: &Air,
+        scale: PhScale,
+        wind_m_s: Option<R>,
+    ) -> Exchange<R> {
+        let gas = state.gas_terms();
+        let air_co2_ppm = R::constant(air.co2_ppm());
+        let p_air = state.water_sample().conditions().air_pressure_atm();
+        let air_pco2_uatm = air_co2_ppm * gas.vapour_pressure_atm.subtracted_from(p_air);
+        let air_fco2_uatm = air_pco2_uatm * gas.fugacity_factor;
+        let sc = schmidt_number(state.temperature_c, state.salinity);
+        let model = air.model_in(state.medium);
+        let k600_cm_h = match model {
+            GasTransfer::Given => air.k600_cm_h().map(R::constant),
+            m => wind_m_s.and_then(|u| m.k600_cm_h(u, air.lake_area_km2())),
+        };
+        // The exponent changes by a step at a wind speed (no derivative).
+        let n = schmidt_exponent(model, wind_m_s.map(|u| u.value()));
         let k_cm_h = k600_cm_h.map(|k6| transfer_velocity(k6, sc, n));
         let co2_flux_mmol_m2_d = k_cm_h.map(|k| {
             flux_mmol_m2_d(
@@ -245,21 +269,20 @@ impl Exchange {
                 air_fco2_uatm,
             )
         });
-        let exchange = Exchange {
+        Exchange {
             air_co2_ppm,
             air_pco2_uatm,
             air_fco2_uatm,
             co2_saturation_ratio: state.pco2_uatm / air_pco2_uatm,
             schmidt_number: sc,
             gas_transfer: model,
-            schmidt_exponent: n,
+            schmidt_exponent: R::constant(n),
             k600_cm_h,
             k_cm_h,
             co2_flux_mmol_m2_d,
             equilibrium_ph: None,
             equilibrium_ph_scale: scale,
             equilibrium_free_co2_mg_l: None,
-        };
-        (exchange, notes)
+        }
     }
 }

@@ -238,24 +238,6 @@ pub struct State<R: Real = f64> {
 }
 
 impl State {
-    /// pH on any scale.
-    ///
-    /// ```
-    /// # use travertine::{Conditions, Measured, PhScale, Water};
-    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
-    ///     .solve(Measured::ph(8.0, Some(PhScale::Total))?, Measured::dic_umol_kg(2000.0)?)?;
-    /// assert!((s.ph(PhScale::Total) - 8.0).abs() < 1e-12);
-    /// # Ok::<(), travertine::Error>(())
-    /// ```
-    pub fn ph(&self, scale: PhScale) -> f64 {
-        match scale {
-            PhScale::Total => self.ph_total,
-            PhScale::Seawater => self.ph_seawater,
-            PhScale::Free => self.ph_free,
-            PhScale::Nbs => self.ph_nbs,
-        }
-    }
-
     /// h on the working scale: [H+] on the total scale in saline water
     /// (mol/kg), the H+ activity (NBS) in fresh water.
     ///
@@ -369,24 +351,6 @@ impl State {
         s
     }
 
-    /// The gas constants this state was solved with.
-    pub(crate) fn gas_terms(&self) -> exchange::GasTerms {
-        self.gas
-    }
-
-    /// The water this state was solved for.
-    ///
-    /// ```
-    /// # use travertine::{Conditions, Measured, Water};
-    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
-    /// let s = w.solve(Measured::ph(8.0, None)?, Measured::dic_umol_kg(2000.0)?)?;
-    /// assert_eq!(s.water_sample(), &w);
-    /// # Ok::<(), travertine::Error>(())
-    /// ```
-    pub fn water_sample(&self) -> &Water {
-        &self.water_sample
-    }
-
     /// Builds the state from the solved h and DIC of the measured pair
     /// (`a`, `b`), refusing it as [`implausible`] where its alkalinity is
     /// beyond any measurement.
@@ -433,6 +397,42 @@ impl State {
 }
 
 impl<R: Real> State<R> {
+    /// pH on any scale.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, PhScale, Water};
+    /// let s = Water::saline(Conditions::new(25.0, 35.0)?)?
+    ///     .solve(Measured::ph(8.0, Some(PhScale::Total))?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert!((s.ph(PhScale::Total) - 8.0).abs() < 1e-12);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn ph(&self, scale: PhScale) -> R {
+        match scale {
+            PhScale::Total => self.ph_total,
+            PhScale::Seawater => self.ph_seawater,
+            PhScale::Free => self.ph_free,
+            PhScale::Nbs => self.ph_nbs,
+        }
+    }
+
+    /// The water this state was solved for.
+    ///
+    /// ```
+    /// # use travertine::{Conditions, Measured, Water};
+    /// let w = Water::saline(Conditions::new(25.0, 35.0)?)?;
+    /// let s = w.solve(Measured::ph(8.0, None)?, Measured::dic_umol_kg(2000.0)?)?;
+    /// assert_eq!(s.water_sample(), &w);
+    /// # Ok::<(), travertine::Error>(())
+    /// ```
+    pub fn water_sample(&self) -> &Water {
+        &self.water_sample
+    }
+
+    /// The gas constants this state was solved with.
+    pub(crate) fn gas_terms(&self) -> exchange::GasTerms<R> {
+        self.gas
+    }
+
     /// Builds a state, fresh (with its figures) or saline, from the solved
     /// h and DIC and the constants, on any [`Real`]: on `f64` the state of
     /// a solve, on a [`Tangent`](crate::base::numeric::Tangent) the same
