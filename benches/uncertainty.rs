@@ -23,6 +23,15 @@
 //!   [`propagate`] with the outputs read by a closure, so by forward
 //!   differences of solves for every source: the method the pass on
 //!   tangents replaces, measured beside it;
+//! - `<water>/<pair>/plain_every_output_with_air`,
+//!   `linear_default_every_output_with_air` and
+//!   `differences_default_every_output_with_air`: the same three with air
+//!   over the water (a 4 m/s wind), as the command line's `solve` always
+//!   has it: the exchange with the air and the water at equilibrium with
+//!   it (a second solve) in every one, and the wind (10 %) a source more
+//!   in the propagations (13 in sea water, 15 in the pond, the wind among
+//!   them); the differences by full solves with the exchange, the problem
+//!   made once;
 //! - `<water>/<pair>/linear_default`: [`propagate_quantities`] with the realistic
 //!   default setup: the two measured parameters, temperature (0.1 °C), in
 //!   sea water salinity (0.01), in the pond salinity (the route of its
@@ -57,6 +66,7 @@ use travertine::output::uncertainty::{
     numeric_outputs, outputs_propagated, values_into, OutputQuantities,
 };
 use travertine::output::Output;
+use travertine::sample::air::Air;
 use travertine::sample::inputs::{Input, Total};
 use travertine::units::Amount;
 use travertine::{Composition, Conditions, Measured, Parameter, PhScale, Water};
@@ -186,6 +196,55 @@ fn bench(c: &mut Criterion) {
                         black_box(
                             propagate(&problem, &default, |s, out| values_into(&outputs, s, out))
                                 .unwrap(),
+                        )
+                    })
+                },
+            );
+            // With air over the water, as the command line's `solve`
+            // always has it: the exchange and the water at equilibrium with
+            // the air (a second solve) in both; the wind (10 %) a source
+            // more in the propagation.
+            let air = Air::new().with_wind_m_s(4.0).unwrap();
+            let with_wind = default
+                .clone()
+                .with_input(Input::Wind, Size::Percent(10.0))
+                .unwrap();
+            let with_air = Problem::new(&water, a, b).unwrap().with_air(air, None);
+            group.bench_function(
+                format!("{name}/{pair}/plain_every_output_with_air"),
+                |bench| {
+                    let mut values = Vec::with_capacity(outputs.len());
+                    bench.iter(|| {
+                        let s = black_box(&water)
+                            .solve(black_box(a), b)
+                            .and_then(|s| s.with_exchange(&air, None))
+                            .unwrap();
+                        values.clear();
+                        values_into(&outputs, &s, &mut values);
+                        black_box(&values);
+                    })
+                },
+            );
+            group.bench_function(
+                format!("{name}/{pair}/linear_default_every_output_with_air"),
+                |bench| {
+                    bench.iter(|| {
+                        let problem = Problem::new(black_box(&water), a, b)
+                            .unwrap()
+                            .with_air(air, None);
+                        black_box(outputs_propagated(&problem, &with_wind).unwrap())
+                    })
+                },
+            );
+            group.bench_function(
+                format!("{name}/{pair}/differences_default_every_output_with_air"),
+                |bench| {
+                    bench.iter(|| {
+                        black_box(
+                            propagate(black_box(&with_air), &with_wind, |s, out| {
+                                values_into(&outputs, s, out)
+                            })
+                            .unwrap(),
                         )
                     })
                 },

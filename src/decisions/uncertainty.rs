@@ -1249,14 +1249,16 @@ impl Problem {
         if m < TANGENTS_FROM {
             return Err(false);
         }
-        if !self.on_tangents() || m > TANGENT_WIDTH || sources.iter().any(rounding_apart) {
+        if !self.on_tangents() || sources.iter().any(rounding_apart) {
             return Err(true);
         }
-        // Every source covered, or moving nothing (its slot left unseeded:
+        // Every source covered, in one pass, or moving nothing (no slot:
         // contributions of exactly zero, as the general way gives it).
         let covered = self.covered(sources);
         let uncovered = m - covered.len();
-        if uncovered > 0 && sources.iter().filter(|s| self.moves_nothing(s.0)).count() != uncovered
+        if covered.len() > TANGENT_WIDTH
+            || (uncovered > 0
+                && sources.iter().filter(|s| self.moves_nothing(s.0)).count() != uncovered)
         {
             return Err(true);
         }
@@ -1271,14 +1273,26 @@ impl Problem {
                 state => Unperturbed::State(state),
             },
         };
-        let seeds = self.seeds(covered.iter().map(|&j| (j, j)), sources);
+        // Each source in its own place where they all fit (the usual
+        // case: a source that moves nothing leaves its slot unseeded);
+        // else the covered ones side by side, covered[i] in slot i, their
+        // rows spread onto every source's place at the end.
+        let side_by_side = m > TANGENT_WIDTH;
+        let (slots, width): (Vec<(usize, usize)>, usize) = if side_by_side {
+            (covered.iter().copied().enumerate().collect(), covered.len())
+        } else {
+            (covered.iter().map(|&j| (j, j)).collect(), m)
+        };
+        let seeds = self.seeds(slots.iter().copied(), sources);
         let mut us = [0.0; TANGENT_WIDTH];
-        for (u, (_, ui, _)) in us.iter_mut().zip(sources) {
-            *u = *ui;
+        for &(slot, j) in &slots {
+            if let Some(u) = us.get_mut(slot) {
+                *u = sources[j].1;
+            }
         }
         // Room for every output of the list, without growing on the way.
         let mut outputs = Vec::with_capacity(128);
-        let mut contributions = Vec::with_capacity(128 * m + TANGENT_WIDTH);
+        let mut contributions = Vec::with_capacity(128 * width + TANGENT_WIDTH);
         // Whether every derivative of a quantity with a value is finite.
         let mut finite = true;
         let mut each = |t: Option<&Tangents>| {
@@ -1286,8 +1300,9 @@ impl Problem {
             let u = t.map(|t| {
                 contributions_of(t, &us, &mut c);
                 // u² in the order of the sources (the slots beyond them
-                // hold zeros), as the general way sums it. It is finite
-                // exactly where every contribution is.
+                // hold zeros, as do those of sources that move nothing), as
+                // the general way sums it. It is finite exactly where every
+                // contribution is.
                 let mut u2 = 0.0;
                 for c in &c {
                     u2 += c * c;
@@ -1299,10 +1314,10 @@ impl Problem {
                 value: t.map(|t| t.v),
                 u,
             });
-            // A whole row of the width, less the slots beyond the sources:
-            // a copy of a fixed size, without a call.
+            // A whole row of the width, less the slots beyond the covered
+            // sources: a copy of a fixed size, without a call.
             contributions.extend_from_slice(&c);
-            contributions.truncate(contributions.len() - (TANGENT_WIDTH - m));
+            contributions.truncate(contributions.len() - (TANGENT_WIDTH - width));
         };
         let read =
             self.prepared
@@ -1313,6 +1328,21 @@ impl Problem {
             Some(Ok(true)) if finite => {}
             Some(Ok(false)) => return Err(false),
             _ => return Err(true),
+        }
+        if side_by_side {
+            // Each row onto every source's place (zero where a source
+            // moves nothing).
+            let mut spread = Vec::with_capacity(outputs.len() * m);
+            let mut row = vec![0.0; m];
+            for c in contributions.chunks_exact(width) {
+                for (&j, c) in covered.iter().zip(c) {
+                    if let Some(x) = row.get_mut(j) {
+                        *x = *c;
+                    }
+                }
+                spread.extend_from_slice(&row);
+            }
+            contributions = spread;
         }
         Ok(Propagation {
             sources: sources.iter().map(|&(s, u, _)| (s, u)).collect(),
