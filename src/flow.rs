@@ -1047,7 +1047,8 @@ impl PreparedWater {
     ///
     /// `None` where this pass does not cover the water or a source: a
     /// total the water lacks, a fresh water with a precipitation potential
-    /// or totals other than calcium as sources, a singular root. The
+    /// or totals other than calcium as sources, a singular root, a water
+    /// at equilibrium with the air that cannot be built on tangents. The
     /// caller then takes differences of full solves instead.
     /// The state is given to `read` where it lies (a state on tangents is
     /// a large value, not to be moved).
@@ -1077,9 +1078,12 @@ impl PreparedWater {
     /// [`State::with_exchange`] solves it, and its state made on tangents
     /// as any other ([`PreparedWater::state_on_tangents`]), its pair the
     /// alkalinity of `state` and the fCO2 of the air, both with their
-    /// derivatives. Its pH and free CO2 are `None` where its solve fails
-    /// (as [`State::with_exchange`] leaves them, with a warning). `None`
-    /// where the pass does not cover that water.
+    /// derivatives. Its pH and free CO2 are `None` where its solve in
+    /// numbers fails (as [`State::with_exchange`] leaves them, with a
+    /// warning). `None` where the pass does not cover that water or its
+    /// state on tangents cannot be built (the caller then takes
+    /// differences); the error of [`Air::check`] where the air's inputs do
+    /// not go together.
     fn exchange_on_tangents<const N: usize>(
         &self,
         state: &State<Tangent<N>>,
@@ -1088,6 +1092,11 @@ impl PreparedWater {
         air: &Air,
         ph_scale: Option<PhScale>,
     ) -> Option<Result<Exchange<Tangent<N>>>> {
+        // As `add_exchange`: inputs of the air that do not go together are
+        // an error, not an exchange without a flux.
+        if let Err(e) = air.check() {
+            return Some(Err(e));
+        }
         let scale = ph_scale.unwrap_or(medium_scale(state.medium));
         let wind = air.wind_m_s().map(|u| match seeds.wind {
             Some(slot) => Tangent::source(u, slot),

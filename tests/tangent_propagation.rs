@@ -58,6 +58,15 @@ fn agree(problem: &Problem, u: &Uncertainties, what: &str) -> usize {
     compared
 }
 
+/// The problem took the one pass on tangents for `u`: the state's own
+/// temperature gets exactly the uncertainty given (a derivative of exactly
+/// 1, as the differences do not give it), with every other source of `u`
+/// in the same pass. `u` must have a temperature of 0.1 °C.
+fn assert_on_tangents(problem: &Problem, u: &Uncertainties, what: &str) {
+    let r = propagate_quantities(problem, u, OutputQuantities(&[Output::TemperatureC])).unwrap();
+    assert_eq!(r.outputs[0].u, Some(0.1), "{what}: not on tangents");
+}
+
 fn sea(t: f64, s: f64, p_dbar: f64) -> Water {
     Water::saline(
         Conditions::new(t, s)
@@ -442,6 +451,7 @@ fn tangents_carry_the_exchange_with_the_air() {
                 .unwrap();
         }
         compared += agree(&problem, &u, what);
+        assert_on_tangents(&problem, &u, what);
     }
     assert!(compared > 1500, "{compared} contributions compared");
 
@@ -483,6 +493,11 @@ fn tangents_carry_the_exchange_with_the_air() {
         .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
         .unwrap();
     let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Co2Flux])).unwrap();
+    let j = r
+        .sources
+        .iter()
+        .position(|(s, _)| *s == Source::Input(Input::Wind))
+        .unwrap();
     let flux = r.outputs[0].value.unwrap();
     let c = r.contributions(0)[j];
     let k600 = 2.07 + 0.215 * 3f64.powf(1.7);
@@ -491,4 +506,107 @@ fn tangents_carry_the_exchange_with_the_air() {
         (c / expected - 1.0).abs() < 1e-12,
         "wind's share {c}, expected {expected}"
     );
+}
+
+/// Air whose inputs do not go together (a model that needs a lake area,
+/// without one) is the same error on tangents as in a solve, in both
+/// media: not an exchange without a flux.
+#[test]
+fn air_that_does_not_go_together_is_an_error_on_tangents_too() {
+    use travertine::fits::transfer::GasTransfer;
+    use travertine::sample::air::Air;
+    let air = Air::new()
+        .with_wind_m_s(5.0)
+        .unwrap()
+        .with_model(GasTransfer::VachonPrairie2013);
+    for water in [sea(25.0, 35.0, 0.0), pond(15.0, 0.2)] {
+        let problem = Problem::new(
+            &water,
+            Measured::ph(8.0, None).unwrap(),
+            Measured::alkalinity_umol_kg(2000.0).unwrap(),
+        )
+        .unwrap()
+        .with_air(air, None);
+        let u = Uncertainties::new();
+        let solved = problem.solve().unwrap_err();
+        let by_differences = propagate(&problem, &u, |s, out| out.push(Some(s.pco2_uatm)));
+        let on_tangents = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Co2Flux]));
+        assert_eq!(by_differences.unwrap_err(), solved);
+        assert_eq!(on_tangents.unwrap_err(), solved);
+    }
+}
+
+/// More sources than one pass has slots still take it where the extra
+/// ones move nothing (constants of acid systems the water lacks): the
+/// covered sources side by side, their rows spread onto every source's
+/// place, zero for the others, every contribution as by differences.
+#[test]
+fn more_sources_than_slots_where_the_extra_ones_move_nothing() {
+    let water = sea(18.0, 34.0, 0.0);
+    let (a, b) = (
+        Measured::ph(8.02, Some(PhScale::Total)).unwrap(),
+        Measured::alkalinity_umol_kg(2280.0).unwrap(),
+    );
+    let problem = Problem::new(&water, a, b).unwrap();
+    let mut u = Uncertainties::new()
+        .with_input(Input::Carbon(a.parameter()), Size::Absolute(0.01))
+        .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Absolute(2.0)))
+        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+        .and_then(|u| u.with_input(Input::Salinity, Size::Absolute(0.01)))
+        .unwrap();
+    // No phosphate, silicate, ammonia or sulfide in this water: their
+    // constants move nothing.
+    for k in [
+        ConstantName::Kp1,
+        ConstantName::Kp2,
+        ConstantName::Kp3,
+        ConstantName::Ksi,
+        ConstantName::Knh4,
+        ConstantName::Kh2s,
+    ] {
+        u = u.with_constant(k, Size::Absolute(0.02)).unwrap();
+    }
+    let n = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Pco2]))
+        .unwrap()
+        .sources
+        .len();
+    assert_eq!(n, 18, "4 inputs, 8 default constants, 6 that move nothing");
+    agree(&problem, &u, "18 sources, 6 moving nothing");
+    assert_on_tangents(&problem, &u, "18 sources, 6 moving nothing");
+}
+
+/// The measured alkalinity is fixed by its measurement: with only the pH
+/// and the constants uncertain its contributions are exactly zero on
+/// tangents too (it is computed again from the solved unknowns, whose
+/// derivatives cancel in it to rounding, which the floor of the pass
+/// removes), in both media.
+#[test]
+fn a_measured_alkalinity_gets_no_contribution_from_the_others() {
+    for (water, ph) in [
+        (sea(25.0, 35.0, 0.0), 8.05),
+        (
+            pond(12.0, 0.1).with_composition(
+                Composition::default()
+                    .with_calcium(Amount::PerKg(0.9e-3))
+                    .unwrap(),
+            ),
+            7.4,
+        ),
+    ] {
+        let problem = Problem::new(
+            &water,
+            Measured::ph(ph, None).unwrap(),
+            Measured::alkalinity_umol_kg(1900.0).unwrap(),
+        )
+        .unwrap();
+        let u = Uncertainties::new()
+            .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.02))
+            .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+            .unwrap();
+        assert_on_tangents(&problem, &u, "alkalinity fixed");
+        let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::AlkalinityUmolKg]))
+            .unwrap();
+        assert_eq!(r.outputs[0].u, Some(0.0));
+        assert!(r.contributions(0).iter().all(|c| *c == 0.0));
+    }
 }

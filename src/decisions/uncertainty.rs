@@ -1220,7 +1220,9 @@ impl Problem {
     }
 
     /// The whole propagation from one pass on tangents, where it covers
-    /// every source: the unperturbed values are then the values of the
+    /// every source that moves anything, from [`TANGENTS_FROM`] to
+    /// [`TANGENT_WIDTH`] of them (those that move nothing get
+    /// contributions of exactly zero): the unperturbed values are then the values of the
     /// state on tangents, and each u is summed as the row is written. In
     /// sea water no state of numbers is built (the solve gives h and DIC
     /// alone); in fresh water the state of numbers gives the settled ionic
@@ -1234,7 +1236,7 @@ impl Problem {
     /// `Err(true)` where the pass does not cover the problem, the sources
     /// or a column (the caller takes the general way); `Err(false)` where
     /// no pass is worth making (the quantities cannot be read on tangents,
-    /// or there are fewer than [`TANGENTS_FROM`] sources).
+    /// or fewer than [`TANGENTS_FROM`] sources move anything).
     #[inline(never)]
     fn propagated_on_tangents<Q: Quantities>(
         &self,
@@ -1246,15 +1248,15 @@ impl Problem {
         let rounding_apart = |(s, _, _): &(Source, f64, f64)| {
             matches!(s, Source::Constant(ConstantName::Ks | ConstantName::Kf))
         };
-        if m < TANGENTS_FROM {
-            return Err(false);
-        }
         if !self.on_tangents() || sources.iter().any(rounding_apart) {
             return Err(true);
         }
         // Every source covered, in one pass, or moving nothing (no slot:
         // contributions of exactly zero, as the general way gives it).
         let covered = self.covered(sources);
+        if covered.len() < TANGENTS_FROM {
+            return Err(false);
+        }
         let uncovered = m - covered.len();
         if covered.len() > TANGENT_WIDTH
             || (uncovered > 0
@@ -1858,14 +1860,18 @@ pub fn propagate_quantities<Q: Quantities>(
 
 /// Into `c`, the contributions of a quantity on tangents `t` from the
 /// sources of standard uncertainties `us` (one per slot): each derivative
-/// times its source's u, or exactly zero where that is no larger than the
-/// rounding of the value (8 units in the last place), as
-/// [`beyond_rounding`] makes a difference of two solves. An output that the
-/// measurements fix (the measured alkalinity when only the pH and the
-/// constants are uncertain) then gets exactly no contribution, rather
-/// than the rounding of its terms: it is computed again from the solved
-/// unknowns, whose derivatives cancel in it only to rounding. A change
-/// below the rounding of the value cannot be told from none.
+/// times its source's u, or exactly zero where that is no larger than
+/// 8 ε |value| (8 to 16 units in the last place of the value), a change
+/// that cannot be told from the rounding of the value itself. An output
+/// that the measurements fix (the measured alkalinity when only the pH
+/// and the constants are uncertain) is computed again from the solved
+/// unknowns, whose derivatives cancel in it only to rounding: this floor
+/// makes its contributions exactly zero where that rounding stays under
+/// it (the usual case; an output much smaller than its own terms, an
+/// alkalinity near zero, may keep a u of rounding). The floor is far
+/// below that of the differences ([`beyond_rounding`] drops a change of
+/// 8 ε over a step up to 10⁶ times smaller than u): it never drops more
+/// than the value's own rounding.
 #[inline(always)]
 fn contributions_of(t: &Tangents, us: &[f64; TANGENT_WIDTH], c: &mut [f64; TANGENT_WIDTH]) {
     let floor = 8.0 * f64::EPSILON * t.v.abs();
