@@ -1266,14 +1266,28 @@ impl Problem {
         }
         // Sea water: the unknowns alone. Fresh water: the state of
         // numbers (the pass reads its settled ionic strength, free calcium
-        // and figures), kept for the general way should this one fail.
+        // and figures), kept for the general way should this one fail;
+        // with air over the water the lean state alone (the pass makes the
+        // exchange on tangents; the general way solves with it).
+        let lean;
         let base = match self.prepared.solve_unknowns(self.a, self.b, &self.options) {
             Some(Ok((h, dic))) => Unperturbed::Unknowns(h, dic),
             Some(Err(_)) => return Err(true),
-            None => match numbers.insert(self.solve_numbers().map_err(|_| true)?) {
-                state if state.precipitation_potential_mg_l_caco3.is_some() => return Err(true),
-                state => Unperturbed::State(state),
-            },
+            None => {
+                let state = if self.air.is_some() {
+                    lean = self
+                        .prepared
+                        .solve_lean(self.a, self.b, &self.options, &Near::default())
+                        .map_err(|_| true)?;
+                    &lean
+                } else {
+                    numbers.insert(self.solve_numbers().map_err(|_| true)?)
+                };
+                if state.precipitation_potential_mg_l_caco3.is_some() {
+                    return Err(true);
+                }
+                Unperturbed::State(state)
+            }
         };
         // Each source in its own place where they all fit (the usual
         // case: a source that moves nothing leaves its slot unseeded);
