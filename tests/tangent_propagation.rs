@@ -460,22 +460,12 @@ fn tangents_carry_the_exchange_with_the_air() {
     // nothing else in the flux depends on the wind). With 10 % of the wind
     // the wind's contribution to u(F) is 20 % of F, to rounding on
     // tangents (differences of solves give it to about 10⁻⁶).
-    let water = sea(25.0, 35.0, 0.0);
-    let problem = Problem::new(&water, ph(8.05), ta(2300.0))
-        .unwrap()
-        .with_air(wind(7.0).with_co2_ppm(425.0).unwrap(), None);
-    let u = Uncertainties::new()
-        .with_input(Input::Wind, Size::Percent(10.0))
-        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
-        .unwrap();
-    let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Co2Flux])).unwrap();
-    let j = r
-        .sources
-        .iter()
-        .position(|(s, _)| *s == Source::Input(Input::Wind))
-        .unwrap();
-    let flux = r.outputs[0].value.unwrap();
-    let c = r.contributions(0)[j];
+    let (flux, c) = wind_share(
+        Problem::new(&sea(25.0, 35.0, 0.0), ph(8.05), ta(2300.0))
+            .unwrap()
+            .with_air(wind(7.0).with_co2_ppm(425.0).unwrap(), None),
+        Size::Percent(10.0),
+    );
     assert!(
         (c / (0.2 * flux) - 1.0).abs() < 1e-12,
         "wind's share {c}, flux {flux}"
@@ -484,12 +474,26 @@ fn tangents_carry_the_exchange_with_the_air() {
     // In fresh water too (its pass has a fixed point of its own): Cole &
     // Caraco 1998, k600 = 2.07 + 0.215 U^1.7, so d ln F / d U =
     // 0.215 · 1.7 U^0.7 / k600 (the formula).
-    let water = with_calcium(pond(15.0, 0.2));
-    let problem = Problem::new(&water, ph(7.6), ta(2000.0))
-        .unwrap()
-        .with_air(wind(3.0), None);
+    let (flux, c) = wind_share(
+        Problem::new(&with_calcium(pond(15.0, 0.2)), ph(7.6), ta(2000.0))
+            .unwrap()
+            .with_air(wind(3.0), None),
+        Size::Absolute(0.3),
+    );
+    let k600 = 2.07 + 0.215 * 3f64.powf(1.7);
+    let expected = flux * 0.215 * 1.7 * 3f64.powf(0.7) / k600 * 0.3;
+    assert!(
+        (c / expected - 1.0).abs() < 1e-12,
+        "wind's share {c}, expected {expected}"
+    );
+}
+
+/// The CO2 flux of `problem` and the wind's contribution to its u, with
+/// `wind` the wind's uncertainty and 0.1 °C of temperature (and the
+/// default constants: enough sources for the pass on tangents).
+fn wind_share(problem: Problem, wind: Size) -> (f64, f64) {
     let u = Uncertainties::new()
-        .with_input(Input::Wind, Size::Absolute(0.3))
+        .with_input(Input::Wind, wind)
         .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
         .unwrap();
     let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Co2Flux])).unwrap();
@@ -498,14 +502,7 @@ fn tangents_carry_the_exchange_with_the_air() {
         .iter()
         .position(|(s, _)| *s == Source::Input(Input::Wind))
         .unwrap();
-    let flux = r.outputs[0].value.unwrap();
-    let c = r.contributions(0)[j];
-    let k600 = 2.07 + 0.215 * 3f64.powf(1.7);
-    let expected = flux * 0.215 * 1.7 * 3f64.powf(0.7) / k600 * 0.3;
-    assert!(
-        (c / expected - 1.0).abs() < 1e-12,
-        "wind's share {c}, expected {expected}"
-    );
+    (r.outputs[0].value.unwrap(), r.contributions(0)[j])
 }
 
 /// Air whose inputs do not go together (a model that needs a lake area,
