@@ -1046,8 +1046,8 @@ impl PreparedWater {
     /// too ([`PreparedWater::exchange_on_tangents`]).
     ///
     /// `None` where this pass does not cover the water or a source: a
-    /// total the water lacks, a fresh water with a precipitation potential
-    /// or totals other than calcium as sources, a singular root, a water
+    /// total the water lacks, a fresh water with totals other than
+    /// calcium as sources, a singular root, a water
     /// at equilibrium with the air that cannot be built on tangents. The
     /// caller then takes differences of full solves instead.
     /// The state is given to `read` where it lies (a state on tangents is
@@ -1227,8 +1227,9 @@ impl PreparedWater {
     /// point by implicit differentiation
     /// ([`crate::solve::tangent::fresh_unknowns`]), the apparent constants
     /// at them, the figures (pHs by implicit differentiation at its root)
-    /// and the state. `None` where the water has a precipitation potential
-    /// (a search over full solves, left to the differences).
+    /// and the state. The precipitation potential (a search over full
+    /// solves) is not made on tangents: the state on tangents has none,
+    /// and the caller takes its derivatives by differences.
     fn state_on_tangents_fresh<const N: usize, T>(
         &self,
         base: &State,
@@ -1238,9 +1239,6 @@ impl PreparedWater {
         with: impl FnOnce(&mut State<Tangent<N>>) -> Option<Result<T>>,
     ) -> Option<Result<T>> {
         use crate::medium::fresh::{FreshSources, IonicStrengthRoute};
-        if base.precipitation_potential_mg_l_caco3.is_some() {
-            return None;
-        }
         let water = &self.water;
         let c = water.conditions();
         let f = water.fresh_options();

@@ -607,3 +607,47 @@ fn a_measured_alkalinity_gets_no_contribution_from_the_others() {
         assert!(r.contributions(0).iter().all(|c| *c == 0.0));
     }
 }
+
+/// The precipitation potential (a search over full solves) is not made on
+/// tangents: its row alone takes differences, for every source, and every
+/// other output keeps its exact derivatives (the pond of an aquaculture
+/// check, calcium measured, as the command line solves it by default).
+#[test]
+fn the_precipitation_potential_alone_takes_differences() {
+    let water = pond(24.0, 0.3).with_composition(
+        Composition::default()
+            .with_calcium(Amount::PerKg(1.5e-3))
+            .unwrap(),
+    );
+    for (a, b) in [
+        (
+            Measured::ph(8.4, None).unwrap(),
+            Measured::alkalinity_umol_kg(2600.0).unwrap(),
+        ),
+        (
+            Measured::alkalinity_umol_kg(2600.0).unwrap(),
+            Measured::dic_umol_kg(2500.0).unwrap(),
+        ),
+    ] {
+        let problem = Problem::new(&water, a, b)
+            .unwrap()
+            .with_options(travertine::SolveOptions::default().with_precipitation_potential(true));
+        let u = Uncertainties::new()
+            .with_input(Input::Carbon(a.parameter()), Size::Percent(0.5))
+            .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Percent(0.3)))
+            .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+            .and_then(|u| u.with_input(Input::Total(Total::Calcium), Size::Percent(3.0)))
+            .unwrap();
+        agree(&problem, &u, "precipitation potential");
+        assert_on_tangents(&problem, &u, "precipitation potential");
+        let r = propagate_quantities(
+            &problem,
+            &u,
+            OutputQuantities(&[Output::PrecipitationPotential, Output::TemperatureC]),
+        )
+        .unwrap();
+        assert!(r.outputs[0].value.is_some());
+        assert!(r.outputs[0].u.unwrap() > 0.0);
+        assert_eq!(r.outputs[1].u, Some(0.1));
+    }
+}

@@ -36,8 +36,10 @@
 //!   reported where it was measured, from [`TANGENTS_FROM`] sources on
 //!   (with fewer, the differences are cheaper).
 //! - **By differences** elsewhere (fewer sources, a reading of conductivity,
-//!   another temperature or pressure, and quantities
-//!   given as a closure, [`propagate`]): forward differences of solves,
+//!   another temperature or pressure, quantities given as a closure,
+//!   [`propagate`], and the precipitation potential's row alone, a search
+//!   over full solves, beside the exact rows of the other outputs):
+//!   forward differences of solves,
 //!   each source moved alone by a step of 10⁻⁶ of its scale (or its own
 //!   uncertainty where that is smaller), each perturbed solve started from
 //!   the unperturbed state's unknowns (its h, ionic strength, free calcium
@@ -1030,8 +1032,12 @@ impl Problem {
     /// The columns of the sources this pass on tangents covers (see
     /// [`propagate_quantities`]), filled in `contributions` (a row of
     /// `sources.len()` per quantity of `base`); `true` for each column
-    /// filled. A column whose derivative is lost or not finite for a
-    /// quantity with a value is left to the differences.
+    /// filled. A column whose derivative is not finite for a quantity with
+    /// a value is left to the differences. A quantity with a value but
+    /// none on tangents (the precipitation potential, a search over full
+    /// solves the pass does not make) is marked in `apart`: its row is
+    /// left to the differences, for every source, and the other rows keep
+    /// their exact derivatives.
     fn tangent_columns<Q: Quantities>(
         &self,
         base_state: &State,
@@ -1039,6 +1045,7 @@ impl Problem {
         quantities: &mut Q,
         base: &[Option<f64>],
         contributions: &mut [f64],
+        apart: &mut [bool],
     ) -> Vec<bool> {
         let m = sources.len();
         let mut done = vec![false; m];
@@ -1063,7 +1070,6 @@ impl Problem {
             // Row by row, as the reader gives each quantity (its
             // derivatives lie together), on the state where it lies.
             let mut k = 0;
-            let mut lost = false;
             // NaN in a slot whose derivative is not finite for a quantity
             // with a value (c · 0 is 0 for a finite c, NaN otherwise), found
             // as the rows are written, all slots at once.
@@ -1077,7 +1083,9 @@ impl Problem {
                 };
                 k += 1;
                 let Some(t) = t else {
-                    lost = true;
+                    if let Some(x) = apart.get_mut(k - 1) {
+                        *x = true;
+                    }
                     return;
                 };
                 let mut c = [0.0; TANGENT_WIDTH];
@@ -1106,7 +1114,7 @@ impl Problem {
             );
             // A column lost or not finite for a quantity with a value is
             // left to the differences.
-            let whole = matches!(read, Some(Ok(true))) && k == base.len() && !lost;
+            let whole = matches!(read, Some(Ok(true))) && k == base.len();
             for (slot, &j) in chunk.iter().enumerate() {
                 if !(whole && not_finite[slot] == 0.0) {
                     for row in contributions.chunks_exact_mut(m) {
@@ -1781,6 +1789,9 @@ pub fn propagate_quantities<Q: Quantities>(
     // A row of m contributions per quantity; source j fills column j.
     let mut contributions = vec![0.0; n * m];
     let mut lost = vec![false; n];
+    // The quantities whose rows the pass on tangents leaves to the
+    // differences, for every source.
+    let mut apart = vec![false; n];
     let done = if tangents {
         problem.tangent_columns(
             &base_state,
@@ -1788,10 +1799,12 @@ pub fn propagate_quantities<Q: Quantities>(
             &mut quantities,
             &base,
             &mut contributions,
+            &mut apart,
         )
     } else {
         vec![false; m]
     };
+    let any_apart = apart.contains(&true);
     let near = base_state.near();
     // The scratch constants are copied at the first constant source; the
     // step down's buffer grows only where one is taken.
@@ -1799,9 +1812,12 @@ pub fn propagate_quantities<Q: Quantities>(
     // Allocated at the first source taken by differences.
     let (mut up, mut down) = (Vec::new(), Vec::new());
     for (j, &(source, ui, scale)) in sources.iter().enumerate() {
-        if done[j] || problem.moves_nothing(source) {
+        if (done[j] && !any_apart) || problem.moves_nothing(source) {
             continue;
         }
+        // The rows this source's differences fill: every row, or where the
+        // pass filled its column, the rows it left apart.
+        let fills = |k: usize| !done[j] || apart.get(k).copied().unwrap_or(false);
         let h = ui.min(STEP * scale);
         let mut at_step = |d: f64, out: &mut Vec<Option<f64>>| {
             out.clear();
@@ -1815,7 +1831,14 @@ pub fn propagate_quantities<Q: Quantities>(
         let mut kept = up_solved.is_ok() && up.len() == n;
         if kept {
             let per_step = ui / h;
-            for (row, (p, y)) in contributions.chunks_exact_mut(m).zip(up.iter().zip(&base)) {
+            for (k, (row, (p, y))) in contributions
+                .chunks_exact_mut(m)
+                .zip(up.iter().zip(&base))
+                .enumerate()
+            {
+                if !fills(k) {
+                    continue;
+                }
                 match (p, y) {
                     (Some(p), Some(y)) if p.is_finite() => {
                         row[j] = beyond_rounding(*p, *y) * per_step
@@ -1845,6 +1868,9 @@ pub fn propagate_quantities<Q: Quantities>(
                 .filter(|x| x.is_finite())
         };
         for (k, (row, y)) in contributions.chunks_exact_mut(m).zip(&base).enumerate() {
+            if !fills(k) {
+                continue;
+            }
             let slope = match (read(&up_solved, &up, k), *y, read(&down_solved, &down, k)) {
                 (Some(p), _, Some(m)) => Some(beyond_rounding(p, m) / (2.0 * h)),
                 (Some(p), Some(y), None) => Some(beyond_rounding(p, y) / h),
