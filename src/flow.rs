@@ -1299,7 +1299,7 @@ impl PreparedWater {
             base.h_mol_kg(),
             base.dic_mol_kg(),
             base.ionic_strength,
-            base.calcium_free_umol_kg.map_or(0.0, |x| x * 1e-6),
+            base.calcium_free_mol_kg(),
         ];
         let [h, dic, i, ca] =
             crate::solve::tangent::fresh_unknowns(&basis, &plain, u, (a, seeds.a), (b, seeds.b))?;

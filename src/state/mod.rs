@@ -174,6 +174,10 @@ pub struct State<R: Real = f64> {
     h: R,
     /// DIC as solved, mol/kg (`dic_umol_kg` is this times 10⁶).
     dic: R,
+    /// The free calcium as solved, mol/kg, where the water has calcium
+    /// (`calcium_free_umol_kg` is this times 10⁶, which divided again may
+    /// round otherwise).
+    calcium_free: Option<R>,
     // issue 11: toxic fractions
     /// Un-ionised fraction of the total ammonia, \[NH3\]/(\[NH3\] + [NH4+])
     /// (`None` where no ammonia was given, or zero).
@@ -289,6 +293,13 @@ impl State {
     /// DIC as solved, mol/kg.
     pub(crate) fn dic_mol_kg(&self) -> f64 {
         self.dic
+    }
+
+    /// The free calcium as solved, mol/kg (0 without calcium): the number
+    /// the constants were made at, which `calcium_free_umol_kg` · 10⁻⁶ may
+    /// miss by a rounding.
+    pub(crate) fn calcium_free_mol_kg(&self) -> f64 {
+        self.calcium_free.unwrap_or(0.0)
     }
 
     /// The unknowns of this state, from which the solve of a water very
@@ -545,6 +556,7 @@ impl<R: Real> State<R> {
             water_sample: water.clone(),
             h,
             dic,
+            calcium_free: ca_known.then_some(ca_free),
             nh3_fraction: ammonia.map(|(f, _)| f),
             nh3_mg_l_n: ammonia.map(|(_, c)| c * rho * N_G_MOL),
             nh3_mg_l: ammonia.map(|(_, c)| c * rho * NH3_G_MOL),
