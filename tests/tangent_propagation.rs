@@ -669,6 +669,7 @@ proptest::proptest! {
         ta in 400.0..3500.0f64,
         calcium in 0.0..3e-3f64,
         wind in proptest::option::of(1.0..12.0f64),
+        potential in proptest::bool::ANY,
     ) {
         // Fresh salinity from 0.05: the forward difference's truncation,
         // about h/(2S) relative at a step h of 10⁻⁶ (the activity
@@ -692,7 +693,10 @@ proptest::proptest! {
             Measured::ph(if fresh { ph } else { 7.5 + 0.5 * (ph - 6.6) }, None).unwrap(),
             Measured::alkalinity_umol_kg(if fresh { ta } else { 1800.0 + 0.25 * ta }).unwrap(),
         );
-        let mut problem = Problem::new(&water, a, b).unwrap();
+        // The precipitation potential (its row by differences beside the
+        // exact others) where the water has calcium, in half the cases.
+        let options = travertine::SolveOptions::default().with_precipitation_potential(potential);
+        let mut problem = Problem::new(&water, a, b).unwrap().with_options(options);
         let mut u = Uncertainties::new()
             .with_input(Input::Carbon(a.parameter()), Size::Absolute(0.01))
             .and_then(|u| u.with_input(Input::Carbon(b.parameter()), Size::Percent(0.2)))

@@ -308,7 +308,7 @@ impl State {
         crate::solve::Near {
             h: self.h,
             ionic_strength: self.ionic_strength_from.map(|_| self.ionic_strength),
-            calcium_free: self.calcium_free_umol_kg.map(|c| c * 1e-6),
+            calcium_free: self.calcium_free,
             saturation_ph: self.saturation_ph_nbs,
         }
     }
