@@ -3,6 +3,8 @@
 //! the differences of full solves, on every numeric output, and against
 //! sensitivities known exactly.
 
+mod common;
+
 use travertine::decisions::uncertainty::{
     propagate, propagate_quantities, Problem, Size, Source, Uncertainties,
 };
@@ -285,15 +287,7 @@ fn tangents_agree_with_differences_in_fresh_water() {
                 .unwrap(),
         )
     };
-    let ions = pond(12.0, 0.0).with_composition(
-        Composition::default()
-            .with_calcium(Amount::PerKg(1.2e-3))
-            .and_then(|c| c.with_sodium(Amount::PerKg(1e-3)))
-            .and_then(|c| c.with_chloride(Amount::PerKg(1.5e-3)))
-            .and_then(|c| c.with_magnesium(Amount::PerKg(0.3e-3)))
-            .and_then(|c| c.with_sulfate(Amount::PerKg(0.2e-3)))
-            .unwrap(),
-    );
+    let ions = common::ions_water();
     let tds = calcium(pond(20.0, 0.0), 0.8e-3)
         .with_tds_mg_l(350.0)
         .unwrap();

@@ -7,6 +7,8 @@
 //! which must solve; fresh waters with the precipitation potential and the
 //! ionic strength from the ions; sea water without sulfate; at depth).
 
+mod common;
+
 use travertine::decisions::uncertainty::{propagate, Problem, Size, Uncertainties};
 use travertine::medium::ConstantName;
 use travertine::output::uncertainty::{numeric_outputs, values_into};
@@ -40,17 +42,7 @@ fn constants_moved_without_a_solve_move_every_output_as_a_solve_does() {
                 .with_calcium(Amount::PerKg(1e-3))
                 .unwrap(),
         );
-    let ions = Water::fresh(Conditions::new(12.0, 0.0).unwrap())
-        .unwrap()
-        .with_composition(
-            Composition::default()
-                .with_calcium(Amount::PerKg(1.2e-3))
-                .and_then(|c| c.with_sodium(Amount::PerKg(1e-3)))
-                .and_then(|c| c.with_chloride(Amount::PerKg(1.5e-3)))
-                .and_then(|c| c.with_magnesium(Amount::PerKg(0.3e-3)))
-                .and_then(|c| c.with_sulfate(Amount::PerKg(0.2e-3)))
-                .unwrap(),
-        );
+    let ions = common::ions_water();
     let bare = Water::fresh(Conditions::new(12.0, 0.1).unwrap()).unwrap();
     let ph = |v| Measured::ph(v, None).unwrap();
     let ph_total = |v| Measured::ph(v, Some(PhScale::Total)).unwrap();

@@ -433,16 +433,9 @@ mod tests {
                     .with_calcium(Amount::PerKg(calcium))
                     .unwrap(),
             );
-        let basis = FreshBasis::new(&water, false).unwrap();
-        let (a, b) = (
-            Measured::ph(ph, None).unwrap(),
-            Measured::per_kg(Parameter::Alkalinity, ta).unwrap(),
-        );
-        let s = basis
-            .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
-            .unwrap();
-        let ta = crate::speciation::alkalinity::parts(&s.k, s.sol.h, s.sol.dic).total();
-        (basis, s.k, ta)
+        let (basis, k, h, dic) = crate::state::fresh_generic_tests::settled(&water, ph, ta);
+        let ta = crate::speciation::alkalinity::parts(&k, h, dic).total();
+        (basis, k, ta)
     }
 
     /// A grid of invented fresh waters: 1 to 35 °C, conductance 50 to

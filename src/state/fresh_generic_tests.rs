@@ -426,8 +426,10 @@ fn constants_at_derivatives_agree_with_central_differences() {
     assert!(checked > 400, "{checked}");
 }
 
-/// A settled water of each of the grid's waters (pH + alkalinity).
-fn settled(w: &Water, ph: f64, ta: f64) -> (FreshBasis, Constants, f64, f64) {
+/// A water's basis settled at pH and alkalinity (mol/kg): its constants
+/// at the settled ionic strength and free calcium, h and DIC (also the
+/// figures' tests' settled water).
+pub(super) fn settled(w: &Water, ph: f64, ta: f64) -> (FreshBasis, Constants, f64, f64) {
     let basis = FreshBasis::new(w, false).unwrap();
     let (a, b) = (
         Measured::ph(ph, None).unwrap(),

@@ -410,3 +410,22 @@ pub fn run_travertine(args: &[&str], input: Option<&[u8]>) -> std::process::Outp
     drop(stdin);
     child.wait_with_output().expect("the binary ends")
 }
+
+/// An invented fresh water described by its major ions (12 °C; calcium
+/// 1.2, sodium 1.0, chloride 1.5, magnesium 0.3, sulfate 0.2 mmol/kg),
+/// whose ionic strength comes from them: the uncertainty tests' water of
+/// that route.
+pub fn ions_water() -> Water {
+    use travertine::{units::Amount, Composition, Conditions};
+    Water::fresh(Conditions::new(12.0, 0.0).unwrap())
+        .unwrap()
+        .with_composition(
+            Composition::default()
+                .with_calcium(Amount::PerKg(1.2e-3))
+                .and_then(|c| c.with_sodium(Amount::PerKg(1e-3)))
+                .and_then(|c| c.with_chloride(Amount::PerKg(1.5e-3)))
+                .and_then(|c| c.with_magnesium(Amount::PerKg(0.3e-3)))
+                .and_then(|c| c.with_sulfate(Amount::PerKg(0.2e-3)))
+                .unwrap(),
+        )
+}
