@@ -410,10 +410,29 @@ impl FreshBasis {
 }
 
 #[cfg(test)]
-mod tests {
+pub(super) mod tests {
     use super::*;
     use crate::base::units::Amount;
     use crate::sample::{Composition, Conditions, Water};
+
+    /// A water's basis settled at pH and alkalinity (mol/kg): its
+    /// constants at the settled ionic strength and free calcium, h and DIC
+    /// (also the generic tests' settled water).
+    pub(in crate::state) fn settled_water(
+        w: &Water,
+        ph: f64,
+        ta: f64,
+    ) -> (FreshBasis, Constants, f64, f64) {
+        let basis = FreshBasis::new(w, false).unwrap();
+        let (a, b) = (
+            Measured::ph(ph, None).unwrap(),
+            Measured::per_kg(Parameter::Alkalinity, ta).unwrap(),
+        );
+        let s = basis
+            .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
+            .unwrap();
+        (basis, s.k, s.sol.h, s.sol.dic)
+    }
 
     /// A fresh water's basis and its constants at a settled ionic strength
     /// and free calcium, from pH and alkalinity (invented waters).
@@ -433,7 +452,7 @@ mod tests {
                     .with_calcium(Amount::PerKg(calcium))
                     .unwrap(),
             );
-        let (basis, k, h, dic) = crate::state::fresh_generic_tests::settled(&water, ph, ta);
+        let (basis, k, h, dic) = settled_water(&water, ph, ta);
         let ta = crate::speciation::alkalinity::parts(&k, h, dic).total();
         (basis, k, ta)
     }

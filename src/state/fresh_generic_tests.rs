@@ -10,9 +10,8 @@ use crate::base::units::Amount;
 use crate::medium::fresh::{FreshBasis, FreshSources, IonicStrengthRoute};
 use crate::medium::Constants;
 use crate::properties::activity::ActivityModel;
-use crate::sample::measured::{Measured, Parameter};
 use crate::sample::{Composition, Conditions, Water};
-use crate::solve::{Near, RootChoice, SolveOptions};
+use crate::solve::{Near, SolveOptions};
 use crate::speciation::calcium::{free_calcium, ln_omega_at_alkalinity};
 use crate::state::fresh_figures::{saturation_ph_on, saturation_ph_residual};
 
@@ -426,20 +425,9 @@ fn constants_at_derivatives_agree_with_central_differences() {
     assert!(checked > 400, "{checked}");
 }
 
-/// A water's basis settled at pH and alkalinity (mol/kg): its constants
-/// at the settled ionic strength and free calcium, h and DIC (also the
-/// figures' tests' settled water).
-pub(super) fn settled(w: &Water, ph: f64, ta: f64) -> (FreshBasis, Constants, f64, f64) {
-    let basis = FreshBasis::new(w, false).unwrap();
-    let (a, b) = (
-        Measured::ph(ph, None).unwrap(),
-        Measured::per_kg(Parameter::Alkalinity, ta).unwrap(),
-    );
-    let s = basis
-        .converge_pair(&a, &b, RootChoice::Natural, &Near::default())
-        .unwrap();
-    (basis, s.k, s.sol.h, s.sol.dic)
-}
+// A water's basis settled at pH and alkalinity (mol/kg), as the figures'
+// tests settle theirs.
+use super::fresh_figures::tests::settled_water as settled;
 
 #[test]
 fn ion_sum_and_free_calcium_derivatives_agree_with_central_differences() {
