@@ -1193,17 +1193,10 @@ impl PreparedWater {
                 })
             }
         };
-        for &(which, slot) in &seeds.constants {
-            // pK raised by a source at zero: K times 10^−δ at δ = 0, a
-            // factor of exactly 1 with the slope −ln 10 in its slot, the
-            // number `pk_in_place` would make (without its exponential).
-            let mut factor = Tangent::<N>::new(1.0, [0.0; N]);
-            if let Some(d) = factor.d.get_mut(slot) {
-                *d = -std::f64::consts::LN_10;
-            }
-            if let Err(e) = k.scale_in_place(which, factor) {
-                return Some(Err(e));
-            }
+        // pK raised by each source at zero: K times 10^−δ at δ = 0, the
+        // number `pk_in_place` would make (without its exponential).
+        if let Err(e) = k.seed_pks(&seeds.constants) {
+            return Some(Err(e));
         }
         for &(which, slot) in &seeds.totals {
             if !k.shift_saline_total(which, Tangent::source(0.0, slot) * 1e-6) {

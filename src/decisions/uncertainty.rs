@@ -1302,10 +1302,10 @@ impl Problem {
         // else the covered ones side by side, covered[i] in slot i, their
         // rows spread onto every source's place at the end.
         let side_by_side = m > TANGENT_WIDTH;
-        let (slots, width): (Vec<(usize, usize)>, usize) = if side_by_side {
-            (covered.iter().copied().enumerate().collect(), covered.len())
+        let slots: Vec<(usize, usize)> = if side_by_side {
+            covered.iter().copied().enumerate().collect()
         } else {
-            (covered.iter().map(|&j| (j, j)).collect(), m)
+            covered.iter().map(|&j| (j, j)).collect()
         };
         let seeds = self.seeds(slots.iter().copied(), sources);
         let mut us = [0.0; TANGENT_WIDTH];
@@ -1315,22 +1315,19 @@ impl Problem {
             }
         }
         // Room for every output of the list, without growing on the way.
+        // Each row is kept whole, the width of a pass (a copy of a fixed
+        // size, without a call): the slots beyond the sources hold zeros,
+        // and the result reads its rows with that stride.
         let mut outputs = Vec::with_capacity(128);
-        let mut contributions = Vec::with_capacity(128 * width + TANGENT_WIDTH);
+        let mut rows: Vec<[f64; TANGENT_WIDTH]> = Vec::with_capacity(128);
         // Whether every derivative of a quantity with a value is finite.
         let mut finite = true;
         let mut each = |t: Option<&Tangents>| {
             let mut c = [0.0; TANGENT_WIDTH];
             let u = t.map(|t| {
                 contributions_of(t, &us, &mut c);
-                // u² in the order of the sources (the slots beyond them
-                // hold zeros, as do those of sources that move nothing), as
-                // the general way sums it. It is finite exactly where every
-                // contribution is.
-                let mut u2 = 0.0;
-                for c in &c {
-                    u2 += c * c;
-                }
+                // It is finite exactly where every contribution is.
+                let u2 = sum_of_squares(&c);
                 finite &= u2.is_finite();
                 u2.sqrt()
             });
@@ -1338,10 +1335,7 @@ impl Problem {
                 value: t.map(|t| t.v),
                 u,
             });
-            // A whole row of the width, less the slots beyond the covered
-            // sources: a copy of a fixed size, without a call.
-            contributions.extend_from_slice(&c);
-            contributions.truncate(contributions.len() - (TANGENT_WIDTH - width));
+            rows.push(c);
         };
         let read =
             self.prepared
@@ -1353,12 +1347,12 @@ impl Problem {
             Some(Ok(false)) => return Err(false),
             _ => return Err(true),
         }
-        if side_by_side {
+        let (contributions, stride) = if side_by_side {
             // Each row onto every source's place (zero where a source
             // moves nothing).
             let mut spread = Vec::with_capacity(outputs.len() * m);
             let mut row = vec![0.0; m];
-            for c in contributions.chunks_exact(width) {
+            for c in &rows {
                 for (&j, c) in covered.iter().zip(c) {
                     if let Some(x) = row.get_mut(j) {
                         *x = *c;
@@ -1366,12 +1360,15 @@ impl Problem {
                 }
                 spread.extend_from_slice(&row);
             }
-            contributions = spread;
-        }
+            (spread, m)
+        } else {
+            (rows.into_flattened(), TANGENT_WIDTH)
+        };
         Ok(Propagation {
             sources: sources.iter().map(|&(s, u, _)| (s, u)).collect(),
             outputs,
             contributions,
+            stride,
         })
     }
 }
@@ -1400,6 +1397,7 @@ fn assembled(
         sources,
         outputs,
         contributions,
+        stride: m,
     }
 }
 
@@ -1502,9 +1500,11 @@ pub struct Propagation {
     pub sources: Vec<(Source, f64)>,
     /// One entry per quantity, in the order the quantities were given.
     pub outputs: Vec<Propagated>,
-    /// Each quantity's contributions (a row of `sources.len()` per
-    /// quantity, in the order of `outputs`).
+    /// Each quantity's contributions (a row of `stride` per quantity, in
+    /// the order of `outputs`, its first `sources.len()` the sources').
     contributions: Vec<f64>,
+    /// The length of a row of `contributions`, at least `sources.len()`.
+    stride: usize,
 }
 
 impl Propagation {
@@ -1530,7 +1530,7 @@ impl Propagation {
     pub fn contributions(&self, k: usize) -> &[f64] {
         let m = self.sources.len();
         self.contributions
-            .get(k * m..(k + 1) * m)
+            .get(k * self.stride..k * self.stride + m)
             .filter(|_| k < self.outputs.len())
             .unwrap_or(&[])
     }
@@ -1896,6 +1896,19 @@ pub fn propagate_quantities<Q: Quantities>(
         }
     }
     Ok(assembled(&sources, base, &lost, contributions))
+}
+
+/// Σ c², u² of a row of contributions: two sums side by side, the even
+/// and the odd slots (the chain of additions half as long, the order of
+/// the sources kept within each), added at the end.
+#[inline(always)]
+fn sum_of_squares(c: &[f64; TANGENT_WIDTH]) -> f64 {
+    let mut lanes = [0.0; 2];
+    for pair in c.chunks_exact(2) {
+        lanes[0] += pair[0] * pair[0];
+        lanes[1] += pair[1] * pair[1];
+    }
+    lanes[0] + lanes[1]
 }
 
 /// Into `c`, the contributions of a quantity on tangents `t` from the

@@ -4,7 +4,7 @@
 use super::constants::{scale_factors, Constants, ScaleLink};
 use crate::base::error::{Error, Result};
 use crate::base::field::Field;
-use crate::base::numeric::Real;
+use crate::base::numeric::{Real, Tangent};
 use crate::properties::scales::PhScale;
 use crate::sample::inputs::Total;
 
@@ -213,26 +213,7 @@ impl<R: Real> Constants<R> {
                 ),
             });
         }
-        let slot = match which {
-            C::K0 => &mut self.k0,
-            C::K1 => &mut self.k1,
-            C::K2 => &mut self.k2,
-            C::Kb => &mut self.kb,
-            C::Kw => &mut self.kw,
-            C::KspCalcite => &mut self.ksp_calcite,
-            C::KspAragonite => &mut self.ksp_aragonite,
-            C::Ks => &mut self.ks_free,
-            C::Kf => &mut self.kf_free,
-            C::Kp1 => &mut self.kp1,
-            C::Kp2 => &mut self.kp2,
-            C::Kp3 => &mut self.kp3,
-            C::Ksi => &mut self.ksi,
-            C::Knh4 => &mut self.knh4,
-            C::Kh2s => &mut self.kh2s,
-            C::BoronTotal => &mut self.totals.boron_mol_kg,
-            C::CaHco3Pair => &mut self.k_cahco3,
-            C::CaCo3Pair => &mut self.k_caco3,
-        };
+        let slot = self.number_mut(which);
         let before = *slot;
         let after = before * factor;
         let (f, a) = (factor.value(), after.value());
@@ -343,6 +324,32 @@ impl<R: Real> Constants<R> {
         };
     }
 
+    /// The number of constant `which` (the total boron for
+    /// [`ConstantName::BoronTotal`]), to scale in place.
+    fn number_mut(&mut self, which: ConstantName) -> &mut R {
+        use ConstantName as C;
+        match which {
+            C::K0 => &mut self.k0,
+            C::K1 => &mut self.k1,
+            C::K2 => &mut self.k2,
+            C::Kb => &mut self.kb,
+            C::Kw => &mut self.kw,
+            C::KspCalcite => &mut self.ksp_calcite,
+            C::KspAragonite => &mut self.ksp_aragonite,
+            C::Ks => &mut self.ks_free,
+            C::Kf => &mut self.kf_free,
+            C::Kp1 => &mut self.kp1,
+            C::Kp2 => &mut self.kp2,
+            C::Kp3 => &mut self.kp3,
+            C::Ksi => &mut self.ksi,
+            C::Knh4 => &mut self.knh4,
+            C::Kh2s => &mut self.kh2s,
+            C::BoronTotal => &mut self.totals.boron_mol_kg,
+            C::CaHco3Pair => &mut self.k_cahco3,
+            C::CaCo3Pair => &mut self.k_caco3,
+        }
+    }
+
     /// Refuses constants whose derived values a perturbation of `which`
     /// took out of range (a K1e that overflows, a scale factor of zero).
     fn check_derived(&self, which: ConstantName) -> Result<()> {
@@ -393,6 +400,56 @@ impl<R: Real> Constants<R> {
 /// ```
 /// assert_eq!(travertine::medium::ConstantName::K1.to_string(), "K1");
 /// ```
+impl<const N: usize> Constants<Tangent<N>> {
+    /// The pK of each constant of `seeds` a source at zero on its slot
+    /// (the total boron: log10 of its factor), for a pass on tangents:
+    /// each constant scaled by 10^(−δ) at δ = 0, a factor of exactly 1 with
+    /// the slope −ln 10 in its slot, as [`Constants::scale_in_place`]
+    /// scales it. The values do not move (K · 1 is K), so nothing derived
+    /// from them can leave its range and nothing is checked again; each
+    /// constant's number gains −ln 10 · K in its slot (K · (1 + ε) to
+    /// first order), a solubility product's log10 −ln 10 · log10 e, and
+    /// the apparent constants that follow from K1, K2 and the calcium ion
+    /// pairs are derived again once for all of them. KS and KF, whose
+    /// pH-scale factors follow, take [`Constants::scale_in_place`] itself.
+    ///
+    /// # Errors
+    /// As [`Constants::scale_in_place`] for KS and KF.
+    pub(crate) fn seed_pks(&mut self, seeds: &[(ConstantName, usize)]) -> Result<()> {
+        use ConstantName as C;
+        let slope = -std::f64::consts::LN_10;
+        let mut apparent = false;
+        for &(which, slot) in seeds {
+            if matches!(which, C::Ks | C::Kf) {
+                let mut factor = Tangent::<N>::new(1.0, [0.0; N]);
+                if let Some(d) = factor.d.get_mut(slot) {
+                    *d = slope;
+                }
+                self.scale_in_place(which, factor)?;
+                continue;
+            }
+            let k = self.number_mut(which);
+            let v = k.v;
+            if let Some(d) = k.d.get_mut(slot) {
+                *d += slope * v;
+            }
+            let log = match which {
+                C::KspCalcite => self.logs.as_mut().map(|l| &mut l.ksp_calcite),
+                C::KspAragonite => self.logs.as_mut().map(|l| &mut l.ksp_aragonite),
+                _ => None,
+            };
+            if let Some(d) = log.and_then(|l| l.d.get_mut(slot)) {
+                *d += slope * std::f64::consts::LOG10_E;
+            }
+            apparent |= matches!(which, C::K1 | C::K2 | C::CaHco3Pair | C::CaCo3Pair);
+        }
+        if apparent {
+            self.set_free_calcium(self.calcium_free_mol_kg);
+        }
+        Ok(())
+    }
+}
+
 impl std::fmt::Display for ConstantName {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         f.write_str(self.name())
@@ -430,6 +487,58 @@ mod tests {
                 }
                 assert!((stored.ksp_calcite - evaluated.ksp_calcite).abs() < 1e-12);
                 assert!((stored.ksp_aragonite - evaluated.ksp_aragonite).abs() < 1e-12);
+            }
+        }
+    }
+
+    /// Seeding pK sources on tangents all at once gives the very numbers
+    /// that scaling each constant by a factor of 1 with the slope −ln 10
+    /// in its slot gives, one at a time (the values bit for bit, the
+    /// derivatives to rounding), in both media.
+    #[test]
+    fn seeded_pks_are_scalings_by_one_on_tangents() {
+        let fresh = crate::sample::Water::fresh(Conditions::new(15.0, 0.3).unwrap())
+            .unwrap()
+            .with_composition(
+                Composition::default()
+                    .with_calcium(crate::units::Amount::PerKg(1e-3))
+                    .unwrap(),
+            )
+            .constants()
+            .unwrap();
+        for k in [sea_water(0.0), sea_water(2000.0), fresh] {
+            let seeds: Vec<(ConstantName, usize)> = ConstantName::ALL
+                .iter()
+                .enumerate()
+                .map(|(slot, &c)| (c, slot))
+                .collect();
+            let lifted: Constants<Tangent<18>> = k.lift();
+            let mut seeded = lifted.clone();
+            seeded.seed_pks(&seeds).unwrap();
+            let mut scaled = lifted;
+            for &(which, slot) in &seeds {
+                let mut factor = Tangent::<18>::new(1.0, [0.0; 18]);
+                factor.d[slot] = -std::f64::consts::LN_10;
+                scaled.scale_in_place(which, factor).unwrap();
+            }
+            let values = |c: &Constants<Tangent<18>>| c.map_numbers(|x| x.v);
+            assert_eq!(values(&seeded), values(&scaled));
+            let derivatives = |c: &Constants<Tangent<18>>| {
+                let all = std::cell::RefCell::new(Vec::new());
+                let _ = c.map_numbers(|x| {
+                    all.borrow_mut().extend(x.d);
+                    x.v
+                });
+                all.into_inner()
+            };
+            let (a, b) = (derivatives(&seeded), derivatives(&scaled));
+            assert_eq!(a.len(), b.len());
+            assert!(a.iter().any(|d| *d != 0.0));
+            for (x, y) in a.iter().zip(&b) {
+                assert!(
+                    (x - y).abs() <= 1e-12 * x.abs().max(y.abs()),
+                    "{x} against {y}"
+                );
             }
         }
     }
