@@ -25,6 +25,7 @@ use crate::sample::Conditions;
 use crate::solve::{solve_near, Near, Solution, SolveOptions};
 use crate::state::exchange::{medium_scale, Exchange};
 use crate::state::State;
+use std::sync::Arc;
 
 /// Salinities where both media apply and a solve is checked against the
 /// other medium (see DEVELOPERS.md, "Fresh and saline media in the overlap").
@@ -119,11 +120,31 @@ impl Prepared {
 /// }
 /// # Ok::<(), travertine::Error>(())
 /// ```
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone)]
 #[non_exhaustive]
 pub struct PreparedWater {
     water: Water,
     prepared: Prepared,
+    /// Sea water's constants on tangents of the temperature (slot 0) and
+    /// salinity (slot 1), their values those of `prepared`, where they were
+    /// made with them ([`Water::prepare_with_slopes`]): a pass on tangents
+    /// of those sources then need not evaluate them again.
+    slopes: Option<Arc<Constants<Tangent<2>>>>,
+    /// The constants moved from those the water's fits give, in order,
+    /// each by its shift of pK ([`PreparedWater::with_constants_perturbed`];
+    /// none for a water as prepared): a water made again at other
+    /// conditions moves them again, and a pass on tangents that evaluates
+    /// them again from the water serves only where there are none.
+    moves: Vec<(ConstantName, f64)>,
+}
+
+/// Two prepared waters are equal where their waters and constants are
+/// (the constants on tangents kept beside them are a cache of the same
+/// numbers).
+impl PartialEq for PreparedWater {
+    fn eq(&self, other: &Self) -> bool {
+        self.water == other.water && self.prepared == other.prepared
+    }
 }
 
 impl Water {
@@ -142,6 +163,34 @@ impl Water {
         Ok(PreparedWater {
             water: self.clone(),
             prepared: prepared(self)?,
+            slopes: None,
+            moves: Vec::new(),
+        })
+    }
+
+    /// [`Water::prepare`], a sea water's constants made on tangents of the
+    /// temperature and salinity and kept beside their values (which are
+    /// those [`Water::prepare`] makes, bit for bit): for a propagation of
+    /// uncertainties, whose pass on tangents of those sources then does
+    /// not evaluate every constant a second time. A fresh water is
+    /// prepared as by [`Water::prepare`].
+    pub(crate) fn prepare_with_slopes(&self) -> Result<PreparedWater> {
+        if self.medium() != Medium::Saline {
+            return self.prepare();
+        }
+        let c = self.conditions();
+        let on_slopes = Constants::saline_at(
+            c,
+            Tangent::<2>::source(c.temperature_c(), 0),
+            Tangent::<2>::source(c.salinity(), 1),
+            self.composition(),
+            self.fits(),
+        )?;
+        Ok(PreparedWater {
+            water: self.clone(),
+            prepared: Prepared::Saline(on_slopes.values()),
+            slopes: Some(Arc::new(on_slopes)),
+            moves: Vec::new(),
         })
     }
 
@@ -318,10 +367,20 @@ impl PreparedWater {
             Prepared::Saline(k) => Prepared::Saline(k.clone().with_pk(which, delta_pk)?),
             Prepared::Fresh(b) => Prepared::Fresh(b.clone().with_pk(which, delta_pk)?),
         };
+        let mut moves = self.moves.clone();
+        moves.push((which, delta_pk));
         Ok(PreparedWater {
             water: self.water.clone(),
             prepared,
+            slopes: None,
+            moves,
         })
+    }
+
+    /// The constants moved from those of the water's fits, in order, each
+    /// by its shift of pK (see [`PreparedWater::with_constants_perturbed`]).
+    pub(crate) fn moves(&self) -> &[(ConstantName, f64)] {
+        &self.moves
     }
 
     /// The totals of the acid systems and calcium (mol/kg), as a solve of
@@ -978,6 +1037,47 @@ impl Sample {
 mod tests {
     use super::*;
 
+    /// A sea water prepared with its constants on tangents of the
+    /// temperature and salinity has the very constants (warnings
+    /// included) of one prepared without them: in range, beyond the range
+    /// of its fits (warnings), under pressure, with nutrients, and at a low
+    /// salinity.
+    #[test]
+    fn slopes_leave_the_prepared_constants_as_they_are() {
+        use crate::units::Amount;
+        let waters = [
+            (25.0, 35.0, 0.0),
+            (45.0, 35.0, 0.0),
+            (2.0, 30.0, 3000.0),
+            (20.0, 2.0, 0.0),
+        ];
+        for (i, (t, s, p)) in waters.into_iter().enumerate() {
+            let c = Conditions::new(t, s)
+                .and_then(|c| c.with_pressure_dbar(p))
+                .unwrap();
+            let mut w = Water::saline(c).unwrap();
+            if i == 2 {
+                w = w.with_composition(
+                    crate::sample::Composition::default()
+                        .with_phosphate(Amount::PerKg(2e-6))
+                        .and_then(|c| c.with_silicate(Amount::PerKg(40e-6)))
+                        .unwrap(),
+                );
+            }
+            let (with, without) = (w.prepare_with_slopes().unwrap(), w.prepare().unwrap());
+            assert!(with.slopes.is_some());
+            let (Prepared::Saline(a), Prepared::Saline(b)) = (&with.prepared, &without.prepared)
+            else {
+                panic!("sea water is prepared as sea water");
+            };
+            assert_eq!(a, b, "{t} °C, salinity {s}, {p} dbar");
+            // 45 °C is beyond the range of the default fits.
+            if i == 1 {
+                assert!(!a.warnings().is_empty());
+            }
+        }
+    }
+
     #[test]
     fn a_prepared_water_can_be_shared_between_threads() {
         fn shareable<T: Send + Sync>() {}
@@ -1166,21 +1266,32 @@ impl PreparedWater {
         let plain: Constants<Tangent<2>> = k0.lift();
         let mut k: Constants<Tangent<N>> = match (seeds.temperature, seeds.salinity) {
             (None, None) => k0.lift(),
+            // Constants moved from those of the water's fits are not
+            // evaluated again from the water.
+            _ if !self.moves.is_empty() => return None,
             (t, s) => {
                 // Every constant evaluated again by the one evaluation the
                 // plain constants came from, on tangents of the temperature
                 // and salinity alone (two slots, a seventh of the work),
-                // then spread onto their slots.
-                let c = self.water.conditions();
-                let k = match Constants::saline_at(
-                    c,
-                    Tangent::<2>::source(c.temperature_c(), 0),
-                    Tangent::<2>::source(c.salinity(), 1),
-                    self.water.composition(),
-                    self.water.fits(),
-                ) {
-                    Ok(k) => k,
-                    Err(e) => return Some(Err(e)),
+                // then spread onto their slots; made once where the water
+                // was prepared with them.
+                let made;
+                let k = match &self.slopes {
+                    Some(k) => k.as_ref(),
+                    None => {
+                        let c = self.water.conditions();
+                        made = match Constants::saline_at(
+                            c,
+                            Tangent::<2>::source(c.temperature_c(), 0),
+                            Tangent::<2>::source(c.salinity(), 1),
+                            self.water.composition(),
+                            self.water.fits(),
+                        ) {
+                            Ok(k) => k,
+                            Err(e) => return Some(Err(e)),
+                        };
+                        &made
+                    }
                 };
                 k.map_numbers(|x| {
                     let mut d = [0.0; N];
@@ -1232,6 +1343,11 @@ impl PreparedWater {
         with: impl FnOnce(&mut State<Tangent<N>>) -> Option<Result<T>>,
     ) -> Option<Result<T>> {
         use crate::medium::fresh::{FreshSources, IonicStrengthRoute};
+        // The basis is made again from the water: constants moved from
+        // those of its fits would be lost.
+        if !self.moves.is_empty() {
+            return None;
+        }
         let water = &self.water;
         let c = water.conditions();
         let f = water.fresh_options();

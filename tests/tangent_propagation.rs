@@ -708,3 +708,68 @@ proptest::proptest! {
         assert_on_tangents(&problem, &u, "the domain");
     }
 }
+
+/// A prepared water whose constants were moved is propagated about those
+/// moved constants, for every source (the doc of
+/// `Problem::from_prepared`): the values are those of its own solve, and
+/// the temperature's contribution is the slope of solves of the same
+/// moved constants at other temperatures (a central difference of waters
+/// prepared at T ± 0.001 °C, K1 moved again in each), in both media. The
+/// temperature moves the constants, so neither the pass on tangents nor
+/// the differences may make them again from the water's fits alone.
+#[test]
+fn moved_constants_stay_moved_for_the_temperature_too() {
+    let pond_at = |t: f64| {
+        Water::fresh(Conditions::new(t, 0.2).unwrap())
+            .unwrap()
+            .with_composition(
+                Composition::default()
+                    .with_calcium(Amount::PerKg(1e-3))
+                    .unwrap(),
+            )
+    };
+    let sea_at = |t: f64| sea(t, 35.0, 0.0);
+    type WaterAt<'a> = &'a dyn Fn(f64) -> Water;
+    let cases: [(WaterAt, Measured, f64); 2] = [
+        (
+            &sea_at,
+            Measured::ph(8.05, Some(PhScale::Total)).unwrap(),
+            25.0,
+        ),
+        (&pond_at, Measured::ph(7.6, None).unwrap(), 15.0),
+    ];
+    let ta = Measured::alkalinity_umol_kg(2000.0).unwrap();
+    for (water_at, ph, t) in cases {
+        let moved = |t: f64| {
+            water_at(t)
+                .prepare()
+                .and_then(|p| p.with_constants_perturbed(ConstantName::K1, 0.05))
+                .unwrap()
+        };
+        let problem = Problem::from_prepared(moved(t), ph, ta);
+        let u = Uncertainties::new()
+            .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+            .and_then(|u| u.with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0)))
+            .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+            .unwrap();
+        let r = propagate_quantities(&problem, &u, OutputQuantities(&[Output::Pco2])).unwrap();
+        let own = moved(t).solve(ph, ta).unwrap();
+        assert_eq!(r.outputs[0].value, Some(own.pco2_uatm));
+        let h = 1e-3;
+        let slope = (moved(t + h).solve(ph, ta).unwrap().pco2_uatm
+            - moved(t - h).solve(ph, ta).unwrap().pco2_uatm)
+            / (2.0 * h);
+        let j = r
+            .sources
+            .iter()
+            .position(|(s, _)| *s == Source::Input(Input::Temperature))
+            .unwrap();
+        let c = r.contributions(0)[j];
+        assert!(
+            (c - slope * 0.1).abs() <= 1e-5 * c.abs(),
+            "{}: {c} against {}",
+            own.medium.name(),
+            slope * 0.1
+        );
+    }
+}

@@ -408,21 +408,29 @@ impl Uncertainties {
     /// assert!(Uncertainties::new().without_constants().constants_in(Medium::Fresh).is_empty());
     /// ```
     pub fn constants_in(&self, medium: Medium) -> Vec<(ConstantName, Size)> {
-        let defaults: &[(ConstantName, Size)] = match (self.constants_off, medium) {
+        // Sized once (a filtered collection would grow on the way).
+        let mut all = Vec::with_capacity(self.defaults_in(medium).len() + self.constants.len());
+        all.extend(self.constants_of(medium));
+        all
+    }
+
+    /// The defaults of the constants in `medium` (none where they are
+    /// switched off).
+    fn defaults_in(&self, medium: Medium) -> &'static [(ConstantName, Size)] {
+        match (self.constants_off, medium) {
             (true, _) => &[],
             (false, Medium::Saline) => &SALINE_DEFAULTS,
             (false, Medium::Fresh) => &FRESH_DEFAULTS,
-        };
-        // Sized once (a filtered collection would grow on the way).
-        let mut all = Vec::with_capacity(defaults.len() + self.constants.len());
-        all.extend(
-            defaults
-                .iter()
-                .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
-                .copied(),
-        );
-        all.extend(self.constants.iter().copied());
-        all
+        }
+    }
+
+    /// [`Uncertainties::constants_in`], one at a time (without a list).
+    fn constants_of(&self, medium: Medium) -> impl Iterator<Item = (ConstantName, Size)> + '_ {
+        self.defaults_in(medium)
+            .iter()
+            .filter(|(c, _)| !self.constants.iter().any(|(d, _)| d == c))
+            .chain(&self.constants)
+            .copied()
     }
 }
 
@@ -474,7 +482,7 @@ impl Problem {
     /// # Errors
     /// As [`Water::prepare`].
     pub fn new(water: &Water, a: Measured, b: Measured) -> Result<Self> {
-        Ok(Problem::from_prepared(water.prepare()?, a, b))
+        Ok(Problem::from_prepared(water.prepare_with_slopes()?, a, b))
     }
 
     /// The pair `a`, `b` in a water already prepared (its constants made),
@@ -849,7 +857,12 @@ impl Problem {
             if let Some(t) = fresh.tds_mg_l.filter(|_| base.medium() == Medium::Fresh) {
                 w = w.with_tds_mg_l(t)?;
             }
-            Some(w.prepare()?)
+            // Constants the prepared water had moved are moved again.
+            let mut moved = w.prepare()?;
+            for &(k, d) in self.prepared.moves() {
+                moved = moved.with_constants_perturbed(k, d)?;
+            }
+            Some(moved)
         } else {
             None
         };
@@ -1147,6 +1160,9 @@ impl Problem {
         let m = sources.len();
         let water = self.prepared.water();
         let fresh = water.medium() == Medium::Fresh;
+        // Found once, not at every source.
+        let calcium = self.prepared.totals().calcium_mol_kg > 0.0;
+        let no_reading = water.given_conductivity().is_none();
         let mut covered = Vec::with_capacity(m);
         covered.extend((0..m).filter(|&j| {
             let source = sources[j].0;
@@ -1158,9 +1174,7 @@ impl Problem {
                     // In fresh water calcium alone (the other totals move
                     // the ions of the ionic strength), and a calcium the
                     // water has.
-                    Source::Input(Input::Total(Total::Calcium)) => {
-                        self.prepared.totals().calcium_mol_kg > 0.0
-                    }
+                    Source::Input(Input::Total(Total::Calcium)) => calcium,
                     Source::Input(Input::Total(t)) => {
                         !fresh
                             && matches!(
@@ -1175,17 +1189,13 @@ impl Problem {
                     // Where no conductivity reading is moved with them
                     // (a reading at the sample temperature, a salinity
                     // computed from one).
-                    Source::Input(Input::Temperature | Input::Salinity) => {
-                        water.given_conductivity().is_none()
-                    }
+                    Source::Input(Input::Temperature | Input::Salinity) => no_reading,
                     // The wind over the water (`value_of` refuses it
                     // without one).
                     Source::Input(Input::Wind) => true,
                     // The number a fresh water's fixed ionic strength is
                     // made from (`value_of` refuses it elsewhere).
-                    Source::Input(Input::IonicStrength | Input::Tds) => {
-                        fresh && water.given_conductivity().is_none()
-                    }
+                    Source::Input(Input::IonicStrength | Input::Tds) => fresh && no_reading,
                     _ => false,
                 }
         }));
@@ -1302,14 +1312,13 @@ impl Problem {
         // else the covered ones side by side, covered[i] in slot i, their
         // rows spread onto every source's place at the end.
         let side_by_side = m > TANGENT_WIDTH;
-        let slots: Vec<(usize, usize)> = if side_by_side {
-            covered.iter().copied().enumerate().collect()
-        } else {
-            covered.iter().map(|&j| (j, j)).collect()
-        };
-        let seeds = self.seeds(slots.iter().copied(), sources);
+        let slots = covered
+            .iter()
+            .enumerate()
+            .map(|(i, &j)| (if side_by_side { i } else { j }, j));
+        let seeds = self.seeds(slots.clone(), sources);
         let mut us = [0.0; TANGENT_WIDTH];
-        for &(slot, j) in &slots {
+        for (slot, j) in slots {
             if let Some(u) = us.get_mut(slot) {
                 *u = sources[j].1;
             }
@@ -1582,7 +1591,7 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
     // The ion pairs exist only in fresh water with calcium; elsewhere their
     // constants are not evaluated and would move nothing.
     let pairs = medium == Medium::Fresh && problem.prepared.totals().calcium_mol_kg > 0.0;
-    for (k, size) in u.constants_in(medium) {
+    for (k, size) in u.constants_of(medium) {
         if matches!(k, ConstantName::CaHco3Pair | ConstantName::CaCo3Pair) && !pairs {
             continue;
         }

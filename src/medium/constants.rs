@@ -275,6 +275,17 @@ impl Constants {
     }
 }
 
+impl<const N: usize> Constants<crate::base::numeric::Tangent<N>> {
+    /// The values of these constants on tangents, their warnings kept: on a
+    /// tangent every value is that of the same evaluation on `f64`, so the
+    /// numbers are those [`Constants::saline`] gives for the same water.
+    pub(crate) fn values(&self) -> Constants {
+        let mut k = self.map_numbers(|x| x.v);
+        k.warnings.clone_from(&self.warnings);
+        k
+    }
+}
+
 impl<R: Real> Constants<R> {
     /// These constants with every number mapped by `f` (to another type),
     /// without the warnings: for example constants on a two-slot tangent

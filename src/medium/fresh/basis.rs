@@ -306,7 +306,9 @@ impl<R: Real> FreshBasis<R> {
         let mut t = self.totals;
         t.calcium_mol_kg = ca_total;
         let zero = R::constant(0.0);
-        let on = |total: R, k: R| if total.value() > 0.0 { k } else { zero };
+        // Made only for a system the water has (on tangents a quotient is
+        // far from free).
+        let on = |total: R, k: &dyn Fn() -> R| if total.value() > 0.0 { k() } else { zero };
         // Concentration constants on free [H+]: [H][SO4]/[HSO4] = KS γ1/(γH γ2),
         // [H][F]/[HF] = KF/(γH γ1).
         let ks_free = self.ks * g1 / (gh * g2);
@@ -332,14 +334,14 @@ impl<R: Real> FreshBasis<R> {
             pair_co3: zero,
             calcium_free_mol_kg: zero,
             ionic_strength: i,
-            kb: on(t.boron_mol_kg, self.kb / g1),
+            kb: on(t.boron_mol_kg, &|| self.kb / g1),
             kw: self.kw / g1,
-            kp1: on(t.phosphate_mol_kg, self.kp.0 / g1),
-            kp2: on(t.phosphate_mol_kg, self.kp.1 * g1 / g2),
-            kp3: on(t.phosphate_mol_kg, self.kp.2 * g2 / g3),
-            ksi: on(t.silicate_mol_kg, self.ksi / g1),
-            knh4: on(t.ammonia_mol_kg, self.knh4 * g1),
-            kh2s: on(t.sulfide_mol_kg, self.kh2s / g1),
+            kp1: on(t.phosphate_mol_kg, &|| self.kp.0 / g1),
+            kp2: on(t.phosphate_mol_kg, &|| self.kp.1 * g1 / g2),
+            kp3: on(t.phosphate_mol_kg, &|| self.kp.2 * g2 / g3),
+            ksi: on(t.silicate_mol_kg, &|| self.ksi / g1),
+            knh4: on(t.ammonia_mol_kg, &|| self.knh4 * g1),
+            kh2s: on(t.sulfide_mol_kg, &|| self.kh2s / g1),
             ks_free,
             kf_free,
             ksp_calcite: self.ksp_calcite / (gca * g2),
