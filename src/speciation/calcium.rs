@@ -256,13 +256,15 @@ pub(crate) fn ln_omega_at_alkalinity<R: Real>(
 /// d ln Ω/dx = −(S′ w + S w′)/(1 + S w) + S′/S − 2,   d ln Ω/dpH = −ln 10 · d ln Ω/dx
 /// ```
 /// (implicit differentiation; our own derivation). The value is the same
-/// number [`ln_omega_at_alkalinity`] returns.
+/// number [`ln_omega_at_alkalinity`] returns; the slope is a number, made
+/// from the values (a Newton step and an implicit differentiation read no
+/// more of it), the same on `f64`.
 pub(crate) fn ln_omega_and_slope_at_alkalinity<R: Real>(
     k: &Constants<R>,
     ta: R,
     ca_total: R,
     h: R,
-) -> Option<(R, R)> {
+) -> Option<(R, f64)> {
     let (nc, dnc) = crate::speciation::alkalinity::non_carbonate(k, h);
     let carbon = ta - nc;
     if carbon.value() <= 0.0 {
@@ -281,19 +283,29 @@ pub(crate) fn ln_omega_and_slope_at_alkalinity<R: Real>(
     if !ln.value().is_finite() {
         return None;
     }
-    let d_carbon = -h * dnc;
+    // The slope in numbers, from the values (a Newton step and an implicit
+    // differentiation read its value alone; on f64 the same operations).
+    let (h, u, v, a, b, ca_total) = (
+        h.value(),
+        u.value(),
+        v.value(),
+        a.value(),
+        b.value(),
+        ca_total.value(),
+    );
+    let (w, c, q, s, one_sw) = (w.value(), c.value(), q.value(), s.value(), one_sw.value());
+    let d_carbon = -h * dnc.value();
     let dc = -u - v * 4.0;
     let dw = -a * u - b * 2.0 * v;
     let dq = -ca_total * (a * u + b * 4.0 * v);
-    let left = carbon - s * c;
+    let left = carbon.value() - s * c;
     let g_s = -c * one_sw + left * w - q;
     let g_x = (d_carbon - s * dc) * one_sw + left * s * dw - s * dq;
     let ds = -g_x / g_s;
     let d_ln_dx = -(ds * w + s * dw) / one_sw + ds / s - 2.0;
     let slope = d_ln_dx * -std::f64::consts::LN_10;
-    slope.value().is_finite().then_some((ln, slope))
+    slope.is_finite().then_some((ln, slope))
 }
-
 /// Free CO3-- at h and DIC (the carbon-balance total less the CaCO3⁰ pair).
 pub(crate) fn free_carbonate<R: Real>(k: &Constants<R>, h: R, dic: R) -> R {
     let k12 = k.k1e() * k.k2e();

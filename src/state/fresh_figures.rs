@@ -54,18 +54,18 @@ pub(crate) fn saturation_ph_estimate(k: &Constants, ta: f64, ca_total: f64) -> O
 /// NBS pH `phs` held fixed (h = 10^(−pHs), a constant), for alkalinity `ta`
 /// and total calcium `ca_total` (mol/kg) at the apparent constants of `k`
 /// ([`ln_omega_at_alkalinity`], the function whose root the pHs searches
-/// find), with its slope ∂ ln Ω/∂pH
-/// ([`ln_omega_and_slope_at_alkalinity`]; the slope's value is read, as
-/// the slope of an implicit differentiation). At the settled pHs (found on
+/// find), with its slope ∂ ln Ω/∂pH as a number
+/// ([`ln_omega_and_slope_at_alkalinity`]; the slope of an implicit
+/// differentiation needs its value alone). At the settled pHs (found on
 /// `f64`) the residual's derivatives are ∂F/∂sources, and
-/// `R::root(phs, residual, slope.value())` gives pHs with its derivatives
+/// `R::root(phs, residual, slope)` gives pHs with its derivatives
 /// ([`saturation_ph_on`]). `None` where ln Ω is not defined there.
 pub(crate) fn saturation_ph_residual<R: Real>(
     k: &Constants<R>,
     ta: R,
     ca_total: R,
     phs: f64,
-) -> Option<(R, R)> {
+) -> Option<(R, f64)> {
     let h = R::constant(crate::base::numeric::pow10(-phs));
     ln_omega_and_slope_at_alkalinity(k, ta, ca_total, h)
 }
@@ -82,7 +82,6 @@ pub(crate) fn saturation_ph_on<R: Real>(
     phs: f64,
 ) -> Option<R> {
     let (residual, slope) = saturation_ph_residual(k, ta, ca_total, phs)?;
-    let slope = slope.value();
     (slope != 0.0).then(|| R::root(phs, residual, slope))
 }
 

@@ -544,7 +544,7 @@ fn saturation_ph_on_tangents_agrees_with_the_search_moved() {
                 );
             let (rd, sd) = saturation_ph_residual(&kd, tad, cad, phs).unwrap();
             assert_eq!(
-                (rd.v.to_bits(), sd.v.to_bits()),
+                (rd.v.to_bits(), sd.to_bits()),
                 (r.to_bits(), slope.to_bits())
             );
             let (dta, dca) = (1e-6 * ta, 1e-6 * ca_t);
