@@ -1104,10 +1104,11 @@ pub(crate) struct Seeds<const N: usize> {
     pub a: Tangent<N>,
     pub b: Tangent<N>,
     /// Constants whose pK is a source (the total boron: log10 of its
-    /// factor), each with its slot.
-    pub constants: Vec<(ConstantName, usize)>,
+    /// factor), each with its slot (room for every constant without the
+    /// heap).
+    pub constants: smallvec::SmallVec<[(ConstantName, usize); 18]>,
     /// Totals that are sources (µmol/kg), each with its slot.
-    pub totals: Vec<(Total, usize)>,
+    pub totals: smallvec::SmallVec<[(Total, usize); 5]>,
     /// The slots of the temperature (°C) and the salinity, where they are
     /// sources.
     pub temperature: Option<usize>,

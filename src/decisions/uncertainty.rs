@@ -1156,14 +1156,14 @@ impl Problem {
     }
 
     /// The sources a pass on tangents can seed, by their place in `sources`.
-    fn covered(&self, sources: &[(Source, f64, f64)]) -> Vec<usize> {
+    fn covered(&self, sources: &[(Source, f64, f64)]) -> smallvec::SmallVec<[usize; 24]> {
         let m = sources.len();
         let water = self.prepared.water();
         let fresh = water.medium() == Medium::Fresh;
         // Found once, not at every source.
         let calcium = self.prepared.totals().calcium_mol_kg > 0.0;
         let no_reading = water.given_conductivity().is_none();
-        let mut covered = Vec::with_capacity(m);
+        let mut covered = smallvec::SmallVec::new();
         covered.extend((0..m).filter(|&j| {
             let source = sources[j].0;
             !self.moves_nothing(source)
@@ -1212,8 +1212,8 @@ impl Problem {
         let mut seeds = Seeds {
             a: Tangent::constant(self.a.number()),
             b: Tangent::constant(self.b.number()),
-            constants: Vec::with_capacity(chunk.len()),
-            totals: Vec::new(),
+            constants: smallvec::SmallVec::new(),
+            totals: smallvec::SmallVec::new(),
             temperature: None,
             salinity: None,
             ionic_input: None,
@@ -1574,7 +1574,9 @@ impl Propagation {
 /// Every source with its standard uncertainty in the coordinate that
 /// [`Problem::realise`] shifts, and the scale of its difference step.
 pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(Source, f64, f64)>> {
-    let mut out = Vec::with_capacity(u.inputs.len() + SALINE_DEFAULTS.len() + u.constants.len());
+    let medium = problem.prepared.water().medium();
+    let mut out =
+        Vec::with_capacity(u.inputs.len() + u.defaults_in(medium).len() + u.constants.len());
     for &(input, size) in &u.inputs {
         let source = Source::Input(input);
         let x = problem.value_of(source)?;
@@ -1587,7 +1589,6 @@ pub(crate) fn sources_of(problem: &Problem, u: &Uncertainties) -> Result<Vec<(So
         };
         out.push((source, size.of(x), scale));
     }
-    let medium = problem.prepared.water().medium();
     // The ion pairs exist only in fresh water with calcium; elsewhere their
     // constants are not evaluated and would move nothing.
     let pairs = medium == Medium::Fresh && problem.prepared.totals().calcium_mol_kg > 0.0;
