@@ -179,17 +179,17 @@ impl Water {
             return self.prepare();
         }
         let c = self.conditions();
-        let on_slopes = Constants::saline_at(
+        let on_slopes = Arc::new(Constants::saline_at(
             c,
             Tangent::<2>::source(c.temperature_c(), 0),
             Tangent::<2>::source(c.salinity(), 1),
             self.composition(),
             self.fits(),
-        )?;
+        )?);
         Ok(PreparedWater {
             water: self.clone(),
             prepared: Prepared::Saline(on_slopes.values()),
-            slopes: Some(Arc::new(on_slopes)),
+            slopes: Some(on_slopes),
             moves: Vec::new(),
         })
     }

@@ -1157,16 +1157,15 @@ impl Problem {
 
     /// The sources a pass on tangents can seed, by their place in `sources`.
     fn covered(&self, sources: &[(Source, f64, f64)]) -> smallvec::SmallVec<[usize; 24]> {
-        let m = sources.len();
         let water = self.prepared.water();
         let fresh = water.medium() == Medium::Fresh;
         // Found once, not at every source.
         let calcium = self.prepared.totals().calcium_mol_kg > 0.0;
         let no_reading = water.given_conductivity().is_none();
         let mut covered = smallvec::SmallVec::new();
-        covered.extend((0..m).filter(|&j| {
-            let source = sources[j].0;
-            !self.moves_nothing(source)
+        // A plain loop: a filtered iterator is not made inline here.
+        for (j, &(source, _, _)) in sources.iter().enumerate() {
+            let covers = !self.moves_nothing(source)
                 && match source {
                     Source::Input(Input::Carbon(p)) => {
                         p == self.a.parameter() || p == self.b.parameter()
@@ -1197,8 +1196,11 @@ impl Problem {
                     // made from (`value_of` refuses it elsewhere).
                     Source::Input(Input::IonicStrength | Input::Tds) => fresh && no_reading,
                     _ => false,
-                }
-        }));
+                };
+            if covers {
+                covered.push(j);
+            }
+        }
         covered
     }
 

@@ -345,18 +345,43 @@ impl<R: Real> Constants<R> {
     }
 }
 
+/// What follows from the free calcium in fresh water: the pair ratios
+/// [CaHCO3+]/[HCO3-] and [CaCO3⁰]/[CO3--], and the pair-inclusive K1e,
+/// K2e ([`Constants::set_free_calcium`]).
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct Paired<R: Real> {
+    pub pair_hco3: R,
+    pub pair_co3: R,
+    pub k1e: R,
+    pub k2e: R,
+}
+
+impl<R: Real> Paired<R> {
+    /// From K1, K2, the two pair constants and the free calcium (mol/kg).
+    #[inline]
+    pub(crate) fn of(k1: R, k2: R, k_cahco3: R, k_caco3: R, ca_free: R) -> Self {
+        let pair_hco3 = k_cahco3 * ca_free;
+        let pair_co3 = k_caco3 * ca_free;
+        Paired {
+            pair_hco3,
+            pair_co3,
+            k1e: k1 * (pair_hco3 + 1.0),
+            k2e: k2 * (pair_co3 + 1.0) / (pair_hco3 + 1.0),
+        }
+    }
+}
+
 impl<R: Real> Constants<R> {
     /// Sets the free calcium of fresh-water constants and what follows from
     /// it: the pair ratios and the pair-inclusive K1e, K2e (see
     /// [`Constants::k1e()`]). The one place these are computed, so that
     /// constants made again from (I, Ca) are exactly those solved with.
     pub(crate) fn set_free_calcium(&mut self, ca_free: R) {
-        let pair_hco3 = self.k_cahco3 * ca_free;
-        let pair_co3 = self.k_caco3 * ca_free;
-        self.pair_hco3 = pair_hco3;
-        self.pair_co3 = pair_co3;
-        self.k1e = self.k1 * (pair_hco3 + 1.0);
-        self.k2e = self.k2 * (pair_co3 + 1.0) / (pair_hco3 + 1.0);
+        let p = Paired::of(self.k1, self.k2, self.k_cahco3, self.k_caco3, ca_free);
+        self.pair_hco3 = p.pair_hco3;
+        self.pair_co3 = p.pair_co3;
+        self.k1e = p.k1e;
+        self.k2e = p.k2e;
         self.calcium_free_mol_kg = ca_free;
     }
 

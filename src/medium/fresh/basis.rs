@@ -7,7 +7,7 @@ use crate::base::error::Result;
 use crate::base::numeric::Real;
 use crate::fits::thermodynamic as pb;
 use crate::fits::{nutrients, sulfate, sulfide, FitName, FitsUsed};
-use crate::medium::constants::{scale_factors, ScaleLink};
+use crate::medium::constants::{scale_factors, Paired, ScaleLink};
 use crate::medium::{ConstantName, Constants};
 use crate::properties::activity::Gammas;
 use crate::properties::density::density_kg_m3;
@@ -320,19 +320,21 @@ impl<R: Real> FreshBasis<R> {
             ks_free,
             kf_free,
         );
-        let mut k = Constants {
+        // What follows from the free calcium, made before the constants
+        // (which are then made where they are returned, not copied).
+        let paired = Paired::of(k1, k2, k_cahco3, k_caco3, ca_free);
+        Constants {
             conditions: self.conditions,
             working_scale: PhScale::Nbs,
             at: self.at,
             k0: self.kh,
             k1,
             k2,
-            // Set with the free calcium below.
-            k1e: k1,
-            k2e: k2,
-            pair_hco3: zero,
-            pair_co3: zero,
-            calcium_free_mol_kg: zero,
+            k1e: paired.k1e,
+            k2e: paired.k2e,
+            pair_hco3: paired.pair_hco3,
+            pair_co3: paired.pair_co3,
+            calcium_free_mol_kg: ca_free,
             ionic_strength: i,
             kb: on(t.boron_mol_kg, &|| self.kb / g1),
             kw: self.kw / g1,
@@ -362,9 +364,7 @@ impl<R: Real> FreshBasis<R> {
             k_cahco3,
             k_caco3,
             logs: None,
-        };
-        k.set_free_calcium(ca_free);
-        k
+        }
     }
 
     /// Attaches the range warnings of this basis to constants made from it
