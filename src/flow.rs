@@ -1411,9 +1411,27 @@ impl PreparedWater {
             base.ionic_strength,
             base.calcium_free_mol_kg(),
         ];
-        let [h, dic, i, ca] =
-            crate::solve::tangent::fresh_unknowns(&basis, &plain, u, (a, seeds.a), (b, seeds.b))?;
-        let k = basis.constants_at(i, ca, basis.totals.calcium_mol_kg);
+        let mut held = crate::solve::tangent::held_constants(&basis, u);
+        let [h, dic, i, ca] = crate::solve::tangent::fresh_unknowns(
+            &basis,
+            &plain,
+            &held,
+            u,
+            (a, seeds.a),
+            (b, seeds.b),
+        )?;
+        // The constants at the unknowns. Where the ionic strength is fixed
+        // (not the ions'), only the free calcium moves them from those at
+        // the unknowns held: the pair terms follow from it
+        // (`set_free_calcium`, the very numbers `constants_at` makes).
+        let from_ions;
+        let k = if basis.fixed_i.is_some() {
+            held.set_free_calcium(ca);
+            &held
+        } else {
+            from_ions = basis.constants_at(i, ca, basis.totals.calcium_mol_kg);
+            &from_ions
+        };
         let values = crate::state::FreshFigures {
             ionic_strength_from: base.ionic_strength_from?,
             charge_balance_percent: base.charge_balance_percent,
@@ -1421,9 +1439,9 @@ impl PreparedWater {
             langelier_index: base.langelier_index,
             precipitation_potential_mg_l_caco3: None,
         };
-        let figures = basis.fresh_figures_on(&k, h, dic, &values, None);
+        let figures = basis.fresh_figures_on(k, h, dic, &values, None);
         let mut state =
-            State::build_fresh_or_saline(water, &k, h, dic, Warnings::new(), Some(figures), a, b);
+            State::build_fresh_or_saline(water, k, h, dic, Warnings::new(), Some(figures), a, b);
         match &mut state {
             Ok(state) => with(state),
             Err(e) => Some(Err(e.clone())),

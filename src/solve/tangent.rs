@@ -117,6 +117,39 @@ pub(crate) fn unknowns<const N: usize>(
 /// zero where not.
 fn fresh_residuals<R: Real>(
     basis: &FreshBasis<R>,
+    u: [R; 4],
+    a: (&Measured, R),
+    b: (&Measured, R),
+    from_ions: bool,
+    with_ca: bool,
+) -> [R; 4] {
+    let k = fresh_constants(basis, u, from_ions, with_ca);
+    fresh_residuals_at(&k, basis, u, a, b, from_ions, with_ca)
+}
+
+/// The apparent constants of [`fresh_residuals`] at the unknowns `u`.
+fn fresh_constants<R: Real>(
+    basis: &FreshBasis<R>,
+    [_, _, i, ca]: [R; 4],
+    from_ions: bool,
+    with_ca: bool,
+) -> Constants<R> {
+    let zero = R::constant(0.0);
+    let i_used = match basis.fixed_i {
+        Some(fixed) if !from_ions => fixed,
+        _ => i,
+    };
+    basis.constants_at(
+        i_used,
+        if with_ca { ca } else { zero },
+        basis.totals.calcium_mol_kg,
+    )
+}
+
+/// [`fresh_residuals`] at its apparent constants `k` ([`fresh_constants`]).
+fn fresh_residuals_at<R: Real>(
+    k: &Constants<R>,
+    basis: &FreshBasis<R>,
     [h, dic, i, ca]: [R; 4],
     a: (&Measured, R),
     b: (&Measured, R),
@@ -125,21 +158,16 @@ fn fresh_residuals<R: Real>(
 ) -> [R; 4] {
     let zero = R::constant(0.0);
     let ca_total = basis.totals.calcium_mol_kg;
-    let i_used = match basis.fixed_i {
-        Some(fixed) if !from_ions => fixed,
-        _ => i,
-    };
-    let k = basis.constants_at(i_used, if with_ca { ca } else { zero }, ca_total);
     [
-        residual(&k, h, dic, a.0, a.1),
-        residual(&k, h, dic, b.0, b.1),
+        residual(k, h, dic, a.0, a.1),
+        residual(k, h, dic, b.0, b.1),
         if from_ions {
-            i - ion_sum(&k, h, dic).0
+            i - ion_sum(k, h, dic).0
         } else {
             zero
         },
         if with_ca {
-            ca - free_calcium(&k, h, dic, ca_total)
+            ca - free_calcium(k, h, dic, ca_total)
         } else {
             zero
         },
@@ -156,19 +184,22 @@ fn fresh_residuals<R: Real>(
 /// derivatives; `plain` is the same basis without them (J comes from it,
 /// the unknowns seeded on its four slots). Where the ionic strength does
 /// not come from the ions it is the basis's own (with its derivatives),
-/// and without calcium the free calcium is 0. `None` where J is singular
-/// or a derivative is not finite.
+/// and without calcium the free calcium is 0. `held` are the apparent
+/// constants at the unknowns held ([`held_constants`]: the sources'
+/// derivatives alone), which the caller keeps (its constants at the
+/// unknowns follow from them, without a copy of their large numbers).
+/// `None` where J is singular or a derivative is not finite.
 // Index loops read as the elimination is written.
 #[allow(clippy::needless_range_loop)]
 pub(crate) fn fresh_unknowns<const N: usize>(
     basis: &FreshBasis<Tangent<N>>,
     plain: &FreshBasis<Tangent<4>>,
+    held: &Constants<Tangent<N>>,
     u: [f64; 4],
     a: (&Measured, Tangent<N>),
     b: (&Measured, Tangent<N>),
 ) -> Option<[Tangent<N>; 4]> {
-    let from_ions = basis.fixed_i.is_none();
-    let with_ca = basis.totals.calcium_mol_kg.v > 0.0;
+    let (from_ions, with_ca) = fixed_point_equations(basis);
     let mut all = [0usize; 4];
     let mut n = 0;
     for (i, on) in [true, true, from_ions, with_ca].into_iter().enumerate() {
@@ -197,8 +228,8 @@ pub(crate) fn fresh_unknowns<const N: usize>(
         }
     }
     // ∂G/∂s at the unknowns held.
-    let held = u.map(Tangent::<N>::constant);
-    let gs = fresh_residuals(basis, held, a, b, from_ions, with_ca);
+    let u_held = u.map(Tangent::<N>::constant);
+    let gs = fresh_residuals_at(held, basis, u_held, a, b, from_ions, with_ca);
     let mut rhs = [[0.0; N]; 4];
     for (r, &gr) in active.iter().enumerate() {
         for (x, d) in rhs[r].iter_mut().zip(gs[gr].d) {
@@ -250,4 +281,78 @@ pub(crate) fn fresh_unknowns<const N: usize>(
         out[ur] = Tangent::new(u[ur], d);
     }
     Some(out)
+}
+
+/// Which of the fixed point's equations a fresh solve has: the ionic
+/// strength's (where the ions give it) and the free calcium's (where the
+/// water has calcium).
+fn fixed_point_equations<R: Real>(basis: &FreshBasis<R>) -> (bool, bool) {
+    (
+        basis.fixed_i.is_none(),
+        basis.totals.calcium_mol_kg.value() > 0.0,
+    )
+}
+
+/// The apparent constants of a fresh solve at its unknowns `u` held (the
+/// values of the solve, without derivatives): the `held` of
+/// [`fresh_unknowns`], on the sources' derivatives alone.
+pub(crate) fn held_constants<const N: usize>(
+    basis: &FreshBasis<Tangent<N>>,
+    u: [f64; 4],
+) -> Constants<Tangent<N>> {
+    let (from_ions, with_ca) = fixed_point_equations(basis);
+    fresh_constants(basis, u.map(Tangent::<N>::constant), from_ions, with_ca)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::medium::fresh::FreshSources;
+    use crate::sample::{Composition, Conditions, Water};
+    use crate::units::Amount;
+
+    /// Where a fresh water's ionic strength is fixed, the constants at the
+    /// unknowns are those held with the free calcium set again: every
+    /// number and derivative that `constants_at` makes at the free calcium
+    /// on tangents, for waters with and without calcium.
+    #[test]
+    fn constants_at_the_unknowns_follow_from_those_held() {
+        for calcium in [0.0, 1e-3] {
+            let mut composition = Composition::default();
+            if calcium > 0.0 {
+                composition = composition.with_calcium(Amount::PerKg(calcium)).unwrap();
+            }
+            let water = Water::fresh(Conditions::new(15.0, 0.2).unwrap())
+                .unwrap()
+                .with_composition(composition);
+            let s = water
+                .solve(
+                    Measured::ph(7.6, None).unwrap(),
+                    Measured::alkalinity_umol_kg(2000.0).unwrap(),
+                )
+                .unwrap();
+            let c = water.conditions();
+            let sources = FreshSources {
+                temperature_c: Tangent::<3>::source(c.temperature_c(), 0),
+                salinity: Tangent::source(c.salinity(), 1),
+                fixed_ionic_input: None,
+                calcium_shift_mol_kg: Some(Tangent::source(0.0, 2)),
+            };
+            let basis = FreshBasis::new_at(&water, &sources, false).unwrap();
+            let fixed = basis.fixed_i.unwrap();
+            let u = [
+                s.h_mol_kg(),
+                s.dic_mol_kg(),
+                fixed.v,
+                s.calcium_free_mol_kg(),
+            ];
+            // The free calcium with derivatives of its own, as the
+            // implicit differentiation gives them.
+            let ca = Tangent::new(u[3], [0.3 * u[3], -0.2 * u[3], 0.9]);
+            let mut held = held_constants(&basis, u);
+            held.set_free_calcium(ca);
+            let made = basis.constants_at(fixed, ca, basis.totals.calcium_mol_kg);
+            assert_eq!(held, made, "calcium {calcium}");
+        }
+    }
 }
