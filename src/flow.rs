@@ -1399,11 +1399,7 @@ impl PreparedWater {
             }
             Tangent::new(x.v, d)
         });
-        for &(which, slot) in &seeds.constants {
-            if let Err(e) = basis.pk_in_place(which, Tangent::source(0.0, slot)) {
-                return Some(Err(e));
-            }
-        }
+        basis.seed_pks(&seeds.constants);
         let plain = b4.map_numbers(|x| Tangent::<4>::constant(x.v));
         let u = [
             base.h_mol_kg(),

@@ -230,7 +230,6 @@ impl<R: Real> FreshBasis<R> {
     pub(crate) fn pk_in_place(&mut self, which: ConstantName, delta_pk: R) -> Result<()> {
         use crate::base::error::Error;
         use crate::base::field::Field;
-        use ConstantName as C;
         if !delta_pk.value().is_finite() {
             return Err(Error::NotFinite {
                 field: Field::DeltaPk,
@@ -238,26 +237,7 @@ impl<R: Real> FreshBasis<R> {
             });
         }
         let factor = (-delta_pk).pow10();
-        let slot = match which {
-            C::K0 => &mut self.kh,
-            C::K1 => &mut self.k1,
-            C::K2 => &mut self.k2,
-            C::Kb => &mut self.kb,
-            C::Kw => &mut self.kw,
-            C::KspCalcite => &mut self.ksp_calcite,
-            C::KspAragonite => &mut self.ksp_aragonite,
-            C::Ks => &mut self.ks,
-            C::Kf => &mut self.kf,
-            C::Kp1 => &mut self.kp.0,
-            C::Kp2 => &mut self.kp.1,
-            C::Kp3 => &mut self.kp.2,
-            C::Ksi => &mut self.ksi,
-            C::Knh4 => &mut self.knh4,
-            C::Kh2s => &mut self.kh2s,
-            C::BoronTotal => &mut self.totals.boron_mol_kg,
-            C::CaHco3Pair => &mut self.k_cahco3,
-            C::CaCo3Pair => &mut self.k_caco3,
-        };
+        let slot = self.number_mut(which);
         let before = *slot;
         let after = before * factor;
         let (b, a) = (before.value(), after.value());
@@ -276,6 +256,32 @@ impl<R: Real> FreshBasis<R> {
             self.i_start = self.ion_start();
         }
         Ok(())
+    }
+
+    /// The number of constant `which` (the total boron for
+    /// [`ConstantName::BoronTotal`]), to move in place.
+    fn number_mut(&mut self, which: ConstantName) -> &mut R {
+        use ConstantName as C;
+        match which {
+            C::K0 => &mut self.kh,
+            C::K1 => &mut self.k1,
+            C::K2 => &mut self.k2,
+            C::Kb => &mut self.kb,
+            C::Kw => &mut self.kw,
+            C::KspCalcite => &mut self.ksp_calcite,
+            C::KspAragonite => &mut self.ksp_aragonite,
+            C::Ks => &mut self.ks,
+            C::Kf => &mut self.kf,
+            C::Kp1 => &mut self.kp.0,
+            C::Kp2 => &mut self.kp.1,
+            C::Kp3 => &mut self.kp.2,
+            C::Ksi => &mut self.ksi,
+            C::Knh4 => &mut self.knh4,
+            C::Kh2s => &mut self.kh2s,
+            C::BoronTotal => &mut self.totals.boron_mol_kg,
+            C::CaHco3Pair => &mut self.k_cahco3,
+            C::CaCo3Pair => &mut self.k_caco3,
+        }
     }
 
     /// Every value of `other` but its range warnings, which are left
@@ -419,10 +425,75 @@ pub(crate) fn fresh_fits_used<R: Real>(
     }
 }
 
+impl<const N: usize> FreshBasis<crate::base::numeric::Tangent<N>> {
+    /// The pK of each constant of `seeds` a source at zero on its slot, for
+    /// a pass on tangents: [`FreshBasis::pk_in_place`] with a δ of zero on
+    /// the slot (a factor 10^−δ of exactly 1 with the slope −ln 10), the
+    /// same numbers, without an exponential per constant: each constant's
+    /// value stays, and it gains −ln 10 · K in its slot. The starting
+    /// ionic strength of a water whose ions give it follows once.
+    pub(crate) fn seed_pks(&mut self, seeds: &[(ConstantName, usize)]) {
+        let slope = -std::f64::consts::LN_10;
+        for &(which, slot) in seeds {
+            let k = self.number_mut(which);
+            let v = k.v;
+            if let Some(d) = k.d.get_mut(slot) {
+                *d += slope * v;
+            }
+        }
+        if self.fixed_i.is_none() && !seeds.is_empty() {
+            self.i_start = self.ion_start();
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
     use crate::sample::{Composition, Conditions};
+
+    /// Seeding pK sources on tangents all at once gives the very numbers
+    /// (values and derivatives) that raising each pK by a source at zero
+    /// gives one at a time, for a water whose ionic strength is fixed and
+    /// one whose ions give it (its starting ionic strength follows).
+    #[test]
+    fn seeded_pks_are_raises_by_zero_on_tangents() {
+        use crate::base::numeric::Tangent;
+        use crate::base::units::Amount;
+        let ions = Composition::default()
+            .with_calcium(Amount::PerKg(1e-3))
+            .and_then(|c| c.with_magnesium(Amount::PerKg(4e-4)))
+            .and_then(|c| c.with_sodium(Amount::PerKg(1e-3)))
+            .and_then(|c| c.with_potassium(Amount::PerKg(1e-4)))
+            .and_then(|c| c.with_chloride(Amount::PerKg(1.5e-3)))
+            .and_then(|c| c.with_sulfate(Amount::PerKg(5e-4)))
+            .unwrap();
+        let fixed = Composition::default()
+            .with_calcium(Amount::PerKg(1e-3))
+            .unwrap();
+        for composition in [fixed, ions] {
+            let water = Water::fresh(Conditions::new(12.0, 0.3).unwrap())
+                .unwrap()
+                .with_composition(composition);
+            let basis = FreshBasis::new(&water, true).unwrap();
+            let lifted: FreshBasis<Tangent<18>> = basis.map_numbers(Tangent::constant);
+            let seeds: Vec<(ConstantName, usize)> = ConstantName::ALL
+                .iter()
+                .enumerate()
+                .map(|(slot, &c)| (c, slot))
+                .collect();
+            let mut seeded = lifted.clone();
+            seeded.seed_pks(&seeds);
+            let mut raised = lifted;
+            for &(which, slot) in &seeds {
+                raised
+                    .pk_in_place(which, Tangent::source(0.0, slot))
+                    .unwrap();
+            }
+            assert_eq!(seeded.fixed_i.is_none(), composition == ions);
+            assert_eq!(seeded, raised);
+        }
+    }
 
     /// In fresh water with calcium, a perturbed K1 or K2 keeps
     /// K1e = K1 (1 + p1) and K2e = K2 (1 + p2)/(1 + p1), and setting another
