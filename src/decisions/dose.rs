@@ -19,7 +19,6 @@ use crate::base::error::{Error, Result};
 use crate::base::field::Field;
 use crate::base::units::{Amount, Quantity, Unit, CACO3_G_MOL};
 use crate::flow::PreparedWater;
-use crate::medium::ConstantName;
 use crate::properties::scales::PhScale;
 use crate::sample::measured::Measured;
 use crate::sample::water::Water;
@@ -486,8 +485,9 @@ const MOST_MOL_KG: f64 = 0.05;
 #[derive(Clone, Copy)]
 pub(crate) struct Solver<'a> {
     water: &'a Water,
-    /// The water prepared with its constants moved, and the moves.
-    moved: Option<(&'a PreparedWater, &'a [(ConstantName, f64)])>,
+    /// The water prepared with its constants moved (the moves it
+    /// records are made again in every treated water).
+    moved: Option<&'a PreparedWater>,
 }
 
 impl<'a> Solver<'a> {
@@ -496,11 +496,11 @@ impl<'a> Solver<'a> {
         Solver { water, moved: None }
     }
 
-    /// `prepared` (its constants moved by `constants`, in pK units).
-    pub(crate) fn moved(prepared: &'a PreparedWater, constants: &'a [(ConstantName, f64)]) -> Self {
+    /// `prepared`, its constants moved (as it records them).
+    pub(crate) fn moved(prepared: &'a PreparedWater) -> Self {
         Solver {
             water: prepared.water(),
-            moved: Some((prepared, constants)),
+            moved: Some(prepared),
         }
     }
 
@@ -514,10 +514,10 @@ impl<'a> Solver<'a> {
         match (self.moved, calcium) {
             (None, None) => self.water.solve(a, b),
             (None, Some(c)) => with_calcium(c)?.solve(a, b),
-            (Some((p, _)), None) => p.solve(a, b),
-            (Some((_, constants)), Some(c)) => {
+            (Some(p), None) => p.solve(a, b),
+            (Some(moved), Some(c)) => {
                 let mut p = with_calcium(c)?.prepare()?;
-                for &(k, d) in constants {
+                for &(k, d) in moved.moves() {
                     p = p.with_constants_perturbed(k, d)?;
                 }
                 p.solve(a, b)

@@ -194,7 +194,7 @@ fn dose_at(problem: &Problem, request: DoseRequest, shifts: &[(Source, f64)]) ->
     let before = moved
         .prepared
         .solve_with(moved.a, moved.b, problem.options())?;
-    let solver = Solver::moved(&moved.prepared, &moved.constants);
+    let solver = Solver::moved(&moved.prepared);
     Ok(dose_with(solver, &before, request)?.dose_g_m3)
 }
 

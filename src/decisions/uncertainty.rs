@@ -926,16 +926,8 @@ impl Problem {
             b,
             air: _,
         } = self.shifted(shifts)?;
-        let constants = shifts
-            .iter()
-            .filter_map(|&(source, d)| match source {
-                Source::Constant(k) if d != 0.0 => Some((k, d)),
-                _ => None,
-            })
-            .collect();
         Ok(Moved {
             prepared: prepared.unwrap_or_else(|| self.prepared.clone()),
-            constants,
             a,
             b,
         })
@@ -1423,10 +1415,10 @@ struct Shifted {
 /// A [`Problem`] with its sources moved ([`Problem::moved`]).
 #[derive(Debug, Clone)]
 pub(crate) struct Moved {
-    /// The water, prepared, its constants moved.
+    /// The water, prepared, its constants moved (it records the moves,
+    /// those of the problem's own water first:
+    /// [`PreparedWater::moves`]).
     pub(crate) prepared: PreparedWater,
-    /// The constants moved, each by its shift in pK units.
-    pub(crate) constants: Vec<(ConstantName, f64)>,
     /// The pair.
     pub(crate) a: Measured,
     /// The pair.
