@@ -773,3 +773,148 @@ fn moved_constants_stay_moved_for_the_temperature_too() {
         );
     }
 }
+
+/// Review: a prepared water whose constants were moved, reported at
+/// another temperature, is reported with the same moved constants (the
+/// doc of `Problem::from_prepared`): the reported state is the moved
+/// water at 10 °C with the measured state's alkalinity and DIC.
+#[test]
+fn moved_constants_stay_moved_where_the_state_is_reported_elsewhere() {
+    let moved = |t: f64| {
+        sea(t, 35.0, 0.0)
+            .prepare()
+            .and_then(|p| p.with_constants_perturbed(ConstantName::K1, 0.05))
+            .unwrap()
+    };
+    let ph = Measured::ph(8.05, Some(PhScale::Total)).unwrap();
+    let ta = Measured::alkalinity_umol_kg(2000.0).unwrap();
+    let own = moved(25.0).solve(ph, ta).unwrap();
+    let (ta2, dic) = (
+        Measured::alkalinity_umol_kg(own.alkalinity_umol_kg).unwrap(),
+        Measured::dic_umol_kg(own.dic_umol_kg).unwrap(),
+    );
+    let expected = moved(10.0).solve(ta2, dic).unwrap().pco2_uatm;
+    let unmoved = sea(10.0, 35.0, 0.0).solve(ta2, dic).unwrap().pco2_uatm;
+    let reported = Problem::from_prepared(moved(25.0), ph, ta)
+        .reported_at(Some(10.0), None)
+        .solve()
+        .unwrap()
+        .pco2_uatm;
+    assert!(
+        (reported - expected).abs() <= 1e-9 * expected,
+        "reported {reported}, moved water at 10 °C {expected}, unmoved {unmoved}"
+    );
+}
+
+/// Review: the dose of a problem whose prepared water had its constants
+/// moved treats the water with the same moved constants, also for a
+/// chemical that adds calcium (whose treated water is prepared again with
+/// the new calcium, `Solver::solve` in src/decisions/dose.rs). Raising
+/// the pH from 7 to 8 is a dose of sodium hydroxide and of hydrated lime
+/// alike.
+#[test]
+fn moved_constants_stay_moved_in_a_treated_water_with_calcium() {
+    use travertine::decisions::dose::{Chemical, DoseRequest, Target};
+    use travertine::decisions::dose_uncertainty::dose_uncertainty;
+    let pond = Water::fresh(Conditions::new(15.0, 0.2).unwrap())
+        .unwrap()
+        .with_composition(
+            Composition::default()
+                .with_calcium(Amount::PerKg(1e-3))
+                .unwrap(),
+        );
+    let moved = pond
+        .prepare()
+        .and_then(|p| p.with_constants_perturbed(ConstantName::K1, 0.3))
+        .unwrap();
+    let (ph, ta) = (
+        Measured::ph(7.0, None).unwrap(),
+        Measured::alkalinity_umol_kg(1000.0).unwrap(),
+    );
+    let u = Uncertainties::new()
+        .without_constants()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .unwrap();
+    let problem = Problem::from_prepared(moved, ph, ta);
+    for chemical in [Chemical::SodiumHydroxide, Chemical::HydratedLime] {
+        let request = DoseRequest::new(chemical, Target::Ph(8.0));
+        let r = dose_uncertainty(&problem, &u, request);
+        assert!(r.is_ok(), "{}: {r:?}", chemical.name());
+    }
+}
+
+/// Review: the pass on tangents of a problem made by `Problem::new` (sea
+/// water's constants kept on tangents of T and S) gives every value,
+/// u and contribution bit for bit as that of the same water prepared
+/// without them (`Problem::from_prepared`, the constants evaluated again
+/// in the pass).
+#[test]
+fn kept_slopes_give_the_numbers_of_slopes_made_in_the_pass() {
+    let water = sea(12.0, 33.0, 500.0);
+    let ph = Measured::ph(8.0, Some(PhScale::Total)).unwrap();
+    let ta = Measured::alkalinity_umol_kg(2250.0).unwrap();
+    let u = Uncertainties::new()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .and_then(|u| u.with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0)))
+        .and_then(|u| u.with_input(Input::Temperature, Size::Absolute(0.1)))
+        .and_then(|u| u.with_input(Input::Salinity, Size::Absolute(0.05)))
+        .unwrap();
+    let outputs = numeric_outputs();
+    let kept = propagate_quantities(
+        &Problem::new(&water, ph, ta).unwrap(),
+        &u,
+        OutputQuantities(&outputs),
+    )
+    .unwrap();
+    let again = propagate_quantities(
+        &Problem::from_prepared(water.prepare().unwrap(), ph, ta),
+        &u,
+        OutputQuantities(&outputs),
+    )
+    .unwrap();
+    assert_eq!(kept.sources, again.sources);
+    for k in 0..outputs.len() {
+        let bits = |p: &travertine::decisions::uncertainty::Propagation| {
+            (
+                p.outputs[k].value.map(f64::to_bits),
+                p.outputs[k].u.map(f64::to_bits),
+                p.contributions(k)
+                    .iter()
+                    .map(|c| c.to_bits())
+                    .collect::<Vec<_>>(),
+            )
+        };
+        assert_eq!(bits(&kept), bits(&again), "{}", outputs[k].key());
+    }
+    assert_eq!(kept, again);
+}
+
+/// Review: two propagations whose every public number is the same compare
+/// equal, whichever way (a pass on tangents, or differences) made them:
+/// here the Langelier index, which sea water has not (no value, no u, no
+/// contributions either way).
+#[test]
+fn propagations_with_the_same_numbers_are_equal() {
+    let p = Problem::new(
+        &sea(20.0, 35.0, 0.0),
+        Measured::ph(8.0, Some(PhScale::Total)).unwrap(),
+        Measured::alkalinity_umol_kg(2300.0).unwrap(),
+    )
+    .unwrap();
+    let u = Uncertainties::new()
+        .with_input(Input::Carbon(Parameter::Ph), Size::Absolute(0.01))
+        .and_then(|u| u.with_input(Input::Carbon(Parameter::Alkalinity), Size::Absolute(2.0)))
+        .unwrap();
+    let outputs = [Output::Langelier];
+    let by_tangents = propagate_quantities(&p, &u, OutputQuantities(&outputs)).unwrap();
+    let by_differences = propagate(&p, &u, |s, out| values_into(&outputs, s, out)).unwrap();
+    assert_eq!(by_tangents.outputs, by_differences.outputs);
+    assert_eq!(by_tangents.sources, by_differences.sources);
+    for k in 0..2 {
+        assert_eq!(
+            by_tangents.contributions(k),
+            by_differences.contributions(k)
+        );
+    }
+    assert_eq!(by_tangents, by_differences);
+}
