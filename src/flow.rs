@@ -138,12 +138,12 @@ pub struct PreparedWater {
     moves: Vec<(ConstantName, f64)>,
 }
 
-/// Two prepared waters are equal where their waters and constants are
-/// (the constants on tangents kept beside them are a cache of the same
-/// numbers).
+/// Two prepared waters are equal where their waters, constants and the
+/// moves of their constants are (the constants on tangents kept beside
+/// them are a cache of the same numbers).
 impl PartialEq for PreparedWater {
     fn eq(&self, other: &Self) -> bool {
-        self.water == other.water && self.prepared == other.prepared
+        self.water == other.water && self.prepared == other.prepared && self.moves == other.moves
     }
 }
 
@@ -166,6 +166,19 @@ impl Water {
             slopes: None,
             moves: Vec::new(),
         })
+    }
+
+    /// [`Water::prepare`], then the constants `moves` moved, each by its
+    /// shift of pK, in order ([`PreparedWater::with_constants_perturbed`]):
+    /// this water with the moves another prepared water records
+    /// ([`PreparedWater::moves`]), for a water made again at other
+    /// conditions or with other calcium.
+    pub(crate) fn prepare_moved(&self, moves: &[(ConstantName, f64)]) -> Result<PreparedWater> {
+        let mut prepared = self.prepare()?;
+        for &(which, delta_pk) in moves {
+            prepared = prepared.with_constants_perturbed(which, delta_pk)?;
+        }
+        Ok(prepared)
     }
 
     /// [`Water::prepare`], a sea water's constants made on tangents of the
@@ -592,11 +605,9 @@ impl State {
         let mut moved = if constants.is_empty() {
             water.solve_with(alkalinity, dic, options)?
         } else {
-            let mut prepared = water.prepare()?;
-            for &(which, delta_pk) in constants {
-                prepared = prepared.with_constants_perturbed(which, delta_pk)?;
-            }
-            prepared.solve_with(alkalinity, dic, options)?
+            water
+                .prepare_moved(constants)?
+                .solve_with(alkalinity, dic, options)?
         };
         // issue 11: the parameters of the measurement, not of this re-solve.
         moved.computed_from = self.computed_from;
@@ -724,6 +735,12 @@ fn at_equilibrium_with(
     };
     match prepared {
         Some(p) if p.water() == state.water_sample() => p.solve_near(a, b, &options, &near),
+        // The state's water (reported at other conditions) with the
+        // constants the prepared water moved, moved again.
+        Some(p) if !p.moves().is_empty() => state
+            .water_sample()
+            .prepare_moved(p.moves())?
+            .solve_near(a, b, &options, &near),
         _ => state.water_sample().solve_near(a, b, &options, &near),
     }
 }

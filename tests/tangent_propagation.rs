@@ -774,7 +774,7 @@ fn moved_constants_stay_moved_for_the_temperature_too() {
     }
 }
 
-/// Review: a prepared water whose constants were moved, reported at
+/// A prepared water whose constants were moved, reported at
 /// another temperature, is reported with the same moved constants (the
 /// doc of `Problem::from_prepared`): the reported state is the moved
 /// water at 10 °C with the measured state's alkalinity and DIC.
@@ -804,9 +804,38 @@ fn moved_constants_stay_moved_where_the_state_is_reported_elsewhere() {
         (reported - expected).abs() <= 1e-9 * expected,
         "reported {reported}, moved water at 10 °C {expected}, unmoved {unmoved}"
     );
+    // With air over the water, the water at equilibrium with it is the
+    // moved water at 10 °C too (a second solve, of the state reported).
+    let air = travertine::sample::air::Air::new();
+    let state = moved(10.0).solve(ta2, dic).unwrap();
+    let expected = moved(10.0)
+        .with_exchange(state.clone(), &air, None)
+        .unwrap()
+        .exchange
+        .and_then(|e| e.equilibrium_ph)
+        .unwrap();
+    let unmoved = sea(10.0, 35.0, 0.0)
+        .prepare()
+        .and_then(|p| p.with_exchange(state, &air, None))
+        .unwrap()
+        .exchange
+        .and_then(|e| e.equilibrium_ph)
+        .unwrap();
+    let reported = Problem::from_prepared(moved(25.0), ph, ta)
+        .with_air(air, None)
+        .reported_at(Some(10.0), None)
+        .solve()
+        .unwrap()
+        .exchange
+        .and_then(|e| e.equilibrium_ph)
+        .unwrap();
+    assert!(
+        (reported - expected).abs() <= 1e-9,
+        "equilibrium pH {reported}, of the moved water at 10 °C {expected}, unmoved {unmoved}"
+    );
 }
 
-/// Review: the dose of a problem whose prepared water had its constants
+/// The dose of a problem whose prepared water had its constants
 /// moved treats the water with the same moved constants, also for a
 /// chemical that adds calcium (whose treated water is prepared again with
 /// the new calcium, `Solver::solve` in src/decisions/dose.rs). Raising
@@ -843,7 +872,7 @@ fn moved_constants_stay_moved_in_a_treated_water_with_calcium() {
     }
 }
 
-/// Review: the pass on tangents of a problem made by `Problem::new` (sea
+/// The pass on tangents of a problem made by `Problem::new` (sea
 /// water's constants kept on tangents of T and S) gives every value,
 /// u and contribution bit for bit as that of the same water prepared
 /// without them (`Problem::from_prepared`, the constants evaluated again
@@ -873,7 +902,7 @@ fn kept_slopes_give_the_numbers_of_slopes_made_in_the_pass() {
     )
     .unwrap();
     assert_eq!(kept.sources, again.sources);
-    for k in 0..outputs.len() {
+    for (k, o) in outputs.iter().enumerate() {
         let bits = |p: &travertine::decisions::uncertainty::Propagation| {
             (
                 p.outputs[k].value.map(f64::to_bits),
@@ -884,12 +913,12 @@ fn kept_slopes_give_the_numbers_of_slopes_made_in_the_pass() {
                     .collect::<Vec<_>>(),
             )
         };
-        assert_eq!(bits(&kept), bits(&again), "{}", outputs[k].key());
+        assert_eq!(bits(&kept), bits(&again), "{}", o.key());
     }
     assert_eq!(kept, again);
 }
 
-/// Review: two propagations whose every public number is the same compare
+/// Two propagations whose every public number is the same compare
 /// equal, whichever way (a pass on tangents, or differences) made them:
 /// here the Langelier index, which sea water has not (no value, no u, no
 /// contributions either way).

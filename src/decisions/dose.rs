@@ -515,13 +515,7 @@ impl<'a> Solver<'a> {
             (None, None) => self.water.solve(a, b),
             (None, Some(c)) => with_calcium(c)?.solve(a, b),
             (Some(p), None) => p.solve(a, b),
-            (Some(moved), Some(c)) => {
-                let mut p = with_calcium(c)?.prepare()?;
-                for &(k, d) in moved.moves() {
-                    p = p.with_constants_perturbed(k, d)?;
-                }
-                p.solve(a, b)
-            }
+            (Some(moved), Some(c)) => with_calcium(c)?.prepare_moved(moved.moves())?.solve(a, b),
         }
     }
 

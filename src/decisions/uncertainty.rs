@@ -858,11 +858,7 @@ impl Problem {
                 w = w.with_tds_mg_l(t)?;
             }
             // Constants the prepared water had moved are moved again.
-            let mut moved = w.prepare()?;
-            for &(k, d) in self.prepared.moves() {
-                moved = moved.with_constants_perturbed(k, d)?;
-            }
-            Some(moved)
+            Some(w.prepare_moved(self.prepared.moves())?)
         } else {
             None
         };
@@ -893,14 +889,9 @@ impl Problem {
         let prepared = prepared.as_ref().unwrap_or(&self.prepared);
         let state = prepared.solve_near(a, b, &self.options, near)?;
         let state = if self.reported_at.is_some() {
-            let constants: Vec<(ConstantName, f64)> = shifts
-                .iter()
-                .filter_map(|&(source, d)| match source {
-                    Source::Constant(k) if d != 0.0 => Some((k, d)),
-                    _ => None,
-                })
-                .collect();
-            self.reported(state, &constants)?
+            // Every constant moved, the water's own and the step's, as
+            // the prepared water records them.
+            self.reported(state, prepared.moves())?
         } else {
             state
         };
@@ -1494,7 +1485,7 @@ pub struct Propagated {
 }
 
 /// The result of [`propagate`].
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Clone)]
 #[non_exhaustive]
 pub struct Propagation {
     /// Every source with an uncertainty above zero, with its standard
@@ -1508,6 +1499,31 @@ pub struct Propagation {
     contributions: Vec<f64>,
     /// The length of a row of `contributions`, at least `sources.len()`.
     stride: usize,
+}
+
+/// Two results are equal where their sources, quantities and
+/// contributions are, however their rows are laid out.
+impl PartialEq for Propagation {
+    fn eq(&self, other: &Self) -> bool {
+        self.sources == other.sources
+            && self.outputs == other.outputs
+            && (0..self.outputs.len()).all(|k| self.contributions(k) == other.contributions(k))
+    }
+}
+
+/// The sources, the quantities and each quantity's contributions (not the
+/// layout of the rows).
+impl std::fmt::Debug for Propagation {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let rows: Vec<&[f64]> = (0..self.outputs.len())
+            .map(|k| self.contributions(k))
+            .collect();
+        f.debug_struct("Propagation")
+            .field("sources", &self.sources)
+            .field("outputs", &self.outputs)
+            .field("contributions", &rows)
+            .finish()
+    }
 }
 
 impl Propagation {
@@ -1663,6 +1679,9 @@ where
 /// assert_eq!(travertine::decisions::uncertainty::TANGENT_WIDTH, 14);
 /// ```
 pub const TANGENT_WIDTH: usize = 14;
+
+// `sum_of_squares` takes the slots two at a time.
+const _: () = assert!(TANGENT_WIDTH.is_multiple_of(2));
 
 /// The fewest sources a pass on tangents is made for: the pass costs about
 /// as much as five or six solves of the water (measured in both media,
@@ -1904,7 +1923,9 @@ pub fn propagate_quantities<Q: Quantities>(
 
 /// Σ c², u² of a row of contributions: two sums side by side, the even
 /// and the odd slots (the chain of additions half as long, the order of
-/// the sources kept within each), added at the end.
+/// the sources kept within each), added at the end. It may round
+/// differently in the last bit from the sum in the order of the sources
+/// that the general way makes ([`assembled`]).
 #[inline(always)]
 fn sum_of_squares(c: &[f64; TANGENT_WIDTH]) -> f64 {
     let mut lanes = [0.0; 2];

@@ -395,11 +395,6 @@ impl<R: Real> Constants<R> {
     }
 }
 
-/// The plain name, as [`ConstantName::name`] gives it.
-///
-/// ```
-/// assert_eq!(travertine::medium::ConstantName::K1.to_string(), "K1");
-/// ```
 impl<const N: usize> Constants<Tangent<N>> {
     /// The pK of each constant of `seeds` a source at zero on its slot
     /// (the total boron: log10 of its factor), for a pass on tangents:
@@ -450,6 +445,11 @@ impl<const N: usize> Constants<Tangent<N>> {
     }
 }
 
+/// The plain name, as [`ConstantName::name`] gives it.
+///
+/// ```
+/// assert_eq!(travertine::medium::ConstantName::K1.to_string(), "K1");
+/// ```
 impl std::fmt::Display for ConstantName {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         f.write_str(self.name())

@@ -651,7 +651,15 @@ fn solve_inputs(plan: &Plan, record: Cells<'_>, inputs: &Sample, s: &mut Scratch
     let direct = !same && !plan.exchange && s.changing;
     s.changing = !same;
     if !same && !direct {
-        match water.prepare() {
+        // With uncertainties, sea water's constants are kept on tangents
+        // of the temperature and salinity too (the same numbers), which
+        // each row's propagation would make again otherwise.
+        let prepared = if plan.uncertainty.is_some() {
+            water.prepare_with_slopes()
+        } else {
+            water.prepare()
+        };
+        match prepared {
             Ok(p) => s.prepared = Some(p),
             Err(e) => {
                 s.prepared = None;
@@ -912,7 +920,7 @@ fn uncertainty_row(
     // solve found it), else the water prepared again.
     let prepared = match s.prepared.as_ref().filter(|p| p.water() == water) {
         Some(p) => Ok(p.clone()),
-        None => water.prepare(),
+        None => water.prepare_with_slopes(),
     };
     let problem = match prepared.map(|p| Problem::from_prepared(p, a, b)) {
         Ok(p) => p.with_options(plan.options),
