@@ -719,15 +719,7 @@ proptest::proptest! {
 /// the differences may make them again from the water's fits alone.
 #[test]
 fn moved_constants_stay_moved_for_the_temperature_too() {
-    let pond_at = |t: f64| {
-        Water::fresh(Conditions::new(t, 0.2).unwrap())
-            .unwrap()
-            .with_composition(
-                Composition::default()
-                    .with_calcium(Amount::PerKg(1e-3))
-                    .unwrap(),
-            )
-    };
+    let pond_at = common::calcium_pond;
     let sea_at = |t: f64| sea(t, 35.0, 0.0);
     type WaterAt<'a> = &'a dyn Fn(f64) -> Water;
     let cases: [(WaterAt, Measured, f64); 2] = [
@@ -845,14 +837,7 @@ fn moved_constants_stay_moved_where_the_state_is_reported_elsewhere() {
 fn moved_constants_stay_moved_in_a_treated_water_with_calcium() {
     use travertine::decisions::dose::{Chemical, DoseRequest, Target};
     use travertine::decisions::dose_uncertainty::dose_uncertainty;
-    let pond = Water::fresh(Conditions::new(15.0, 0.2).unwrap())
-        .unwrap()
-        .with_composition(
-            Composition::default()
-                .with_calcium(Amount::PerKg(1e-3))
-                .unwrap(),
-        );
-    let moved = pond
+    let moved = common::calcium_pond(15.0)
         .prepare()
         .and_then(|p| p.with_constants_perturbed(ConstantName::K1, 0.3))
         .unwrap();

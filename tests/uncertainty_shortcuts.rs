@@ -35,13 +35,7 @@ fn constants_moved_without_a_solve_move_every_output_as_a_solve_does() {
             .unwrap(),
     )
     .unwrap();
-    let pond = Water::fresh(Conditions::new(15.0, 0.2).unwrap())
-        .unwrap()
-        .with_composition(
-            Composition::default()
-                .with_calcium(Amount::PerKg(1e-3))
-                .unwrap(),
-        );
+    let pond = common::calcium_pond(15.0);
     let ions = common::ions_water();
     let bare = Water::fresh(Conditions::new(12.0, 0.1).unwrap()).unwrap();
     let ph = |v| Measured::ph(v, None).unwrap();

@@ -429,3 +429,17 @@ pub fn ions_water() -> Water {
                 .unwrap(),
         )
 }
+
+/// An invented pond at `t_c` °C: salinity 0.2 (the route of its ionic
+/// strength) and 1 mmol/kg of calcium, the uncertainty tests' fresh water
+/// with calcium pairs.
+pub fn calcium_pond(t_c: f64) -> Water {
+    use travertine::{units::Amount, Composition, Conditions};
+    Water::fresh(Conditions::new(t_c, 0.2).unwrap())
+        .unwrap()
+        .with_composition(
+            Composition::default()
+                .with_calcium(Amount::PerKg(1e-3))
+                .unwrap(),
+        )
+}
